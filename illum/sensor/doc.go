@@ -1,0 +1,2 @@
+// Package sensor is part of sunsight (see DEVELOPERS.md); its doc is written with its model.
+package sensor

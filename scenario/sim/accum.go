@@ -1,0 +1,220 @@
+package sim
+
+import "math"
+
+// Moments accumulates count, mean, variance (Welford 1962, Technometrics 4(3):419–420,
+// from memory), RMS, minimum and maximum of a stream without storing it.
+type Moments struct {
+	N        int
+	mean, m2 float64
+	sumSq    float64
+	Min, Max float64
+}
+
+// Add folds x into the moments.
+func (m *Moments) Add(x float64) {
+	m.N++
+	if m.N == 1 {
+		m.Min, m.Max = x, x
+	} else {
+		m.Min = math.Min(m.Min, x)
+		m.Max = math.Max(m.Max, x)
+	}
+	d := x - m.mean
+	m.mean += d / float64(m.N)
+	m.m2 += d * (x - m.mean)
+	m.sumSq += x * x
+}
+
+// Mean returns the mean, NaN when empty.
+func (m *Moments) Mean() float64 {
+	if m.N == 0 {
+		return math.NaN()
+	}
+	return m.mean
+}
+
+// StdDev returns the sample standard deviation, NaN with fewer than two values.
+func (m *Moments) StdDev() float64 {
+	if m.N < 2 {
+		return math.NaN()
+	}
+	return math.Sqrt(m.m2 / float64(m.N-1))
+}
+
+// RMS returns the root mean square, NaN when empty.
+func (m *Moments) RMS() float64 {
+	if m.N == 0 {
+		return math.NaN()
+	}
+	return math.Sqrt(m.sumSq / float64(m.N))
+}
+
+// Merge folds another accumulator into m (Chan, Golub & LeVeque 1979 pairwise
+// update, from memory).
+func (m *Moments) Merge(o *Moments) {
+	if o.N == 0 {
+		return
+	}
+	if m.N == 0 {
+		*m = *o
+		return
+	}
+	n := float64(m.N + o.N)
+	d := o.mean - m.mean
+	m.m2 += o.m2 + d*d*float64(m.N)*float64(o.N)/n
+	m.mean += d * float64(o.N) / n
+	m.sumSq += o.sumSq
+	m.N += o.N
+	m.Min = math.Min(m.Min, o.Min)
+	m.Max = math.Max(m.Max, o.Max)
+}
+
+// Log-spaced histogram limits for angle errors, in degrees: bins grow by the
+// ratio quantRatio from quantMin up to 180°, so a quantile is resolved to
+// 0.05 % of its value (common practice, no source: a streaming quantile by
+// fine binning instead of storing the samples).
+const (
+	quantMin   = 1e-7
+	quantRatio = 1.001
+)
+
+var quantBins = int(math.Ceil(math.Log(180/quantMin)/math.Log(quantRatio))) + 2
+
+// Quantiles estimates quantiles of a non-negative stream (angles in degrees,
+// durations in seconds up to 180 × 1e7 s are fine too) with a fixed
+// log-spaced histogram: memory is constant, the relative resolution is
+// (quantRatio−1)/2. Values below quantMin fall in the first bin (reported as
+// 0) and values above the last edge in the last.
+type Quantiles struct {
+	counts []uint64
+	n      uint64
+	max    float64
+}
+
+// NewQuantiles returns an empty accumulator.
+func NewQuantiles() *Quantiles {
+	return &Quantiles{counts: make([]uint64, quantBins)}
+}
+
+var logRatio = math.Log(quantRatio)
+
+func binOf(x float64) int {
+	if !(x > quantMin) {
+		return 0
+	}
+	i := int(math.Log(x/quantMin)/logRatio) + 1
+	if i >= quantBins {
+		i = quantBins - 1
+	}
+	return i
+}
+
+// binCentre is the geometric centre of bin i.
+func binCentre(i int) float64 {
+	if i == 0 {
+		return 0
+	}
+	return quantMin * math.Pow(quantRatio, float64(i-1)+0.5)
+}
+
+// Add records x.
+func (q *Quantiles) Add(x float64) {
+	q.counts[binOf(x)]++
+	q.n++
+	if x > q.max {
+		q.max = x
+	}
+}
+
+// N returns the number of values recorded.
+func (q *Quantiles) N() uint64 { return q.n }
+
+// Quantile returns the p-quantile (0 ≤ p ≤ 1) by the empirical rule (the
+// smallest value with at least p·N values at or below it), NaN when empty.
+func (q *Quantiles) Quantile(p float64) float64 {
+	if q.n == 0 {
+		return math.NaN()
+	}
+	if p >= 1 {
+		return q.max
+	}
+	rank := uint64(math.Ceil(p * float64(q.n)))
+	if rank < 1 {
+		rank = 1
+	}
+	var cum uint64
+	for i, c := range q.counts {
+		cum += c
+		if cum >= rank {
+			return math.Min(binCentre(i), q.max)
+		}
+	}
+	return q.max
+}
+
+// Merge adds another accumulator's counts.
+func (q *Quantiles) Merge(o *Quantiles) {
+	for i, c := range o.counts {
+		q.counts[i] += c
+	}
+	q.n += o.n
+	q.max = math.Max(q.max, o.max)
+}
+
+// CDF returns up to n points (value, fraction at or below) of the empirical
+// distribution, for plotting.
+func (q *Quantiles) CDF(n int) (x, f []float64) {
+	if q.n == 0 || n < 2 {
+		return nil, nil
+	}
+	for k := 1; k <= n; k++ {
+		p := float64(k) / float64(n)
+		x = append(x, q.Quantile(p))
+		f = append(f, p)
+	}
+	return x, f
+}
+
+// Spells tracks runs of consecutive "on" samples on a uniform grid (for example
+// sunlit time without a valid sun vector) and keeps their durations: the count
+// is bounded by the number of runs, not of samples.
+type Spells struct {
+	step      float64
+	running   bool
+	start     float64
+	Durations []float64
+	Longest   float64
+	LongestAt float64
+}
+
+// NewSpells starts a tracker on a grid of the given step (s).
+func NewSpells(step float64) *Spells { return &Spells{step: step} }
+
+// Observe records the state at time t (s). A run lasts from its first on
+// sample to the first off sample after it, so a single on sample counts one
+// step.
+func (s *Spells) Observe(t float64, on bool) {
+	switch {
+	case on && !s.running:
+		s.running, s.start = true, t
+	case !on && s.running:
+		s.close(t)
+	}
+}
+
+// Finish closes an open run at the end time t (exclusive).
+func (s *Spells) Finish(t float64) {
+	if s.running {
+		s.close(t)
+	}
+}
+
+func (s *Spells) close(t float64) {
+	d := t - s.start
+	s.Durations = append(s.Durations, d)
+	if d > s.Longest {
+		s.Longest, s.LongestAt = d, s.start
+	}
+	s.running = false
+}

@@ -1,0 +1,85 @@
+package sim
+
+import (
+	"math"
+	"math/rand/v2"
+	"sort"
+	"testing"
+
+	"gonum.org/v1/gonum/stat"
+)
+
+// The streaming accumulators are checked against gonum's whole-slice
+// statistics (a general-purpose reference library).
+func TestMomentsMatchGonum(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	xs := make([]float64, 10001)
+	var a, b Moments
+	for i := range xs {
+		xs[i] = rng.NormFloat64()*3 + 7
+		if i%2 == 0 {
+			a.Add(xs[i])
+		} else {
+			b.Add(xs[i])
+		}
+	}
+	a.Merge(&b)
+	mean, sd := stat.MeanStdDev(xs, nil)
+	if math.Abs(a.Mean()-mean) > 1e-12 || math.Abs(a.StdDev()-sd) > 1e-10 {
+		t.Fatalf("mean/sd %v %v, gonum %v %v", a.Mean(), a.StdDev(), mean, sd)
+	}
+	var ss float64
+	for _, x := range xs {
+		ss += x * x
+	}
+	if rms := math.Sqrt(ss / float64(len(xs))); math.Abs(a.RMS()-rms) > 1e-12 {
+		t.Fatalf("rms %v, want %v", a.RMS(), rms)
+	}
+	sort.Float64s(xs)
+	if a.Min != xs[0] || a.Max != xs[len(xs)-1] {
+		t.Fatalf("min/max %v %v", a.Min, a.Max)
+	}
+}
+
+func TestQuantilesMatchGonumEmpirical(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	xs := make([]float64, 50000)
+	q := NewQuantiles()
+	for i := range xs {
+		xs[i] = math.Exp(rng.NormFloat64()) // log-normal, degrees
+		q.Add(xs[i])
+	}
+	sort.Float64s(xs)
+	for _, p := range []float64{0.01, 0.5, 0.95, 0.99, 0.999} {
+		want := stat.Quantile(p, stat.Empirical, xs, nil)
+		got := q.Quantile(p)
+		if rel := math.Abs(got-want) / want; rel > 6e-4 {
+			t.Errorf("p%v: %v, gonum %v (rel %v)", p, got, want, rel)
+		}
+	}
+	if q.Quantile(1) != xs[len(xs)-1] {
+		t.Errorf("max %v", q.Quantile(1))
+	}
+}
+
+func TestSpellsDurations(t *testing.T) {
+	s := NewSpells(10)
+	// on at 10,20,30 (run 10..40 = 30 s), off, on at 60 (run 60..70), on at 90 to end 110.
+	on := map[float64]bool{10: true, 20: true, 30: true, 60: true, 90: true, 100: true}
+	for t := 0.0; t < 110; t += 10 {
+		s.Observe(t, on[t])
+	}
+	s.Finish(110)
+	want := []float64{30, 10, 20}
+	if len(s.Durations) != 3 {
+		t.Fatalf("durations %v", s.Durations)
+	}
+	for i := range want {
+		if s.Durations[i] != want[i] {
+			t.Fatalf("durations %v, want %v", s.Durations, want)
+		}
+	}
+	if s.Longest != 30 || s.LongestAt != 10 {
+		t.Fatalf("longest %v at %v", s.Longest, s.LongestAt)
+	}
+}

@@ -2,8 +2,11 @@ package ephem
 
 import "math"
 
-// arcsec is one second of arc in radians.
-const arcsec = math.Pi / (180 * 3600)
+// deg and arcsec are one degree and one second of arc in radians.
+const (
+	deg    = math.Pi / 180
+	arcsec = deg / 3600
+)
 
 // mat3 is a 3×3 rotation matrix, row-major, kept as a value so the step
 // loop does not allocate.

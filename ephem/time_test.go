@@ -10,8 +10,6 @@ import (
 	"time"
 )
 
-const deg = math.Pi / 180
-
 // readCSV reads a generator's output under testdata/, skipping '#' lines
 // and the header row.
 func readCSV(t testing.TB, name string) [][]string {

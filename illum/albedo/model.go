@@ -1,0 +1,313 @@
+package albedo
+
+import (
+	"fmt"
+	"math"
+	"time"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// Sensor is a small flat sensor seen by the albedo model.
+type Sensor struct {
+	Normal    r3.Vec   // boresight, unit, EME2000
+	HalfAngle float64  // cone field of view, rad, (0, π/2]
+	Response  Response // relative response vs incidence; zero value = cosine
+}
+
+// Validate reports a sensor the model cannot use; field names the sensor in
+// the caller's terms (for example "sensors[2]").
+func (s Sensor) Validate(field string) error {
+	n := r3.Norm(s.Normal)
+	if math.IsNaN(n) || math.Abs(n-1) > 1e-6 {
+		return fmt.Errorf("albedo: %s.normal has length %g: give a unit vector", field, n)
+	}
+	if !(s.HalfAngle > 0 && s.HalfAngle <= math.Pi/2) {
+		return fmt.Errorf("albedo: %s.half_angle = %g rad: must lie in (0, π/2]", field, s.HalfAngle)
+	}
+	return nil
+}
+
+// Result is the albedo seen by one sensor.
+type Result struct {
+	// Irradiance is ∫ L(ω)·R(θ) dω over the field of view, W/m². For a cosine
+	// sensor it is the irradiance on the sensor plane; compare it with
+	// S·R(θ_sun) of the direct sun.
+	Irradiance float64
+	// Dir is the irradiance-weighted mean arrival direction (unit, EME2000,
+	// from the spacecraft toward the Earth); the zero vector when Irradiance is 0.
+	Dir r3.Vec
+	// Fill is the fraction of the field-of-view solid angle filled by sunlit,
+	// visible Earth, in [0, 1].
+	Fill float64
+}
+
+// Config sets up a Model.
+type Config struct {
+	// Reflectance of the Earth; nil means Uniform{DefaultAlbedo}.
+	Reflectance Reflectance
+	// Cells on the visible cap; 0 means DefaultCells. See the convergence
+	// table in the package documentation.
+	Cells int
+	// AltitudeKm builds the cap geometry ahead of the first call; 0 means
+	// "any altitude": the geometry is built at the first call.
+	AltitudeKm float64
+	// RebuildKm: the geometry is rebuilt when the orbit radius differs from
+	// the one it was built for by more than this; 0 means DefaultRebuildKm.
+	RebuildKm float64
+}
+
+// Model integrates Earth albedo over the visible cap. A Model keeps scratch
+// space: use one per goroutine.
+type Model struct {
+	refl      Reflectance
+	kind      int
+	n         int
+	rebuildKm float64
+	geo       capGeometry
+	lit       []litCell
+}
+
+const (
+	kindUniform = iota
+	kindZonal
+	kindGrid
+	kindOther
+)
+
+// litCell is a cell that is sunlit at this step, with its radiance weight.
+type litCell struct {
+	ux, uy, uz float64 // spacecraft → cell, cap frame
+	w          float64 // ρ S cos θ☉ g: Σ w cos θ is the cosine-sensor irradiance
+	ω          float64 // solid angle of the cell seen from the spacecraft, sr
+}
+
+// New returns a model, or an error naming the field of cfg that is wrong.
+func New(cfg Config) (*Model, error) {
+	m := &Model{refl: cfg.Reflectance, n: cfg.Cells, rebuildKm: cfg.RebuildKm}
+	if m.refl == nil {
+		m.refl = Uniform{Albedo: DefaultAlbedo}
+	}
+	if err := checkReflectance(m.refl); err != nil {
+		return nil, err
+	}
+	switch m.refl.(type) {
+	case Uniform:
+		m.kind = kindUniform
+	case Zonal:
+		m.kind = kindZonal
+	case *Grid:
+		m.kind = kindGrid
+	default:
+		m.kind = kindOther
+	}
+	if m.n == 0 {
+		m.n = DefaultCells
+	}
+	if m.n < 16 || m.n > 1_000_000 {
+		return nil, fmt.Errorf("albedo: config.cells = %d: must lie in [16, 1000000] (0 for the default %d)", cfg.Cells, DefaultCells)
+	}
+	if m.rebuildKm == 0 {
+		m.rebuildKm = DefaultRebuildKm
+	}
+	if !(m.rebuildKm > 0) || math.IsInf(m.rebuildKm, 0) {
+		return nil, fmt.Errorf("albedo: config.rebuild_km = %g: must be a positive distance in km (0 for the default %g)", cfg.RebuildKm, DefaultRebuildKm)
+	}
+	if math.IsNaN(cfg.AltitudeKm) || cfg.AltitudeKm < 0 || math.IsInf(cfg.AltitudeKm, 0) {
+		return nil, fmt.Errorf("albedo: config.altitude_km = %g: must be a finite altitude ≥ 0 km (0 for any altitude)", cfg.AltitudeKm)
+	}
+	m.lit = make([]litCell, 0, m.n)
+	if cfg.AltitudeKm > 0 {
+		m.geo.build(EarthRadiusKm+cfg.AltitudeKm, m.n)
+	}
+	return m, nil
+}
+
+// Cells returns the number of cells on the visible cap.
+func (m *Model) Cells() int { return m.n }
+
+// capFrame returns the unit basis (ex, ey, ez) of the cap frame, ez toward rSat.
+func capFrame(rSat r3.Vec, r float64) (ex, ey, ez r3.Vec) {
+	ez = r3.Scale(1/r, rSat)
+	ref := r3.Vec{Z: 1}
+	if math.Abs(ez.Z) > 0.9 {
+		ref = r3.Vec{X: 1}
+	}
+	ex = r3.Unit(r3.Cross(ref, ez))
+	ey = r3.Cross(ez, ex)
+	return ex, ey, ez
+}
+
+// ensureGeometry rebuilds the cap cells when r has drifted by more than RebuildKm.
+func (m *Model) ensureGeometry(r float64) {
+	if len(m.geo.cells) == 0 || math.Abs(r-m.geo.rKm) > m.rebuildKm {
+		m.geo.build(r, m.n)
+	}
+}
+
+func toFrame(v, ex, ey, ez r3.Vec) r3.Vec {
+	return r3.Vec{X: r3.Dot(v, ex), Y: r3.Dot(v, ey), Z: r3.Dot(v, ez)}
+}
+
+// Irradiance writes into dst[i] the albedo seen by sensors[i], for a spacecraft
+// at rSat (km, EME2000), a sun in unit direction sunDir at sunDistKm (the sun
+// is taken at infinity for the direction, its distance scales S), the
+// Greenwich mean sidereal angle gmst (rad) and the Julian date jdTT. It does
+// not allocate. dst must be at least as long as sensors. A spacecraft at or
+// below the surface gets zero results.
+func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, jdTT float64, sensors []Sensor) {
+	if len(dst) < len(sensors) {
+		panic("albedo: dst shorter than sensors")
+	}
+	for i := range sensors {
+		dst[i] = Result{}
+	}
+	r := r3.Norm(rSat)
+	if !(r > EarthRadiusKm) || !(sunDistKm > 0) {
+		return
+	}
+	m.ensureGeometry(r)
+	ex, ey, ez := capFrame(rSat, r)
+	s := toFrame(sunDir, ex, ey, ez)
+	q := AUKm / sunDistKm
+	irr := SolarIrradiance1AU * q * q // S(d) = S₀ (AU/d)²
+
+	// Pass 1, shared by all sensors: keep the sunlit cells with their radiance.
+	lit := m.lit[:0]
+	switch m.kind {
+	case kindUniform:
+		k := m.refl.(Uniform).Albedo * irr
+		for i := range m.geo.cells {
+			c := &m.geo.cells[i]
+			cs := c.px*s.X + c.py*s.Y + c.pz*s.Z // N̂·ŝ
+			if cs <= 0 {
+				continue
+			}
+			lit = append(lit, litCell{c.ux, c.uy, c.uz, k * cs * c.g, math.Pi * c.g})
+		}
+	case kindZonal:
+		z := m.refl.(Zonal)
+		a1 := z.a1(jdTT)
+		pole := r3.Vec{X: ex.Z, Y: ey.Z, Z: ez.Z} // EME2000 z axis in the cap frame
+		for i := range m.geo.cells {
+			c := &m.geo.cells[i]
+			cs := c.px*s.X + c.py*s.Y + c.pz*s.Z
+			if cs <= 0 {
+				continue
+			}
+			sφ := c.px*pole.X + c.py*pole.Y + c.pz*pole.Z
+			lit = append(lit, litCell{c.ux, c.uy, c.uz, z.at(sφ, a1) * irr * cs * c.g, math.Pi * c.g})
+		}
+	default:
+		var month int
+		g, isGrid := m.refl.(*Grid)
+		if isGrid {
+			month = monthOf(jdTT)
+		}
+		for i := range m.geo.cells {
+			c := &m.geo.cells[i]
+			cs := c.px*s.X + c.py*s.Y + c.pz*s.Z
+			if cs <= 0 {
+				continue
+			}
+			x := c.px*ex.X + c.py*ey.X + c.pz*ez.X
+			y := c.px*ex.Y + c.py*ey.Y + c.pz*ez.Y
+			zz := c.px*ex.Z + c.py*ey.Z + c.pz*ez.Z
+			lat := math.Asin(min(1, max(-1, zz)))
+			lon := math.Atan2(y, x) - gmst // Earth-fixed longitude through GMST
+			var ρ float64
+			if isGrid {
+				ρ = g.at(lat, lon, month)
+			} else {
+				ρ = min(1, max(0, m.refl.Reflectance(lat, lon, jdTT)))
+			}
+			lit = append(lit, litCell{c.ux, c.uy, c.uz, ρ * irr * cs * c.g, math.Pi * c.g})
+		}
+	}
+	m.lit = lit
+
+	// Pass 2: each sensor sums over the lit cells in its cone.
+	for i := range sensors {
+		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez)
+	}
+}
+
+// sumSensor integrates the lit cells over one sensor's cone.
+func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec) Result {
+	n := toFrame(sn.Normal, ex, ey, ez)
+	cosH := math.Cos(sn.HalfAngle)
+	if sn.HalfAngle >= math.Pi/2 {
+		cosH = 0
+	}
+	var e, dx, dy, dz, ω float64
+	if sn.Response.IsCosine() {
+		for k := range lit {
+			l := &lit[k]
+			c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
+			if c <= cosH {
+				continue
+			}
+			we := l.w * c
+			e += we
+			dx += we * l.ux
+			dy += we * l.uy
+			dz += we * l.uz
+			ω += l.ω
+		}
+	} else {
+		for k := range lit {
+			l := &lit[k]
+			c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz
+			if c <= cosH {
+				continue
+			}
+			we := l.w * sn.Response.At(c)
+			e += we
+			dx += we * l.ux
+			dy += we * l.uy
+			dz += we * l.uz
+			ω += l.ω
+		}
+	}
+	var res Result
+	if e > 0 {
+		res.Irradiance = e
+		d := r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez))
+		res.Dir = r3.Unit(d)
+	}
+	res.Fill = min(1, ω/(2*math.Pi*(1-cosH)))
+	return res
+}
+
+// ViewFactor returns the geometric view factor from a flat element with unit
+// normal (EME2000) and cone half-angle halfAngle at rSat to the whole visible
+// Earth, treating the Earth as a uniform Lambertian emitter (no sun, no
+// reflectance), through the same cells and sensor sum as Irradiance.
+// For halfAngle = π/2 it is the plane-element-to-sphere configuration factor.
+func (m *Model) ViewFactor(rSat, normal r3.Vec, halfAngle float64) float64 {
+	r := r3.Norm(rSat)
+	if !(r > EarthRadiusKm) {
+		return 0
+	}
+	m.ensureGeometry(r)
+	ex, ey, ez := capFrame(rSat, r)
+	lit := m.lit[:0]
+	for i := range m.geo.cells {
+		c := &m.geo.cells[i]
+		lit = append(lit, litCell{c.ux, c.uy, c.uz, c.g, math.Pi * c.g})
+	}
+	m.lit = lit
+	s := Sensor{Normal: normal, HalfAngle: halfAngle}
+	return sumSensor(lit, &s, ex, ey, ez).Irradiance
+}
+
+// monthOf returns the calendar month 1…12 of Julian date jd (the TT–UTC
+// difference of about a minute is ignored for a monthly map).
+func monthOf(jd float64) int {
+	const unixEpochJD = 2440587.5
+	sec := (jd - unixEpochJD) * 86400
+	if math.IsNaN(sec) || math.Abs(sec) > 1e15 {
+		return 1
+	}
+	return int(time.Unix(int64(math.Floor(sec)), 0).UTC().Month())
+}

@@ -1,0 +1,48 @@
+package orbit
+
+import (
+	"math"
+	"time"
+
+	"gonum.org/v1/gonum/spatial/r3"
+	"sunsight/ephem"
+)
+
+// RAANFromLTAN returns the RAAN (rad, [0, 2π), EME2000) of the ascending
+// node that crosses the equator at local mean solar time ltanHours at the
+// epoch:
+//
+//	Ω = α☉mean + 15°/h · (LTAN − 12 h)
+//
+// (common practice, no source here; the ASCENDING node: an LTAN of 10:30
+// and one of 22:30 are 180° apart, and 22:30 is the same plane flown the
+// other way round the descending node). α☉mean is ephem.MeanSunRA2000.
+func RAANFromLTAN(ltanHours float64, epoch time.Time) float64 {
+	α := ephem.MeanSunRA2000(ephem.JulianDateTT(epoch))
+	return wrap2π(α + (ltanHours-12)*15*math.Pi/180)
+}
+
+// LTANFromRAAN is the inverse of RAANFromLTAN: the local mean solar time
+// (hours, [0, 24)) of the ascending node of RAAN raan at the epoch.
+func LTANFromRAAN(raan float64, epoch time.Time) float64 {
+	α := ephem.MeanSunRA2000(ephem.JulianDateTT(epoch))
+	h := 12 + wrapπ(raan-α)*12/math.Pi
+	if h >= 24 {
+		h -= 24
+	}
+	return h
+}
+
+// LVLH returns the local-vertical local-horizontal axes of state s in the
+// inertial frame: z toward nadir (−r̂), y opposite the orbit normal
+// (−(r × v)/|r × v|), and x = y × z, which completes a right-handed triad
+// and is the velocity direction for a circular orbit (in general the
+// along-track direction perpendicular to r). (Common practice, no source;
+// the convention of most attitude texts for nadir pointing.)
+func LVLH(s State) (x, y, z r3.Vec) {
+	z = r3.Scale(-1/r3.Norm(s.R), s.R)
+	h := r3.Cross(s.R, s.V)
+	y = r3.Scale(-1/r3.Norm(h), h)
+	x = r3.Cross(y, z)
+	return x, y, z
+}

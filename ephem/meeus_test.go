@@ -78,3 +78,14 @@ func TestSunByNameMeeus(t *testing.T) {
 		t.Errorf("meeus gave %T", s)
 	}
 }
+
+func TestMeeusIsApparent(t *testing.T) {
+	// Meeus gets −20.4898″/R added (Meeus 1998 (25.10) p. 167), so like
+	// LowPrecision it must sit on ERFA's apparent direction, not the
+	// geometric one.
+	app, geo := alongTrackBias(Meeus{}, readERFASun(t))
+	t.Logf("meeus mean along-track offset: %.2f″ from apparent, %.2f″ from geometric", app, geo)
+	if math.Abs(app) >= math.Abs(geo) || math.Abs(app) > 10 {
+		t.Errorf("meeus looks geometric: %.2f″ from apparent, %.2f″ from geometric", app, geo)
+	}
+}

@@ -163,3 +163,29 @@ func ExampleLowPrecision_Position() {
 	// Output:
 	// RA 281.384°, Dec -23.023°, distance 0.983306 AU
 }
+
+// alongTrackBias returns the mean offset (arcsec) of the model from the
+// ERFA apparent and geometric directions, measured along the direction of
+// the aberration shift (geometric → apparent, about 20.5″ long).
+func alongTrackBias(sun Sun, ref []erfaSun) (vsApparent, vsGeometric float64) {
+	for _, r := range ref {
+		u, _ := sun.Position(r.jdTT)
+		e := r3.Unit(r3.Sub(r.app, r.geo))
+		vsApparent += r3.Dot(r3.Sub(u, r.app), e)
+		vsGeometric += r3.Dot(r3.Sub(u, r.geo), e)
+	}
+	n := float64(len(ref)) * arcsec
+	return vsApparent / n, vsGeometric / n
+}
+
+func TestLowPrecisionIsApparent(t *testing.T) {
+	// The AA mean longitude includes annual aberration (AA section C), so
+	// the model's mean along-track offset must be closer to ERFA's
+	// apparent direction than to the geometric one (they are 20.5″ apart;
+	// Meeus 1998 (25.10) p. 167).
+	app, geo := alongTrackBias(LowPrecision{}, readERFASun(t))
+	t.Logf("low-precision mean along-track offset: %.2f″ from apparent, %.2f″ from geometric", app, geo)
+	if math.Abs(app) >= math.Abs(geo) || math.Abs(app) > 10 {
+		t.Errorf("low-precision looks geometric: %.2f″ from apparent, %.2f″ from geometric", app, geo)
+	}
+}

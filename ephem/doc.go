@@ -37,7 +37,7 @@
 //   - UT1 = UTC (|UT1 − UTC| < 0.9 s, at most 0.0038° of Earth rotation).
 //   - After 2017-01-01 ΔAT = 37 s is held (no later leap second is known
 //     to the table); before 1972 ΔAT = 10 s is held, which is wrong by up
-//     to a few seconds of time.
+//     to 8.6 s of time.
 //   - TDB = TT (they differ by < 2 ms).
 //   - Geocentric sun: the parallax of a LEO spacecraft (≤ 8000 km / 1 AU
 //     ≈ 11″) is left to the caller, who has the spacecraft position.

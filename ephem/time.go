@@ -62,8 +62,9 @@ var leapTable = func() []leapStep {
 // TT by 1 s (about 4e-5° of solar motion, far below the sun models'
 // errors). Before 1972-01-01 UTC ran on "rubber seconds" with fractional
 // offsets; this function returns the first value, 10 s, there, which is
-// wrong by up to about 6 s for the 1960s (and more before 1961), again
-// negligible for the sun models but not for precise timing.
+// wrong by up to 8.6 s (ΔAT ran from 1.42 s in 1961 to 9.89 s at the end
+// of 1971, ERFA eraDat) and undefined before 1961 — negligible for the sun
+// models, not for precise timing.
 func TAIMinusUTC(utc time.Time) float64 {
 	s := utc.Unix()
 	if s < leapTable[0].start {

@@ -19,11 +19,7 @@
 //     date, precessed to EME2000.
 //   - "meeus" (Meeus): Meeus 1998 ch. 25 low-accuracy theory through
 //     github.com/soniakeys/meeus/v3 (solar.True2000, solar.Radius), rotated
-//     into EME2000 by the J2000 obliquity. It is compiled only with the
-//     build tag sunsight_meeus for now: the module's go.mod and go.sum lack
-//     github.com/soniakeys/unit v1.0.0, which meeus/v3 imports, and adding
-//     them is outside this package. Once they are added, drop the tag from
-//     meeus.go and meeus_test.go.
+//     into EME2000 by the J2000 obliquity.
 //
 // Both models return the apparent direction (annual aberration included,
 // about 20.5″: the AA mean longitude carries it and Meeus gets

@@ -1,5 +1,3 @@
-//go:build sunsight_meeus
-
 package ephem
 
 import (

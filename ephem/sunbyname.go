@@ -7,9 +7,7 @@ import (
 )
 
 // sunModels maps each model name to its constructor. "meeus" is added by
-// meeus.go, which is built only with the sunsight_meeus build tag until the
-// module's go.mod/go.sum list github.com/soniakeys/unit (a dependency of
-// meeus/v3 that go.sum lacks); see doc.go.
+// meeus.go.
 var sunModels = map[string]func() Sun{
 	"low-precision": func() Sun { return LowPrecision{} },
 }

@@ -6,8 +6,9 @@ import "math"
 // disc as seen from radius r, in the cap frame (z toward the spacecraft, origin
 // at the Earth's centre). It is built once per radius and only read afterwards.
 type capGeometry struct {
-	rKm   float64
-	cells []cell
+	rKm       float64
+	halfWidth float64 // half the angular size of a cell, √a/2 rad
+	cells     []cell
 }
 
 // cell is one cell of the visible Earth disc.
@@ -42,6 +43,7 @@ func (geo *capGeometry) build(rKm float64, n int) {
 	η := math.Asin(sinη)
 	cosη := math.Cos(η)
 	a := 2 * math.Pi * (1 - cosη) / float64(n) // solid angle per cell, sr
+	geo.halfWidth = 0.5 * math.Sqrt(a)
 
 	add := func(α, φ float64) {
 		sα, cα := math.Sincos(α)

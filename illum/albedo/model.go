@@ -228,46 +228,65 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 
 	// Pass 2: each sensor sums over the lit cells in its cone.
 	for i := range sensors {
-		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez)
+		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez, m.geo.halfWidth)
 	}
 }
 
 // sumSensor integrates the lit cells over one sensor's cone.
-func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec) Result {
+func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, halfWidth float64) Result {
 	n := toFrame(sn.Normal, ex, ey, ez)
 	cosH := math.Cos(sn.HalfAngle)
 	if sn.HalfAngle >= math.Pi/2 {
 		cosH = 0
 	}
 	var e, dx, dy, dz, ω float64
-	if sn.Response.IsCosine() {
-		for k := range lit {
-			l := &lit[k]
-			c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
-			if c <= cosH {
-				continue
-			}
-			we := l.w * c
-			e += we
-			dx += we * l.ux
-			dy += we * l.uy
-			dz += we * l.uz
-			ω += l.ω
+	// Cells within hw of the cone edge are cut by it: the sensor weight is
+	// averaged over the cell, taking cos θ as uniform on [c − δ, c + δ],
+	// δ = hw·sin θ (hw = half the angular cell size). Away from the edge the
+	// weight is cos θ (cosine) or R(θ) at the centre.
+	hw := halfWidth
+	cosine := sn.Response.IsCosine()
+	for k := range lit {
+		l := &lit[k]
+		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
+		if c <= cosH-hw {
+			continue
 		}
-	} else {
-		for k := range lit {
-			l := &lit[k]
-			c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz
-			if c <= cosH {
-				continue
+		var we, frac float64
+		if c >= cosH+hw {
+			frac = 1
+			if cosine {
+				we = l.w * c
+			} else {
+				we = l.w * sn.Response.At(c)
 			}
-			we := l.w * sn.Response.At(c)
-			e += we
-			dx += we * l.ux
-			dy += we * l.uy
-			dz += we * l.uz
-			ω += l.ω
+		} else {
+			δ := hw * math.Sqrt(max(0, 1-c*c))
+			lo, hi := max(cosH, c-δ), c+δ
+			if lo >= hi || δ == 0 {
+				if c <= cosH {
+					continue
+				}
+				lo, hi, δ = c, c, 0
+			}
+			if δ > 0 {
+				frac = (hi - lo) / (2 * δ)
+				// mean of R over [lo, hi] × fraction: for cosine (hi² − lo²)/(4δ)
+				if cosine {
+					we = l.w * (hi*hi - lo*lo) / (4 * δ)
+				} else {
+					we = l.w * frac * sn.Response.At(0.5*(lo+hi))
+				}
+			} else {
+				frac = 1
+				we = l.w * sn.Response.At(c)
+			}
 		}
+		e += we
+		dx += we * l.ux
+		dy += we * l.uy
+		dz += we * l.uz
+		ω += frac * l.ω
 	}
 	var res Result
 	if e > 0 {
@@ -298,7 +317,7 @@ func (m *Model) ViewFactor(rSat, normal r3.Vec, halfAngle float64) float64 {
 	}
 	m.lit = lit
 	s := Sensor{Normal: normal, HalfAngle: halfAngle}
-	return sumSensor(lit, &s, ex, ey, ez).Irradiance
+	return sumSensor(lit, &s, ex, ey, ez, m.geo.halfWidth).Irradiance
 }
 
 // monthOf returns the calendar month 1…12 of Julian date jd (the TT–UTC

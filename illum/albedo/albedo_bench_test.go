@@ -1,0 +1,51 @@
+package albedo
+
+import (
+	"math"
+	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// faceSensors returns six cosine sensors on the faces of a cube in EME2000
+// axes, hemispherical field of view.
+func faceSensors() []Sensor {
+	ax := []r3.Vec{{X: 1}, {X: -1}, {Y: 1}, {Y: -1}, {Z: 1}, {Z: -1}}
+	out := make([]Sensor, len(ax))
+	for i, n := range ax {
+		out[i] = Sensor{Normal: n, HalfAngle: math.Pi / 2}
+	}
+	return out
+}
+
+func benchIrradiance(b *testing.B, cfg Config) {
+	m, err := New(cfg)
+	if err != nil {
+		b.Fatal(err)
+	}
+	sensors := faceSensors()
+	dst := make([]Result, len(sensors))
+	rSat := r3.Scale(EarthRadiusKm+550, r3.Unit(r3.Vec{X: 0.6, Y: 0.5, Z: 0.62}))
+	sun := r3.Unit(r3.Vec{X: 0.9, Y: 0.4, Z: 0.17}) // about 35° from zenith
+	m.Irradiance(dst, rSat, sun, AUKm, 1.2, 2461000.5, sensors)
+	b.ReportAllocs()
+	for b.Loop() {
+		m.Irradiance(dst, rSat, sun, AUKm, 1.2, 2461000.5, sensors)
+	}
+}
+
+func BenchmarkIrradianceSixSensors(b *testing.B) {
+	b.Run("uniform/default", func(b *testing.B) { benchIrradiance(b, Config{}) })
+	b.Run("zonal/default", func(b *testing.B) { benchIrradiance(b, Config{Reflectance: KnockeZonal()}) })
+	b.Run("uniform/6000", func(b *testing.B) { benchIrradiance(b, Config{Cells: 6000}) })
+}
+
+// BenchmarkRebuild measures one rebuild of the cap geometry (an altitude
+// change larger than RebuildKm).
+func BenchmarkRebuild(b *testing.B) {
+	var geo capGeometry
+	geo.build(EarthRadiusKm+550, DefaultCells)
+	for b.Loop() {
+		geo.build(EarthRadiusKm+551, DefaultCells)
+	}
+}

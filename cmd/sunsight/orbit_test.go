@@ -1,0 +1,74 @@
+package main
+
+import (
+	"bytes"
+	"strings"
+	"testing"
+)
+
+func TestOrbitCommand(t *testing.T) {
+	var out, errb bytes.Buffer
+	code := runMain([]string{"orbit", "--altitude-km", "550", "--ltan", "10:30", "--epoch", "2027-03-20T12:00:00Z"}, &out, &errb)
+	if code != 0 {
+		t.Fatalf("exit %d, stderr %s", code, errb.String())
+	}
+	// 550 km SSO: 97.593° (closed form cos i = −Ω̇☉/((3/2) n J2 (R/p)²),
+	// own calculation); node rate = mean sun 0.98565°/day (AA mean longitude
+	// rate); period 2π√(a³/μ) = 95.650 min (closed form).
+	for _, want := range []string{"sun-synchronous incl.  97.593 deg", "nodal drift            +0.98565 deg/day", "period                 95.650 min", "LTAN drift             none (sun-synchronous)"} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("output lacks %q:\n%s", want, out.String())
+		}
+	}
+}
+
+func TestOrbitCommandNonSSO(t *testing.T) {
+	var out, errb bytes.Buffer
+	code := runMain([]string{"orbit", "--altitude-km", "400", "--inclination-deg", "51.6", "--ltan", "06:00", "--epoch", "2027-03-20T12:00:00Z"}, &out, &errb)
+	if code != 0 {
+		t.Fatalf("exit %d, stderr %s", code, errb.String())
+	}
+	// 400 km, 51.6°: dΩ/dt = −5.0023°/day (closed form, own calculation).
+	// LTAN drift = (dΩ/dt − 0.98565°/day)·4 min/° = −23.951 min/day (closed form).
+	if !strings.Contains(out.String(), "nodal drift            -5.002") || !strings.Contains(out.String(), "LTAN drift             -23.95") {
+		t.Errorf("output:\n%s", out.String())
+	}
+}
+
+func TestOrbitCommandErrors(t *testing.T) {
+	base := []string{"--altitude-km", "550", "--ltan", "10:30", "--epoch", "2027-03-20T12:00:00Z"}
+	with := func(flag, val string) []string {
+		args := append([]string{"orbit"}, base...)
+		for i := range args {
+			if args[i] == flag {
+				args[i+1] = val
+				return args
+			}
+		}
+		return append(args, flag, val)
+	}
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{with("--altitude-km", "-5"), "--altitude-km"},
+		{with("--ecc", "1"), "--ecc"},
+		{with("--ltan", "25:00"), "--ltan"},
+		{with("--ltan", "10.5"), "HH:MM"},
+		{with("--epoch", "yesterday"), "--epoch"},
+		{with("--inclination-deg", "200"), "--inclination-deg"},
+		{with("--altitude-km", "9000"), "--altitude-km"}, // no SSO up there
+		{[]string{"orbit", "--ltan", "10:30"}, "--altitude-km is required"},
+		{[]string{"orbit", "--bogus"}, "bogus"},
+	} {
+		var out, errb bytes.Buffer
+		code := runMain(c.args, &out, &errb)
+		if code != 2 || !strings.Contains(errb.String(), c.want) || out.Len() != 0 {
+			t.Errorf("%v: exit %d, stderr %q, stdout %q; want exit 2 naming %q and no output", c.args, code, errb.String(), out.String(), c.want)
+		}
+	}
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"orbit", "-help"}, &out, &errb); code != 0 || !strings.Contains(errb.String(), "--altitude-km") {
+		t.Errorf("-help: exit %d, stderr %q", code, errb.String())
+	}
+}

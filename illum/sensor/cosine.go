@@ -1,0 +1,152 @@
+package sensor
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"slices"
+
+	"gonum.org/v1/gonum/interp"
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// CosineSpec describes a coarse cosine sun sensor (one photodiode).
+type CosineSpec struct {
+	Name  string
+	Mount Mount
+	// HalfAngle is the FOV cone half-angle (rad), in (0, π/2].
+	HalfAngle float64
+	// RollOffAngle and RollOffRel give an optional measured relative
+	// response versus incidence angle (rad, strictly increasing), which
+	// multiplies the cosine; linear interpolation, held constant past the
+	// ends. Empty means an ideal cosine.
+	RollOffAngle, RollOffRel []float64
+	// Threshold is the normalised signal below which the sensor counts as
+	// dark (not used by least squares).
+	Threshold float64
+	// RefIrradiance (W/m²) gives a signal of 1 at normal incidence; 0 means
+	// SolarConstant.
+	RefIrradiance float64
+	Errors        Errors
+}
+
+// Cosine is a coarse sun sensor: reading = gain·(S·R(θ)·[in FOV] + E_alb)/S_ref
+// + dark offset + noise, quantised and clipped.
+type Cosine struct {
+	spec    CosineSpec
+	cosHalf float64
+	rolloff *interp.PiecewiseLinear
+	lo, hi  float64 // roll-off table range
+	actual  Mount   // mount with its drawn misalignment
+	unit    unitErrors
+}
+
+// NewCosine checks the spec and returns an ideal unit (no drawn errors).
+func NewCosine(s CosineSpec) (*Cosine, error) {
+	if err := checkName(s.Name); err != nil {
+		return nil, err
+	}
+	if err := checkMount(s.Name, s.Mount); err != nil {
+		return nil, err
+	}
+	if !(s.HalfAngle > 0 && s.HalfAngle <= math.Pi/2) {
+		return nil, fmt.Errorf("sensor %q: half_angle = %g rad: want (0, 90°]", s.Name, s.HalfAngle)
+	}
+	if !(s.Threshold >= 0) || math.IsInf(s.Threshold, 0) {
+		return nil, fmt.Errorf("sensor %q: threshold = %g: want a finite value ≥ 0", s.Name, s.Threshold)
+	}
+	if !(s.RefIrradiance >= 0) || math.IsInf(s.RefIrradiance, 0) {
+		return nil, fmt.Errorf("sensor %q: ref_irradiance = %g: want W/m² > 0 (or 0 for the solar constant)", s.Name, s.RefIrradiance)
+	}
+	if s.RefIrradiance == 0 {
+		s.RefIrradiance = SolarConstant
+	}
+	if err := s.Errors.validate(s.Name); err != nil {
+		return nil, err
+	}
+	c := &Cosine{spec: s, cosHalf: math.Cos(s.HalfAngle), actual: s.Mount}
+	if len(s.RollOffAngle) > 0 || len(s.RollOffRel) > 0 {
+		if len(s.RollOffAngle) != len(s.RollOffRel) || len(s.RollOffAngle) < 2 {
+			return nil, fmt.Errorf("sensor %q: roll_off: want ≥ 2 (angle, relative response) pairs of equal length, got %d angles and %d values",
+				s.Name, len(s.RollOffAngle), len(s.RollOffRel))
+		}
+		for i, a := range s.RollOffAngle {
+			if i > 0 && !(a > s.RollOffAngle[i-1]) {
+				return nil, fmt.Errorf("sensor %q: roll_off angle %d (%g rad): want strictly increasing angles", s.Name, i, a)
+			}
+			if r := s.RollOffRel[i]; !(r >= 0) || math.IsInf(r, 0) {
+				return nil, fmt.Errorf("sensor %q: roll_off value %d (%g): want a finite relative response ≥ 0", s.Name, i, r)
+			}
+		}
+		c.spec.RollOffAngle = slices.Clone(s.RollOffAngle)
+		c.spec.RollOffRel = slices.Clone(s.RollOffRel)
+		c.rolloff = new(interp.PiecewiseLinear)
+		if err := c.rolloff.Fit(c.spec.RollOffAngle, c.spec.RollOffRel); err != nil {
+			return nil, fmt.Errorf("sensor %q: roll_off: %v", s.Name, err)
+		}
+		c.lo, c.hi = s.RollOffAngle[0], s.RollOffAngle[len(s.RollOffAngle)-1]
+	}
+	return c, nil
+}
+
+// Name implements Sensor.
+func (c *Cosine) Name() string { return c.spec.Name }
+
+// Kind implements Sensor.
+func (c *Cosine) Kind() Kind { return KindCosine }
+
+// Mount implements Sensor.
+func (c *Cosine) Mount() Mount { return c.spec.Mount }
+
+// Spec returns the sensor's specification.
+func (c *Cosine) Spec() CosineSpec { return c.spec }
+
+// HalfAngle implements Sensor.
+func (c *Cosine) HalfAngle() float64 { return c.spec.HalfAngle }
+
+// Sigma implements Sensor: a cosine sensor gives no direction alone.
+func (c *Cosine) Sigma() float64 { return 0 }
+
+// Threshold returns the dark threshold (normalised signal).
+func (c *Cosine) Threshold() float64 { return c.spec.Threshold }
+
+// InFOV implements Sensor (cone about the nominal boresight).
+func (c *Cosine) InFOV(dir r3.Vec) bool {
+	return c.inCone(r3.Dot(c.spec.Mount.Boresight(), dir))
+}
+
+func (c *Cosine) inCone(cosTheta float64) bool {
+	return cosTheta > 0 && cosTheta >= c.cosHalf
+}
+
+// Response implements Sensor: cos θ times the roll-off, zero outside the FOV.
+func (c *Cosine) Response(dir r3.Vec) float64 {
+	return c.response(r3.Dot(c.spec.Mount.Boresight(), dir))
+}
+
+func (c *Cosine) response(cosTheta float64) float64 {
+	if !c.inCone(cosTheta) {
+		return 0
+	}
+	if c.rolloff == nil {
+		return cosTheta
+	}
+	th := math.Acos(math.Min(cosTheta, 1))
+	th = math.Min(math.Max(th, c.lo), c.hi)
+	return cosTheta * c.rolloff.Predict(th)
+}
+
+// Read implements Sensor.
+func (c *Cosine) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) Reading {
+	e := direct*c.response(r3.Dot(c.actual.Boresight(), sun)) + alb.Irradiance
+	v := (1+c.unit.gain[0])*e/c.spec.RefIrradiance + c.unit.dark[0]
+	v, sat := c.spec.Errors.convert(v, noise)
+	return Reading{Signal: v, Valid: v > 0 && v >= c.spec.Threshold, Saturated: sat}
+}
+
+// Draw implements Sensor.
+func (c *Cosine) Draw(rng *rand.Rand) Sensor {
+	u := *c
+	u.actual, u.unit = drawUnit(c.spec.Errors, c.spec.Mount, 1, rng)
+	return &u
+}

@@ -1,0 +1,148 @@
+package sensor
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// DigitalSpec describes a digital (aperture over a detector array) sun sensor.
+type DigitalSpec struct {
+	Name  string
+	Mount Mount
+	// HalfAngle is the cone half-angle, or with Square the half-angle per
+	// sensor axis (rad), in (0, 90°).
+	HalfAngle float64
+	Square    bool
+	// Sigma is the stated 1σ accuracy per axis (rad); the readings get
+	// that noise on each axis angle.
+	Sigma float64
+	// MinIrradiance (W/m² on the detector, S·cos θ) is needed to detect the
+	// spot.
+	MinIrradiance float64
+	// AlbedoThreshold (W/m²): diffuse light below it is ignored; above it
+	// the centroid is pulled toward the albedo direction.
+	AlbedoThreshold float64
+	// MisalignSigma is the 1σ mounting error per axis (rad).
+	MisalignSigma float64
+}
+
+// Digital is a digital sun sensor.
+type Digital struct {
+	spec   DigitalSpec
+	tanMax float64
+	cosMax float64
+	actual Mount
+}
+
+// NewDigital checks the spec and returns an ideal unit.
+func NewDigital(s DigitalSpec) (*Digital, error) {
+	if err := checkName(s.Name); err != nil {
+		return nil, err
+	}
+	if err := checkMount(s.Name, s.Mount); err != nil {
+		return nil, err
+	}
+	if !(s.HalfAngle > 0 && s.HalfAngle < math.Pi/2) {
+		return nil, fmt.Errorf("sensor %q: half_angle = %g rad: want (0, 90°)", s.Name, s.HalfAngle)
+	}
+	for _, f := range []struct {
+		key string
+		v   float64
+	}{{"sigma", s.Sigma}, {"min_irradiance", s.MinIrradiance}, {"albedo_threshold", s.AlbedoThreshold}, {"misalign_sigma", s.MisalignSigma}} {
+		if !(f.v >= 0) || math.IsInf(f.v, 0) {
+			return nil, fmt.Errorf("sensor %q: %s = %g: want a finite value ≥ 0", s.Name, f.key, f.v)
+		}
+	}
+	if s.Sigma == 0 {
+		return nil, fmt.Errorf("sensor %q: sigma = 0: state the 1σ accuracy per axis (rad, > 0)", s.Name)
+	}
+	return &Digital{spec: s, tanMax: math.Tan(s.HalfAngle), cosMax: math.Cos(s.HalfAngle), actual: s.Mount}, nil
+}
+
+// Name implements Sensor.
+func (d *Digital) Name() string { return d.spec.Name }
+
+// Kind implements Sensor.
+func (d *Digital) Kind() Kind { return KindDigital }
+
+// Mount implements Sensor.
+func (d *Digital) Mount() Mount { return d.spec.Mount }
+
+// Spec returns the sensor's specification.
+func (d *Digital) Spec() DigitalSpec { return d.spec }
+
+// Sigma implements Sensor.
+func (d *Digital) Sigma() float64 { return d.spec.Sigma }
+
+// HalfAngle implements Sensor: the cone, or for a square FOV the cone through
+// its corners, tan = √2·tan(half-angle).
+func (d *Digital) HalfAngle() float64 {
+	if d.spec.Square {
+		return math.Atan(math.Sqrt2 * d.tanMax)
+	}
+	return d.spec.HalfAngle
+}
+
+func (d *Digital) inFOV(s r3.Vec) bool {
+	if s.Z <= 0 {
+		return false
+	}
+	if d.spec.Square {
+		return math.Abs(s.X) <= d.tanMax*s.Z && math.Abs(s.Y) <= d.tanMax*s.Z
+	}
+	return s.Z >= d.cosMax*r3.Norm(s)
+}
+
+// InFOV implements Sensor.
+func (d *Digital) InFOV(dir r3.Vec) bool { return d.inFOV(d.spec.Mount.ToSensor(dir)) }
+
+// Response implements Sensor: cos θ inside the FOV.
+func (d *Digital) Response(dir r3.Vec) float64 {
+	s := d.spec.Mount.ToSensor(dir)
+	if !d.inFOV(s) {
+		return 0
+	}
+	return s.Z / r3.Norm(s)
+}
+
+// Read implements Sensor. The spot centroid, in tangent-plane coordinates
+// (tan αx, tan αy), is the irradiance-weighted mean of the sun (S·cos θ,
+// when above MinIrradiance) and of the albedo mean direction (when its
+// irradiance reaches AlbedoThreshold and it is in the FOV). Albedo alone
+// above the threshold gives a false sun. Noise of Sigma is added to each
+// axis angle.
+func (d *Digital) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) Reading {
+	var wSum, tx, ty float64
+	if s := d.actual.ToSensor(sun); d.inFOV(s) {
+		if e := direct * s.Z / r3.Norm(s); e > 0 && e >= d.spec.MinIrradiance {
+			wSum, tx, ty = e, e*s.X/s.Z, e*s.Y/s.Z
+		}
+	}
+	if e := alb.Irradiance; e > 0 && e >= d.spec.AlbedoThreshold {
+		if a := d.actual.ToSensor(alb.Dir); d.inFOV(a) {
+			wSum += e
+			tx += e * a.X / a.Z
+			ty += e * a.Y / a.Z
+		}
+	}
+	if wSum == 0 {
+		return Reading{}
+	}
+	ax, ay := math.Atan(tx/wSum), math.Atan(ty/wSum)
+	if noise != nil {
+		ax += d.spec.Sigma * noise.NormFloat64()
+		ay += d.spec.Sigma * noise.NormFloat64()
+	}
+	dir := r3.Unit(r3.Vec{X: math.Tan(ax), Y: math.Tan(ay), Z: 1})
+	return Reading{Signal: wSum / SolarConstant, Dir: d.spec.Mount.ToBody(dir), Valid: true}
+}
+
+// Draw implements Sensor.
+func (d *Digital) Draw(rng *rand.Rand) Sensor {
+	u := *d
+	u.actual, _ = drawUnit(Errors{MisalignSigma: d.spec.MisalignSigma}, d.spec.Mount, 0, rng)
+	return &u
+}

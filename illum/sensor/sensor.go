@@ -1,0 +1,203 @@
+package sensor
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// SolarConstant is the reference irradiance that gives a normalised signal
+// of 1 at normal incidence when a sensor's RefIrradiance is left at zero:
+// 1361 W/m² (TSI at 1 AU, Kopp & Lean 2011, GRL 38 L01706, from memory).
+const SolarConstant = 1361.0
+
+// Kind names a sensor kind.
+type Kind string
+
+// The sensor kinds.
+const (
+	KindCosine   Kind = "cosine"
+	KindQuadrant Kind = "quadrant"
+	KindDigital  Kind = "digital"
+)
+
+// Kinds lists every sensor kind in a stable order.
+func Kinds() []Kind { return []Kind{KindCosine, KindQuadrant, KindDigital} }
+
+// Albedo is the Earth-reflected light reaching one sensor, as the albedo
+// model delivers it: the response-weighted irradiance ∫L·R(θ)dω over the
+// field of view (W/m², R from the sensor's Response) and the
+// irradiance-weighted mean arrival direction (unit vector, body axes, pointing
+// from the sensor toward the lit Earth). A zero Albedo means none.
+type Albedo struct {
+	Irradiance float64
+	Dir        r3.Vec
+}
+
+// Reading is one sensor's output at one instant.
+type Reading struct {
+	// Signal is the normalised output: for a cosine sensor the quantised
+	// signal (1 = normal sun at RefIrradiance, times gain); for a quadrant
+	// sensor the sum of its four cells; for a digital sensor the
+	// irradiance reaching the detector over its detection threshold (0 when
+	// no spot).
+	Signal float64
+	// Dir is the measured sun direction in body axes for a two-axis kind,
+	// rotated through the nominal mount (zero for a cosine sensor or when
+	// not Valid).
+	Dir r3.Vec
+	// Cells holds the four quadrant cells A, B, C, D (zero for other kinds).
+	Cells [4]float64
+	// Valid says the sensor reports a sun: signal above its threshold and,
+	// for two-axis kinds, a direction that could be inverted.
+	Valid bool
+	// Saturated says an output hit full scale or a quadrant ratio hit ±1.
+	Saturated bool
+}
+
+// Sensor is one sun sensor of any kind. Every vector is in body axes.
+type Sensor interface {
+	// Name is the sensor's label in tables and plots.
+	Name() string
+	// Kind names the sensor kind.
+	Kind() Kind
+	// Mount returns the nominal mount (what the estimator believes).
+	Mount() Mount
+	// InFOV reports whether light from the body direction dir reaches the
+	// detector, through the nominal mount.
+	InFOV(dir r3.Vec) bool
+	// HalfAngle is the half-angle (rad) of the cone containing the field of
+	// view: the cone itself, or the circumscribed cone of a square FOV.
+	HalfAngle() float64
+	// Response is the relative response (1 at normal incidence) to a
+	// collimated beam from the body direction dir, zero outside the FOV. The
+	// albedo model integrates radiance with it.
+	Response(dir r3.Vec) float64
+	// Sigma is the stated 1σ angular accuracy (rad) of a direction from this
+	// sensor, used to weight the combined estimate (0 for a cosine sensor:
+	// it gives no direction alone).
+	Sigma() float64
+	// Read computes the reading for the unit sun direction sun (body axes),
+	// the direct solar irradiance direct (W/m², already scaled by the
+	// shadow fraction) and the albedo on this sensor. noise draws the
+	// per-reading noise; nil gives noise-free readings. It allocates nothing.
+	Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) Reading
+	// Draw returns one simulated unit with its errors drawn from rng
+	// (misalignment, dark offsets, gain mismatch). The receiver is unchanged.
+	Draw(rng *rand.Rand) Sensor
+}
+
+// Errors are the error-model parameters of a sensor; all zero gives ideal
+// readings. Offsets and noise are in normalised signal units.
+type Errors struct {
+	// MisalignSigma is the 1σ mounting error per sensor axis (rad).
+	MisalignSigma float64
+	// DarkSigma is the 1σ dark offset drawn per cell per unit.
+	DarkSigma float64
+	// GainSigma is the 1σ relative gain mismatch drawn per cell per unit.
+	GainSigma float64
+	// NoiseSigma is the 1σ noise per reading (per cell for a quadrant).
+	NoiseSigma float64
+	// ADCBits quantises the output over [0, FullScale]; 0 means no ADC.
+	ADCBits int
+	// FullScale is the saturation level (normalised); 0 means none.
+	FullScale float64
+}
+
+func (e Errors) validate(name string) error {
+	for _, f := range []struct {
+		key string
+		v   float64
+	}{{"misalign_sigma", e.MisalignSigma}, {"dark_sigma", e.DarkSigma}, {"gain_sigma", e.GainSigma},
+		{"noise_sigma", e.NoiseSigma}, {"full_scale", e.FullScale}} {
+		if !(f.v >= 0) || math.IsInf(f.v, 0) {
+			return fmt.Errorf("sensor %q: errors.%s = %g: want a finite value ≥ 0", name, f.key, f.v)
+		}
+	}
+	if e.ADCBits < 0 || e.ADCBits > 32 {
+		return fmt.Errorf("sensor %q: errors.adc_bits = %d: want 0 (no ADC) to 32", name, e.ADCBits)
+	}
+	if e.ADCBits > 0 && e.FullScale == 0 {
+		return fmt.Errorf("sensor %q: errors.adc_bits = %d needs errors.full_scale > 0", name, e.ADCBits)
+	}
+	return nil
+}
+
+// unitErrors are the values drawn once per simulated unit.
+type unitErrors struct {
+	dark [4]float64
+	gain [4]float64 // relative mismatch: the gain is 1 + gain[i]
+}
+
+// drawUnit draws the misalignment and per-cell offsets and gains, always in
+// the same order so that one seed gives one unit.
+func drawUnit(e Errors, m Mount, cells int, rng *rand.Rand) (Mount, unitErrors) {
+	var u unitErrors
+	phi := r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()}
+	for i := range cells {
+		u.dark[i] = e.DarkSigma * rng.NormFloat64()
+		u.gain[i] = e.GainSigma * rng.NormFloat64()
+	}
+	return m.Misaligned(r3.Scale(e.MisalignSigma, phi)), u
+}
+
+// convert applies noise, the ADC and saturation to an analogue signal.
+func (e Errors) convert(v float64, noise *rand.Rand) (out float64, saturated bool) {
+	if noise != nil && e.NoiseSigma > 0 {
+		v += e.NoiseSigma * noise.NormFloat64()
+	}
+	if v < 0 {
+		v = 0
+	}
+	if e.FullScale > 0 && v >= e.FullScale {
+		v, saturated = e.FullScale, true
+	}
+	if e.ADCBits > 0 {
+		q := e.FullScale / float64(uint64(1)<<e.ADCBits)
+		v = math.Round(v/q) * q
+	}
+	return v, saturated
+}
+
+// MountRow is one line of the mount table of the report, as plain data.
+type MountRow struct {
+	Name      string
+	Kind      Kind
+	Face      string     // "+X"... or "vector"
+	TiltDeg   float64    // tilt from the face normal
+	Toward    string     // face the tilt leans to ("" when none)
+	Boresight [3]float64 // body axes, unit
+	FOVDeg    float64    // half-angle of the (circumscribed) FOV cone
+}
+
+// Row returns the mount-table row of a sensor.
+func Row(s Sensor) MountRow {
+	m := s.Mount()
+	b := m.Boresight()
+	face := m.Face().String()
+	if m.Face() == FaceNone {
+		face = "vector"
+	}
+	tilt, toward := m.Tilt()
+	return MountRow{
+		Name: s.Name(), Kind: s.Kind(), Face: face,
+		TiltDeg: tilt * 180 / math.Pi, Toward: toward.String(),
+		Boresight: [3]float64{b.X, b.Y, b.Z}, FOVDeg: s.HalfAngle() * 180 / math.Pi,
+	}
+}
+
+func checkMount(name string, m Mount) error {
+	if !m.defined {
+		return fmt.Errorf("sensor %q: mount: not set; build it with FaceMount or VectorMount", name)
+	}
+	return nil
+}
+
+func checkName(name string) error {
+	if name == "" {
+		return fmt.Errorf("sensor: name: empty; give every sensor a unique name")
+	}
+	return nil
+}

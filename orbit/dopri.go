@@ -67,6 +67,10 @@ type dopri5 struct {
 	k7     vec6    // f(t+h, y1), FSAL
 	cont   [5]vec6 // dense-output polynomial of the last step
 	hNext  float64
+	// Stage scratch, kept here because the stages are passed by pointer to
+	// the right-hand side f, which would otherwise move them to the heap
+	// on every step.
+	k2, k3, k4, k5, k6, ks, ys, ye vec6
 	steps  int // accepted steps so far
 	reject int
 }
@@ -97,7 +101,8 @@ func (d *dopri5) step() {
 	d.y0 = d.y1
 	d.k1 = d.k7
 	h := d.hNext
-	var k2, k3, k4, k5, k6, k7, y, y1 vec6
+	k2, k3, k4, k5, k6, k7 := &d.k2, &d.k3, &d.k4, &d.k5, &d.k6, &d.ks
+	y, y1 := &d.ys, &d.ye
 	for {
 		if h > d.hmax {
 			h = d.hmax
@@ -106,27 +111,27 @@ func (d *dopri5) step() {
 		for i := range y {
 			y[i] = y0[i] + h*dpA21*k1[i]
 		}
-		d.f(t+dpC2*h, &y, &k2)
+		d.f(t+dpC2*h, y, k2)
 		for i := range y {
 			y[i] = y0[i] + h*(dpA31*k1[i]+dpA32*k2[i])
 		}
-		d.f(t+dpC3*h, &y, &k3)
+		d.f(t+dpC3*h, y, k3)
 		for i := range y {
 			y[i] = y0[i] + h*(dpA41*k1[i]+dpA42*k2[i]+dpA43*k3[i])
 		}
-		d.f(t+dpC4*h, &y, &k4)
+		d.f(t+dpC4*h, y, k4)
 		for i := range y {
 			y[i] = y0[i] + h*(dpA51*k1[i]+dpA52*k2[i]+dpA53*k3[i]+dpA54*k4[i])
 		}
-		d.f(t+dpC5*h, &y, &k5)
+		d.f(t+dpC5*h, y, k5)
 		for i := range y {
 			y[i] = y0[i] + h*(dpA61*k1[i]+dpA62*k2[i]+dpA63*k3[i]+dpA64*k4[i]+dpA65*k5[i])
 		}
-		d.f(t+h, &y, &k6)
+		d.f(t+h, y, k6)
 		for i := range y1 {
 			y1[i] = y0[i] + h*(dpA71*k1[i]+dpA73*k3[i]+dpA74*k4[i]+dpA75*k5[i]+dpA76*k6[i])
 		}
-		d.f(t+h, &y1, &k7)
+		d.f(t+h, y1, k7)
 		// Error estimate, RMS norm scaled by atol + rtol·max(|y0|, |y1|)
 		// (Hairer, Nørsett & Wanner 1993 eq. (4.11) p. 168).
 		var sum float64
@@ -152,7 +157,7 @@ func (d *dopri5) step() {
 				d.cont[3][i] = dy - h*k7[i] - bspl
 				d.cont[4][i] = h * (dpD1*k1[i] + dpD3*k3[i] + dpD4*k4[i] + dpD5*k5[i] + dpD6*k6[i] + dpD7*k7[i])
 			}
-			d.h, d.y1, d.k7 = h, y1, k7
+			d.h, d.y1, d.k7 = h, *y1, *k7
 			d.hNext = h * fac
 			d.steps++
 			return

@@ -71,8 +71,8 @@ type dopri5 struct {
 	// the right-hand side f, which would otherwise move them to the heap
 	// on every step.
 	k2, k3, k4, k5, k6, ks, ys, ye vec6
-	steps  int // accepted steps so far
-	reject int
+	steps                          int // accepted steps so far
+	reject                         int
 }
 
 func newDopri5(f deriv6, t0 float64, y0 vec6, h0, rtol, atol, hmax float64) *dopri5 {

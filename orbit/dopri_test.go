@@ -5,7 +5,7 @@ import (
 	"testing"
 )
 
-// Closed form: three uncoupled harmonic oscillators y'' = −ω²y have
+// Closed form: three uncoupled harmonic oscillators y” = −ω²y have
 // y = cos(ωt)-type solutions; the step results and the dense output between
 // steps must follow them to about the tolerance.
 func TestDopri5HarmonicOscillator(t *testing.T) {

@@ -1,0 +1,100 @@
+package sky
+
+import (
+	"math"
+	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+var everywhere = ViewerFunc(func(r3.Vec) bool { return true })
+
+func blockedFraction(t *testing.T, ob Obstacle, origin r3.Vec, n int) float64 {
+	t.Helper()
+	v := Obstructed{View: everywhere, Position: origin, Obstacles: []Obstacle{ob}}
+	return 1 - mustCoverage(t, []Viewer{v}, mustLattice(t, n)).AtLeast[1]
+}
+
+// An (effectively) infinite plate through the sensor blocks exactly half of
+// the sphere (closed form). The Fibonacci z values are symmetric, so the
+// lattice gives exactly 1/2.
+func TestInfinitePlateBlocksHalf(t *testing.T) {
+	plate := Rectangle{Centre: r3.Vec{}, HalfU: r3.Vec{X: 1e9}, HalfV: r3.Vec{Y: 1e9}}
+	if f := blockedFraction(t, plate, r3.Vec{Z: 1e-3}, DefaultPoints); f != 0.5 {
+		t.Errorf("blocked fraction %.8f, want 0.5", f)
+	}
+}
+
+// Solid angle of a rectangle of half-sides a, b seen on its axis from
+// distance d: Ω = 4 arcsin(ab / √((a² + d²)(b² + d²))) (closed form).
+func TestRectangleSolidAngle(t *testing.T) {
+	a, b, d := 0.4, 0.7, 0.5
+	r := Rectangle{Centre: r3.Vec{Z: d}, HalfU: r3.Vec{X: a}, HalfV: r3.Vec{Y: b}}
+	want := 4 * math.Asin(a*b/math.Sqrt((a*a+d*d)*(b*b+d*d))) / (4 * math.Pi)
+	got := blockedFraction(t, r, r3.Vec{}, 1<<18)
+	if math.Abs(got-want) > 2e-4 {
+		t.Errorf("rectangle blocks %.6f, closed form %.6f", got, want)
+	}
+	t.Logf("rectangle: %.6f vs %.6f (Δ %.2g)", got, want, got-want)
+	// A tilted (non-axis-aligned) copy blocks the same fraction.
+	q := r3.NewRotation(0.7, r3.Vec{X: 1, Y: 2, Z: 3})
+	rt := Rectangle{Centre: q.Rotate(r.Centre), HalfU: q.Rotate(r.HalfU), HalfV: q.Rotate(r.HalfV)}
+	if g2 := blockedFraction(t, rt, r3.Vec{}, 1<<18); math.Abs(g2-want) > 2e-4 {
+		t.Errorf("tilted rectangle blocks %.6f, closed form %.6f", g2, want)
+	}
+	// Behind the sensor it blocks nothing.
+	if r.Blocks(r3.Vec{Z: 1}, r3.Vec{Z: 1}) {
+		t.Error("plate behind the ray origin blocks")
+	}
+}
+
+// A long cylinder of radius R at distance D from the sensor: its azimuth
+// (about the cylinder axis) subtends 2·arcsin(R/D), and azimuth is uniform
+// on the sphere, so it blocks arcsin(R/D)/π (closed form).
+func TestCylinderLong(t *testing.T) {
+	R, D := 0.3, 1.0
+	c := Cylinder{A: r3.Vec{X: D, Z: -1e7}, B: r3.Vec{X: D, Z: 1e7}, Radius: R}
+	want := math.Asin(R/D) / math.Pi
+	got := blockedFraction(t, c, r3.Vec{}, 1<<18)
+	if math.Abs(got-want) > 5e-4 {
+		t.Errorf("cylinder blocks %.6f, closed form %.6f", got, want)
+	}
+	t.Logf("long cylinder: %.6f vs %.6f (Δ %.2g)", got, want, got-want)
+}
+
+func TestCylinderCases(t *testing.T) {
+	c := Cylinder{A: r3.Vec{Z: 1}, B: r3.Vec{Z: 3}, Radius: 0.1}
+	cases := []struct {
+		name   string
+		o, d   r3.Vec
+		blocks bool
+	}{
+		{"along the axis into the end cap", r3.Vec{}, r3.Vec{Z: 1}, true},
+		{"along the axis away", r3.Vec{}, r3.Vec{Z: -1}, false},
+		{"parallel, outside radius", r3.Vec{X: 0.2}, r3.Vec{Z: 1}, false},
+		{"side hit", r3.Vec{X: -1, Z: 2}, r3.Vec{X: 1}, true},
+		{"passes beyond the end", r3.Vec{X: -1, Z: 3.5}, r3.Vec{X: 1}, false},
+		{"oblique through the cap", r3.Vec{X: -0.5}, r3.Unit(r3.Vec{X: 0.5, Z: 1.05}), true},
+		{"from inside", r3.Vec{Z: 2}, r3.Vec{Y: 1}, true},
+	}
+	for _, cs := range cases {
+		if got := c.Blocks(cs.o, cs.d); got != cs.blocks {
+			t.Errorf("%s: blocks = %v, want %v", cs.name, got, cs.blocks)
+		}
+	}
+}
+
+// A hemispherical sensor under a panel that covers its whole view sees nothing;
+// a cone field of view is kept when nothing blocks.
+func TestObstructedViewer(t *testing.T) {
+	lat := mustLattice(t, 4096)
+	cone := NewCone(r3.Vec{Z: 1}, 60*deg)
+	panel := Rectangle{Centre: r3.Vec{Z: 0.5}, HalfU: r3.Vec{X: 10}, HalfV: r3.Vec{Y: 10}}
+	if f := mustCoverage(t, []Viewer{Obstructed{View: cone, Obstacles: []Obstacle{panel}}}, lat).AtLeast[1]; f != 0 {
+		t.Errorf("covered sensor sees %.4f", f)
+	}
+	free := mustCoverage(t, []Viewer{Obstructed{View: cone}}, lat).AtLeast[1]
+	if want := mustCoverage(t, []Viewer{cone}, lat).AtLeast[1]; free != want {
+		t.Errorf("unobstructed %.6f, bare cone %.6f", free, want)
+	}
+}

@@ -48,6 +48,17 @@ type Chart struct {
 	Caption Caption
 	// Width and Height default to DefaultWidth × DefaultHeight.
 	Width, Height vg.Length
+
+	// drawn records the data handed to each plotter, for tests to read back.
+	drawn []drawnSeries
+	sky   *skyPlotter
+}
+
+// drawnSeries is the data of one plotter as drawn (after unit scaling).
+type drawnSeries struct {
+	Panel int
+	Label string
+	XYs   plotter.XYs
 }
 
 // Figure sizes and text sizes chosen to stay legible on a projector
@@ -73,9 +84,9 @@ var (
 	colBlue     = color.RGBA{0, 114, 178, 255}
 	colVermil   = color.RGBA{213, 94, 0, 255}
 	colPurple   = color.RGBA{204, 121, 167, 255}
-	colUmbra    = color.RGBA{90, 90, 90, 90}
-	colPenumbra = color.RGBA{170, 170, 170, 70}
-	colSeason   = color.RGBA{240, 228, 66, 90}
+	colUmbra    = color.NRGBA{60, 60, 60, 90}
+	colPenumbra = color.NRGBA{150, 150, 150, 60}
+	colSeason   = color.NRGBA{240, 228, 66, 110}
 	colGrid     = color.RGBA{200, 200, 200, 255}
 )
 

@@ -39,7 +39,7 @@ type Point struct{ AzDeg, ElDeg float64 }
 
 // Coverage classes of the sky map legend: 0, 1, 2, 3 and 4 or more sensors.
 var coverageColours = []color.Color{
-	color.RGBA{235, 235, 235, 255}, // 0: blind
+	color.RGBA{250, 215, 205, 255}, // 0: blind (pale red, stands out)
 	color.RGBA{198, 219, 239, 255}, // 1
 	color.RGBA{107, 174, 214, 255}, // 2
 	color.RGBA{33, 113, 181, 255},  // 3
@@ -198,7 +198,10 @@ func (s *skyPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		return out
 	}
 	for _, cell := range s.Cells {
-		c.FillPolygon(coverageColours[cell.Class], poly(cell.Poly))
+		ps := poly(cell.Poly)
+		c.FillPolygon(coverageColours[cell.Class], ps)
+		// A hairline of the same colour hides anti-aliasing seams.
+		c.StrokeLines(draw.LineStyle{Color: coverageColours[cell.Class], Width: 0.4}, append(ps, ps[0]))
 	}
 	grid := draw.LineStyle{Color: color.RGBA{120, 120, 120, 255}, Width: 0.6, Dashes: []vg.Length{2, 2}}
 	for _, l := range s.Graticule {
@@ -217,11 +220,13 @@ func (s *skyPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		r := sty.Rectangle(txt)
 		r.Min = r.Min.Add(pt).Sub(vg.Point{X: 1.5, Y: 1})
 		r.Max = r.Max.Add(pt).Add(vg.Point{X: 1.5, Y: 1})
-		c.FillPolygon(color.RGBA{255, 255, 255, 200}, []vg.Point{r.Min, {X: r.Max.X, Y: r.Min.Y}, r.Max, {X: r.Min.X, Y: r.Max.Y}})
+		c.FillPolygon(color.NRGBA{255, 255, 255, 190}, []vg.Point{r.Min, {X: r.Max.X, Y: r.Min.Y}, r.Max, {X: r.Min.X, Y: r.Max.Y}})
 		c.FillText(sty, pt, txt)
 	}
+	below := lab
+	below.YAlign = draw.YTop
 	for a := -150.0; a <= 150; a += 30 {
-		halo(lab, tr(hammerDeg(a, 0)), fmt.Sprintf("%.0f°", a))
+		halo(below, tr(hammerDeg(a, 0)).Sub(vg.Point{Y: 9}), fmt.Sprintf("%.0f°", a))
 	}
 	labR := lab
 	labR.XAlign = draw.XRight
@@ -232,18 +237,14 @@ func (s *skyPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		p := tr(hammerDeg(-180, e))
 		halo(labR, vg.Point{X: p.X - 4, Y: p.Y}, fmt.Sprintf("%+.0f°", e))
 	}
-	top := lab
-	top.YAlign = draw.YBottom
-	c.FillText(top, tr(xyPt{0, yr}).Add(vg.Point{Y: 3}), "+Z (el +90°)")
-	bot := lab
-	bot.YAlign = draw.YTop
-	c.FillText(bot, tr(xyPt{0, -yr}).Sub(vg.Point{Y: 3}), "−Z (el −90°)")
+	c.FillText(labR, tr(xyPt{0, yr}).Sub(vg.Point{X: 22, Y: 4}), "+90°")
+	c.FillText(labR, tr(xyPt{0, -yr}).Sub(vg.Point{X: 22, Y: -4}), "−90°")
 
 	sun := draw.GlyphStyle{Color: colOrange, Radius: 1.6, Shape: draw.CircleGlyph{}}
 	for _, p := range s.Track {
 		c.DrawGlyph(sun, tr(p))
 	}
-	ring := draw.GlyphStyle{Color: colVermil, Radius: 5, Shape: draw.CrossGlyph{}}
+	ring := draw.GlyphStyle{Color: colBlack, Radius: 5, Shape: draw.CrossGlyph{}}
 	name := lab
 	name.XAlign = draw.XLeft
 	name.Font.Size = legendSize
@@ -273,7 +274,8 @@ func (f SkyMap) Plot(caption Caption) (*Chart, error) {
 	p.Y.LineStyle.Width = 0
 	p.Y.Label.Text = ""
 	p.X.Label.Text = "azimuth from +X toward +Y (deg, on the equator); elevation (deg, on the left rim)"
-	p.Add(newSkyPlotter(f))
+	sky := newSkyPlotter(f)
+	p.Add(sky)
 	for i, l := range coverageLabels {
 		p.Legend.Add(l, swatch{coverageColours[i]})
 	}
@@ -281,11 +283,11 @@ func (f SkyMap) Plot(caption Caption) (*Chart, error) {
 		p.Legend.Add("sun track (sunlit)", glyphThumb{draw.GlyphStyle{Color: colOrange, Radius: 3, Shape: draw.CircleGlyph{}}})
 	}
 	if len(f.Boresights) > 0 {
-		p.Legend.Add("sensor boresight", glyphThumb{draw.GlyphStyle{Color: colVermil, Radius: 5, Shape: draw.CrossGlyph{}}})
+		p.Legend.Add("sensor boresight", glyphThumb{draw.GlyphStyle{Color: colBlack, Radius: 5, Shape: draw.CrossGlyph{}}})
 	}
 	p.Legend.Left = false
 	p.Legend.YOffs = 0
 	p.Legend.XOffs = 0
 	p.Legend.Padding = 2
-	return &Chart{Panels: []*plot.Plot{p}, Caption: caption}, nil
+	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, sky: sky}, nil
 }

@@ -35,6 +35,7 @@ func (f YearView) Plot(caption Caption) (*Chart, error) {
 	}
 	season := runs(f.Day, f.EclipseFree)
 	var panels []*plot.Plot
+	var rec []drawnSeries
 	add := func(title, ylabel string, y []float64, c color.Color, legend string) error {
 		p := newPlot(title, "", ylabel)
 		p.Add(bands{season, colSeason})
@@ -45,13 +46,13 @@ func (f YearView) Plot(caption Caption) (*Chart, error) {
 			}
 			l.Color, l.Width = c, 2
 			p.Add(l)
+			rec = append(rec, drawnSeries{len(panels), legend, l.XYs})
 		}
 		if len(season) > 0 {
 			p.Legend.Add("eclipse-free", swatch{colSeason})
 		}
 		p.X.Min, p.X.Max = f.Day[0], f.Day[n-1]
 		panels = append(panels, p)
-		_ = legend
 		return nil
 	}
 	if f.BetaDeg != nil {
@@ -76,7 +77,7 @@ func (f YearView) Plot(caption Caption) (*Chart, error) {
 		}
 	}
 	panels[len(panels)-1].X.Label.Text = "day of year"
-	return &Chart{Panels: panels, Caption: caption}, nil
+	return &Chart{Panels: panels, Caption: caption, drawn: rec}, nil
 }
 
 // ErrSeries is one error distribution. Give either the samples ErrorsDeg
@@ -155,6 +156,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	cdfP := newPlot("Sun-vector error: cumulative distribution", "", "fraction of valid samples")
 	histP := newPlot("Sun-vector error: histogram", "sun-vector error (deg)", "fraction per bin")
 	cdfP.Y.Min, cdfP.Y.Max = 0, 1.02
+	var rec []drawnSeries
 	cdfP.Add(hline{0.95, draw.LineStyle{Color: color.Gray{140}, Width: 0.8, Dashes: []vg.Length{2, 2}}})
 	for k, s := range f.Series {
 		pts, p95, err := s.cdf()
@@ -167,6 +169,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		}
 		l.Color, l.Width = seriesColour(k), 2
 		cdfP.Add(l)
+		rec = append(rec, drawnSeries{0, s.Label, l.XYs}, drawnSeries{0, "p95 " + s.Label, plotter.XYs{{X: p95, Y: 0.95}}})
 		mark := vline{p95, draw.LineStyle{Color: seriesColour(k), Width: 1.2, Dashes: []vg.Length{5, 3}}}
 		cdfP.Add(mark)
 		cdfP.Legend.Add(s.Label, l)
@@ -211,7 +214,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	cdfP.Legend.Left, cdfP.Legend.Top = false, false
 	cdfP.Legend.XOffs, cdfP.Legend.YOffs = -4, 8
 	histP.Y.Min = 0
-	return &Chart{Panels: []*plot.Plot{cdfP, histP}, Caption: caption, Height: 7.5 * vg.Inch}, nil
+	return &Chart{Panels: []*plot.Plot{cdfP, histP}, Caption: caption, Height: 7.5 * vg.Inch, drawn: rec}, nil
 }
 
 func binnedHist(edges, counts []float64) (*plotter.Histogram, error) {
@@ -276,7 +279,11 @@ func (f Gaps) Plot(caption Caption) (*Chart, error) {
 	p.Legend.Add(fmt.Sprintf("longest = %.0f s", f.LongestS), mark)
 	p.Legend.Top, p.Legend.Left = true, false
 	p.Y.Min = 0
-	return &Chart{Panels: []*plot.Plot{p}, Caption: caption}, nil
+	rec := []drawnSeries{{0, "longest", plotter.XYs{{X: mark.X}}}}
+	for _, b := range h.Bins {
+		rec = append(rec, drawnSeries{0, "bin", plotter.XYs{{X: b.Min, Y: b.Weight}, {X: b.Max, Y: b.Weight}}})
+	}
+	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }
 
 // Line is one labelled curve over a shared X.
@@ -301,7 +308,7 @@ type Sweep struct {
 
 // Plot draws the sweep curves with markers at each computed point.
 func (f Sweep) Plot(caption Caption) (*Chart, error) {
-	p, err := curves("sweep", f.Title, f.XLabel, f.YLabel, f.X, f.Lines)
+	p, rec, err := curves("sweep", f.Title, f.XLabel, f.YLabel, f.X, f.Lines)
 	if err != nil {
 		return nil, err
 	}
@@ -314,12 +321,13 @@ func (f Sweep) Plot(caption Caption) (*Chart, error) {
 		}
 		p.Legend.Add(lab, h)
 	}
-	return &Chart{Panels: []*plot.Plot{p}, Caption: caption}, nil
+	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }
 
-func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plot.Plot, error) {
+func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plot.Plot, []drawnSeries, error) {
+	var rec []drawnSeries
 	if len(x) == 0 || len(lines) == 0 {
-		return nil, fmt.Errorf("plots: %s: X and Lines must not be empty", what)
+		return nil, nil, fmt.Errorf("plots: %s: X and Lines must not be empty", what)
 	}
 	if title == "" {
 		title = yLabel + " versus " + xLabel
@@ -327,17 +335,18 @@ func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plo
 	p := newPlot(title, xLabel, yLabel)
 	for k, ln := range lines {
 		if len(ln.Y) != len(x) {
-			return nil, fmt.Errorf("plots: %s: Lines[%d] (%q) has %d values, want %d (one per X)", what, k, ln.Label, len(ln.Y), len(x))
+			return nil, nil, fmt.Errorf("plots: %s: Lines[%d] (%q) has %d values, want %d (one per X)", what, k, ln.Label, len(ln.Y), len(x))
 		}
 		var first *plotter.Line
 		for _, seg := range segments(x, ln.Y) {
 			l, s, err := plotter.NewLinePoints(seg)
 			if err != nil {
-				return nil, fmt.Errorf("plots: %s: %w", what, err)
+				return nil, nil, fmt.Errorf("plots: %s: %w", what, err)
 			}
 			l.Color, l.Width = seriesColour(k), 2
 			s.GlyphStyle = draw.GlyphStyle{Color: seriesColour(k), Radius: 3.5, Shape: glyphs[k%len(glyphs)]}
 			p.Add(l, s)
+			rec = append(rec, drawnSeries{0, ln.Label, l.XYs})
 			if first == nil {
 				first = l
 				p.Legend.Add(ln.Label, l, s)
@@ -345,7 +354,7 @@ func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plo
 		}
 	}
 	p.Legend.Top, p.Legend.Left = true, false
-	return p, nil
+	return p, rec, nil
 }
 
 var glyphs = []draw.GlyphDrawer{draw.CircleGlyph{}, draw.SquareGlyph{}, draw.TriangleGlyph{}, draw.CrossGlyph{}, draw.PlusGlyph{}, draw.RingGlyph{}}
@@ -391,7 +400,11 @@ func (f BudgetBars) Plot(caption Caption) (*Chart, error) {
 	p.Add(b)
 	p.NominalY(names...)
 	p.X.Min = 0
-	return &Chart{Panels: []*plot.Plot{p}, Caption: caption}, nil
+	rec := make([]drawnSeries, n)
+	for i := range n {
+		rec[i] = drawnSeries{0, names[i], plotter.XYs{{X: b.Values[i], Y: float64(i)}}}
+	}
+	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }
 
 // Sensitivity is the response of a figure of merit to one parameter, one
@@ -408,7 +421,7 @@ type Sensitivity struct {
 
 // Plot draws the sensitivity curves.
 func (f Sensitivity) Plot(caption Caption) (*Chart, error) {
-	p, err := curves("sensitivity", f.Title, f.Parameter, f.YLabel, f.X, f.Lines)
+	p, rec, err := curves("sensitivity", f.Title, f.Parameter, f.YLabel, f.X, f.Lines)
 	if err != nil {
 		return nil, err
 	}
@@ -417,5 +430,5 @@ func (f Sensitivity) Plot(caption Caption) (*Chart, error) {
 		p.Add(v)
 		p.Legend.Add(fmt.Sprintf("nominal %g", *f.Nominal), v)
 	}
-	return &Chart{Panels: []*plot.Plot{p}, Caption: caption}, nil
+	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }

@@ -3,13 +3,12 @@ package plots
 import (
 	"fmt"
 	"math"
+	"strconv"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 )
-
-
 
 // Timeline is a few orbits of samples. All slices are indexed like T;
 // a nil slice leaves its panel out.
@@ -82,10 +81,12 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 	xlabel := fmt.Sprintf("time since epoch (%s)", unit)
 
 	var panels []*plot.Plot
+	var rec []drawnSeries
 	addPanel := func(title, ylabel string) *plot.Plot {
 		p := newPlot(title, "", ylabel)
 		p.Add(bands{penumbra, colPenumbra}, bands{umbra, colUmbra})
 		p.X.Min, p.X.Max = t[0], t[len(t)-1]
+		p.X.Tick.Marker = niceTicks{}
 		panels = append(panels, p)
 		return p
 	}
@@ -104,7 +105,8 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 		l.StepStyle = plotter.PostStep
 		l.Color, l.Width = colBlue, 1.5
 		p.Add(l)
-		p.Y.Min, p.Y.Max = 0, float64(top)+0.5
+		rec = append(rec, drawnSeries{len(panels) - 1, "sensors seeing", l.XYs})
+		p.Y.Min, p.Y.Max = 0, float64(top)+1.6 // head room for the legend
 		p.Y.Tick.Marker = integerTicks{}
 		p.Legend.Add("sensors seeing", l)
 	}
@@ -123,12 +125,14 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 		l.StepStyle = plotter.PostStep
 		l.Color, l.Width = colGreen, 1.5
 		p.Add(l)
+		rec = append(rec, drawnSeries{len(panels) - 1, "valid", l.XYs})
 		p.Y.Min, p.Y.Max = -0.1, 1.1
 		p.Y.Tick.Marker = plot.ConstantTicks([]plot.Tick{{Value: 0, Label: "no"}, {Value: 1, Label: "yes"}})
 	}
 	if f.ErrNoAlbedoDeg != nil || f.ErrAlbedoDeg != nil {
 		p := addPanel("Sun-vector error", "error (deg)")
 		p.Y.Min = 0
+		defer func() { p.Y.Max *= 1.35 }() // head room for the legend
 		for k, s := range []struct {
 			label string
 			y     []float64
@@ -147,6 +151,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 					l.Dashes = []vg.Length{6, 3}
 				}
 				p.Add(l)
+				rec = append(rec, drawnSeries{len(panels) - 1, s.label, l.XYs})
 				if first == nil {
 					first = l
 				}
@@ -175,7 +180,38 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 	if len(panels) > 2 {
 		h = 7.5 * vg.Inch
 	}
-	return &Chart{Panels: panels, Caption: caption, Height: h}, nil
+	return &Chart{Panels: panels, Caption: caption, Height: h, drawn: rec}, nil
+}
+
+// niceTicks puts about eight labelled ticks on 1, 2, 2.5 or 5 × 10ⁿ steps,
+// labelled without needless decimals, with four minor ticks between.
+type niceTicks struct{}
+
+func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !(hi > lo) {
+		return []plot.Tick{{Value: lo, Label: strconv.FormatFloat(lo, 'g', 6, 64)}}
+	}
+	raw := (hi - lo) / 8
+	mag := math.Pow(10, math.Floor(math.Log10(raw)))
+	step := mag
+	for _, m := range []float64{1, 2, 2.5, 5, 10} {
+		if m*mag >= raw {
+			step = m * mag
+			break
+		}
+	}
+	var ts []plot.Tick
+	minor := step / 5
+	for v := math.Ceil(lo/minor) * minor; v <= hi+minor*1e-9; v += minor {
+		k := math.Round(v / minor)
+		val := k * minor
+		if int64(k)%5 == 0 {
+			ts = append(ts, plot.Tick{Value: val, Label: strconv.FormatFloat(val, 'f', -1, 64)})
+		} else {
+			ts = append(ts, plot.Tick{Value: val})
+		}
+	}
+	return ts
 }
 
 // integerTicks labels whole numbers only.
@@ -189,4 +225,3 @@ func (integerTicks) Ticks(lo, hi float64) []plot.Tick {
 	}
 	return ts
 }
-

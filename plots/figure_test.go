@@ -1,0 +1,367 @@
+package plots
+
+import (
+	"bytes"
+	"flag"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+var regen = flag.Bool("regen", false, "rewrite testdata/*_golden.svg from the current code")
+
+// Hammer projection, Snyder 1987 USGS PP 1395 (from memory): closed-form
+// values at the centre, the poles, the ±180° meridian and the equator.
+func TestHammerKnownPoints(t *testing.T) {
+	const tol = 1e-12
+	r2 := math.Sqrt2
+	cases := []struct {
+		name       string
+		λ, φ, x, y float64
+	}{
+		{"centre", 0, 0, 0, 0},                                              // closed form
+		{"north pole", 0, math.Pi / 2, 0, r2},                               // closed form: y = √2
+		{"south pole", 1, -math.Pi / 2, 0, -r2},                             // any λ, closed form
+		{"east edge", math.Pi, 0, 2 * r2, 0},                                // closed form: x = 2√2
+		{"west edge", -math.Pi, 0, -2 * r2, 0},                              // closed form
+		{"equator 90°", math.Pi / 2, 0, 2 / math.Sqrt(1+math.Sqrt(0.5)), 0}, // 2√2·sin45°/√(1+cos45°)
+	}
+	for _, c := range cases {
+		x, y := Hammer(c.λ, c.φ)
+		if math.Abs(x-c.x) > tol || math.Abs(y-c.y) > tol {
+			t.Errorf("%s: Hammer(%g, %g) = (%.15g, %.15g), want (%.15g, %.15g)", c.name, c.λ, c.φ, x, y, c.x, c.y)
+		}
+	}
+	// The ±180° meridian maps onto the boundary ellipse x²/8 + y²/2 = 1
+	// (closed form).
+	worst := 0.0
+	for φ := -89.0; φ <= 89; φ += 1 {
+		for _, λ := range []float64{-math.Pi, math.Pi} {
+			x, y := Hammer(λ, φ*math.Pi/180)
+			worst = math.Max(worst, math.Abs(x*x/8+y*y/2-1))
+		}
+	}
+	if worst > 1e-12 {
+		t.Errorf("edge meridian off the boundary ellipse by %g", worst)
+	}
+}
+
+// Equal-area property (own calculation): the projected area of every
+// 10° × 10° cell, from the shoelace formula over a finely sampled outline,
+// equals its area on the unit sphere, Δλ (sin φ₂ − sin φ₁); the whole map
+// has the sphere's area 4π.
+func TestHammerEqualArea(t *testing.T) {
+	worst, total := 0.0, 0.0
+	for a := -180.0; a < 180; a += 10 {
+		for e := -90.0; e < 90; e += 10 {
+			poly := cellPolygon(a, a+10, e, e+10, 200)
+			area := 0.0
+			for i := range poly {
+				p, q := poly[i], poly[(i+1)%len(poly)]
+				area += p.X*q.Y - q.X*p.Y
+			}
+			area = math.Abs(area) / 2
+			sphere := 10 * math.Pi / 180 * (math.Sin((e+10)*math.Pi/180) - math.Sin(e*math.Pi/180))
+			worst = math.Max(worst, math.Abs(area/sphere-1))
+			total += area
+		}
+	}
+	t.Logf("worst relative cell-area error %.2e, total %.6f (4π = %.6f)", worst, total, 4*math.Pi)
+	if worst > 1e-3 {
+		t.Errorf("cell areas differ from sphere areas by up to %.2e", worst)
+	}
+	if math.Abs(total/(4*math.Pi)-1) > 1e-4 {
+		t.Errorf("total projected area %g, want 4π", total)
+	}
+}
+
+func ExampleHammer() {
+	x, y := Hammer(math.Pi, 0)
+	fmt.Printf("%.6f %.6f\n", x, y)
+	x, y = Hammer(0, math.Pi/2)
+	fmt.Printf("%.6f %.6f\n", x, y)
+	// Output:
+	// 2.828427 0.000000
+	// 0.000000 1.414214
+}
+
+func mustSVG(t *testing.T, c *Chart) string {
+	t.Helper()
+	b, err := c.SVG()
+	if err != nil {
+		t.Fatal(err)
+	}
+	png, err := c.Encode("png")
+	if err != nil || len(png) < 1000 {
+		t.Fatalf("png: %d bytes, %v", len(png), err)
+	}
+	return string(b)
+}
+
+func wantText(t *testing.T, svg string, texts ...string) {
+	t.Helper()
+	for _, s := range texts {
+		if !strings.Contains(svg, ">"+s+"<") {
+			t.Errorf("figure lacks the text %q", s)
+		}
+	}
+}
+
+func TestSkyMapFigure(t *testing.T) {
+	f := SkyMap{
+		AzDeg:      []float64{-135, -45, 45, 135},
+		ElDeg:      []float64{-45, 45},
+		Counts:     [][]int{{0, 1, 2, 3}, {4, 7, 1, 0}},
+		Boresights: []Marker{{"sensor A", 10, 20}},
+		SunTrack:   []Point{{0, 0}, {370, 10}},
+	}
+	c, err := f.Plot(Caption{Scenario: "test scenario"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	svg := mustSVG(t, c)
+	wantText(t, svg, "0 sensors", "1 sensor", "2 sensors", "3 sensors", "4+ sensors", "sun track (sunlit)",
+		"sensor boresight", "sensor A", "Scenario: test scenario", "-150°", "+30°")
+	// Read back: 8 cells, with classes in row-major order, 7 clamped to 4+.
+	wantClass := []int{0, 1, 2, 3, 4, 4, 1, 0}
+	if len(c.sky.Cells) != len(wantClass) {
+		t.Fatalf("%d cells drawn, want %d", len(c.sky.Cells), len(wantClass))
+	}
+	for i, cell := range c.sky.Cells {
+		if cell.Class != wantClass[i] {
+			t.Errorf("cell %d class %d, want %d", i, cell.Class, wantClass[i])
+		}
+	}
+	// 370° wraps to 10°.
+	x, y := Hammer(10*math.Pi/180, 10*math.Pi/180)
+	if p := c.sky.Track[1]; math.Abs(p.X-x) > 1e-12 || math.Abs(p.Y-y) > 1e-12 {
+		t.Errorf("track point 1 at %v, want (%g, %g)", p, x, y)
+	}
+}
+
+func TestSkyMapCellAcross180IsSplit(t *testing.T) {
+	f := SkyMap{AzDeg: []float64{0, 180}, ElDeg: []float64{0}, Counts: [][]int{{1, 2}}}
+	c, err := f.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Cell at 180° spans 90…270°: drawn as 90…180 and −180…−90.
+	if len(c.sky.Cells) != 3 {
+		t.Fatalf("%d cell pieces, want 3", len(c.sky.Cells))
+	}
+}
+
+func TestTimelineFigure(t *testing.T) {
+	nan := math.NaN()
+	f := Timeline{
+		T:              []float64{0, 60, 120, 180, 240},
+		SensorsSeeing:  []int{2, 3, 0, 0, 1},
+		Valid:          []bool{true, true, false, false, false},
+		Umbra:          []Interval{{130, 170}},
+		Penumbra:       []Interval{{120, 130}, {170, 180}},
+		ErrNoAlbedoDeg: []float64{0.5, 0.6, nan, nan, 0.7},
+		ErrAlbedoDeg:   []float64{1.5, 2.6, nan, 3, 4},
+	}
+	c, err := f.Plot(Caption{Model: "m"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	svg := mustSVG(t, c)
+	wantText(t, svg, "Sensors seeing the sun", "Sun vector valid", "Sun-vector error", "time since epoch (min)",
+		"error (deg)", "sensors", "umbra", "penumbra", "without albedo", "with albedo", "Model: m")
+	// Read back: times in minutes; the NaN gap splits each error series.
+	var got []string
+	for _, d := range c.drawn {
+		got = append(got, fmt.Sprintf("%d %s %v", d.Panel, d.Label, d.XYs))
+	}
+	want := []string{
+		"0 sensors seeing [{0 2} {1 3} {2 0} {3 0} {4 1}]",
+		"1 valid [{0 1} {1 1} {2 0} {3 0} {4 0}]",
+		"2 without albedo [{0 0.5} {1 0.6}]",
+		"2 without albedo [{4 0.7}]",
+		"2 with albedo [{0 1.5} {1 2.6}]",
+		"2 with albedo [{3 3} {4 4}]",
+	}
+	if strings.Join(got, "\n") != strings.Join(want, "\n") {
+		t.Errorf("drawn series:\n%s\nwant:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}
+
+func TestYearViewFigure(t *testing.T) {
+	f := YearView{Day: []float64{1, 2, 3, 4}, BetaDeg: []float64{10, 40, 70, 75}, EclipseMin: []float64{30, 20, 0, 0},
+		EclipseFree: []bool{false, false, true, true}}
+	c, err := f.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	svg := mustSVG(t, c)
+	wantText(t, svg, "Beta angle", "Eclipse per orbit", "beta (deg)", "eclipse (min/orbit)", "day of year", "eclipse-free")
+	if got := fmt.Sprint(c.drawn[1].XYs); got != "[{1 30} {2 20} {3 0} {4 0}]" {
+		t.Errorf("eclipse series %s", got)
+	}
+	if r := runs(f.Day, f.EclipseFree); len(r) != 1 || r[0] != (Interval{2.5, 4}) {
+		t.Errorf("eclipse-free season %v, want [{2.5 4}]", r)
+	}
+}
+
+func TestErrorDistFigure(t *testing.T) {
+	// 100 samples 0.01…1.00 deg: empirical p95 is the 95th value, 0.95
+	// (gonum stat.Quantile, Empirical).
+	var a []float64
+	for i := 100; i >= 1; i-- {
+		a = append(a, float64(i)/100)
+	}
+	f := ErrorDist{Series: []ErrSeries{
+		{Label: "without albedo", ErrorsDeg: append(a, math.NaN())},
+		{Label: "with albedo", BinEdgesDeg: []float64{0, 1, 2, 3}, BinCounts: []float64{50, 40, 10}},
+	}, UnitP95Deg: []float64{0.9, 1.0}}
+	c, err := f.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	svg := mustSVG(t, c)
+	wantText(t, svg, "sun-vector error (deg)", "fraction of valid samples", "without albedo", "with albedo",
+		"p95 without albedo = 0.95°", "p95 with albedo = 2.50°", "p95 of each Monte Carlo unit")
+	cdf := c.drawn[0].XYs
+	if len(cdf) != 100 || cdf[0] != (struct{ X, Y float64 }{0.01, 0.01}) || cdf[99].Y != 1 {
+		t.Errorf("CDF read back %v…%v (%d points)", cdf[0], cdf[len(cdf)-1], len(cdf))
+	}
+	// Binned: 95 % falls half-way into the last bin (2…3, 90 % → 100 %).
+	if p := c.drawn[3].XYs[0].X; math.Abs(p-2.5) > 1e-12 {
+		t.Errorf("binned p95 %g, want 2.5", p)
+	}
+}
+
+func TestGapsFigure(t *testing.T) {
+	f := Gaps{DurationsS: []float64{10, 20, 30, 40, 50, 60}, LongestS: 60}
+	c, err := f.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	svg := mustSVG(t, c)
+	wantText(t, svg, "gap duration (s)", "number of gaps", "6 gaps", "longest = 60 s")
+	total := 0.0
+	for _, d := range c.drawn[1:] {
+		total += d.XYs[0].Y
+	}
+	if total != 6 || c.drawn[0].XYs[0].X != 60 {
+		t.Errorf("histogram holds %g gaps (want 6), longest at %g", total, c.drawn[0].XYs[0].X)
+	}
+}
+
+func TestSweepBudgetSensitivityFigures(t *testing.T) {
+	c, err := demoSweep().Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantText(t, mustSVG(t, c), "altitude (km)", "valid (% of sunlit time)", "4 sensors", "6 sensors", "requirement 95 %")
+	if d := c.drawn[1]; d.Label != "6 sensors" || d.XYs[0].X != 400 || d.XYs[0].Y != demoSweep().Lines[1].Y[0] {
+		t.Errorf("sweep read back %v", d)
+	}
+	c, err = demoBudget().Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantText(t, mustSVG(t, c), "p95 error (deg)", "albedo", "sun ephemeris")
+	// Bars reversed so the first term is on top.
+	if d := c.drawn[len(c.drawn)-1]; d.Label != "albedo" || d.XYs[0].X != 3.1 {
+		t.Errorf("top bar %v, want albedo 3.1", d)
+	}
+	c, err = demoSensitivity().Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantText(t, mustSVG(t, c), "albedo coefficient", "p95 sun-vector error (deg)", "nominal 0.3", "coarse cosine")
+}
+
+func TestBadInputNamesTheField(t *testing.T) {
+	cases := []struct {
+		name string
+		run  func() (*Chart, error)
+		want string
+	}{
+		{"sky rows", func() (*Chart, error) {
+			return SkyMap{AzDeg: []float64{0}, ElDeg: []float64{0, 10}, Counts: [][]int{{1}}}.Plot(Caption{})
+		}, "Counts has 1 rows"},
+		{"sky el", func() (*Chart, error) {
+			return SkyMap{AzDeg: []float64{0}, ElDeg: []float64{95}, Counts: [][]int{{1}}}.Plot(Caption{})
+		}, "ElDeg[0]"},
+		{"timeline len", func() (*Chart, error) {
+			return Timeline{T: []float64{0, 1}, Valid: []bool{true}}.Plot(Caption{})
+		}, "Valid has 1 samples"},
+		{"timeline order", func() (*Chart, error) { return Timeline{T: []float64{0, 0}}.Plot(Caption{}) }, "T[1]"},
+		{"year len", func() (*Chart, error) {
+			return YearView{Day: []float64{1, 2}, BetaDeg: []float64{1}}.Plot(Caption{})
+		}, "BetaDeg has 1"},
+		{"errdist bins", func() (*Chart, error) {
+			return ErrorDist{Series: []ErrSeries{{Label: "x", BinEdgesDeg: []float64{0, 1}, BinCounts: []float64{1, 2}}}}.Plot(Caption{})
+		}, `Series[0] ("x")`},
+		{"gaps", func() (*Chart, error) { return Gaps{DurationsS: []float64{-1}}.Plot(Caption{}) }, "DurationsS[0]"},
+		{"sweep", func() (*Chart, error) {
+			return Sweep{X: []float64{1, 2}, Lines: []Line{{Label: "a", Y: []float64{1}}}}.Plot(Caption{})
+		}, `Lines[0] ("a") has 1 values`},
+		{"budget", func() (*Chart, error) {
+			return BudgetBars{Labels: []string{"a"}, P95Deg: []float64{math.NaN()}}.Plot(Caption{})
+		}, "P95Deg[0]"},
+	}
+	for _, c := range cases {
+		_, err := c.run()
+		if err == nil || !strings.Contains(err.Error(), c.want) || !strings.HasPrefix(err.Error(), "plots: ") {
+			t.Errorf("%s: error %v, want one containing %q", c.name, err, c.want)
+		}
+	}
+}
+
+func TestSaveLeavesNoPartialFile(t *testing.T) {
+	dir := t.TempDir()
+	c, err := demoGaps().Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := Save(c, filepath.Join(dir, "g.bmp"), ""); err == nil || !strings.Contains(err.Error(), "png, svg, pdf") {
+		t.Errorf("unsupported format: %v", err)
+	}
+	if err := Save(c, filepath.Join(dir, "missing", "g.png"), "png"); err == nil {
+		t.Error("save into a missing folder succeeded")
+	}
+	if err := Save(c, filepath.Join(dir, "g.svg"), ""); err != nil {
+		t.Fatal(err)
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != 1 || ents[0].Name() != "g.svg" {
+		t.Errorf("folder holds %v, want only g.svg", ents)
+	}
+}
+
+// Golden SVG (gonum/plot cmpimg pattern): the sweep figure of fixed data,
+// byte for byte. Run `go test ./plots -run Golden -regen` after an
+// intended change and review the diff.
+func TestGoldenSweepSVG(t *testing.T) {
+	target := 90.0
+	f := Sweep{Title: "golden sweep", XLabel: "altitude (km)", YLabel: "valid (%)", X: []float64{400, 500, 600},
+		Lines: []Line{{Label: "a", Y: []float64{80, 85, 92}}, {Label: "b", Y: []float64{70, math.NaN(), 95}}}, Target: &target}
+	c, err := f.Plot(Caption{Scenario: "golden", Model: "none", Assumptions: "fixed data"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := c.SVG()
+	if err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join("testdata", "sweep_golden.svg")
+	if *regen {
+		if err := os.WriteFile(path, got, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run with -regen to create it)", err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Errorf("SVG differs from %s (%d vs %d bytes); rerun with -regen if intended", path, len(got), len(want))
+	}
+}

@@ -1,0 +1,56 @@
+package sensor_test
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/illum/sensor"
+)
+
+// Six cosine sensors on a cube, sun on +X, albedo of 10 % of the direct sun
+// on the −Z (nadir) sensor only: the pair difference is off by atan(0.1).
+func ExampleOppositePairs() {
+	var ss []sensor.Sensor
+	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
+		face, _ := sensor.ParseFace(f)
+		m, _ := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
+		c, _ := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: math.Pi / 2, Threshold: 0.01})
+		ss = append(ss, c)
+	}
+	a, _ := sensor.NewArray(ss...)
+	alb := make([]sensor.Albedo, a.Len())
+	alb[5] = sensor.Albedo{Irradiance: 0.1 * sensor.SolarConstant, Dir: r3.Vec{Z: -1}}
+	r := make([]sensor.Reading, a.Len())
+	a.Read(r, r3.Vec{X: 1}, sensor.SolarConstant, alb, nil)
+	for _, name := range []string{"opposite-pairs", "least-squares"} {
+		est, _ := sensor.EstimatorByName(name)
+		e := est.Estimate(a, r)
+		if !e.Valid {
+			fmt.Printf("%s: no estimate (%d lit sensors)\n", name, e.N)
+			continue
+		}
+		fmt.Printf("%s: error %.3f° from %d sensors\n", name, math.Acos(e.Dir.X)*180/math.Pi, e.N)
+	}
+	// Output:
+	// opposite-pairs: error 5.711° from 6 sensors
+	// least-squares: no estimate (2 lit sensors)
+}
+
+// A quadrant sensor with a 2 mm aperture 1 mm above 2 mm cells: the
+// normalised difference is 2h·tan α/w, and the reading inverts it.
+func ExampleQuadrant() {
+	m, _ := sensor.FaceMount(sensor.FacePlusZ, 0, sensor.FaceNone, 0)
+	q, _ := sensor.NewQuadrant(sensor.QuadrantSpec{Name: "quad", Mount: m,
+		ApertureSide: 2, Height: 1, CellSide: 2, Sigma: math.Pi / 180})
+	tan20 := math.Tan(20 * math.Pi / 180)
+	fmt.Printf("X(20°) = %.5f\n", q.Transfer(tan20))
+	r := q.Read(r3.Unit(r3.Vec{X: tan20, Z: 1}), sensor.SolarConstant, sensor.Albedo{}, nil)
+	fmt.Printf("measured %.4f° off boresight, valid %v\n", math.Acos(r.Dir.Z)*180/math.Pi, r.Valid)
+	fmt.Printf("FOV cone %.1f°\n", q.HalfAngle()*180/math.Pi)
+	// Output:
+	// X(20°) = 0.36397
+	// measured 20.0000° off boresight, valid true
+	// FOV cone 76.7°
+}

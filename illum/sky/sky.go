@@ -187,12 +187,18 @@ func Map(viewers []Viewer, cellDeg float64) (Grid, error) {
 	}
 	g := Grid{CellDeg: cellDeg, NAz: 2 * nEl, NEl: nEl, Counts: make([]int, 2*nEl*nEl), RowArea: make([]float64, nEl)}
 	Δ := cellDeg * math.Pi / 180
+	// Column sines and cosines once; cell centres are then products.
+	sa, ca := make([]float64, g.NAz), make([]float64, g.NAz)
+	for a := range g.NAz {
+		sa[a], ca[a] = math.Sincos((float64(a) + 0.5) * Δ)
+	}
 	for e := range nEl {
 		lo, hi := -math.Pi/2+float64(e)*Δ, -math.Pi/2+float64(e+1)*Δ
 		// Cell solid angle Δλ·(sin el₂ − sin el₁), closed form; over 4π.
 		g.RowArea[e] = Δ * (math.Sin(hi) - math.Sin(lo)) / (4 * math.Pi)
+		se, ce := math.Sincos(-math.Pi/2 + (float64(e)+0.5)*Δ)
 		for a := range g.NAz {
-			d := g.Centre(e, a)
+			d := r3.Vec{X: ce * ca[a], Y: ce * sa[a], Z: se}
 			c := 0
 			for _, v := range viewers {
 				if v.Sees(d) {

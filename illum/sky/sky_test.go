@@ -233,3 +233,26 @@ func TestBadLattice(t *testing.T) {
 		t.Error("empty lattice accepted")
 	}
 }
+
+// The map and the lattice agree on the six-cone layout to the map's
+// cell-centre sampling error.
+func TestMapAgreesWithCoverage(t *testing.T) {
+	v := faceCones(70 * deg)
+	g, err := Map(v, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := mustCoverage(t, v, mustLattice(t, DefaultPoints))
+	for k := 1; k <= 3; k++ {
+		if d := math.Abs(g.FractionAtLeast(k) - r.AtLeast[k]); d > 2e-3 {
+			t.Errorf("≥%d: map %.5f, lattice %.5f", k, g.FractionAtLeast(k), r.AtLeast[k])
+		}
+	}
+	for e := range g.NEl {
+		for a := range g.NAz {
+			if g.At(e, a) != seenBy(v, g.Centre(e, a)) {
+				t.Fatalf("cell (%d, %d): count %d, centre seen by %d", e, a, g.At(e, a), seenBy(v, g.Centre(e, a)))
+			}
+		}
+	}
+}

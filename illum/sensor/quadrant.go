@@ -122,10 +122,18 @@ func (q *Quadrant) Transfer(tanAlpha float64) float64 {
 	return x
 }
 
-// invert finds the spot centre of the nominal geometry giving ratio x, by
-// bisection on the monotone transfer curve (60 halvings).
+// invert finds the spot centre of the nominal geometry giving ratio x: in
+// closed form, cx = −x·(w − g)/2, while the spot straddles the gap and stays
+// on the detector, else by bisection on the monotone transfer curve (60
+// halvings).
 func (q *Quadrant) invert(x float64) float64 {
 	w, c, g := q.spec.ApertureSide, q.spec.CellSide, q.spec.Gap
+	if w > g {
+		cx := -x * (w - g) / 2
+		if a := math.Abs(cx); a <= (w-g)/2 && a+w/2 <= c+g/2 {
+			return cx
+		}
+	}
 	lo, hi := -(w/2 + c + g/2), w/2+c+g/2 // ratio(lo) = +1 side, ratio(hi) = −1 side
 	for range 60 {
 		mid := 0.5 * (lo + hi)

@@ -180,3 +180,21 @@ func TestDigitalAlbedo(t *testing.T) {
 		t.Error("square FOV wrong")
 	}
 }
+
+// Closed form: a spot (w = 3) wider than the detector (2c = 2) covers every
+// cell while |h·tan α| ≤ 0.5, so X = 0 there (a dead zone: the reading says
+// boresight); beyond it the bisection inverts the non-linear curve exactly.
+func TestQuadrantDeadZoneAndNonLinearInversion(t *testing.T) {
+	q := quad(t, 3, 1, 1, 0, Errors{})
+	r := q.Read(sunAt(math.Atan(0.2), 0), SolarConstant, Albedo{}, nil)
+	if !r.Valid || angle(r.Dir, r3.Vec{Z: 1}) != 0 {
+		t.Errorf("dead zone: %+v, want boresight", r)
+	}
+	for _, ta := range []float64{0.7, 1.0, 1.4} {
+		s := sunAt(math.Atan(ta), 0) // y stays in its own dead zone at 0
+		r := q.Read(s, SolarConstant, Albedo{}, nil)
+		if !r.Valid || angle(r.Dir, s) > 1e-9 {
+			t.Errorf("tan α = %g: %+v, error %.3g rad", ta, r, angle(r.Dir, s))
+		}
+	}
+}

@@ -43,9 +43,8 @@ func BenchmarkIrradianceSixSensors(b *testing.B) {
 // BenchmarkRebuild measures one rebuild of the cap geometry (an altitude
 // change larger than RebuildKm).
 func BenchmarkRebuild(b *testing.B) {
-	var geo capGeometry
-	geo.build(EarthRadiusKm+550, DefaultCells)
+	m, _ := New(Config{AltitudeKm: 550})
 	for b.Loop() {
-		geo.build(EarthRadiusKm+551, DefaultCells)
+		m.geo.build(EarthRadiusKm+551, DefaultCells, m.gx, m.gw)
 	}
 }

@@ -19,7 +19,7 @@ const (
 	DefaultAlbedo = 0.30
 
 	// DefaultCells is the default number of equal-area cells on the visible cap.
-	DefaultCells = 1500
+	DefaultCells = 1000
 
 	// DefaultRebuildKm is the default radius drift after which the cap geometry
 	// is rebuilt (see Config.RebuildKm).

@@ -13,13 +13,14 @@ type capGeometry struct {
 
 // cell is one cell of the visible Earth disc.
 type cell struct {
-	px, py, pz float64 // unit outward surface normal where the cell's central ray meets the Earth
-	ux, uy, uz float64 // unit direction from the spacecraft toward that point
+	px, py, pz float64 // mean over the cell of the unit outward surface normal where its rays meet the Earth
+	ux, uy, uz float64 // mean over the cell of the unit direction from the spacecraft toward the Earth
 	g          float64 // ω/π with ω the cell's solid angle: Σ g·cos θ_sensor is the view factor
 }
 
 // build fills geo with n cells for a spacecraft at radius rKm > EarthRadiusKm.
 // It reuses geo.cells when its capacity allows, so a rebuild does not allocate.
+// gx, gw are Gauss–Legendre nodes and weights on [−1, 1] for the radial means.
 //
 // The cells partition the cone of directions that meet the Earth (nadir angle
 // α ≤ η, sin η = Rₑ/r) into n cells of equal solid angle. Equal solid angle,
@@ -32,7 +33,15 @@ type cell struct {
 // Trans. Numer. Anal. 25, pp. 309–327, from memory): nominal rings of width
 // √a, counts rounded with carried remainder, ring edges then moved so that
 // every cell has exactly the solid angle a = 2π(1 − cos η)/n.
-func (geo *capGeometry) build(rKm float64, n int) {
+//
+// Each cell stores the means over its solid angle of the arrival direction u
+// and of the surface normal P̂, not their values at the centre: the cosine
+// sensor weight n·u and the sunlit factor P̂·ŝ are linear in them, so a cell
+// wholly in view and wholly lit is integrated exactly in each factor. The
+// azimuthal mean is the factor sin(Δφ/2)/(Δφ/2) (closed form); the radial mean
+// over x = cos α is taken with Gauss–Legendre after x = cos η + (x₀ − cos η)v²,
+// which removes the √ behaviour of P̂ at the Earth's limb.
+func (geo *capGeometry) build(rKm float64, n int, gx, gw []float64) {
 	if cap(geo.cells) < n {
 		geo.cells = make([]cell, 0, n)
 	}
@@ -45,25 +54,55 @@ func (geo *capGeometry) build(rKm float64, n int) {
 	a := 2 * math.Pi * (1 - cosη) / float64(n) // solid angle per cell, sr
 	geo.halfWidth = 0.5 * math.Sqrt(a)
 
-	add := func(α, φ float64) {
-		sα, cα := math.Sincos(α)
-		sφ, cφ := math.Sincos(φ)
-		ux, uy, uz := sα*cφ, sα*sφ, -cα
-		// First intersection of the ray with the sphere: t = r cos α − √(Rₑ² − r² sin² α).
-		t := rKm*cα - math.Sqrt(max(0, re*re-rKm*rKm*sα*sα))
-		geo.cells = append(geo.cells, cell{
-			px: t * ux / re, py: t * uy / re, pz: (rKm + t*uz) / re,
-			ux: ux, uy: uy, uz: uz,
-			g: a / math.Pi,
-		})
+	// ringMeans returns the means over x = cos α ∈ [xb, xt] (uniform in x,
+	// i.e. in solid angle) of sin α, cos α, the cylindrical radius ρ and the
+	// height z of the unit surface normal where the ray meets the Earth.
+	ringMeans := func(xb, xt float64) (sα, cα, ρ, z float64) {
+		span := xt - cosη
+		vlo := math.Sqrt(max(0, (xb-cosη)/span))
+		var sum float64
+		for k := range gx {
+			v := vlo + (1-vlo)*0.5*(gx[k]+1)
+			x := cosη + span*v*v
+			w := gw[k] * 0.5 * (1 - vlo) * 2 * span * v // dx = 2 span v dv
+			sa := math.Sqrt(max(0, 1-x*x))
+			t := rKm*x - math.Sqrt(max(0, re*re-rKm*rKm*sa*sa)) // range to the surface
+			sα += w * sa
+			ρ += w * t * sa / re
+			z += w * (rKm - t*x) / re
+			sum += w
+		}
+		// sum = xt − xb up to rounding; the cos α mean is exact.
+		return sα / sum, 0.5 * (xb + xt), ρ / sum, z / sum
+	}
+	add := func(xb, xt float64, count int) {
+		sα, cα, ρ, z := ringMeans(xb, xt)
+		step := 2 * math.Pi / float64(count)
+		k := 1.0 // azimuthal mean of cos φ about the centre: sin(Δφ/2)/(Δφ/2)
+		offset := 0.0
+		if count > 1 {
+			k = math.Sin(step/2) / (step / 2)
+			offset = 0.5 * step * float64(len(geo.cells)%2)
+		} else {
+			k = 0
+		}
+		for j := range count {
+			sφ, cφ := math.Sincos(offset + (float64(j)+0.5)*step)
+			geo.cells = append(geo.cells, cell{
+				px: k * ρ * cφ, py: k * ρ * sφ, pz: z,
+				ux: k * sα * cφ, uy: k * sα * sφ, uz: -cα,
+				g: a / math.Pi,
+			})
+		}
 	}
 
-	add(0, 0) // polar cell: cone of solid angle a around nadir
+	xt := 1.0
+	x1 := 1 - a/(2*math.Pi)
+	add(x1, xt, 1) // polar cell: cone of solid angle a around nadir
 	if n == 1 {
 		return
 	}
-	cosα1 := 1 - a/(2*math.Pi)
-	α1 := math.Acos(cosα1)
+	α1 := math.Acos(x1)
 	rings := int(math.Round((η - α1) / math.Sqrt(a)))
 	if rings < 1 {
 		rings = 1
@@ -71,7 +110,7 @@ func (geo *capGeometry) build(rKm float64, n int) {
 	width := (η - α1) / float64(rings)
 	left := n - 1
 	carry := 0.0
-	cosTop := cosα1
+	xt = x1
 	for i := range rings {
 		var count int
 		if i == rings-1 {
@@ -84,16 +123,11 @@ func (geo *capGeometry) build(rKm float64, n int) {
 			carry = ideal - float64(count)
 		}
 		left -= count
-		cosBot := cosTop - float64(count)*a/(2*math.Pi)
+		xb := xt - float64(count)*a/(2*math.Pi)
 		if i == rings-1 {
-			cosBot = cosη
+			xb = cosη
 		}
-		αc := math.Acos(0.5 * (cosTop + cosBot)) // solid-angle midpoint of the ring
-		step := 2 * math.Pi / float64(count)
-		offset := 0.5 * step * float64(i%2)
-		for j := range count {
-			add(αc, offset+(float64(j)+0.5)*step)
-		}
-		cosTop = cosBot
+		add(xb, xt, count)
+		xt = xb
 	}
 }

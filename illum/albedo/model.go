@@ -5,6 +5,7 @@ import (
 	"math"
 	"time"
 
+	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/spatial/r3"
 )
 
@@ -65,8 +66,12 @@ type Model struct {
 	n         int
 	rebuildKm float64
 	geo       capGeometry
+	gx, gw    []float64 // Gauss–Legendre nodes for the cells' radial means
 	lit       []litCell
 }
+
+// radialNodes is the Gauss–Legendre order of the cells' radial means.
+const radialNodes = 6
 
 const (
 	kindUniform = iota
@@ -117,8 +122,10 @@ func New(cfg Config) (*Model, error) {
 		return nil, fmt.Errorf("albedo: config.altitude_km = %g: must be a finite altitude ≥ 0 km (0 for any altitude)", cfg.AltitudeKm)
 	}
 	m.lit = make([]litCell, 0, m.n)
+	m.gx, m.gw = make([]float64, radialNodes), make([]float64, radialNodes)
+	quad.Legendre{}.FixedLocations(m.gx, m.gw, -1, 1)
 	if cfg.AltitudeKm > 0 {
-		m.geo.build(EarthRadiusKm+cfg.AltitudeKm, m.n)
+		m.geo.build(EarthRadiusKm+cfg.AltitudeKm, m.n, m.gx, m.gw)
 	}
 	return m, nil
 }
@@ -141,7 +148,7 @@ func capFrame(rSat r3.Vec, r float64) (ex, ey, ez r3.Vec) {
 // ensureGeometry rebuilds the cap cells when r has drifted by more than RebuildKm.
 func (m *Model) ensureGeometry(r float64) {
 	if len(m.geo.cells) == 0 || math.Abs(r-m.geo.rKm) > m.rebuildKm {
-		m.geo.build(r, m.n)
+		m.geo.build(r, m.n, m.gx, m.gw)
 	}
 }
 

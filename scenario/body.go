@@ -1,0 +1,381 @@
+package scenario
+
+import (
+	"fmt"
+	"math"
+	"path/filepath"
+	"strings"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+func (r *resolver) vec(path string, v []float64, def r3.Vec) r3.Vec {
+	if v == nil {
+		return def
+	}
+	if len(v) != 3 {
+		r.fail(path, "value has %d numbers; allowed three [x, y, z]", len(v))
+		return def
+	}
+	return r3.Vec{X: v[0], Y: v[1], Z: v[2]}
+}
+
+func (r *resolver) body(b *fileBody) Body {
+	var out Body
+	if len(b.Sensors) == 0 {
+		r.fail("body.sensors", "value is an empty list; allowed at least one sensor")
+	}
+	out.Sensors = r.sensors("body.sensors", b.Sensors)
+	for i := range b.Obstructions {
+		out.Obstructions = append(out.Obstructions, r.obstruction(fmt.Sprintf("body.obstructions[%d]", i), &b.Obstructions[i]))
+	}
+	names := map[string]bool{}
+	for i := range b.Layouts {
+		l := &b.Layouts[i]
+		p := fmt.Sprintf("body.layouts[%d]", i)
+		if l.Name == "" || names[l.Name] {
+			r.fail(p+".name", "value %q is empty or used twice; allowed a distinct layout name", l.Name)
+		}
+		names[l.Name] = true
+		if len(l.Sensors) == 0 {
+			r.fail(p+".sensors", "value is an empty list; allowed at least one sensor")
+		}
+		out.Layouts = append(out.Layouts, Layout{Name: l.Name, Sensors: r.sensors(p+".sensors", l.Sensors)})
+	}
+	out.Candidates = r.sensors("body.candidates", b.Candidates)
+	return out
+}
+
+func (r *resolver) sensors(path string, list []fileSensor) []Sensor {
+	var out []Sensor
+	names := map[string]bool{}
+	for i := range list {
+		p := fmt.Sprintf("%s[%d]", path, i)
+		s := r.sensor(p, &list[i])
+		if s.Name == "" {
+			r.fail(p+".name", "value is empty; allowed a name for the sensor")
+		} else if names[s.Name] {
+			r.fail(p+".name", "value %q is used twice; allowed a distinct name per sensor", s.Name)
+		}
+		names[s.Name] = true
+		out = append(out, s)
+	}
+	return out
+}
+
+// defaultToward picks the axis a face's sensor tilts toward: +Z for the side
+// faces, +X for the ±Z faces.
+func defaultToward(face string) string {
+	if strings.HasSuffix(face, "Z") {
+		return "+X"
+	}
+	return "+Z"
+}
+
+func (r *resolver) sensor(p string, f *fileSensor) Sensor {
+	s := Sensor{Name: f.Name, Kind: f.Kind}
+	if !oneOf(f.Kind, kinds) {
+		r.fail(p+".kind", "value %q is unknown; allowed %s", f.Kind, strings.Join(kinds, ", "))
+	}
+	switch {
+	case f.Face != "" && f.Boresight != nil:
+		r.fail(p+".boresight", "value is given together with face; allowed one of face or boresight")
+	case f.Face != "":
+		n, ok := parseAxis(f.Face)
+		if !ok {
+			r.fail(p+".face", "value %q is unknown; allowed %s", f.Face, strings.Join(faces, ", "))
+			break
+		}
+		f.Face = strings.ToUpper(f.Face)
+		s.Face = f.Face
+		tilt := setDefault(&f.TiltDeg, 0)
+		r.rangeCheck(p+".tilt_deg", tilt, 0, 90, false, "[0, 90] degrees")
+		if f.TiltToward == "" {
+			f.TiltToward = defaultToward(f.Face)
+		}
+		t, ok := parseAxis(f.TiltToward)
+		if !ok || math.Abs(r3.Dot(t, n)) > 0.5 {
+			r.fail(p+".tilt_toward", "value %q is not a body axis perpendicular to face %s; allowed an axis at 90° to the face", f.TiltToward, f.Face)
+			break
+		}
+		s.TiltRad = tilt * deg
+		// Tilt the face normal by tilt toward t: b = n cos τ + t sin τ (closed form).
+		s.Boresight = r3.Add(r3.Scale(math.Cos(s.TiltRad), n), r3.Scale(math.Sin(s.TiltRad), t))
+		s.RefAxis = r3.Sub(r3.Scale(math.Cos(s.TiltRad), t), r3.Scale(math.Sin(s.TiltRad), n))
+	case f.Boresight != nil:
+		b := r.vec(p+".boresight", f.Boresight, r3.Vec{})
+		if r3.Norm(b) < 1e-9 {
+			r.fail(p+".boresight", "value is the zero vector; allowed a non-zero direction [x, y, z]")
+			break
+		}
+		s.Boresight = r3.Unit(b)
+		// Reference axis: the body axis least aligned with the boresight, made perpendicular (Gram–Schmidt).
+		ref := r3.Vec{X: 1}
+		if math.Abs(s.Boresight.X) > 0.6 {
+			ref = r3.Vec{Z: 1}
+		}
+		s.RefAxis = r3.Unit(r3.Sub(ref, r3.Scale(r3.Dot(ref, s.Boresight), s.Boresight)))
+		if f.TiltDeg != nil || f.TiltToward != "" {
+			r.fail(p+".tilt_deg", "value applies to a face mount only; allowed tilt_deg and tilt_toward with face")
+		}
+	default:
+		r.fail(p+".face", "value is missing; allowed a face (%s) or a boresight [x, y, z]", strings.Join(faces, ", "))
+	}
+	clock := setDefault(&f.ClockDeg, 0)
+	r.rangeCheck(p+".clock_deg", clock, -360, 360, false, "[-360, 360] degrees")
+	s.ClockRad = clock * deg
+	if s.ClockRad != 0 && r3.Norm(s.Boresight) > 0 {
+		s.RefAxis = r3.Rotate(s.RefAxis, s.ClockRad, s.Boresight)
+	}
+	if f.PositionM == nil {
+		f.PositionM = []float64{0, 0, 0}
+	}
+	s.PositionM = r.vec(p+".position_m", f.PositionM, r3.Vec{})
+
+	halfDef := 60.0
+	if f.Kind == KindCosine {
+		halfDef = 90
+	}
+	half := setDefault(&f.HalfAngleDeg, halfDef)
+	r.rangeCheck(p+".half_angle_deg", half, 0, 90, true, "a field of view half angle in (0, 90] degrees")
+	s.HalfAngleRad = half * deg
+	s.Threshold = setDefault(&f.Threshold, defaultThreshold)
+	r.rangeCheck(p+".threshold", s.Threshold, 0, 1, false, "[0, 1] (fraction of the full-sun reading)")
+	s.FullScale = setDefault(&f.FullScale, defaultFullScale)
+	r.rangeCheck(p+".full_scale", s.FullScale, 0, math.MaxFloat64, true, "a number > 0")
+	if f.ADCBits == nil {
+		v := defaultADCBits
+		f.ADCBits = &v
+	}
+	s.ADCBits = *f.ADCBits
+	if s.ADCBits < 0 || s.ADCBits > 32 {
+		r.fail(p+".adc_bits", "value %d is out of range; allowed [0, 32] (0 = no quantisation)", s.ADCBits)
+	}
+	only := func(key string, given bool, kind string) {
+		if given && f.Kind != kind && oneOf(f.Kind, kinds) {
+			r.fail(p+"."+key, "value does not apply to kind %q; allowed for kind %s only", f.Kind, kind)
+		}
+	}
+	only("roll_off", f.RollOff != nil, KindCosine)
+	only("shade_height_mm", f.ShadeHeightMM != nil, KindQuadrant)
+	only("cell_size_mm", f.CellSizeMM != nil, KindQuadrant)
+	only("gap_mm", f.GapMM != nil, KindQuadrant)
+	only("accuracy_deg_1sigma", f.AccuracyDeg1Sigma != nil, KindDigital)
+	only("fov_shape", f.FOVShape != "", KindDigital)
+	switch f.Kind {
+	case KindCosine:
+		prev := -1.0
+		for i, row := range f.RollOff {
+			rp := fmt.Sprintf("%s.roll_off[%d]", p, i)
+			if len(row) != 2 {
+				r.fail(rp, "value has %d numbers; allowed [angle_deg, relative_response]", len(row))
+				continue
+			}
+			if row[0] <= prev || row[0] > 90 || row[0] < 0 {
+				r.fail(rp, "value angle %g is out of order or range; allowed increasing angles in [0, 90]", row[0])
+			}
+			if row[1] < 0 || row[1] > 2 {
+				r.fail(rp, "value response %g is out of range; allowed [0, 2] relative to the cosine law", row[1])
+			}
+			prev = row[0]
+			s.RollOff = append(s.RollOff, [2]float64{row[0] * deg, row[1]})
+		}
+	case KindQuadrant:
+		s.ShadeHeightMM = setDefault(&f.ShadeHeightMM, 1.0)
+		s.CellSizeMM = setDefault(&f.CellSizeMM, 2.0)
+		s.GapMM = setDefault(&f.GapMM, 0.1)
+		r.rangeCheck(p+".shade_height_mm", s.ShadeHeightMM, 0, 100, true, "(0, 100] mm")
+		r.rangeCheck(p+".cell_size_mm", s.CellSizeMM, 0, 100, true, "(0, 100] mm")
+		r.rangeCheck(p+".gap_mm", s.GapMM, 0, s.CellSizeMM, false, "[0, cell_size_mm] mm")
+	case KindDigital:
+		acc := setDefault(&f.AccuracyDeg1Sigma, 0.5)
+		r.rangeCheck(p+".accuracy_deg_1sigma", acc, 0, 90, false, "[0, 90] degrees")
+		s.AccuracyRad1Sigma = acc * deg
+		if f.FOVShape == "" {
+			f.FOVShape = "cone"
+		}
+		if !oneOf(f.FOVShape, []string{"cone", "square"}) {
+			r.fail(p+".fov_shape", "value %q is unknown; allowed cone, square", f.FOVShape)
+		}
+		s.SquareFOV = f.FOVShape == "square"
+	}
+	if f.Errors == nil {
+		f.Errors = &fileErrors{}
+	}
+	s.Errors = r.errorsOf(p+".errors", f.Errors)
+	return s
+}
+
+func (r *resolver) errorsOf(p string, e *fileErrors) SensorErrors {
+	for _, c := range []struct {
+		key string
+		v   float64
+	}{
+		{"dark_offset_1sigma", e.DarkOffset1Sigma}, {"gain_1sigma", e.Gain1Sigma}, {"noise_1sigma", e.Noise1Sigma},
+		{"misalignment_deg_1sigma", e.MisalignmentDeg1Sigma}, {"aperture_offset_mm_1sigma", e.ApertureOffsetMM1Sigma},
+	} {
+		if c.v < 0 || c.v > 10 && c.key != "misalignment_deg_1sigma" || c.v > 90 {
+			r.fail(p+"."+c.key, "value %g is out of range; allowed a one-sigma value ≥ 0 (fractions ≤ 10, degrees ≤ 90)", c.v)
+		}
+	}
+	return SensorErrors{DarkOffset1Sigma: e.DarkOffset1Sigma, Gain1Sigma: e.Gain1Sigma, Noise1Sigma: e.Noise1Sigma,
+		MisalignmentRad1Sigma: e.MisalignmentDeg1Sigma * deg, ApertureOffsetMM1Sigma: e.ApertureOffsetMM1Sigma}
+}
+
+func (r *resolver) obstruction(p string, o *fileObstruction) Obstruction {
+	out := Obstruction{Name: o.Name, Shape: o.Shape}
+	switch o.Shape {
+	case ShapeRectangle:
+		out.CentreM = r.vec(p+".centre_m", o.CentreM, r3.Vec{})
+		out.HalfExtentsM = r.vec(p+".half_extents_m", o.HalfExtentsM, r3.Vec{})
+		h := out.HalfExtentsM
+		if o.HalfExtentsM == nil || h.X < 0 || h.Y < 0 || h.Z < 0 || (h.X == 0 && h.Y == 0) || (h.Y == 0 && h.Z == 0) || (h.X == 0 && h.Z == 0) {
+			r.fail(p+".half_extents_m", "value %v is missing or degenerate; allowed three half extents ≥ 0 in metres, at most one zero", o.HalfExtentsM)
+		}
+	case ShapeCylinder:
+		out.FromM = r.vec(p+".from_m", o.FromM, r3.Vec{})
+		out.ToM = r.vec(p+".to_m", o.ToM, r3.Vec{})
+		if o.FromM == nil || o.ToM == nil || r3.Norm(r3.Sub(out.ToM, out.FromM)) == 0 {
+			r.fail(p+".to_m", "value is missing or equal to from_m; allowed two distinct end points [x, y, z] in metres")
+		}
+		if o.RadiusM == nil || *o.RadiusM <= 0 {
+			r.fail(p+".radius_m", "value is missing or not positive; allowed a radius > 0 in metres")
+		} else {
+			out.RadiusM = *o.RadiusM
+		}
+	default:
+		r.fail(p+".shape", "value %q is unknown; allowed rectangle, cylinder", o.Shape)
+	}
+	return out
+}
+
+func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
+	if len(f.Estimators) == 0 {
+		cos, twoAxis, pairs := 0, 0, false
+		for i, s := range sensors {
+			if s.Kind == KindCosine {
+				cos++
+				for _, o := range sensors[:i] {
+					if o.Kind == KindCosine && r3.Dot(o.Boresight, s.Boresight) < -0.999 {
+						pairs = true
+					}
+				}
+			} else {
+				twoAxis++
+			}
+		}
+		if cos >= 3 {
+			f.Estimators = append(f.Estimators, "least-squares")
+		}
+		if pairs {
+			f.Estimators = append(f.Estimators, "opposite-pairs")
+		}
+		if twoAxis > 0 {
+			f.Estimators = append(f.Estimators, "two-axis")
+		}
+		if cos >= 3 && twoAxis > 0 {
+			f.Estimators = append(f.Estimators, "combined")
+		}
+	}
+	seen := map[string]bool{}
+	for i, e := range f.Estimators {
+		p := fmt.Sprintf("estimators[%d]", i)
+		if !oneOf(e, estimators) {
+			r.fail(p, "value %q is unknown; allowed %s", e, strings.Join(estimators, ", "))
+		} else if seen[e] {
+			r.fail(p, "value %q is listed twice; allowed each estimator once", e)
+		}
+		seen[e] = true
+	}
+	return append([]string(nil), f.Estimators...)
+}
+
+func (r *resolver) albedo(a *fileAlbedo) Albedo {
+	r.choice("albedo.model", &a.Model, AlbedoUniform, albedos)
+	out := Albedo{Model: a.Model}
+	if a.Model != AlbedoNone && a.Model != AlbedoGrid {
+		out.Value = setDefault(&a.Value, defaultAlbedo)
+		r.rangeCheck("albedo.value", out.Value, 0, 1, false, "[0, 1]")
+	} else if a.Value != nil {
+		r.fail("albedo.value", "value does not apply to model %q; allowed with uniform or zonal", a.Model)
+	}
+	if a.Model == AlbedoGrid {
+		if a.GridFile == "" {
+			r.fail("albedo.grid_file", "value is missing; allowed the path of a reflectance grid (relative to the scenario file)")
+		} else {
+			out.GridFile = a.GridFile
+			if !filepath.IsAbs(out.GridFile) {
+				out.GridFile = filepath.Join(r.dir, out.GridFile)
+			}
+		}
+	} else if a.GridFile != "" {
+		r.fail("albedo.grid_file", "value applies to model grid only; allowed model: grid with grid_file")
+	}
+	if a.Cells == 0 {
+		if _, given := r.nodes["albedo.cells"]; !given {
+			a.Cells = defaultCells
+		}
+	}
+	if a.Cells < 10 || a.Cells > 1_000_000 {
+		r.fail("albedo.cells", "value %d is out of range; allowed [10, 1000000]", a.Cells)
+	}
+	out.Cells = a.Cells
+	return out
+}
+
+func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
+	var out Targets
+	if t == nil {
+		return out
+	}
+	if t.MinValidFraction != nil {
+		out.MinValidFraction = *t.MinValidFraction
+		r.rangeCheck("targets.min_valid_fraction", out.MinValidFraction, 0, 1, true, "(0, 1]")
+	}
+	if t.MaxErrorP95Deg != nil {
+		r.rangeCheck("targets.max_error_p95_deg", *t.MaxErrorP95Deg, 0, 180, true, "(0, 180] degrees")
+		out.MaxErrorP95Rad = *t.MaxErrorP95Deg * deg
+	}
+	if t.MinCoverage != nil {
+		if t.CoverageSensors == nil {
+			k := 1
+			t.CoverageSensors = &k
+		}
+		out.MinCoverage = *t.MinCoverage
+		r.rangeCheck("targets.min_coverage", out.MinCoverage, 0, 1, true, "(0, 1]")
+	}
+	if t.CoverageSensors != nil {
+		out.CoverageSensors = *t.CoverageSensors
+		if out.CoverageSensors < 1 || (nSensors > 0 && out.CoverageSensors > nSensors) {
+			r.fail("targets.coverage_sensors", "value %d is out of range; allowed [1, %d] (the number of sensors)", out.CoverageSensors, nSensors)
+		}
+	}
+	if t.MaxGap != nil {
+		out.MaxGap = *t.MaxGap
+		if out.MaxGap <= 0 {
+			r.fail("targets.max_gap", "value %s is not positive; allowed a length of time > 0", out.MaxGap)
+		}
+	}
+	out.SurviveOneFailure = t.SurviveOneFailure
+	return out
+}
+
+func (r *resolver) output(o *fileOutput) Output {
+	if o.Decimate == 0 {
+		if _, given := r.nodes["output.decimate"]; !given {
+			o.Decimate = defaultDecimate
+		}
+	}
+	if o.Decimate < 1 {
+		r.fail("output.decimate", "value %d is below 1; allowed a whole number ≥ 1 (keep every n-th step)", o.Decimate)
+	}
+	if o.Figures == nil {
+		o.Figures = append([]string(nil), figureNames...)
+	}
+	for i, f := range o.Figures {
+		if !oneOf(f, figureNames) {
+			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q is unknown; allowed %s", f, strings.Join(figureNames, ", "))
+		}
+	}
+	return Output{Decimate: o.Decimate, Figures: append([]string(nil), o.Figures...)}
+}

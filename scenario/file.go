@@ -1,0 +1,147 @@
+package scenario
+
+// The file* types mirror the YAML keys one to one. Load decodes into them,
+// fills the defaults in place (so that Record can print every default), checks
+// them and converts them into the exported types of scenario.go.
+
+type fileScenario struct {
+	Name       string         `yaml:"name"`
+	Epoch      string         `yaml:"epoch"`
+	Duration   Span           `yaml:"duration"`
+	Step       Span           `yaml:"step"`
+	Seed       *int64         `yaml:"seed,omitempty"`
+	Orbit      fileOrbit      `yaml:"orbit"`
+	SunModel   string         `yaml:"sun_model"`
+	Shadow     string         `yaml:"shadow"`
+	Attitude   fileAttitude   `yaml:"attitude"`
+	Modes      []fileMode     `yaml:"modes,omitempty"`
+	Body       fileBody       `yaml:"body"`
+	Estimators []string       `yaml:"estimators"`
+	Albedo     fileAlbedo     `yaml:"albedo"`
+	Targets    *fileTargets   `yaml:"targets,omitempty"`
+	MonteCarlo fileMonteCarlo `yaml:"monte_carlo"`
+	Budget     *fileBudget    `yaml:"budget,omitempty"`
+	Output     fileOutput     `yaml:"output"`
+}
+
+type fileOrbit struct {
+	AltitudeKm      *float64 `yaml:"altitude_km,omitempty"`
+	LTAN            string   `yaml:"ltan,omitempty"`
+	SemiMajorAxisKm *float64 `yaml:"semi_major_axis_km,omitempty"`
+	Eccentricity    *float64 `yaml:"eccentricity,omitempty"`
+	InclinationDeg  *float64 `yaml:"inclination_deg,omitempty"`
+	RAANDeg         *float64 `yaml:"raan_deg,omitempty"`
+	ArgPerigeeDeg   *float64 `yaml:"arg_perigee_deg,omitempty"`
+	MeanAnomalyDeg  *float64 `yaml:"mean_anomaly_deg,omitempty"`
+	TLE             []string `yaml:"tle,omitempty"`
+	Propagator      string   `yaml:"propagator"`
+}
+
+type fileLaw struct {
+	Law            string    `yaml:"law,omitempty"`
+	PointAxis      string    `yaml:"point_axis,omitempty"`
+	AlignAxis      string    `yaml:"align_axis,omitempty"`
+	RollOffsetDeg  *float64  `yaml:"roll_offset_deg,omitempty"`
+	PitchOffsetDeg *float64  `yaml:"pitch_offset_deg,omitempty"`
+	YawOffsetDeg   *float64  `yaml:"yaw_offset_deg,omitempty"`
+	ClockDeg       *float64  `yaml:"clock_deg,omitempty"`
+	Quaternion     []float64 `yaml:"quaternion,omitempty"`
+	EulerDeg       []float64 `yaml:"euler_deg,omitempty"`
+	EulerSequence  string    `yaml:"euler_sequence,omitempty"`
+	SpinAxis       string    `yaml:"spin_axis,omitempty"`
+	RateDegS       *float64  `yaml:"rate_deg_s,omitempty"`
+	MaxRateDegS    *float64  `yaml:"max_rate_deg_s,omitempty"`
+}
+
+type fileAttitude struct {
+	fileLaw    `yaml:",inline"`
+	InSunlight *fileLaw `yaml:"in_sunlight,omitempty"`
+	InEclipse  *fileLaw `yaml:"in_eclipse,omitempty"`
+}
+
+type fileMode struct {
+	Name         string `yaml:"name"`
+	fileAttitude `yaml:",inline"`
+}
+
+type fileErrors struct {
+	DarkOffset1Sigma       float64 `yaml:"dark_offset_1sigma"`
+	Gain1Sigma             float64 `yaml:"gain_1sigma"`
+	Noise1Sigma            float64 `yaml:"noise_1sigma"`
+	MisalignmentDeg1Sigma  float64 `yaml:"misalignment_deg_1sigma"`
+	ApertureOffsetMM1Sigma float64 `yaml:"aperture_offset_mm_1sigma"`
+}
+
+type fileSensor struct {
+	Name              string      `yaml:"name"`
+	Kind              string      `yaml:"kind"`
+	Face              string      `yaml:"face,omitempty"`
+	TiltDeg           *float64    `yaml:"tilt_deg,omitempty"`
+	TiltToward        string      `yaml:"tilt_toward,omitempty"`
+	ClockDeg          *float64    `yaml:"clock_deg,omitempty"`
+	Boresight         []float64   `yaml:"boresight,omitempty"`
+	PositionM         []float64   `yaml:"position_m"`
+	HalfAngleDeg      *float64    `yaml:"half_angle_deg,omitempty"`
+	Threshold         *float64    `yaml:"threshold,omitempty"`
+	FullScale         *float64    `yaml:"full_scale,omitempty"`
+	ADCBits           *int        `yaml:"adc_bits,omitempty"`
+	RollOff           [][]float64 `yaml:"roll_off,omitempty"`
+	ShadeHeightMM     *float64    `yaml:"shade_height_mm,omitempty"`
+	CellSizeMM        *float64    `yaml:"cell_size_mm,omitempty"`
+	GapMM             *float64    `yaml:"gap_mm,omitempty"`
+	AccuracyDeg1Sigma *float64    `yaml:"accuracy_deg_1sigma,omitempty"`
+	FOVShape          string      `yaml:"fov_shape,omitempty"`
+	Errors            *fileErrors `yaml:"errors,omitempty"`
+}
+
+type fileObstruction struct {
+	Name         string    `yaml:"name"`
+	Shape        string    `yaml:"shape"`
+	CentreM      []float64 `yaml:"centre_m,omitempty"`
+	HalfExtentsM []float64 `yaml:"half_extents_m,omitempty"`
+	FromM        []float64 `yaml:"from_m,omitempty"`
+	ToM          []float64 `yaml:"to_m,omitempty"`
+	RadiusM      *float64  `yaml:"radius_m,omitempty"`
+}
+
+type fileLayout struct {
+	Name    string       `yaml:"name"`
+	Sensors []fileSensor `yaml:"sensors"`
+}
+
+type fileBody struct {
+	Sensors      []fileSensor      `yaml:"sensors"`
+	Obstructions []fileObstruction `yaml:"obstructions,omitempty"`
+	Layouts      []fileLayout      `yaml:"layouts,omitempty"`
+	Candidates   []fileSensor      `yaml:"candidates,omitempty"`
+}
+
+type fileAlbedo struct {
+	Model    string   `yaml:"model"`
+	Value    *float64 `yaml:"value,omitempty"`
+	GridFile string   `yaml:"grid_file,omitempty"`
+	Cells    int      `yaml:"cells"`
+}
+
+type fileTargets struct {
+	MinValidFraction  *float64 `yaml:"min_valid_fraction,omitempty"`
+	MaxErrorP95Deg    *float64 `yaml:"max_error_p95_deg,omitempty"`
+	CoverageSensors   *int     `yaml:"coverage_sensors,omitempty"`
+	MinCoverage       *float64 `yaml:"min_coverage,omitempty"`
+	MaxGap            *Span    `yaml:"max_gap,omitempty"`
+	SurviveOneFailure bool     `yaml:"survive_one_failure"`
+}
+
+type fileMonteCarlo struct {
+	Units int `yaml:"units"`
+}
+
+type fileBudget struct {
+	Calibrated   fileErrors `yaml:"calibrated"`
+	ToleranceDeg float64    `yaml:"tolerance_deg"`
+}
+
+type fileOutput struct {
+	Decimate int      `yaml:"decimate"`
+	Figures  []string `yaml:"figures"`
+}

@@ -1,0 +1,300 @@
+package scenario
+
+import (
+	"bytes"
+	"encoding"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"reflect"
+	"sort"
+	"strconv"
+	"strings"
+
+	"go.yaml.in/yaml/v3"
+)
+
+// FieldError is one problem in a scenario file.
+type FieldError struct {
+	Path      string // dotted key path, e.g. "body.sensors[2].half_angle_deg"
+	Line, Col int    // 1-based; zero when the key is absent from the file
+	Msg       string // "value V is …; allowed …"
+}
+
+func (e *FieldError) Error() string {
+	if e.Line > 0 {
+		return fmt.Sprintf("%s (line %d, col %d): %s", e.Path, e.Line, e.Col, e.Msg)
+	}
+	return fmt.Sprintf("%s: %s", e.Path, e.Msg)
+}
+
+// Errors lists every problem found, in file order; it prints one per line.
+type Errors []*FieldError
+
+func (es Errors) Error() string {
+	lines := make([]string, len(es))
+	for i, e := range es {
+		lines[i] = "scenario: " + e.Error()
+	}
+	return strings.Join(lines, "\n")
+}
+
+// Load reads, checks and resolves a scenario file.
+func Load(path string) (*Scenario, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		if errors.Is(err, os.ErrNotExist) {
+			return nil, fmt.Errorf("scenario: file %s does not exist; give the path of a scenario file (sunsight init writes one)", path)
+		}
+		return nil, fmt.Errorf("scenario: %w", err)
+	}
+	dir, err := filepath.Abs(filepath.Dir(path))
+	if err != nil {
+		return nil, fmt.Errorf("scenario: %w", err)
+	}
+	return Parse(data, dir)
+}
+
+// Parse checks and resolves scenario text; dir is the folder relative paths in
+// it are taken from.
+func Parse(data []byte, dir string) (*Scenario, error) {
+	var doc yaml.Node
+	if err := yaml.Unmarshal(data, &doc); err != nil {
+		return nil, Errors{yamlSyntaxError(err)}
+	}
+	if doc.Kind == 0 || len(doc.Content) == 0 {
+		return nil, Errors{{Path: "(file)", Msg: "value is empty; allowed a scenario mapping with at least orbit and body (sunsight init writes one)"}}
+	}
+	root := doc.Content[0]
+	w := walker{nodes: map[string]*yaml.Node{}}
+	w.check(root, reflect.TypeOf(fileScenario{}), "")
+	if len(w.errs) > 0 {
+		return nil, w.errs
+	}
+	var f fileScenario
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	dec.KnownFields(true)
+	if err := dec.Decode(&f); err != nil && err != io.EOF {
+		// The walker has seen every key and scalar, so this is a safety net.
+		return nil, Errors{{Path: "(file)", Msg: "value could not be read: " + cleanYAML(err.Error()) + "; allowed the keys and types shown by sunsight init"}}
+	}
+	r := resolver{nodes: w.nodes, dir: dir}
+	s := r.resolve(&f)
+	if len(r.errs) > 0 {
+		sort.SliceStable(r.errs, func(i, j int) bool { return r.errs[i].Line < r.errs[j].Line && r.errs[i].Line > 0 })
+		return nil, r.errs
+	}
+	rec, err := yaml.Marshal(&f)
+	if err != nil {
+		return nil, fmt.Errorf("scenario: writing the record: %w", err)
+	}
+	s.record = rec
+	return s, nil
+}
+
+func yamlSyntaxError(err error) *FieldError {
+	msg := cleanYAML(err.Error())
+	fe := &FieldError{Path: "(file)", Msg: "value is not valid YAML: " + msg + "; allowed YAML text (check indentation and quotes)"}
+	if m := lineNumberIn(msg); m != "" {
+		fe.Line, _ = strconv.Atoi(m)
+		fe.Col = 1
+	}
+	return fe
+}
+
+// lineNumberIn returns the digits after the first "line " in s, or "".
+func lineNumberIn(s string) string {
+	i := strings.Index(s, "line ")
+	if i < 0 {
+		return ""
+	}
+	j := i + 5
+	k := j
+	for k < len(s) && s[k] >= '0' && s[k] <= '9' {
+		k++
+	}
+	return s[j:k]
+}
+
+func cleanYAML(s string) string {
+	s = strings.TrimPrefix(s, "yaml: ")
+	s = strings.ReplaceAll(s, "\n", " ")
+	return strings.ToLower(s)
+}
+
+// walker checks the node tree against the file types before decoding, so that
+// every error carries a key path, a line and a column, and no Go type name
+// reaches the user.
+type walker struct {
+	nodes map[string]*yaml.Node
+	errs  Errors
+}
+
+func (w *walker) fail(n *yaml.Node, path, format string, a ...any) {
+	w.errs = append(w.errs, &FieldError{Path: path, Line: n.Line, Col: n.Column, Msg: fmt.Sprintf(format, a...)})
+}
+
+var textUnmarshaler = reflect.TypeOf((*encoding.TextUnmarshaler)(nil)).Elem()
+
+// yamlFields lists a struct type's keys, flattening inline fields.
+func yamlFields(t reflect.Type) map[string]reflect.Type {
+	out := map[string]reflect.Type{}
+	for i := 0; i < t.NumField(); i++ {
+		f := t.Field(i)
+		tag := f.Tag.Get("yaml")
+		name, opts, _ := strings.Cut(tag, ",")
+		if opts == "inline" || strings.Contains(opts, "inline") {
+			for k, v := range yamlFields(f.Type) {
+				out[k] = v
+			}
+			continue
+		}
+		if name == "" || name == "-" {
+			continue
+		}
+		out[name] = f.Type
+	}
+	return out
+}
+
+func join(path, key string) string {
+	if path == "" {
+		return key
+	}
+	return path + "." + key
+}
+
+func shown(n *yaml.Node) string {
+	switch n.Kind {
+	case yaml.MappingNode:
+		return "a mapping"
+	case yaml.SequenceNode:
+		return "a list"
+	case yaml.AliasNode:
+		return "an alias"
+	}
+	v := n.Value
+	if len(v) > 40 {
+		v = v[:40] + "…"
+	}
+	return strconv.Quote(v)
+}
+
+func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
+	if n.Kind == yaml.AliasNode {
+		w.fail(n, path, "value is a yaml alias; allowed plain values (aliases are not supported)")
+		return
+	}
+	if path != "" {
+		w.nodes[path] = n
+	}
+	for t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	if n.Kind == yaml.ScalarNode && n.Tag == "!!null" {
+		if t.Kind() == reflect.Struct && t != reflect.TypeOf(Span(0)) {
+			return // an empty section keeps its defaults
+		}
+		w.fail(n, path, "value is empty; allowed %s", describe(t))
+		return
+	}
+	if reflect.PointerTo(t).Implements(textUnmarshaler) {
+		if n.Kind != yaml.ScalarNode {
+			w.fail(n, path, "value %s is not %s; allowed %s", shown(n), describe(t), describe(t))
+			return
+		}
+		v := reflect.New(t).Interface().(encoding.TextUnmarshaler)
+		if err := v.UnmarshalText([]byte(n.Value)); err != nil {
+			w.fail(n, path, "value %s", err.Error())
+		}
+		return
+	}
+	switch t.Kind() {
+	case reflect.Struct:
+		if n.Kind != yaml.MappingNode {
+			w.fail(n, path, "value %s is not a mapping; allowed a mapping of keys", shown(n))
+			return
+		}
+		fields := yamlFields(t)
+		seen := map[string]*yaml.Node{}
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			k, v := n.Content[i], n.Content[i+1]
+			kp := join(path, k.Value)
+			if first, dup := seen[k.Value]; dup {
+				w.fail(k, kp, "key %q is given twice (first at line %d); allowed each key once", k.Value, first.Line)
+				continue
+			}
+			seen[k.Value] = k
+			ft, ok := fields[k.Value]
+			if !ok {
+				keys := make([]string, 0, len(fields))
+				for name := range fields {
+					keys = append(keys, name)
+				}
+				sort.Strings(keys)
+				w.fail(k, kp, "key %q is unknown; allowed %s", k.Value, strings.Join(keys, ", "))
+				continue
+			}
+			w.check(v, ft, kp)
+		}
+	case reflect.Slice:
+		if n.Kind != yaml.SequenceNode {
+			w.fail(n, path, "value %s is not a list; allowed %s", shown(n), describe(t))
+			return
+		}
+		for i, c := range n.Content {
+			w.check(c, t.Elem(), fmt.Sprintf("%s[%d]", path, i))
+		}
+	case reflect.String:
+		if n.Kind != yaml.ScalarNode {
+			w.fail(n, path, "value %s is not text; allowed a single value", shown(n))
+		}
+	case reflect.Float64:
+		if n.Kind != yaml.ScalarNode || (n.Tag != "!!int" && n.Tag != "!!float") {
+			w.fail(n, path, "value %s is not a number; allowed a number such as 12.5", shown(n))
+			return
+		}
+		var v float64
+		if err := n.Decode(&v); err != nil || v != v || v > 1e300 || v < -1e300 {
+			w.fail(n, path, "value %s is not a finite number; allowed a number such as 12.5", shown(n))
+		}
+	case reflect.Int, reflect.Int64:
+		if n.Kind != yaml.ScalarNode || n.Tag != "!!int" {
+			w.fail(n, path, "value %s is not a whole number; allowed a whole number such as 3", shown(n))
+			return
+		}
+		var out int64
+		if err := n.Decode(&out); err != nil {
+			w.fail(n, path, "value %s is out of range; allowed a whole number such as 3", shown(n))
+		}
+	case reflect.Bool:
+		if n.Kind != yaml.ScalarNode || n.Tag != "!!bool" {
+			w.fail(n, path, "value %s is not true or false; allowed true or false", shown(n))
+		}
+	}
+}
+
+func describe(t reflect.Type) string {
+	for t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	switch {
+	case t == reflect.TypeOf(Span(0)):
+		return "a length of time such as 90m, 1d12h or 30d"
+	case t.Kind() == reflect.Struct:
+		return "a mapping of keys"
+	case t.Kind() == reflect.Slice:
+		return "a list of " + strings.TrimPrefix(strings.TrimPrefix(describe(t.Elem()), "a "), "an ")
+	case t.Kind() == reflect.String:
+		return "a text value"
+	case t.Kind() == reflect.Float64:
+		return "a number"
+	case t.Kind() == reflect.Int, t.Kind() == reflect.Int64:
+		return "a whole number"
+	case t.Kind() == reflect.Bool:
+		return "true or false"
+	}
+	return "a value"
+}

@@ -1,0 +1,184 @@
+package scenario
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func TestExamplesLoadAndMatchTemplates(t *testing.T) {
+	for _, name := range ExampleNames() {
+		tmpl, err := ExampleText(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ex, err := os.ReadFile(filepath.Join("..", "examples", name+".yaml"))
+		if err != nil || !bytes.Equal(ex, tmpl) {
+			t.Errorf("examples/%s.yaml differs from scenario/templates (copy it over): %v", name, err)
+		}
+		s, err := Load(filepath.Join("templates", name+".yaml"))
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		// The record is itself a valid scenario that resolves to the same record.
+		again, err := Parse(s.Record(), s.Dir)
+		if err != nil {
+			t.Fatalf("%s record does not load: %v\n%s", name, err, s.Record())
+		}
+		if !bytes.Equal(again.Record(), s.Record()) {
+			t.Errorf("%s: record is not a fixed point", name)
+		}
+	}
+	if len(ExampleNames()) != 3 {
+		t.Errorf("examples: %v", ExampleNames())
+	}
+}
+
+const minimal = `
+orbit: {altitude_km: 500, inclination_deg: 97.4}
+body:
+  sensors:
+    - {name: a, kind: cosine, face: "+X"}
+`
+
+func TestDefaults(t *testing.T) {
+	s, err := Parse([]byte(minimal), "/tmp")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Step.String() != "10s" || s.Duration.String() != "1d" || s.Seed != 1 || s.Orbit.Propagator != "j2-mean" ||
+		s.Albedo.Model != "uniform" || s.Albedo.Value != 0.30 || s.Attitude.Name != LawTumble || s.MonteCarlo.Units != 1 {
+		t.Errorf("defaults: %+v", s)
+	}
+	rec := string(s.Record())
+	for _, want := range []string{"step: 10s", "propagator: j2-mean", "half_angle_deg: 90", "threshold: 0.05", "max_rate_deg_s: 10", "seed: 1"} {
+		if !strings.Contains(rec, want) {
+			t.Errorf("record lacks %q:\n%s", want, rec)
+		}
+	}
+	if got := s.Orbit.SemiMajorAxisKm; got != 6878.137 {
+		t.Errorf("a = %v; want 6878.137 (WGS 84 Rₑ + 500 km)", got)
+	}
+}
+
+func TestSensorMount(t *testing.T) {
+	// Closed form: +X tilted 30° toward +Y gives (cos 30°, sin 30°, 0).
+	s, err := Parse([]byte(`
+orbit: {altitude_km: 500, inclination_deg: 45}
+body:
+  sensors:
+    - {name: a, kind: quadrant, face: "+X", tilt_deg: 30, tilt_toward: "+Y"}
+`), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	b := s.Body.Sensors[0].Boresight
+	if abs(b.X-0.8660254037844386) > 1e-15 || abs(b.Y-0.5) > 1e-15 || b.Z != 0 {
+		t.Errorf("boresight %v", b)
+	}
+}
+
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+func TestTLEOrbit(t *testing.T) {
+	c := tleSamples[0]
+	s, err := Parse([]byte("orbit:\n  tle:\n    - \""+c.l1+"\"\n    - \""+c.l2+"\"\nbody:\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n"), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Orbit.Kind != OrbitTLE || !s.Epoch.Equal(s.Orbit.TLE.Epoch) {
+		t.Errorf("orbit %+v epoch %v", s.Orbit, s.Epoch)
+	}
+}
+
+func TestBadInputs(t *testing.T) {
+	sensor := "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n"
+	orbit := "orbit: {altitude_km: 500, inclination_deg: 45}\n"
+	tle := tleSamples[0]
+	cases := []struct{ name, text, want string }{
+		{"negative altitude", "orbit: {altitude_km: -20, inclination_deg: 45}\n" + sensor, "orbit.altitude_km (line 1, col 22): value -20"},
+		{"sub-surface perigee", "orbit: {semi_major_axis_km: 6000, eccentricity: 0, inclination_deg: 10}\n" + sensor, "orbit.semi_major_axis_km"},
+		{"eccentricity 1", "orbit: {semi_major_axis_km: 8000, eccentricity: 1, inclination_deg: 10}\n" + sensor, "orbit.eccentricity"},
+		{"unknown face", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+W\"}]\n", "body.sensors[0].face (line 3, col"},
+		{"fov zero", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", half_angle_deg: 0}]\n", "half_angle_deg"},
+		{"fov 95", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", half_angle_deg: 95}]\n", "value 95 is out of range; allowed a field of view"},
+		{"step zero", "step: 0s\n" + orbit + sensor, "step (line 1, col 7): value 0s is not positive"},
+		{"step > duration", "step: 2h\nduration: 1h\n" + orbit + sensor, "longer than the duration"},
+		{"ltan 25", "orbit: {altitude_km: 500, ltan: \"25:00\"}\n" + sensor, "orbit.ltan"},
+		{"type error", "orbit: {altitude_km: high, inclination_deg: 45}\n" + sensor, "value \"high\" is not a number"},
+		{"unknown key", orbit + sensor + "colour: red\n", "colour (line 4, col 1): key \"colour\" is unknown"},
+		{"duplicate key", orbit + orbit + sensor, "key \"orbit\" is given twice"},
+		{"both altitude and a", "orbit: {altitude_km: 500, semi_major_axis_km: 7000, inclination_deg: 45}\n" + sensor, "together with altitude_km"},
+		{"unknown propagator", "orbit: {altitude_km: 500, inclination_deg: 45, propagator: sgp}\n" + sensor, "orbit.propagator"},
+		{"bad epoch", "epoch: 2026-03-20\n" + orbit + sensor, "epoch (line 1, col 8)"},
+		{"bad tle checksum", "orbit:\n  tle: [\"" + tle.l1 + "\", \"" + tle.l2[:68] + "0\"]\n" + sensor, "checksum"},
+		{"duplicate sensor", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\"}, {name: a, kind: cosine, face: \"-X\"}]\n", "used twice"},
+		{"empty sensors", orbit + "body:\n  sensors: []\n", "body.sensors (line 3"},
+		{"unknown estimator", orbit + sensor + "estimators: [kalman]\n", "estimators[0] (line 4"},
+		{"albedo 1.5", orbit + sensor + "albedo: {value: 1.5}\n", "albedo.value"},
+		{"units 0", orbit + sensor + "monte_carlo: {units: 0}\n", "monte_carlo.units"},
+		{"seed negative", "seed: -3\n" + orbit + sensor, "seed (line 1, col 7): value -3 is negative"},
+		{"unknown kind", orbit + "body:\n  sensors: [{name: a, kind: pinhole, face: \"+X\"}]\n", "kind"},
+		{"unknown law", orbit + sensor + "attitude: {law: wobble}\n", "attitude.law"},
+		{"quaternion norm", orbit + sensor + "attitude: {law: inertial, quaternion: [1, 1, 0, 0]}\n", "attitude.quaternion"},
+		{"law key misuse", orbit + sensor + "attitude: {law: nadir, max_rate_deg_s: 3}\n", "does not apply to law"},
+		{"tilt toward parallel", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", tilt_deg: 10, tilt_toward: \"-X\"}]\n", "tilt_toward"},
+		{"inclination 200", "orbit: {altitude_km: 500, inclination_deg: 200}\n" + sensor, "orbit.inclination_deg"},
+		{"missing inclination", "orbit: {altitude_km: 500}\n" + sensor, "orbit.inclination_deg"},
+		{"no orbit", sensor, "orbit: value has no orbit"},
+		{"span year", "duration: 1y\n" + orbit + sensor, "calendar-ambiguous"},
+		{"quadrant key on cosine", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", gap_mm: 0.1}]\n", "does not apply to kind"},
+		{"grid without file", orbit + sensor + "albedo: {model: grid}\n", "albedo.grid_file"},
+		{"unknown figure", orbit + sensor + "output: {figures: [pie]}\n", "output.figures[0]"},
+		{"decimate 0", orbit + sensor + "output: {decimate: 0}\n", "output.decimate"},
+		{"yaml syntax", "orbit: [\n", "not valid YAML"},
+		{"list for mapping", "orbit: [1, 2]\n" + sensor, "orbit (line 1, col 8): value a list is not a mapping"},
+		{"empty file", "", "value is empty"},
+		{"cylinder radius", orbit + sensor + "  obstructions: [{name: m, shape: cylinder, from_m: [0,0,0], to_m: [0,0,1]}]\n", "radius_m"},
+		{"coverage k too big", orbit + sensor + "targets: {coverage_sensors: 3, min_coverage: 0.9}\n", "targets.coverage_sensors"},
+		{"bool type", orbit + sensor + "targets: {survive_one_failure: maybe}\n", "not true or false"},
+	}
+	for _, c := range cases {
+		_, err := Parse([]byte(c.text), "")
+		if err == nil {
+			t.Errorf("%s: accepted", c.name)
+			continue
+		}
+		msg := err.Error()
+		if !strings.Contains(msg, c.want) {
+			t.Errorf("%s: error %q lacks %q", c.name, msg, c.want)
+		}
+		for _, line := range strings.Split(msg, "\n") {
+			if strings.Contains(line, "float64") || strings.Contains(line, "scenario.file") || !strings.Contains(line, "allowed") {
+				t.Errorf("%s: line %q leaks a Go type or says nothing allowed", c.name, line)
+			}
+		}
+	}
+	if _, err := Load("no/such/file.yaml"); err == nil || !strings.Contains(err.Error(), "does not exist") {
+		t.Errorf("missing file: %v", err)
+	}
+}
+
+func FuzzParse(f *testing.F) {
+	for _, n := range ExampleNames() {
+		b, _ := ExampleText(n)
+		f.Add(b)
+	}
+	f.Add([]byte(minimal))
+	f.Add([]byte("orbit: {semi_major_axis_km: 7000, eccentricity: 0.01, inclination_deg: 98}\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		s, err := Parse(data, "")
+		if err == nil {
+			if _, err := Parse(s.Record(), ""); err != nil {
+				t.Fatalf("record of a valid scenario does not load: %v", err)
+			}
+		}
+	})
+}

@@ -1,0 +1,424 @@
+package scenario
+
+import (
+	"fmt"
+	"math"
+	"strings"
+	"time"
+
+	"go.yaml.in/yaml/v3"
+	"gonum.org/v1/gonum/num/quat"
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// earthRadiusKm is the WGS 84 equatorial radius (NIMA TR8350.2, 3rd ed.
+// 2000), repeated here for the altitude checks only.
+const earthRadiusKm = 6378.137
+
+// minAltitudeKm is the lowest perigee altitude accepted: 100 km, the
+// conventional edge of space (common practice, no source); below ~150 km an
+// orbit decays within days, so results there are not meaningful anyway.
+const minAltitudeKm = 100
+
+// Defaults, all in one place (each is common practice, no source, unless noted).
+const (
+	defaultName       = "unnamed scenario"
+	defaultEpoch      = "2026-03-20T00:00:00Z" // near an equinox, so eclipses are near their longest for low inclinations
+	defaultDuration   = Span(24 * time.Hour)
+	defaultStep       = Span(10 * time.Second)
+	defaultSeed       = 1
+	defaultPropagator = "j2-mean"
+	defaultSunModel   = "low-precision"
+	defaultShadow     = "conical"
+	defaultAlbedo     = 0.30 // global mean Bond albedo ≈ 0.29–0.31 (from memory)
+	defaultCells      = 1000
+	defaultUnits      = 1
+	defaultDecimate   = 1
+	defaultThreshold  = 0.05
+	defaultFullScale  = 1.0
+	defaultADCBits    = 12
+	defaultMaxRate    = 10.0 // deg/s: a typical post-deployment tip-off bound
+)
+
+var (
+	propagators = []string{"two-body", "j2-mean", "j2-numeric"}
+	sunModels   = []string{"low-precision", "meeus"}
+	shadows     = []string{"conical", "cylindrical"}
+	lawNames    = []string{LawNadir, LawSun, LawInertial, LawSpin, LawTumble, LawIsotropic}
+	kinds       = []string{KindCosine, KindQuadrant, KindDigital}
+	estimators  = []string{"least-squares", "opposite-pairs", "two-axis", "combined"}
+	albedos     = []string{AlbedoNone, AlbedoUniform, AlbedoZonal, AlbedoGrid}
+	faces       = []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"}
+	eulerSeqs   = []string{"121", "123", "131", "132", "212", "213", "231", "232", "312", "313", "321", "323"}
+)
+
+const deg = math.Pi / 180
+
+type resolver struct {
+	nodes map[string]*yaml.Node
+	dir   string
+	errs  Errors
+}
+
+// fail records a problem at path, taking the line from the nearest key of the
+// path that the file has.
+func (r *resolver) fail(path, format string, a ...any) {
+	e := &FieldError{Path: path, Msg: fmt.Sprintf(format, a...)}
+	for p := path; p != ""; {
+		if n, ok := r.nodes[p]; ok {
+			e.Line, e.Col = n.Line, n.Column
+			break
+		}
+		if i := strings.LastIndexAny(p, ".["); i >= 0 {
+			p = p[:i]
+		} else {
+			p = ""
+		}
+	}
+	r.errs = append(r.errs, e)
+}
+
+func oneOf(v string, list []string) bool {
+	for _, s := range list {
+		if s == v {
+			return true
+		}
+	}
+	return false
+}
+
+func (r *resolver) choice(path string, v *string, def string, list []string) {
+	if *v == "" {
+		*v = def
+	}
+	if !oneOf(*v, list) {
+		r.fail(path, "value %q is unknown; allowed %s", *v, strings.Join(list, ", "))
+	}
+}
+
+func (r *resolver) rangeCheck(path string, v, lo, hi float64, loOpen bool, allowed string) {
+	if v < lo || v > hi || (loOpen && v == lo) {
+		r.fail(path, "value %g is out of range; allowed %s", v, allowed)
+	}
+}
+
+func setDefault(p **float64, v float64) float64 {
+	if *p == nil {
+		*p = &v
+	}
+	return **p
+}
+
+func (r *resolver) resolve(f *fileScenario) *Scenario {
+	s := &Scenario{Dir: r.dir}
+	if f.Name == "" {
+		f.Name = defaultName
+	}
+	s.Name = f.Name
+	if f.Epoch == "" && len(f.Orbit.TLE) == 0 {
+		f.Epoch = defaultEpoch
+	}
+	if f.Epoch != "" {
+		t, err := ParseEpoch(f.Epoch)
+		if err != nil {
+			r.fail("epoch", "value %s", err)
+		}
+		s.Epoch = t
+	}
+	if _, given := r.nodes["duration"]; !given {
+		f.Duration = defaultDuration
+	}
+	if _, given := r.nodes["step"]; !given {
+		f.Step = defaultStep
+	}
+	s.Duration, s.Step = f.Duration, f.Step
+	if f.Duration <= 0 {
+		r.fail("duration", "value %s is not positive; allowed a length of time > 0 such as 1d", f.Duration)
+	}
+	if f.Step <= 0 {
+		r.fail("step", "value %s is not positive; allowed a length of time > 0 such as 10s", f.Step)
+	} else if f.Duration > 0 && f.Step > f.Duration {
+		r.fail("step", "value %s is longer than the duration %s; allowed a step ≤ duration", f.Step, f.Duration)
+	} else if f.Step > 0 && f.Duration/f.Step > 100_000_000 {
+		r.fail("step", "value %s gives more than 1e8 steps over %s; allowed a longer step or a shorter duration", f.Step, f.Duration)
+	}
+	if f.Seed == nil {
+		v := int64(defaultSeed)
+		f.Seed = &v
+	}
+	if *f.Seed < 0 {
+		r.fail("seed", "value %d is negative; allowed a whole number ≥ 0", *f.Seed)
+	}
+	s.Seed = *f.Seed
+	s.Orbit = r.orbit(&f.Orbit, &f.Epoch, &s.Epoch)
+	r.choice("sun_model", &f.SunModel, defaultSunModel, sunModels)
+	r.choice("shadow", &f.Shadow, defaultShadow, shadows)
+	s.SunModel, s.Shadow = f.SunModel, f.Shadow
+	s.Attitude = r.attitude("attitude", &f.Attitude)
+	names := map[string]bool{}
+	for i := range f.Modes {
+		m := &f.Modes[i]
+		p := fmt.Sprintf("modes[%d]", i)
+		if m.Name == "" {
+			r.fail(p+".name", "value is empty; allowed a name for the mode")
+		} else if names[m.Name] {
+			r.fail(p+".name", "value %q is used twice; allowed a distinct name per mode", m.Name)
+		}
+		names[m.Name] = true
+		s.Modes = append(s.Modes, Mode{Name: m.Name, Attitude: r.attitude(p, &m.fileAttitude)})
+	}
+	s.Body = r.body(&f.Body)
+	s.Estimators = r.estimators(f, s.Body.Sensors)
+	s.Albedo = r.albedo(&f.Albedo)
+	s.Targets = r.targets(f.Targets, len(s.Body.Sensors))
+	if f.MonteCarlo.Units == 0 {
+		if _, given := r.nodes["monte_carlo.units"]; !given {
+			f.MonteCarlo.Units = defaultUnits
+		}
+	}
+	if f.MonteCarlo.Units < 1 || f.MonteCarlo.Units > 1_000_000 {
+		r.fail("monte_carlo.units", "value %d is out of range; allowed a whole number in [1, 1000000]", f.MonteCarlo.Units)
+	}
+	s.MonteCarlo.Units = f.MonteCarlo.Units
+	if f.Budget != nil {
+		s.Budget = Budget{Set: true, Calibrated: r.errorsOf("budget.calibrated", &f.Budget.Calibrated), ToleranceRad: f.Budget.ToleranceDeg * deg}
+		r.rangeCheck("budget.tolerance_deg", f.Budget.ToleranceDeg, 0, 90, true, "(0, 90]")
+	}
+	s.Output = r.output(&f.Output)
+	return s
+}
+
+func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
+	var out Orbit
+	r.choice("orbit.propagator", &o.Propagator, defaultPropagator, propagators)
+	out.Propagator = o.Propagator
+	has := func(p *float64) bool { return p != nil }
+	elems := has(o.SemiMajorAxisKm) || has(o.Eccentricity) || has(o.ArgPerigeeDeg)
+	switch {
+	case len(o.TLE) > 0:
+		if has(o.AltitudeKm) || elems || has(o.InclinationDeg) || has(o.RAANDeg) || has(o.MeanAnomalyDeg) || o.LTAN != "" {
+			r.fail("orbit.tle", "value is given with other orbit keys; allowed tle alone (its lines hold every element)")
+			return out
+		}
+		if len(o.TLE) != 2 {
+			r.fail("orbit.tle", "value has %d lines; allowed exactly two lines (line 1 and line 2)", len(o.TLE))
+			return out
+		}
+		t, err := ParseTLE(o.TLE[0], o.TLE[1])
+		if err != nil {
+			r.fail("orbit.tle", "value is not a valid element set: %s", err)
+			return out
+		}
+		out.Kind, out.TLE = OrbitTLE, &t
+		out.SemiMajorAxisKm, out.Eccentricity = t.SemiMajorAxisKm, t.Eccentricity
+		out.InclinationRad, out.RAANRad, out.ArgPerigeeRad, out.MeanAnomalyRad = t.InclinationRad, t.RAANRad, t.ArgPerigeeRad, t.MeanAnomalyRad
+		if *epoch == "" {
+			*epoch = t.Epoch.Format(time.RFC3339Nano)
+			*ep = t.Epoch
+		}
+	case has(o.AltitudeKm) && has(o.SemiMajorAxisKm):
+		r.fail("orbit.semi_major_axis_km", "value is given together with altitude_km; allowed one of altitude_km (circular) or semi_major_axis_km (elements)")
+		return out
+	case has(o.AltitudeKm):
+		h := *o.AltitudeKm
+		if h < minAltitudeKm || h > 100000 {
+			r.fail("orbit.altitude_km", "value %g is below %d km or above 100000 km (the surface is at 0); allowed [%d, 100000]", h, minAltitudeKm, minAltitudeKm)
+		}
+		if has(o.Eccentricity) || has(o.ArgPerigeeDeg) {
+			r.fail("orbit.altitude_km", "value is given with eccentricity or arg_perigee_deg; allowed semi_major_axis_km with full elements, or altitude_km for a circular orbit")
+		}
+		out.AltitudeKm, out.SemiMajorAxisKm = h, earthRadiusKm+h
+		if o.LTAN != "" {
+			if has(o.InclinationDeg) || has(o.RAANDeg) {
+				r.fail("orbit.ltan", "value is given with inclination_deg or raan_deg; allowed ltan alone (a sun-synchronous orbit sets both)")
+			}
+			lt, err := ParseLocalTime(o.LTAN)
+			if err != nil {
+				r.fail("orbit.ltan", "value %s", err)
+			}
+			out.Kind, out.LTANHours = OrbitSunSync, lt
+		} else {
+			if !has(o.InclinationDeg) {
+				r.fail("orbit.inclination_deg", "value is missing; allowed [0, 180] with altitude_km, or give ltan for a sun-synchronous orbit")
+				return out
+			}
+			out.Kind = OrbitCircular
+			out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, 0, 180)
+			out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), 0, 360)
+		}
+		out.MeanAnomalyRad = r.angle("orbit.mean_anomaly_deg", setDefault(&o.MeanAnomalyDeg, 0), 0, 360)
+	case has(o.SemiMajorAxisKm):
+		if o.LTAN != "" {
+			r.fail("orbit.ltan", "value is given with semi_major_axis_km; allowed ltan with altitude_km only")
+		}
+		a := *o.SemiMajorAxisKm
+		e := setDefault(&o.Eccentricity, 0)
+		if !(e >= 0 && e < 1) {
+			r.fail("orbit.eccentricity", "value %g is not an ellipse; allowed [0, 1)", e)
+			return out
+		}
+		if rp := a * (1 - e); rp < earthRadiusKm+minAltitudeKm {
+			r.fail("orbit.semi_major_axis_km", "value %g gives a perigee altitude of %.1f km; allowed a·(1−e) ≥ %.0f km (%d km above the surface)", a, rp-earthRadiusKm, earthRadiusKm+minAltitudeKm, minAltitudeKm)
+		}
+		if !has(o.InclinationDeg) {
+			r.fail("orbit.inclination_deg", "value is missing; allowed [0, 180]")
+			return out
+		}
+		out.Kind, out.SemiMajorAxisKm, out.Eccentricity = OrbitKeplerian, a, e
+		out.AltitudeKm = a - earthRadiusKm
+		out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, 0, 180)
+		out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), 0, 360)
+		out.ArgPerigeeRad = r.angle("orbit.arg_perigee_deg", setDefault(&o.ArgPerigeeDeg, 0), 0, 360)
+		out.MeanAnomalyRad = r.angle("orbit.mean_anomaly_deg", setDefault(&o.MeanAnomalyDeg, 0), 0, 360)
+	default:
+		r.fail("orbit", "value has no orbit; allowed altitude_km + inclination_deg, altitude_km + ltan, semi_major_axis_km + eccentricity + angles, or tle")
+	}
+	return out
+}
+
+func (r *resolver) angle(path string, v, lo, hi float64) float64 {
+	r.rangeCheck(path, v, lo, hi, false, fmt.Sprintf("[%g, %g] degrees", lo, hi))
+	return v * deg
+}
+
+// parseAxis reads "+X", "-Z" … into a unit vector.
+func parseAxis(s string) (r3.Vec, bool) {
+	if len(s) != 2 || (s[0] != '+' && s[0] != '-') {
+		return r3.Vec{}, false
+	}
+	sign := 1.0
+	if s[0] == '-' {
+		sign = -1
+	}
+	switch s[1] {
+	case 'X', 'x':
+		return r3.Vec{X: sign}, true
+	case 'Y', 'y':
+		return r3.Vec{Y: sign}, true
+	case 'Z', 'z':
+		return r3.Vec{Z: sign}, true
+	}
+	return r3.Vec{}, false
+}
+
+func (r *resolver) axis(path string, v *string, def string) r3.Vec {
+	if *v == "" {
+		*v = def
+	}
+	a, ok := parseAxis(*v)
+	if !ok {
+		r.fail(path, "value %q is not a body axis; allowed %s", *v, strings.Join(faces, ", "))
+	}
+	return a
+}
+
+func (r *resolver) attitude(path string, a *fileAttitude) Attitude {
+	if a.InSunlight != nil || a.InEclipse != nil {
+		if a.Law != "" && a.Law != LawSchedule {
+			r.fail(path+".law", "value %q is given with in_sunlight/in_eclipse; allowed either a law or a schedule", a.Law)
+		}
+		if a.InSunlight == nil || a.InEclipse == nil {
+			r.fail(path, "value has only one of in_sunlight and in_eclipse; allowed both")
+			return Attitude{}
+		}
+		a.Law = LawSchedule
+		sun := r.law(path+".in_sunlight", a.InSunlight)
+		ecl := r.law(path+".in_eclipse", a.InEclipse)
+		return Attitude{Law: Law{Name: LawSchedule}, InSunlight: &sun, InEclipse: &ecl}
+	}
+	if a.Law == "" {
+		a.Law = LawTumble
+	}
+	return Attitude{Law: r.law(path, &a.fileLaw)}
+}
+
+func (r *resolver) law(path string, l *fileLaw) Law {
+	if l.Law == "" {
+		r.fail(path+".law", "value is missing; allowed %s", strings.Join(lawNames, ", "))
+		return Law{}
+	}
+	if !oneOf(l.Law, lawNames) {
+		r.fail(path+".law", "value %q is unknown; allowed %s", l.Law, strings.Join(lawNames, ", "))
+		return Law{}
+	}
+	out := Law{Name: l.Law, Orientation: quat.Number{Real: 1}}
+	used := map[string]bool{}
+	switch l.Law {
+	case LawNadir:
+		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
+		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, "+X")
+		out.RollRad = r.angle(path+".roll_offset_deg", setDefault(&l.RollOffsetDeg, 0), -180, 180)
+		out.PitchRad = r.angle(path+".pitch_offset_deg", setDefault(&l.PitchOffsetDeg, 0), -180, 180)
+		out.YawRad = r.angle(path+".yaw_offset_deg", setDefault(&l.YawOffsetDeg, 0), -180, 180)
+		used["point_axis"], used["align_axis"], used["roll_offset_deg"], used["pitch_offset_deg"], used["yaw_offset_deg"] = true, true, true, true, true
+	case LawSun:
+		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
+		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, "+X")
+		out.ClockRad = r.angle(path+".clock_deg", setDefault(&l.ClockDeg, 0), -360, 360)
+		used["point_axis"], used["align_axis"], used["clock_deg"] = true, true, true
+	case LawInertial, LawSpin:
+		r.orientation(path, l, &out)
+		used["quaternion"], used["euler_deg"], used["euler_sequence"] = true, true, true
+		if l.Law == LawSpin {
+			out.SpinAxis = r.axis(path+".spin_axis", &l.SpinAxis, "+Z")
+			rate := setDefault(&l.RateDegS, 1)
+			r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s")
+			out.RateRadS = rate * deg
+			used["spin_axis"], used["rate_deg_s"] = true, true
+		}
+	case LawTumble:
+		m := setDefault(&l.MaxRateDegS, defaultMaxRate)
+		r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
+		out.MaxRateRadS = m * deg
+		used["max_rate_deg_s"] = true
+	}
+	given := map[string]bool{
+		"point_axis": l.PointAxis != "", "align_axis": l.AlignAxis != "", "roll_offset_deg": l.RollOffsetDeg != nil,
+		"pitch_offset_deg": l.PitchOffsetDeg != nil, "yaw_offset_deg": l.YawOffsetDeg != nil, "clock_deg": l.ClockDeg != nil,
+		"quaternion": l.Quaternion != nil, "euler_deg": l.EulerDeg != nil, "euler_sequence": l.EulerSequence != "",
+		"spin_axis": l.SpinAxis != "", "rate_deg_s": l.RateDegS != nil, "max_rate_deg_s": l.MaxRateDegS != nil,
+	}
+	for _, k := range []string{"point_axis", "align_axis", "roll_offset_deg", "pitch_offset_deg", "yaw_offset_deg", "clock_deg", "quaternion", "euler_deg", "euler_sequence", "spin_axis", "rate_deg_s", "max_rate_deg_s"} {
+		if given[k] && !used[k] {
+			r.fail(path+"."+k, "value does not apply to law %q; allowed only that law's keys", l.Law)
+		}
+	}
+	return out
+}
+
+func (r *resolver) orientation(path string, l *fileLaw, out *Law) {
+	switch {
+	case l.Quaternion != nil && l.EulerDeg != nil:
+		r.fail(path+".euler_deg", "value is given together with quaternion; allowed one of them")
+	case l.Quaternion != nil:
+		q := l.Quaternion
+		if len(q) != 4 {
+			r.fail(path+".quaternion", "value has %d numbers; allowed four [w, x, y, z], scalar first", len(q))
+			return
+		}
+		n := quat.Number{Real: q[0], Imag: q[1], Jmag: q[2], Kmag: q[3]}
+		a := quat.Abs(n)
+		if math.Abs(a-1) > 1e-3 {
+			r.fail(path+".quaternion", "value has norm %g; allowed a unit quaternion (norm within 0.001 of 1)", a)
+			return
+		}
+		out.Orientation = quat.Scale(1/a, n)
+	case l.EulerDeg != nil:
+		if len(l.EulerDeg) != 3 {
+			r.fail(path+".euler_deg", "value has %d angles; allowed three angles in degrees", len(l.EulerDeg))
+			return
+		}
+		if l.EulerSequence == "" {
+			l.EulerSequence = "321"
+		}
+		if !oneOf(l.EulerSequence, eulerSeqs) {
+			r.fail(path+".euler_sequence", "value %q is unknown; allowed %s", l.EulerSequence, strings.Join(eulerSeqs, ", "))
+		}
+		for i, v := range l.EulerDeg {
+			out.EulerRad[i] = r.angle(fmt.Sprintf("%s.euler_deg[%d]", path, i), v, -360, 360)
+		}
+		out.EulerSequence = l.EulerSequence
+	default:
+		l.Quaternion = []float64{1, 0, 0, 0}
+	}
+}

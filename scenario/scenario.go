@@ -1,0 +1,232 @@
+package scenario
+
+import (
+	"time"
+
+	"gonum.org/v1/gonum/num/quat"
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// Scenario is a validated scenario file with every default filled in and every
+// value in the units of the code's boundary contract: radians, km, seconds.
+type Scenario struct {
+	Name       string
+	Epoch      time.Time // UTC start of the run
+	Duration   Span
+	Step       Span
+	Seed       int64 // every random draw of the run derives from it
+	Orbit      Orbit
+	SunModel   string // "low-precision" or "meeus"
+	Shadow     string // "conical" or "cylindrical"
+	Attitude   Attitude
+	Modes      []Mode // further named attitudes a run or layout search may evaluate
+	Body       Body
+	Estimators []string // "least-squares", "opposite-pairs", "two-axis", "combined"
+	Albedo     Albedo
+	Targets    Targets
+	MonteCarlo MonteCarlo
+	Budget     Budget
+	Output     Output
+	Dir        string // folder of the scenario file; relative paths are taken from it
+
+	record []byte
+}
+
+// Orbit kinds.
+const (
+	OrbitCircular  = "circular"        // altitude_km + inclination_deg
+	OrbitSunSync   = "sun-synchronous" // altitude_km + ltan
+	OrbitKeplerian = "keplerian"       // full mean elements
+	OrbitTLE       = "tle"             // mean elements read from a TLE
+)
+
+// Orbit is the starting orbit. For OrbitSunSync the inclination and RAAN are
+// left at zero: the build step derives them from AltitudeKm, LTANHours and the
+// epoch with orbit's J2 helpers.
+type Orbit struct {
+	Kind            string
+	Propagator      string  // "two-body", "j2-mean" or "j2-numeric"
+	AltitudeKm      float64 // circular and sun-synchronous kinds; else a−Rₑ
+	LTANHours       float64 // sun-synchronous kind only, in [0, 24)
+	SemiMajorAxisKm float64 // all kinds (Rₑ + altitude for the circular kinds)
+	Eccentricity    float64
+	InclinationRad  float64
+	RAANRad         float64
+	ArgPerigeeRad   float64
+	MeanAnomalyRad  float64
+	TLE             *TLE // the parsed element set for OrbitTLE, else nil
+}
+
+// Attitude law names.
+const (
+	LawNadir     = "nadir"
+	LawSun       = "sun"
+	LawInertial  = "inertial"
+	LawSpin      = "spin"
+	LawTumble    = "tumble"
+	LawIsotropic = "isotropic"
+	LawSchedule  = "schedule" // InSunlight while lit, InEclipse in shadow
+)
+
+// Law is one attitude law with its parameters; only those of its kind are set.
+type Law struct {
+	Name string // one of the Law* constants
+	// PointAxis is the body axis pointed at nadir (nadir) or at the sun (sun);
+	// AlignAxis is the body axis brought closest to the velocity (nadir) or to
+	// the orbit normal (sun).
+	PointAxis, AlignAxis r3.Vec
+	// RollRad, PitchRad, YawRad offset the nadir attitude from LVLH (3-2-1).
+	RollRad, PitchRad, YawRad float64
+	// ClockRad turns the sun-pointing attitude about the sun line.
+	ClockRad float64
+	// Orientation is the body ← ECI attitude of an inertial law, or the
+	// starting attitude of a spin law, when given as a quaternion (scalar
+	// first, unit norm). When EulerSequence is set, EulerRad holds the angles
+	// instead and the build step turns them into a rotation.
+	Orientation   quat.Number
+	EulerRad      [3]float64
+	EulerSequence string // e.g. "321"; empty when a quaternion was given
+	SpinAxis      r3.Vec // spin law: body axis of rotation
+	RateRadS      float64
+	MaxRateRadS   float64 // tumble law: the largest initial body rate drawn
+}
+
+// Attitude is the pointing of a run: a Law, or a schedule of two laws.
+type Attitude struct {
+	Law
+	InSunlight, InEclipse *Law // set only when Law.Name is LawSchedule
+}
+
+// Mode is a named attitude.
+type Mode struct {
+	Name     string
+	Attitude Attitude
+}
+
+// Sensor kinds.
+const (
+	KindCosine   = "cosine"
+	KindQuadrant = "quadrant"
+	KindDigital  = "digital"
+)
+
+// Sensor is one sun sensor: its mount in body axes, its field of view, its
+// kind's parameters and its error model (one-sigma values).
+type Sensor struct {
+	Name      string
+	Kind      string
+	Face      string // "+X" …, empty when the mount was a boresight vector
+	Boresight r3.Vec // unit vector, body axes
+	RefAxis   r3.Vec // unit vector ⟂ Boresight: the sensor's own x axis after tilt and clock
+	PositionM r3.Vec
+	TiltRad   float64
+	ClockRad  float64
+
+	HalfAngleRad float64 // field of view half angle, in (0, π/2]
+	Threshold    float64 // fraction of the full-sun normal response below which the reading is "no sun"
+	FullScale    float64 // reading at full sun along the boresight
+	ADCBits      int
+
+	RollOff [][2]float64 // cosine: (angle rad, response relative to cos) pairs, angle increasing; nil = ideal cosine
+
+	ShadeHeightMM, CellSizeMM, GapMM float64 // quadrant
+
+	AccuracyRad1Sigma float64 // digital
+	SquareFOV         bool    // digital: square field of view of half side HalfAngleRad instead of a cone
+
+	Errors SensorErrors
+}
+
+// SensorErrors are the one-sigma values of the error model.
+type SensorErrors struct {
+	DarkOffset1Sigma       float64 // fraction of full scale
+	Gain1Sigma             float64 // fraction
+	Noise1Sigma            float64 // fraction of full scale, per sample
+	MisalignmentRad1Sigma  float64
+	ApertureOffsetMM1Sigma float64
+}
+
+// Obstruction shapes.
+const (
+	ShapeRectangle = "rectangle"
+	ShapeCylinder  = "cylinder"
+)
+
+// Obstruction is a body part that can shade a sensor. A rectangle is an
+// axis-aligned box (one half extent may be zero for a flat panel); a cylinder
+// runs from FromM to ToM with RadiusM.
+type Obstruction struct {
+	Name         string
+	Shape        string
+	CentreM      r3.Vec
+	HalfExtentsM r3.Vec
+	FromM, ToM   r3.Vec
+	RadiusM      float64
+}
+
+// Layout is a named alternative sensor list.
+type Layout struct {
+	Name    string
+	Sensors []Sensor
+}
+
+// Body holds the sensors flown, obstructions, alternative layouts and the
+// candidate mounts a layout search may choose from.
+type Body struct {
+	Sensors      []Sensor
+	Obstructions []Obstruction
+	Layouts      []Layout
+	Candidates   []Sensor
+}
+
+// Albedo models.
+const (
+	AlbedoNone    = "none"
+	AlbedoUniform = "uniform"
+	AlbedoZonal   = "zonal"
+	AlbedoGrid    = "grid"
+)
+
+// Albedo selects the Earth-reflection model.
+type Albedo struct {
+	Model    string
+	Value    float64 // uniform reflectance (also the zonal model's global mean)
+	GridFile string  // absolute path (resolved against Dir), grid model only
+	Cells    int     // number of equal-area cells of the visible cap
+}
+
+// Targets are the requirements a run is judged against; a zero value means
+// "no target".
+type Targets struct {
+	MinValidFraction  float64 // of sunlit time with a valid sun vector, in (0, 1]
+	MaxErrorP95Rad    float64 // 95th percentile of the sun-vector error
+	CoverageSensors   int     // k of "sky seen by at least k sensors"
+	MinCoverage       float64 // fraction of the sky seen by at least CoverageSensors sensors
+	MaxGap            Span    // longest sunlit interval without a valid sun vector
+	SurviveOneFailure bool    // targets must hold with any one sensor failed
+}
+
+// MonteCarlo sets the number of error-model draws.
+type MonteCarlo struct{ Units int }
+
+// Budget gives the residual errors after calibration and the pointing-knowledge
+// tolerance the budget is compared with; Set is false when the file has none.
+type Budget struct {
+	Set          bool
+	Calibrated   SensorErrors
+	ToleranceRad float64
+}
+
+// Output sets the time-series decimation (keep every Decimate-th step) and the
+// figures to draw.
+type Output struct {
+	Decimate int
+	Figures  []string
+}
+
+// Figure names.
+var figureNames = []string{"eclipse", "visibility", "coverage", "error", "albedo", "gaps", "sky"}
+
+// Record returns the whole resolved scenario as YAML with every default
+// written out, for the run's record; loading it gives the same scenario.
+func (s *Scenario) Record() []byte { return append([]byte(nil), s.record...) }

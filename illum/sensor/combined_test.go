@@ -1,7 +1,6 @@
 package sensor
 
 import (
-	"math"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -30,11 +29,10 @@ func TestTwoAxisAndCombinedWeighting(t *testing.T) {
 	if n := (Combined{}).Estimate(a, r).N; n != 5 {
 		t.Errorf("combined used %d sensors, want 2 digital + 3 lit cosine", n)
 	}
-	// Perturb the two digital readings symmetrically about s.
-	r[6].Dir = r3.Rotate(s, 0.01, r3.Vec{X: 1})
-	r[7].Dir = r3.Rotate(s, -0.01, r3.Vec{X: 1})
+	// Perturb the two digital readings symmetrically about s (rotations about one axis normal to s).
+	r[6].Dir = r3.Rotate(s, 0.01, r3.Cross(s, r3.Vec{X: 1}))
+	r[7].Dir = r3.Rotate(s, -0.01, r3.Cross(s, r3.Vec{X: 1}))
 	if got := (TwoAxis{}).Estimate(a, r); angle(got.Dir, s) > 1e-12 {
 		t.Errorf("two-axis mean off by %.3g rad, want midway", angle(got.Dir, s))
 	}
-	_ = math.Pi
 }

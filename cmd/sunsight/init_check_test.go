@@ -1,0 +1,51 @@
+package main
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func TestInitThenCheck(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "s.yaml")
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"init", "-example", "nadir-6u-sso", "-o", path}, &out, &errb); code != 0 {
+		t.Fatalf("init exit %d: %s", code, errb.String())
+	}
+	if code := runMain([]string{"init", "-o", path}, &out, &errb); code != 2 || !strings.Contains(errb.String(), "-force") {
+		t.Fatalf("overwrite without -force: exit %d, %s", code, errb.String())
+	}
+	if code := runMain([]string{"init", "-o", path, "-force"}, &out, &errb); code != 0 {
+		t.Fatalf("init -force exit %d", code)
+	}
+	out.Reset()
+	if code := runMain([]string{"check", path}, &out, &errb); code != 0 {
+		t.Fatalf("check exit %d: %s", code, errb.String())
+	}
+	if !strings.Contains(out.String(), "propagator: j2-mean") {
+		t.Errorf("check output lacks the record:\n%s", out.String())
+	}
+}
+
+func TestCheckErrors(t *testing.T) {
+	dir := t.TempDir()
+	bad := filepath.Join(dir, "bad.yaml")
+	os.WriteFile(bad, []byte("orbit: {altitude_km: -5, inclination_deg: 45}\nbody: {sensors: [{name: a, kind: cosine, face: \"+X\"}]}\n"), 0o644)
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"check", bad}, &out, &errb); code != 2 || !strings.Contains(errb.String(), "orbit.altitude_km (line 1") {
+		t.Errorf("bad file: exit %d, %q", code, errb.String())
+	}
+	errb.Reset()
+	if code := runMain([]string{"check", filepath.Join(dir, "none.yaml")}, &out, &errb); code != 2 || !strings.Contains(errb.String(), "does not exist") {
+		t.Errorf("missing file: exit %d, %q", code, errb.String())
+	}
+	if code := runMain([]string{"init", "-example", "nope", "-o", filepath.Join(dir, "x.yaml")}, &out, &errb); code != 2 {
+		t.Errorf("unknown example: exit %d", code)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "x.yaml")); err == nil {
+		t.Errorf("unknown example left a file")
+	}
+}

@@ -41,6 +41,7 @@ type J2Numeric struct {
 	initial State
 	h0      float64
 	rk      *dopri5
+	opt     NumericOptions
 }
 
 // NewJ2Numeric returns the Cowell propagator of MEAN elements: it starts
@@ -83,8 +84,12 @@ func newJ2NumericState(s State, aKm float64, opt NumericOptions) *J2Numeric {
 		dy[3], dy[4], dy[5] = acc.X, acc.Y, acc.Z
 	}
 	h0 := Period(aKm) / 1000
-	return &J2Numeric{initial: s, h0: h0, rk: newDopri5(f, 0, pack(s), h0, opt.RelTol, opt.AbsTolKm, opt.MaxStepS)}
+	return &J2Numeric{initial: s, h0: h0, opt: opt, rk: newDopri5(f, 0, pack(s), h0, opt.RelTol, opt.AbsTolKm, opt.MaxStepS)}
 }
+
+// Options returns the integration options in force (defaults filled in), so
+// a caller can start another integration of the same orbit from a state.
+func (p *J2Numeric) Options() NumericOptions { return p.opt }
 
 // InitialState returns the osculating state at t = 0.
 func (p *J2Numeric) InitialState() State { return p.initial }

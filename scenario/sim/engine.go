@@ -1,0 +1,187 @@
+package sim
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"runtime"
+	"sync"
+	"time"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/ephem"
+	"sunsight/illum"
+	"sunsight/illum/albedo"
+	"sunsight/illum/sensor"
+	"sunsight/illum/sky"
+	"sunsight/orbit"
+	"sunsight/scenario/attitude"
+)
+
+// Config is everything one simulation needs, already built into physics
+// objects. The scenario package fills it from a scenario file.
+type Config struct {
+	Epoch    time.Time
+	Duration float64 // s
+	Step     float64 // s
+
+	// NewPropagator returns a fresh propagator positioned at the epoch; it is
+	// called once per simulated unit and once for the eclipse search, since
+	// numerical propagators keep state.
+	NewPropagator func() orbit.Propagator
+	Sun           ephem.Sun
+	// Cylindrical selects the cylindrical shadow instead of the conical one.
+	Cylindrical bool
+	Law         attitude.Law
+
+	// Array is the nominal sensor layout; Viewers[i] says whether sensor i
+	// sees a body direction (field of view and obstructions). When Viewers is
+	// nil the sensors' own InFOV is used.
+	Array   *sensor.Array
+	Viewers []sky.Viewer
+
+	// NewAlbedo returns a fresh albedo model (models keep scratch buffers);
+	// nil means no albedo. AlbedoResponse[i] is sensor i's angular response
+	// for the albedo integral (zero value: cosine).
+	NewAlbedo      func() (*albedo.Model, error)
+	AlbedoResponse []albedo.Response
+
+	// Estimators are run side by side on the same readings; the first one is
+	// the primary, used for validity gaps and the time series.
+	Estimators []sensor.Estimator
+
+	// Seed drives every random draw. Units is the number of simulated units
+	// of the sensor error models (1 = the nominal unit with noise only if
+	// the error model has noise). Workers bounds the parallel units (0 =
+	// GOMAXPROCS).
+	Seed    uint64
+	Units   int
+	Workers int
+
+	// SeriesStride > 0 keeps every SeriesStride-th step of unit 0 as a time
+	// series; SunTrackPoints bounds the body-frame sun track kept for unit 0.
+	SeriesStride   int
+	SunTrackPoints int
+
+	// Progress, when not nil, is called from the unit-0 loop with the
+	// fraction done; it must be cheap.
+	Progress func(done float64)
+}
+
+// Validate checks the fields a caller can get wrong.
+func (c *Config) Validate() error {
+	switch {
+	case c.NewPropagator == nil:
+		return errors.New("sim: no propagator")
+	case c.Sun == nil:
+		return errors.New("sim: no sun model")
+	case c.Law == nil:
+		return errors.New("sim: no attitude law")
+	case c.Array == nil || c.Array.Len() == 0:
+		return errors.New("sim: no sensors")
+	case !(c.Step > 0) || !(c.Duration >= c.Step):
+		return fmt.Errorf("sim: step %g s and duration %g s: need 0 < step ≤ duration", c.Step, c.Duration)
+	case len(c.Estimators) == 0:
+		return errors.New("sim: no estimator")
+	case c.Viewers != nil && len(c.Viewers) != c.Array.Len():
+		return fmt.Errorf("sim: %d viewers for %d sensors", len(c.Viewers), c.Array.Len())
+	case c.AlbedoResponse != nil && len(c.AlbedoResponse) != c.Array.Len():
+		return fmt.Errorf("sim: %d albedo responses for %d sensors", len(c.AlbedoResponse), c.Array.Len())
+	}
+	return nil
+}
+
+// Steps is the number of grid points t = 0, Step, … < Duration (the end is
+// included when it falls on the grid).
+func (c *Config) Steps() int {
+	return int(math.Floor(c.Duration/c.Step+1e-9)) + 1
+}
+
+// Run simulates every unit and gathers the result. It stops early with the
+// context's error when ctx is cancelled.
+func Run(ctx context.Context, cfg Config) (*Result, error) {
+	if err := cfg.Validate(); err != nil {
+		return nil, err
+	}
+	units := max(cfg.Units, 1)
+	workers := cfg.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	workers = min(workers, units)
+
+	res := &Result{Steps: cfg.Steps(), StepS: cfg.Step, DurationS: cfg.Duration}
+	res.Eclipses, res.EclipseStats = eclipses(&cfg)
+
+	unitRes := make([]*UnitResult, units)
+	errs := make([]error, units)
+	next := make(chan int)
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Go(func() {
+			for u := range next {
+				unitRes[u], errs[u] = runUnit(ctx, &cfg, u)
+			}
+		})
+	}
+feed:
+	for u := range units {
+		select {
+		case next <- u:
+		case <-ctx.Done():
+			break feed
+		}
+	}
+	close(next)
+	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
+		}
+	}
+	res.Units = unitRes
+	res.Nominal = unitRes[0]
+	res.AcrossUnits = acrossUnits(unitRes)
+	return res, nil
+}
+
+// unitSeed derives the seed of unit u's error draws and noise from the run
+// seed, so a unit's numbers do not depend on the number of workers.
+func unitSeed(seed uint64, u int) (draw, noise *rand.PCG) {
+	return rand.NewPCG(seed, uint64(2*u+1)), rand.NewPCG(seed, uint64(2*u+2))
+}
+
+// eclipses runs the event search of illum over the whole span with the same
+// propagator, sun and shadow model as the step loop.
+func eclipses(cfg *Config) ([]illum.Eclipse, illum.Stats) {
+	p := rewindable(cfg.NewPropagator)
+	jd0 := ephem.JulianDateTT(cfg.Epoch)
+	g := func(t float64) (r3.Vec, r3.Vec) {
+		s := p.StateAt(t)
+		u, d := cfg.Sun.Position(jd0 + t/86400)
+		return s.R, r3.Scale(d, u)
+	}
+	// The search step is the run's step, capped at 60 s: the refinement is
+	// to 1 ms whatever the grid.
+	step := math.Min(cfg.Step, 60)
+	ecl := illum.FindEclipses(g, 0, cfg.Duration, step)
+	s0 := p.StateAt(0)
+	period := orbitPeriod(s0)
+	return ecl, illum.EclipseStats(ecl, 0, cfg.Duration, period)
+}
+
+// orbitPeriod is the osculating period of a state (two-body energy).
+func orbitPeriod(s orbit.State) float64 {
+	r, v := r3.Norm(s.R), r3.Norm(s.V)
+	a := 1 / (2/r - v*v/orbit.MuEarth)
+	if !(a > 0) {
+		return math.NaN()
+	}
+	return orbit.Period(a)
+}

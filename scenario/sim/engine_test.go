@@ -1,0 +1,76 @@
+package sim
+
+import (
+	"context"
+	"math"
+	"testing"
+	"time"
+
+	"sunsight/ephem"
+	"sunsight/illum/albedo"
+	"sunsight/illum/sensor"
+	"sunsight/orbit"
+	"sunsight/scenario/attitude"
+)
+
+// referenceCase builds the bench reference case (bench/README.md): a 550 km
+// 10:30 sun-synchronous orbit, nadir pointing, six face cosine sensors of 60°.
+func referenceCase(t testing.TB, days float64, withAlbedo bool) Config {
+	t.Helper()
+	epoch := time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC)
+	a := orbit.RadiusEarthKm + 550
+	inc, err := orbit.SunSyncInclination(a, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	el := orbit.Elements{SemiMajorAxisKm: a, Inclination: inc, RAAN: orbit.RAANFromLTAN(10.5, epoch)}
+	var ss []sensor.Sensor
+	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
+		face, err := sensor.ParseFace(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m, err := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: 60 * math.Pi / 180, Threshold: 0.05})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ss = append(ss, c)
+	}
+	arr, err := sensor.NewArray(ss...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg := Config{
+		Epoch: epoch, Duration: days * 86400, Step: 10,
+		NewPropagator: func() orbit.Propagator { return orbit.NewJ2Mean(el) },
+		Sun:           ephem.LowPrecision{},
+		Law:           attitude.Nadir{},
+		Array:         arr,
+		Estimators:    []sensor.Estimator{sensor.OppositePairs{}, sensor.LeastSquares{}},
+		Seed:          1, Units: 1,
+	}
+	if withAlbedo {
+		cfg.NewAlbedo = func() (*albedo.Model, error) { return albedo.New(albedo.Config{AltitudeKm: 550}) }
+	}
+	return cfg
+}
+
+func TestReferenceCaseRuns(t *testing.T) {
+	cfg := referenceCase(t, 1, true)
+	res, err := Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	u := res.Nominal
+	t.Logf("sunlit %.4f pen %.5f umb %.4f seen %.4f %.4f %.4f eclipses %d", u.SunlitFraction, u.PenumbraFraction, u.UmbraFraction, u.SeenAtLeast[1], u.SeenAtLeast[2], u.SeenAtLeast[3], len(res.Eclipses))
+	for _, e := range u.Estimators {
+		t.Logf("%s valid %.4f gap %.0f no %+v alb %+v part %+v false %.3f", e.Name, e.ValidFraction, e.LongestGapS, e.ErrNoAlbedo, e.ErrAlbedo, e.AlbedoPart, e.FalseSunFraction)
+	}
+	for _, s := range u.Sensors {
+		t.Logf("%+v", s)
+	}
+}

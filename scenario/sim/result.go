@@ -1,0 +1,397 @@
+package sim
+
+import (
+	"math"
+	"sort"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/illum"
+	"sunsight/illum/sensor"
+)
+
+// Result is the outcome of a run: the eclipses of the orbit, the nominal
+// unit's figures, and, with several units, the spread across units.
+type Result struct {
+	Steps        int
+	StepS        float64
+	DurationS    float64
+	Eclipses     []illum.Eclipse
+	EclipseStats illum.Stats
+	Nominal      *UnitResult   // unit 0
+	Units        []*UnitResult // all units, Units[0] == Nominal
+	AcrossUnits  []AcrossUnits // one per estimator; empty with one unit
+}
+
+// ErrorStats summarises an angle error in degrees. N = 0 means no sample
+// (the other fields are then NaN).
+type ErrorStats struct {
+	N                                               int
+	MeanDeg, RMSDeg, P50Deg, P95Deg, P99Deg, MaxDeg float64
+}
+
+// UnitResult holds one simulated unit's figures. Fractions of "sunlit time"
+// count samples in full sun (no part of the solar disc hidden).
+type UnitResult struct {
+	Unit                                            int
+	Samples                                         int
+	SunlitFraction, PenumbraFraction, UmbraFraction float64
+	// SeenAtLeast[k] is the fraction of sunlit time with the sun in the
+	// unobstructed field of view of at least k sensors (index 0 unused).
+	SeenAtLeast [4]float64
+	Sensors     []SensorStats
+	Estimators  []EstimatorStats
+	// FalseSunFraction is the fraction of umbra time during which albedo
+	// alone drives at least one sensor above its threshold.
+	FalseSunFraction float64
+	BetaMinDeg       float64
+	BetaMaxDeg       float64
+	Series           *Series  // unit 0 only, when asked for
+	SunTrack         []r3.Vec // body-frame sun directions in sunlight (unit 0)
+}
+
+// SensorStats are one sensor's figures.
+type SensorStats struct {
+	Name string
+	// InViewFraction is the fraction of sunlit time with the sun in view.
+	InViewFraction float64
+	// PeakSignal is the largest reading (normalised signal, with albedo when
+	// modelled); SaturatedFraction the fraction of samples at full scale.
+	PeakSignal        float64
+	SaturatedFraction float64
+	// FalseSunFraction is the fraction of umbra time above threshold.
+	FalseSunFraction float64
+}
+
+// EstimatorStats are one estimator's figures. "With albedo" readings are the
+// realistic ones when an albedo model is set; without one they equal the
+// no-albedo readings and the albedo fields are empty.
+type EstimatorStats struct {
+	Name string
+	// ValidFraction is the fraction of sunlit time with a valid estimate
+	// from the realistic readings; ValidFractionNoAlbedo from readings
+	// without albedo.
+	ValidFraction         float64
+	ValidFractionNoAlbedo float64
+	// Gaps are the sunlit spells without a valid estimate (s).
+	Gaps        []float64
+	LongestGapS float64
+	LongestAtS  float64
+	// Errors to the true sun direction, over sunlit valid samples.
+	ErrNoAlbedo ErrorStats
+	ErrAlbedo   ErrorStats
+	// AlbedoPart is the angle between the estimates with and without
+	// albedo, where both are valid: the error albedo alone adds.
+	AlbedoPart ErrorStats
+	// FalseSunFraction is the fraction of umbra time with a valid estimate
+	// (a sun reported where there is none); FalseSunFromNadir is the angle
+	// of that false sun from nadir.
+	FalseSunFraction  float64
+	FalseSunFromNadir ErrorStats
+
+	errNo, errAlb *Quantiles // for CDF figures
+}
+
+// ErrorCDF returns up to n points of the error CDF (degrees, fraction),
+// with albedo when withAlbedo is set.
+func (e *EstimatorStats) ErrorCDF(n int, withAlbedo bool) (x, f []float64) {
+	q := e.errNo
+	if withAlbedo {
+		q = e.errAlb
+	}
+	if q == nil {
+		return nil, nil
+	}
+	return q.CDF(n)
+}
+
+// Series is a decimated time series of unit 0 for figures and CSV files.
+type Series struct {
+	T          []float64 // s since the epoch
+	Region     []illum.Region
+	Lit        []float64 // visible fraction of the solar disc
+	Seen       []int     // sensors with the sun in view
+	Valid      []bool    // primary estimator, realistic readings
+	ErrNoDeg   []float64 // NaN where invalid or not sunlit
+	ErrAlbDeg  []float64
+	BetaDeg    []float64
+	SunBodyAz  []float64 // deg, body frame
+	SunBodyEl  []float64
+	Signals    [][]float64 // per sample, per sensor (realistic)
+	SensorName []string
+}
+
+// AcrossUnits is the Monte Carlo spread of one estimator over the units.
+type AcrossUnits struct {
+	Name string
+	// P95OfUnitP95Deg is the p95 error reached by 95 % of units (the 95th
+	// percentile over units of each unit's p95 error), with albedo when
+	// modelled; WorstUnitP95Deg the largest.
+	P50OfUnitP95Deg, P95OfUnitP95Deg, WorstUnitP95Deg float64
+	MinValidFraction                                  float64
+	UnitP95Deg                                        []float64
+}
+
+func errorStats(m *Moments, q *Quantiles) ErrorStats {
+	if m.N == 0 {
+		n := math.NaN()
+		return ErrorStats{MeanDeg: n, RMSDeg: n, P50Deg: n, P95Deg: n, P99Deg: n, MaxDeg: n}
+	}
+	return ErrorStats{N: m.N, MeanDeg: m.Mean(), RMSDeg: m.RMS(), P50Deg: q.Quantile(0.5),
+		P95Deg: q.Quantile(0.95), P99Deg: q.Quantile(0.99), MaxDeg: m.Max}
+}
+
+// estAcc accumulates one estimator.
+type estAcc struct {
+	validAlb, validNo int
+	gaps              *Spells
+	mNo, mAlb, mPart  Moments
+	qNo, qAlb, qPart  *Quantiles
+	falseSun          int
+	mFalse            Moments
+	qFalse            *Quantiles
+}
+
+// unitAcc accumulates one unit's figures in constant memory (except the
+// gap list, bounded by the number of gaps, and the optional series).
+type unitAcc struct {
+	cfg                       *Config
+	albedo                    bool
+	samples, sunlit, pen, umb int
+	seenAtLeast               [4]int
+	inView                    []int
+	peak                      []float64
+	saturated                 []int
+	falseSunSensor            []int
+	falseSunAny               int
+	est                       []estAcc
+	betaMin, betaMax          float64
+	series                    *Series
+	track                     []r3.Vec
+	trackStride               int
+	unit                      int
+	names                     []string
+}
+
+func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool) *unitAcc {
+	n := arr.Len()
+	a := &unitAcc{cfg: cfg, albedo: withAlbedo, inView: make([]int, n), peak: make([]float64, n),
+		saturated: make([]int, n), falseSunSensor: make([]int, n), est: make([]estAcc, len(cfg.Estimators)),
+		betaMin: math.Inf(1), betaMax: math.Inf(-1)}
+	for _, s := range arr.Sensors() {
+		a.names = append(a.names, s.Name())
+	}
+	for i := range a.est {
+		a.est[i] = estAcc{gaps: NewSpells(cfg.Step), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
+	}
+	if first {
+		if cfg.SeriesStride > 0 {
+			a.series = &Series{SensorName: a.names}
+		}
+		if cfg.SunTrackPoints > 0 {
+			a.trackStride = max(cfg.Steps()/cfg.SunTrackPoints, 1)
+		}
+	}
+	return a
+}
+
+// step folds one sample in. readAlb is ignored without an albedo model.
+func (a *unitAcc) step(t float64, region illum.Region, lit float64, seen int, sunBody, nadirBody r3.Vec,
+	beta float64, readNo, readAlb []sensor.Reading, arr *sensor.Array, ests []sensor.Estimator) {
+	a.samples++
+	sunlit := region == illum.Sunlit
+	switch region {
+	case illum.Sunlit:
+		a.sunlit++
+	case illum.Umbra:
+		a.umb++
+	default:
+		a.pen++
+	}
+	a.betaMin = math.Min(a.betaMin, beta)
+	a.betaMax = math.Max(a.betaMax, beta)
+	for k := 1; k <= 3 && sunlit; k++ {
+		if seen >= k {
+			a.seenAtLeast[k]++
+		}
+	}
+	real := readNo
+	if a.albedo {
+		real = readAlb
+	}
+	anyFalse := false
+	for i := range real {
+		r := &real[i]
+		a.peak[i] = math.Max(a.peak[i], r.Signal)
+		if r.Saturated {
+			a.saturated[i]++
+		}
+		if region == illum.Umbra && r.Valid {
+			a.falseSunSensor[i]++
+			anyFalse = true
+		}
+	}
+	if anyFalse {
+		a.falseSunAny++
+	}
+	var errNoDeg, errAlbDeg = math.NaN(), math.NaN()
+	var primaryValid bool
+	for j, e := range ests {
+		ea := &a.est[j]
+		eNo := e.Estimate(arr, readNo)
+		eAlb := eNo
+		if a.albedo {
+			eAlb = e.Estimate(arr, readAlb)
+		}
+		if sunlit {
+			ea.gaps.Observe(t, !eAlb.Valid)
+			if eNo.Valid {
+				ea.validNo++
+				d := degOf(angleBetween(eNo.Dir, sunBody))
+				ea.mNo.Add(d)
+				ea.qNo.Add(d)
+				if j == 0 {
+					errNoDeg = d
+				}
+			}
+			if eAlb.Valid {
+				ea.validAlb++
+				if a.albedo {
+					d := degOf(angleBetween(eAlb.Dir, sunBody))
+					ea.mAlb.Add(d)
+					ea.qAlb.Add(d)
+					if j == 0 {
+						errAlbDeg = d
+					}
+					if eNo.Valid {
+						p := degOf(angleBetween(eAlb.Dir, eNo.Dir))
+						ea.mPart.Add(p)
+						ea.qPart.Add(p)
+					}
+				}
+			}
+		} else {
+			ea.gaps.Observe(t, false)
+			if region == illum.Umbra && eAlb.Valid {
+				ea.falseSun++
+				d := degOf(angleBetween(eAlb.Dir, nadirBody))
+				ea.mFalse.Add(d)
+				ea.qFalse.Add(d)
+			}
+		}
+		if j == 0 {
+			primaryValid = eAlb.Valid && sunlit
+		}
+	}
+	if a.trackStride > 0 && sunlit && (a.samples-1)%a.trackStride == 0 {
+		a.track = append(a.track, sunBody)
+	}
+	if s := a.series; s != nil && (a.samples-1)%a.cfg.SeriesStride == 0 {
+		s.T = append(s.T, t)
+		s.Region = append(s.Region, region)
+		s.Lit = append(s.Lit, lit)
+		s.Seen = append(s.Seen, seen)
+		s.Valid = append(s.Valid, primaryValid)
+		s.ErrNoDeg = append(s.ErrNoDeg, errNoDeg)
+		s.ErrAlbDeg = append(s.ErrAlbDeg, errAlbDeg)
+		s.BetaDeg = append(s.BetaDeg, degOf(beta))
+		s.SunBodyAz = append(s.SunBodyAz, degOf(math.Atan2(sunBody.Y, sunBody.X)))
+		s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(math.Max(-1, math.Min(1, sunBody.Z)))))
+		sig := make([]float64, len(real))
+		for i := range real {
+			sig[i] = real[i].Signal
+		}
+		s.Signals = append(s.Signals, sig)
+	}
+}
+
+func (a *unitAcc) finish(tEnd float64) {
+	for i := range a.est {
+		a.est[i].gaps.Finish(tEnd)
+	}
+}
+
+func frac(n, d int) float64 {
+	if d == 0 {
+		return math.NaN()
+	}
+	return float64(n) / float64(d)
+}
+
+func (a *unitAcc) result() *UnitResult {
+	r := &UnitResult{
+		Unit: a.unit, Samples: a.samples,
+		SunlitFraction: frac(a.sunlit, a.samples), PenumbraFraction: frac(a.pen, a.samples),
+		UmbraFraction: frac(a.umb, a.samples), FalseSunFraction: frac(a.falseSunAny, a.umb),
+		BetaMinDeg: degOf(a.betaMin), BetaMaxDeg: degOf(a.betaMax),
+		Series: a.series, SunTrack: a.track,
+	}
+	for k := 1; k <= 3; k++ {
+		r.SeenAtLeast[k] = frac(a.seenAtLeast[k], a.sunlit)
+	}
+	for i, name := range a.names {
+		r.Sensors = append(r.Sensors, SensorStats{Name: name, InViewFraction: frac(a.inView[i], a.sunlit),
+			PeakSignal: a.peak[i], SaturatedFraction: frac(a.saturated[i], a.samples),
+			FalseSunFraction: frac(a.falseSunSensor[i], a.umb)})
+	}
+	for j, e := range a.cfg.Estimators {
+		ea := &a.est[j]
+		es := EstimatorStats{Name: e.Name(), ValidFraction: frac(ea.validAlb, a.sunlit),
+			ValidFractionNoAlbedo: frac(ea.validNo, a.sunlit), Gaps: ea.gaps.Durations,
+			LongestGapS: ea.gaps.Longest, LongestAtS: ea.gaps.LongestAt,
+			ErrNoAlbedo: errorStats(&ea.mNo, ea.qNo), ErrAlbedo: errorStats(&ea.mAlb, ea.qAlb),
+			AlbedoPart: errorStats(&ea.mPart, ea.qPart), FalseSunFraction: frac(ea.falseSun, a.umb),
+			FalseSunFromNadir: errorStats(&ea.mFalse, ea.qFalse), errNo: ea.qNo, errAlb: ea.qAlb}
+		if !a.albedo {
+			es.errAlb = nil
+		}
+		r.Estimators = append(r.Estimators, es)
+	}
+	return r
+}
+
+// realisticP95 is the p95 error of the readings the spacecraft would get.
+func (e *EstimatorStats) realisticP95() float64 {
+	if e.ErrAlbedo.N > 0 {
+		return e.ErrAlbedo.P95Deg
+	}
+	return e.ErrNoAlbedo.P95Deg
+}
+
+func acrossUnits(units []*UnitResult) []AcrossUnits {
+	if len(units) < 2 {
+		return nil
+	}
+	var out []AcrossUnits
+	for j := range units[0].Estimators {
+		au := AcrossUnits{Name: units[0].Estimators[j].Name, MinValidFraction: math.Inf(1)}
+		for _, u := range units {
+			e := &u.Estimators[j]
+			au.UnitP95Deg = append(au.UnitP95Deg, e.realisticP95())
+			au.MinValidFraction = math.Min(au.MinValidFraction, e.ValidFraction)
+		}
+		s := append([]float64(nil), au.UnitP95Deg...)
+		sort.Float64s(s)
+		au.P50OfUnitP95Deg = empiricalQuantile(s, 0.5)
+		au.P95OfUnitP95Deg = empiricalQuantile(s, 0.95)
+		au.WorstUnitP95Deg = s[len(s)-1]
+		out = append(out, au)
+	}
+	return out
+}
+
+// empiricalQuantile is the smallest sorted value with at least p·N values at
+// or below it (NaNs sort first in sort.Float64s and are skipped).
+func empiricalQuantile(sorted []float64, p float64) float64 {
+	i := 0
+	for i < len(sorted) && math.IsNaN(sorted[i]) {
+		i++
+	}
+	v := sorted[i:]
+	if len(v) == 0 {
+		return math.NaN()
+	}
+	k := int(math.Ceil(p*float64(len(v)))) - 1
+	k = max(0, min(k, len(v)-1))
+	return v[k]
+}

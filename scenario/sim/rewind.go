@@ -1,0 +1,65 @@
+package sim
+
+import (
+	"sunsight/orbit"
+)
+
+// rewindable returns a propagator that serves requests going a little back
+// in time cheaply. The eclipse search refines each event inside one grid
+// step, which may reach before a numerical integrator's current step; the
+// integrator would then restart from the epoch. Checkpoints every
+// checkpointS seconds let it restart from the latest one instead.
+// Closed-form propagators are returned as they are.
+func rewindable(newProp func() orbit.Propagator) orbit.Propagator {
+	p := newProp()
+	num, ok := p.(*orbit.J2Numeric)
+	if !ok {
+		return p
+	}
+	return &checkpointed{cur: num, opt: num.Options(), checks: []checkpoint{{0, num.InitialState()}}}
+}
+
+const checkpointS = 3600
+
+type checkpoint struct {
+	t float64
+	s orbit.State
+}
+
+// checkpointed wraps a J2Numeric with restart points.
+type checkpointed struct {
+	cur    *orbit.J2Numeric
+	t0     float64 // time of cur's epoch
+	last   float64 // latest time served
+	opt    orbit.NumericOptions
+	checks []checkpoint
+}
+
+func (c *checkpointed) StateAt(t float64) orbit.State {
+	if t < c.last {
+		// Restart from the latest checkpoint at or before t.
+		i := len(c.checks) - 1
+		for i > 0 && c.checks[i].t > t {
+			i--
+		}
+		ck := c.checks[i]
+		p, err := orbit.NewJ2NumericFromState(ck.s, c.opt)
+		if err != nil {
+			panic("sim: restart of a valid orbit failed: " + err.Error())
+		}
+		c.cur, c.t0 = p, ck.t
+		c.checks = c.checks[:i+1]
+	}
+	s := c.cur.StateAt(t - c.t0)
+	c.last = t
+	if lastCk := c.checks[len(c.checks)-1].t; t-lastCk >= checkpointS {
+		c.checks = append(c.checks, checkpoint{t, s})
+	}
+	return s
+}
+
+func (c *checkpointed) Fill(dst []orbit.State, t0, dt float64) {
+	for k := range dst {
+		dst[k] = c.StateAt(t0 + float64(k)*dt)
+	}
+}

@@ -1,0 +1,174 @@
+package sim
+
+import (
+	"context"
+	"math"
+	"math/rand/v2"
+
+	"gonum.org/v1/gonum/num/quat"
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/ephem"
+	"sunsight/illum"
+	"sunsight/illum/albedo"
+	"sunsight/illum/sensor"
+	"sunsight/scenario/attitude"
+)
+
+// solarIrradiance returns the direct solar irradiance (W/m²) at a distance
+// from the sun in km: S₀·(AU/d)² with S₀ at 1 AU (ephem.SolarIrradiance1AU).
+func solarIrradiance(distKm float64) float64 {
+	q := ephem.AUKm / distKm
+	return ephem.SolarIrradiance1AU * q * q
+}
+
+// degOf converts radians to degrees.
+func degOf(rad float64) float64 { return rad * 180 / math.Pi }
+
+// angleBetween returns the angle (rad) between two unit vectors, accurate
+// near 0 and π (atan2 of |a×b| and a·b).
+func angleBetween(a, b r3.Vec) float64 {
+	return math.Atan2(r3.Norm(r3.Cross(a, b)), r3.Dot(a, b))
+}
+
+// runUnit simulates one unit: the nominal layout with its error models drawn
+// from the unit's seed.
+func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
+	drawSrc, noiseSrc := unitSeed(cfg.Seed, u)
+	arr := cfg.Array.Draw(rand.New(drawSrc))
+	noise := rand.New(noiseSrc)
+	n := arr.Len()
+	nEst := len(cfg.Estimators)
+
+	prop := cfg.NewPropagator()
+	var alb *albedo.Model
+	if cfg.NewAlbedo != nil {
+		m, err := cfg.NewAlbedo()
+		if err != nil {
+			return nil, err
+		}
+		alb = m
+	}
+	jd0 := ephem.JulianDateTT(cfg.Epoch)
+	jdUT0 := ephem.JulianDateUT1(cfg.Epoch)
+
+	// Per-step buffers, allocated once.
+	readNo := make([]sensor.Reading, n)
+	readAlb := make([]sensor.Reading, n)
+	var albIn []albedo.Sensor
+	var albOut []albedo.Result
+	var albBody []sensor.Albedo
+	if alb != nil {
+		albIn = make([]albedo.Sensor, n)
+		albOut = make([]albedo.Result, n)
+		albBody = make([]sensor.Albedo, n)
+		for i, s := range arr.Sensors() {
+			albIn[i].HalfAngle = s.HalfAngle()
+			if cfg.AlbedoResponse != nil {
+				albIn[i].Response = cfg.AlbedoResponse[i]
+			}
+		}
+	}
+	sees := make([]func(r3.Vec) bool, n)
+	for i, s := range arr.Sensors() {
+		if cfg.Viewers != nil {
+			sees[i] = cfg.Viewers[i].Sees
+		} else {
+			sees[i] = s.InFOV
+		}
+	}
+
+	acc := newUnitAcc(cfg, arr, alb != nil, u == 0)
+	acc.unit = u
+	steps := cfg.Steps()
+	eclAware, _ := cfg.Law.(attitude.EclipseAware)
+	var noiseSaved rand.PCG
+	progressEvery := max(steps/200, 1)
+
+	for k := range steps {
+		if k&1023 == 0 && ctx.Err() != nil {
+			return nil, ctx.Err()
+		}
+		if u == 0 && cfg.Progress != nil && k%progressEvery == 0 {
+			cfg.Progress(float64(k) / float64(steps))
+		}
+		t := float64(k) * cfg.Step
+		st := prop.StateAt(t)
+		jd := jd0 + t/86400
+		sunU, sunD := cfg.Sun.Position(jd)
+		lit, region := shadow(cfg.Cylindrical, st.R, sunU, sunD)
+		inEclipse := region != illum.Sunlit
+		var A attitudeRot
+		if eclAware != nil {
+			A = attitudeRot(eclAware.AttitudeInEclipse(t, st, sunU, inEclipse))
+		} else {
+			A = attitudeRot(cfg.Law.Attitude(t, st, sunU))
+		}
+		sunBody := A.toBody(sunU)
+		direct := solarIrradiance(sunD) * lit
+
+		// Readings without albedo, then with it, on the same noise draws.
+		noiseSaved = *noiseSrc
+		arr.Read(readNo, sunBody, direct, nil, noise)
+		if alb != nil {
+			for i, s := range arr.Sensors() {
+				albIn[i].Normal = A.toECI(s.Mount().Boresight())
+			}
+			gmst := ephem.GMST(jdUT0 + t/86400)
+			alb.Irradiance(albOut, st.R, sunU, sunD, gmst, jd, albIn)
+			for i := range albOut {
+				albBody[i] = sensor.Albedo{Irradiance: albOut[i].Irradiance}
+				if albOut[i].Irradiance > 0 {
+					albBody[i].Dir = A.toBody(albOut[i].Dir)
+				}
+			}
+			*noiseSrc = noiseSaved
+			arr.Read(readAlb, sunBody, direct, albBody, noise)
+		}
+
+		seen := 0
+		if region == illum.Sunlit {
+			for i := range n {
+				if sees[i](sunBody) {
+					seen++
+					acc.inView[i]++
+				}
+			}
+		}
+		nadirBody := A.toBody(r3.Scale(-1/r3.Norm(st.R), st.R))
+		beta := illum.BetaAngle(st.R, st.V, sunU)
+		acc.step(t, region, lit, seen, sunBody, nadirBody, beta, readNo, readAlb, arr, cfg.Estimators[:nEst])
+	}
+	acc.finish(float64(steps) * cfg.Step)
+	return acc.result(), nil
+}
+
+// attitudeRot is a body ← ECI rotation with named directions of use.
+type attitudeRot r3.Rotation
+
+// toBody expresses an ECI vector in body axes.
+func (a attitudeRot) toBody(v r3.Vec) r3.Vec { return r3.Rotation(a).Rotate(v) }
+
+// toECI expresses a body vector in ECI axes (the conjugate rotation).
+func (a attitudeRot) toECI(v r3.Vec) r3.Vec {
+	q := quat.Conj(quat.Number(a))
+	return r3.Rotation(q).Rotate(v)
+}
+
+// shadow evaluates the configured shadow model. The day side (r·ŝ ≥ 0) of an
+// orbit above 100 km is always in full sun: there the Earth's centre is at
+// least 90° − 0.02° from the sun while the Earth's and sun's apparent radii
+// add up to less than 80° (closed form), so the conical test is skipped.
+func shadow(cylindrical bool, r, sunU r3.Vec, sunD float64) (float64, illum.Region) {
+	if r3.Dot(r, sunU) >= 0 && r3.Norm2(r) > (illum.EarthRadiusKm+100)*(illum.EarthRadiusKm+100) {
+		return 1, illum.Sunlit
+	}
+	if cylindrical {
+		lit := illum.ShadowCylindrical(r, sunU)
+		if lit > 0 {
+			return 1, illum.Sunlit
+		}
+		return 0, illum.Umbra
+	}
+	return illum.ShadowConical(r, r3.Scale(sunD, sunU))
+}

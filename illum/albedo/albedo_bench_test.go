@@ -2,6 +2,7 @@ package albedo
 
 import (
 	"math"
+	"os"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -47,4 +48,36 @@ func BenchmarkRebuild(b *testing.B) {
 	for b.Loop() {
 		m.geo.build(EarthRadiusKm+551, DefaultCells, m.gx, m.gw)
 	}
+}
+
+var calibrationSink float64
+
+// BenchmarkCalibrationSum is a machine yardstick, not a model: a dependent sum
+// of 4600 floats, about the number of cell × sensor visits in one six-sensor
+// call at the default resolution. Quote Irradiance as a ratio to it.
+func BenchmarkCalibrationSum(b *testing.B) {
+	x := make([]float64, 4600)
+	for i := range x {
+		x[i] = float64(i)
+	}
+	for b.Loop() {
+		s := 0.0
+		for _, v := range x {
+			s += v * 1.0001
+		}
+		calibrationSink = s
+	}
+}
+
+func BenchmarkIrradianceGrid(b *testing.B) {
+	f, err := os.Open("testdata/demo_grid.csv")
+	if err != nil {
+		b.Fatal(err)
+	}
+	defer f.Close()
+	g, err := ParseGrid(f)
+	if err != nil {
+		b.Fatal(err)
+	}
+	benchIrradiance(b, Config{Reflectance: g})
 }

@@ -1,2 +1,132 @@
-// Package albedo is part of sunsight (see DEVELOPERS.md); its doc is written with its model.
+// Package albedo computes the sunlight reflected by the Earth (albedo) onto
+// small flat sensors on a spacecraft: the irradiance each sensor sees, the
+// mean direction the light comes from, and how much of its field of view the
+// sunlit Earth fills. The simulation loop calls Model.Irradiance every step.
+//
+// # Model
+//
+// The Earth is a sphere of radius Rₑ = 6378.137 km (WGS 84 semi-major axis)
+// whose surface reflects diffusely (Lambert). A surface element at P with
+// outward normal N̂ and reflectivity ρ(P), lit by the sun from direction ŝ,
+// has radiance
+//
+//	L = ρ S (N̂·ŝ)/π   where N̂·ŝ > 0, else 0                (Lambert's law)
+//
+// with S = S₀ (AU/d)², S₀ = 1361 W/m² (Kopp & Lean 2011), AU from IAU 2012 B2.
+// A sensor with boresight n̂, cone half-angle H and relative response R(θ)
+// receives
+//
+//	E = ∫_{θ < H} L(ω) R(θ) dω
+//	  = ∫_{visible ∩ sunlit} ρ S (N̂·ŝ)(N̂·ê) R(θ) / (π d²) dA
+//
+// (the cell-sum formulation of Bhanderi & Bak, "Modeling Earth albedo for
+// satellites in Earth orbit", AIAA GNC 2005, from memory), ê the unit vector
+// from P to the spacecraft, d the range, cos θ = n̂·(−ê). For a cosine sensor
+// (R = cos θ) E is the irradiance on the sensor plane. With L = 1/π everywhere
+// (no sun) the same sum is the plate-to-sphere view factor; Model.ViewFactor
+// exposes it.
+//
+// The integral is a sum over n cells of equal solid angle that tile the cone
+// of directions meeting the Earth (nadir angle ≤ asin(Rₑ/r)): one polar cell
+// and rings after Leopardi's recursive zonal equal-area rule. The cells live
+// in a frame whose z axis points at the spacecraft; they are built once for
+// an orbit radius and then only the sun and the sensor normals are rotated
+// into that frame each step (six dot products per vector), never the cells.
+// Each cell stores its solid angle and the solid-angle means of the arrival
+// direction and of the surface normal (Gauss–Legendre in the radius with a
+// substitution for the √ behaviour at the limb); both factors of the
+// integrand are linear in these, so a cell wholly lit and wholly in view is
+// summed exactly in each factor. Per step, one pass over the cells keeps the
+// lit ones with their radiance (shared by all sensors); each sensor then sums
+// its cone. Cells that the cone edge cuts are weighted by the mean of R over
+// the part inside, taking cos θ uniform over ±(√a/2)·sin θ (a the cell's
+// solid angle).
+//
+// Reflectivity models: Uniform (default 0.30, ECSS-E-ST-10-04C Annex F.5.1
+// design mean; Stephens et al. 2015, Rev. Geophys. 53, give ≈ 0.29); Zonal,
+// the second-degree Legendre fit in latitude with a seasonal first-degree term
+// of Knocke, Ries & Tapley 1988 (AIAA 88-4292) as reproduced in
+// ECSS-E-ST-10-04C Annex F.5 (coefficients from memory, KnockeZonal); Grid, a
+// latitude × longitude CSV map (year-round or monthly, see Grid), looked up at
+// the nearest cell with Earth-fixed longitude = right ascension − GMST; or any
+// type implementing Reflectance.
+//
+// # Assumptions
+//
+//   - Spherical Earth, no atmosphere: no twilight, no limb brightening, no
+//     specular glint; the terminator is the great circle N̂·ŝ = 0.
+//   - Lambertian reflection. Real reflection is anisotropic (forward scatter
+//     over oceans, clouds); Lambert is the usual design assumption, not truth.
+//   - The sun is at infinity for directions (one ŝ for all cells); its
+//     distance only scales S.
+//   - Latitude is geocentric, taken from the EME2000 z axis: precession of the
+//     pole since J2000 (≈ 0.36° by 2026) and polar motion are ignored, which
+//     is far below the resolution of any zonal or gridded albedo map.
+//   - No shadowing of the sensor by the spacecraft itself and no Earth
+//     infrared; the caller's obstruction model handles the former.
+//   - Altitude changes (eccentric orbits, J2 short-period motion): the cells
+//     are rebuilt, not scaled, whenever the orbit radius differs by more than
+//     Config.RebuildKm (default 1 km) from the radius they were built for;
+//     in between the geometry of the build radius is used, an error of about
+//     2Δr/r ≤ 0.03 % in E at LEO for 1 km. A rebuild reuses its memory and
+//     costs about as much as one six-sensor call (see the benchmarks).
+//   - A Model keeps scratch space and is not safe for concurrent use; make
+//     one per goroutine.
+//
+// # Accuracy
+//
+// Numerical accuracy against an independent brute-force integration over the
+// solid angle (testdata/gen_albedo_ref.py, numpy, 4000 × 4000 points,
+// converged to < 1e-6 relative for the hemispherical sensor and < 2e-4 for
+// the 60° cone, see testdata/gen_albedo_ref.log): 312 cases at 400, 550 and
+// 800 km, solar zenith 0…100°, tilts 0…120°, three azimuths, uniform ρ = 0.30.
+// Worst error over the cases with E ≥ 1 % of ρS (4.1 W/m²); below that floor
+// the worst absolute error is given (TestConvergence prints this table):
+//
+//	cells   hemispherical (90°)        60° cone
+//	  250   1.31 %    0.21 W/m²        2.99 %
+//	  500   0.44 %    0.08 W/m²        0.88 %
+//	 1000   0.19 %    0.03 W/m²        0.49 %     ← DefaultCells
+//	 1500   0.19 %    0.03 W/m²        0.37 %
+//	 3000   0.077 %   0.012 W/m²       0.16 %
+//	 6000   0.040 %   0.007 W/m²       0.11 %
+//	12000   0.019 %   0.003 W/m²       0.068 %
+//
+// The worst cases are plates tilted 120° from nadir that see only the limb.
+// View factor against the closed forms of Howell's catalogue (plane element to
+// sphere, full and partial view) at 400/550/800 km, tilts 0…150°: worst
+// 7.8e-5 relative at the default resolution (absolute 5e-6 where the plate
+// sees only a sliver of the limb).
+//
+// These figures bound the numerical error of the model only. The physical
+// error of a Lambertian model with a mean or zonal albedo against the real,
+// cloudy Earth is far larger: instantaneous albedo under a sensor ranges from
+// about 0.05 (open ocean) to 0.6 or more (cloud, ice) (ECSS-E-ST-10-04C Annex
+// F.5.1), so a single-step albedo irradiance can be wrong by a factor of two.
+// Use the results to compare layouts and bound errors, not as a prediction of
+// a flight reading; flight hardware needs qualified verification.
+//
+// Speed: one call for six hemispherical sensors at the default resolution
+// does not allocate; see albedo_bench_test.go and the package's report for
+// figures, quoted as ratios to the calibration loop there.
+//
+// # References
+//
+//   - D. D. V. Bhanderi and T. Bak, "Modeling Earth albedo for satellites in
+//     Earth orbit", AIAA Guidance, Navigation, and Control Conference, 2005
+//     (cell-sum formulation; from memory).
+//   - J. R. Howell, "A Catalog of Radiation Heat Transfer Configuration
+//     Factors", plane element to sphere (entry number from memory).
+//   - P. Leopardi, "A partition of the unit sphere into regions of equal area
+//     and small diameter", Electron. Trans. Numer. Anal. 25 (2006) 309–327
+//     (from memory).
+//   - J. R. Knocke, J. C. Ries and B. D. Tapley, "Earth radiation pressure
+//     effects on satellites", AIAA 88-4292 (1988) (from memory), as reproduced
+//     in ECSS-E-ST-10-04C, Space environment (2008), Annex F.5.
+//   - G. Kopp and J. L. Lean, "A new, lower value of total solar irradiance",
+//     Geophys. Res. Lett. 38 (2011) L01706.
+//   - IAU 2012 Resolution B2 (astronomical unit).
+//   - G. L. Stephens et al., "The albedo of Earth", Rev. Geophys. 53 (2015).
+//   - NIMA TR8350.2, "Department of Defense World Geodetic System 1984",
+//     3rd ed. (2000) (Rₑ; from memory).
 package albedo

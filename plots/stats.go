@@ -5,6 +5,7 @@ import (
 	"image/color"
 	"math"
 	"slices"
+	"sort"
 
 	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/plot"
@@ -157,6 +158,21 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	histP := newPlot("Sun-vector error: histogram", "sun-vector error (deg)", "fraction per bin")
 	cdfP.Y.Min, cdfP.Y.Max = 0, 1.02
 	var rec []drawnSeries
+	top := 0.0
+	for _, s := range f.Series {
+		for _, v := range s.ErrorsDeg {
+			if finite(v) {
+				top = math.Max(top, v)
+			}
+		}
+	}
+	if top == 0 {
+		top = 1
+	}
+	sharedEdges := make([]float64, 41)
+	for i := range sharedEdges {
+		sharedEdges[i] = top * float64(i) / 40
+	}
 	cdfP.Add(hline{0.95, draw.LineStyle{Color: color.Gray{140}, Width: 0.8, Dashes: []vg.Length{2, 2}}})
 	for k, s := range f.Series {
 		pts, p95, err := s.cdf()
@@ -177,18 +193,13 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 
 		var h *plotter.Histogram
 		if len(s.ErrorsDeg) > 0 {
-			v := make(plotter.Values, 0, len(pts))
+			// Shared bins for every sampled series, so bars compare.
+			counts := make([]float64, len(sharedEdges)-1)
 			for _, p := range pts {
-				v = append(v, p.X)
+				i := sort.SearchFloat64s(sharedEdges, p.X) - 1
+				counts[max(0, min(i, len(counts)-1))]++
 			}
-			h, err = plotter.NewHist(v, 30)
-			if err == nil {
-				h.Normalize(1)
-				// Normalize makes the area 1; turn densities into fractions.
-				for i := range h.Bins {
-					h.Bins[i].Weight *= h.Width
-				}
-			}
+			h, err = binnedHist(sharedEdges, counts)
 		} else {
 			h, err = binnedHist(s.BinEdgesDeg, s.BinCounts)
 		}
@@ -211,6 +222,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		cdfP.Legend.Add("p95 of each Monte Carlo unit", sc)
 	}
 	cdfP.X.Min, histP.X.Min = 0, 0
+	cdfP.X.Tick.Marker, histP.X.Tick.Marker = niceTicks{}, niceTicks{}
 	cdfP.Legend.Left, cdfP.Legend.Top = false, false
 	cdfP.Legend.XOffs, cdfP.Legend.YOffs = -4, 8
 	histP.Y.Min = 0

@@ -23,5 +23,5 @@ const (
 
 	// DefaultRebuildKm is the default radius drift after which the cap geometry
 	// is rebuilt (see Config.RebuildKm).
-	DefaultRebuildKm = 1.0
+	DefaultRebuildKm = 0.25
 )

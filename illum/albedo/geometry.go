@@ -8,6 +8,7 @@ import "math"
 type capGeometry struct {
 	rKm       float64
 	halfWidth float64 // half the angular size of a cell, √a/2 rad
+	η         float64 // angular radius of the Earth's disc seen from rKm, rad
 	cells     []cell
 }
 
@@ -53,6 +54,7 @@ func (geo *capGeometry) build(rKm float64, n int, gx, gw []float64) {
 	cosη := math.Cos(η)
 	a := 2 * math.Pi * (1 - cosη) / float64(n) // solid angle per cell, sr
 	geo.halfWidth = 0.5 * math.Sqrt(a)
+	geo.η = η
 
 	// ringMeans returns the means over x = cos α ∈ [xb, xt] (uniform in x,
 	// i.e. in solid angle) of sin α, cos α, the cylindrical radius ρ and the

@@ -96,6 +96,35 @@ func TestRebuildOnAltitudeChange(t *testing.T) {
 	}
 }
 
+// Between rebuilds the geometry of the build radius is used. Measured here:
+// the error after a drift just under DefaultRebuildKm, against a fresh build
+// at the true radius (same resolution, so the discretisation cancels); doc.go
+// quotes it. Sensors that see only the limb are hit hardest, as the disc's
+// edge moves by dη = −tan η dr/r.
+func TestDriftWithinRebuildTolerance(t *testing.T) {
+	const drift = 0.99 * DefaultRebuildKm
+	stale, _ := New(Config{AltitudeKm: 550})
+	fresh, _ := New(Config{AltitudeKm: 550 + drift})
+	s := faceSensors()
+	a, b := make([]Result, 6), make([]Result, 6)
+	r := EarthRadiusKm + 550 + drift
+	rSat := r3.Scale(r, r3.Unit(r3.Vec{X: 1, Y: 1, Z: 0.3}))
+	sun := r3.Unit(r3.Vec{X: 1, Y: 0.4, Z: 0.5})
+	stale.Irradiance(a, rSat, sun, AUKm, 0, 0, s)
+	fresh.Irradiance(b, rSat, sun, AUKm, 0, 0, s)
+	worst := 0.0
+	for i := range s {
+		if b[i].Irradiance < refFloor {
+			continue
+		}
+		worst = max(worst, math.Abs(a[i].Irradiance/b[i].Irradiance-1))
+	}
+	t.Logf("drift %.3f km without rebuild: worst relative change %.2e", drift, worst)
+	if worst > 1e-3 {
+		t.Errorf("stale geometry off by %.2e after %.2f km", worst, drift)
+	}
+}
+
 func TestConfigErrors(t *testing.T) {
 	for _, c := range []struct {
 		cfg  Config

@@ -235,16 +235,22 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 
 	// Pass 2: each sensor sums over the lit cells in its cone.
 	for i := range sensors {
-		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez, m.geo.halfWidth)
+		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez, m.geo.halfWidth, m.geo.η)
 	}
 }
 
 // sumSensor integrates the lit cells over one sensor's cone.
-func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, halfWidth float64) Result {
+func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, halfWidth, η float64) Result {
 	n := toFrame(sn.Normal, ex, ey, ez)
 	cosH := math.Cos(sn.HalfAngle)
 	if sn.HalfAngle >= math.Pi/2 {
 		cosH = 0
+	}
+	var res Result
+	// A cone that misses the Earth's disc (angular radius η about nadir −z)
+	// sees nothing: skip the sum.
+	if math.Acos(max(-1, min(1, -n.Z))) >= η+sn.HalfAngle+halfWidth {
+		return res
 	}
 	var e, dx, dy, dz, ω float64
 	// Cells within hw of the cone edge are cut by it: the sensor weight is
@@ -295,7 +301,6 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, halfWidth float64) 
 		dz += we * l.uz
 		ω += frac * l.ω
 	}
-	var res Result
 	if e > 0 {
 		res.Irradiance = e
 		d := r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez))
@@ -324,7 +329,7 @@ func (m *Model) ViewFactor(rSat, normal r3.Vec, halfAngle float64) float64 {
 	}
 	m.lit = lit
 	s := Sensor{Normal: normal, HalfAngle: halfAngle}
-	return sumSensor(lit, &s, ex, ey, ez, m.geo.halfWidth).Irradiance
+	return sumSensor(lit, &s, ex, ey, ez, m.geo.halfWidth, m.geo.η).Irradiance
 }
 
 // monthOf returns the calendar month 1…12 of Julian date jd (the TT–UTC

@@ -103,6 +103,7 @@ func newPlot(title, xLabel, yLabel string) *plot.Plot {
 	for _, a := range []*plot.Axis{&p.X, &p.Y} {
 		a.Label.TextStyle.Font.Size = labelSize
 		a.Tick.Label.Font.Size = tickSize
+		a.Tick.Marker = niceTicks{}
 	}
 	p.X.Label.Text = xLabel
 	p.Y.Label.Text = yLabel

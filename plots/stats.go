@@ -412,6 +412,7 @@ func (f BudgetBars) Plot(caption Caption) (*Chart, error) {
 	p.Add(b)
 	p.NominalY(names...)
 	p.X.Min = 0
+	p.X.Max = slices.Max(f.P95Deg) * 1.08 // keep the longest bar off the frame
 	rec := make([]drawnSeries, n)
 	for i := range n {
 		rec[i] = drawnSeries{0, names[i], plotter.XYs{{X: b.Values[i], Y: float64(i)}}}

@@ -1,0 +1,389 @@
+package scenario
+
+import (
+	"fmt"
+	"math"
+	"os"
+
+	"gonum.org/v1/gonum/num/quat"
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/ephem"
+	"sunsight/illum/albedo"
+	"sunsight/illum/sensor"
+	"sunsight/illum/sky"
+	"sunsight/orbit"
+	"sunsight/scenario/attitude"
+	"sunsight/scenario/sim"
+)
+
+// MeanElements returns the orbit's mean Keplerian elements at the epoch:
+// sun-synchronous orbits get their inclination from the J2 condition and their
+// RAAN from the local time of the ascending node (mean sun).
+func (s *Scenario) MeanElements() (orbit.Elements, error) {
+	o := s.Orbit
+	el := orbit.Elements{SemiMajorAxisKm: o.SemiMajorAxisKm, Eccentricity: o.Eccentricity,
+		Inclination: o.InclinationRad, RAAN: o.RAANRad, ArgPerigee: o.ArgPerigeeRad, MeanAnomaly: o.MeanAnomalyRad}
+	if o.Kind == OrbitSunSync {
+		inc, err := orbit.SunSyncInclination(o.SemiMajorAxisKm, o.Eccentricity)
+		if err != nil {
+			return el, fmt.Errorf("orbit.altitude_km: %g: %w", o.AltitudeKm, err)
+		}
+		el.Inclination = inc
+		el.RAAN = orbit.RAANFromLTAN(o.LTANHours, s.Epoch)
+	}
+	if err := el.Validate(); err != nil {
+		return el, fmt.Errorf("orbit: %w", err)
+	}
+	return el, nil
+}
+
+// NewPropagator returns the factory of fresh propagators for the scenario's
+// orbit and propagator choice.
+func (s *Scenario) NewPropagator() (func() orbit.Propagator, error) {
+	el, err := s.MeanElements()
+	if err != nil {
+		return nil, err
+	}
+	switch s.Orbit.Propagator {
+	case "two-body":
+		return func() orbit.Propagator { return orbit.NewTwoBody(el) }, nil
+	case "j2-mean", "":
+		return func() orbit.Propagator { return orbit.NewJ2Mean(el) }, nil
+	case "j2-numeric":
+		p, err := orbit.NewJ2Numeric(el, orbit.NumericOptions{})
+		if err != nil {
+			return nil, fmt.Errorf("orbit.propagator: %w", err)
+		}
+		// The mean-to-osculating conversion is done once; each fresh
+		// propagator restarts from the same osculating state.
+		s0, opt := p.InitialState(), p.Options()
+		first := true
+		return func() orbit.Propagator {
+			if first {
+				first = false
+				return p
+			}
+			q, _ := orbit.NewJ2NumericFromState(s0, opt)
+			return q
+		}, nil
+	}
+	return nil, fmt.Errorf("orbit.propagator: %q is not one of two-body, j2-mean, j2-numeric", s.Orbit.Propagator)
+}
+
+// AttitudeLaw builds the scenario's attitude law.
+func (s *Scenario) AttitudeLaw() (attitude.Law, error) {
+	return s.buildAttitude(s.Attitude, "attitude")
+}
+
+// ModeLaw builds the attitude law of a named mode.
+func (s *Scenario) ModeLaw(m Mode) (attitude.Law, error) {
+	return s.buildAttitude(m.Attitude, "modes."+m.Name)
+}
+
+func (s *Scenario) buildAttitude(a Attitude, path string) (attitude.Law, error) {
+	if a.Name == LawSchedule {
+		if a.InSunlight == nil || a.InEclipse == nil {
+			return nil, fmt.Errorf("%s: a schedule needs in_sunlight and in_eclipse laws", path)
+		}
+		lit, err := s.buildLaw(*a.InSunlight, path+".in_sunlight")
+		if err != nil {
+			return nil, err
+		}
+		dark, err := s.buildLaw(*a.InEclipse, path+".in_eclipse")
+		if err != nil {
+			return nil, err
+		}
+		return attitude.Schedule{Sunlit: lit, Eclipse: dark}, nil
+	}
+	return s.buildLaw(a.Law, path)
+}
+
+func (s *Scenario) orientation(l Law, path string) (r3.Rotation, error) {
+	if l.EulerSequence != "" {
+		seq, err := attitude.ParseEulerSequence(l.EulerSequence)
+		if err != nil {
+			return r3.Rotation{}, fmt.Errorf("%s.euler_sequence: %w", path, err)
+		}
+		return attitude.FromEuler(seq, l.EulerRad[0], l.EulerRad[1], l.EulerRad[2]), nil
+	}
+	if l.Orientation == (quat.Number{}) {
+		return attitude.Identity, nil
+	}
+	return r3.Rotation(l.Orientation), nil
+}
+
+func (s *Scenario) buildLaw(l Law, path string) (attitude.Law, error) {
+	switch l.Name {
+	case LawNadir:
+		n := attitude.Nadir{NadirAxis: l.PointAxis, VelocityAxis: l.AlignAxis}
+		if l.RollRad != 0 || l.PitchRad != 0 || l.YawRad != 0 {
+			n.Offset = attitude.FromEuler(attitude.Seq321, l.YawRad, l.PitchRad, l.RollRad)
+		}
+		return n, nil
+	case LawSun:
+		return attitude.Sun{SunAxis: l.PointAxis, SecondaryAxis: l.AlignAxis, Reference: attitude.TowardOrbitNormal,
+			SpinRate: l.RateRadS, Phase: l.ClockRad}, nil
+	case LawInertial:
+		q, err := s.orientation(l, path)
+		if err != nil {
+			return nil, err
+		}
+		return attitude.Inertial{Q: q}, nil
+	case LawSpin:
+		q, err := s.orientation(l, path)
+		if err != nil {
+			return nil, err
+		}
+		body := l.SpinAxis
+		if body == (r3.Vec{}) {
+			body = r3.Vec{Z: 1}
+		}
+		// The inertial spin axis is where the starting attitude puts the
+		// body spin axis.
+		axis := r3.Rotation(quat.Conj(quat.Number(q))).Rotate(body)
+		return attitude.Spin{Axis: axis, BodyAxis: body, Rate: l.RateRadS}, nil
+	case LawTumble:
+		return attitude.NewTumble(uint64(s.Seed), l.MaxRateRadS), nil
+	case LawIsotropic:
+		return attitude.Isotropic{Seed: uint64(s.Seed)}, nil
+	}
+	return nil, fmt.Errorf("%s.law: %q is not one of nadir, sun, inertial, spin, tumble, isotropic, schedule", path, l.Name)
+}
+
+// BuildSensors turns sensor entries into a sensor array and, per sensor, the
+// viewer (field of view and obstructions) and the albedo response.
+func (s *Scenario) BuildSensors(list []Sensor, path string) (*sensor.Array, []sky.Viewer, []albedo.Response, error) {
+	var ss []sensor.Sensor
+	var viewers []sky.Viewer
+	var resp []albedo.Response
+	obstacles := s.Obstacles()
+	for i, sc := range list {
+		p := fmt.Sprintf("%s[%d] (%s)", path, i, sc.Name)
+		m, err := sensor.VectorMount(sc.Boresight, sc.RefAxis)
+		if err != nil {
+			return nil, nil, nil, fmt.Errorf("%s: mount: %w", p, err)
+		}
+		errs := sensor.Errors{MisalignSigma: sc.Errors.MisalignmentRad1Sigma, DarkSigma: sc.Errors.DarkOffset1Sigma,
+			GainSigma: sc.Errors.Gain1Sigma, NoiseSigma: sc.Errors.Noise1Sigma, ADCBits: sc.ADCBits, FullScale: sc.FullScale}
+		var sn sensor.Sensor
+		r := albedo.Response{}
+		switch sc.Kind {
+		case KindCosine:
+			spec := sensor.CosineSpec{Name: sc.Name, Mount: m, HalfAngle: sc.HalfAngleRad, Threshold: sc.Threshold, Errors: errs}
+			for _, rp := range sc.RollOff {
+				spec.RollOffAngle = append(spec.RollOffAngle, rp[0])
+				spec.RollOffRel = append(spec.RollOffRel, rp[1])
+			}
+			if len(sc.RollOff) > 0 {
+				// The albedo integral uses the same response: cos θ times
+				// the roll-off.
+				inc := make([]float64, len(sc.RollOff))
+				rel := make([]float64, len(sc.RollOff))
+				for k, rp := range sc.RollOff {
+					inc[k], rel[k] = rp[0], rp[1]*math.Cos(rp[0])
+				}
+				if r, err = albedo.NewTableResponse(inc, rel); err != nil {
+					return nil, nil, nil, fmt.Errorf("%s.roll_off: %w", p, err)
+				}
+			}
+			sn, err = sensor.NewCosine(spec)
+		case KindQuadrant:
+			sn, err = sensor.NewQuadrant(quadrantSpec(sc, m, errs))
+		case KindDigital:
+			sn, err = sensor.NewDigital(digitalSpec(sc, m, errs))
+		default:
+			err = fmt.Errorf("kind %q is not one of cosine, quadrant, digital", sc.Kind)
+		}
+		if err != nil {
+			return nil, nil, nil, fmt.Errorf("%s: %w", p, err)
+		}
+		ss = append(ss, sn)
+		resp = append(resp, r)
+		var v sky.Viewer = sky.ViewerFunc(sn.InFOV)
+		if len(obstacles) > 0 {
+			v = sky.Obstructed{View: v, Position: sc.PositionM, Obstacles: obstacles}
+		}
+		viewers = append(viewers, v)
+	}
+	arr, err := sensor.NewArray(ss...)
+	if err != nil {
+		return nil, nil, nil, fmt.Errorf("%s: %w", path, err)
+	}
+	return arr, viewers, resp, nil
+}
+
+// Obstacles returns the body's obstructions as sky shapes (body frame, m).
+func (s *Scenario) Obstacles() []sky.Obstacle {
+	var out []sky.Obstacle
+	for _, o := range s.Body.Obstructions {
+		switch o.Shape {
+		case ShapeRectangle:
+			out = append(out, boxFaces(o.CentreM, o.HalfExtentsM)...)
+		case ShapeCylinder:
+			out = append(out, sky.Cylinder{A: o.FromM, B: o.ToM, Radius: o.RadiusM})
+		}
+	}
+	return out
+}
+
+// boxFaces returns the faces of an axis-aligned box as rectangles; a box
+// with one zero half extent is a single flat panel.
+func boxFaces(c, h r3.Vec) []sky.Obstacle {
+	ex, ey, ez := r3.Vec{X: h.X}, r3.Vec{Y: h.Y}, r3.Vec{Z: h.Z}
+	var out []sky.Obstacle
+	add := func(n r3.Vec, u, v r3.Vec) {
+		if r3.Norm(u) == 0 || r3.Norm(v) == 0 {
+			return
+		}
+		out = append(out, sky.Rectangle{Centre: r3.Add(c, n), HalfU: u, HalfV: v})
+		if r3.Norm(n) > 0 {
+			out = append(out, sky.Rectangle{Centre: r3.Sub(c, n), HalfU: u, HalfV: v})
+		}
+	}
+	add(ex, ey, ez)
+	add(ey, ex, ez)
+	add(ez, ex, ey)
+	return out
+}
+
+func quadrantSpec(sc Sensor, m sensor.Mount, errs sensor.Errors) sensor.QuadrantSpec {
+	// The aperture is one cell wide, so the spot just fills a cell at
+	// normal incidence (the usual proportion; common practice, no source).
+	return sensor.QuadrantSpec{Name: sc.Name, Mount: m, ApertureSide: sc.CellSizeMM, Height: sc.ShadeHeightMM,
+		CellSide: sc.CellSizeMM, Gap: sc.GapMM, Threshold: sc.Threshold, Sigma: quadrantSigma(sc),
+		OffsetSigma: sc.Errors.ApertureOffsetMM1Sigma, Errors: errs}
+}
+
+// quadrantSigma is the stated 1σ accuracy used to weight a quadrant sensor's
+// direction: the file's accuracy_deg_1sigma, else 1° (a typical figure for a
+// home-built shaded quad cell; common practice, no source).
+func quadrantSigma(sc Sensor) float64 {
+	if sc.AccuracyRad1Sigma > 0 {
+		return sc.AccuracyRad1Sigma
+	}
+	return math.Pi / 180
+}
+
+// digitalAlbedoRejection is the diffuse irradiance, as a fraction of the solar
+// constant, below which a digital sensor ignores albedo (an assumed
+// detector property; common practice, no source).
+const digitalAlbedoRejection = 0.3
+
+func digitalSpec(sc Sensor, m sensor.Mount, _ sensor.Errors) sensor.DigitalSpec {
+	return sensor.DigitalSpec{Name: sc.Name, Mount: m, HalfAngle: sc.HalfAngleRad, Square: sc.SquareFOV,
+		Sigma: sc.AccuracyRad1Sigma, MinIrradiance: sc.Threshold * sensor.SolarConstant,
+		AlbedoThreshold: digitalAlbedoRejection * sensor.SolarConstant, MisalignSigma: sc.Errors.MisalignmentRad1Sigma}
+}
+
+// AlbedoFactory returns the albedo model factory, nil for model "none".
+func (s *Scenario) AlbedoFactory() (func() (*albedo.Model, error), error) {
+	var refl albedo.Reflectance
+	switch s.Albedo.Model {
+	case AlbedoNone, "":
+		return nil, nil
+	case AlbedoUniform:
+		refl = albedo.Uniform{Albedo: s.Albedo.Value}
+	case AlbedoZonal:
+		refl = albedo.KnockeZonal()
+	case AlbedoGrid:
+		f, err := os.Open(s.Albedo.GridFile)
+		if err != nil {
+			return nil, fmt.Errorf("albedo.grid_file: %w", err)
+		}
+		g, err := albedo.ParseGrid(f)
+		f.Close()
+		if err != nil {
+			return nil, fmt.Errorf("albedo.grid_file %s: %w", s.Albedo.GridFile, err)
+		}
+		refl = g
+	default:
+		return nil, fmt.Errorf("albedo.model: %q is not one of none, uniform, zonal, grid", s.Albedo.Model)
+	}
+	cfg := albedo.Config{Reflectance: refl, Cells: s.Albedo.Cells, AltitudeKm: s.Orbit.SemiMajorAxisKm - orbit.RadiusEarthKm}
+	if s.Orbit.Eccentricity > 0 {
+		cfg.AltitudeKm = 0 // built at the first call and rebuilt as the radius changes
+	}
+	if _, err := albedo.New(cfg); err != nil {
+		return nil, fmt.Errorf("albedo: %w", err)
+	}
+	return func() (*albedo.Model, error) { return albedo.New(cfg) }, nil
+}
+
+// EstimatorList returns the scenario's estimators; without a list, every one
+// that applies to the layout (least squares and opposite pairs need cosine
+// sensors, the two-axis estimate and the combination need two-axis ones).
+func (s *Scenario) EstimatorList(list []Sensor) ([]sensor.Estimator, error) {
+	names := s.Estimators
+	if len(names) == 0 {
+		var cos, two bool
+		for _, sc := range list {
+			if sc.Kind == KindCosine {
+				cos = true
+			} else {
+				two = true
+			}
+		}
+		// The first is the primary estimator of the headline figures.
+		switch {
+		case cos && two:
+			names = []string{"combined", "two-axis", "opposite-pairs", "least-squares"}
+		case two:
+			names = []string{"two-axis"}
+		default:
+			names = []string{"opposite-pairs", "least-squares"}
+		}
+	}
+	var out []sensor.Estimator
+	for i, n := range names {
+		e, err := sensor.EstimatorByName(n)
+		if err != nil {
+			return nil, fmt.Errorf("estimators[%d]: %w", i, err)
+		}
+		out = append(out, e)
+	}
+	return out, nil
+}
+
+// Config builds the simulation of the scenario with its own sensors and
+// attitude.
+func (s *Scenario) Config() (sim.Config, error) {
+	return s.ConfigFor(s.Body.Sensors, s.Attitude)
+}
+
+// ConfigFor builds the simulation of the scenario with another sensor list
+// (a layout or a subset of candidates) and attitude (a mode).
+func (s *Scenario) ConfigFor(sensors []Sensor, att Attitude) (sim.Config, error) {
+	var cfg sim.Config
+	newProp, err := s.NewPropagator()
+	if err != nil {
+		return cfg, err
+	}
+	sun, err := ephem.SunByName(s.SunModel)
+	if err != nil {
+		return cfg, fmt.Errorf("sun_model: %w", err)
+	}
+	law, err := s.buildAttitude(att, "attitude")
+	if err != nil {
+		return cfg, err
+	}
+	arr, viewers, resp, err := s.BuildSensors(sensors, "body.sensors")
+	if err != nil {
+		return cfg, err
+	}
+	alb, err := s.AlbedoFactory()
+	if err != nil {
+		return cfg, err
+	}
+	ests, err := s.EstimatorList(sensors)
+	if err != nil {
+		return cfg, err
+	}
+	cfg = sim.Config{
+		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
+		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law,
+		Array: arr, Viewers: viewers, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
+		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), SeriesStride: s.Output.Decimate,
+	}
+	return cfg, cfg.Validate()
+}

@@ -1,0 +1,62 @@
+package sim
+
+import "math"
+
+// Headline is the one-line summary of a run that tables, sweeps and layout
+// searches compare: the nominal unit's figures and, for the primary
+// estimator (the first one listed), its validity, gaps and errors. Error
+// fields are NaN when no valid estimate was made.
+type Headline struct {
+	SunlitFraction   float64 `json:"sunlit_fraction"`
+	PenumbraFraction float64 `json:"penumbra_fraction"`
+	UmbraFraction    float64 `json:"umbra_fraction"`
+	Eclipses         int     `json:"eclipses"`
+	EclipseMeanMin   float64 `json:"eclipse_mean_min"`
+	EclipseMaxMin    float64 `json:"eclipse_max_min"`
+	BetaMinDeg       float64 `json:"beta_min_deg"`
+	BetaMaxDeg       float64 `json:"beta_max_deg"`
+	Seen1            float64 `json:"seen_by_1_fraction"`
+	Seen2            float64 `json:"seen_by_2_fraction"`
+	Seen3            float64 `json:"seen_by_3_fraction"`
+	Estimator        string  `json:"estimator"`
+	ValidFraction    float64 `json:"valid_fraction"`
+	LongestGapS      float64 `json:"longest_gap_s"`
+	P95NoAlbedoDeg   float64 `json:"p95_error_no_albedo_deg"`
+	P95AlbedoDeg     float64 `json:"p95_error_albedo_deg"`
+	P95AlbedoPartDeg float64 `json:"p95_albedo_part_deg"`
+	MaxErrorDeg      float64 `json:"max_error_deg"`
+	FalseSunFraction float64 `json:"false_sun_fraction"`
+	// UnitsP95Deg is the p95 error reached by 95 % of Monte Carlo units
+	// (NaN with a single unit).
+	UnitsP95Deg float64 `json:"units_p95_error_deg"`
+}
+
+// Headline returns the run's headline figures.
+func (r *Result) Headline() Headline {
+	u := r.Nominal
+	h := Headline{
+		SunlitFraction: u.SunlitFraction, PenumbraFraction: u.PenumbraFraction, UmbraFraction: u.UmbraFraction,
+		Eclipses: r.EclipseStats.Count, EclipseMeanMin: r.EclipseStats.MeanS / 60, EclipseMaxMin: r.EclipseStats.MaxS / 60,
+		BetaMinDeg: u.BetaMinDeg, BetaMaxDeg: u.BetaMaxDeg,
+		Seen1: u.SeenAtLeast[1], Seen2: u.SeenAtLeast[2], Seen3: u.SeenAtLeast[3],
+		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction,
+	}
+	if r.EclipseStats.Count == 0 {
+		h.EclipseMeanMin, h.EclipseMaxMin = 0, 0
+	}
+	e := &u.Estimators[0]
+	h.Estimator = e.Name
+	h.ValidFraction = e.ValidFraction
+	h.LongestGapS = e.LongestGapS
+	h.P95NoAlbedoDeg = e.ErrNoAlbedo.P95Deg
+	h.P95AlbedoDeg = e.ErrAlbedo.P95Deg
+	h.P95AlbedoPartDeg = e.AlbedoPart.P95Deg
+	h.MaxErrorDeg = e.ErrNoAlbedo.MaxDeg
+	if e.ErrAlbedo.N > 0 {
+		h.MaxErrorDeg = e.ErrAlbedo.MaxDeg
+	}
+	if len(r.AcrossUnits) > 0 {
+		h.UnitsP95Deg = r.AcrossUnits[0].P95OfUnitP95Deg
+	}
+	return h
+}

@@ -49,6 +49,13 @@ type Config struct {
 	NewAlbedo      func() (*albedo.Model, error)
 	AlbedoResponse []albedo.Response
 
+	// NewCorrection, when set with NewAlbedo, is the albedo model the
+	// flight software would use to correct its cosine readings: the
+	// estimators then see readings whose albedo part is the truth minus
+	// this model's prediction (the "with albedo" figures become "with
+	// corrected albedo"). Two-axis sensors are not corrected.
+	NewCorrection func() (*albedo.Model, error)
+
 	// Estimators are run side by side on the same readings; the first one is
 	// the primary, used for validity gaps and the time series.
 	Estimators []sensor.Estimator

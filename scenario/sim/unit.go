@@ -49,6 +49,14 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 		}
 		alb = m
 	}
+	var corr *albedo.Model
+	if alb != nil && cfg.NewCorrection != nil {
+		m, err := cfg.NewCorrection()
+		if err != nil {
+			return nil, err
+		}
+		corr = m
+	}
 	jd0 := ephem.JulianDateTT(cfg.Epoch)
 	jdUT0 := ephem.JulianDateUT1(cfg.Epoch)
 
@@ -58,9 +66,15 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 	var albIn []albedo.Sensor
 	var albOut []albedo.Result
 	var albBody []sensor.Albedo
+	var corrOut []albedo.Result
+	cosine := make([]bool, n)
+	for i, s := range arr.Sensors() {
+		cosine[i] = s.Kind() == sensor.KindCosine
+	}
 	if alb != nil {
 		albIn = make([]albedo.Sensor, n)
 		albOut = make([]albedo.Result, n)
+		corrOut = make([]albedo.Result, n)
 		albBody = make([]sensor.Albedo, n)
 		for i, s := range arr.Sensors() {
 			albIn[i].HalfAngle = s.HalfAngle()
@@ -116,10 +130,16 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 			}
 			gmst := ephem.GMST(jdUT0 + t/86400)
 			alb.Irradiance(albOut, st.R, sunU, sunD, gmst, jd, albIn)
+			if corr != nil {
+				corr.Irradiance(corrOut, st.R, sunU, sunD, gmst, jd, albIn)
+			}
 			for i := range albOut {
 				albBody[i] = sensor.Albedo{Irradiance: albOut[i].Irradiance}
 				if albOut[i].Irradiance > 0 {
 					albBody[i].Dir = A.toBody(albOut[i].Dir)
+				}
+				if corr != nil && cosine[i] {
+					albBody[i].Irradiance -= corrOut[i].Irradiance
 				}
 			}
 			*noiseSrc = noiseSaved

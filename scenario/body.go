@@ -264,17 +264,21 @@ func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 				twoAxis++
 			}
 		}
-		if cos >= 3 {
-			f.Estimators = append(f.Estimators, "least-squares")
-		}
-		if pairs {
-			f.Estimators = append(f.Estimators, "opposite-pairs")
+		// The first listed is the primary estimator of the headline figures
+		// and targets: the combination when there are both kinds, else the
+		// two-axis directions, else the pair difference (less biased by
+		// albedo than lit-only least squares), else least squares.
+		if cos >= 3 && twoAxis > 0 {
+			f.Estimators = append(f.Estimators, "combined")
 		}
 		if twoAxis > 0 {
 			f.Estimators = append(f.Estimators, "two-axis")
 		}
-		if cos >= 3 && twoAxis > 0 {
-			f.Estimators = append(f.Estimators, "combined")
+		if pairs {
+			f.Estimators = append(f.Estimators, "opposite-pairs")
+		}
+		if cos >= 3 {
+			f.Estimators = append(f.Estimators, "least-squares")
 		}
 	}
 	seen := map[string]bool{}

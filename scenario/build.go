@@ -310,32 +310,14 @@ func (s *Scenario) AlbedoFactory() (func() (*albedo.Model, error), error) {
 	return func() (*albedo.Model, error) { return albedo.New(cfg) }, nil
 }
 
-// EstimatorList returns the scenario's estimators; without a list, every one
-// that applies to the layout (least squares and opposite pairs need cosine
-// sensors, the two-axis estimate and the combination need two-axis ones).
+// EstimatorList returns the scenario's estimators (the resolver fills the
+// applicable ones, primary first, when the file lists none).
 func (s *Scenario) EstimatorList(list []Sensor) ([]sensor.Estimator, error) {
-	names := s.Estimators
-	if len(names) == 0 {
-		var cos, two bool
-		for _, sc := range list {
-			if sc.Kind == KindCosine {
-				cos = true
-			} else {
-				two = true
-			}
-		}
-		// The first is the primary estimator of the headline figures.
-		switch {
-		case cos && two:
-			names = []string{"combined", "two-axis", "opposite-pairs", "least-squares"}
-		case two:
-			names = []string{"two-axis"}
-		default:
-			names = []string{"opposite-pairs", "least-squares"}
-		}
+	if len(s.Estimators) == 0 {
+		return nil, fmt.Errorf("estimators: none applies to the %d sensors listed; add cosine or two-axis sensors", len(list))
 	}
 	var out []sensor.Estimator
-	for i, n := range names {
+	for i, n := range s.Estimators {
 		e, err := sensor.EstimatorByName(n)
 		if err != nil {
 			return nil, fmt.Errorf("estimators[%d]: %w", i, err)

@@ -1,0 +1,427 @@
+package main
+
+import (
+	"bytes"
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strconv"
+	"strings"
+	"time"
+
+	"sunsight/illum/sky"
+	"sunsight/scenario"
+	"sunsight/scenario/sim"
+)
+
+// schemaVersion numbers the layout of the JSON record.
+const schemaVersion = 1
+
+// runOutput formats one run for people (summary), machines (JSON) and
+// spreadsheets (CSV).
+type runOutput struct {
+	s       *scenario.Scenario
+	cfg     *sim.Config
+	res     *sim.Result
+	version string
+	cov     sky.Result
+	covErr  error
+	targets []scenario.TargetCheck
+}
+
+func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
+	o := &runOutput{s: s, cfg: cfg, res: res, version: version}
+	lat, err := sky.Fibonacci(sky.DefaultPoints)
+	if err == nil {
+		o.cov, err = sky.Coverage(cfg.Viewers, lat)
+	}
+	o.covErr = err
+	o.targets = s.CheckTargets(res.Headline(), o.cov)
+	return o
+}
+
+// num is a float that encodes NaN and ±Inf as JSON null, with a fixed
+// number of significant digits so records diff cleanly.
+type num float64
+
+func (n num) MarshalJSON() ([]byte, error) {
+	v := float64(n)
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return []byte("null"), nil
+	}
+	return strconv.AppendFloat(nil, v, 'g', 10, 64), nil
+}
+
+// jsonFields turns a struct of floats, ints, strings and bools into an
+// ordered JSON object using its json tags (NaN-safe).
+type jsonFields struct{ v any }
+
+func (j jsonFields) MarshalJSON() ([]byte, error) {
+	rv := reflect.ValueOf(j.v)
+	rt := rv.Type()
+	var b bytes.Buffer
+	b.WriteByte('{')
+	for i := range rt.NumField() {
+		f := rt.Field(i)
+		tag := f.Tag.Get("json")
+		if tag == "" || !f.IsExported() {
+			continue
+		}
+		if b.Len() > 1 {
+			b.WriteByte(',')
+		}
+		key, _ := json.Marshal(tag)
+		b.Write(key)
+		b.WriteByte(':')
+		var val any = rv.Field(i).Interface()
+		if x, ok := val.(float64); ok {
+			val = num(x)
+		}
+		enc, err := json.Marshal(val)
+		if err != nil {
+			return nil, err
+		}
+		b.Write(enc)
+	}
+	b.WriteByte('}')
+	return b.Bytes(), nil
+}
+
+type jsonErr struct {
+	N       int  `json:"n"`
+	Mean    num  `json:"mean_deg"`
+	RMS     num  `json:"rms_deg"`
+	P50     num  `json:"p50_deg"`
+	P95     num  `json:"p95_deg"`
+	P99     num  `json:"p99_deg"`
+	Max     num  `json:"max_deg"`
+	Defined bool `json:"defined"`
+}
+
+func errJSON(e sim.ErrorStats) jsonErr {
+	return jsonErr{N: e.N, Mean: num(e.MeanDeg), RMS: num(e.RMSDeg), P50: num(e.P50Deg), P95: num(e.P95Deg),
+		P99: num(e.P99Deg), Max: num(e.MaxDeg), Defined: e.N > 0}
+}
+
+type jsonEstimator struct {
+	Name              string  `json:"name"`
+	Valid             num     `json:"valid_fraction"`
+	ValidNoAlbedo     num     `json:"valid_fraction_no_albedo"`
+	Gaps              int     `json:"sunlit_gaps"`
+	LongestGapS       num     `json:"longest_gap_s"`
+	LongestAtS        num     `json:"longest_gap_start_s"`
+	ErrNoAlbedo       jsonErr `json:"error_no_albedo"`
+	ErrAlbedo         jsonErr `json:"error_albedo"`
+	AlbedoPart        jsonErr `json:"albedo_part"`
+	FalseSun          num     `json:"false_sun_fraction_of_umbra"`
+	FalseSunFromNadir jsonErr `json:"false_sun_from_nadir"`
+}
+
+type jsonSensor struct {
+	Name      string `json:"name"`
+	InView    num    `json:"in_view_fraction"`
+	Peak      num    `json:"peak_signal"`
+	Saturated num    `json:"saturated_fraction"`
+	FalseSun  num    `json:"false_sun_fraction_of_umbra"`
+}
+
+type jsonUnit struct {
+	Unit       int             `json:"unit"`
+	Sunlit     num             `json:"sunlit_fraction"`
+	Penumbra   num             `json:"penumbra_fraction"`
+	Umbra      num             `json:"umbra_fraction"`
+	Seen       [3]num          `json:"seen_by_at_least_1_2_3"`
+	FalseSun   num             `json:"false_sun_fraction_of_umbra"`
+	BetaMinDeg num             `json:"beta_min_deg"`
+	BetaMaxDeg num             `json:"beta_max_deg"`
+	Sensors    []jsonSensor    `json:"sensors"`
+	Estimators []jsonEstimator `json:"estimators"`
+}
+
+type jsonEclipse struct {
+	StartS      num  `json:"penumbra_start_s"`
+	UmbraStartS num  `json:"umbra_start_s"`
+	UmbraEndS   num  `json:"umbra_end_s"`
+	EndS        num  `json:"penumbra_end_s"`
+	Cut         bool `json:"cut_by_span"`
+}
+
+func unitJSON(u *sim.UnitResult) jsonUnit {
+	j := jsonUnit{Unit: u.Unit, Sunlit: num(u.SunlitFraction), Penumbra: num(u.PenumbraFraction), Umbra: num(u.UmbraFraction),
+		Seen: [3]num{num(u.SeenAtLeast[1]), num(u.SeenAtLeast[2]), num(u.SeenAtLeast[3])}, FalseSun: num(u.FalseSunFraction),
+		BetaMinDeg: num(u.BetaMinDeg), BetaMaxDeg: num(u.BetaMaxDeg)}
+	for _, s := range u.Sensors {
+		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.SaturatedFraction), num(s.FalseSunFraction)})
+	}
+	for _, e := range u.Estimators {
+		j.Estimators = append(j.Estimators, jsonEstimator{Name: e.Name, Valid: num(e.ValidFraction), ValidNoAlbedo: num(e.ValidFractionNoAlbedo),
+			Gaps: len(e.Gaps), LongestGapS: num(e.LongestGapS), LongestAtS: num(e.LongestAtS), ErrNoAlbedo: errJSON(e.ErrNoAlbedo),
+			ErrAlbedo: errJSON(e.ErrAlbedo), AlbedoPart: errJSON(e.AlbedoPart), FalseSun: num(e.FalseSunFraction),
+			FalseSunFromNadir: errJSON(e.FalseSunFromNadir)})
+	}
+	return j
+}
+
+// record is the whole JSON document of a run.
+func (o *runOutput) record() map[string]any {
+	r := o.res
+	var ecl []jsonEclipse
+	for _, e := range r.Eclipses {
+		ecl = append(ecl, jsonEclipse{num(e.PenumbraStart), num(e.UmbraStart), num(e.UmbraEnd), num(e.PenumbraEnd), e.StartCut || e.EndCut})
+	}
+	var units []jsonUnit
+	for _, u := range r.Units {
+		units = append(units, unitJSON(u))
+	}
+	var across []map[string]any
+	for _, a := range r.AcrossUnits {
+		p := make([]num, len(a.UnitP95Deg))
+		for i, v := range a.UnitP95Deg {
+			p[i] = num(v)
+		}
+		across = append(across, map[string]any{"estimator": a.Name, "p50_of_unit_p95_deg": num(a.P50OfUnitP95Deg),
+			"p95_of_unit_p95_deg": num(a.P95OfUnitP95Deg), "worst_unit_p95_deg": num(a.WorstUnitP95Deg),
+			"min_valid_fraction": num(a.MinValidFraction), "unit_p95_deg": p})
+	}
+	es := r.EclipseStats
+	out := map[string]any{
+		"schema_version": schemaVersion,
+		"tool":           map[string]any{"name": "sunsight", "version": o.version},
+		"scenario":       map[string]any{"name": o.s.Name, "seed": o.s.Seed, "record": string(o.s.Record())},
+		"run": map[string]any{"epoch": o.s.Epoch.Format(time.RFC3339), "duration_s": num(r.DurationS), "step_s": num(r.StepS),
+			"steps": r.Steps, "units": len(r.Units)},
+		"headline": jsonFields{r.Headline()},
+		"eclipse_stats": map[string]any{"count": es.Count, "mean_s": num(es.MeanS), "max_s": num(es.MaxS), "total_s": num(es.TotalS),
+			"mean_umbra_s": num(es.MeanUmbraS), "max_umbra_s": num(es.MaxUmbraS), "shadow_fraction": num(es.ShadowFraction),
+			"per_orbit": num(es.EclipsesPerOrbit), "shadow_per_orbit_s": num(es.ShadowPerOrbitS),
+			"longest_sunlit_s": num(es.LongestSunlitS), "longest_shadow_s": num(es.LongestShadowS)},
+		"eclipses":     ecl,
+		"units":        units,
+		"across_units": across,
+	}
+	if o.covErr == nil {
+		out["sky_coverage"] = map[string]any{"points": o.cov.Points,
+			"at_least_1_2_3":         []num{num(o.cov.AtLeast[1]), num(o.cov.AtLeast[2]), num(o.cov.AtLeast[3])},
+			"worst_one_failed_1_2_3": []num{num(o.cov.WorstOneFailed[1]), num(o.cov.WorstOneFailed[2]), num(o.cov.WorstOneFailed[3])}}
+	}
+	var tj []map[string]any
+	for _, t := range o.targets {
+		tj = append(tj, map[string]any{"target": t.Label, "required": t.Required, "value": t.Value, "pass": t.Pass})
+	}
+	out["targets"] = tj
+	return out
+}
+
+func (o *runOutput) jsonBytes() ([]byte, error) {
+	b, err := json.MarshalIndent(o.record(), "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	return append(b, '\n'), nil
+}
+
+func (o *runOutput) writeJSON(w io.Writer) error {
+	b, err := o.jsonBytes()
+	if err != nil {
+		return err
+	}
+	_, err = w.Write(b)
+	return err
+}
+
+func pct(f float64) string {
+	if math.IsNaN(f) {
+		return "   n/a"
+	}
+	return fmt.Sprintf("%5.1f %%", 100*f)
+}
+
+func deg(f float64) string {
+	if math.IsNaN(f) {
+		return "n/a"
+	}
+	return fmt.Sprintf("%.2f°", f)
+}
+
+// writeSummary prints the readable summary table.
+func (o *runOutput) writeSummary(w io.Writer) {
+	s, r, u := o.s, o.res, o.res.Nominal
+	fmt.Fprintf(w, "sunsight run: %s\n", s.Name)
+	fmt.Fprintf(w, "  %s for %s at %s steps (%d samples), seed %d, %d unit(s)\n", s.Epoch.Format(time.RFC3339), s.Duration, s.Step, r.Steps, s.Seed, len(r.Units))
+	fmt.Fprintf(w, "  orbit %s, %.0f km, propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
+		s.Orbit.Kind, s.Orbit.AltitudeKm, s.Orbit.Propagator, s.SunModel, s.Shadow, s.Attitude.Name, albedoLabel(s))
+	es := r.EclipseStats
+	fmt.Fprintf(w, "\nIllumination\n")
+	fmt.Fprintf(w, "  sunlit %s   penumbra %s   umbra %s   beta %.1f° to %.1f°\n", pct(u.SunlitFraction), pct(u.PenumbraFraction), pct(u.UmbraFraction), u.BetaMinDeg, u.BetaMaxDeg)
+	if es.Count > 0 {
+		fmt.Fprintf(w, "  eclipses %d: mean %.1f min, longest %.1f min (umbra %.1f min), longest sunlit spell %.1f min\n",
+			es.Count, es.MeanS/60, es.MaxS/60, es.MaxUmbraS/60, es.LongestSunlitS/60)
+	} else {
+		fmt.Fprintf(w, "  no eclipse in the span\n")
+	}
+	fmt.Fprintf(w, "\nSun in the field of view (share of sunlit time)\n")
+	fmt.Fprintf(w, "  by >=1 sensor %s   >=2 %s   >=3 %s\n", pct(u.SeenAtLeast[1]), pct(u.SeenAtLeast[2]), pct(u.SeenAtLeast[3]))
+	if o.covErr == nil {
+		c := o.cov
+		fmt.Fprintf(w, "  sky coverage of the layout: >=1 %s   >=2 %s   >=3 %s   (any one sensor failed: >=1 %s)\n",
+			pct(c.AtLeast[1]), pct(c.AtLeast[2]), pct(c.AtLeast[3]), pct(c.WorstOneFailed[1]))
+	}
+	fmt.Fprintf(w, "\nSun-vector estimate (sunlit time; errors to the true sun)\n")
+	fmt.Fprintf(w, "  %-16s %8s %9s %13s %11s %12s %9s %10s\n", "estimator", "valid", "max gap", "p95 no albedo", "p95 albedo", "albedo part", "max", "false sun")
+	for _, e := range u.Estimators {
+		mx := e.ErrNoAlbedo.MaxDeg
+		if e.ErrAlbedo.N > 0 {
+			mx = e.ErrAlbedo.MaxDeg
+		}
+		fmt.Fprintf(w, "  %-16s %8s %7.0f s %13s %11s %12s %9s %10s\n", e.Name, pct(e.ValidFraction), e.LongestGapS,
+			deg(e.ErrNoAlbedo.P95Deg), deg(e.ErrAlbedo.P95Deg), deg(e.AlbedoPart.P95Deg), deg(mx), pct(e.FalseSunFraction))
+	}
+	fmt.Fprintf(w, "  (false sun: share of umbra time with a valid estimate made of albedo alone)\n")
+	if len(r.AcrossUnits) > 0 {
+		fmt.Fprintf(w, "\nMonte Carlo over %d units (p95 error of each unit)\n", len(r.Units))
+		for _, a := range r.AcrossUnits {
+			fmt.Fprintf(w, "  %-16s median %s   reached by 95 %% of units %s   worst %s   lowest validity %s\n", a.Name,
+				deg(a.P50OfUnitP95Deg), deg(a.P95OfUnitP95Deg), deg(a.WorstUnitP95Deg), pct(a.MinValidFraction))
+		}
+	}
+	fmt.Fprintf(w, "\nSensors\n  %-14s %9s %12s %10s %10s\n", "sensor", "in view", "peak signal", "saturated", "false sun")
+	for _, sn := range u.Sensors {
+		fmt.Fprintf(w, "  %-14s %9s %12.3f %10s %10s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, pct(sn.SaturatedFraction), pct(sn.FalseSunFraction))
+	}
+	if len(o.targets) > 0 {
+		fmt.Fprintf(w, "\nTargets\n")
+		for _, t := range o.targets {
+			verdict := "FAIL"
+			if t.Pass {
+				verdict = "pass"
+			}
+			fmt.Fprintf(w, "  %-4s %-44s required %-10s got %s\n", verdict, t.Label, t.Required, t.Value)
+		}
+	}
+	fmt.Fprintf(w, "\nAn analysis aid, not flight verification: flight hardware needs qualified verification.\n")
+}
+
+func albedoLabel(s *scenario.Scenario) string {
+	switch s.Albedo.Model {
+	case scenario.AlbedoUniform:
+		return fmt.Sprintf("uniform %.2f", s.Albedo.Value)
+	case scenario.AlbedoGrid:
+		return "grid " + filepath.Base(s.Albedo.GridFile)
+	}
+	return s.Albedo.Model
+}
+
+// writeFileAtomic writes data to path through a temp file in the same
+// folder and a rename, so no partial file is ever left.
+func writeFileAtomic(path string, data []byte) error {
+	dir := filepath.Dir(path)
+	f, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return err
+	}
+	tmp := f.Name()
+	if _, err := f.Write(data); err != nil {
+		f.Close()
+		os.Remove(tmp)
+		return err
+	}
+	if err := f.Close(); err != nil {
+		os.Remove(tmp)
+		return err
+	}
+	if err := os.Rename(tmp, path); err != nil {
+		os.Remove(tmp)
+		return err
+	}
+	return nil
+}
+
+func ff(v float64, prec int) string {
+	if math.IsNaN(v) {
+		return ""
+	}
+	return strconv.FormatFloat(v, 'f', prec, 64)
+}
+
+func csvBytes(rows [][]string) ([]byte, error) {
+	var b bytes.Buffer
+	w := csv.NewWriter(&b)
+	if err := w.WriteAll(rows); err != nil {
+		return nil, err
+	}
+	w.Flush()
+	return b.Bytes(), w.Error()
+}
+
+// writeCSV writes the time series, eclipses, estimators and sensors tables,
+// the resolved scenario and the JSON record into dir.
+func (o *runOutput) writeCSV(dir string) error {
+	r, u := o.res, o.res.Nominal
+	files := map[string][][]string{}
+	if s := u.Series; s != nil {
+		head := []string{"t_s", "utc", "region", "sun_disc_visible_fraction", "sensors_seeing_sun", "valid",
+			"error_no_albedo_deg", "error_albedo_deg", "beta_deg", "sun_body_az_deg", "sun_body_el_deg"}
+		for _, n := range s.SensorName {
+			head = append(head, "signal_"+n)
+		}
+		rows := [][]string{head}
+		for i, t := range s.T {
+			row := []string{ff(t, 1), o.s.Epoch.Add(time.Duration(t * float64(time.Second))).UTC().Format("2006-01-02T15:04:05.000Z"),
+				strings.ToLower(s.Region[i].String()), ff(s.Lit[i], 6), strconv.Itoa(s.Seen[i]), strconv.FormatBool(s.Valid[i]),
+				ff(s.ErrNoDeg[i], 4), ff(s.ErrAlbDeg[i], 4), ff(s.BetaDeg[i], 4), ff(s.SunBodyAz[i], 3), ff(s.SunBodyEl[i], 3)}
+			for _, v := range s.Signals[i] {
+				row = append(row, ff(v, 5))
+			}
+			rows = append(rows, row)
+		}
+		files["series.csv"] = rows
+	}
+	ecl := [][]string{{"penumbra_start_utc", "penumbra_start_s", "umbra_start_s", "umbra_end_s", "penumbra_end_s", "duration_s", "umbra_s", "cut_by_span"}}
+	for _, e := range r.Eclipses {
+		ecl = append(ecl, []string{o.s.Epoch.Add(time.Duration(e.PenumbraStart * float64(time.Second))).UTC().Format("2006-01-02T15:04:05.000Z"),
+			ff(e.PenumbraStart, 3), ff(e.UmbraStart, 3), ff(e.UmbraEnd, 3), ff(e.PenumbraEnd, 3), ff(e.Duration(), 3),
+			ff(e.UmbraDuration(), 3), strconv.FormatBool(e.StartCut || e.EndCut)})
+	}
+	files["eclipses.csv"] = ecl
+	est := [][]string{{"estimator", "valid_fraction", "longest_gap_s", "mean_no_albedo_deg", "p50_no_albedo_deg", "p95_no_albedo_deg", "p99_no_albedo_deg", "max_no_albedo_deg",
+		"mean_albedo_deg", "p50_albedo_deg", "p95_albedo_deg", "p99_albedo_deg", "max_albedo_deg", "p95_albedo_part_deg", "false_sun_fraction_of_umbra"}}
+	for _, e := range u.Estimators {
+		a, b := e.ErrNoAlbedo, e.ErrAlbedo
+		est = append(est, []string{e.Name, ff(e.ValidFraction, 6), ff(e.LongestGapS, 1), ff(a.MeanDeg, 4), ff(a.P50Deg, 4), ff(a.P95Deg, 4), ff(a.P99Deg, 4), ff(a.MaxDeg, 4),
+			ff(b.MeanDeg, 4), ff(b.P50Deg, 4), ff(b.P95Deg, 4), ff(b.P99Deg, 4), ff(b.MaxDeg, 4), ff(e.AlbedoPart.P95Deg, 4), ff(e.FalseSunFraction, 6)})
+	}
+	files["estimators.csv"] = est
+	sens := [][]string{{"sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra"}}
+	for _, s := range u.Sensors {
+		sens = append(sens, []string{s.Name, ff(s.InViewFraction, 6), ff(s.PeakSignal, 5), ff(s.SaturatedFraction, 6), ff(s.FalseSunFraction, 6)})
+	}
+	files["sensors.csv"] = sens
+	gaps := [][]string{{"gap_s"}}
+	for _, g := range u.Estimators[0].Gaps {
+		gaps = append(gaps, []string{ff(g, 1)})
+	}
+	files["gaps_"+u.Estimators[0].Name+".csv"] = gaps
+
+	for name, rows := range files {
+		b, err := csvBytes(rows)
+		if err != nil {
+			return err
+		}
+		if err := writeFileAtomic(filepath.Join(dir, name), b); err != nil {
+			return err
+		}
+	}
+	if err := writeFileAtomic(filepath.Join(dir, "scenario.resolved.yaml"), o.s.Record()); err != nil {
+		return err
+	}
+	b, err := o.jsonBytes()
+	if err != nil {
+		return err
+	}
+	return writeFileAtomic(filepath.Join(dir, "run.json"), b)
+}

@@ -1,0 +1,347 @@
+package review
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/ephem"
+	"sunsight/illum"
+	"sunsight/illum/sky"
+	"sunsight/orbit"
+	"sunsight/plots"
+	"sunsight/scenario"
+	"sunsight/scenario/sim"
+)
+
+// Named is one figure of a run: Name is the file stem ("sky", "timeline",
+// …), Title the heading shown in the report.
+type Named struct {
+	Name, Title string
+	Chart       *plots.Chart
+}
+
+// Figure names, in report order.
+const (
+	FigSky      = "sky"
+	FigTimeline = "timeline"
+	FigYear     = "year"
+	FigError    = "error"
+	FigGaps     = "gaps"
+)
+
+// SkyCellDeg is the cell size of the sky coverage map.
+const SkyCellDeg = 2.0
+
+// TimelineOrbits is the number of orbits the timeline shows.
+const TimelineOrbits = 3
+
+// YearDays is the length of the year view.
+const YearDays = 365
+
+// cdfPoints is the number of points read from the error quantiles.
+const cdfPoints = 400
+
+// Figures builds every figure of a run. cfg is the sim.Config the run used
+// (its Array/Viewers give the sky map and boresights). When the run kept no
+// series the timeline is computed by re-running the first orbits with a
+// series; a run with no gap has no gap figure (see Skipped).
+func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, error) {
+	if err := checkInputs(s, cfg, res); err != nil {
+		return nil, err
+	}
+	cap := captionOf(s, cfg, res)
+	var out []Named
+	add := func(name, title string, c *plots.Chart, err error) error {
+		if err != nil {
+			return fmt.Errorf("review: %s figure: %w", name, err)
+		}
+		out = append(out, Named{Name: name, Title: title, Chart: c})
+		return nil
+	}
+
+	sm, err := skyMap(cfg, res)
+	if err != nil {
+		return nil, fmt.Errorf("review: sky figure: %w", err)
+	}
+	c, err := sm.Plot(cap)
+	if err := add(FigSky, "Sky coverage in body axes: sensors seeing each sun direction", c, err); err != nil {
+		return nil, err
+	}
+
+	tl, err := timeline(cfg, res)
+	if err != nil {
+		return nil, fmt.Errorf("review: timeline figure: %w", err)
+	}
+	c, err = tl.Plot(cap)
+	if err := add(FigTimeline, fmt.Sprintf("Timeline of the first %d orbits: sensors seeing the sun, validity, error", TimelineOrbits), c, err); err != nil {
+		return nil, err
+	}
+
+	yv, err := yearView(s)
+	if err != nil {
+		return nil, fmt.Errorf("review: year figure: %w", err)
+	}
+	yc := cap
+	yc.Model = "j2-mean orbit from the mean elements (for speed), " + s.SunModel + " sun, conical shadow; one orbit examined per day"
+	yc.Assumptions = "no attitude or sensors involved; eclipse minutes of the first complete eclipse of the day"
+	c, err = yv.Plot(yc)
+	if err := add(FigYear, "Beta angle and eclipse minutes per orbit over one year", c, err); err != nil {
+		return nil, err
+	}
+
+	if ed, ok := errorDist(res); ok {
+		c, err = ed.Plot(cap)
+		if err := add(FigError, "Sun-vector error distribution of the primary estimator ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
+			return nil, err
+		}
+	}
+
+	if g, ok := gaps(res); ok {
+		c, err = g.Plot(cap)
+		if err := add(FigGaps, "Sunlit gaps without a valid sun vector ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
+			return nil, err
+		}
+	}
+	return out, nil
+}
+
+// Skipped says which figures a run leaves out and why, for the report.
+func Skipped(res *sim.Result) []string {
+	var out []string
+	if res == nil || res.Nominal == nil || len(res.Nominal.Estimators) == 0 {
+		return nil
+	}
+	e := &res.Nominal.Estimators[0]
+	if _, ok := errorDist(res); !ok {
+		out = append(out, fmt.Sprintf("No error distribution: the primary estimator %s formed no valid sun vector in sunlight.", e.Name))
+	}
+	if _, ok := gaps(res); !ok {
+		out = append(out, fmt.Sprintf("No gap figure: the primary estimator %s had a valid sun vector throughout the sunlit time.", e.Name))
+	}
+	return out
+}
+
+func checkInputs(s *scenario.Scenario, cfg sim.Config, res *sim.Result) error {
+	switch {
+	case s == nil:
+		return errors.New("review: no scenario")
+	case res == nil || res.Nominal == nil:
+		return errors.New("review: no run result")
+	case len(res.Nominal.Estimators) == 0:
+		return errors.New("review: the run has no estimator result")
+	case cfg.Array == nil || cfg.Array.Len() == 0:
+		return errors.New("review: the run configuration has no sensors")
+	}
+	return nil
+}
+
+// viewers returns the run's viewers, or the sensors' own fields of view.
+func viewers(cfg sim.Config) []sky.Viewer {
+	if cfg.Viewers != nil {
+		return cfg.Viewers
+	}
+	var v []sky.Viewer
+	for _, sn := range cfg.Array.Sensors() {
+		v = append(v, sky.ViewerFunc(sn.InFOV))
+	}
+	return v
+}
+
+func degOf(rad float64) float64 { return rad * 180 / math.Pi }
+
+// azEl returns the body azimuth (from +X toward +Y) and elevation (toward
+// +Z) of a direction, deg.
+func azEl(v r3.Vec) (az, el float64) {
+	u := r3.Unit(v)
+	return degOf(math.Atan2(u.Y, u.X)), degOf(math.Asin(math.Max(-1, math.Min(1, u.Z))))
+}
+
+func skyMap(cfg sim.Config, res *sim.Result) (plots.SkyMap, error) {
+	g, err := sky.Map(viewers(cfg), SkyCellDeg)
+	if err != nil {
+		return plots.SkyMap{}, err
+	}
+	var m plots.SkyMap
+	for a := range g.NAz {
+		m.AzDeg = append(m.AzDeg, (float64(a)+0.5)*g.CellDeg)
+	}
+	for e := range g.NEl {
+		m.ElDeg = append(m.ElDeg, -90+(float64(e)+0.5)*g.CellDeg)
+		m.Counts = append(m.Counts, append([]int(nil), g.Counts[e*g.NAz:(e+1)*g.NAz]...))
+	}
+	for _, sn := range cfg.Array.Sensors() {
+		az, el := azEl(sn.Mount().Boresight())
+		m.Boresights = append(m.Boresights, plots.Marker{Name: sn.Name(), AzDeg: az, ElDeg: el})
+	}
+	for _, v := range res.Nominal.SunTrack {
+		az, el := azEl(v)
+		m.SunTrack = append(m.SunTrack, plots.Point{AzDeg: az, ElDeg: el})
+	}
+	return m, nil
+}
+
+// periodOf is the orbit period from the run's initial state (two-body).
+func periodOf(cfg sim.Config) float64 {
+	st := cfg.NewPropagator().StateAt(0)
+	r, v := r3.Norm(st.R), r3.Norm(st.V)
+	a := 1 / (2/r - v*v/orbit.MuEarth)
+	return orbit.Period(a)
+}
+
+func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
+	span := math.Min(TimelineOrbits*periodOf(cfg), cfg.Duration)
+	ser := res.Nominal.Series
+	if ser == nil || len(ser.T) < 2 {
+		short := cfg
+		short.Duration = span
+		short.Units = 1
+		short.Progress = nil
+		short.SunTrackPoints = 0
+		// About 600 points over the span, never finer than the run's step.
+		short.SeriesStride = max(1, int(span/cfg.Step/600))
+		r, err := sim.Run(context.Background(), short)
+		if err != nil {
+			return plots.Timeline{}, fmt.Errorf("re-running the first orbits: %w", err)
+		}
+		ser = r.Nominal.Series
+		if ser == nil {
+			return plots.Timeline{}, errors.New("re-running the first orbits kept no series")
+		}
+	}
+	var tl plots.Timeline
+	for i, t := range ser.T {
+		if t > span {
+			break
+		}
+		tl.T = append(tl.T, t)
+		tl.SensorsSeeing = append(tl.SensorsSeeing, ser.Seen[i])
+		tl.Valid = append(tl.Valid, ser.Valid[i])
+		tl.ErrNoAlbedoDeg = append(tl.ErrNoAlbedoDeg, ser.ErrNoDeg[i])
+		if cfg.NewAlbedo != nil {
+			tl.ErrAlbedoDeg = append(tl.ErrAlbedoDeg, ser.ErrAlbDeg[i])
+		}
+	}
+	end := tl.T[len(tl.T)-1]
+	clip := func(a, b float64) (plots.Interval, bool) {
+		a, b = math.Max(a, 0), math.Min(b, end)
+		return plots.Interval{Start: a, End: b}, b > a
+	}
+	for _, e := range res.Eclipses {
+		if e.PenumbralOnly() {
+			if iv, ok := clip(e.PenumbraStart, e.PenumbraEnd); ok {
+				tl.Penumbra = append(tl.Penumbra, iv)
+			}
+			continue
+		}
+		for _, p := range [][2]float64{{e.PenumbraStart, e.UmbraStart}, {e.UmbraEnd, e.PenumbraEnd}} {
+			if iv, ok := clip(p[0], p[1]); ok {
+				tl.Penumbra = append(tl.Penumbra, iv)
+			}
+		}
+		if iv, ok := clip(e.UmbraStart, e.UmbraEnd); ok {
+			tl.Umbra = append(tl.Umbra, iv)
+		}
+	}
+	return tl, nil
+}
+
+// YearTable returns the year of beta angle and eclipse rows of the
+// scenario's orbit (j2-mean propagator of its mean elements, its sun model),
+// one row per day from the epoch.
+func YearTable(s *scenario.Scenario, days int) ([]illum.DayRow, error) {
+	el, err := s.MeanElements()
+	if err != nil {
+		return nil, err
+	}
+	sun, err := ephem.SunByName(s.SunModel)
+	if err != nil {
+		return nil, fmt.Errorf("sun_model: %w", err)
+	}
+	p := orbit.NewJ2Mean(el)
+	jd0 := ephem.JulianDateTT(s.Epoch)
+	g := func(t float64) (r3.Vec, r3.Vec) {
+		st := p.StateAt(t)
+		u, d := sun.Position(jd0 + t/86400)
+		return st.R, r3.Scale(d, u)
+	}
+	normal := func(t float64) r3.Vec {
+		st := p.StateAt(t)
+		return r3.Cross(st.R, st.V)
+	}
+	return illum.YearTable(g, normal, 0, days, orbit.Period(el.SemiMajorAxisKm)), nil
+}
+
+func yearView(s *scenario.Scenario) (plots.YearView, error) {
+	rows, err := YearTable(s, YearDays)
+	if err != nil {
+		return plots.YearView{}, err
+	}
+	first := float64(s.Epoch.YearDay())
+	var y plots.YearView
+	for _, r := range rows {
+		y.Day = append(y.Day, first+float64(r.Day))
+		y.BetaDeg = append(y.BetaDeg, degOf(r.Beta))
+		y.EclipseMin = append(y.EclipseMin, r.ShadowS/60)
+		y.EclipseFree = append(y.EclipseFree, r.EclipseFree)
+	}
+	return y, nil
+}
+
+func errorDist(res *sim.Result) (plots.ErrorDist, bool) {
+	e := &res.Nominal.Estimators[0]
+	var d plots.ErrorDist
+	// Quantiles at equal probability steps are an equal-weight sample of
+	// the distribution, which is what ErrSeries takes.
+	if x, _ := e.ErrorCDF(cdfPoints, false); len(x) > 0 {
+		d.Series = append(d.Series, plots.ErrSeries{Label: "without albedo", ErrorsDeg: x})
+	}
+	if x, _ := e.ErrorCDF(cdfPoints, true); len(x) > 0 {
+		d.Series = append(d.Series, plots.ErrSeries{Label: "with albedo", ErrorsDeg: x})
+	}
+	if len(res.AcrossUnits) > 0 {
+		d.UnitP95Deg = append([]float64(nil), res.AcrossUnits[0].UnitP95Deg...)
+	}
+	return d, len(d.Series) > 0
+}
+
+func gaps(res *sim.Result) (plots.Gaps, bool) {
+	e := &res.Nominal.Estimators[0]
+	return plots.Gaps{DurationsS: append([]float64(nil), e.Gaps...), LongestS: e.LongestGapS}, len(e.Gaps) > 0
+}
+
+// WritePlots writes every figure as dir/NAME.FORMAT for each format ("png",
+// "svg", "pdf"). Each file is written through a temporary file and renamed,
+// so a failure leaves no partial file; formats are checked before anything
+// is written.
+func WritePlots(dir string, figs []Named, formats []string) error {
+	if len(formats) == 0 {
+		return errors.New("review: no plot format given; use png, svg or pdf")
+	}
+	for _, f := range formats {
+		switch strings.ToLower(f) {
+		case "png", "svg", "pdf":
+		default:
+			return fmt.Errorf("review: plot format %q is not one of png, svg, pdf", f)
+		}
+	}
+	if st, err := os.Stat(dir); err != nil || !st.IsDir() {
+		return fmt.Errorf("review: plot folder %q does not exist or is not a folder; create it first", dir)
+	}
+	for _, fig := range figs {
+		for _, f := range formats {
+			f = strings.ToLower(f)
+			path := filepath.Join(dir, fig.Name+"."+f)
+			if err := plots.Save(fig.Chart, path, f); err != nil {
+				return fmt.Errorf("review: writing %s: %w", path, err)
+			}
+		}
+	}
+	return nil
+}

@@ -1,0 +1,352 @@
+package review
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/illum/sky"
+	"sunsight/plots"
+	"sunsight/scenario"
+	"sunsight/scenario/sim"
+)
+
+// orbitText describes the orbit in a few words.
+func orbitText(s *scenario.Scenario) string {
+	o := s.Orbit
+	inc := o.InclinationRad
+	if el, err := s.MeanElements(); err == nil {
+		inc = el.Inclination
+	}
+	switch o.Kind {
+	case scenario.OrbitSunSync:
+		return fmt.Sprintf("%.0f km sun-synchronous, LTAN %s (i %.2f°)", o.AltitudeKm, scenario.FormatLocalTime(o.LTANHours), degOf(inc))
+	case scenario.OrbitCircular:
+		return fmt.Sprintf("%.0f km circular, i %.2f°", o.AltitudeKm, degOf(inc))
+	}
+	return fmt.Sprintf("a %.1f km, e %.4f, i %.2f° (%s)", o.SemiMajorAxisKm, o.Eccentricity, degOf(inc), o.Kind)
+}
+
+func axisText(v r3.Vec) string {
+	for _, c := range []struct {
+		n string
+		v r3.Vec
+	}{{"+X", r3.Vec{X: 1}}, {"-X", r3.Vec{X: -1}}, {"+Y", r3.Vec{Y: 1}}, {"-Y", r3.Vec{Y: -1}}, {"+Z", r3.Vec{Z: 1}}, {"-Z", r3.Vec{Z: -1}}} {
+		if r3.Norm(r3.Sub(v, c.v)) < 1e-9 {
+			return c.n
+		}
+	}
+	return fmt.Sprintf("(%.2f, %.2f, %.2f)", v.X, v.Y, v.Z)
+}
+
+func lawText(l scenario.Law) string {
+	switch l.Name {
+	case scenario.LawNadir:
+		return "nadir pointing (" + axisText(l.PointAxis) + " to nadir)"
+	case scenario.LawSun:
+		return "sun pointing (" + axisText(l.PointAxis) + " to the sun)"
+	case scenario.LawSpin:
+		return fmt.Sprintf("spin about %s at %.2f °/s", axisText(l.SpinAxis), degOf(l.RateRadS))
+	case scenario.LawTumble:
+		return fmt.Sprintf("tumbling (rates up to %.1f °/s)", degOf(l.MaxRateRadS))
+	case scenario.LawInertial:
+		return "inertial pointing"
+	case scenario.LawIsotropic:
+		return "isotropic (every attitude equally likely)"
+	}
+	return l.Name
+}
+
+func attitudeText(a scenario.Attitude) string {
+	if a.Name == scenario.LawSchedule && a.InSunlight != nil && a.InEclipse != nil {
+		return lawText(*a.InSunlight) + " in sunlight, " + lawText(*a.InEclipse) + " in eclipse"
+	}
+	return lawText(a.Law)
+}
+
+func albedoText(s *scenario.Scenario) string {
+	switch s.Albedo.Model {
+	case scenario.AlbedoUniform:
+		return fmt.Sprintf("albedo uniform %.2f", s.Albedo.Value)
+	case scenario.AlbedoZonal:
+		return fmt.Sprintf("albedo zonal (mean %.2f)", s.Albedo.Value)
+	case scenario.AlbedoGrid:
+		return "albedo from a reflectance grid"
+	}
+	return "no albedo"
+}
+
+func hasErrorModels(s *scenario.Scenario) bool {
+	for _, sn := range s.Body.Sensors {
+		e := sn.Errors
+		if e.DarkOffset1Sigma > 0 || e.Gain1Sigma > 0 || e.Noise1Sigma > 0 || e.MisalignmentRad1Sigma > 0 ||
+			e.ApertureOffsetMM1Sigma > 0 || (sn.Kind == scenario.KindDigital && sn.AccuracyRad1Sigma > 0) {
+			return true
+		}
+	}
+	return false
+}
+
+func captionOf(s *scenario.Scenario, cfg sim.Config, res *sim.Result) plots.Caption {
+	c := plots.Caption{
+		Scenario: fmt.Sprintf("%s — %s, %s, %s from %s UTC at %s steps", s.Name, orbitText(s), attitudeText(s.Attitude),
+			scenario.Span(math.Round(res.DurationS)*1e9), s.Epoch.Format("2006-01-02 15:04"), scenario.Span(res.StepS*1e9)),
+		Model: fmt.Sprintf("%s orbit, %s sun, %s shadow, %s", s.Orbit.Propagator, s.SunModel, s.Shadow, albedoText(s)),
+	}
+	a := fmt.Sprintf("%d sensors, primary estimator %s", cfg.Array.Len(), res.Nominal.Estimators[0].Name)
+	if hasErrorModels(s) {
+		a += fmt.Sprintf(", sensor error models on, %d unit(s), seed %d", len(res.Units), s.Seed)
+	} else {
+		a += ", ideal sensors (no error model)"
+	}
+	c.Assumptions = a + "; analysis aid, not flight verification"
+	return c
+}
+
+// figures of merit, formatted.
+func pct(f float64) string {
+	if math.IsNaN(f) {
+		return "n/a"
+	}
+	return fmt.Sprintf("%.1f", 100*f)
+}
+
+func num(v float64, prec int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return "n/a"
+	}
+	return fmt.Sprintf("%.*f", prec, v)
+}
+
+func verdict(ok bool) *bool { return &ok }
+
+// Report builds the design-review report of a run: headline figures judged
+// against the scenario's targets, the mount table, every figure, the
+// estimators side by side, the models with their sources, and the scenario
+// as run. version names the tool build.
+func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named, version string) (plots.Report, error) {
+	if err := checkInputs(s, cfg, res); err != nil {
+		return plots.Report{}, err
+	}
+	r := plots.Report{
+		Title:          "Sun sensor design review: " + s.Name,
+		GeneratedBy:    fmt.Sprintf("sunsight %s, seed %d", version, s.Seed),
+		ScenarioRecord: string(s.Record()),
+		Mounts:         mounts(s, cfg),
+	}
+	hl, err := headline(s, cfg, res)
+	if err != nil {
+		return r, err
+	}
+	r.Headline = hl
+	cap := captionOf(s, cfg, res)
+	for _, f := range figs {
+		if f.Chart == nil {
+			return r, fmt.Errorf("review: figure %q has no chart", f.Name)
+		}
+		svg, err := f.Chart.SVG()
+		if err != nil {
+			return r, fmt.Errorf("review: figure %q: %w", f.Name, err)
+		}
+		c := f.Chart.Caption
+		if c == (plots.Caption{}) {
+			c = cap
+		}
+		r.Figures = append(r.Figures, plots.Figure{Title: f.Title, Caption: strings.Join(c.Lines(), " "), SVG: svg})
+	}
+	r.Assumptions = assumptions(s)
+	r.Notes = append(r.Notes, estimatorNotes(res)...)
+	r.Notes = append(r.Notes, Skipped(res)...)
+	r.Notes = append(r.Notes,
+		"Coverage figures are fractions of the whole body-frame sphere (Fibonacci lattice of "+fmt.Sprint(sky.DefaultPoints)+
+			" points); visibility figures are fractions of the run's sunlit time.",
+		"This report is an analysis aid for design trades. Flight hardware and software need qualified verification before any flight decision.")
+	return r, nil
+}
+
+func mounts(s *scenario.Scenario, cfg sim.Config) []plots.MountRow {
+	byName := map[string]scenario.Sensor{}
+	for _, sn := range s.Body.Sensors {
+		byName[sn.Name] = sn
+	}
+	var out []plots.MountRow
+	for _, row := range cfg.Array.Rows() {
+		face := row.Face
+		if sc, ok := byName[row.Name]; ok {
+			face = sc.Face
+			if face == "" {
+				face = "vector"
+			}
+			if sc.TiltRad != 0 {
+				face += fmt.Sprintf(", tilt %.1f°", degOf(sc.TiltRad))
+			}
+		}
+		az, el := azEl(r3.Vec{X: row.Boresight[0], Y: row.Boresight[1], Z: row.Boresight[2]})
+		out = append(out, plots.MountRow{Name: row.Name, Kind: string(row.Kind), Face: face, AzDeg: az, ElDeg: el, HalfAngleDeg: row.FOVDeg})
+	}
+	return out
+}
+
+// realisticP95 is the p95 error of the readings the spacecraft would get:
+// with albedo when modelled.
+func realisticP95(e *sim.EstimatorStats) (float64, string) {
+	if e.ErrAlbedo.N > 0 {
+		return e.ErrAlbedo.P95Deg, "with albedo"
+	}
+	return e.ErrNoAlbedo.P95Deg, "no albedo modelled"
+}
+
+func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.HeadlineRow, error) {
+	h := res.Headline()
+	t := s.Targets
+	e := &res.Nominal.Estimators[0]
+	row := func(label, value, unit string) plots.HeadlineRow {
+		return plots.HeadlineRow{Label: label, Value: value, Unit: unit}
+	}
+	rows := []plots.HeadlineRow{
+		row("Sunlit time", pct(h.SunlitFraction), "% of run"),
+		row("Eclipses (mean / longest)", fmt.Sprintf("%d (%s / %s)", h.Eclipses, num(h.EclipseMeanMin, 1), num(h.EclipseMaxMin, 1)), "min"),
+		row("Beta angle range", num(h.BetaMinDeg, 1)+" … "+num(h.BetaMaxDeg, 1), "deg"),
+		row("Sun seen by ≥ 1 sensor", pct(h.Seen1), "% of sunlit time"),
+		row("Sun seen by ≥ 2 sensors", pct(h.Seen2), "% of sunlit time"),
+		row("Sun seen by ≥ 3 sensors", pct(h.Seen3), "% of sunlit time"),
+	}
+
+	valid := row("Valid sun vector ("+e.Name+")", pct(e.ValidFraction), "% of sunlit time")
+	if t.MinValidFraction > 0 {
+		valid.Target = "≥ " + pct(t.MinValidFraction)
+		valid.Pass = verdict(e.ValidFraction >= t.MinValidFraction)
+	}
+	rows = append(rows, valid)
+
+	p95, which := realisticP95(e)
+	errRow := row("Sun-vector error p95 ("+which+")", num(p95, 2), "deg")
+	if t.MaxErrorP95Rad > 0 {
+		errRow.Target = "≤ " + num(degOf(t.MaxErrorP95Rad), 2)
+		errRow.Pass = verdict(p95 <= degOf(t.MaxErrorP95Rad))
+	}
+	rows = append(rows, errRow, row("Sun-vector error p95 without albedo", num(e.ErrNoAlbedo.P95Deg, 2), "deg"))
+	if e.AlbedoPart.N > 0 {
+		rows = append(rows, row("Error added by albedo p95", num(e.AlbedoPart.P95Deg, 2), "deg"))
+	}
+	rows = append(rows, row("Largest error", num(h.MaxErrorDeg, 2), "deg"))
+	if cfg.NewAlbedo != nil {
+		rows = append(rows, row("False sun in umbra (albedo alone)", pct(e.FalseSunFraction), "% of umbra time"))
+	}
+	if len(res.AcrossUnits) > 0 {
+		au := res.AcrossUnits[0]
+		u := row(fmt.Sprintf("p95 error reached by 95 %% of %d units", len(res.Units)), num(au.P95OfUnitP95Deg, 2), "deg")
+		if t.MaxErrorP95Rad > 0 {
+			u.Target = errRow.Target
+			u.Pass = verdict(au.P95OfUnitP95Deg <= degOf(t.MaxErrorP95Rad))
+		}
+		rows = append(rows, u)
+	}
+
+	gap := row("Longest sunlit gap", num(e.LongestGapS, 0), "s")
+	if t.MaxGap > 0 {
+		gap.Target = "≤ " + num(t.MaxGap.Seconds(), 0)
+		gap.Pass = verdict(e.LongestGapS <= t.MaxGap.Seconds())
+	}
+	rows = append(rows, gap)
+
+	lat, err := sky.Fibonacci(sky.DefaultPoints)
+	if err != nil {
+		return nil, fmt.Errorf("review: %w", err)
+	}
+	cov, err := sky.Coverage(viewers(cfg), lat)
+	if err != nil {
+		return nil, fmt.Errorf("review: %w", err)
+	}
+	k := t.CoverageSensors
+	if k < 1 || k > sky.MaxLevel {
+		k = 0
+	}
+	for lvl := 1; lvl <= sky.MaxLevel; lvl++ {
+		c := row(fmt.Sprintf("Sky seen by ≥ %d sensor(s)", lvl), pct(cov.AtLeast[lvl]), "% of sphere")
+		if lvl == k && t.MinCoverage > 0 {
+			c.Target = "≥ " + pct(t.MinCoverage)
+			c.Pass = verdict(cov.AtLeast[lvl] >= t.MinCoverage)
+		}
+		rows = append(rows, c)
+	}
+	if k > 0 {
+		crit := "none"
+		if i := cov.Critical[k]; i >= 0 && i < cfg.Array.Len() {
+			crit = cfg.Array.Sensors()[i].Name()
+		}
+		f := row(fmt.Sprintf("Sky seen by ≥ %d with the worst sensor failed (%s)", k, crit), pct(cov.WorstOneFailed[k]), "% of sphere")
+		if t.SurviveOneFailure && t.MinCoverage > 0 {
+			f.Target = "≥ " + pct(t.MinCoverage)
+			f.Pass = verdict(cov.WorstOneFailed[k] >= t.MinCoverage)
+		}
+		rows = append(rows, f)
+	}
+	return rows, nil
+}
+
+// estimatorNotes lists the estimators side by side, one note each.
+func estimatorNotes(res *sim.Result) []string {
+	var out []string
+	for j, e := range res.Nominal.Estimators {
+		role := ""
+		if j == 0 {
+			role = " (primary)"
+		}
+		s := fmt.Sprintf("Estimator %s%s: valid %s %% of sunlit time (%s %% without albedo), error p95 %s° without albedo",
+			e.Name, role, pct(e.ValidFraction), pct(e.ValidFractionNoAlbedo), num(e.ErrNoAlbedo.P95Deg, 2))
+		if e.ErrAlbedo.N > 0 {
+			s += fmt.Sprintf(", %s° with albedo (albedo part p95 %s°)", num(e.ErrAlbedo.P95Deg, 2), num(e.AlbedoPart.P95Deg, 2))
+		}
+		s += fmt.Sprintf(", longest gap %s s, %d gaps", num(e.LongestGapS, 0), len(e.Gaps))
+		if j < len(res.AcrossUnits) {
+			au := res.AcrossUnits[j]
+			s += fmt.Sprintf(", unit p95 median %s° / 95 %% %s° / worst %s°", num(au.P50OfUnitP95Deg, 2), num(au.P95OfUnitP95Deg, 2), num(au.WorstUnitP95Deg, 2))
+		}
+		out = append(out, s+".")
+	}
+	return out
+}
+
+func assumptions(s *scenario.Scenario) []plots.Assumption {
+	orbitSrc := map[string]string{
+		"two-body":   "Keplerian two-body motion (closed form); D. A. Vallado, Fundamentals of Astrodynamics and Applications, 4th ed., 2013",
+		"j2-mean":    "mean elements with first-order secular J2 rates of RAAN, argument of perigee and mean anomaly, no short-period terms; Y. Kozai, AJ 64, 367, 1959; Vallado 4th ed. 2013, §9.6",
+		"j2-numeric": "Cowell integration of point mass + J2 with adaptive Dormand–Prince 5(4) (Dormand & Prince 1980), started from the osculating state of the mean elements",
+	}
+	sunSrc := map[string]string{
+		"low-precision": "low-precision solar coordinates, about 0.01°; J. Meeus, Astronomical Algorithms, 2nd ed., 1998, ch. 25",
+		"meeus":         "solar coordinates of J. Meeus, Astronomical Algorithms, 2nd ed., 1998, ch. 25 (higher accuracy series)",
+	}
+	shadowSrc := map[string]string{
+		"conical":     "conical Earth shadow with umbra and penumbra; O. Montenbruck and E. Gill, Satellite Orbits, 2000, §3.4",
+		"cylindrical": "cylindrical Earth shadow (no penumbra); O. Montenbruck and E. Gill, Satellite Orbits, 2000, §3.4",
+	}
+	out := []plots.Assumption{
+		{Model: "Orbit: " + s.Orbit.Propagator, Source: orbitSrc[s.Orbit.Propagator]},
+		{Model: "Sun: " + s.SunModel, Source: sunSrc[s.SunModel]},
+		{Model: "Shadow: " + s.Shadow, Source: shadowSrc[s.Shadow]},
+	}
+	switch s.Albedo.Model {
+	case scenario.AlbedoUniform:
+		out = append(out, plots.Assumption{Model: fmt.Sprintf("Albedo: uniform Lambertian Earth, reflectance %.2f, %d cells", s.Albedo.Value, s.Albedo.Cells),
+			Source: "cell integration of the sunlit, visible cap after D. D. V. Bhanderi and T. Bak, Modeling Earth albedo for satellites in Earth orbit, AIAA GNC 2005; reflectance 0.30 from ECSS-E-ST-10-04C"})
+	case scenario.AlbedoZonal:
+		out = append(out, plots.Assumption{Model: fmt.Sprintf("Albedo: zonal reflectance (mean %.2f), %d cells", s.Albedo.Value, s.Albedo.Cells),
+			Source: "latitude model after R. Knocke, J. Ries and B. Tapley, AIAA 88-4292, 1988; cell integration after Bhanderi and Bak, AIAA GNC 2005"})
+	case scenario.AlbedoGrid:
+		out = append(out, plots.Assumption{Model: "Albedo: reflectance grid from a file", Source: "cell integration after Bhanderi and Bak, AIAA GNC 2005; grid values as supplied by the user"})
+	default:
+		out = append(out, plots.Assumption{Model: "Albedo: none", Source: "Earth reflection left out: coarse-sensor errors are underestimated"})
+	}
+	if hasErrorModels(s) {
+		out = append(out, plots.Assumption{Model: fmt.Sprintf("Sensors: error models on (%d Monte Carlo unit(s))", max(s.MonteCarlo.Units, 1)),
+			Source: "one-sigma values from the scenario file (user supplied)"})
+	} else {
+		out = append(out, plots.Assumption{Model: "Sensors: ideal (no error model)", Source: "common practice, no source: errors come from geometry and albedo only"})
+	}
+	out = append(out, plots.Assumption{Model: "Year view: j2-mean orbit, one orbit per day", Source: "secular J2 drift as above; eclipse search to 1 ms"})
+	return out
+}

@@ -1,0 +1,74 @@
+package budget
+
+import (
+	"context"
+	"math"
+	"testing"
+)
+
+// fakeRun is a closed-form budget: source s alone gives a unit error
+// a[s]·k·w[u] and the sources add in root-sum-square, so the RSS of the
+// terms equals the all-together figure exactly (closed form).
+func fakeRun(a [NumSources]float64, w []float64) RunFunc {
+	return func(_ context.Context, c Case) (Metric, error) {
+		ss := 0.0
+		for s, v := range a {
+			x := v * c.Scale[s]
+			ss += x * x
+		}
+		var m Metric
+		for _, wu := range w {
+			m.UnitP95Deg = append(m.UnitP95Deg, math.Sqrt(ss)*wu)
+			m.UnitRMSDeg = append(m.UnitRMSDeg, 0.5*math.Sqrt(ss)*wu)
+		}
+		return m, nil
+	}
+}
+
+var fakeWeights = []float64{0.9, 1.1, 1.0, 0.95, 1.05, 1.2, 0.8, 1.0}
+
+func TestDecomposeClosedForm(t *testing.T) {
+	a := [NumSources]float64{Noise: 0.3, Misalignment: 0.4, Albedo: 1.2}
+	r, err := Decompose(context.Background(), fakeRun(a, fakeWeights), []Source{Noise, Misalignment, Albedo})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Ranked: albedo, misalignment, noise.
+	if r.Terms[0].Source != Albedo || r.Terms[1].Source != Misalignment || r.Terms[2].Source != Noise {
+		t.Errorf("ranking %v", r.Terms)
+	}
+	want := math.Sqrt(0.09+0.16+1.44) * mean(fakeWeights) // closed form
+	if math.Abs(r.All.P95Deg-want) > 1e-12 || math.Abs(r.RSSP95Deg-want) > 1e-12 {
+		t.Errorf("all %g, rss %g, want %g", r.All.P95Deg, r.RSSP95Deg, want)
+	}
+	if math.Abs(r.NonAdditiveP95Deg) > 1e-12 || r.NonAdditiveCI.Lo > 1e-12 || r.NonAdditiveCI.Hi < -1e-12 {
+		t.Errorf("non-additive %g CI %+v, want 0", r.NonAdditiveP95Deg, r.NonAdditiveCI)
+	}
+}
+
+func TestFindToleranceClosedForm(t *testing.T) {
+	// f(k) = sqrt(0.3² + (0.4k)² + 1.2²)·w̄ ≤ T gives k* = sqrt((T/w̄)² − 1.53)/0.4 (closed form).
+	a := [NumSources]float64{Noise: 0.3, Misalignment: 0.4, Albedo: 1.2}
+	run := fakeRun(a, fakeWeights)
+	const target = 2.0
+	tol, err := FindTolerance(context.Background(), run, All(), Misalignment, target, Metric.P95Deg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	w := mean(fakeWeights)
+	want := math.Sqrt(target*target/(w*w)-1.53) / 0.4
+	if !tol.Meets || !tol.FailsAbove {
+		t.Errorf("meets %v, fails at 1.1× %v", tol.Meets, tol.FailsAbove)
+	}
+	if tol.Scale > want || tol.Scale < want*(1-relTol) {
+		t.Errorf("scale %g, want within 1 %% below %g", tol.Scale, want)
+	}
+	// Albedo alone already misses a 1° target: infeasible.
+	tol, err = FindTolerance(context.Background(), run, All(), Misalignment, 1.0, Metric.P95Deg)
+	if err != nil || !tol.Infeasible {
+		t.Errorf("want infeasible, got %+v, %v", tol, err)
+	}
+	if _, err := FindTolerance(context.Background(), run, All(), Albedo, 1.0, Metric.P95Deg); err == nil {
+		t.Error("albedo has no σ: want an error")
+	}
+}

@@ -1,0 +1,235 @@
+package budget
+
+import (
+	"context"
+	"fmt"
+	"math"
+
+	"sunsight/illum/albedo"
+	"sunsight/orbit"
+	"sunsight/scenario"
+	"sunsight/scenario/sim"
+)
+
+// DefaultMaxDurationS caps the budget's runs (6 h, about four low orbits):
+// a budget runs tens of Monte Carlo cases, and the error statistics of a
+// fixed attitude settle within a few orbits (common practice, no source).
+const DefaultMaxDurationS = 6 * 3600
+
+// Reference σ used as the unit of a search when no sensor states a value
+// (common practice, no source: typical coarse-sensor figures).
+var referenceSigma = [NumSources]float64{
+	DarkOffset: 0.005, Gain: 0.01, Noise: 0.005, Misalignment: 0.2 * math.Pi / 180,
+	ApertureOffset: 0.02, DigitalNoise: 0.1 * math.Pi / 180,
+}
+
+// tinyDigitalSigma stands for "no noise" on a digital sensor, whose model
+// needs a σ > 0 (rad).
+const tinyDigitalSigma = 1e-12
+
+// Options set the runs of a Runner.
+type Options struct {
+	Units        int     // Monte Carlo units; 0 = the scenario's (at least 2)
+	MaxDurationS float64 // 0 = DefaultMaxDurationS; < 0 = the scenario's full span
+	Workers      int     // 0 = GOMAXPROCS
+}
+
+// Runner runs budget cases of one scenario: its layout and attitude.
+type Runner struct {
+	s         *scenario.Scenario
+	units     int
+	durationS float64
+	shortened bool
+	workers   int
+	unit      [NumSources]float64 // σ of scale 1 per source (largest stated, or reference)
+	stated    [NumSources]bool
+	present   [NumSources]bool
+}
+
+// NewRunner prepares the runs of s.
+func NewRunner(s *scenario.Scenario, o Options) (*Runner, error) {
+	if o.Units < 0 {
+		return nil, fmt.Errorf("budget: units %d: want ≥ 1", o.Units)
+	}
+	r := &Runner{s: s, units: o.Units, workers: o.Workers, durationS: s.Duration.Seconds()}
+	if r.units == 0 {
+		r.units = max(s.MonteCarlo.Units, 2)
+	}
+	maxD := o.MaxDurationS
+	if maxD == 0 {
+		maxD = DefaultMaxDurationS
+	}
+	if maxD > 0 && r.durationS > maxD {
+		r.durationS, r.shortened = maxD, true
+	}
+	var hasQuad, hasDigital, hasAnalog bool
+	for _, sc := range s.Body.Sensors {
+		e := sc.Errors
+		vals := [NumSources]float64{DarkOffset: e.DarkOffset1Sigma, Gain: e.Gain1Sigma, Noise: e.Noise1Sigma,
+			Misalignment: e.MisalignmentRad1Sigma, ApertureOffset: e.ApertureOffsetMM1Sigma}
+		switch sc.Kind {
+		case scenario.KindQuadrant:
+			hasQuad, hasAnalog = true, true
+		case scenario.KindDigital:
+			hasDigital = true
+			vals = [NumSources]float64{Misalignment: e.MisalignmentRad1Sigma, DigitalNoise: sc.AccuracyRad1Sigma}
+		default:
+			hasAnalog = true
+			vals[ApertureOffset] = 0
+		}
+		if sc.ADCBits > 0 && sc.Kind != scenario.KindDigital {
+			r.stated[Quantisation] = true
+		}
+		for i, v := range vals {
+			if v > r.unit[i] {
+				r.unit[i] = v
+			}
+		}
+	}
+	for i := range r.unit {
+		r.stated[i] = r.stated[i] || r.unit[i] > 0
+		if r.unit[i] == 0 {
+			r.unit[i] = referenceSigma[i]
+		}
+	}
+	r.present = [NumSources]bool{DarkOffset: hasAnalog, Gain: hasAnalog, Noise: hasAnalog, Quantisation: hasAnalog,
+		Misalignment: true, ApertureOffset: hasQuad, DigitalNoise: hasDigital,
+		Albedo: s.Albedo.Model != scenario.AlbedoNone && s.Albedo.Model != ""}
+	return r, nil
+}
+
+// Sources returns the sources that apply to the layout and have a stated
+// value (the budget's rows).
+func (r *Runner) Sources() []Source {
+	var out []Source
+	for s := range NumSources {
+		if r.present[s] && r.stated[s] {
+			out = append(out, s)
+		}
+	}
+	return out
+}
+
+// Sigma returns the 1σ of src at a scale, in the source's display unit
+// (fraction of full scale, deg or mm) and that unit's name.
+func (r *Runner) Sigma(src Source, scale float64) (float64, string) {
+	v := r.unit[src] * scale
+	switch src {
+	case Misalignment, DigitalNoise:
+		return v * 180 / math.Pi, "deg"
+	case ApertureOffset:
+		return v, "mm"
+	case DarkOffset, Noise:
+		return v, "of full scale"
+	}
+	return v, ""
+}
+
+// Stated reports whether some sensor states a value for src (else scale 1
+// means the reference σ).
+func (r *Runner) Stated(src Source) bool { return r.stated[src] }
+
+// Units is the number of Monte Carlo units per run.
+func (r *Runner) Units() int { return r.units }
+
+// DurationS is the simulated span of each run; Shortened reports that it
+// is shorter than the scenario's.
+func (r *Runner) DurationS() float64 { return r.durationS }
+
+// Shortened reports whether the runs cover less than the scenario's span.
+func (r *Runner) Shortened() bool { return r.shortened }
+
+// scaled returns a σ scaled against the source's unit: a sensor that
+// states a value keeps its proportion to the largest one.
+func (r *Runner) scaled(src Source, own, k float64) float64 {
+	if !r.stated[src] {
+		return k * r.unit[src]
+	}
+	return k * own
+}
+
+// sensors returns the layout with the case's error values.
+func (r *Runner) sensors(c Case) []scenario.Sensor {
+	list := make([]scenario.Sensor, len(r.s.Body.Sensors))
+	for i, sc := range r.s.Body.Sensors {
+		e := sc.Errors
+		if c.Calibrated {
+			e = r.s.Budget.Calibrated
+		}
+		sc.Errors = scenario.SensorErrors{
+			DarkOffset1Sigma:       r.scaled(DarkOffset, e.DarkOffset1Sigma, c.Scale[DarkOffset]),
+			Gain1Sigma:             r.scaled(Gain, e.Gain1Sigma, c.Scale[Gain]),
+			Noise1Sigma:            r.scaled(Noise, e.Noise1Sigma, c.Scale[Noise]),
+			MisalignmentRad1Sigma:  r.scaled(Misalignment, e.MisalignmentRad1Sigma, c.Scale[Misalignment]),
+			ApertureOffsetMM1Sigma: r.scaled(ApertureOffset, e.ApertureOffsetMM1Sigma, c.Scale[ApertureOffset]),
+		}
+		if !(c.Scale[Quantisation] > 0) {
+			sc.ADCBits = 0
+		}
+		if sc.Kind == scenario.KindDigital {
+			sc.AccuracyRad1Sigma = max(r.scaled(DigitalNoise, sc.AccuracyRad1Sigma, c.Scale[DigitalNoise]), tinyDigitalSigma)
+		}
+		list[i] = sc
+	}
+	return list
+}
+
+// Config builds the simulation of one case.
+func (r *Runner) Config(c Case) (sim.Config, error) {
+	cfg, err := r.s.ConfigFor(r.sensors(c), r.s.Attitude)
+	if err != nil {
+		return cfg, err
+	}
+	cfg.Duration = r.durationS
+	cfg.Units = r.units
+	cfg.Workers = r.workers
+	cfg.SeriesStride = 0
+	cfg.SunTrackPoints = 0
+	if !(c.Scale[Albedo] > 0) {
+		cfg.NewAlbedo = nil
+	}
+	if c.Correction && cfg.NewAlbedo != nil {
+		a := r.s.Albedo.Value
+		acfg := albedo.Config{Reflectance: albedo.Uniform{Albedo: a}, Cells: r.s.Albedo.Cells,
+			AltitudeKm: r.s.Orbit.SemiMajorAxisKm - orbit.RadiusEarthKm}
+		if r.s.Orbit.Eccentricity > 0 {
+			acfg.AltitudeKm = 0
+		}
+		if _, err := albedo.New(acfg); err != nil {
+			return cfg, fmt.Errorf("budget: albedo correction: %w", err)
+		}
+		cfg.NewCorrection = func() (*albedo.Model, error) { return albedo.New(acfg) }
+	}
+	return cfg, cfg.Validate()
+}
+
+// Run implements RunFunc for the scenario.
+func (r *Runner) Run(ctx context.Context, c Case) (Metric, error) {
+	cfg, err := r.Config(c)
+	if err != nil {
+		return Metric{}, err
+	}
+	res, err := sim.Run(ctx, cfg)
+	if err != nil {
+		return Metric{}, err
+	}
+	return metricOf(res)
+}
+
+// metricOf takes the primary estimator's realistic error of every unit.
+func metricOf(res *sim.Result) (Metric, error) {
+	var m Metric
+	for _, u := range res.Units {
+		e := &u.Estimators[0]
+		st := e.ErrNoAlbedo
+		if e.ErrAlbedo.N > 0 {
+			st = e.ErrAlbedo
+		}
+		if st.N == 0 {
+			return m, fmt.Errorf("budget: unit %d: no valid sun vector in sunlight from %s; the layout or attitude cannot give a budget", u.Unit, e.Name)
+		}
+		m.UnitP95Deg = append(m.UnitP95Deg, st.P95Deg)
+		m.UnitRMSDeg = append(m.UnitRMSDeg, st.RMSDeg)
+	}
+	return m, nil
+}

@@ -8,6 +8,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"time"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
@@ -42,9 +43,6 @@ const SkyCellDeg = 2.0
 // TimelineOrbits is the number of orbits the timeline shows.
 const TimelineOrbits = 3
 
-// YearDays is the length of the year view.
-const YearDays = 365
-
 // cdfPoints is the number of points read from the error quantiles.
 const cdfPoints = 400
 
@@ -70,7 +68,13 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	if err != nil {
 		return nil, fmt.Errorf("review: sky figure: %w", err)
 	}
-	c, err := sm.Plot(cap)
+	sc := cap
+	if n := len(res.Nominal.SunTrack); n > 0 && cfg.SunTrackPoints > 0 {
+		every := float64(max(cfg.Steps()/cfg.SunTrackPoints, 1)) * cfg.Step
+		sc.Assumptions = fmt.Sprintf("sun track: %d sunlit samples, one every %s (a fast rotation can alias); ", n,
+			scenario.Span(every*1e9)) + sc.Assumptions
+	}
+	c, err := sm.Plot(sc)
 	if err := add(FigSky, "Sky coverage in body axes: sensors seeing each sun direction", c, err); err != nil {
 		return nil, err
 	}
@@ -89,7 +93,7 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 		return nil, fmt.Errorf("review: year figure: %w", err)
 	}
 	yc := cap
-	yc.Model = "j2-mean orbit from the mean elements (for speed), " + s.SunModel + " sun, conical shadow; one orbit examined per day"
+	yc.Model = fmt.Sprintf("calendar year %d; ", s.Epoch.Year()) + "j2-mean orbit from the mean elements (for speed), " + s.SunModel + " sun, conical shadow; one orbit examined per day"
 	yc.Assumptions = "no attitude or sensors involved; eclipse minutes of the first complete eclipse of the day"
 	c, err = yv.Plot(yc)
 	if err := add(FigYear, "Beta angle and eclipse minutes per orbit over one year", c, err); err != nil {
@@ -252,10 +256,10 @@ func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 	return tl, nil
 }
 
-// YearTable returns the year of beta angle and eclipse rows of the
-// scenario's orbit (j2-mean propagator of its mean elements, its sun model),
-// one row per day from the epoch.
-func YearTable(s *scenario.Scenario, days int) ([]illum.DayRow, error) {
+// YearTable returns days rows of beta angle and eclipse of the scenario's
+// orbit (j2-mean propagator of its mean elements, its sun model), one per day
+// from t0 seconds after the epoch (t0 may be negative).
+func YearTable(s *scenario.Scenario, t0 float64, days int) ([]illum.DayRow, error) {
 	el, err := s.MeanElements()
 	if err != nil {
 		return nil, err
@@ -275,18 +279,21 @@ func YearTable(s *scenario.Scenario, days int) ([]illum.DayRow, error) {
 		st := p.StateAt(t)
 		return r3.Cross(st.R, st.V)
 	}
-	return illum.YearTable(g, normal, 0, days, orbit.Period(el.SemiMajorAxisKm)), nil
+	return illum.YearTable(g, normal, t0, days, orbit.Period(el.SemiMajorAxisKm)), nil
 }
 
+// yearView covers the calendar year of the epoch (1 January to 31
+// December), so the axis reads as day of year whatever the epoch.
 func yearView(s *scenario.Scenario) (plots.YearView, error) {
-	rows, err := YearTable(s, YearDays)
+	jan1 := time.Date(s.Epoch.Year(), time.January, 1, 0, 0, 0, 0, time.UTC)
+	days := time.Date(s.Epoch.Year()+1, time.January, 1, 0, 0, 0, 0, time.UTC).Sub(jan1).Hours() / 24
+	rows, err := YearTable(s, jan1.Sub(s.Epoch).Seconds(), int(math.Round(days)))
 	if err != nil {
 		return plots.YearView{}, err
 	}
-	first := float64(s.Epoch.YearDay())
 	var y plots.YearView
 	for _, r := range rows {
-		y.Day = append(y.Day, first+float64(r.Day))
+		y.Day = append(y.Day, float64(r.Day+1))
 		y.BetaDeg = append(y.BetaDeg, degOf(r.Beta))
 		y.EclipseMin = append(y.EclipseMin, r.ShadowS/60)
 		y.EclipseFree = append(y.EclipseFree, r.EclipseFree)

@@ -6,10 +6,11 @@ import "math"
 // disc as seen from radius r, in the cap frame (z toward the spacecraft, origin
 // at the Earth's centre). It is built once per radius and only read afterwards.
 type capGeometry struct {
-	rKm       float64
-	halfWidth float64 // half the angular size of a cell, √a/2 rad
-	η         float64 // angular radius of the Earth's disc seen from rKm, rad
-	cells     []cell
+	rKm            float64
+	halfWidth      float64 // half the angular size of a cell, √a/2 rad
+	η              float64 // angular radius of the Earth's disc seen from rKm, rad
+	cellSolidAngle float64 // a, sr; the same for every cell
+	cells          []cell
 }
 
 // cell is one cell of the visible Earth disc.
@@ -55,6 +56,7 @@ func (geo *capGeometry) build(rKm float64, n int, gx, gw []float64) {
 	a := 2 * math.Pi * (1 - cosη) / float64(n) // solid angle per cell, sr
 	geo.halfWidth = 0.5 * math.Sqrt(a)
 	geo.η = η
+	geo.cellSolidAngle = a
 
 	// ringMeans returns the means over x = cos α ∈ [xb, xt] (uniform in x,
 	// i.e. in solid angle) of sin α, cos α, the cylindrical radius ρ and the

@@ -19,7 +19,7 @@ type Sensor struct {
 // Validate reports a sensor the model cannot use; field names the sensor in
 // the caller's terms (for example "sensors[2]").
 func (s Sensor) Validate(field string) error {
-	n := r3.Norm(s.Normal)
+	n := vecNorm(s.Normal)
 	if math.IsNaN(n) || math.Abs(n-1) > 1e-6 {
 		return fmt.Errorf("albedo: %s.normal has length %g: give a unit vector", field, n)
 	}
@@ -84,7 +84,6 @@ const (
 type litCell struct {
 	ux, uy, uz float64 // spacecraft → cell, cap frame
 	w          float64 // ρ S cos θ☉ g: Σ w cos θ is the cosine-sensor irradiance
-	ω          float64 // solid angle of the cell seen from the spacecraft, sr
 }
 
 // New returns a model, or an error naming the field of cfg that is wrong.
@@ -140,7 +139,7 @@ func capFrame(rSat r3.Vec, r float64) (ex, ey, ez r3.Vec) {
 	if math.Abs(ez.Z) > 0.9 {
 		ref = r3.Vec{X: 1}
 	}
-	ex = r3.Unit(r3.Cross(ref, ez))
+	ex = vecUnit(r3.Cross(ref, ez))
 	ey = r3.Cross(ez, ex)
 	return ex, ey, ez
 }
@@ -169,7 +168,7 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 	for i := range sensors {
 		dst[i] = Result{}
 	}
-	r := r3.Norm(rSat)
+	r := vecNorm(rSat)
 	if !(r > EarthRadiusKm) || !(sunDistKm > 0) {
 		return
 	}
@@ -190,7 +189,7 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			if cs <= 0 {
 				continue
 			}
-			lit = append(lit, litCell{c.ux, c.uy, c.uz, k * cs * c.g, math.Pi * c.g})
+			lit = append(lit, litCell{c.ux, c.uy, c.uz, k * cs * c.g})
 		}
 	case kindZonal:
 		z := m.refl.(Zonal)
@@ -203,7 +202,7 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 				continue
 			}
 			sφ := c.px*pole.X + c.py*pole.Y + c.pz*pole.Z
-			lit = append(lit, litCell{c.ux, c.uy, c.uz, z.at(sφ, a1) * irr * cs * c.g, math.Pi * c.g})
+			lit = append(lit, litCell{c.ux, c.uy, c.uz, z.at(sφ, a1) * irr * cs * c.g})
 		}
 	default:
 		var month int
@@ -228,85 +227,82 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			} else {
 				ρ = min(1, max(0, m.refl.Reflectance(lat, lon, jdTT)))
 			}
-			lit = append(lit, litCell{c.ux, c.uy, c.uz, ρ * irr * cs * c.g, math.Pi * c.g})
+			lit = append(lit, litCell{c.ux, c.uy, c.uz, ρ * irr * cs * c.g})
 		}
 	}
 	m.lit = lit
 
 	// Pass 2: each sensor sums over the lit cells in its cone.
 	for i := range sensors {
-		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez, m.geo.halfWidth, m.geo.η)
+		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez, &m.geo)
 	}
 }
 
 // sumSensor integrates the lit cells over one sensor's cone.
-func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, halfWidth, η float64) Result {
+func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Result {
 	n := toFrame(sn.Normal, ex, ey, ez)
 	cosH := math.Cos(sn.HalfAngle)
 	if sn.HalfAngle >= math.Pi/2 {
 		cosH = 0
 	}
 	var res Result
+	hw := geo.halfWidth
 	// A cone that misses the Earth's disc (angular radius η about nadir −z)
 	// sees nothing: skip the sum.
-	if math.Acos(max(-1, min(1, -n.Z))) >= η+sn.HalfAngle+halfWidth {
+	if math.Acos(max(-1, min(1, -n.Z))) >= geo.η+sn.HalfAngle+hw {
 		return res
 	}
-	var e, dx, dy, dz, ω float64
 	// Cells within hw of the cone edge are cut by it: the sensor weight is
 	// averaged over the cell, taking cos θ as uniform on [c − δ, c + δ],
 	// δ = hw·sin θ (hw = half the angular cell size). Away from the edge the
-	// weight is cos θ (cosine) or R(θ) at the centre.
-	hw := halfWidth
+	// weight is cos θ (cosine) or R(θ) at the centre. Every cell has the same
+	// solid angle, so the filled solid angle is that times the cell count.
+	var e, dx, dy, dz, count float64
+	inner, outer := cosH+hw, cosH-hw
 	cosine := sn.Response.IsCosine()
 	for k := range lit {
 		l := &lit[k]
 		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
-		if c <= cosH-hw {
+		var we float64
+		switch {
+		case c >= inner && cosine:
+			we = l.w * c
+			count++
+		case c <= outer:
 			continue
-		}
-		var we, frac float64
-		if c >= cosH+hw {
-			frac = 1
-			if cosine {
-				we = l.w * c
-			} else {
-				we = l.w * sn.Response.At(c)
-			}
-		} else {
+		case c >= inner:
+			we = l.w * sn.Response.At(c)
+			count++
+		default:
 			δ := hw * math.Sqrt(max(0, 1-c*c))
 			lo, hi := max(cosH, c-δ), c+δ
-			if lo >= hi || δ == 0 {
-				if c <= cosH {
-					continue
-				}
-				lo, hi, δ = c, c, 0
-			}
-			if δ > 0 {
-				frac = (hi - lo) / (2 * δ)
-				// mean of R over [lo, hi] × fraction: for cosine (hi² − lo²)/(4δ)
+			switch {
+			case δ == 0 && c > cosH:
+				we = l.w * sn.Response.At(c)
+				count++
+			case δ == 0 || lo >= hi:
+				continue
+			default:
+				frac := (hi - lo) / (2 * δ)
+				count += frac
 				if cosine {
-					we = l.w * (hi*hi - lo*lo) / (4 * δ)
+					we = l.w * (hi*hi - lo*lo) / (4 * δ) // mean of c over [lo, hi] × frac
 				} else {
 					we = l.w * frac * sn.Response.At(0.5*(lo+hi))
 				}
-			} else {
-				frac = 1
-				we = l.w * sn.Response.At(c)
 			}
 		}
 		e += we
 		dx += we * l.ux
 		dy += we * l.uy
 		dz += we * l.uz
-		ω += frac * l.ω
 	}
 	if e > 0 {
 		res.Irradiance = e
 		d := r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez))
-		res.Dir = r3.Unit(d)
+		res.Dir = vecUnit(d)
 	}
-	res.Fill = min(1, ω/(2*math.Pi*(1-cosH)))
+	res.Fill = min(1, count*geo.cellSolidAngle/(2*math.Pi*(1-cosH)))
 	return res
 }
 
@@ -316,7 +312,7 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, halfWidth, η float
 // reflectance), through the same cells and sensor sum as Irradiance.
 // For halfAngle = π/2 it is the plane-element-to-sphere configuration factor.
 func (m *Model) ViewFactor(rSat, normal r3.Vec, halfAngle float64) float64 {
-	r := r3.Norm(rSat)
+	r := vecNorm(rSat)
 	if !(r > EarthRadiusKm) {
 		return 0
 	}
@@ -325,11 +321,11 @@ func (m *Model) ViewFactor(rSat, normal r3.Vec, halfAngle float64) float64 {
 	lit := m.lit[:0]
 	for i := range m.geo.cells {
 		c := &m.geo.cells[i]
-		lit = append(lit, litCell{c.ux, c.uy, c.uz, c.g, math.Pi * c.g})
+		lit = append(lit, litCell{c.ux, c.uy, c.uz, c.g})
 	}
 	m.lit = lit
 	s := Sensor{Normal: normal, HalfAngle: halfAngle}
-	return sumSensor(lit, &s, ex, ey, ez, m.geo.halfWidth, m.geo.η).Irradiance
+	return sumSensor(lit, &s, ex, ey, ez, &m.geo).Irradiance
 }
 
 // monthOf returns the calendar month 1…12 of Julian date jd (the TT–UTC

@@ -95,6 +95,7 @@ func NewRunner(s *scenario.Scenario, o Options) (*Runner, error) {
 	r.present = [NumSources]bool{DarkOffset: hasAnalog, Gain: hasAnalog, Noise: hasAnalog, Quantisation: hasAnalog,
 		Misalignment: true, ApertureOffset: hasQuad, DigitalNoise: hasDigital,
 		Albedo: s.Albedo.Model != scenario.AlbedoNone && s.Albedo.Model != ""}
+	r.stated[Albedo] = r.present[Albedo]
 	return r, nil
 }
 
@@ -121,6 +122,8 @@ func (r *Runner) Sigma(src Source, scale float64) (float64, string) {
 		return v, "mm"
 	case DarkOffset, Noise:
 		return v, "of full scale"
+	case Gain:
+		return v, "relative"
 	}
 	return v, ""
 }

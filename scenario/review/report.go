@@ -150,11 +150,14 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 		if err != nil {
 			return r, fmt.Errorf("review: figure %q: %w", f.Name, err)
 		}
-		c := f.Chart.Caption
-		if c == (plots.Caption{}) {
-			c = cap
+		// The chart draws its own caption; a figure without one gets the
+		// run's caption as the HTML figure caption instead (never both, so
+		// the text is not shown twice).
+		var text string
+		if f.Chart.Caption == (plots.Caption{}) {
+			text = strings.Join(cap.Lines(), " ")
 		}
-		r.Figures = append(r.Figures, plots.Figure{Title: f.Title, Caption: strings.Join(c.Lines(), " "), SVG: svg})
+		r.Figures = append(r.Figures, plots.Figure{Title: f.Title, Caption: text, SVG: svg})
 	}
 	r.Assumptions = assumptions(s)
 	r.Notes = append(r.Notes, estimatorNotes(res)...)

@@ -219,7 +219,8 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			x := c.px*ex.X + c.py*ey.X + c.pz*ez.X
 			y := c.px*ex.Y + c.py*ey.Y + c.pz*ez.Y
 			zz := c.px*ex.Z + c.py*ey.Z + c.pz*ez.Z
-			lat := math.Asin(min(1, max(-1, zz)))
+			// The cell's mean normal is slightly shorter than 1 near the limb.
+			lat := math.Asin(min(1, max(-1, zz/math.Sqrt(x*x+y*y+zz*zz))))
 			lon := math.Atan2(y, x) - gmst // Earth-fixed longitude through GMST
 			var ρ float64
 			if isGrid {

@@ -47,8 +47,10 @@ func TestZonalReducesToUniform(t *testing.T) {
 	}
 }
 
-// The zonal fast path (sin φ from the pole in the cap frame) agrees with the
-// generic path (latitude from EME2000 coordinates via the interface).
+// The zonal fast path (cell mean of sin φ, from the pole in the cap frame)
+// agrees with the generic path (latitude of the cell's normalised mean normal
+// in EME2000, via the interface). The two differ only by how a cell's
+// latitude is represented, well inside the 0.5 % budget.
 type viaInterface struct{ z Zonal }
 
 func (v viaInterface) Reflectance(lat, lon, jd float64) float64 { return v.z.Reflectance(lat, lon, jd) }
@@ -65,7 +67,7 @@ func TestZonalFastPathMatchesGeneric(t *testing.T) {
 		mz.Irradiance(a, rSat, sun, AUKm, 0.4*x, 2461000+10*x, s)
 		mg.Irradiance(b, rSat, sun, AUKm, 0.4*x, 2461000+10*x, s)
 		for i := range s {
-			if math.Abs(a[i].Irradiance-b[i].Irradiance) > 1e-10*(1+b[i].Irradiance) {
+			if math.Abs(a[i].Irradiance-b[i].Irradiance) > 5e-4*b[i].Irradiance+1e-9 {
 				t.Errorf("case %d sensor %d: fast %g generic %g", k, i, a[i].Irradiance, b[i].Irradiance)
 			}
 		}

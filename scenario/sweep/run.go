@@ -1,0 +1,357 @@
+package sweep
+
+import (
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"reflect"
+	"runtime"
+	"slices"
+	"sync"
+
+	"sunsight/scenario"
+	"sunsight/scenario/sim"
+)
+
+// RunFunc simulates one case with the given seed. RunCase is the real one;
+// tests may inject a cheaper function.
+type RunFunc func(ctx context.Context, s *scenario.Scenario, seed uint64) (sim.Headline, error)
+
+// RunCase builds the case's simulation with one worker and the derived seed
+// and returns its headline.
+func RunCase(ctx context.Context, s *scenario.Scenario, seed uint64) (sim.Headline, error) {
+	cfg, err := s.Config()
+	if err != nil {
+		return sim.Headline{}, err
+	}
+	cfg.Workers, cfg.Seed, cfg.SeriesStride, cfg.SunTrackPoints = 1, seed, 0, 0
+	res, err := sim.Run(ctx, cfg)
+	if err != nil {
+		return sim.Headline{}, err
+	}
+	return res.Headline(), nil
+}
+
+// Options controls Execute.
+type Options struct {
+	Workers int // cases in parallel; 0 = GOMAXPROCS
+	// Shard K of N (1 ≤ K ≤ N) runs only the cases with index % N == K−1;
+	// N = 0 runs every case.
+	ShardK, ShardN int
+	Run            RunFunc // nil = RunCase
+	// Done, when set, is called after each case finishes (from any worker).
+	Done func(index int)
+}
+
+// Manifest is DIR/plan.json: the sweep's definition, so a resume or merge
+// can refuse a folder made by another sweep.
+type Manifest struct {
+	Keys      []string   `json:"keys"`
+	Zip       bool       `json:"zip"`
+	Cases     [][]string `json:"cases"`
+	CaseSHA   []string   `json:"case_scenario_sha256"`
+	BaseSeeds []int64    `json:"case_scenario_seed"`
+}
+
+// CaseFile is DIR/cases/NNNNN.json.
+type CaseFile struct {
+	Index    int            `json:"index"`
+	Inputs   []Input        `json:"inputs"`
+	SHA256   string         `json:"scenario_sha256"`
+	Seed     uint64         `json:"seed"`
+	Headline map[string]any `json:"headline"` // NaN stored as null
+}
+
+// Input is one varied key and its value.
+type Input struct {
+	Key   string `json:"key"`
+	Value string `json:"value"`
+}
+
+func (p *Plan) manifest() Manifest {
+	m := Manifest{Keys: p.Keys(), Zip: p.Zip, Cases: p.Cases, CaseSHA: p.sum}
+	for _, s := range p.scen {
+		m.BaseSeeds = append(m.BaseSeeds, s.Seed)
+	}
+	return m
+}
+
+// Summary tells what Execute did.
+type Summary struct {
+	Total, InShard, Skipped, Ran int
+}
+
+// Execute runs the plan's cases (those of the shard) into dir, skipping
+// cases whose file exists and matches. It stops at the first failure or
+// when ctx is cancelled, keeping every case already written; only cases in
+// flight are lost.
+func Execute(ctx context.Context, p *Plan, dir string, opt Options) (Summary, error) {
+	sum := Summary{Total: len(p.Cases)}
+	if opt.ShardN < 0 || (opt.ShardN > 0 && (opt.ShardK < 1 || opt.ShardK > opt.ShardN)) {
+		return sum, fmt.Errorf("sweep: --shard %d/%d: want K/N with 1 ≤ K ≤ N", opt.ShardK, opt.ShardN)
+	}
+	run := opt.Run
+	if run == nil {
+		run = RunCase
+	}
+	if err := os.MkdirAll(filepath.Join(dir, "cases"), 0o755); err != nil {
+		return sum, fmt.Errorf("sweep: output folder: %w", err)
+	}
+	if err := p.claim(dir); err != nil {
+		return sum, err
+	}
+	var todo []int
+	for i := range p.Cases {
+		if opt.ShardN > 0 && i%opt.ShardN != opt.ShardK-1 {
+			continue
+		}
+		sum.InShard++
+		cf, err := ReadCase(dir, i)
+		if errors.Is(err, os.ErrNotExist) {
+			todo = append(todo, i)
+			continue
+		}
+		if err != nil {
+			return sum, err
+		}
+		if err := p.matches(cf); err != nil {
+			return sum, fmt.Errorf("sweep: %s: %w; use a new --out folder or delete the file", caseFile(dir, i), err)
+		}
+		sum.Skipped++
+	}
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	workers = min(workers, max(len(todo), 1))
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	jobs := make(chan int)
+	var (
+		mu       sync.Mutex
+		firstErr error
+		wg       sync.WaitGroup
+	)
+	fail := func(err error) {
+		mu.Lock()
+		if firstErr == nil {
+			firstErr = err
+		}
+		mu.Unlock()
+		cancel()
+	}
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range jobs {
+				seed := CaseSeed(p.scen[i].Seed, i)
+				h, err := run(ctx, p.scen[i], seed)
+				if err != nil {
+					if ctx.Err() == nil {
+						fail(fmt.Errorf("sweep: case %d (%s): %w", i, describeCase(p.Axes, p.Cases[i]), err))
+					}
+					continue
+				}
+				if err := writeJSON(caseFile(dir, i), p.caseFile(i, seed, h)); err != nil {
+					fail(err)
+					continue
+				}
+				mu.Lock()
+				sum.Ran++
+				mu.Unlock()
+				if opt.Done != nil {
+					opt.Done(i)
+				}
+			}
+		}()
+	}
+feed:
+	for _, i := range todo {
+		select {
+		case jobs <- i:
+		case <-ctx.Done():
+			break feed
+		}
+	}
+	close(jobs)
+	wg.Wait()
+	if firstErr != nil {
+		return sum, firstErr
+	}
+	if err := ctx.Err(); err != nil {
+		return sum, fmt.Errorf("sweep: stopped after %d new cases (%d of %d in the folder): %w", sum.Ran, sum.Ran+sum.Skipped, sum.InShard, err)
+	}
+	return sum, nil
+}
+
+// claim writes dir/plan.json, or checks that the one there is this plan's.
+func (p *Plan) claim(dir string) error {
+	path := filepath.Join(dir, "plan.json")
+	want := p.manifest()
+	old, err := ReadManifest(dir)
+	if errors.Is(err, os.ErrNotExist) {
+		return writeJSON(path, want)
+	}
+	if err != nil {
+		return err
+	}
+	if !reflect.DeepEqual(old, want) {
+		return fmt.Errorf("sweep: %s holds another sweep (different keys, values or scenario); use a new --out folder or delete it", dir)
+	}
+	return nil
+}
+
+func (p *Plan) matches(cf *CaseFile) error {
+	i := cf.Index
+	if i < 0 || i >= len(p.Cases) {
+		return fmt.Errorf("case index %d is outside this sweep's %d cases", i, len(p.Cases))
+	}
+	if cf.SHA256 != p.sum[i] {
+		return fmt.Errorf("case %d was made from another scenario (checksum differs)", i)
+	}
+	if len(cf.Inputs) != len(p.Axes) {
+		return fmt.Errorf("case %d has %d inputs, this sweep varies %d keys", i, len(cf.Inputs), len(p.Axes))
+	}
+	for k, in := range cf.Inputs {
+		if in.Key != p.Axes[k].Key || in.Value != p.Cases[i][k] {
+			return fmt.Errorf("case %d has %s=%s, this sweep wants %s=%s", i, in.Key, in.Value, p.Axes[k].Key, p.Cases[i][k])
+		}
+	}
+	return nil
+}
+
+func (p *Plan) caseFile(i int, seed uint64, h sim.Headline) CaseFile {
+	cf := CaseFile{Index: i, SHA256: p.sum[i], Seed: seed, Headline: map[string]any{}}
+	for k, a := range p.Axes {
+		cf.Inputs = append(cf.Inputs, Input{a.Key, p.Cases[i][k]})
+	}
+	for _, c := range headlineColumns(h) {
+		switch {
+		case c.isText:
+			cf.Headline[c.name] = c.text
+		case math.IsNaN(c.num):
+			cf.Headline[c.name] = nil
+		default:
+			cf.Headline[c.name] = c.num
+		}
+	}
+	return cf
+}
+
+func caseFile(dir string, i int) string {
+	return filepath.Join(dir, "cases", fmt.Sprintf("%05d.json", i))
+}
+
+// ReadCase reads dir/cases/NNNNN.json; a missing file gives os.ErrNotExist.
+func ReadCase(dir string, i int) (*CaseFile, error) {
+	data, err := os.ReadFile(caseFile(dir, i))
+	if err != nil {
+		if errors.Is(err, os.ErrNotExist) {
+			return nil, err
+		}
+		return nil, fmt.Errorf("sweep: %w", err)
+	}
+	var cf CaseFile
+	if err := json.Unmarshal(data, &cf); err != nil {
+		return nil, fmt.Errorf("sweep: %s is not a case file (%v); delete it to run the case again", caseFile(dir, i), err)
+	}
+	if cf.Index != i {
+		return nil, fmt.Errorf("sweep: %s says it is case %d; delete it to run the case again", caseFile(dir, i), cf.Index)
+	}
+	return &cf, nil
+}
+
+// ReadManifest reads dir/plan.json.
+func ReadManifest(dir string) (Manifest, error) {
+	var m Manifest
+	data, err := os.ReadFile(filepath.Join(dir, "plan.json"))
+	if err != nil {
+		if errors.Is(err, os.ErrNotExist) {
+			return m, err
+		}
+		return m, fmt.Errorf("sweep: %w", err)
+	}
+	if err := json.Unmarshal(data, &m); err != nil {
+		return m, fmt.Errorf("sweep: %s/plan.json is not a sweep plan: %v", dir, err)
+	}
+	return m, nil
+}
+
+// writeJSON writes v atomically: a temporary file in the same folder, then
+// a rename, so a reader never sees a partial file.
+func writeJSON(path string, v any) error {
+	data, err := json.MarshalIndent(v, "", "  ")
+	if err != nil {
+		return fmt.Errorf("sweep: %w", err)
+	}
+	return WriteAtomic(path, append(data, '\n'))
+}
+
+// WriteAtomic writes data to path through a temporary file and a rename.
+func WriteAtomic(path string, data []byte) error {
+	f, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
+	if err != nil {
+		return fmt.Errorf("sweep: %w", err)
+	}
+	tmp := f.Name()
+	_, werr := f.Write(data)
+	cerr := f.Close()
+	if werr == nil {
+		werr = cerr
+	}
+	if werr == nil {
+		werr = os.Rename(tmp, path)
+	}
+	if werr != nil {
+		os.Remove(tmp)
+		return fmt.Errorf("sweep: writing %s: %w", path, werr)
+	}
+	return nil
+}
+
+// column is one headline figure.
+type column struct {
+	name   string
+	num    float64
+	text   string
+	isText bool
+	isInt  bool
+}
+
+// headlineColumns lists h's fields in declaration order under their json
+// names (which carry the units).
+func headlineColumns(h sim.Headline) []column {
+	v := reflect.ValueOf(h)
+	t := v.Type()
+	out := make([]column, 0, t.NumField())
+	for i := range t.NumField() {
+		c := column{name: t.Field(i).Tag.Get("json")}
+		f := v.Field(i)
+		switch f.Kind() {
+		case reflect.String:
+			c.text, c.isText = f.String(), true
+		case reflect.Int, reflect.Int64:
+			c.num, c.isInt = float64(f.Int()), true
+		case reflect.Float64:
+			c.num = f.Float()
+		default:
+			continue
+		}
+		out = append(out, c)
+	}
+	return out
+}
+
+// HeadlineNames returns the headline column names in table order.
+func HeadlineNames() []string {
+	var out []string
+	for _, c := range headlineColumns(sim.Headline{}) {
+		out = append(out, c.name)
+	}
+	return slices.Clip(out)
+}

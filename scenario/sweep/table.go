@@ -1,0 +1,252 @@
+package sweep
+
+import (
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strconv"
+	"strings"
+
+	"sunsight/plots"
+	"sunsight/scenario"
+)
+
+// Gather reads every case of the sweep in dirs (one folder, or the folders of
+// its shards, all made by the same sweep) in case order. Cases found only in
+// a later folder are copied into the first, so it then holds the whole sweep.
+func Gather(dirs []string) (Manifest, []*CaseFile, error) {
+	if len(dirs) == 0 {
+		return Manifest{}, nil, errors.New("sweep: no folder to read; give the --out folder(s) of the sweep")
+	}
+	var m Manifest
+	for k, d := range dirs {
+		mk, err := ReadManifest(d)
+		if errors.Is(err, os.ErrNotExist) {
+			return m, nil, fmt.Errorf("sweep: %s has no plan.json; give folders written by sunsight sweep --out", d)
+		}
+		if err != nil {
+			return m, nil, err
+		}
+		if k == 0 {
+			m = mk
+		} else if !reflect.DeepEqual(m, mk) {
+			return m, nil, fmt.Errorf("sweep: %s and %s hold different sweeps; merge only the shards of one sweep", dirs[0], d)
+		}
+	}
+	cases := make([]*CaseFile, len(m.Cases))
+	var missing []int
+	for i := range cases {
+		for k, d := range dirs {
+			cf, err := ReadCase(d, i)
+			if errors.Is(err, os.ErrNotExist) {
+				continue
+			}
+			if err != nil {
+				return m, nil, err
+			}
+			if cf.SHA256 != m.CaseSHA[i] {
+				return m, nil, fmt.Errorf("sweep: %s was made from another scenario; delete it and run its shard again", caseFile(d, i))
+			}
+			if k > 0 {
+				data, err := os.ReadFile(caseFile(d, i))
+				if err == nil {
+					err = WriteAtomic(caseFile(dirs[0], i), data)
+				}
+				if err != nil {
+					return m, nil, fmt.Errorf("sweep: copying case %d: %w", i, err)
+				}
+			}
+			cases[i] = cf
+			break
+		}
+		if cases[i] == nil {
+			missing = append(missing, i)
+		}
+	}
+	if len(missing) > 0 {
+		return m, nil, fmt.Errorf("sweep: %d of %d cases are missing (first: case %d); run the missing shards, or run the sweep again to resume", len(missing), len(cases), missing[0])
+	}
+	return m, cases, nil
+}
+
+// Table writes the sweep table: one row per case in case order, the varied
+// inputs then the headline columns (names carry units), floats with six
+// decimals, NaN where a figure is undefined.
+func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
+	cw := csv.NewWriter(w)
+	names := HeadlineNames()
+	head := append([]string{"case", "seed"}, m.Keys...)
+	if err := cw.Write(append(head, names...)); err != nil {
+		return err
+	}
+	for _, cf := range cases {
+		row := []string{strconv.Itoa(cf.Index), strconv.FormatUint(cf.Seed, 10)}
+		for _, in := range cf.Inputs {
+			row = append(row, in.Value)
+		}
+		for _, n := range names {
+			row = append(row, cell(cf.Headline[n]))
+		}
+		if err := cw.Write(row); err != nil {
+			return err
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+func cell(v any) string {
+	switch x := v.(type) {
+	case nil:
+		return "NaN"
+	case string:
+		return x
+	case float64:
+		return strconv.FormatFloat(x, 'f', 6, 64)
+	}
+	return fmt.Sprint(v)
+}
+
+// Value returns a case's headline figure, NaN when undefined or not numeric.
+func (cf *CaseFile) Value(name string) float64 {
+	if x, ok := cf.Headline[name].(float64); ok {
+		return x
+	}
+	return math.NaN()
+}
+
+// WriteOutputs gathers dirs, writes dirs[0]/sweep.csv and, unless noPlots,
+// the sweep curves in dirs[0]/plots (PNG and SVG). It writes nothing when a
+// case is missing.
+func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) error {
+	m, cases, err := Gather(dirs)
+	if err != nil {
+		return err
+	}
+	var buf bytes.Buffer
+	if err := Table(&buf, m, cases); err != nil {
+		return fmt.Errorf("sweep: table: %w", err)
+	}
+	if err := WriteAtomic(filepath.Join(dirs[0], "sweep.csv"), buf.Bytes()); err != nil {
+		return err
+	}
+	if noPlots {
+		return nil
+	}
+	return writePlots(filepath.Join(dirs[0], "plots"), m, cases, caption)
+}
+
+// curveFigures are the figures drawn for every sweep: headline name, title,
+// axis label.
+var curveFigures = [][3]string{
+	{"seen_by_3_fraction", "Sunlit time seen by ≥ 3 sensors", "fraction of sunlit time"},
+	{"seen_by_1_fraction", "Sunlit time seen by ≥ 1 sensor", "fraction of sunlit time"},
+	{"sunlit_fraction", "Sunlit fraction of the orbit", "fraction of time"},
+	{"valid_fraction", "Sunlit time with a valid sun vector", "fraction of sunlit time"},
+	{"p95_error_albedo_deg", "Sun-vector error, 95th percentile, with albedo", "error (deg)"},
+}
+
+// axisNumber turns a value of the first key into a plot abscissa: a number,
+// a local time in hours, or an epoch in days since the first; ok is false
+// for names.
+func axisNumber(v string, first string) (float64, bool) {
+	if x, err := strconv.ParseFloat(v, 64); err == nil {
+		return x, true
+	}
+	if h, err := scenario.ParseLocalTime(v); err == nil {
+		return h, true
+	}
+	if t, err := scenario.ParseEpoch(v); err == nil {
+		t0, err := scenario.ParseEpoch(first)
+		if err == nil {
+			return t.Sub(t0).Hours() / 24, true
+		}
+	}
+	return 0, false
+}
+
+// Curves arranges a figure's values versus the first key, one line per value
+// of the second key (one line for a single key or a zipped sweep).
+func Curves(m Manifest, cases []*CaseFile, name string) (x []float64, xLabel string, lines []plots.Line) {
+	xLabel = m.Keys[0]
+	var xs []string
+	xi := map[string]int{}
+	var ls []string
+	li := map[string]int{}
+	for _, cf := range cases {
+		xv := cf.Inputs[0].Value
+		if _, ok := xi[xv]; !ok {
+			xi[xv] = len(xs)
+			xs = append(xs, xv)
+		}
+		lv := ""
+		if len(m.Keys) > 1 && !m.Zip {
+			lv = cf.Inputs[1].Value
+		}
+		if _, ok := li[lv]; !ok {
+			li[lv] = len(ls)
+			ls = append(ls, lv)
+		}
+	}
+	numeric := true
+	for _, v := range xs {
+		if _, ok := axisNumber(v, xs[0]); !ok {
+			numeric = false
+		}
+	}
+	x = make([]float64, len(xs))
+	for i, v := range xs {
+		x[i] = float64(i)
+		if numeric {
+			x[i], _ = axisNumber(v, xs[0])
+		}
+	}
+	if !numeric {
+		xLabel += " (case order: " + strings.Join(xs, ", ") + ")"
+	}
+	lines = make([]plots.Line, len(ls))
+	for k, lv := range ls {
+		lines[k] = plots.Line{Label: lv, Y: make([]float64, len(xs))}
+		if lv != "" {
+			lines[k].Label = m.Keys[1] + " = " + lv
+		} else {
+			lines[k].Label = name
+		}
+		for i := range lines[k].Y {
+			lines[k].Y[i] = math.NaN()
+		}
+	}
+	for _, cf := range cases {
+		k := 0
+		if len(m.Keys) > 1 && !m.Zip {
+			k = li[cf.Inputs[1].Value]
+		}
+		lines[k].Y[xi[cf.Inputs[0].Value]] = cf.Value(name)
+	}
+	return x, xLabel, lines
+}
+
+func writePlots(dir string, m Manifest, cases []*CaseFile, caption plots.Caption) error {
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return fmt.Errorf("sweep: plots folder: %w", err)
+	}
+	for _, f := range curveFigures {
+		x, xLabel, lines := Curves(m, cases, f[0])
+		chart, err := plots.Sweep{Title: f[1], XLabel: xLabel, X: x, Lines: lines, YLabel: f[2]}.Plot(caption)
+		if err != nil {
+			return fmt.Errorf("sweep: figure %s: %w", f[0], err)
+		}
+		for _, format := range []string{"png", "svg"} {
+			if err := plots.Save(chart, filepath.Join(dir, f[0]+"."+format), format); err != nil {
+				return fmt.Errorf("sweep: figure %s: %w", f[0], err)
+			}
+		}
+	}
+	return nil
+}

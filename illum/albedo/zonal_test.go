@@ -67,7 +67,7 @@ func TestZonalFastPathMatchesGeneric(t *testing.T) {
 		mz.Irradiance(a, rSat, sun, AUKm, 0.4*x, 2461000+10*x, s)
 		mg.Irradiance(b, rSat, sun, AUKm, 0.4*x, 2461000+10*x, s)
 		for i := range s {
-			if math.Abs(a[i].Irradiance-b[i].Irradiance) > 5e-4*b[i].Irradiance+1e-9 {
+			if math.Abs(a[i].Irradiance-b[i].Irradiance) > 5e-4*b[i].Irradiance+0.01 { // 0.01 W/m² floor for limb slivers
 				t.Errorf("case %d sensor %d: fast %g generic %g", k, i, a[i].Irradiance, b[i].Irradiance)
 			}
 		}

@@ -11,7 +11,7 @@ import (
 // TFAWS 2014, "Introduction to On-Orbit Thermal Environments"; from memory).
 func BetaAngle(r, v, sunDir r3.Vec) float64 {
 	h := r3.Cross(r, v)
-	return math.Asin(clamp1(r3.Dot(h, sunDir) / (r3.Norm(h) * r3.Norm(sunDir))))
+	return math.Asin(clamp1(r3.Dot(h, sunDir) / (vecNorm(h) * vecNorm(sunDir))))
 }
 
 // BetaAngleElements returns the beta angle, rad, from the orbit inclination

@@ -54,7 +54,7 @@ func (r Region) String() string {
 // (Vallado, Fundamentals of Astrodynamics and Applications, 4th ed. 2013,
 // Algorithm 34 SHADOW, cylindrical option; from memory).
 func ShadowCylindrical(rSat, sunDir r3.Vec) float64 {
-	s := r3.Unit(sunDir)
+	s := vecUnit(sunDir)
 	along := r3.Dot(rSat, s)
 	if along >= 0 {
 		return 1
@@ -72,8 +72,8 @@ func ShadowCylindrical(rSat, sunDir r3.Vec) float64 {
 // (3.85)–(3.87)). rSun is the geocentric sun position in km.
 func discAngles(rSat, rSun r3.Vec) (a, b, c float64) {
 	d := r3.Sub(rSun, rSat)
-	dn := r3.Norm(d)
-	rn := r3.Norm(rSat)
+	dn := vecNorm(d)
+	rn := vecNorm(rSat)
 	a = math.Asin(math.Min(1, SunRadiusKm/dn))
 	b = math.Asin(math.Min(1, EarthRadiusKm/rn))
 	cosc := -r3.Dot(rSat, d) / (rn * dn)

@@ -68,7 +68,7 @@ func NewJ2NumericFromState(s State, opt NumericOptions) (*J2Numeric, error) {
 	if c.Eccentricity >= 1 {
 		return nil, ErrNotElliptic
 	}
-	if r3.Norm(s.R) < RadiusEarthKm {
+	if vecNorm(s.R) < RadiusEarthKm {
 		return nil, fmt.Errorf("orbit: initial position is inside the Earth")
 	}
 	a := c.SemiLatusRectumKm / (1 - c.Eccentricity*c.Eccentricity)

@@ -365,7 +365,7 @@ func (s *Scenario) ConfigFor(sensors []Sensor, att Attitude) (sim.Config, error)
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
 		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law,
 		Array: arr, Viewers: viewers, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
-		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), SeriesStride: s.Output.Decimate,
+		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1),
 	}
 	return cfg, cfg.Validate()
 }

@@ -128,14 +128,16 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		cfg.Units = f.units
 	}
 	cfg.Workers = f.workers
-	if f.csvDir != "" && cfg.SeriesStride == 0 {
-		cfg.SeriesStride = 1
+	// A time series is kept only for the CSV files and figures: every
+	// output.decimate-th step, or by default at most maxSeriesRows rows.
+	if f.csvDir != "" || f.report != "" || f.plotsDir != "" {
+		cfg.SeriesStride = s.Output.Decimate
+		if cfg.SeriesStride <= 1 {
+			cfg.SeriesStride = max(1, cfg.Steps()/maxSeriesRows)
+		}
 	}
 	if f.report != "" || f.plotsDir != "" {
 		cfg.SunTrackPoints = 4000
-		if cfg.SeriesStride == 0 {
-			cfg.SeriesStride = 1
-		}
 	}
 
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
@@ -176,6 +178,10 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	}
 	return nil
 }
+
+// maxSeriesRows bounds the default time series kept for CSV files and
+// figures (about 10 MB of CSV).
+const maxSeriesRows = 100000
 
 // ensureWritableDir creates dir if needed and checks a file can be made in it.
 func ensureWritableDir(dir string) error {

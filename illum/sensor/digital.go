@@ -93,7 +93,7 @@ func (d *Digital) inFOV(s r3.Vec) bool {
 	if d.spec.Square {
 		return math.Abs(s.X) <= d.tanMax*s.Z && math.Abs(s.Y) <= d.tanMax*s.Z
 	}
-	return s.Z >= d.cosMax*r3.Norm(s)
+	return s.Z >= d.cosMax*vecNorm(s)
 }
 
 // InFOV implements Sensor.
@@ -105,7 +105,7 @@ func (d *Digital) Response(dir r3.Vec) float64 {
 	if !d.inFOV(s) {
 		return 0
 	}
-	return s.Z / r3.Norm(s)
+	return s.Z / vecNorm(s)
 }
 
 // Read implements Sensor. The spot centroid, in tangent-plane coordinates
@@ -117,7 +117,7 @@ func (d *Digital) Response(dir r3.Vec) float64 {
 func (d *Digital) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) Reading {
 	var wSum, tx, ty float64
 	if s := d.actual.ToSensor(sun); d.inFOV(s) {
-		if e := direct * s.Z / r3.Norm(s); e > 0 && e >= d.spec.MinIrradiance {
+		if e := direct * s.Z / vecNorm(s); e > 0 && e >= d.spec.MinIrradiance {
 			wSum, tx, ty = e, e*s.X/s.Z, e*s.Y/s.Z
 		}
 	}
@@ -136,7 +136,7 @@ func (d *Digital) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand)
 		ax += d.spec.Sigma * noise.NormFloat64()
 		ay += d.spec.Sigma * noise.NormFloat64()
 	}
-	dir := r3.Unit(r3.Vec{X: math.Tan(ax), Y: math.Tan(ay), Z: 1})
+	dir := vecUnit(r3.Vec{X: math.Tan(ax), Y: math.Tan(ay), Z: 1})
 	return Reading{Signal: wSum / SolarConstant, Dir: d.spec.Mount.ToBody(dir), Valid: true}
 }
 

@@ -58,7 +58,7 @@ func (e LeastSquares) Estimate(a *Array, r []Reading) Estimate {
 }
 
 func unitEstimate(x r3.Vec, n int) Estimate {
-	l := r3.Norm(x)
+	l := vecNorm(x)
 	if !(l > 0) || math.IsInf(l, 0) {
 		return Estimate{N: n}
 	}

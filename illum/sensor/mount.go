@@ -131,10 +131,10 @@ func FaceMount(face Face, tilt float64, toward Face, clock float64) (Mount, erro
 // length > 0). Sensor X is the projection of ref on the plane normal to the
 // boresight; a zero ref picks the body axis least aligned with the boresight.
 func VectorMount(boresight, ref r3.Vec) (Mount, error) {
-	if !(r3.Norm(boresight) > 0) || math.IsInf(r3.Norm(boresight), 0) {
+	if !(vecNorm(boresight) > 0) || math.IsInf(vecNorm(boresight), 0) {
 		return Mount{}, fmt.Errorf("sensor: mount boresight %v: want a finite non-zero vector", boresight)
 	}
-	z := r3.Unit(boresight)
+	z := vecUnit(boresight)
 	if ref == (r3.Vec{}) {
 		ref = leastAligned(z)
 	}
@@ -154,10 +154,10 @@ func leastAligned(z r3.Vec) r3.Vec {
 
 func frameFrom(z, ref r3.Vec) (Mount, error) {
 	x := r3.Sub(ref, r3.Scale(r3.Dot(ref, z), z))
-	if r3.Norm(x) < 1e-9 {
+	if vecNorm(x) < 1e-9 {
 		return Mount{}, fmt.Errorf("sensor: mount reference axis %v is parallel to the boresight %v: give another reference", ref, z)
 	}
-	x = r3.Unit(x)
+	x = vecUnit(x)
 	y := r3.Cross(z, x)
 	return Mount{axes: [3]r3.Vec{x, y, z}, defined: true}, nil
 }
@@ -188,7 +188,7 @@ func (m Mount) ToBody(v r3.Vec) r3.Vec {
 // (rad, in sensor axes): the frame the light really meets when the unit is
 // mounted with that error.
 func (m Mount) Misaligned(phi r3.Vec) Mount {
-	a := r3.Norm(phi)
+	a := vecNorm(phi)
 	if a == 0 {
 		return m
 	}

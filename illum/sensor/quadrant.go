@@ -233,7 +233,7 @@ func (q *Quadrant) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand
 	}
 	h := q.spec.Height
 	tx, ty := -q.invert(x)/h, -q.invert(y)/h
-	out.Dir = q.spec.Mount.ToBody(r3.Unit(r3.Vec{X: tx, Y: ty, Z: 1}))
+	out.Dir = q.spec.Mount.ToBody(vecUnit(r3.Vec{X: tx, Y: ty, Z: 1}))
 	out.Valid = true
 	return out
 }

@@ -41,7 +41,7 @@ func orDefault(v, def r3.Vec) r3.Vec {
 	if v == (r3.Vec{}) {
 		return def
 	}
-	return r3.Unit(v)
+	return vecUnit(v)
 }
 
 func offsetOrIdentity(q r3.Rotation) r3.Rotation {
@@ -58,7 +58,7 @@ func alignPair(pb, pi, sb, si r3.Vec) r3.Rotation {
 	if q, ok := triad(pb, pi, sb, si); ok {
 		return q
 	}
-	q, _ := triad(pb, pi, sb, perpendicular(r3.Unit(pi)))
+	q, _ := triad(pb, pi, sb, perpendicular(vecUnit(pi)))
 	return q
 }
 
@@ -194,7 +194,7 @@ func NewTumble(seed uint64, maxRate float64) Tumble {
 
 // Attitude implements Law.
 func (l Tumble) Attitude(t float64, _ orbit.State, _ r3.Vec) r3.Rotation {
-	w := r3.Norm(l.Rate)
+	w := vecNorm(l.Rate)
 	if w == 0 {
 		return offsetOrIdentity(l.Q0)
 	}

@@ -168,24 +168,27 @@ func unitSeed(seed uint64, u int) (draw, noise *rand.PCG) {
 // propagator, sun and shadow model as the step loop.
 func eclipses(cfg *Config) ([]illum.Eclipse, illum.Stats) {
 	p := rewindable(cfg.NewPropagator)
-	jd0 := ephem.JulianDateTT(cfg.Epoch)
+	sun := newSunCache(cfg.Sun, ephem.JulianDateTT(cfg.Epoch))
 	g := func(t float64) (r3.Vec, r3.Vec) {
 		s := p.StateAt(t)
-		u, d := cfg.Sun.Position(jd0 + t/86400)
+		u, d := sun.at(t)
 		return s.R, r3.Scale(d, u)
 	}
-	// The search step is the run's step, capped at 60 s: the refinement is
-	// to 1 ms whatever the grid.
-	step := math.Min(cfg.Step, 60)
-	ecl := illum.FindEclipses(g, 0, cfg.Duration, step)
+	// The search samples every 60 s whatever the run's step: it refines
+	// each event to 1 ms and finds grazing passes shorter than its step
+	// (illum.FindEclipses).
+	ecl := illum.FindEclipses(g, 0, cfg.Duration, eclipseSearchStepS)
 	s0 := p.StateAt(0)
 	period := orbitPeriod(s0)
 	return ecl, illum.EclipseStats(ecl, 0, cfg.Duration, period)
 }
 
+// eclipseSearchStepS is the sampling step of the eclipse event search.
+const eclipseSearchStepS = 60
+
 // orbitPeriod is the osculating period of a state (two-body energy).
 func orbitPeriod(s orbit.State) float64 {
-	r, v := r3.Norm(s.R), r3.Norm(s.V)
+	r, v := vecNorm(s.R), vecNorm(s.V)
 	a := 1 / (2/r - v*v/orbit.MuEarth)
 	if !(a > 0) {
 		return math.NaN()

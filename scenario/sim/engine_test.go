@@ -74,3 +74,22 @@ func TestReferenceCaseRuns(t *testing.T) {
 		t.Logf("%+v", s)
 	}
 }
+
+// BenchmarkReferenceDay runs one day at 10 s of the bench reference case,
+// without and with albedo.
+func BenchmarkReferenceDay(b *testing.B) {
+	for _, alb := range []bool{false, true} {
+		name := "no-albedo"
+		if alb {
+			name = "albedo"
+		}
+		b.Run(name, func(b *testing.B) {
+			cfg := referenceCase(b, 1, alb)
+			for b.Loop() {
+				if _, err := Run(context.Background(), cfg); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}

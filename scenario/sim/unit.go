@@ -28,7 +28,7 @@ func degOf(rad float64) float64 { return rad * 180 / math.Pi }
 // angleBetween returns the angle (rad) between two unit vectors, accurate
 // near 0 and π (atan2 of |a×b| and a·b).
 func angleBetween(a, b r3.Vec) float64 {
-	return math.Atan2(r3.Norm(r3.Cross(a, b)), r3.Dot(a, b))
+	return math.Atan2(vecNorm(r3.Cross(a, b)), r3.Dot(a, b))
 }
 
 // runUnit simulates one unit: the nominal layout with its error models drawn
@@ -92,6 +92,7 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 		}
 	}
 
+	sun := newSunCache(cfg.Sun, jd0)
 	acc := newUnitAcc(cfg, arr, alb != nil, u == 0)
 	acc.unit = u
 	steps := cfg.Steps()
@@ -109,7 +110,7 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 		t := float64(k) * cfg.Step
 		st := prop.StateAt(t)
 		jd := jd0 + t/86400
-		sunU, sunD := cfg.Sun.Position(jd)
+		sunU, sunD := sun.at(t)
 		lit, region := shadow(cfg.Cylindrical, st.R, sunU, sunD)
 		inEclipse := region != illum.Sunlit
 		var A attitudeRot
@@ -155,7 +156,7 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 				}
 			}
 		}
-		nadirBody := A.toBody(r3.Scale(-1/r3.Norm(st.R), st.R))
+		nadirBody := A.toBody(r3.Scale(-1/vecNorm(st.R), st.R))
 		beta := illum.BetaAngle(st.R, st.V, sunU)
 		acc.step(t, region, lit, seen, sunBody, nadirBody, beta, readNo, readAlb, arr, cfg.Estimators[:nEst])
 	}

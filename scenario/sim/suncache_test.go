@@ -1,0 +1,26 @@
+package sim
+
+import (
+	"math"
+	"testing"
+
+	"sunsight/ephem"
+)
+
+// The interpolated sun stays within 1e-8 rad and 10 m of the ephemeris it
+// interpolates (closed-form bound in suncache.go: 2e-9 rad, 5 m).
+func TestSunCacheMatchesEphemeris(t *testing.T) {
+	jd0 := 2461406.5
+	c := newSunCache(ephem.LowPrecision{}, jd0)
+	worstAng, worstD := 0.0, 0.0
+	for ts := 0.0; ts < 3*86400; ts += 37 {
+		u, d := c.at(ts)
+		u2, d2 := ephem.LowPrecision{}.Position(jd0 + ts/86400)
+		worstAng = math.Max(worstAng, angleBetween(u, u2))
+		worstD = math.Max(worstD, math.Abs(d-d2))
+	}
+	if worstAng > 1e-8 || worstD > 0.01 {
+		t.Fatalf("worst %g rad, %g km", worstAng, worstD)
+	}
+	t.Logf("worst interpolation error %.2g rad, %.2g km", worstAng, worstD)
+}

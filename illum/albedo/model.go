@@ -178,7 +178,9 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 	q := AUKm / sunDistKm
 	irr := SolarIrradiance1AU * q * q // S(d) = S₀ (AU/d)²
 
-	// Pass 1, shared by all sensors: keep the sunlit cells with their radiance.
+	// Pass 1, shared by all sensors: keep the sunlit cells with their radiance
+	// times solid angle, w = L·ω with L = ρ S (N̂·ŝ)/π (Lambert's law) and
+	// ω = π g, so w = ρ S (N̂·ŝ) g (cell sum of Bhanderi & Bak 2005, from memory).
 	lit := m.lit[:0]
 	switch m.kind {
 	case kindUniform:
@@ -267,7 +269,7 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) R
 		var we float64
 		switch {
 		case c >= inner && cosine:
-			we = l.w * c
+			we = l.w * c // E = Σ L R(θ) ω with R = cos θ (Bhanderi & Bak 2005, from memory)
 			count++
 		case c <= outer:
 			continue

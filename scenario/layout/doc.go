@@ -1,0 +1,42 @@
+// Package layout finds the smallest set of sun sensors, chosen from candidate
+// mounts, that meets a scenario's targets, ranks the alternatives and gives
+// the trade-off front of sensor count, sky coverage and error.
+//
+// # Model
+//
+// Exact branch and bound over subsets of the candidates (include / exclude,
+// in candidate order, at most MaxSensors chosen). The bound is the sky
+// coverage: the fraction of a Fibonacci lattice of body directions seen by at
+// least k sensors. Adding a sensor never lowers a point's count, so the
+// coverage of a subset is at most that of the subset plus every candidate not
+// yet decided; a branch is pruned when even that cannot reach MinCoverage.
+// The same holds for the worst single-failure coverage (for S ⊆ T and any t,
+// T∖{t} ⊇ S∖{t}), which is the bound when SurviveOneFailure is set. Only
+// subsets that pass the coverage target reach the injected, expensive
+// Evaluate (the time simulation in every attitude mode); they are evaluated
+// by increasing size, and the search stops after the first size at which Top
+// feasible subsets are known.
+//
+// # Assumptions
+//
+// Coverage is counted on the lattice, so a target of 1.0 means "every lattice
+// point". SurviveOneFailure applies to the coverage target here; the time
+// targets are judged on the full subset (the caller's Evaluate may do more).
+// Above MaxCandidates candidates the search is refused rather than turned
+// into a heuristic, so its answer is always exact for the lattice used.
+//
+// # Accuracy
+//
+// Exact on the lattice. With N points a coverage fraction is resolved to
+// 1/N (DefaultPoints = 4096 gives 2.4e-4, a mean spacing of 3.2°): a gap in
+// the sky smaller than the spacing can be missed, so check the chosen layout
+// with a finer sky.Coverage. An analysis aid; a flight layout needs qualified
+// verification.
+//
+// # References
+//
+//   - Land & Doig, "An automatic method of solving discrete programming
+//     problems", Econometrica 28(3), 1960 (branch and bound), from memory.
+//   - Closed form: the six face normals' farthest direction, a cube corner,
+//     lies arccos(1/√3) = 54.7356° from the nearest face normal.
+package layout

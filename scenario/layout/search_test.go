@@ -1,0 +1,132 @@
+package layout
+
+import (
+	"context"
+	"math"
+	"slices"
+	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/illum/sky"
+)
+
+var faces = []r3.Vec{{X: 1}, {X: -1}, {Y: 1}, {Y: -1}, {Z: 1}, {Z: -1}}
+
+func cones(axes []r3.Vec, halfDeg float64) []sky.Viewer {
+	var v []sky.Viewer
+	for _, a := range axes {
+		v = append(v, sky.NewCone(a, halfDeg*math.Pi/180))
+	}
+	return v
+}
+
+// always meets the time targets; the margin prefers lower indices.
+func always(_ context.Context, s []int) (Score, error) {
+	sum := 0
+	for _, i := range s {
+		sum += i
+	}
+	return Score{Meets: true, Margin: -float64(sum), P95Deg: 1}, nil
+}
+
+// Six face normals: the cube corner lies arccos(1/√3) = 54.7356° from the
+// nearest normal (closed form), so below it no subset sees the whole sky.
+func TestFaceCosinesBelowCornerAngleNeverCoverTheSphere(t *testing.T) {
+	res, err := Search(context.Background(), Problem{Viewers: cones(faces, 54), CoverageSensors: 1, MinCoverage: 1, Evaluate: always})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Best != nil || res.Evaluated != 0 {
+		t.Errorf("54° cones: best %+v after %d evaluations, want none", res.Best, res.Evaluated)
+	}
+	if res.Pruned == 0 {
+		t.Error("the coverage bound pruned nothing")
+	}
+}
+
+// At 60° every direction needs its own axis's face: with one face missing,
+// the direction opposite it is 90° from the other five (closed form).
+func TestFaceCosinesAt60DegNeedAllSix(t *testing.T) {
+	res, err := Search(context.Background(), Problem{Viewers: cones(faces, 60), CoverageSensors: 1, MinCoverage: 1, Evaluate: always})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Best == nil || len(res.Best.Subset) != 6 || res.Evaluated != 1 {
+		t.Fatalf("60° cones: best %+v, %d evaluations; want all six after one", res.Best, res.Evaluated)
+	}
+}
+
+// tilted is a small candidate set: face normals and face normals tilted by
+// 30° toward a neighbour.
+func tilted() []r3.Vec {
+	t := math.Pi / 6
+	s, c := math.Sincos(t)
+	return []r3.Vec{{X: 1}, {X: -c, Y: s}, {Y: 1}, {Y: -c, Z: -s}, {Z: 1}, {Z: -1},
+		{X: c, Z: s}, {X: -c, Y: -s, Z: 0}, {X: s, Y: -c}}
+}
+
+// TestMatchesBruteForce checks the branch and bound against every subset,
+// judged by the independent sky.Coverage, with a time target that fails
+// whenever candidates 0 and 4 fly together.
+func TestMatchesBruteForce(t *testing.T) {
+	axes := tilted()
+	for _, survive := range []bool{false, true} {
+		for _, k := range []int{1, 2} {
+			v := cones(axes, 70)
+			eval := func(_ context.Context, s []int) (Score, error) {
+				sc, _ := always(context.TODO(), s)
+				sc.Meets = !(slices.Contains(s, 0) && slices.Contains(s, 4))
+				return sc, nil
+			}
+			target := 0.97
+			if k == 2 {
+				target = 0.6
+			}
+			res, err := Search(context.Background(), Problem{Viewers: v, CoverageSensors: k, MinCoverage: target, SurviveOneFailure: survive, Evaluate: eval, Points: 2000, Top: 3})
+			if err != nil {
+				t.Fatal(err)
+			}
+			lat, _ := sky.Fibonacci(2000)
+			var best []int
+			bestMargin := math.Inf(-1)
+			for mask := 1; mask < 1<<len(v); mask++ {
+				var s []int
+				var sv []sky.Viewer
+				for i := range v {
+					if mask&(1<<i) != 0 {
+						s = append(s, i)
+						sv = append(sv, v[i])
+					}
+				}
+				cov, _ := sky.Coverage(sv, lat)
+				c := cov.AtLeast[k]
+				if survive {
+					c = cov.WorstOneFailed[k]
+				}
+				sc, _ := eval(context.TODO(), s)
+				if c < target || !sc.Meets {
+					continue
+				}
+				if best == nil || len(s) < len(best) || (len(s) == len(best) && sc.Margin > bestMargin) {
+					best, bestMargin = s, sc.Margin
+				}
+			}
+			var got []int
+			if res.Best != nil {
+				got = res.Best.Subset
+			}
+			if !slices.Equal(got, best) {
+				t.Errorf("k=%d survive=%v: search %v, brute force %v", k, survive, got, best)
+			}
+			t.Logf("k=%d survive=%v: best %v, %d evaluated, %d nodes, %d pruned", k, survive, got, res.Evaluated, res.Visited, res.Pruned)
+		}
+	}
+}
+
+func TestRefusesTooManyCandidates(t *testing.T) {
+	v := make([]sky.Viewer, MaxCandidates+1)
+	if _, err := Search(context.Background(), Problem{Viewers: v, Evaluate: always}); err == nil {
+		t.Error("31 candidates accepted")
+	}
+}

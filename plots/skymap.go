@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"image/color"
 	"math"
+	"sort"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
@@ -143,11 +144,33 @@ type skyPlotter struct {
 	Graticule  [][]xyPt
 }
 
+// azRun is a span of azimuth [a0, a1] (deg) of one coverage class.
+type azRun struct {
+	a0, a1 float64
+	class  int
+}
+
+// mergeRuns sorts the spans of one row and joins touching spans of the same
+// class.
+func mergeRuns(row []azRun) []azRun {
+	sort.Slice(row, func(i, j int) bool { return row[i].a0 < row[j].a0 })
+	var out []azRun
+	for _, r := range row {
+		if k := len(out) - 1; k >= 0 && out[k].class == r.class && math.Abs(out[k].a1-r.a0) < 1e-9 {
+			out[k].a1 = r.a1
+			continue
+		}
+		out = append(out, r)
+	}
+	return out
+}
+
 func newSkyPlotter(f SkyMap) *skyPlotter {
 	s := &skyPlotter{Boresights: f.Boresights}
 	ae, ee := edges(f.AzDeg), edges(f.ElDeg)
 	for i := range f.ElDeg {
 		e0, e1 := math.Max(ee[i], -90), math.Min(ee[i+1], 90)
+		var row []azRun
 		for j := range f.AzDeg {
 			c := wrapAz(f.AzDeg[j])
 			lo, hi := c-(f.AzDeg[j]-ae[j]), c+(ae[j+1]-f.AzDeg[j])
@@ -155,9 +178,15 @@ func newSkyPlotter(f SkyMap) *skyPlotter {
 			for _, shift := range []float64{-360, 0, 360} {
 				a0, a1 := math.Max(lo+shift, -180), math.Min(hi+shift, 180)
 				if a0 < a1 {
-					s.Cells = append(s.Cells, skyCell{Poly: cellPolygon(a0, a1, e0, e1, 6), Class: coverageClass(f.Counts[i][j])})
+					row = append(row, azRun{a0, a1, coverageClass(f.Counts[i][j])})
 				}
 			}
+		}
+		// Neighbouring cells of one class are drawn as one polygon, which
+		// keeps the SVG small (a 2° map has 16 200 cells).
+		for _, r := range mergeRuns(row) {
+			n := max(6, int((r.a1-r.a0)/2))
+			s.Cells = append(s.Cells, skyCell{Poly: cellPolygon(r.a0, r.a1, e0, e1, n), Class: r.class})
 		}
 	}
 	for _, p := range f.SunTrack {

@@ -325,6 +325,11 @@ func writeFileAtomic(path string, data []byte) error {
 		return err
 	}
 	tmp := f.Name()
+	if err := f.Chmod(0o644); err != nil {
+		f.Close()
+		os.Remove(tmp)
+		return err
+	}
 	if _, err := f.Write(data); err != nil {
 		f.Close()
 		os.Remove(tmp)

@@ -1,0 +1,193 @@
+package main
+
+import (
+	"context"
+	"encoding/json"
+	"flag"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"os/signal"
+	"path/filepath"
+	"strings"
+
+	"sunsight/scenario"
+	"sunsight/scenario/layout"
+	"sunsight/scenario/sim"
+	"sunsight/scenario/sweep"
+)
+
+func init() {
+	register(command{name: "layout", summary: "find the fewest candidate sun sensors that meet the targets", run: runLayout})
+}
+
+func runLayout(args []string, stdout, stderr io.Writer) error {
+	fs := flag.NewFlagSet("layout", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	maxSensors := fs.Int("max-sensors", 0, "largest subset tried (0 = all candidates)")
+	top := fs.Int("top", 5, "ranked alternatives to report")
+	out := fs.String("out", "", "folder for layout.json (optional)")
+	points := fs.Int("sky-points", layout.DefaultPoints, "sky lattice points for the coverage bound")
+	maxRuns := fs.Int("max-runs", 0, "stop after this many time simulations (0 = no limit; the answer is then not proven)")
+	pos, err := parseInterleaved(fs, args)
+	if err != nil {
+		return flagError(err)
+	}
+	if len(pos) != 1 {
+		return usagef("want one scenario file; usage: sunsight layout FILE [--max-sensors N] [--top K] [--out DIR]")
+	}
+	if *maxSensors < 0 || *top < 1 || *points < 1 || *maxRuns < 0 {
+		return usagef("--max-sensors ≥ 0, --top ≥ 1, --sky-points ≥ 1 and --max-runs ≥ 0 are required")
+	}
+	s, err := scenario.Load(pos[0])
+	if err != nil {
+		return usageError{err}
+	}
+	cands := s.Body.Candidates
+	if len(cands) == 0 {
+		return usagef("body.candidates is empty; list the candidate sensor mounts there")
+	}
+	if len(cands) > layout.MaxCandidates {
+		return usagef("body.candidates has %d entries; the exact search takes at most %d", len(cands), layout.MaxCandidates)
+	}
+	_, viewers, _, err := s.BuildSensors(cands, "body.candidates")
+	if err != nil {
+		return usageError{err}
+	}
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	defer stop()
+	t := s.Targets
+	res, err := layout.Search(ctx, layout.Problem{
+		Viewers: viewers, CoverageSensors: t.CoverageSensors, MinCoverage: t.MinCoverage,
+		SurviveOneFailure: t.SurviveOneFailure, MaxSensors: *maxSensors, Top: *top, Points: *points,
+		MaxEvaluations: *maxRuns, Evaluate: evaluateSubset(s),
+	})
+	if err != nil {
+		return err
+	}
+	name := func(c layout.Choice) string {
+		var n []string
+		for _, i := range c.Subset {
+			n = append(n, cands[i].Name)
+		}
+		return strings.Join(n, " ")
+	}
+	fmt.Fprintf(stdout, "layout search: %d candidates, %d subsets simulated, %d branches pruned by sky coverage\n", len(cands), res.Evaluated, res.Pruned)
+	if !res.Exhausted {
+		fmt.Fprintln(stdout, "warning: --max-runs reached; the answer below is not proven to be the fewest sensors")
+	}
+	if res.Best == nil {
+		fmt.Fprintln(stdout, "no subset meets every target; relax targets or add candidates")
+	} else {
+		fmt.Fprintf(stdout, "fewest sensors: %d (%s)\n", len(res.Best.Subset), name(*res.Best))
+	}
+	fmt.Fprintln(stdout, "\nrank  sensors  coverage  p95_deg  margin  set")
+	for i, c := range res.Alternatives {
+		fmt.Fprintf(stdout, "%4d  %7d  %8.4f  %7.3f  %6.3f  %s\n", i+1, len(c.Subset), c.Coverage, c.Score.P95Deg, c.Score.Margin, name(c))
+	}
+	fmt.Fprintln(stdout, "\ntrade-off front (count vs coverage vs p95 error)")
+	for _, c := range res.Front {
+		fmt.Fprintf(stdout, "%7d  %8.4f  %7.3f  %-5v %s\n", len(c.Subset), c.Coverage, c.Score.P95Deg, c.Score.Meets, name(c))
+	}
+	fmt.Fprintln(stdout, "\nanalysis aid: verify the chosen layout with a finer sky map and qualified flight analysis")
+	if *out == "" {
+		return nil
+	}
+	if err := os.MkdirAll(*out, 0o755); err != nil {
+		return fmt.Errorf("layout: output folder: %w", err)
+	}
+	type row struct {
+		Sensors  []string `json:"sensors"`
+		Coverage float64  `json:"coverage_fraction"`
+		P95Deg   *float64 `json:"p95_error_deg"`
+		Margin   float64  `json:"margin"`
+		Meets    bool     `json:"meets_targets"`
+		Detail   string   `json:"detail"`
+	}
+	conv := func(list []layout.Choice) []row {
+		rows := []row{}
+		for _, c := range list {
+			r := row{Coverage: c.Coverage, Margin: c.Score.Margin, Meets: c.Score.Meets, Detail: c.Score.Detail}
+			for _, i := range c.Subset {
+				r.Sensors = append(r.Sensors, cands[i].Name)
+			}
+			if !math.IsNaN(c.Score.P95Deg) {
+				p := c.Score.P95Deg
+				r.P95Deg = &p
+			}
+			if math.IsInf(r.Margin, 0) || math.IsNaN(r.Margin) {
+				r.Margin = 0
+			}
+			rows = append(rows, r)
+		}
+		return rows
+	}
+	doc := map[string]any{"proven": res.Exhausted, "simulated": res.Evaluated, "alternatives": conv(res.Alternatives), "front": conv(res.Front)}
+	data, err := json.MarshalIndent(doc, "", "  ")
+	if err != nil {
+		return err
+	}
+	path := filepath.Join(*out, "layout.json")
+	if err := sweep.WriteAtomic(path, append(data, '\n')); err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "wrote %s\n", path)
+	return nil
+}
+
+// evaluateSubset simulates a subset in the scenario's attitude and in every
+// mode, and judges min_valid_fraction, max_error_p95_deg and max_gap.
+func evaluateSubset(s *scenario.Scenario) layout.EvaluateFunc {
+	atts := []scenario.Mode{{Name: "attitude", Attitude: s.Attitude}}
+	atts = append(atts, s.Modes...)
+	return func(ctx context.Context, subset []int) (layout.Score, error) {
+		list := make([]scenario.Sensor, len(subset))
+		for k, i := range subset {
+			list[k] = s.Body.Candidates[i]
+		}
+		sc := layout.Score{Meets: true, Margin: math.Inf(1), P95Deg: math.NaN()}
+		var detail []string
+		t := s.Targets
+		for _, m := range atts {
+			cfg, err := s.ConfigFor(list, m.Attitude)
+			if err != nil {
+				return layout.Score{Meets: false, Margin: math.Inf(-1), P95Deg: math.NaN(), Detail: err.Error()}, nil
+			}
+			cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
+			res, err := sim.Run(ctx, cfg)
+			if err != nil {
+				return sc, err
+			}
+			h := res.Headline()
+			p95 := h.P95AlbedoDeg
+			if math.IsNaN(p95) {
+				p95 = h.P95NoAlbedoDeg
+			}
+			if math.IsNaN(sc.P95Deg) || p95 > sc.P95Deg {
+				sc.P95Deg = p95
+			}
+			check := func(ok bool, margin float64) {
+				sc.Meets = sc.Meets && ok
+				sc.Margin = math.Min(sc.Margin, margin)
+			}
+			if t.MinValidFraction > 0 {
+				check(h.ValidFraction >= t.MinValidFraction, h.ValidFraction-t.MinValidFraction)
+			}
+			if t.MaxErrorP95Rad > 0 {
+				lim := t.MaxErrorP95Rad * 180 / math.Pi
+				check(!math.IsNaN(p95) && p95 <= lim, (lim-p95)/lim)
+			}
+			if t.MaxGap > 0 {
+				lim := t.MaxGap.Seconds()
+				check(h.LongestGapS <= lim, (lim-h.LongestGapS)/lim)
+			}
+			detail = append(detail, fmt.Sprintf("%s: valid %.3f, p95 %.2f°, gap %.0f s", m.Name, h.ValidFraction, p95, h.LongestGapS))
+		}
+		if math.IsInf(sc.Margin, 1) {
+			sc.Margin = 0
+		}
+		sc.Detail = strings.Join(detail, "; ")
+		return sc, nil
+	}
+}

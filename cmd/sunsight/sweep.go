@@ -1,0 +1,146 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"os/signal"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"sync/atomic"
+
+	"sunsight/plots"
+	"sunsight/scenario/sweep"
+)
+
+func init() {
+	register(command{name: "sweep", summary: "run a scenario over ranges of its keys (altitude, LTAN, epoch, layout, mode…)", run: runSweep})
+}
+
+// parseInterleaved parses flags that may come before and after the one
+// positional argument (the flag package stops at the first positional).
+func parseInterleaved(fs *flag.FlagSet, args []string) ([]string, error) {
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			return nil, err
+		}
+		if fs.NArg() == 0 {
+			return pos, nil
+		}
+		pos = append(pos, fs.Arg(0))
+		args = fs.Args()[1:]
+	}
+}
+
+func flagError(err error) error {
+	if errors.Is(err, flag.ErrHelp) {
+		return errHelpShown
+	}
+	return usagef("%v", err)
+}
+
+func runSweep(args []string, stdout, stderr io.Writer) error {
+	fs := flag.NewFlagSet("sweep", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	var axes []sweep.Axis
+	fs.Func("vary", "KEY=VALUES to vary (repeatable): a dotted key of the scenario file, layout or mode; VALUES lo:hi:step or a comma list", func(s string) error {
+		a, err := sweep.ParseAxis(s)
+		if err != nil {
+			return err
+		}
+		axes = append(axes, a)
+		return nil
+	})
+	zip := fs.Bool("zip", false, "pair the i-th values of every --vary (lists of equal length) instead of the cross product")
+	out := fs.String("out", "", "output folder (required); re-running into it resumes")
+	workers := fs.Int("workers", 0, "cases run in parallel (0 = number of CPUs)")
+	shard := fs.String("shard", "", "K/N: run only cases with index % N == K-1 (join the shards with sunsight merge)")
+	noPlots := fs.Bool("no-plots", false, "write the table but no figures")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: sunsight sweep FILE --vary KEY=VALUES [--vary ...] [--zip] --out DIR [--workers N] [--shard K/N]")
+		fs.PrintDefaults()
+	}
+	pos, err := parseInterleaved(fs, args)
+	if err != nil {
+		return flagError(err)
+	}
+	if len(pos) != 1 {
+		return usagef("want one scenario file; usage: sunsight sweep FILE --vary KEY=VALUES --out DIR")
+	}
+	if *out == "" {
+		return usagef("--out is missing; give the folder for the case files and sweep.csv")
+	}
+	if *workers < 0 {
+		return usagef("--workers %d: give 0 (number of CPUs) or a positive count", *workers)
+	}
+	k, n, err := parseShard(*shard)
+	if err != nil {
+		return err
+	}
+	data, err := os.ReadFile(pos[0])
+	if err != nil {
+		return usagef("scenario file: %v", err)
+	}
+	dir, err := filepath.Abs(filepath.Dir(pos[0]))
+	if err != nil {
+		return err
+	}
+	plan, err := sweep.NewPlan(data, dir, axes, *zip)
+	if err != nil {
+		return usageError{err}
+	}
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	defer stop()
+	var done atomic.Int32
+	total := len(plan.Cases)
+	sum, err := sweep.Execute(ctx, plan, *out, sweep.Options{Workers: *workers, ShardK: k, ShardN: n, Done: func(int) {
+		d := done.Add(1)
+		if step := max(int32(total)/10, 1); d%step == 0 {
+			fmt.Fprintf(stderr, "sweep: %d new cases done\n", d)
+		}
+	}})
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "sweep: %d cases in %s (%d run now, %d already there)\n", sum.InShard, *out, sum.Ran, sum.Skipped)
+	if n > 1 {
+		fmt.Fprintf(stdout, "sweep: shard %d/%d done; join the shards with: sunsight merge %s OTHER-SHARD-DIRS...\n", k, n, *out)
+		return nil
+	}
+	return writeSweepOutputs([]string{*out}, *noPlots, pos[0], stdout)
+}
+
+func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Writer) error {
+	m, err := sweep.ReadManifest(dirs[0])
+	if err != nil {
+		return usagef("%v", err)
+	}
+	caption := plots.Caption{Scenario: source + " swept over " + strings.Join(m.Keys, ", "),
+		Assumptions: "analysis aid; flight hardware needs qualified verification"}
+	if err := sweep.WriteOutputs(dirs, noPlots, caption); err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "sweep: wrote %s\n", filepath.Join(dirs[0], "sweep.csv"))
+	if !noPlots {
+		fmt.Fprintf(stdout, "sweep: figures in %s\n", filepath.Join(dirs[0], "plots"))
+	}
+	return nil
+}
+
+func parseShard(s string) (k, n int, err error) {
+	if s == "" {
+		return 0, 0, nil
+	}
+	a, b, ok := strings.Cut(s, "/")
+	k, err1 := strconv.Atoi(a)
+	n, err2 := strconv.Atoi(b)
+	if !ok || err1 != nil || err2 != nil || n < 1 || k < 1 || k > n {
+		return 0, 0, usagef("--shard %q: want K/N with 1 ≤ K ≤ N, e.g. 2/8", s)
+	}
+	return k, n, nil
+}

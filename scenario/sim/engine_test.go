@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"sunsight/ephem"
+	"sunsight/illum"
 	"sunsight/illum/albedo"
 	"sunsight/illum/sensor"
 	"sunsight/orbit"
@@ -92,4 +93,66 @@ func BenchmarkReferenceDay(b *testing.B) {
 			}
 		})
 	}
+}
+
+// Six face sensors of 90° cover the whole sphere, so in any attitude the sun
+// is seen by at least one sensor all the sunlit time (closed form).
+func TestFullSphereLayoutSeesSunAlways(t *testing.T) {
+	for _, law := range []attitude.Law{attitude.NewTumble(7, 10*math.Pi/180), attitude.Isotropic{Seed: 3}, attitude.Nadir{}} {
+		cfg := referenceCase(t, 0.3, false)
+		cfg.Law = law
+		cfg.Array = faceArray(t, 90)
+		res, err := Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := res.Nominal.SeenAtLeast[1]; got != 1 {
+			t.Errorf("%T: seen by >=1 = %v, want 1", law, got)
+		}
+	}
+}
+
+// In sun-pointing mode the sun stays on the pointing axis (+Z by default).
+func TestSunPointingKeepsSunOnAxis(t *testing.T) {
+	cfg := referenceCase(t, 0.3, false)
+	cfg.Law = attitude.Sun{}
+	cfg.SeriesStride = 1
+	res, err := Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := res.Nominal.Series
+	worst := 0.0
+	for i, el := range s.SunBodyEl {
+		if s.Region[i] == illum.Sunlit {
+			worst = math.Max(worst, 90-el)
+		}
+	}
+	// Elevation comes from asin(z), which near the pole resolves only
+	// √(2ε) ≈ 2e-8 rad (1.2e-6°).
+	if worst > 1e-5 {
+		t.Fatalf("sun up to %g° off the +Z axis", worst)
+	}
+}
+
+func faceArray(t testing.TB, halfDeg float64) *sensor.Array {
+	t.Helper()
+	var ss []sensor.Sensor
+	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
+		face, _ := sensor.ParseFace(f)
+		m, err := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: halfDeg * math.Pi / 180, Threshold: 0.05})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ss = append(ss, c)
+	}
+	arr, err := sensor.NewArray(ss...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return arr
 }

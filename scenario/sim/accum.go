@@ -176,20 +176,29 @@ func (q *Quantiles) CDF(n int) (x, f []float64) {
 	return x, f
 }
 
-// Spells tracks runs of consecutive "on" samples on a uniform grid (for example
-// sunlit time without a valid sun vector) and keeps their durations: the count
-// is bounded by the number of runs, not of samples.
+// Spells tracks runs of consecutive "on" samples on a uniform grid (for
+// example sunlit time without a valid sun vector) and keeps them as
+// intervals: the memory is bounded by the number of runs, not of samples.
+// Trackers of consecutive pieces of a grid merge into the tracker of the
+// whole.
 type Spells struct {
-	step      float64
-	running   bool
-	start     float64
+	t0      float64 // start of the piece of grid observed
+	running bool
+	start   float64
+	runs    []spell
+	// Filled by Finish:
 	Durations []float64
 	Longest   float64
 	LongestAt float64
 }
 
-// NewSpells starts a tracker on a grid of the given step (s).
-func NewSpells(step float64) *Spells { return &Spells{step: step} }
+type spell struct {
+	start, end float64
+	open       bool // still running at the end of the piece
+}
+
+// NewSpells starts a tracker for a piece of grid beginning at t0 (s).
+func NewSpells(t0 float64) *Spells { return &Spells{t0: t0} }
 
 // Observe records the state at time t (s). A run lasts from its first on
 // sample to the first off sample after it, so a single on sample counts one
@@ -199,22 +208,39 @@ func (s *Spells) Observe(t float64, on bool) {
 	case on && !s.running:
 		s.running, s.start = true, t
 	case !on && s.running:
-		s.close(t)
+		s.runs = append(s.runs, spell{start: s.start, end: t})
+		s.running = false
 	}
 }
 
-// Finish closes an open run at the end time t (exclusive).
-func (s *Spells) Finish(t float64) {
+// End closes the piece at tEnd (exclusive): a run still going is kept open,
+// to be joined with a run that starts the next piece.
+func (s *Spells) End(tEnd float64) {
 	if s.running {
-		s.close(t)
+		s.runs = append(s.runs, spell{start: s.start, end: tEnd, open: true})
+		s.running = false
 	}
 }
 
-func (s *Spells) close(t float64) {
-	d := t - s.start
-	s.Durations = append(s.Durations, d)
-	if d > s.Longest {
-		s.Longest, s.LongestAt = d, s.start
+// Merge appends the tracker of the next piece of grid.
+func (s *Spells) Merge(next *Spells) {
+	rs := next.runs
+	if k := len(s.runs) - 1; k >= 0 && s.runs[k].open && len(rs) > 0 && rs[0].start == next.t0 && s.runs[k].end == next.t0 {
+		s.runs[k].end, s.runs[k].open = rs[0].end, rs[0].open
+		rs = rs[1:]
 	}
-	s.running = false
+	s.runs = append(s.runs, rs...)
+}
+
+// Finish computes the durations and the longest run.
+func (s *Spells) Finish() {
+	s.Durations = s.Durations[:0]
+	s.Longest, s.LongestAt = 0, 0
+	for _, r := range s.runs {
+		d := r.end - r.start
+		s.Durations = append(s.Durations, d)
+		if d > s.Longest {
+			s.Longest, s.LongestAt = d, r.start
+		}
+	}
 }

@@ -63,23 +63,43 @@ func TestQuantilesMatchGonumEmpirical(t *testing.T) {
 }
 
 func TestSpellsDurations(t *testing.T) {
-	s := NewSpells(10)
 	// on at 10,20,30 (run 10..40 = 30 s), off, on at 60 (run 60..70), on at 90 to end 110.
 	on := map[float64]bool{10: true, 20: true, 30: true, 60: true, 90: true, 100: true}
+	whole := NewSpells(0)
 	for t := 0.0; t < 110; t += 10 {
-		s.Observe(t, on[t])
+		whole.Observe(t, on[t])
 	}
-	s.Finish(110)
+	whole.End(110)
+	whole.Finish()
 	want := []float64{30, 10, 20}
-	if len(s.Durations) != 3 {
-		t.Fatalf("durations %v", s.Durations)
+	if len(whole.Durations) != 3 {
+		t.Fatalf("durations %v", whole.Durations)
 	}
 	for i := range want {
-		if s.Durations[i] != want[i] {
-			t.Fatalf("durations %v, want %v", s.Durations, want)
+		if whole.Durations[i] != want[i] {
+			t.Fatalf("durations %v, want %v", whole.Durations, want)
 		}
 	}
-	if s.Longest != 30 || s.LongestAt != 10 {
-		t.Fatalf("longest %v at %v", s.Longest, s.LongestAt)
+	if whole.Longest != 30 || whole.LongestAt != 10 {
+		t.Fatalf("longest %v at %v", whole.Longest, whole.LongestAt)
+	}
+	// The same grid cut into pieces at every possible place merges to the
+	// same runs.
+	for cut := 10.0; cut < 110; cut += 10 {
+		a, b := NewSpells(0), NewSpells(cut)
+		for t := 0.0; t < 110; t += 10 {
+			if t < cut {
+				a.Observe(t, on[t])
+			} else {
+				b.Observe(t, on[t])
+			}
+		}
+		a.End(cut)
+		b.End(110)
+		a.Merge(b)
+		a.Finish()
+		if len(a.Durations) != 3 || a.Durations[0] != 30 || a.Durations[1] != 10 || a.Durations[2] != 20 {
+			t.Errorf("cut at %v: durations %v", cut, a.Durations)
+		}
 	}
 }

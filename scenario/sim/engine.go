@@ -8,6 +8,7 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"sync"
+	"sync/atomic"
 	"time"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -107,6 +108,23 @@ func (c *Config) Steps() int {
 	return int(math.Floor(c.Duration/c.Step+1e-9)) + 1
 }
 
+// chunkSteps is the length of the pieces the time grid is cut into so that
+// one long unit runs on several cores. The cut is fixed (it does not depend
+// on the number of workers) and the pieces are merged in time order, so the
+// numbers are the same whatever the parallelism.
+const chunkSteps = 1 << 15
+
+// noiseBlockSteps is the length of the blocks of steps whose noise draws
+// come from one stream seeded by (seed, unit, block): a chunk can start its
+// noise without drawing the earlier steps'.
+const noiseBlockSteps = 4096
+
+// task is one chunk [k0, k1) of one unit's grid.
+type task struct {
+	unit, chunk int
+	k0, k1      int
+}
+
 // Run simulates every unit and gathers the result. It stops early with the
 // context's error when ctx is cancelled.
 func Run(ctx context.Context, cfg Config) (*Result, error) {
@@ -118,39 +136,77 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	workers = min(workers, units)
+	steps := cfg.Steps()
+	chunk := chunkSteps
+	if _, numeric := cfg.NewPropagator().(*orbit.J2Numeric); numeric {
+		// A numerical integration runs forward from the epoch: one piece.
+		chunk = steps
+	}
+	nChunks := (steps + chunk - 1) / chunk
 
-	res := &Result{Steps: cfg.Steps(), StepS: cfg.Step, DurationS: cfg.Duration}
-	res.Eclipses, res.EclipseStats = eclipses(&cfg)
+	res := &Result{Steps: steps, StepS: cfg.Step, DurationS: cfg.Duration}
+	eclDone := make(chan struct{})
+	go func() {
+		res.Eclipses, res.EclipseStats = eclipses(&cfg)
+		close(eclDone)
+	}()
 
-	unitRes := make([]*UnitResult, units)
-	errs := make([]error, units)
-	next := make(chan int)
+	// Each unit's errors are drawn once, before its chunks run.
+	arrays := make([]*sensor.Array, units)
+	for u := range units {
+		drawSrc, _ := unitSeed(cfg.Seed, u)
+		arrays[u] = cfg.Array.Draw(rand.New(drawSrc))
+	}
+	accs := make([][]*unitAcc, units)
+	for u := range accs {
+		accs[u] = make([]*unitAcc, nChunks)
+	}
+	var firstErr error
+	var mu sync.Mutex
+	var done atomic.Int64
+	next := make(chan task)
 	var wg sync.WaitGroup
-	for range workers {
+	for range min(workers, units*nChunks) {
 		wg.Go(func() {
-			for u := range next {
-				unitRes[u], errs[u] = runUnit(ctx, &cfg, u)
+			for tk := range next {
+				a, err := runChunk(ctx, &cfg, arrays[tk.unit], tk, &done, units*steps)
+				mu.Lock()
+				if err != nil && firstErr == nil {
+					firstErr = err
+				}
+				accs[tk.unit][tk.chunk] = a
+				mu.Unlock()
 			}
 		})
 	}
 feed:
 	for u := range units {
-		select {
-		case next <- u:
-		case <-ctx.Done():
-			break feed
+		for c := range nChunks {
+			tk := task{unit: u, chunk: c, k0: c * chunk, k1: min((c+1)*chunk, steps)}
+			select {
+			case next <- tk:
+			case <-ctx.Done():
+				break feed
+			}
 		}
 	}
 	close(next)
 	wg.Wait()
+	<-eclDone
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
-	for _, err := range errs {
-		if err != nil {
-			return nil, err
+	if firstErr != nil {
+		return nil, firstErr
+	}
+	unitRes := make([]*UnitResult, units)
+	for u := range units {
+		a := accs[u][0]
+		for _, b := range accs[u][1:] {
+			a.merge(b)
 		}
+		a.finish()
+		unitRes[u] = a.result()
 	}
 	res.Units = unitRes
 	res.Nominal = unitRes[0]
@@ -162,6 +218,11 @@ feed:
 // seed, so a unit's numbers do not depend on the number of workers.
 func unitSeed(seed uint64, u int) (draw, noise *rand.PCG) {
 	return rand.NewPCG(seed, uint64(2*u+1)), rand.NewPCG(seed, uint64(2*u+2))
+}
+
+// seedNoise restarts the noise stream for the block of steps holding k.
+func seedNoise(src *rand.PCG, seed uint64, u, k int) {
+	src.Seed(seed^0x9e3779b97f4a7c15, uint64(u)<<32|uint64(k/noiseBlockSteps))
 }
 
 // eclipses runs the event search of illum over the whole span with the same

@@ -2,7 +2,9 @@ package sim
 
 import (
 	"context"
+	"fmt"
 	"math"
+	"strings"
 	"testing"
 	"time"
 
@@ -155,4 +157,44 @@ func faceArray(t testing.TB, halfDeg float64) *sensor.Array {
 		t.Fatal(err)
 	}
 	return arr
+}
+
+// A run long enough to be cut into several chunks gives identical results on
+// one and two workers, with noise and Monte Carlo units.
+func TestChunkedRunIndependentOfWorkers(t *testing.T) {
+	var results []*Result
+	for _, w := range []int{1, 2} {
+		cfg := referenceCase(t, 5, false)
+		cfg.Law = attitude.NewTumble(5, 5*math.Pi/180)
+		cfg.Units = 2
+		cfg.Workers = w
+		res, err := Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.Steps <= chunkSteps {
+			t.Fatalf("%d steps: not chunked", res.Steps)
+		}
+		results = append(results, res)
+	}
+	// Printed with %v (NaN equals NaN there; reflect.DeepEqual would not).
+	show := func(r *Result) string {
+		var b strings.Builder
+		for _, u := range r.Units {
+			uc := *u
+			uc.Estimators = nil
+			fmt.Fprintf(&b, "%+v\n", uc)
+			for _, e := range u.Estimators {
+				e.errNo, e.errAlb = nil, nil
+				fmt.Fprintf(&b, "%+v\n", e)
+			}
+		}
+		return b.String()
+	}
+	if a, b := show(results[0]), show(results[1]); a != b {
+		t.Fatalf("results differ between 1 and 2 workers:\n%s\n%s", a, b)
+	}
+	if a, b := fmt.Sprint(results[0].Headline()), fmt.Sprint(results[1].Headline()); a != b {
+		t.Fatalf("headlines differ: %s / %s", a, b)
+	}
 }

@@ -173,7 +173,7 @@ type unitAcc struct {
 	names                     []string
 }
 
-func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool) *unitAcc {
+func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float64) *unitAcc {
 	n := arr.Len()
 	a := &unitAcc{cfg: cfg, albedo: withAlbedo, inView: make([]int, n), peak: make([]float64, n),
 		saturated: make([]int, n), falseSunSensor: make([]int, n), est: make([]estAcc, len(cfg.Estimators)),
@@ -182,7 +182,7 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool) *unitAcc
 		a.names = append(a.names, s.Name())
 	}
 	for i := range a.est {
-		a.est[i] = estAcc{gaps: NewSpells(cfg.Step), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
+		a.est[i] = estAcc{gaps: NewSpells(t0), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
 	}
 	if first {
 		if cfg.SeriesStride > 0 {
@@ -196,7 +196,7 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool) *unitAcc
 }
 
 // step folds one sample in. readAlb is ignored without an albedo model.
-func (a *unitAcc) step(t float64, region illum.Region, lit float64, seen int, sunBody, nadirBody r3.Vec,
+func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen int, sunBody, nadirBody r3.Vec,
 	beta float64, readNo, readAlb []sensor.Reading, arr *sensor.Array, ests []sensor.Estimator) {
 	a.samples++
 	sunlit := region == illum.Sunlit
@@ -283,10 +283,10 @@ func (a *unitAcc) step(t float64, region illum.Region, lit float64, seen int, su
 			primaryValid = eAlb.Valid && sunlit
 		}
 	}
-	if a.trackStride > 0 && sunlit && (a.samples-1)%a.trackStride == 0 {
+	if a.trackStride > 0 && sunlit && k%a.trackStride == 0 {
 		a.track = append(a.track, sunBody)
 	}
-	if s := a.series; s != nil && (a.samples-1)%a.cfg.SeriesStride == 0 {
+	if s := a.series; s != nil && k%a.cfg.SeriesStride == 0 {
 		s.T = append(s.T, t)
 		s.Region = append(s.Region, region)
 		s.Lit = append(s.Lit, lit)
@@ -305,9 +305,67 @@ func (a *unitAcc) step(t float64, region illum.Region, lit float64, seen int, su
 	}
 }
 
-func (a *unitAcc) finish(tEnd float64) {
+// end closes the accumulator's piece of grid at tEnd.
+func (a *unitAcc) end(tEnd float64) {
 	for i := range a.est {
-		a.est[i].gaps.Finish(tEnd)
+		a.est[i].gaps.End(tEnd)
+	}
+}
+
+// merge folds in the accumulator of the next piece of the same unit's grid.
+func (a *unitAcc) merge(b *unitAcc) {
+	a.samples += b.samples
+	a.sunlit += b.sunlit
+	a.pen += b.pen
+	a.umb += b.umb
+	for k := range a.seenAtLeast {
+		a.seenAtLeast[k] += b.seenAtLeast[k]
+	}
+	for i := range a.inView {
+		a.inView[i] += b.inView[i]
+		a.peak[i] = math.Max(a.peak[i], b.peak[i])
+		a.saturated[i] += b.saturated[i]
+		a.falseSunSensor[i] += b.falseSunSensor[i]
+	}
+	a.falseSunAny += b.falseSunAny
+	a.betaMin = math.Min(a.betaMin, b.betaMin)
+	a.betaMax = math.Max(a.betaMax, b.betaMax)
+	for j := range a.est {
+		x, y := &a.est[j], &b.est[j]
+		x.validAlb += y.validAlb
+		x.validNo += y.validNo
+		x.gaps.Merge(y.gaps)
+		x.mNo.Merge(&y.mNo)
+		x.mAlb.Merge(&y.mAlb)
+		x.mPart.Merge(&y.mPart)
+		x.qNo.Merge(y.qNo)
+		x.qAlb.Merge(y.qAlb)
+		x.qPart.Merge(y.qPart)
+		x.falseSun += y.falseSun
+		x.mFalse.Merge(&y.mFalse)
+		x.qFalse.Merge(y.qFalse)
+	}
+	if a.series != nil && b.series != nil {
+		s, t := a.series, b.series
+		s.T = append(s.T, t.T...)
+		s.Region = append(s.Region, t.Region...)
+		s.Lit = append(s.Lit, t.Lit...)
+		s.Seen = append(s.Seen, t.Seen...)
+		s.Valid = append(s.Valid, t.Valid...)
+		s.ErrNoDeg = append(s.ErrNoDeg, t.ErrNoDeg...)
+		s.ErrAlbDeg = append(s.ErrAlbDeg, t.ErrAlbDeg...)
+		s.BetaDeg = append(s.BetaDeg, t.BetaDeg...)
+		s.SunBodyAz = append(s.SunBodyAz, t.SunBodyAz...)
+		s.SunBodyEl = append(s.SunBodyEl, t.SunBodyEl...)
+		s.Signals = append(s.Signals, t.Signals...)
+	}
+	a.track = append(a.track, b.track...)
+}
+
+// finish completes the merged accumulator of a whole unit.
+func (a *unitAcc) finish() {
+	for i := range a.est {
+		a.est[i].gaps.Finish()
 	}
 }
 

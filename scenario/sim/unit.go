@@ -4,6 +4,7 @@ import (
 	"context"
 	"math"
 	"math/rand/v2"
+	"sync/atomic"
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
@@ -31,11 +32,11 @@ func angleBetween(a, b r3.Vec) float64 {
 	return math.Atan2(vecNorm(r3.Cross(a, b)), r3.Dot(a, b))
 }
 
-// runUnit simulates one unit: the nominal layout with its error models drawn
-// from the unit's seed.
-func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
-	drawSrc, noiseSrc := unitSeed(cfg.Seed, u)
-	arr := cfg.Array.Draw(rand.New(drawSrc))
+// runChunk simulates the steps [tk.k0, tk.k1) of unit tk.unit, whose
+// sensors (with their drawn errors) are arr.
+func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done *atomic.Int64, total int) (*unitAcc, error) {
+	u := tk.unit
+	noiseSrc := rand.NewPCG(0, 0)
 	noise := rand.New(noiseSrc)
 	n := arr.Len()
 	nEst := len(cfg.Estimators)
@@ -93,19 +94,22 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 	}
 
 	sun := newSunCache(cfg.Sun, jd0)
-	acc := newUnitAcc(cfg, arr, alb != nil, u == 0)
+	acc := newUnitAcc(cfg, arr, alb != nil, u == 0, float64(tk.k0)*cfg.Step)
 	acc.unit = u
-	steps := cfg.Steps()
 	eclAware, _ := cfg.Law.(attitude.EclipseAware)
 	var noiseSaved rand.PCG
-	progressEvery := max(steps/200, 1)
 
-	for k := range steps {
-		if k&1023 == 0 && ctx.Err() != nil {
-			return nil, ctx.Err()
+	for k := tk.k0; k < tk.k1; k++ {
+		if k&1023 == 0 && k > tk.k0 {
+			if ctx.Err() != nil {
+				return nil, ctx.Err()
+			}
+			if d := done.Add(1024); cfg.Progress != nil {
+				cfg.Progress(float64(d) / float64(total))
+			}
 		}
-		if u == 0 && cfg.Progress != nil && k%progressEvery == 0 {
-			cfg.Progress(float64(k) / float64(steps))
+		if k == tk.k0 || k%noiseBlockSteps == 0 {
+			seedNoise(noiseSrc, cfg.Seed, u, k)
 		}
 		t := float64(k) * cfg.Step
 		st := prop.StateAt(t)
@@ -158,10 +162,10 @@ func runUnit(ctx context.Context, cfg *Config, u int) (*UnitResult, error) {
 		}
 		nadirBody := A.toBody(r3.Scale(-1/vecNorm(st.R), st.R))
 		beta := illum.BetaAngle(st.R, st.V, sunU)
-		acc.step(t, region, lit, seen, sunBody, nadirBody, beta, readNo, readAlb, arr, cfg.Estimators[:nEst])
+		acc.step(k, t, region, lit, seen, sunBody, nadirBody, beta, readNo, readAlb, arr, cfg.Estimators[:nEst])
 	}
-	acc.finish(float64(steps) * cfg.Step)
-	return acc.result(), nil
+	acc.end(float64(tk.k1) * cfg.Step)
+	return acc, nil
 }
 
 // attitudeRot is a body ← ECI rotation with named directions of use.

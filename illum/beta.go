@@ -10,8 +10,14 @@ import (
 // on the side of the orbit normal h = r × v: β = asin(ĥ · ŝ) (Rickman, NASA
 // TFAWS 2014, "Introduction to On-Orbit Thermal Environments"; from memory).
 func BetaAngle(r, v, sunDir r3.Vec) float64 {
+	return math.Asin(SinBetaAngle(r, v, sunDir))
+}
+
+// SinBetaAngle is sin β, the sine of BetaAngle, without the arcsine (the
+// step loop tracks extremes of sin β, which is monotonic in β).
+func SinBetaAngle(r, v, sunDir r3.Vec) float64 {
 	h := r3.Cross(r, v)
-	return math.Asin(clamp1(r3.Dot(h, sunDir) / (vecNorm(h) * vecNorm(sunDir))))
+	return clamp1(r3.Dot(h, sunDir) / (vecNorm(h) * vecNorm(sunDir)))
 }
 
 // BetaAngleElements returns the beta angle, rad, from the orbit inclination

@@ -165,7 +165,7 @@ type unitAcc struct {
 	falseSunSensor            []int
 	falseSunAny               int
 	est                       []estAcc
-	betaMin, betaMax          float64
+	betaMin, betaMax          float64 // extremes of sin β
 	series                    *Series
 	track                     []r3.Vec
 	trackStride               int
@@ -197,7 +197,7 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float
 
 // step folds one sample in. readAlb is ignored without an albedo model.
 func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen int, sunBody, nadirBody r3.Vec,
-	beta float64, readNo, readAlb []sensor.Reading, arr *sensor.Array, ests []sensor.Estimator) {
+	sinBeta float64, readNo, readAlb []sensor.Reading, arr *sensor.Array, ests []sensor.Estimator) {
 	a.samples++
 	sunlit := region == illum.Sunlit
 	switch region {
@@ -208,8 +208,13 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	default:
 		a.pen++
 	}
-	a.betaMin = math.Min(a.betaMin, beta)
-	a.betaMax = math.Max(a.betaMax, beta)
+	// Extremes of sin β (monotonic in β); the arcsine is taken once at the end.
+	if sinBeta < a.betaMin {
+		a.betaMin = sinBeta
+	}
+	if sinBeta > a.betaMax {
+		a.betaMax = sinBeta
+	}
 	for k := 1; k <= 3 && sunlit; k++ {
 		if seen >= k {
 			a.seenAtLeast[k]++
@@ -294,7 +299,7 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		s.Valid = append(s.Valid, primaryValid)
 		s.ErrNoDeg = append(s.ErrNoDeg, errNoDeg)
 		s.ErrAlbDeg = append(s.ErrAlbDeg, errAlbDeg)
-		s.BetaDeg = append(s.BetaDeg, degOf(beta))
+		s.BetaDeg = append(s.BetaDeg, degOf(math.Asin(sinBeta)))
 		s.SunBodyAz = append(s.SunBodyAz, degOf(math.Atan2(sunBody.Y, sunBody.X)))
 		s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(math.Max(-1, math.Min(1, sunBody.Z)))))
 		sig := make([]float64, len(real))
@@ -381,7 +386,7 @@ func (a *unitAcc) result() *UnitResult {
 		Unit: a.unit, Samples: a.samples,
 		SunlitFraction: frac(a.sunlit, a.samples), PenumbraFraction: frac(a.pen, a.samples),
 		UmbraFraction: frac(a.umb, a.samples), FalseSunFraction: frac(a.falseSunAny, a.umb),
-		BetaMinDeg: degOf(a.betaMin), BetaMaxDeg: degOf(a.betaMax),
+		BetaMinDeg: degOf(math.Asin(a.betaMin)), BetaMaxDeg: degOf(math.Asin(a.betaMax)),
 		Series: a.series, SunTrack: a.track,
 	}
 	for k := 1; k <= 3; k++ {

@@ -161,8 +161,8 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 			}
 		}
 		nadirBody := A.toBody(r3.Scale(-1/vecNorm(st.R), st.R))
-		beta := illum.BetaAngle(st.R, st.V, sunU)
-		acc.step(k, t, region, lit, seen, sunBody, nadirBody, beta, readNo, readAlb, arr, cfg.Estimators[:nEst])
+		sinBeta := illum.SinBetaAngle(st.R, st.V, sunU)
+		acc.step(k, t, region, lit, seen, sunBody, nadirBody, sinBeta, readNo, readAlb, arr, cfg.Estimators[:nEst])
 	}
 	acc.end(float64(tk.k1) * cfg.Step)
 	return acc, nil

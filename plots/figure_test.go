@@ -366,3 +366,14 @@ func TestGoldenSweepSVG(t *testing.T) {
 		t.Errorf("SVG differs from %s (%d vs %d bytes); rerun with -regen if intended", path, len(got), len(want))
 	}
 }
+
+func TestTickLabelsHaveNoRoundOff(t *testing.T) {
+	for _, tk := range (niceTicks{}).Ticks(0, 0.2) {
+		if tk.Label != "" && len(tk.Label) > 5 {
+			t.Errorf("tick %v labelled %q", tk.Value, tk.Label)
+		}
+	}
+	if got := tickLabel(35 * 0.005); got != "0.175" {
+		t.Errorf("tickLabel(35×0.005) = %q, want 0.175", got)
+	}
+}

@@ -183,6 +183,16 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 	return &Chart{Panels: panels, Caption: caption, Height: h, drawn: rec}, nil
 }
 
+// tickLabel prints a tick value without binary round-off (35 × 0.005 is
+// 0.17500000000000002 in float64; it prints 0.175).
+func tickLabel(v float64) string {
+	r, err := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 12, 64), 64)
+	if err != nil {
+		r = v
+	}
+	return strconv.FormatFloat(r, 'f', -1, 64)
+}
+
 // niceTicks puts about eight labelled ticks on 1, 2, 2.5 or 5 × 10ⁿ steps,
 // labelled without needless decimals, with four minor ticks between.
 type niceTicks struct{}
@@ -206,7 +216,7 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 		k := math.Round(v / minor)
 		val := k * minor
 		if int64(k)%5 == 0 {
-			ts = append(ts, plot.Tick{Value: val, Label: strconv.FormatFloat(val, 'f', -1, 64)})
+			ts = append(ts, plot.Tick{Value: val, Label: tickLabel(val)})
 		} else {
 			ts = append(ts, plot.Tick{Value: val})
 		}

@@ -151,6 +151,24 @@ func (s *Scenario) buildLaw(l Law, path string) (attitude.Law, error) {
 	return nil, fmt.Errorf("%s.law: %q is not one of nadir, sun, inertial, spin, tumble, isotropic, schedule", path, l.Name)
 }
 
+// lawForUnit gives each Monte Carlo unit its own random attitude draw for
+// the random laws (a tumble's tip-off attitude and rates, an isotropic
+// sequence): unit 0 keeps the scenario seed, unit u uses seed + u. Other
+// laws are the same for every unit (nil).
+func (s *Scenario) lawForUnit(att Attitude) func(u int) attitude.Law {
+	if att.Name != LawTumble && att.Name != LawIsotropic {
+		return nil
+	}
+	l := att.Law
+	return func(u int) attitude.Law {
+		seed := uint64(s.Seed) + uint64(u)
+		if l.Name == LawTumble {
+			return attitude.NewTumble(seed, l.MaxRateRadS)
+		}
+		return attitude.Isotropic{Seed: seed}
+	}
+}
+
 // BuildSensors turns sensor entries into a sensor array and, per sensor, the
 // viewer (field of view and obstructions) and the albedo response.
 func (s *Scenario) BuildSensors(list []Sensor, path string) (*sensor.Array, []sky.Viewer, []albedo.Response, error) {
@@ -363,7 +381,7 @@ func (s *Scenario) ConfigFor(sensors []Sensor, att Attitude) (sim.Config, error)
 	}
 	cfg = sim.Config{
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
-		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law,
+		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law, LawForUnit: s.lawForUnit(att),
 		Array: arr, Viewers: viewers, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1),
 	}

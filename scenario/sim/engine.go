@@ -37,6 +37,9 @@ type Config struct {
 	// Cylindrical selects the cylindrical shadow instead of the conical one.
 	Cylindrical bool
 	Law         attitude.Law
+	// LawForUnit, when set, gives each Monte Carlo unit its own attitude
+	// (for example a tumble with its own tip-off draw); unit 0 must get Law.
+	LawForUnit func(u int) attitude.Law
 
 	// Array is the nominal sensor layout; Viewers[i] says whether sensor i
 	// sees a body direction (field of view and obstructions). When Viewers is

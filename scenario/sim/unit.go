@@ -96,7 +96,11 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 	sun := newSunCache(cfg.Sun, jd0)
 	acc := newUnitAcc(cfg, arr, alb != nil, u == 0, float64(tk.k0)*cfg.Step)
 	acc.unit = u
-	eclAware, _ := cfg.Law.(attitude.EclipseAware)
+	law := cfg.Law
+	if cfg.LawForUnit != nil {
+		law = cfg.LawForUnit(u)
+	}
+	eclAware, _ := law.(attitude.EclipseAware)
 	var noiseSaved rand.PCG
 
 	for k := tk.k0; k < tk.k1; k++ {
@@ -121,7 +125,7 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 		if eclAware != nil {
 			A = attitudeRot(eclAware.AttitudeInEclipse(t, st, sunU, inEclipse))
 		} else {
-			A = attitudeRot(cfg.Law.Attitude(t, st, sunU))
+			A = attitudeRot(law.Attitude(t, st, sunU))
 		}
 		sunBody := A.toBody(sunU)
 		direct := solarIrradiance(sunD) * lit

@@ -379,10 +379,17 @@ func (s *Scenario) ConfigFor(sensors []Sensor, att Attitude) (sim.Config, error)
 	if err != nil {
 		return cfg, err
 	}
+	var blocked []func(r3.Vec) bool
+	if obs := s.Obstacles(); len(obs) > 0 {
+		for _, sc := range sensors {
+			clear := sky.Obstructed{View: sky.ViewerFunc(func(r3.Vec) bool { return true }), Position: sc.PositionM, Obstacles: obs}
+			blocked = append(blocked, func(d r3.Vec) bool { return !clear.Sees(d) })
+		}
+	}
 	cfg = sim.Config{
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
 		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law, LawForUnit: s.lawForUnit(att),
-		Array: arr, Viewers: viewers, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
+		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1),
 	}
 	return cfg, cfg.Validate()

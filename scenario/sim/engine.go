@@ -46,6 +46,10 @@ type Config struct {
 	// nil the sensors' own InFOV is used.
 	Array   *sensor.Array
 	Viewers []sky.Viewer
+	// Blocked[i], when set, says whether the body blocks sensor i's view
+	// of a body direction (obstructions): its direct sunlight and its albedo
+	// are cut there. Nil means nothing is in the way.
+	Blocked []func(dirBody r3.Vec) bool
 
 	// NewAlbedo returns a fresh albedo model (models keep scratch buffers);
 	// nil means no albedo. AlbedoResponse[i] is sensor i's angular response
@@ -99,6 +103,8 @@ func (c *Config) Validate() error {
 		return errors.New("sim: no estimator")
 	case c.Viewers != nil && len(c.Viewers) != c.Array.Len():
 		return fmt.Errorf("sim: %d viewers for %d sensors", len(c.Viewers), c.Array.Len())
+	case c.Blocked != nil && len(c.Blocked) != c.Array.Len():
+		return fmt.Errorf("sim: %d obstruction tests for %d sensors", len(c.Blocked), c.Array.Len())
 	case c.AlbedoResponse != nil && len(c.AlbedoResponse) != c.Array.Len():
 		return fmt.Errorf("sim: %d albedo responses for %d sensors", len(c.AlbedoResponse), c.Array.Len())
 	}

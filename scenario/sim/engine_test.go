@@ -8,6 +8,8 @@ import (
 	"testing"
 	"time"
 
+	"gonum.org/v1/gonum/spatial/r3"
+
 	"sunsight/ephem"
 	"sunsight/illum"
 	"sunsight/illum/albedo"
@@ -196,5 +198,24 @@ func TestChunkedRunIndependentOfWorkers(t *testing.T) {
 	}
 	if a, b := fmt.Sprint(results[0].Headline()), fmt.Sprint(results[1].Headline()); a != b {
 		t.Fatalf("headlines differ: %s / %s", a, b)
+	}
+}
+
+// A sensor whose view is blocked by the body reads no direct sunlight and
+// no albedo from the blocked directions.
+func TestObstructionCutsReadings(t *testing.T) {
+	cfg := referenceCase(t, 0.2, true)
+	blockAll := func(r3.Vec) bool { return true }
+	cfg.Blocked = make([]func(r3.Vec) bool, cfg.Array.Len())
+	cfg.Blocked[0] = blockAll // css+X
+	res, err := Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p := res.Nominal.Sensors[0].PeakSignal; p != 0 {
+		t.Errorf("blocked sensor peak signal %g, want 0", p)
+	}
+	if p := res.Nominal.Sensors[1].PeakSignal; !(p > 0.5) {
+		t.Errorf("unblocked sensor peak signal %g, want a lit reading", p)
 	}
 }

@@ -68,6 +68,10 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 	var albOut []albedo.Result
 	var albBody []sensor.Albedo
 	var corrOut []albedo.Result
+	var sunBlocked []bool
+	if cfg.Blocked != nil {
+		sunBlocked = make([]bool, n)
+	}
 	cosine := make([]bool, n)
 	for i, s := range arr.Sensors() {
 		cosine[i] = s.Kind() == sensor.KindCosine
@@ -131,8 +135,13 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 		direct := solarIrradiance(sunD) * lit
 
 		// Readings without albedo, then with it, on the same noise draws.
+		// A sensor whose view of the sun is blocked by the body gets no
+		// direct light.
+		for i := range sunBlocked {
+			sunBlocked[i] = cfg.Blocked[i] != nil && cfg.Blocked[i](sunBody)
+		}
 		noiseSaved = *noiseSrc
-		arr.Read(readNo, sunBody, direct, nil, noise)
+		readAll(readNo, arr, sunBody, direct, nil, noise, sunBlocked)
 		if alb != nil {
 			for i, s := range arr.Sensors() {
 				albIn[i].Normal = A.toECI(s.Mount().Boresight())
@@ -150,9 +159,15 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 				if corr != nil && cosine[i] {
 					albBody[i].Irradiance -= corrOut[i].Irradiance
 				}
+				// Obstructions: the albedo is dropped when its mean
+				// arrival direction is blocked (a first approximation;
+				// a partly blocked Earth is not split).
+				if cfg.Blocked != nil && cfg.Blocked[i] != nil && albOut[i].Irradiance > 0 && cfg.Blocked[i](albBody[i].Dir) {
+					albBody[i] = sensor.Albedo{}
+				}
 			}
 			*noiseSrc = noiseSaved
-			arr.Read(readAlb, sunBody, direct, albBody, noise)
+			readAll(readAlb, arr, sunBody, direct, albBody, noise, sunBlocked)
 		}
 
 		seen := 0
@@ -170,6 +185,26 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 	}
 	acc.end(float64(tk.k1) * cfg.Step)
 	return acc, nil
+}
+
+// readAll reads every sensor; blocked[i] (nil: none blocked) cuts sensor i's
+// direct sunlight.
+func readAll(dst []sensor.Reading, arr *sensor.Array, sun r3.Vec, direct float64, alb []sensor.Albedo, noise *rand.Rand, blocked []bool) {
+	if blocked == nil {
+		arr.Read(dst, sun, direct, alb, noise)
+		return
+	}
+	for i, s := range arr.Sensors() {
+		d := direct
+		if blocked[i] {
+			d = 0
+		}
+		var a sensor.Albedo
+		if alb != nil {
+			a = alb[i]
+		}
+		dst[i] = s.Read(sun, d, a, noise)
+	}
 }
 
 // attitudeRot is a body ← ECI rotation with named directions of use.

@@ -2,9 +2,11 @@ package scenario
 
 import (
 	"context"
+	"math"
 	"path/filepath"
 	"testing"
 
+	"sunsight/illum"
 	"sunsight/scenario/sim"
 )
 
@@ -36,5 +38,37 @@ func TestExamplesBuildAndRun(t *testing.T) {
 				t.Logf("  %-15s valid %.3f p95 no-alb %.2f alb %.2f", e.Name, e.ValidFraction, e.ErrNoAlbedo.P95Deg, e.ErrAlbedo.P95Deg)
 			}
 		})
+	}
+}
+
+// The dawn-dusk example points +X at the sun: with ideal sensors the
+// quadrant sensors on +X see it on their boresight and the two-axis estimate
+// is exact to its inversion (closed form: the sun stays on the pointing axis).
+func TestDawnDuskSunPointingIdeal(t *testing.T) {
+	s, err := Load("../examples/dawn-dusk-12u.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg, err := s.Config()
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Duration = 6 * 3600
+	cfg.Units = 1
+	cfg.SeriesStride = 1
+	res, err := sim.Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ser := res.Nominal.Series
+	for i := range ser.T {
+		if ser.Region[i] == illum.Sunlit && (math.Abs(ser.SunBodyEl[i]) > 1e-6 || math.Abs(ser.SunBodyAz[i]) > 1e-6) {
+			t.Fatalf("sample %d: sun at az %.6f° el %.6f° in body axes, want +X (0°, 0°)", i, ser.SunBodyAz[i], ser.SunBodyEl[i])
+		}
+	}
+	for _, e := range res.Nominal.Estimators {
+		if e.Name == "two-axis" && !(e.ErrNoAlbedo.P95Deg < 0.05) {
+			t.Errorf("two-axis p95 without albedo %.4f°, want ≈ 0", e.ErrNoAlbedo.P95Deg)
+		}
 	}
 }

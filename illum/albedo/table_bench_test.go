@@ -1,0 +1,64 @@
+package albedo
+
+import (
+	"math"
+	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// orbitSuns returns n sun directions in the nadir frame of a nadir-pointing
+// spacecraft on a circular orbit with beta angle β, dt seconds apart: the
+// sun turns about the orbit normal (local y) once per orbit.
+func orbitSuns(n int, β, periodS, dt float64) []r3.Vec {
+	out := make([]r3.Vec, n)
+	sβ, cβ := math.Sincos(β)
+	for k := range out {
+		s, c := math.Sincos(2 * math.Pi * float64(k) * dt / periodS)
+		out[k] = r3.Vec{X: cβ * s, Y: sβ, Z: cβ * c}
+	}
+	return out
+}
+
+// BenchmarkLocalTable: one lookup for six face sensors along a 550 km orbit
+// (10 s steps), and the build of the default 1° table. Compare with
+// BenchmarkIrradianceSixSensors/uniform/default in the same run.
+func BenchmarkLocalTable(b *testing.B) {
+	m, err := New(Config{AltitudeKm: 550})
+	if err != nil {
+		b.Fatal(err)
+	}
+	sensors := faceSensors()
+	r := EarthRadiusKm + 550
+	tab, err := NewLocalTable(m, r, sensors, DefaultTableResDeg)
+	if err != nil {
+		b.Fatal(err)
+	}
+	orbit := orbitSuns(4096, 0.5, 5740, 10)
+	var lit []r3.Vec // the steps where some visible ground is sunlit
+	for _, s := range orbit {
+		if s.Z < tab.darkZ {
+			lit = append(lit, s)
+		}
+	}
+	lookup := func(suns []r3.Vec) func(b *testing.B) {
+		return func(b *testing.B) {
+			dst := make([]Result, len(sensors))
+			b.ReportAllocs()
+			k := 0
+			for b.Loop() {
+				tab.Irradiance(dst, suns[k%len(suns)], AUKm)
+				k++
+			}
+		}
+	}
+	b.Run("irradiance/orbit", lookup(orbit))
+	b.Run("irradiance/lit", lookup(lit))
+	b.Run("build", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := NewLocalTable(m, r, sensors, DefaultTableResDeg); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+}

@@ -109,9 +109,95 @@ func clamp1(x float64) float64 { return math.Max(-1, math.Min(1, x)) }
 // [0, 1], seen from rSat (km, geocentric, EME2000) with the sun at rSun (km,
 // geocentric, true distance), and the shadow region. The Earth is a sphere of
 // radius EarthRadiusKm; the atmosphere is ignored. It allocates nothing.
+//
+// Points that are clearly sunlit or clearly in the umbra are decided by the
+// cone test of clearRegion, without inverse trigonometry; the rest go
+// through the disc angles (shadowConicalExact). Both give the same result.
 func ShadowConical(rSat, rSun r3.Vec) (lit float64, region Region) {
+	if reg, ok := clearRegion(rSat, rSun); ok {
+		if reg == Umbra {
+			return 0, Umbra
+		}
+		return 1, Sunlit
+	}
+	return shadowConicalExact(rSat, rSun)
+}
+
+// shadowConicalExact is ShadowConical through the disc angles for every
+// point. The tests hold the fast path to it.
+func shadowConicalExact(rSat, rSun r3.Vec) (lit float64, region Region) {
 	a, b, c := discAngles(rSat, rSun)
 	return visibleFraction(a, b, c)
+}
+
+// Bounds of the region where clearRegion decides.
+const (
+	// clearMinRadius: |r| ≥ 1.001 Rₑ, i.e. at least 6.4 km above the surface.
+	clearMinRadius = 1.001 * EarthRadiusKm
+	// clearSunFactor: the sun is at least 100·(R☉ + |r|) away, which holds
+	// from the surface to beyond the umbra tip (1.38e6 km) for the true sun
+	// distance, 0.983–1.017 au.
+	clearSunFactor = 100.0
+	// clearMargin is the band half-width around each cone surface, as a
+	// fraction of |r|, left to the exact computation. Moving a point by δ
+	// across a cone changes the separation of the solar and Earth limbs by
+	// δ·cos f·(1/ℓₑ − 1/ℓ☉) ≈ δ/|r| rad, with ℓₑ, ℓ☉ the distances to the
+	// Earth and sun tangent points (ℓₑ < |r|), so the band is ≈ 1e-5 rad wide
+	// in the limb separation. Rounding in discAngles is below 2e-8 rad even
+	// where acos is worst conditioned (own estimate: √(2·2⁻⁵²)).
+	clearMargin = 1e-5
+)
+
+// clearRegion returns Sunlit or Umbra and ok when rSat is clearly so; ok is
+// false near the cone surfaces, in the penumbra, inside the Earth, close to
+// its surface and far from it.
+//
+// Shadow cones (Montenbruck & Gill 2000, §3.4.2, dual-cone geometry; closed
+// form): with D = |rSun|, the penumbra cone has its apex D·Rₑ/(R☉+Rₑ) in
+// front of the Earth and half-angle f₁, sin f₁ = (R☉+Rₑ)/D; the umbra cone
+// has its apex D·Rₑ/(R☉−Rₑ) behind the Earth and half-angle f₂,
+// sin f₂ = (R☉−Rₑ)/D. At a distance x behind the Earth along −ŝ their radii
+// are
+//
+//	ρ₁(x) = Rₑ/cos f₁ + x·tan f₁,  ρ₂(x) = Rₑ/cos f₂ − x·tan f₂.
+//
+// A point with x > 0 is sunlit outside the penumbra cone and in the umbra
+// inside the umbra cone (before its apex). The cones touch the Earth at
+// x = −Rₑ sin f₁ and x = +Rₑ sin f₂; with |r| ≥ 1.001 Rₑ and sin f₂ < 0.01 no
+// point within x < Rₑ sin f₂ is within ρ₂, so only the part of the umbra cone
+// beyond its tangent circle is ever used.
+//
+// On the day side (r·ŝ ≥ 0) the sun is more than π/2 − asin(|r|/D) from the
+// nadir, the solar disc radius a ≤ asin(R☉/(D−|r|)) and the Earth's
+// b ≤ asin(1/1.001) = π/2 − 0.0447, so c − (a+b) > 0.0447 − 0.0100 − 0.0100
+// rad under the bounds above: always sunlit (closed form).
+func clearRegion(rSat, rSun r3.Vec) (reg Region, ok bool) {
+	r2 := r3.Norm2(rSat)
+	if r2 < clearMinRadius*clearMinRadius {
+		return 0, false
+	}
+	rn := math.Sqrt(r2)
+	D := math.Sqrt(r3.Norm2(rSun))
+	if D < clearSunFactor*(SunRadiusKm+rn) {
+		return 0, false
+	}
+	x := -r3.Dot(rSat, rSun) / D // distance behind the Earth along the shadow axis
+	if x <= 0 {
+		return Sunlit, true
+	}
+	ρ2 := r2 - x*x // squared distance from the shadow axis
+	δ := clearMargin * rn
+	s1 := (SunRadiusKm + EarthRadiusKm) / D
+	c1 := math.Sqrt(1 - s1*s1)
+	if ρ1 := (EarthRadiusKm+x*s1)/c1 + δ; ρ2 > ρ1*ρ1 {
+		return Sunlit, true
+	}
+	s2 := (SunRadiusKm - EarthRadiusKm) / D
+	c2 := math.Sqrt(1 - s2*s2)
+	if ρ := (EarthRadiusKm-x*s2)/c2 - δ; ρ > 0 && ρ2 < ρ*ρ {
+		return Umbra, true
+	}
+	return 0, false
 }
 
 // shadowMargins returns two functions of position that are continuous in time

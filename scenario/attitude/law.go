@@ -62,6 +62,88 @@ func alignPair(pb, pi, sb, si r3.Vec) r3.Rotation {
 	return q
 }
 
+// alignAxes returns alignPair(primaryBody, pi, secondaryBody, si), zero body
+// axes meaning the defaults +Z and +X, by a shorter road: the two TRIAD
+// triads, the matrix C = Σ b_k i_kᵀ (Black 1964; Shuster & Oh 1981 eq. 9,
+// from memory) and its quaternion by Shepperd's method, with one square
+// root and one division per normalisation, and small values (vectors,
+// not a 3×3 array) that the compiler keeps in registers.
+// For the default axes the body triad is b = (+Z, +Y, −X) (triadBasis of
+// +Z, +X: +Z × +X = +Y, +Z × +Y = −X), so the rows of C are −i3, i2, i1.
+// Where either triad is near degenerate it calls alignPair itself.
+func alignAxes(primaryBody, pi, secondaryBody, si r3.Vec) r3.Rotation {
+	i1, i2, i3, ok := unitPair(pi, si)
+	if primaryBody == (r3.Vec{}) && secondaryBody == (r3.Vec{}) {
+		if ok {
+			return orthoToQuat(r3.Scale(-1, i3), i2, i1)
+		}
+	} else if b1, b2, b3, okB := unitPair(axisOr(primaryBody, unitZ), axisOr(secondaryBody, unitX)); ok && okB {
+		row := func(x1, x2, x3 float64) r3.Vec { // Σ_k b_k[r]·i_k
+			return r3.Add(r3.Add(r3.Scale(x1, i1), r3.Scale(x2, i2)), r3.Scale(x3, i3))
+		}
+		return orthoToQuat(row(b1.X, b2.X, b3.X), row(b1.Y, b2.Y, b3.Y), row(b1.Z, b2.Z, b3.Z))
+	}
+	return alignPair(orDefault(primaryBody, unitZ), pi, orDefault(secondaryBody, unitX), si)
+}
+
+// axisOr is v, or def when v is zero. Unlike orDefault it does not
+// normalise: unitPair does, and its parallel test does not depend on |s|.
+func axisOr(v, def r3.Vec) r3.Vec {
+	if v == (r3.Vec{}) {
+		return def
+	}
+	return v
+}
+
+// unitPair is triadBasis(p, s) with the same operations, bit for bit, save
+// the parallel test: it is made on squares, without a third square root,
+// and with a factor 2 to spare (|p̂ × s|² > 2·10⁻²⁴·|s|²), so ok is false
+// wherever triadBasis fails, and also in a thin band (10⁻¹² < |p̂ × s|/|s| ≤
+// 1.4·10⁻¹²) where it passes; the caller falls back to alignPair there.
+func unitPair(p, s r3.Vec) (t1, t2, t3 r3.Vec, ok bool) {
+	p2 := r3.Norm2(p)
+	if p2 == 0 {
+		return t1, t2, t3, false
+	}
+	t1 = r3.Scale(1/math.Sqrt(p2), p)
+	c := r3.Cross(t1, s)
+	c2 := r3.Norm2(c)
+	if !(c2 > 2e-24*r3.Norm2(s)) { // also false for NaN
+		return t1, t2, t3, false
+	}
+	t2 = r3.Scale(1/math.Sqrt(c2), c)
+	return t1, t2, r3.Cross(t1, t2), true
+}
+
+// orthoToQuat is dcmToQuat for the matrix with rows c0, c1, c2, orthonormal
+// to rounding as alignAxes builds it: the same four branches of Shepperd's
+// method (Shepperd 1978, from memory) with one division, and without the
+// final renormalisation, which would change the result by rounding only
+// (the tests hold |q| to 1 within 1e-15).
+func orthoToQuat(c0, c1, c2 r3.Vec) r3.Rotation {
+	tr := c0.X + c1.Y + c2.Z
+	var q r3.Rotation
+	switch {
+	case tr >= c0.X && tr >= c1.Y && tr >= c2.Z:
+		w := 0.5 * math.Sqrt(1+tr) // 4w² = 1 + tr
+		f := 0.25 / w
+		q = r3.Rotation{Real: w, Imag: f * (c2.Y - c1.Z), Jmag: f * (c0.Z - c2.X), Kmag: f * (c1.X - c0.Y)}
+	case c0.X >= c1.Y && c0.X >= c2.Z:
+		x := 0.5 * math.Sqrt(1+c0.X-c1.Y-c2.Z) // 4x² = 1 + 2C₁₁ − tr
+		f := 0.25 / x
+		q = r3.Rotation{Real: f * (c2.Y - c1.Z), Imag: x, Jmag: f * (c0.Y + c1.X), Kmag: f * (c0.Z + c2.X)}
+	case c1.Y >= c2.Z:
+		y := 0.5 * math.Sqrt(1-c0.X+c1.Y-c2.Z)
+		f := 0.25 / y
+		q = r3.Rotation{Real: f * (c0.Z - c2.X), Imag: f * (c0.Y + c1.X), Jmag: y, Kmag: f * (c1.Z + c2.Y)}
+	default:
+		z := 0.5 * math.Sqrt(1-c0.X-c1.Y+c2.Z)
+		f := 0.25 / z
+		q = r3.Rotation{Real: f * (c1.X - c0.Y), Imag: f * (c0.Z + c2.X), Jmag: f * (c1.Z + c2.Y), Kmag: z}
+	}
+	return canonical(q)
+}
+
 // Nadir is LVLH pointing: NadirAxis (body) toward −r/|r|, VelocityAxis
 // (body) toward the velocity within the plane perpendicular to nadir.
 // The zero value is the trade default: +Z to nadir, +X along velocity
@@ -76,8 +158,11 @@ type Nadir struct {
 
 // Attitude implements Law.
 func (n Nadir) Attitude(_ float64, s orbit.State, _ r3.Vec) r3.Rotation {
-	q := alignPair(orDefault(n.NadirAxis, unitZ), r3.Scale(-1, s.R), orDefault(n.VelocityAxis, unitX), s.V)
-	return then(q, offsetOrIdentity(n.Offset))
+	q := alignAxes(n.NadirAxis, r3.Scale(-1, s.R), n.VelocityAxis, s.V)
+	if n.Offset == (r3.Rotation{}) {
+		return q
+	}
+	return then(q, n.Offset)
 }
 
 // SunReference names the direction the secondary axis of Sun pointing is
@@ -120,12 +205,11 @@ func (l Sun) Attitude(t float64, s orbit.State, sunDir r3.Vec) r3.Rotation {
 	default:
 		ref = r3.Cross(s.R, s.V)
 	}
-	axis := orDefault(l.SunAxis, unitZ)
-	q := alignPair(axis, sunDir, orDefault(l.SecondaryAxis, unitX), ref)
+	q := alignAxes(l.SunAxis, sunDir, l.SecondaryAxis, ref)
 	if l.SpinRate == 0 && l.Phase == 0 {
 		return q
 	}
-	return then(q, frameTurn(l.Phase+l.SpinRate*t, axis))
+	return then(q, frameTurn(l.Phase+l.SpinRate*t, orDefault(l.SunAxis, unitZ)))
 }
 
 // Inertial holds a fixed body ← ECI attitude.

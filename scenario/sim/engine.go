@@ -63,6 +63,10 @@ type Config struct {
 	// this model's prediction (the "with albedo" figures become "with
 	// corrected albedo"). Two-axis sensors are not corrected.
 	NewCorrection func() (*albedo.Model, error)
+	// NoAlbedoTable turns off the precomputed albedo table that long
+	// nadir-pointing runs with a uniform albedo use instead of the cell
+	// integral (see albedotable.go).
+	NoAlbedoTable bool
 
 	// Estimators are run side by side on the same readings; the first one is
 	// the primary, used for validity gaps and the time series.
@@ -160,6 +164,12 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 		close(eclDone)
 	}()
 
+	var table *localAlbedo
+	if steps*units >= albedoTableMinSteps && !cfg.NoAlbedoTable {
+		table = buildLocalAlbedo(&cfg)
+	}
+	res.AlbedoTable = table != nil
+
 	// Each unit's errors are drawn once, before its chunks run.
 	arrays := make([]*sensor.Array, units)
 	for u := range units {
@@ -178,7 +188,7 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	for range min(workers, units*nChunks) {
 		wg.Go(func() {
 			for tk := range next {
-				a, err := runChunk(ctx, &cfg, arrays[tk.unit], tk, &done, units*steps)
+				a, err := runChunk(ctx, &cfg, arrays[tk.unit], tk, &done, units*steps, table)
 				mu.Lock()
 				if err != nil && firstErr == nil {
 					firstErr = err

@@ -32,10 +32,16 @@ type benchErr struct {
 // albedo on a 7200-cell cap). Coverage and sunlit fractions must agree to
 // 0.1 percentage point (one 10 s sample of a day is 0.012 pp).
 func TestAgainstNumpyReference(t *testing.T) {
+	defer func(n int) { albedoTableMinSteps = n }(albedoTableMinSteps)
 	for _, c := range []struct {
 		file   string
 		albedo bool
-	}{{"../../bench/ref-1d.json", false}, {"../../bench/ref-1d-albedo.json", true}} {
+		table  bool // albedo from the precomputed LVLH table
+	}{{"../../bench/ref-1d.json", false, false}, {"../../bench/ref-1d-albedo.json", true, false}, {"../../bench/ref-1d-albedo.json", true, true}} {
+		albedoTableMinSteps = 1 << 30
+		if c.table {
+			albedoTableMinSteps = 0
+		}
 		b, err := os.ReadFile(c.file)
 		if err != nil {
 			t.Fatal(err)
@@ -48,12 +54,15 @@ func TestAgainstNumpyReference(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
+		if res.AlbedoTable != c.table {
+			t.Fatalf("albedo table used: %v, want %v", res.AlbedoTable, c.table)
+		}
 		u := res.Nominal
 		const pp = 0.001
 		near := func(name string, got, want, tol float64) {
 			t.Helper()
 			if math.Abs(got-want) > tol {
-				t.Errorf("%s (albedo %v): sunsight %.6f, numpy %.6f (tolerance %g)", name, c.albedo, got, want, tol)
+				t.Errorf("%s (albedo %v, table %v): sunsight %.6f, numpy %.6f (tolerance %g)", name, c.albedo, c.table, got, want, tol)
 			}
 		}
 		near("sunlit fraction", u.SunlitFraction, ref.Sunlit, pp)

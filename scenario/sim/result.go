@@ -21,6 +21,10 @@ type Result struct {
 	Nominal      *UnitResult   // unit 0
 	Units        []*UnitResult // all units, Units[0] == Nominal
 	AcrossUnits  []AcrossUnits // one per estimator; empty with one unit
+	// AlbedoTable says the albedo came from the precomputed LVLH table
+	// (nadir pointing, uniform albedo, circular orbit) rather than the cell
+	// integral at every step.
+	AlbedoTable bool
 }
 
 // ErrorStats summarises an angle error in degrees. N = 0 means no sample

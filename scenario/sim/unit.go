@@ -34,7 +34,7 @@ func angleBetween(a, b r3.Vec) float64 {
 
 // runChunk simulates the steps [tk.k0, tk.k1) of unit tk.unit, whose
 // sensors (with their drawn errors) are arr.
-func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done *atomic.Int64, total int) (*unitAcc, error) {
+func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done *atomic.Int64, total int, table *localAlbedo) (*unitAcc, error) {
 	u := tk.unit
 	noiseSrc := rand.NewPCG(0, 0)
 	noise := rand.New(noiseSrc)
@@ -147,7 +147,9 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 				albIn[i].Normal = A.toECI(s.Mount().Boresight())
 			}
 			gmst := ephem.GMST(jdUT0 + t/86400)
-			alb.Irradiance(albOut, st.R, sunU, sunD, gmst, jd, albIn)
+			if table == nil || !table.irradiance(albOut, st, sunU, sunD) {
+				alb.Irradiance(albOut, st.R, sunU, sunD, gmst, jd, albIn)
+			}
 			if corr != nil {
 				corr.Irradiance(corrOut, st.R, sunU, sunD, gmst, jd, albIn)
 			}

@@ -174,6 +174,7 @@ type unitAcc struct {
 	track                     []r3.Vec
 	trackStride               int
 	unit                      int
+	k0                        int // first step of the piece accumulated
 	names                     []string
 }
 

@@ -13,6 +13,7 @@ import (
 	"sunsight/illum"
 	"sunsight/illum/albedo"
 	"sunsight/illum/sensor"
+	"sunsight/orbit"
 	"sunsight/scenario/attitude"
 )
 
@@ -32,81 +33,201 @@ func angleBetween(a, b r3.Vec) float64 {
 	return math.Atan2(vecNorm(r3.Cross(a, b)), r3.Dot(a, b))
 }
 
-// runChunk simulates the steps [tk.k0, tk.k1) of unit tk.unit, whose
-// sensors (with their drawn errors) are arr.
-func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done *atomic.Int64, total int, table *localAlbedo) (*unitAcc, error) {
-	u := tk.unit
-	noiseSrc := rand.NewPCG(0, 0)
-	noise := rand.New(noiseSrc)
-	n := arr.Len()
-	nEst := len(cfg.Estimators)
+// stepGeom is what one step gives before any sensor is read: it depends on
+// the orbit, the sun, the shadow and the attitude, not on which sensors fly.
+type stepGeom struct {
+	t         float64
+	region    illum.Region
+	lit       float64 // visible fraction of the solar disc
+	direct    float64 // direct solar irradiance at the spacecraft, W/m² (× lit)
+	sunBody   r3.Vec
+	nadirBody r3.Vec
+	sinBeta   float64
+}
 
-	prop := cfg.NewPropagator()
-	var alb *albedo.Model
+// geometry computes stepGeom and, with an albedo model, each sensor's albedo
+// (body axes) for the nominal boresights of a sensor list.
+type geometry struct {
+	cfg             *Config
+	prop            orbit.Propagator
+	sun             *sunCache
+	law             attitude.Law
+	eclAware        attitude.EclipseAware
+	alb, corr       *albedo.Model
+	table           *localAlbedo
+	jd0, jdUT0      float64
+	boresights      []r3.Vec
+	cosine          []bool
+	albIn           []albedo.Sensor
+	albOut, corrOut []albedo.Result
+}
+
+func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*geometry, error) {
+	g := &geometry{cfg: cfg, prop: cfg.NewPropagator(), table: table,
+		jd0: ephem.JulianDateTT(cfg.Epoch), jdUT0: ephem.JulianDateUT1(cfg.Epoch)}
+	g.sun = newSunCache(cfg.Sun, g.jd0)
+	g.law = cfg.Law
+	if cfg.LawForUnit != nil {
+		g.law = cfg.LawForUnit(u)
+	}
+	g.eclAware, _ = g.law.(attitude.EclipseAware)
+	n := arr.Len()
+	for _, s := range arr.Sensors() {
+		g.boresights = append(g.boresights, s.Mount().Boresight())
+		g.cosine = append(g.cosine, s.Kind() == sensor.KindCosine)
+	}
 	if cfg.NewAlbedo != nil {
 		m, err := cfg.NewAlbedo()
 		if err != nil {
 			return nil, err
 		}
-		alb = m
-	}
-	var corr *albedo.Model
-	if alb != nil && cfg.NewCorrection != nil {
-		m, err := cfg.NewCorrection()
-		if err != nil {
-			return nil, err
+		g.alb = m
+		if cfg.NewCorrection != nil {
+			if g.corr, err = cfg.NewCorrection(); err != nil {
+				return nil, err
+			}
 		}
-		corr = m
-	}
-	jd0 := ephem.JulianDateTT(cfg.Epoch)
-	jdUT0 := ephem.JulianDateUT1(cfg.Epoch)
-
-	// Per-step buffers, allocated once.
-	readNo := make([]sensor.Reading, n)
-	readAlb := make([]sensor.Reading, n)
-	var albIn []albedo.Sensor
-	var albOut []albedo.Result
-	var albBody []sensor.Albedo
-	var corrOut []albedo.Result
-	var sunBlocked []bool
-	if cfg.Blocked != nil {
-		sunBlocked = make([]bool, n)
-	}
-	cosine := make([]bool, n)
-	for i, s := range arr.Sensors() {
-		cosine[i] = s.Kind() == sensor.KindCosine
-	}
-	if alb != nil {
-		albIn = make([]albedo.Sensor, n)
-		albOut = make([]albedo.Result, n)
-		corrOut = make([]albedo.Result, n)
-		albBody = make([]sensor.Albedo, n)
+		g.albIn = make([]albedo.Sensor, n)
+		g.albOut = make([]albedo.Result, n)
+		g.corrOut = make([]albedo.Result, n)
 		for i, s := range arr.Sensors() {
-			albIn[i].HalfAngle = s.HalfAngle()
+			g.albIn[i].HalfAngle = s.HalfAngle()
 			if cfg.AlbedoResponse != nil {
-				albIn[i].Response = cfg.AlbedoResponse[i]
+				g.albIn[i].Response = cfg.AlbedoResponse[i]
 			}
 		}
 	}
-	sees := make([]func(r3.Vec) bool, n)
-	for i, s := range arr.Sensors() {
-		if cfg.Viewers != nil {
-			sees[i] = cfg.Viewers[i].Sees
-		} else {
-			sees[i] = s.InFOV
+	return g, nil
+}
+
+// step computes step k; with an albedo model it fills albBody (one entry per
+// sensor). It allocates nothing.
+func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
+	cfg := g.cfg
+	t := float64(k) * cfg.Step
+	st := g.prop.StateAt(t)
+	sunU, sunD := g.sun.at(t)
+	lit, region := shadow(cfg.Cylindrical, st.R, sunU, sunD)
+	var A attitudeRot
+	if g.eclAware != nil {
+		A = attitudeRot(g.eclAware.AttitudeInEclipse(t, st, sunU, region != illum.Sunlit))
+	} else {
+		A = attitudeRot(g.law.Attitude(t, st, sunU))
+	}
+	sg := stepGeom{t: t, region: region, lit: lit, direct: solarIrradiance(sunD) * lit, sunBody: A.toBody(sunU),
+		nadirBody: A.toBody(r3.Scale(-1/vecNorm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU)}
+	if g.alb == nil {
+		return sg
+	}
+	jd := g.jd0 + t/86400
+	for i, b := range g.boresights {
+		g.albIn[i].Normal = A.toECI(b)
+	}
+	gmst := ephem.GMST(g.jdUT0 + t/86400)
+	if g.table == nil || !g.table.irradiance(g.albOut, st, sunU, sunD) {
+		g.alb.Irradiance(g.albOut, st.R, sunU, sunD, gmst, jd, g.albIn)
+	}
+	if g.corr != nil {
+		g.corr.Irradiance(g.corrOut, st.R, sunU, sunD, gmst, jd, g.albIn)
+	}
+	for i := range g.albOut {
+		albBody[i] = sensor.Albedo{Irradiance: g.albOut[i].Irradiance}
+		if g.albOut[i].Irradiance > 0 {
+			albBody[i].Dir = A.toBody(g.albOut[i].Dir)
+		}
+		if g.corr != nil && g.cosine[i] {
+			albBody[i].Irradiance -= g.corrOut[i].Irradiance
 		}
 	}
+	return sg
+}
 
-	sun := newSunCache(cfg.Sun, jd0)
-	acc := newUnitAcc(cfg, arr, alb != nil, u == 0, float64(tk.k0)*cfg.Step)
-	acc.unit = u
-	law := cfg.Law
-	if cfg.LawForUnit != nil {
-		law = cfg.LawForUnit(u)
+// reader reads one unit's sensors on a step's geometry and folds the result
+// into its accumulator.
+type reader struct {
+	cfg             *Config
+	arr             *sensor.Array
+	ests            []sensor.Estimator
+	sees            []func(r3.Vec) bool
+	blocked         []func(r3.Vec) bool
+	sunBlocked      []bool
+	readNo, readAlb []sensor.Reading
+	albSeen         []sensor.Albedo
+	noiseSrc        *rand.PCG
+	noise           *rand.Rand
+	acc             *unitAcc
+	unit            int
+	withAlbedo      bool
+}
+
+func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
+	n := arr.Len()
+	r := &reader{cfg: cfg, arr: arr, ests: cfg.Estimators, blocked: cfg.Blocked, unit: u, withAlbedo: cfg.NewAlbedo != nil,
+		readNo: make([]sensor.Reading, n), readAlb: make([]sensor.Reading, n), albSeen: make([]sensor.Albedo, n)}
+	r.noiseSrc = rand.NewPCG(0, 0)
+	r.noise = rand.New(r.noiseSrc)
+	if cfg.Blocked != nil {
+		r.sunBlocked = make([]bool, n)
 	}
-	eclAware, _ := law.(attitude.EclipseAware)
-	var noiseSaved rand.PCG
+	for i, s := range arr.Sensors() {
+		if cfg.Viewers != nil {
+			r.sees = append(r.sees, cfg.Viewers[i].Sees)
+		} else {
+			r.sees = append(r.sees, s.InFOV)
+		}
+	}
+	r.acc = newUnitAcc(cfg, arr, r.withAlbedo, u == 0, float64(k0)*cfg.Step)
+	r.acc.unit, r.acc.k0 = u, k0
+	return r
+}
 
+// step reads the sensors at step k. albBody holds each sensor's albedo
+// (ignored without an albedo model). It allocates nothing unless a time
+// series is kept.
+func (r *reader) step(k int, g *stepGeom, albBody []sensor.Albedo) {
+	if k%noiseBlockSteps == 0 || k == r.acc.k0 {
+		seedNoise(r.noiseSrc, r.cfg.Seed, r.unit, k)
+	}
+	// Readings without albedo, then with it, on the same noise draws. A
+	// sensor whose view of the sun is blocked by the body gets no direct
+	// light; its albedo is dropped when the mean arrival direction is
+	// blocked (a first approximation: a partly blocked Earth is not split).
+	for i := range r.sunBlocked {
+		r.sunBlocked[i] = r.blocked[i] != nil && r.blocked[i](g.sunBody)
+	}
+	saved := *r.noiseSrc
+	readAll(r.readNo, r.arr, g.sunBody, g.direct, nil, r.noise, r.sunBlocked)
+	if r.withAlbedo {
+		for i := range r.albSeen {
+			r.albSeen[i] = albBody[i]
+			if r.blocked != nil && r.blocked[i] != nil && albBody[i].Irradiance > 0 && r.blocked[i](albBody[i].Dir) {
+				r.albSeen[i] = sensor.Albedo{}
+			}
+		}
+		*r.noiseSrc = saved
+		readAll(r.readAlb, r.arr, g.sunBody, g.direct, r.albSeen, r.noise, r.sunBlocked)
+	}
+	seen := 0
+	if g.region == illum.Sunlit {
+		for i, sees := range r.sees {
+			if sees(g.sunBody) {
+				seen++
+				r.acc.inView[i]++
+			}
+		}
+	}
+	r.acc.step(k, g.t, g.region, g.lit, seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.arr, r.ests)
+}
+
+// runChunk simulates the steps [tk.k0, tk.k1) of unit tk.unit, whose
+// sensors (with their drawn errors) are arr.
+func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done *atomic.Int64, total int, table *localAlbedo) (*unitAcc, error) {
+	g, err := newGeometry(cfg, arr, tk.unit, table)
+	if err != nil {
+		return nil, err
+	}
+	r := newReader(cfg, arr, tk.unit, tk.k0)
+	albBody := make([]sensor.Albedo, arr.Len())
 	for k := tk.k0; k < tk.k1; k++ {
 		if k&1023 == 0 && k > tk.k0 {
 			if ctx.Err() != nil {
@@ -116,77 +237,11 @@ func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done
 				cfg.Progress(float64(d) / float64(total))
 			}
 		}
-		if k == tk.k0 || k%noiseBlockSteps == 0 {
-			seedNoise(noiseSrc, cfg.Seed, u, k)
-		}
-		t := float64(k) * cfg.Step
-		st := prop.StateAt(t)
-		jd := jd0 + t/86400
-		sunU, sunD := sun.at(t)
-		lit, region := shadow(cfg.Cylindrical, st.R, sunU, sunD)
-		inEclipse := region != illum.Sunlit
-		var A attitudeRot
-		if eclAware != nil {
-			A = attitudeRot(eclAware.AttitudeInEclipse(t, st, sunU, inEclipse))
-		} else {
-			A = attitudeRot(law.Attitude(t, st, sunU))
-		}
-		sunBody := A.toBody(sunU)
-		direct := solarIrradiance(sunD) * lit
-
-		// Readings without albedo, then with it, on the same noise draws.
-		// A sensor whose view of the sun is blocked by the body gets no
-		// direct light.
-		for i := range sunBlocked {
-			sunBlocked[i] = cfg.Blocked[i] != nil && cfg.Blocked[i](sunBody)
-		}
-		noiseSaved = *noiseSrc
-		readAll(readNo, arr, sunBody, direct, nil, noise, sunBlocked)
-		if alb != nil {
-			for i, s := range arr.Sensors() {
-				albIn[i].Normal = A.toECI(s.Mount().Boresight())
-			}
-			gmst := ephem.GMST(jdUT0 + t/86400)
-			if table == nil || !table.irradiance(albOut, st, sunU, sunD) {
-				alb.Irradiance(albOut, st.R, sunU, sunD, gmst, jd, albIn)
-			}
-			if corr != nil {
-				corr.Irradiance(corrOut, st.R, sunU, sunD, gmst, jd, albIn)
-			}
-			for i := range albOut {
-				albBody[i] = sensor.Albedo{Irradiance: albOut[i].Irradiance}
-				if albOut[i].Irradiance > 0 {
-					albBody[i].Dir = A.toBody(albOut[i].Dir)
-				}
-				if corr != nil && cosine[i] {
-					albBody[i].Irradiance -= corrOut[i].Irradiance
-				}
-				// Obstructions: the albedo is dropped when its mean
-				// arrival direction is blocked (a first approximation;
-				// a partly blocked Earth is not split).
-				if cfg.Blocked != nil && cfg.Blocked[i] != nil && albOut[i].Irradiance > 0 && cfg.Blocked[i](albBody[i].Dir) {
-					albBody[i] = sensor.Albedo{}
-				}
-			}
-			*noiseSrc = noiseSaved
-			readAll(readAlb, arr, sunBody, direct, albBody, noise, sunBlocked)
-		}
-
-		seen := 0
-		if region == illum.Sunlit {
-			for i := range n {
-				if sees[i](sunBody) {
-					seen++
-					acc.inView[i]++
-				}
-			}
-		}
-		nadirBody := A.toBody(r3.Scale(-1/vecNorm(st.R), st.R))
-		sinBeta := illum.SinBetaAngle(st.R, st.V, sunU)
-		acc.step(k, t, region, lit, seen, sunBody, nadirBody, sinBeta, readNo, readAlb, arr, cfg.Estimators[:nEst])
+		sg := g.step(k, albBody)
+		r.step(k, &sg, albBody)
 	}
-	acc.end(float64(tk.k1) * cfg.Step)
-	return acc, nil
+	r.acc.end(float64(tk.k1) * cfg.Step)
+	return r.acc, nil
 }
 
 // readAll reads every sensor; blocked[i] (nil: none blocked) cuts sensor i's

@@ -31,7 +31,7 @@ func TestExamplesLoadAndMatchTemplates(t *testing.T) {
 			t.Errorf("%s: record is not a fixed point", name)
 		}
 	}
-	if len(ExampleNames()) != 3 {
+	if len(ExampleNames()) != 4 {
 		t.Errorf("examples: %v", ExampleNames())
 	}
 }

@@ -57,11 +57,15 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	}
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
+	eval, err := evaluateSubset(ctx, s)
+	if err != nil {
+		return err
+	}
 	t := s.Targets
 	res, err := layout.Search(ctx, layout.Problem{
 		Viewers: viewers, CoverageSensors: t.CoverageSensors, MinCoverage: t.MinCoverage,
 		SurviveOneFailure: t.SurviveOneFailure, MaxSensors: *maxSensors, Top: *top, Points: *points,
-		MaxEvaluations: *maxRuns, Evaluate: evaluateSubset(s),
+		MaxEvaluations: *maxRuns, Evaluate: eval,
 	})
 	if err != nil {
 		return err
@@ -136,26 +140,35 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	return nil
 }
 
-// evaluateSubset simulates a subset in the scenario's attitude and in every
-// mode, and judges min_valid_fraction, max_error_p95_deg and max_gap.
-func evaluateSubset(s *scenario.Scenario) layout.EvaluateFunc {
+// evaluateSubset scores a subset in the scenario's attitude and in every
+// mode, and judges min_valid_fraction, max_error_p95_deg and max_gap. The
+// geometry of each mode (orbit, sun, shadow, attitude, every candidate's
+// albedo) is recorded once in a sim.Trace; a subset then costs only its
+// sensor readings. A random attitude (tumble) uses the nominal draw for every
+// unit here.
+func evaluateSubset(ctx context.Context, s *scenario.Scenario) (layout.EvaluateFunc, error) {
 	atts := []scenario.Mode{{Name: "attitude", Attitude: s.Attitude}}
 	atts = append(atts, s.Modes...)
-	return func(ctx context.Context, subset []int) (layout.Score, error) {
-		list := make([]scenario.Sensor, len(subset))
-		for k, i := range subset {
-			list[k] = s.Body.Candidates[i]
+	traces := make([]*sim.Trace, len(atts))
+	configs := make([]sim.Config, len(atts))
+	for mi, m := range atts {
+		cfg, err := s.ConfigFor(s.Body.Candidates, m.Attitude)
+		if err != nil {
+			return nil, fmt.Errorf("mode %s: %w", m.Name, err)
 		}
+		cfg.LawForUnit = nil
+		if traces[mi], err = sim.NewTrace(ctx, cfg); err != nil {
+			return nil, fmt.Errorf("mode %s: %w", m.Name, err)
+		}
+		configs[mi] = cfg
+	}
+	// The traces are read-only from here on: subsets are scored in parallel.
+	return func(ctx context.Context, subset []int) (layout.Score, error) {
 		sc := layout.Score{Meets: true, Margin: math.Inf(1), P95Deg: math.NaN()}
 		var detail []string
 		t := s.Targets
-		for _, m := range atts {
-			cfg, err := s.ConfigFor(list, m.Attitude)
-			if err != nil {
-				return layout.Score{Meets: false, Margin: math.Inf(-1), P95Deg: math.NaN(), Detail: err.Error()}, nil
-			}
-			cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
-			res, err := sim.Run(ctx, cfg)
+		for mi, m := range atts {
+			res, err := traces[mi].Run(ctx, subset, configs[mi].Estimators, configs[mi].Units)
 			if err != nil {
 				return sc, err
 			}
@@ -189,5 +202,5 @@ func evaluateSubset(s *scenario.Scenario) layout.EvaluateFunc {
 		}
 		sc.Detail = strings.Join(detail, "; ")
 		return sc, nil
-	}
+	}, nil
 }

@@ -14,8 +14,13 @@
 // T∖{t} ⊇ S∖{t}), which is the bound when SurviveOneFailure is set. Only
 // subsets that pass the coverage target reach the injected, expensive
 // Evaluate (the time simulation in every attitude mode); they are evaluated
-// by increasing size, and the search stops after the first size at which Top
-// feasible subsets are known.
+// by increasing size, most coverage first, in parallel batches taken in list
+// order. Every size below the answer is evaluated in full, so the answer is
+// the fewest sensors; at that size the search stops once Top feasible subsets
+// are found, and those are the ranked alternatives (ranked by margin among
+// themselves, not over every feasible subset of the size). The cost is set by
+// how many subsets pass the coverage bound below the answer's size: a loose
+// coverage target with strict time targets means many simulations.
 //
 // # Assumptions
 //

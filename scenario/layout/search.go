@@ -4,7 +4,9 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"runtime"
 	"sort"
+	"sync"
 
 	"sunsight/illum/sky"
 )
@@ -38,6 +40,9 @@ type Problem struct {
 	Top               int // ranked alternatives wanted (0 = 5)
 	Points            int // lattice points (0 = DefaultPoints)
 	Evaluate          EvaluateFunc
+	// Workers bounds the subsets scored at once (0 = GOMAXPROCS); Evaluate
+	// must then be safe for concurrent use.
+	Workers int
 	// MaxEvaluations bounds the Evaluate calls (0 = no bound); when hit,
 	// Result.Exhausted is false.
 	MaxEvaluations int
@@ -92,61 +97,100 @@ func Search(ctx context.Context, p Problem) (Result, error) {
 	}
 	b := newBounder(p.Viewers, lat, p.CoverageSensors, p.SurviveOneFailure)
 	var res Result
-	bySize := make([][]Choice, maxS+1)
 	chosen := make([]int, 0, maxS)
-	var walk func(i int)
-	walk = func(i int) {
-		res.Visited++
-		if p.CoverageSensors > 0 && b.upper(chosen, i) < p.MinCoverage {
-			res.Pruned++
-			return
-		}
-		if i == n {
-			if len(chosen) > 0 {
+	// collect walks the subsets of exactly size sensors, pruning a branch
+	// when it cannot reach the size or, with every undecided candidate
+	// added, the coverage target; it returns those meeting the target.
+	collect := func(size int) []Choice {
+		var out []Choice
+		var walk func(i int)
+		walk = func(i int) {
+			res.Visited++
+			if len(chosen)+(n-i) < size {
+				return
+			}
+			if p.CoverageSensors > 0 && !b.canReach(chosen, i, p.MinCoverage) {
+				res.Pruned++
+				return
+			}
+			if len(chosen) == size {
 				c := b.coverage(chosen)
 				if p.CoverageSensors == 0 || c >= p.MinCoverage {
-					bySize[len(chosen)] = append(bySize[len(chosen)], Choice{Subset: append([]int(nil), chosen...), Coverage: c})
+					out = append(out, Choice{Subset: append([]int(nil), chosen...), Coverage: c})
 				}
+				return
 			}
-			return
-		}
-		if len(chosen) < maxS {
 			chosen = append(chosen, i)
 			b.add(i)
 			walk(i + 1)
 			b.remove(i)
 			chosen = chosen[:len(chosen)-1]
+			walk(i + 1)
 		}
-		walk(i + 1)
+		walk(0)
+		return out
 	}
-	walk(0)
 
 	var evaluated []Choice
 	res.Exhausted = true
+	workers := p.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	batch := 4 * workers
+sizes:
 	for size := 1; size <= maxS; size++ {
-		list := bySize[size]
+		// Sizes are walked one at a time and only up to the answer: the
+		// subsets of larger sizes are never enumerated.
+		list := collect(size)
 		// Most coverage first, then candidate order: a stable order of work.
 		sort.SliceStable(list, func(a, b int) bool { return list[a].Coverage > list[b].Coverage })
-		for k := range list {
-			if p.MaxEvaluations > 0 && res.Evaluated >= p.MaxEvaluations {
-				res.Exhausted = false
-				break
+		// Subsets are scored in batches on all workers, then taken in list
+		// order, so the outcome does not depend on the number of workers.
+		for start := 0; start < len(list); start += batch {
+			end := min(start+batch, len(list))
+			scores := make([]Score, end-start)
+			errs := make([]error, end-start)
+			var wg sync.WaitGroup
+			next := make(chan int)
+			for range min(workers, end-start) {
+				wg.Go(func() {
+					for k := range next {
+						scores[k-start], errs[k-start] = p.Evaluate(ctx, list[k].Subset)
+					}
+				})
 			}
-			if err := ctx.Err(); err != nil {
-				return res, err
+			for k := start; k < end; k++ {
+				next <- k
 			}
-			s, err := p.Evaluate(ctx, list[k].Subset)
-			if err != nil {
-				return res, fmt.Errorf("layout: subset %v: %w", list[k].Subset, err)
-			}
-			res.Evaluated++
-			list[k].Score = s
-			evaluated = append(evaluated, list[k])
-			if s.Meets {
-				res.Alternatives = append(res.Alternatives, list[k])
+			close(next)
+			wg.Wait()
+			for k := start; k < end; k++ {
+				if p.MaxEvaluations > 0 && res.Evaluated >= p.MaxEvaluations {
+					res.Exhausted = false
+					break sizes
+				}
+				if err := ctx.Err(); err != nil {
+					return res, err
+				}
+				if err := errs[k-start]; err != nil {
+					return res, fmt.Errorf("layout: subset %v: %w", list[k].Subset, err)
+				}
+				res.Evaluated++
+				list[k].Score = scores[k-start]
+				evaluated = append(evaluated, list[k])
+				if list[k].Score.Meets {
+					res.Alternatives = append(res.Alternatives, list[k])
+					// Every smaller size was exhausted, so this size is
+					// the fewest; the alternatives are the first Top
+					// feasible subsets of it in coverage order.
+					if len(res.Alternatives) >= top {
+						break sizes
+					}
+				}
 			}
 		}
-		if len(res.Alternatives) >= top || !res.Exhausted {
+		if len(res.Alternatives) > 0 {
 			break
 		}
 	}
@@ -261,6 +305,28 @@ func (b *bounder) upper(chosen []int, i int) float64 {
 		members = append(append([]int(nil), chosen...), rangeFrom(i, b.n)...)
 	}
 	return b.level(c, members)
+}
+
+// canReach reports whether upper(chosen, i) ≥ target. Without the
+// single-failure case it stops counting as soon as more points are missed
+// than the target allows, which settles most pruned branches early.
+func (b *bounder) canReach(chosen []int, i int, target float64) bool {
+	if b.survive {
+		return b.upper(chosen, i) >= target
+	}
+	np := len(b.count)
+	allowed := np - int(math.Ceil(target*float64(np)-1e-9))
+	miss := 0
+	suf := b.suffix[i]
+	for p, c := range b.count {
+		if c+suf[p] < b.k {
+			miss++
+			if miss > allowed {
+				return false
+			}
+		}
+	}
+	return true
 }
 
 // coverage is the coverage of chosen alone.

@@ -4,7 +4,6 @@ import (
 	"context"
 	"fmt"
 	"math"
-	"strings"
 	"testing"
 	"time"
 
@@ -180,19 +179,7 @@ func TestChunkedRunIndependentOfWorkers(t *testing.T) {
 		results = append(results, res)
 	}
 	// Printed with %v (NaN equals NaN there; reflect.DeepEqual would not).
-	show := func(r *Result) string {
-		var b strings.Builder
-		for _, u := range r.Units {
-			uc := *u
-			uc.Estimators = nil
-			fmt.Fprintf(&b, "%+v\n", uc)
-			for _, e := range u.Estimators {
-				e.errNo, e.errAlb = nil, nil
-				fmt.Fprintf(&b, "%+v\n", e)
-			}
-		}
-		return b.String()
-	}
+	show := showUnits
 	if a, b := show(results[0]), show(results[1]); a != b {
 		t.Fatalf("results differ between 1 and 2 workers:\n%s\n%s", a, b)
 	}

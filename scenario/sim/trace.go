@@ -1,0 +1,127 @@
+package sim
+
+import (
+	"context"
+	"fmt"
+	"math/rand/v2"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/illum/sensor"
+	"sunsight/illum/sky"
+)
+
+// Trace is the recorded geometry of a run — every step's shadow, attitude,
+// sun direction and each candidate sensor's albedo — which does not depend
+// on which of the candidates fly. A layout search records it once per
+// attitude mode and then scores many sensor subsets by replaying only the
+// sensor stage, a small fraction of the cost of a full run.
+type Trace struct {
+	cfg     Config // Array, Viewers, Blocked, AlbedoResponse: all candidates
+	geom    []stepGeom
+	albedo  [][]sensor.Albedo // [step][candidate]; nil without albedo
+	result  Result            // eclipses of the span
+	sensors []sensor.Sensor
+}
+
+// NewTrace records the geometry of cfg for all of cfg.Array's sensors (the
+// candidates). Memory grows with steps × candidates: meant for the short
+// spans of a layout search (days, not years).
+func NewTrace(ctx context.Context, cfg Config) (*Trace, error) {
+	if err := cfg.Validate(); err != nil {
+		return nil, err
+	}
+	if cfg.LawForUnit != nil {
+		return nil, fmt.Errorf("sim: a trace needs one attitude for every unit (the law is redrawn per unit)")
+	}
+	steps := cfg.Steps()
+	tr := &Trace{cfg: cfg, geom: make([]stepGeom, steps), sensors: cfg.Array.Sensors()}
+	tr.result.Steps, tr.result.StepS, tr.result.DurationS = steps, cfg.Step, cfg.Duration
+	tr.result.Eclipses, tr.result.EclipseStats = eclipses(&cfg)
+	g, err := newGeometry(&cfg, cfg.Array, 0, nil)
+	if err != nil {
+		return nil, err
+	}
+	n := cfg.Array.Len()
+	if cfg.NewAlbedo != nil {
+		tr.albedo = make([][]sensor.Albedo, steps)
+		flat := make([]sensor.Albedo, steps*n)
+		for k := range tr.albedo {
+			tr.albedo[k] = flat[k*n : (k+1)*n : (k+1)*n]
+		}
+	}
+	scratch := make([]sensor.Albedo, n)
+	for k := range steps {
+		if k&1023 == 0 && ctx.Err() != nil {
+			return nil, ctx.Err()
+		}
+		alb := scratch
+		if tr.albedo != nil {
+			alb = tr.albedo[k]
+		}
+		tr.geom[k] = g.step(k, alb)
+	}
+	return tr, nil
+}
+
+// Candidates is the number of sensors the trace was recorded for.
+func (tr *Trace) Candidates() int { return len(tr.sensors) }
+
+// Run scores the subset of candidates (indices into the trace's sensor
+// list) with the given estimators over units Monte Carlo units, as Run would
+// with only those sensors flown. The result's eclipses are the trace's.
+func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator, units int) (*Result, error) {
+	if len(subset) == 0 {
+		return nil, fmt.Errorf("sim: empty sensor subset")
+	}
+	if len(ests) == 0 {
+		return nil, fmt.Errorf("sim: no estimator")
+	}
+	cfg := tr.cfg
+	var ss []sensor.Sensor
+	var viewers []sky.Viewer
+	var blocked []func(dirBody r3.Vec) bool
+	for _, i := range subset {
+		if i < 0 || i >= len(tr.sensors) {
+			return nil, fmt.Errorf("sim: candidate %d out of range [0, %d)", i, len(tr.sensors))
+		}
+		ss = append(ss, tr.sensors[i])
+		if cfg.Viewers != nil {
+			viewers = append(viewers, cfg.Viewers[i])
+		}
+		if cfg.Blocked != nil {
+			blocked = append(blocked, cfg.Blocked[i])
+		}
+	}
+	arr, err := sensor.NewArray(ss...)
+	if err != nil {
+		return nil, err
+	}
+	cfg.Array, cfg.Viewers, cfg.Blocked, cfg.Estimators = arr, viewers, blocked, ests
+	cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
+	res := tr.result
+	res.Units = nil
+	albSub := make([]sensor.Albedo, len(subset))
+	for u := range max(units, 1) {
+		drawSrc, _ := unitSeed(cfg.Seed, u)
+		ua := arr.Draw(rand.New(drawSrc))
+		r := newReader(&cfg, ua, u, 0)
+		for k := range tr.geom {
+			if k&1023 == 0 && ctx.Err() != nil {
+				return nil, ctx.Err()
+			}
+			if tr.albedo != nil {
+				for j, i := range subset {
+					albSub[j] = tr.albedo[k][i]
+				}
+			}
+			r.step(k, &tr.geom[k], albSub)
+		}
+		r.acc.end(float64(len(tr.geom)) * cfg.Step)
+		r.acc.finish()
+		res.Units = append(res.Units, r.acc.result())
+	}
+	res.Nominal = res.Units[0]
+	res.AcrossUnits = acrossUnits(res.Units)
+	return &res, nil
+}

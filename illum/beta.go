@@ -4,6 +4,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // BetaAngle returns the sun's elevation above the orbit plane, rad, positive
@@ -17,7 +19,7 @@ func BetaAngle(r, v, sunDir r3.Vec) float64 {
 // step loop tracks extremes of sin β, which is monotonic in β).
 func SinBetaAngle(r, v, sunDir r3.Vec) float64 {
 	h := r3.Cross(r, v)
-	return clamp1(r3.Dot(h, sunDir) / (vecNorm(h) * vecNorm(sunDir)))
+	return clamp1(r3.Dot(h, sunDir) / (vecmath.Norm(h) * vecmath.Norm(sunDir)))
 }
 
 // BetaAngleElements returns the beta angle, rad, from the orbit inclination

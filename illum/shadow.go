@@ -4,6 +4,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // Radii used by the shadow models. They are defined here, with their
@@ -54,7 +56,7 @@ func (r Region) String() string {
 // (Vallado, Fundamentals of Astrodynamics and Applications, 4th ed. 2013,
 // Algorithm 34 SHADOW, cylindrical option; from memory).
 func ShadowCylindrical(rSat, sunDir r3.Vec) float64 {
-	s := vecUnit(sunDir)
+	s := vecmath.Unit(sunDir)
 	along := r3.Dot(rSat, s)
 	if along >= 0 {
 		return 1
@@ -72,8 +74,8 @@ func ShadowCylindrical(rSat, sunDir r3.Vec) float64 {
 // (3.85)–(3.87)). rSun is the geocentric sun position in km.
 func discAngles(rSat, rSun r3.Vec) (a, b, c float64) {
 	d := r3.Sub(rSun, rSat)
-	dn := vecNorm(d)
-	rn := vecNorm(rSat)
+	dn := vecmath.Norm(d)
+	rn := vecmath.Norm(rSat)
 	a = math.Asin(math.Min(1, SunRadiusKm/dn))
 	b = math.Asin(math.Min(1, EarthRadiusKm/rn))
 	cosc := -r3.Dot(rSat, d) / (rn * dn)

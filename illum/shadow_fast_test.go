@@ -6,6 +6,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // coneRadii are the penumbra and umbra cone radii at x km behind the Earth
@@ -32,7 +34,7 @@ func unitPerp(rng *rand.Rand, u r3.Vec) r3.Vec {
 	for {
 		w := randomUnit(rng)
 		p := r3.Sub(w, r3.Scale(r3.Dot(w, u), u))
-		if n := vecNorm(p); n > 0.1 {
+		if n := vecmath.Norm(p); n > 0.1 {
 			return r3.Scale(1/n, p)
 		}
 	}
@@ -69,7 +71,7 @@ func TestShadowConicalFastEqualsExact(t *testing.T) {
 				off = -off
 			}
 			sat = r3.Add(r3.Scale(-x, ŝ), r3.Scale(ρ+off, unitPerp(rng, ŝ)))
-			if r := vecNorm(sat); r < rMin || r > rMax {
+			if r := vecmath.Norm(sat); r < rMin || r > rMax {
 				sat = r3.Scale(rMin+(rMax-rMin)*rng.Float64(), randomUnit(rng))
 				kind, off = 0, 0
 			}
@@ -95,7 +97,7 @@ func TestShadowConicalFastEqualsExact(t *testing.T) {
 		if kind == 0 {
 			continue
 		}
-		rel := math.Abs(off) / vecNorm(sat)
+		rel := math.Abs(off) / vecmath.Norm(sat)
 		// Inside the band (offset below the margin, with 1% slack) the fast
 		// path must not decide.
 		if rel < 0.99*clearMargin {

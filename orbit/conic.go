@@ -6,6 +6,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // singularTol is the eccentricity (and inclination, rad) below which an orbit
@@ -68,17 +70,17 @@ func ConicFromState(s State) Conic { return conicFromState(s, MuEarth) }
 // true longitude).
 func conicFromState(s State, mu float64) Conic {
 	r, v := s.R, s.V
-	rn := vecNorm(r)
+	rn := vecmath.Norm(r)
 	h := r3.Cross(r, v) // Vallado eq. (2-81)
-	hn := vecNorm(h)
+	hn := vecmath.Norm(h)
 	// Vallado eq. (2-78): eccentricity vector.
 	ev := r3.Scale(1/mu, r3.Sub(r3.Scale(r3.Norm2(v)-mu/rn, r), r3.Scale(r3.Dot(r, v), v)))
-	e := vecNorm(ev)
+	e := vecmath.Norm(ev)
 	p := hn * hn / mu
 	i := math.Atan2(math.Hypot(h.X, h.Y), h.Z)
 	// Node vector n = ẑ × h.
 	n := r3.Vec{X: -h.Y, Y: h.X}
-	nn := vecNorm(n)
+	nn := vecmath.Norm(n)
 	equatorial := i < singularTol || math.Pi-i < singularTol
 	circular := e < singularTol
 	c := Conic{SemiLatusRectumKm: p, Eccentricity: e, Inclination: i}

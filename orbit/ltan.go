@@ -6,6 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 	"sunsight/ephem"
+	"sunsight/internal/vecmath"
 )
 
 // RAANFromLTAN returns the RAAN (rad, [0, 2π), EME2000) of the ascending
@@ -40,9 +41,9 @@ func LTANFromRAAN(raan float64, epoch time.Time) float64 {
 // along-track direction perpendicular to r). (Common practice, no source;
 // the convention of most attitude texts for nadir pointing.)
 func LVLH(s State) (x, y, z r3.Vec) {
-	z = r3.Scale(-1/vecNorm(s.R), s.R)
+	z = r3.Scale(-1/vecmath.Norm(s.R), s.R)
 	h := r3.Cross(s.R, s.V)
-	y = r3.Scale(-1/vecNorm(h), h)
+	y = r3.Scale(-1/vecmath.Norm(h), h)
 	x = r3.Cross(y, z)
 	return x, y, z
 }

@@ -4,6 +4,8 @@ import (
 	"fmt"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // NumericOptions tunes the Cowell integration of J2Numeric. Zero fields take
@@ -68,7 +70,7 @@ func NewJ2NumericFromState(s State, opt NumericOptions) (*J2Numeric, error) {
 	if c.Eccentricity >= 1 {
 		return nil, ErrNotElliptic
 	}
-	if vecNorm(s.R) < RadiusEarthKm {
+	if vecmath.Norm(s.R) < RadiusEarthKm {
 		return nil, fmt.Errorf("orbit: initial position is inside the Earth")
 	}
 	a := c.SemiLatusRectumKm / (1 - c.Eccentricity*c.Eccentricity)

@@ -7,6 +7,8 @@ import (
 
 	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // Sensor is a small flat sensor seen by the albedo model.
@@ -19,7 +21,7 @@ type Sensor struct {
 // Validate reports a sensor the model cannot use; field names the sensor in
 // the caller's terms (for example "sensors[2]").
 func (s Sensor) Validate(field string) error {
-	n := vecNorm(s.Normal)
+	n := vecmath.Norm(s.Normal)
 	if math.IsNaN(n) || math.Abs(n-1) > 1e-6 {
 		return fmt.Errorf("albedo: %s.normal has length %g: give a unit vector", field, n)
 	}
@@ -139,7 +141,7 @@ func capFrame(rSat r3.Vec, r float64) (ex, ey, ez r3.Vec) {
 	if math.Abs(ez.Z) > 0.9 {
 		ref = r3.Vec{X: 1}
 	}
-	ex = vecUnit(r3.Cross(ref, ez))
+	ex = vecmath.Unit(r3.Cross(ref, ez))
 	ey = r3.Cross(ez, ex)
 	return ex, ey, ez
 }
@@ -168,7 +170,7 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 	for i := range sensors {
 		dst[i] = Result{}
 	}
-	r := vecNorm(rSat)
+	r := vecmath.Norm(rSat)
 	if !(r > EarthRadiusKm) || !(sunDistKm > 0) {
 		return
 	}
@@ -303,7 +305,7 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) R
 	if e > 0 {
 		res.Irradiance = e
 		d := r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez))
-		res.Dir = vecUnit(d)
+		res.Dir = vecmath.Unit(d)
 	}
 	res.Fill = min(1, count*geo.cellSolidAngle/(2*math.Pi*(1-cosH)))
 	return res
@@ -315,7 +317,7 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) R
 // reflectance), through the same cells and sensor sum as Irradiance.
 // For halfAngle = π/2 it is the plane-element-to-sphere configuration factor.
 func (m *Model) ViewFactor(rSat, normal r3.Vec, halfAngle float64) float64 {
-	r := vecNorm(rSat)
+	r := vecmath.Norm(rSat)
 	if !(r > EarthRadiusKm) {
 		return 0
 	}

@@ -9,6 +9,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // localFaceSensors returns six hemispherical cosine sensors on the faces of a
@@ -20,8 +22,8 @@ func localFaceSensors() []Sensor { return faceSensors() }
 type localFrame struct{ ex, ey, ez r3.Vec }
 
 func newLocalFrame(rSat, hint r3.Vec) localFrame {
-	ez := r3.Scale(-1, vecUnit(rSat))
-	ex := vecUnit(r3.Sub(hint, r3.Scale(r3.Dot(hint, ez), ez)))
+	ez := r3.Scale(-1, vecmath.Unit(rSat))
+	ex := vecmath.Unit(r3.Sub(hint, r3.Scale(r3.Dot(hint, ez), ez)))
 	return localFrame{ex, r3.Cross(ez, ex), ez}
 }
 

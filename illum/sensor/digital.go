@@ -6,6 +6,8 @@ import (
 	"math/rand/v2"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // DigitalSpec describes a digital (aperture over a detector array) sun sensor.
@@ -93,7 +95,7 @@ func (d *Digital) inFOV(s r3.Vec) bool {
 	if d.spec.Square {
 		return math.Abs(s.X) <= d.tanMax*s.Z && math.Abs(s.Y) <= d.tanMax*s.Z
 	}
-	return s.Z >= d.cosMax*vecNorm(s)
+	return s.Z >= d.cosMax*vecmath.Norm(s)
 }
 
 // InFOV implements Sensor.
@@ -105,7 +107,7 @@ func (d *Digital) Response(dir r3.Vec) float64 {
 	if !d.inFOV(s) {
 		return 0
 	}
-	return s.Z / vecNorm(s)
+	return s.Z / vecmath.Norm(s)
 }
 
 // Read implements Sensor. The spot centroid, in tangent-plane coordinates
@@ -117,7 +119,7 @@ func (d *Digital) Response(dir r3.Vec) float64 {
 func (d *Digital) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) Reading {
 	var wSum, tx, ty float64
 	if s := d.actual.ToSensor(sun); d.inFOV(s) {
-		if e := direct * s.Z / vecNorm(s); e > 0 && e >= d.spec.MinIrradiance {
+		if e := direct * s.Z / vecmath.Norm(s); e > 0 && e >= d.spec.MinIrradiance {
 			wSum, tx, ty = e, e*s.X/s.Z, e*s.Y/s.Z
 		}
 	}
@@ -136,7 +138,7 @@ func (d *Digital) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand)
 		ax += d.spec.Sigma * noise.NormFloat64()
 		ay += d.spec.Sigma * noise.NormFloat64()
 	}
-	dir := vecUnit(r3.Vec{X: math.Tan(ax), Y: math.Tan(ay), Z: 1})
+	dir := vecmath.Unit(r3.Vec{X: math.Tan(ax), Y: math.Tan(ay), Z: 1})
 	return Reading{Signal: wSum / SolarConstant, Dir: d.spec.Mount.ToBody(dir), Valid: true}
 }
 

@@ -5,6 +5,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // Estimate is a sun direction estimated from one instant's readings.
@@ -58,7 +60,7 @@ func (e LeastSquares) Estimate(a *Array, r []Reading) Estimate {
 }
 
 func unitEstimate(x r3.Vec, n int) Estimate {
-	l := vecNorm(x)
+	l := vecmath.Norm(x)
 	if !(l > 0) || math.IsInf(l, 0) {
 		return Estimate{N: n}
 	}

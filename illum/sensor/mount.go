@@ -6,6 +6,8 @@ import (
 	"strings"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // Face names one of the six body faces of a box-shaped spacecraft.
@@ -131,10 +133,10 @@ func FaceMount(face Face, tilt float64, toward Face, clock float64) (Mount, erro
 // length > 0). Sensor X is the projection of ref on the plane normal to the
 // boresight; a zero ref picks the body axis least aligned with the boresight.
 func VectorMount(boresight, ref r3.Vec) (Mount, error) {
-	if !(vecNorm(boresight) > 0) || math.IsInf(vecNorm(boresight), 0) {
+	if !(vecmath.Norm(boresight) > 0) || math.IsInf(vecmath.Norm(boresight), 0) {
 		return Mount{}, fmt.Errorf("sensor: mount boresight %v: want a finite non-zero vector", boresight)
 	}
-	z := vecUnit(boresight)
+	z := vecmath.Unit(boresight)
 	if ref == (r3.Vec{}) {
 		ref = leastAligned(z)
 	}
@@ -154,10 +156,10 @@ func leastAligned(z r3.Vec) r3.Vec {
 
 func frameFrom(z, ref r3.Vec) (Mount, error) {
 	x := r3.Sub(ref, r3.Scale(r3.Dot(ref, z), z))
-	if vecNorm(x) < 1e-9 {
+	if vecmath.Norm(x) < 1e-9 {
 		return Mount{}, fmt.Errorf("sensor: mount reference axis %v is parallel to the boresight %v: give another reference", ref, z)
 	}
-	x = vecUnit(x)
+	x = vecmath.Unit(x)
 	y := r3.Cross(z, x)
 	return Mount{axes: [3]r3.Vec{x, y, z}, defined: true}, nil
 }
@@ -188,7 +190,7 @@ func (m Mount) ToBody(v r3.Vec) r3.Vec {
 // (rad, in sensor axes): the frame the light really meets when the unit is
 // mounted with that error.
 func (m Mount) Misaligned(phi r3.Vec) Mount {
-	a := vecNorm(phi)
+	a := vecmath.Norm(phi)
 	if a == 0 {
 		return m
 	}

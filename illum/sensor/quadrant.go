@@ -6,6 +6,8 @@ import (
 	"math/rand/v2"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // QuadrantSpec describes a four-quadrant sun sensor: a square aperture of
@@ -233,7 +235,7 @@ func (q *Quadrant) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand
 	}
 	h := q.spec.Height
 	tx, ty := -q.invert(x)/h, -q.invert(y)/h
-	out.Dir = q.spec.Mount.ToBody(vecUnit(r3.Vec{X: tx, Y: ty, Z: 1}))
+	out.Dir = q.spec.Mount.ToBody(vecmath.Unit(r3.Vec{X: tx, Y: ty, Z: 1}))
 	out.Valid = true
 	return out
 }

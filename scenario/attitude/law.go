@@ -5,6 +5,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"sunsight/internal/vecmath"
 	"sunsight/orbit"
 )
 
@@ -41,7 +42,7 @@ func orDefault(v, def r3.Vec) r3.Vec {
 	if v == (r3.Vec{}) {
 		return def
 	}
-	return vecUnit(v)
+	return vecmath.Unit(v)
 }
 
 func offsetOrIdentity(q r3.Rotation) r3.Rotation {
@@ -58,7 +59,7 @@ func alignPair(pb, pi, sb, si r3.Vec) r3.Rotation {
 	if q, ok := triad(pb, pi, sb, si); ok {
 		return q
 	}
-	q, _ := triad(pb, pi, sb, perpendicular(vecUnit(pi)))
+	q, _ := triad(pb, pi, sb, perpendicular(vecmath.Unit(pi)))
 	return q
 }
 
@@ -278,7 +279,7 @@ func NewTumble(seed uint64, maxRate float64) Tumble {
 
 // Attitude implements Law.
 func (l Tumble) Attitude(t float64, _ orbit.State, _ r3.Vec) r3.Rotation {
-	w := vecNorm(l.Rate)
+	w := vecmath.Norm(l.Rate)
 	if w == 0 {
 		return offsetOrIdentity(l.Q0)
 	}

@@ -6,6 +6,8 @@ import (
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"sunsight/internal/vecmath"
 )
 
 // Identity is the rotation that leaves every vector unchanged.
@@ -197,14 +199,14 @@ func ToEuler(seq EulerSequence, a r3.Rotation) (φ1, φ2, φ3 float64) {
 // t2 = (p × s)^, t3 = t1 × t2 (Black 1964, AIAA J. 2(7), from memory).
 // ok is false when p and s are parallel within 1e-12 (or either is zero).
 func triadBasis(p, s r3.Vec) (t1, t2, t3 r3.Vec, ok bool) {
-	np := vecNorm(p)
+	np := vecmath.Norm(p)
 	if np == 0 {
 		return t1, t2, t3, false
 	}
 	t1 = r3.Scale(1/np, p)
 	c := r3.Cross(t1, s)
-	nc := vecNorm(c)
-	if nc <= 1e-12*vecNorm(s) || nc == 0 {
+	nc := vecmath.Norm(c)
+	if nc <= 1e-12*vecmath.Norm(s) || nc == 0 {
 		return t1, t2, t3, false
 	}
 	t2 = r3.Scale(1/nc, c)
@@ -268,7 +270,7 @@ func perpendicular(u r3.Vec) r3.Vec {
 	default:
 		e = r3.Vec{Z: 1}
 	}
-	return vecUnit(r3.Cross(u, e))
+	return vecmath.Unit(r3.Cross(u, e))
 }
 
 // AngleBetween returns the rotation angle of b·a⁻¹ in [0, π] (radians).

@@ -7,6 +7,7 @@ import (
 
 	"sunsight/ephem"
 	"sunsight/illum/albedo"
+	"sunsight/internal/vecmath"
 	"sunsight/orbit"
 	"sunsight/scenario/attitude"
 )
@@ -43,13 +44,13 @@ func buildLocalAlbedo(cfg *Config) *localAlbedo {
 	}
 	p := cfg.NewPropagator()
 	s0 := p.StateAt(0)
-	r0 := vecNorm(s0.R)
+	r0 := vecmath.Norm(s0.R)
 	period := orbitPeriod(s0)
 	if math.IsNaN(period) {
 		return nil
 	}
 	for k := 1; k <= 64; k++ {
-		if math.Abs(vecNorm(p.StateAt(period*float64(k)/64).R)-r0) > albedoTableRadiusTolKm/2 {
+		if math.Abs(vecmath.Norm(p.StateAt(period*float64(k)/64).R)-r0) > albedoTableRadiusTolKm/2 {
 			return nil
 		}
 	}
@@ -79,7 +80,7 @@ func buildLocalAlbedo(cfg *Config) *localAlbedo {
 // irradiance fills dst (Dir in ECI) from the table and reports true, or
 // reports false when the spacecraft is too far from the table's radius.
 func (l *localAlbedo) irradiance(dst []albedo.Result, st orbit.State, sunU r3.Vec, sunD float64) bool {
-	if math.Abs(vecNorm(st.R)-l.rKm) > albedoTableRadiusTolKm {
+	if math.Abs(vecmath.Norm(st.R)-l.rKm) > albedoTableRadiusTolKm {
 		return false
 	}
 	x, y, z := orbit.LVLH(st)

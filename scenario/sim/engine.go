@@ -18,6 +18,7 @@ import (
 	"sunsight/illum/albedo"
 	"sunsight/illum/sensor"
 	"sunsight/illum/sky"
+	"sunsight/internal/vecmath"
 	"sunsight/orbit"
 	"sunsight/scenario/attitude"
 )
@@ -268,7 +269,7 @@ const eclipseSearchStepS = 60
 
 // orbitPeriod is the osculating period of a state (two-body energy).
 func orbitPeriod(s orbit.State) float64 {
-	r, v := vecNorm(s.R), vecNorm(s.V)
+	r, v := vecmath.Norm(s.R), vecmath.Norm(s.V)
 	a := 1 / (2/r - v*v/orbit.MuEarth)
 	if !(a > 0) {
 		return math.NaN()

@@ -28,26 +28,7 @@ func referenceCase(t testing.TB, days float64, withAlbedo bool) Config {
 		t.Fatal(err)
 	}
 	el := orbit.Elements{SemiMajorAxisKm: a, Inclination: inc, RAAN: orbit.RAANFromLTAN(10.5, epoch)}
-	var ss []sensor.Sensor
-	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
-		face, err := sensor.ParseFace(f)
-		if err != nil {
-			t.Fatal(err)
-		}
-		m, err := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
-		if err != nil {
-			t.Fatal(err)
-		}
-		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: 60 * math.Pi / 180, Threshold: 0.05})
-		if err != nil {
-			t.Fatal(err)
-		}
-		ss = append(ss, c)
-	}
-	arr, err := sensor.NewArray(ss...)
-	if err != nil {
-		t.Fatal(err)
-	}
+	arr := faceArray(t, 60)
 	cfg := Config{
 		Epoch: epoch, Duration: days * 86400, Step: 10,
 		NewPropagator: func() orbit.Propagator { return orbit.NewJ2Mean(el) },

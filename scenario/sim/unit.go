@@ -13,6 +13,7 @@ import (
 	"sunsight/illum"
 	"sunsight/illum/albedo"
 	"sunsight/illum/sensor"
+	"sunsight/internal/vecmath"
 	"sunsight/orbit"
 	"sunsight/scenario/attitude"
 )
@@ -30,7 +31,7 @@ func degOf(rad float64) float64 { return rad * 180 / math.Pi }
 // angleBetween returns the angle (rad) between two unit vectors, accurate
 // near 0 and π (atan2 of |a×b| and a·b).
 func angleBetween(a, b r3.Vec) float64 {
-	return math.Atan2(vecNorm(r3.Cross(a, b)), r3.Dot(a, b))
+	return math.Atan2(vecmath.Norm(r3.Cross(a, b)), r3.Dot(a, b))
 }
 
 // stepGeom is what one step gives before any sensor is read: it depends on
@@ -115,7 +116,7 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 		A = attitudeRot(g.law.Attitude(t, st, sunU))
 	}
 	sg := stepGeom{t: t, region: region, lit: lit, direct: solarIrradiance(sunD) * lit, sunBody: A.toBody(sunU),
-		nadirBody: A.toBody(r3.Scale(-1/vecNorm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU)}
+		nadirBody: A.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU)}
 	if g.alb == nil {
 		return sg
 	}

@@ -366,6 +366,24 @@ func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plo
 		}
 	}
 	p.Legend.Top, p.Legend.Left = true, false
+	// Head-room above the data for the legend rows (gonum legends have no
+	// background, so a line under the legend would be unreadable).
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, ln := range lines {
+		for _, v := range ln.Y {
+			if !math.IsNaN(v) && !math.IsInf(v, 0) {
+				lo, hi = math.Min(lo, v), math.Max(hi, v)
+			}
+		}
+	}
+	if lo <= hi {
+		r := hi - lo
+		if r == 0 {
+			r = math.Max(math.Abs(hi), 1)
+		}
+		p.Y.Min = lo - 0.05*r
+		p.Y.Max = hi + (0.05+0.07*float64(len(lines)))*r
+	}
 	return p, rec, nil
 }
 

@@ -8,7 +8,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"text/tabwriter"
 	"time"
@@ -106,8 +105,8 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 		return usagef("--tolerance-target %g: want a p95 error in degrees > 0", *target)
 	}
 	if *out != "" {
-		if st, err := os.Stat(*out); err != nil || !st.IsDir() {
-			return usagef("--out %s: not an existing folder; create it first", *out)
+		if err := ensureWritableDir(*out); err != nil {
+			return usagef("--out: %v", err)
 		}
 	}
 	s, err := scenario.Load(file)

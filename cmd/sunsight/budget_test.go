@@ -13,11 +13,16 @@ const budgetScenario = "../../scenario/budget/testdata/inertial-4css.yaml"
 
 func TestBudgetBadInput(t *testing.T) {
 	dir := t.TempDir()
+	// A regular file where the output folder should be: it cannot be created.
+	blocker := filepath.Join(t.TempDir(), "file")
+	if err := os.WriteFile(blocker, []byte("x"), 0o644); err != nil {
+		t.Fatal(err)
+	}
 	for _, args := range [][]string{
 		{"budget"},
 		{"budget", budgetScenario, "--units", "-3", "--out", dir},
 		{"budget", budgetScenario, "--tolerance-target", "-1", "--out", dir},
-		{"budget", budgetScenario, "--out", filepath.Join(dir, "missing")},
+		{"budget", budgetScenario, "--out", filepath.Join(blocker, "out")},
 		{"budget", "no-such-file.yaml", "--out", dir},
 	} {
 		var out, errb bytes.Buffer

@@ -8,19 +8,33 @@ import (
 	"sunsight/scenario/sim"
 )
 
+// Target keys name the requirements a scenario can state.
+const (
+	TargetValid             = "valid"               // min_valid_fraction
+	TargetErrorP95          = "error-p95"           // max_error_p95_deg
+	TargetCoverage          = "coverage"            // coverage_sensors + min_coverage
+	TargetCoverageOneFailed = "coverage-one-failed" // the same with survive_one_failure
+	TargetGap               = "gap"                 // max_gap
+)
+
 // TargetCheck is one requirement of the scenario's targets judged against a
-// run: what was required, what the run gave, and the verdict.
+// run: what was required, what the run gave, the verdict and the margin
+// (positive when met with room; relative for the error and the gap,
+// absolute for fractions).
 type TargetCheck struct {
+	Key      string
 	Label    string
 	Required string
 	Value    string
 	Pass     bool
+	Margin   float64
 }
 
 // CheckTargets judges the run's headline figures and the layout's sky
-// coverage against the scenario's targets. Error targets use the realistic
-// p95 (with albedo when an albedo model is set). A figure that is undefined
-// (no valid estimate at all) fails its target.
+// coverage against the scenario's targets. This is the one place targets are
+// judged: the summary, the report and the layout search all use it. Error
+// targets use the realistic p95 (with albedo when an albedo model is set). A
+// figure that is undefined (no valid estimate at all) fails its target.
 func (s *Scenario) CheckTargets(h sim.Headline, cov sky.Result) []TargetCheck {
 	t := s.Targets
 	var out []TargetCheck
@@ -31,34 +45,65 @@ func (s *Scenario) CheckTargets(h sim.Headline, cov sky.Result) []TargetCheck {
 		return fmt.Sprintf("%.1f %%", 100*f)
 	}
 	if t.MinValidFraction > 0 {
-		out = append(out, TargetCheck{Label: "sunlit time with a valid sun vector (" + h.Estimator + ")",
-			Required: "≥ " + pct(t.MinValidFraction), Value: pct(h.ValidFraction), Pass: h.ValidFraction >= t.MinValidFraction})
+		out = append(out, TargetCheck{Key: TargetValid, Label: "sunlit time with a valid sun vector (" + h.Estimator + ")",
+			Required: "≥ " + pct(t.MinValidFraction), Value: pct(h.ValidFraction), Pass: h.ValidFraction >= t.MinValidFraction,
+			Margin: h.ValidFraction - t.MinValidFraction})
 	}
 	if t.MaxErrorP95Rad > 0 {
 		p95 := h.P95NoAlbedoDeg
 		if !math.IsNaN(h.P95AlbedoDeg) {
 			p95 = h.P95AlbedoDeg
 		}
-		lim := t.MaxErrorP95Rad * 180 / math.Pi
-		v := "n/a"
-		if !math.IsNaN(p95) {
-			v = fmt.Sprintf("%.2f°", p95)
-		}
-		out = append(out, TargetCheck{Label: "p95 sun-vector error (" + h.Estimator + ")",
-			Required: fmt.Sprintf("≤ %.2f°", lim), Value: v, Pass: p95 <= lim})
+		out = append(out, s.checkErrorP95("p95 sun-vector error ("+h.Estimator+")", p95))
 	}
 	if t.MinCoverage > 0 && t.CoverageSensors > 0 {
 		k := min(t.CoverageSensors, sky.MaxLevel)
-		out = append(out, TargetCheck{Label: fmt.Sprintf("sky seen by ≥ %d sensors", k),
-			Required: "≥ " + pct(t.MinCoverage), Value: pct(cov.AtLeast[k]), Pass: cov.AtLeast[k] >= t.MinCoverage})
+		out = append(out, TargetCheck{Key: TargetCoverage, Label: fmt.Sprintf("sky seen by ≥ %d sensors", k),
+			Required: "≥ " + pct(t.MinCoverage), Value: pct(cov.AtLeast[k]), Pass: cov.AtLeast[k] >= t.MinCoverage,
+			Margin: cov.AtLeast[k] - t.MinCoverage})
 		if t.SurviveOneFailure {
-			out = append(out, TargetCheck{Label: fmt.Sprintf("sky seen by ≥ %d sensors, any one failed", k),
-				Required: "≥ " + pct(t.MinCoverage), Value: pct(cov.WorstOneFailed[k]), Pass: cov.WorstOneFailed[k] >= t.MinCoverage})
+			out = append(out, TargetCheck{Key: TargetCoverageOneFailed, Label: fmt.Sprintf("sky seen by ≥ %d sensors, any one failed", k),
+				Required: "≥ " + pct(t.MinCoverage), Value: pct(cov.WorstOneFailed[k]), Pass: cov.WorstOneFailed[k] >= t.MinCoverage,
+				Margin: cov.WorstOneFailed[k] - t.MinCoverage})
 		}
 	}
 	if t.MaxGap > 0 {
-		out = append(out, TargetCheck{Label: "longest sunlit gap without a valid sun vector",
-			Required: "≤ " + t.MaxGap.String(), Value: fmt.Sprintf("%.0f s", h.LongestGapS), Pass: h.LongestGapS <= t.MaxGap.Seconds()})
+		lim := t.MaxGap.Seconds()
+		out = append(out, TargetCheck{Key: TargetGap, Label: "longest sunlit gap without a valid sun vector",
+			Required: "≤ " + t.MaxGap.String(), Value: fmt.Sprintf("%.0f s", h.LongestGapS), Pass: h.LongestGapS <= lim,
+			Margin: (lim - h.LongestGapS) / lim})
 	}
 	return out
+}
+
+// checkErrorP95 judges a p95 error (degrees) against max_error_p95_deg.
+func (s *Scenario) checkErrorP95(label string, p95 float64) TargetCheck {
+	lim := s.Targets.MaxErrorP95Rad * 180 / math.Pi
+	c := TargetCheck{Key: TargetErrorP95, Label: label, Required: fmt.Sprintf("≤ %.2f°", lim), Value: "n/a",
+		Pass: p95 <= lim, Margin: math.Inf(-1)}
+	if !math.IsNaN(p95) {
+		c.Value = fmt.Sprintf("%.2f°", p95)
+		c.Margin = (lim - p95) / lim
+	}
+	return c
+}
+
+// CheckErrorP95 judges another p95 figure (for example the p95 reached by
+// 95 % of Monte Carlo units) against max_error_p95_deg; ok is false when the
+// scenario sets no error target.
+func (s *Scenario) CheckErrorP95(label string, p95Deg float64) (c TargetCheck, ok bool) {
+	if s.Targets.MaxErrorP95Rad <= 0 {
+		return TargetCheck{}, false
+	}
+	return s.checkErrorP95(label, p95Deg), true
+}
+
+// FindTarget returns the check of the given key.
+func FindTarget(checks []TargetCheck, key string) (TargetCheck, bool) {
+	for _, c := range checks {
+		if c.Key == key {
+			return c, true
+		}
+	}
+	return TargetCheck{}, false
 }

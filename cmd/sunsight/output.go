@@ -281,7 +281,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		fmt.Fprintf(w, "  %-16s %8s %7.0f s %13s %11s %12s %9s %10s\n", e.Name, pct(e.ValidFraction), e.LongestGapS,
 			deg(e.ErrNoAlbedo.P95Deg), deg(e.ErrAlbedo.P95Deg), deg(e.AlbedoPart.P95Deg), deg(mx), pct(e.FalseSunFraction))
 	}
-	fmt.Fprintf(w, "  (false sun: share of umbra time with a valid estimate made of albedo alone)\n")
+	fmt.Fprintf(w, "  (false sun: share of umbra time with a valid estimate although no direct sun reaches the sensors)\n")
 	if len(r.AcrossUnits) > 0 {
 		fmt.Fprintf(w, "\nMonte Carlo over %d units (p95 error of each unit)\n", len(r.Units))
 		for _, a := range r.AcrossUnits {

@@ -15,6 +15,7 @@ import (
 	"time"
 
 	"sunsight/illum/sky"
+	"sunsight/orbit"
 	"sunsight/scenario"
 	"sunsight/scenario/sim"
 )
@@ -253,8 +254,9 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	s, r, u := o.s, o.res, o.res.Nominal
 	fmt.Fprintf(w, "sunsight run: %s\n", s.Name)
 	fmt.Fprintf(w, "  %s for %s at %s steps (%d samples), seed %d, %d unit(s)\n", s.Epoch.Format(time.RFC3339), s.Duration, s.Step, r.Steps, s.Seed, len(r.Units))
-	fmt.Fprintf(w, "  orbit %s, %.0f km, propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
-		s.Orbit.Kind, s.Orbit.AltitudeKm, s.Orbit.Propagator, s.SunModel, s.Shadow, s.Attitude.Name, albedoLabel(s))
+	fmt.Fprintf(w, "  orbit %s, a = %.1f km (mean altitude %.0f km), e = %.4f; propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
+		s.Orbit.Kind, s.Orbit.SemiMajorAxisKm, s.Orbit.SemiMajorAxisKm-orbit.RadiusEarthKm, s.Orbit.Eccentricity,
+		s.Orbit.Propagator, s.SunModel, s.Shadow, s.Attitude.Name, albedoLabel(s))
 	es := r.EclipseStats
 	fmt.Fprintf(w, "\nIllumination\n")
 	fmt.Fprintf(w, "  sunlit %s   penumbra %s   umbra %s   beta %.1f° to %.1f°\n", pct(u.SunlitFraction), pct(u.PenumbraFraction), pct(u.UmbraFraction), u.BetaMinDeg, u.BetaMaxDeg)

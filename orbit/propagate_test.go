@@ -92,10 +92,10 @@ func TestSunSyncInclination(t *testing.T) {
 	}
 }
 
-// ISS-like rates, own calculation ([calc] in the team's reference notes,
+// Rates of a 400 km, 51.6° circular orbit, own calculation ([calc] in the team's reference notes,
 // checked here against the same closed form by hand): 400 km circular,
 // i = 51.6°: T = 92.560 min, dΩ/dt = −5.0023°/day, dω/dt = +3.7413°/day.
-func TestJ2RatesISSLike(t *testing.T) {
+func TestJ2Rates400km51deg(t *testing.T) {
 	el := Elements{SemiMajorAxisKm: RadiusEarthKm + 400, Inclination: 51.6 * deg}
 	dΩ, dω, _ := J2Rates(el)
 	check(t, "T min", Period(el.SemiMajorAxisKm)/60, 92.560, 5e-4)

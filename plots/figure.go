@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"image/color"
 	"math"
-	"os"
 	"path/filepath"
 	"strings"
 
@@ -15,6 +14,8 @@ import (
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
+
+	"sunsight/internal/atomicfile"
 )
 
 // Caption is the text printed under every figure. The caller fills it so
@@ -238,33 +239,7 @@ func Save(c *Chart, path, format string) error {
 	if err != nil {
 		return err
 	}
-	return writeFileAtomic(path, b)
-}
-
-// writeFileAtomic writes b to a temporary file next to path, then renames it.
-func writeFileAtomic(path string, b []byte) error {
-	dir := filepath.Dir(path)
-	f, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp*")
-	if err != nil {
-		return fmt.Errorf("plots: cannot write %s: %w (check that the folder exists and is writable)", path, err)
-	}
-	tmp := f.Name()
-	_, werr := f.Write(b)
-	cerr := f.Close()
-	if werr == nil {
-		werr = cerr
-	}
-	if werr == nil {
-		werr = os.Chmod(tmp, 0o644)
-	}
-	if werr == nil {
-		werr = os.Rename(tmp, path)
-	}
-	if werr != nil {
-		os.Remove(tmp)
-		return fmt.Errorf("plots: writing %s: %w", path, werr)
-	}
-	return nil
+	return atomicfile.Write(path, b)
 }
 
 // xy builds plotter.XYs from two slices, skipping pairs where either is NaN

@@ -7,6 +7,8 @@ import (
 	"html/template"
 	"io"
 	"regexp"
+
+	"sunsight/internal/atomicfile"
 )
 
 // Report is everything the HTML design-review report shows. All text is
@@ -126,5 +128,5 @@ func WriteReportFile(path string, r Report) error {
 	if err := WriteReport(&buf, r); err != nil {
 		return err
 	}
-	return writeFileAtomic(path, buf.Bytes())
+	return atomicfile.Write(path, buf.Bytes())
 }

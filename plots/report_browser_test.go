@@ -14,6 +14,8 @@ import (
 
 	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
+
+	"sunsight/internal/atomicfile"
 )
 
 var screenshot = flag.String("screenshot", "", "write a PNG screenshot of the demo report to this path")
@@ -100,7 +102,7 @@ func TestReportInBrowser(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if err := writeFileAtomic(*screenshot, png); err != nil {
+		if err := atomicfile.Write(*screenshot, png); err != nil {
 			t.Fatal(err)
 		}
 	}

@@ -6,8 +6,8 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"path/filepath"
 
+	"sunsight/internal/atomicfile"
 	"sunsight/scenario"
 )
 
@@ -37,33 +37,9 @@ func runInit(args []string, stdout, stderr io.Writer) error {
 	if _, err := os.Stat(*out); err == nil && !*force {
 		return usagef("-o: file %s exists; allowed a new path, or add -force to overwrite it", *out)
 	}
-	if err := writeAtomic(*out, text); err != nil {
+	if err := atomicfile.Write(*out, text); err != nil {
 		return err
 	}
 	fmt.Fprintf(stdout, "wrote %s (from example %s); check it with: sunsight check %s\n", *out, *example, *out)
-	return nil
-}
-
-// writeAtomic writes data to a temporary file in the target's folder and
-// renames it into place, so a failed write leaves no partial file.
-func writeAtomic(path string, data []byte) error {
-	tmp, err := os.CreateTemp(filepath.Dir(path), ".sunsight-*.tmp")
-	if err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	defer os.Remove(tmp.Name())
-	if _, err := tmp.Write(data); err != nil {
-		tmp.Close()
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	if err := tmp.Close(); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	if err := os.Chmod(tmp.Name(), 0o644); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	if err := os.Rename(tmp.Name(), path); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
 	return nil
 }

@@ -13,10 +13,10 @@ import (
 	"strings"
 
 	"sunsight/illum/sky"
+	"sunsight/internal/atomicfile"
 	"sunsight/scenario"
 	"sunsight/scenario/layout"
 	"sunsight/scenario/sim"
-	"sunsight/scenario/sweep"
 )
 
 func init() {
@@ -134,7 +134,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	path := filepath.Join(*out, "layout.json")
-	if err := sweep.WriteAtomic(path, append(data, '\n')); err != nil {
+	if err := atomicfile.Write(path, append(data, '\n')); err != nil {
 		return err
 	}
 	fmt.Fprintf(stdout, "wrote %s\n", path)

@@ -7,7 +7,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"reflect"
 	"strconv"
@@ -15,6 +14,7 @@ import (
 	"time"
 
 	"sunsight/illum/sky"
+	"sunsight/internal/atomicfile"
 	"sunsight/orbit"
 	"sunsight/scenario"
 	"sunsight/scenario/sim"
@@ -318,36 +318,6 @@ func albedoLabel(s *scenario.Scenario) string {
 	return s.Albedo.Model
 }
 
-// writeFileAtomic writes data to path through a temp file in the same
-// folder and a rename, so no partial file is ever left.
-func writeFileAtomic(path string, data []byte) error {
-	dir := filepath.Dir(path)
-	f, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
-	if err != nil {
-		return err
-	}
-	tmp := f.Name()
-	if err := f.Chmod(0o644); err != nil {
-		f.Close()
-		os.Remove(tmp)
-		return err
-	}
-	if _, err := f.Write(data); err != nil {
-		f.Close()
-		os.Remove(tmp)
-		return err
-	}
-	if err := f.Close(); err != nil {
-		os.Remove(tmp)
-		return err
-	}
-	if err := os.Rename(tmp, path); err != nil {
-		os.Remove(tmp)
-		return err
-	}
-	return nil
-}
-
 func ff(v float64, prec int) string {
 	if math.IsNaN(v) {
 		return ""
@@ -419,16 +389,16 @@ func (o *runOutput) writeCSV(dir string) error {
 		if err != nil {
 			return err
 		}
-		if err := writeFileAtomic(filepath.Join(dir, name), b); err != nil {
+		if err := atomicfile.Write(filepath.Join(dir, name), b); err != nil {
 			return err
 		}
 	}
-	if err := writeFileAtomic(filepath.Join(dir, "scenario.resolved.yaml"), o.s.Record()); err != nil {
+	if err := atomicfile.Write(filepath.Join(dir, "scenario.resolved.yaml"), o.s.Record()); err != nil {
 		return err
 	}
 	b, err := o.jsonBytes()
 	if err != nil {
 		return err
 	}
-	return writeFileAtomic(filepath.Join(dir, "run.json"), b)
+	return atomicfile.Write(filepath.Join(dir, "run.json"), b)
 }

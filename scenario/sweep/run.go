@@ -13,6 +13,7 @@ import (
 	"slices"
 	"sync"
 
+	"sunsight/internal/atomicfile"
 	"sunsight/scenario"
 	"sunsight/scenario/sim"
 )
@@ -289,29 +290,7 @@ func writeJSON(path string, v any) error {
 	if err != nil {
 		return fmt.Errorf("sweep: %w", err)
 	}
-	return WriteAtomic(path, append(data, '\n'))
-}
-
-// WriteAtomic writes data to path through a temporary file and a rename.
-func WriteAtomic(path string, data []byte) error {
-	f, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
-	if err != nil {
-		return fmt.Errorf("sweep: %w", err)
-	}
-	tmp := f.Name()
-	_, werr := f.Write(data)
-	cerr := f.Close()
-	if werr == nil {
-		werr = cerr
-	}
-	if werr == nil {
-		werr = os.Rename(tmp, path)
-	}
-	if werr != nil {
-		os.Remove(tmp)
-		return fmt.Errorf("sweep: writing %s: %w", path, werr)
-	}
-	return nil
+	return atomicfile.Write(path, append(data, '\n'))
 }
 
 // column is one headline figure.

@@ -13,6 +13,7 @@ import (
 	"strconv"
 	"strings"
 
+	"sunsight/internal/atomicfile"
 	"sunsight/plots"
 	"sunsight/scenario"
 )
@@ -56,7 +57,7 @@ func Gather(dirs []string) (Manifest, []*CaseFile, error) {
 			if k > 0 {
 				data, err := os.ReadFile(caseFile(d, i))
 				if err == nil {
-					err = WriteAtomic(caseFile(dirs[0], i), data)
+					err = atomicfile.Write(caseFile(dirs[0], i), data)
 				}
 				if err != nil {
 					return m, nil, fmt.Errorf("sweep: copying case %d: %w", i, err)
@@ -133,7 +134,7 @@ func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) error {
 	if err := Table(&buf, m, cases); err != nil {
 		return fmt.Errorf("sweep: table: %w", err)
 	}
-	if err := WriteAtomic(filepath.Join(dirs[0], "sweep.csv"), buf.Bytes()); err != nil {
+	if err := atomicfile.Write(filepath.Join(dirs[0], "sweep.csv"), buf.Bytes()); err != nil {
 		return err
 	}
 	if noPlots {

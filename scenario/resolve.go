@@ -35,7 +35,7 @@ const (
 	defaultUnits      = 1
 	defaultDecimate   = 1
 	defaultThreshold  = 0.05
-	defaultFullScale  = 1.0
+	defaultFullScale  = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
 	defaultADCBits    = 12
 	defaultMaxRate    = 10.0 // deg/s: a typical post-deployment tip-off bound
 )

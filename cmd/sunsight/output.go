@@ -291,10 +291,16 @@ func (o *runOutput) writeSummary(w io.Writer) {
 				deg(a.P50OfUnitP95Deg), deg(a.P95OfUnitP95Deg), deg(a.WorstUnitP95Deg), pct(a.MinValidFraction))
 		}
 	}
-	fmt.Fprintf(w, "\nSensors\n  %-14s %9s %12s %10s %10s\n", "sensor", "in view", "peak signal", "saturated", "false sun")
-	for _, sn := range u.Sensors {
-		fmt.Fprintf(w, "  %-14s %9s %12.3f %10s %10s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, pct(sn.SaturatedFraction), pct(sn.FalseSunFraction))
+	fmt.Fprintf(w, "\nSensors (signal 1 = normal sun at 1 AU)\n  %-14s %9s %12s %15s %10s %10s\n", "sensor", "in view", "peak signal", "full scale", "saturated", "false sun")
+	for i, sn := range u.Sensors {
+		fs := "-"
+		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
+			f := s.Body.Sensors[i].FullScale
+			fs = fmt.Sprintf("%.2f (%+.0f %%)", f, 100*(1-sn.PeakSignal/f))
+		}
+		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, pct(sn.SaturatedFraction), pct(sn.FalseSunFraction))
 	}
+	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal)\n")
 	if len(o.targets) > 0 {
 		fmt.Fprintf(w, "\nTargets\n")
 		for _, t := range o.targets {

@@ -20,9 +20,20 @@ type Report struct {
 	ScenarioRecord string
 	Mounts         []MountRow
 	Headline       []HeadlineRow
-	Figures        []Figure
-	Assumptions    []Assumption
-	Notes          []string
+	// Tables are further plain tables shown after the headline and mount
+	// tables (for example the estimators side by side, the sensors).
+	Tables      []Table
+	Figures     []Figure
+	Assumptions []Assumption
+	Notes       []string
+}
+
+// Table is a plain table of text cells; every column after the first is
+// aligned right (they hold figures).
+type Table struct {
+	Title  string
+	Header []string
+	Rows   [][]string
 }
 
 // MountRow is one sensor of the layout.

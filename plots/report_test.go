@@ -91,3 +91,18 @@ func TestWriteReportRejects(t *testing.T) {
 		t.Fatal(err)
 	}
 }
+
+func TestReportTables(t *testing.T) {
+	var b bytes.Buffer
+	r := Report{Title: "t", Tables: []Table{{Title: "Estimators side by side", Header: []string{"estimator", "valid"},
+		Rows: [][]string{{"least-squares <x>", "95.0 %"}}}}}
+	if err := WriteReport(&b, r); err != nil {
+		t.Fatal(err)
+	}
+	h := b.String()
+	for _, want := range []string{"<h2>Estimators side by side</h2>", "<th scope=\"col\">valid</th>", "<td>least-squares &lt;x&gt;</td>", "<td>95.0 %</td>"} {
+		if !strings.Contains(h, want) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+}

@@ -160,7 +160,7 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 		r.Figures = append(r.Figures, plots.Figure{Title: f.Title, Caption: text, SVG: svg})
 	}
 	r.Assumptions = assumptions(s)
-	r.Notes = append(r.Notes, estimatorNotes(res)...)
+	r.Tables = append(r.Tables, estimatorTable(res), sensorTable(s, res))
 	r.Notes = append(r.Notes, Skipped(res)...)
 	r.Notes = append(r.Notes,
 		"Coverage figures are fractions of the whole body-frame sphere (Fibonacci lattice of "+fmt.Sprint(sky.DefaultPoints)+
@@ -283,27 +283,45 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 	return rows, nil
 }
 
-// estimatorNotes lists the estimators side by side, one note each.
-func estimatorNotes(res *sim.Result) []string {
-	var out []string
+// estimatorTable lists the estimators side by side on the same readings.
+func estimatorTable(res *sim.Result) plots.Table {
+	t := plots.Table{Title: "Sun-vector estimators side by side (same readings)",
+		Header: []string{"estimator", "valid (% of sunlit)", "valid without albedo", "p95 without albedo (deg)",
+			"p95 with albedo (deg)", "albedo part p95 (deg)", "longest gap (s)", "gaps", "p95 reached by 95 % of units (deg)"}}
 	for j, e := range res.Nominal.Estimators {
-		role := ""
+		name := e.Name
 		if j == 0 {
-			role = " (primary)"
+			name += " (primary)"
 		}
-		s := fmt.Sprintf("Estimator %s%s: valid %s %% of sunlit time (%s %% without albedo), error p95 %s° without albedo",
-			e.Name, role, pct(e.ValidFraction), pct(e.ValidFractionNoAlbedo), num(e.ErrNoAlbedo.P95Deg, 2))
-		if e.ErrAlbedo.N > 0 {
-			s += fmt.Sprintf(", %s° with albedo (albedo part p95 %s°)", num(e.ErrAlbedo.P95Deg, 2), num(e.AlbedoPart.P95Deg, 2))
-		}
-		s += fmt.Sprintf(", longest gap %s s, %d gaps", num(e.LongestGapS, 0), len(e.Gaps))
+		units := "—"
 		if j < len(res.AcrossUnits) {
-			au := res.AcrossUnits[j]
-			s += fmt.Sprintf(", unit p95 median %s° / 95 %% %s° / worst %s°", num(au.P50OfUnitP95Deg, 2), num(au.P95OfUnitP95Deg, 2), num(au.WorstUnitP95Deg, 2))
+			units = num(res.AcrossUnits[j].P95OfUnitP95Deg, 2)
 		}
-		out = append(out, s+".")
+		with, part := "—", "—"
+		if e.ErrAlbedo.N > 0 {
+			with, part = num(e.ErrAlbedo.P95Deg, 2), num(e.AlbedoPart.P95Deg, 2)
+		}
+		t.Rows = append(t.Rows, []string{name, pct(e.ValidFraction), pct(e.ValidFractionNoAlbedo), num(e.ErrNoAlbedo.P95Deg, 2),
+			with, part, num(e.LongestGapS, 0), fmt.Sprint(len(e.Gaps)), units})
 	}
-	return out
+	return t
+}
+
+// sensorTable lists each sensor's time in view, peak signal against its full
+// scale, saturation and false sun.
+func sensorTable(s *scenario.Scenario, res *sim.Result) plots.Table {
+	t := plots.Table{Title: "Sensors (signal 1 = normal sun at 1 AU)",
+		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal", "full scale", "margin above peak", "saturated (% of time)", "false sun (% of umbra)"}}
+	for i, sn := range res.Nominal.Sensors {
+		fs, margin := "—", "—"
+		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
+			f := s.Body.Sensors[i].FullScale
+			fs, margin = num(f, 2), fmt.Sprintf("%.0f %%", 100*(1-sn.PeakSignal/f))
+		}
+		t.Rows = append(t.Rows, []string{sn.Name, pct(sn.InViewFraction), num(sn.PeakSignal, 3), fs, margin,
+			pct(sn.SaturatedFraction), pct(sn.FalseSunFraction)})
+	}
+	return t
 }
 
 func assumptions(s *scenario.Scenario) []plots.Assumption {
@@ -313,8 +331,8 @@ func assumptions(s *scenario.Scenario) []plots.Assumption {
 		"j2-numeric": "Cowell integration of point mass + J2 with adaptive Dormand–Prince 5(4) (Dormand & Prince 1980), started from the osculating state of the mean elements",
 	}
 	sunSrc := map[string]string{
-		"low-precision": "low-precision solar coordinates, about 0.01°; J. Meeus, Astronomical Algorithms, 2nd ed., 1998, ch. 25",
-		"meeus":         "solar coordinates of J. Meeus, Astronomical Algorithms, 2nd ed., 1998, ch. 25 (higher accuracy series)",
+		"low-precision": "low-precision formulas for the Sun of The Astronomical Almanac (stated 0.01°, 1950–2050), precessed to EME2000 with IAU 1976 precession (Lieske et al. 1977); checked against IAU SOFA/ERFA to 0.0101°",
+		"meeus":         "J. Meeus, Astronomical Algorithms, 2nd ed., 1998, ch. 25 (low-accuracy theory) via github.com/soniakeys/meeus/v3, on the J2000 equinox; checked against IAU SOFA/ERFA to 0.0091°",
 	}
 	shadowSrc := map[string]string{
 		"conical":     "conical Earth shadow with umbra and penumbra; O. Montenbruck and E. Gill, Satellite Orbits, 2000, §3.4",

@@ -52,19 +52,25 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 	if !(*ecc >= 0 && *ecc < 1) {
 		return usagef("--ecc %g: eccentricity must be in [0, 1)", *ecc)
 	}
-	if *ltan == "" {
-		return usagef("--ltan is required (local time of the ascending node, HH:MM, e.g. 10:30)")
+	// The local time of the node (and the epoch it needs) is required for a
+	// sun-synchronous orbit; with --inclination-deg it is optional and only
+	// adds the RAAN.
+	if *ltan == "" && math.IsNaN(*incl) {
+		return usagef("--ltan is required for a sun-synchronous orbit (local time of the ascending node, HH:MM, e.g. 10:30); or give --inclination-deg")
 	}
-	ltanH, err := parseClock(*ltan)
-	if err != nil {
-		return usagef("--ltan %q: %v", *ltan, err)
-	}
-	if *epochS == "" {
-		return usagef("--epoch is required (UTC, RFC 3339, e.g. 2027-03-20T12:00:00Z)")
-	}
-	epoch, err := time.Parse(time.RFC3339, *epochS)
-	if err != nil {
-		return usagef("--epoch %q: not an RFC 3339 time; write e.g. 2027-03-20T12:00:00Z", *epochS)
+	var ltanH float64
+	var epoch time.Time
+	if *ltan != "" {
+		var err error
+		if ltanH, err = parseClock(*ltan); err != nil {
+			return usagef("--ltan %q: %v", *ltan, err)
+		}
+		if *epochS == "" {
+			return usagef("--epoch is required with --ltan (UTC, RFC 3339, e.g. 2027-03-20T12:00:00Z)")
+		}
+		if epoch, err = time.Parse(time.RFC3339, *epochS); err != nil {
+			return usagef("--epoch %q: not an RFC 3339 time; write e.g. 2027-03-20T12:00:00Z", *epochS)
+		}
 	}
 	a := orbit.RadiusEarthKm + *alt
 	if rp := a * (1 - *ecc); rp < orbit.RadiusEarthKm {
@@ -80,7 +86,10 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 	} else if ssoErr != nil {
 		return usagef("--altitude-km %g: %v; give --inclination-deg", *alt, ssoErr)
 	}
-	el := orbit.Elements{SemiMajorAxisKm: a, Eccentricity: *ecc, Inclination: inc, RAAN: orbit.RAANFromLTAN(ltanH, epoch)}
+	el := orbit.Elements{SemiMajorAxisKm: a, Eccentricity: *ecc, Inclination: inc}
+	if *ltan != "" {
+		el.RAAN = orbit.RAANFromLTAN(ltanH, epoch)
+	}
 	dΩ, dω, dM := orbit.J2Rates(el)
 	const degPerDay = 180 / math.Pi * 86400
 	fmt.Fprintf(stdout, "semi-major axis        %.3f km (mean)\n", a)
@@ -91,7 +100,9 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 		fmt.Fprintf(stdout, "sun-synchronous incl.  %.3f deg\n", sso*180/math.Pi)
 	}
 	fmt.Fprintf(stdout, "inclination            %.3f deg\n", inc*180/math.Pi)
-	fmt.Fprintf(stdout, "RAAN (EME2000)         %.3f deg at %s for LTAN %s\n", el.RAAN*180/math.Pi, epoch.UTC().Format(time.RFC3339), formatClock(ltanH))
+	if *ltan != "" {
+		fmt.Fprintf(stdout, "RAAN (EME2000)         %.3f deg at %s for LTAN %s\n", el.RAAN*180/math.Pi, epoch.UTC().Format(time.RFC3339), formatClock(ltanH))
+	}
 	fmt.Fprintf(stdout, "nodal drift            %+.5f deg/day\n", dΩ*degPerDay)
 	fmt.Fprintf(stdout, "perigee drift          %+.5f deg/day\n", dω*degPerDay)
 	fmt.Fprintf(stdout, "mean-anomaly rate      %.5f deg/day (J2 part %+.5f)\n", dM*degPerDay, (dM-2*math.Pi/orbit.Period(a))*degPerDay)

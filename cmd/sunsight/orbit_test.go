@@ -72,3 +72,15 @@ func TestOrbitCommandErrors(t *testing.T) {
 		t.Errorf("-help: exit %d, stderr %q", code, errb.String())
 	}
 }
+
+// With an inclination the local time is optional: the rates are printed
+// without a RAAN.
+func TestOrbitInclinationWithoutLTAN(t *testing.T) {
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"orbit", "--altitude-km", "420", "--inclination-deg", "51.6"}, &out, &errb); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	if strings.Contains(out.String(), "RAAN") || !strings.Contains(out.String(), "nodal drift") {
+		t.Errorf("output:\n%s", out.String())
+	}
+}

@@ -224,8 +224,9 @@ type Output struct {
 	Figures  []string
 }
 
-// Figure names.
-var figureNames = []string{"eclipse", "visibility", "coverage", "error", "albedo", "gaps", "sky"}
+// Figure names (the review figures: sky coverage map, timeline of the first
+// orbits, year view of beta and eclipses, error distribution, sunlit gaps).
+var figureNames = []string{"sky", "timeline", "year", "error", "gaps"}
 
 // Record returns the whole resolved scenario as YAML with every default
 // written out, for the run's record; loading it gives the same scenario.

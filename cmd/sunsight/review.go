@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"slices"
 
 	"sunsight/plots"
 	"sunsight/scenario"
@@ -12,9 +13,16 @@ import (
 // writeReview draws the design-review figures of a run and writes them as
 // files (plotsDir) and/or binds them into the HTML report.
 func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, plotsDir string) error {
-	figs, err := review.Figures(s, cfg, res)
+	all, err := review.Figures(s, cfg, res)
 	if err != nil {
 		return fmt.Errorf("figures: %w", err)
+	}
+	// output.figures chooses the figures (all of them by default).
+	var figs []review.Named
+	for _, f := range all {
+		if slices.Contains(s.Output.Figures, f.Name) {
+			figs = append(figs, f)
+		}
 	}
 	if plotsDir != "" {
 		if err := review.WritePlots(plotsDir, figs, []string{"png", "svg"}); err != nil {

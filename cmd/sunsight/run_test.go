@@ -93,3 +93,28 @@ func TestRunCSV(t *testing.T) {
 		t.Errorf("series.csv header: %.80s", b)
 	}
 }
+
+// output.figures chooses the figures written by --plots.
+func TestRunPlotsHonoursOutputFigures(t *testing.T) {
+	dir := t.TempDir()
+	src, err := os.ReadFile("../../examples/nadir-6u-sso.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	scen := filepath.Join(dir, "s.yaml")
+	if err := os.WriteFile(scen, append(src, []byte("output:\n  figures: [sky, gaps]\n")...), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"run", "-quiet", "-duration", "3h", "-plots", filepath.Join(dir, "figs"), scen}, &out, &errb); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	ents, _ := os.ReadDir(filepath.Join(dir, "figs"))
+	var names []string
+	for _, e := range ents {
+		names = append(names, e.Name())
+	}
+	if got := strings.Join(names, " "); got != "gaps.png gaps.svg sky.png sky.svg" {
+		t.Errorf("figures written: %s", got)
+	}
+}

@@ -280,6 +280,12 @@ func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 		if cos >= 3 {
 			f.Estimators = append(f.Estimators, "least-squares")
 		}
+		// Too few sensors for any estimate: least squares still runs and
+		// reports that it never has a valid sun vector (coverage figures
+		// are unaffected).
+		if len(f.Estimators) == 0 {
+			f.Estimators = append(f.Estimators, "least-squares")
+		}
 	}
 	seen := map[string]bool{}
 	for i, e := range f.Estimators {

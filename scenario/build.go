@@ -122,7 +122,14 @@ func (s *Scenario) buildLaw(l Law, path string) (attitude.Law, error) {
 		}
 		return n, nil
 	case LawSun:
-		return attitude.Sun{SunAxis: l.PointAxis, SecondaryAxis: l.AlignAxis, Reference: attitude.TowardOrbitNormal,
+		ref := attitude.TowardOrbitNormal
+		switch l.AlignTo {
+		case AlignNadir:
+			ref = attitude.TowardNadir
+		case AlignInertial:
+			ref = attitude.TowardInertial
+		}
+		return attitude.Sun{SunAxis: l.PointAxis, SecondaryAxis: l.AlignAxis, Reference: ref, InertialDir: l.AlignInertial,
 			SpinRate: l.RateRadS, Phase: l.ClockRad}, nil
 	case LawInertial:
 		q, err := s.orientation(l, path)

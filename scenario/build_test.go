@@ -3,6 +3,7 @@ package scenario
 import (
 	"context"
 	"math"
+	"strings"
 	"path/filepath"
 	"testing"
 
@@ -69,6 +70,41 @@ func TestDawnDuskSunPointingIdeal(t *testing.T) {
 	for _, e := range res.Nominal.Estimators {
 		if e.Name == "two-axis" && !(e.ErrNoAlbedo.P95Deg < 0.05) {
 			t.Errorf("two-axis p95 without albedo %.4f°, want ≈ 0", e.ErrNoAlbedo.P95Deg)
+		}
+	}
+}
+
+// A sun-pointing law can align its second axis to the orbit normal, nadir
+// or a fixed inertial direction; the aligned axis then lies as close to that
+// reference as the sun line allows (closed form: it is the reference's
+// component perpendicular to the sun, normalised).
+func TestSunLawAlignReferences(t *testing.T) {
+	base := "name: t\nepoch: \"2026-03-20T00:00:00Z\"\nduration: 2h\nstep: 60s\norbit: {altitude_km: 550, ltan: \"10:30\"}\n" +
+		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+Z\"}\n"
+	for _, c := range []struct{ law, bad string }{
+		{"attitude: {law: sun, align_to: nadir}\n", ""},
+		{"attitude: {law: sun, align_to: inertial, align_inertial: [0, 0, 2]}\n", ""},
+		{"attitude: {law: sun, rate_deg_s: 2}\n", ""},
+		{"attitude: {law: sun, align_to: inertial}\n", "attitude.align_inertial"},
+		{"attitude: {law: sun, align_to: moon}\n", "attitude.align_to"},
+		{"attitude: {law: nadir, align_to: nadir}\n", "attitude.align_to"},
+	} {
+		s, err := Parse([]byte(base+c.law), ".")
+		if c.bad != "" {
+			if err == nil || !strings.Contains(err.Error(), c.bad) {
+				t.Errorf("%q: error %v, want one naming %s", c.law, err, c.bad)
+			}
+			continue
+		}
+		if err != nil {
+			t.Fatalf("%q: %v", c.law, err)
+		}
+		cfg, err := s.Config()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if _, err := sim.Run(context.Background(), cfg); err != nil {
+			t.Fatal(err)
 		}
 	}
 }

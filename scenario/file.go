@@ -41,6 +41,8 @@ type fileLaw struct {
 	Law            string    `yaml:"law,omitempty"`
 	PointAxis      string    `yaml:"point_axis,omitempty"`
 	AlignAxis      string    `yaml:"align_axis,omitempty"`
+	AlignTo        string    `yaml:"align_to,omitempty"`
+	AlignInertial  []float64 `yaml:"align_inertial,omitempty"`
 	RollOffsetDeg  *float64  `yaml:"roll_offset_deg,omitempty"`
 	PitchOffsetDeg *float64  `yaml:"pitch_offset_deg,omitempty"`
 	YawOffsetDeg   *float64  `yaml:"yaw_offset_deg,omitempty"`

@@ -355,7 +355,21 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
 		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, "+X")
 		out.ClockRad = r.angle(path+".clock_deg", setDefault(&l.ClockDeg, 0), -360, 360)
-		used["point_axis"], used["align_axis"], used["clock_deg"] = true, true, true
+		r.choice(path+".align_to", &l.AlignTo, AlignOrbitNormal, []string{AlignOrbitNormal, AlignNadir, AlignInertial})
+		out.AlignTo = l.AlignTo
+		if l.AlignTo == AlignInertial {
+			v := r.vec(path+".align_inertial", l.AlignInertial, r3.Vec{})
+			if n := r3.Norm(v); !(n > 0) || math.IsInf(n, 0) {
+				r.fail(path+".align_inertial", "value is missing or zero; allowed a direction [x, y, z] in EME2000 when align_to is inertial")
+			} else {
+				out.AlignInertial = r3.Scale(1/n, v)
+			}
+			used["align_inertial"] = true
+		}
+		rate := setDefault(&l.RateDegS, 0)
+		r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s (spin about the sun line)")
+		out.RateRadS = rate * deg
+		used["point_axis"], used["align_axis"], used["clock_deg"], used["align_to"], used["rate_deg_s"] = true, true, true, true, true
 	case LawInertial, LawSpin:
 		r.orientation(path, l, &out)
 		used["quaternion"], used["euler_deg"], used["euler_sequence"] = true, true, true
@@ -377,8 +391,9 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		"pitch_offset_deg": l.PitchOffsetDeg != nil, "yaw_offset_deg": l.YawOffsetDeg != nil, "clock_deg": l.ClockDeg != nil,
 		"quaternion": l.Quaternion != nil, "euler_deg": l.EulerDeg != nil, "euler_sequence": l.EulerSequence != "",
 		"spin_axis": l.SpinAxis != "", "rate_deg_s": l.RateDegS != nil, "max_rate_deg_s": l.MaxRateDegS != nil,
+		"align_to": l.AlignTo != "", "align_inertial": l.AlignInertial != nil,
 	}
-	for _, k := range []string{"point_axis", "align_axis", "roll_offset_deg", "pitch_offset_deg", "yaw_offset_deg", "clock_deg", "quaternion", "euler_deg", "euler_sequence", "spin_axis", "rate_deg_s", "max_rate_deg_s"} {
+	for _, k := range []string{"point_axis", "align_axis", "roll_offset_deg", "pitch_offset_deg", "yaw_offset_deg", "clock_deg", "quaternion", "euler_deg", "euler_sequence", "spin_axis", "rate_deg_s", "max_rate_deg_s", "align_to", "align_inertial"} {
 		if given[k] && !used[k] {
 			r.fail(path+"."+k, "value does not apply to law %q; allowed only that law's keys", l.Law)
 		}

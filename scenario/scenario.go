@@ -75,6 +75,11 @@ type Law struct {
 	// AlignAxis is the body axis brought closest to the velocity (nadir) or to
 	// the orbit normal (sun).
 	PointAxis, AlignAxis r3.Vec
+	// AlignTo is what a sun law brings AlignAxis closest to: the orbit
+	// normal (default), nadir, or the fixed inertial direction AlignInertial
+	// (unit, EME2000).
+	AlignTo       string
+	AlignInertial r3.Vec
 	// RollRad, PitchRad, YawRad offset the nadir attitude from LVLH (3-2-1).
 	RollRad, PitchRad, YawRad float64
 	// ClockRad turns the sun-pointing attitude about the sun line.
@@ -90,6 +95,13 @@ type Law struct {
 	RateRadS      float64
 	MaxRateRadS   float64 // tumble law: the largest initial body rate drawn
 }
+
+// Sun-law alignment references.
+const (
+	AlignOrbitNormal = "orbit-normal"
+	AlignNadir       = "nadir"
+	AlignInertial    = "inertial"
+)
 
 // Attitude is the pointing of a run: a Law, or a schedule of two laws.
 type Attitude struct {

@@ -3,8 +3,8 @@ package scenario
 import (
 	"context"
 	"math"
-	"strings"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"sunsight/illum"

@@ -16,6 +16,7 @@ import (
 	"sunsight/internal/atomicfile"
 	"sunsight/plots"
 	"sunsight/scenario"
+	"sunsight/scenario/sim"
 )
 
 // Gather reads every case of the sweep in dirs (one folder, or the folders of
@@ -78,7 +79,7 @@ func Gather(dirs []string) (Manifest, []*CaseFile, error) {
 
 // Table writes the sweep table: one row per case in case order, the varied
 // inputs then the headline columns (names carry units), floats with six
-// decimals, NaN where a figure is undefined.
+// decimals, counts as whole numbers, NaN where a figure is undefined.
 func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 	cw := csv.NewWriter(w)
 	names := HeadlineNames()
@@ -86,13 +87,21 @@ func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 	if err := cw.Write(append(head, names...)); err != nil {
 		return err
 	}
+	isInt := map[string]bool{}
+	for _, c := range headlineColumns(sim.Headline{}) {
+		isInt[c.name] = c.isInt
+	}
 	for _, cf := range cases {
 		row := []string{strconv.Itoa(cf.Index), strconv.FormatUint(cf.Seed, 10)}
 		for _, in := range cf.Inputs {
 			row = append(row, in.Value)
 		}
 		for _, n := range names {
-			row = append(row, cell(cf.Headline[n]))
+			v := cf.Headline[n]
+			if x, ok := v.(float64); ok && isInt[n] {
+				v = int64(x) // counts print as whole numbers
+			}
+			row = append(row, cell(v))
 		}
 		if err := cw.Write(row); err != nil {
 			return err

@@ -113,6 +113,10 @@ func (a *Array) Read(dst []Reading, sun r3.Vec, direct float64, alb []Albedo, no
 		if alb != nil {
 			al = alb[i]
 		}
+		if c, ok := s.(*Cosine); ok {
+			c.readInto(&dst[i], sun, direct, al.Irradiance, noise)
+			continue
+		}
 		dst[i] = s.Read(sun, direct, al, noise)
 	}
 }

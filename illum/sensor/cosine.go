@@ -138,10 +138,18 @@ func (c *Cosine) response(cosTheta float64) float64 {
 
 // Read implements Sensor.
 func (c *Cosine) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) Reading {
-	e := direct*c.response(r3.Dot(c.actual.Boresight(), sun)) + alb.Irradiance
+	var r Reading
+	c.readInto(&r, sun, direct, alb.Irradiance, noise)
+	return r
+}
+
+// readInto is Read writing into a caller's reading: the array's loop calls
+// it directly, without the interface call and the copy of a whole Reading.
+func (c *Cosine) readInto(r *Reading, sun r3.Vec, direct, albIrr float64, noise *rand.Rand) {
+	e := direct*c.response(r3.Dot(c.actual.Boresight(), sun)) + albIrr
 	v := (1+c.unit.gain[0])*e/c.spec.RefIrradiance + c.unit.dark[0]
 	v, sat := c.spec.Errors.convert(v, noise)
-	return Reading{Signal: v, Valid: v > 0 && v >= c.spec.Threshold, Saturated: sat}
+	*r = Reading{Signal: v, Valid: v > 0 && v >= c.spec.Threshold, Saturated: sat}
 }
 
 // Draw implements Sensor.

@@ -16,9 +16,10 @@ func (m *Moments) Add(x float64) {
 	m.N++
 	if m.N == 1 {
 		m.Min, m.Max = x, x
-	} else {
-		m.Min = math.Min(m.Min, x)
-		m.Max = math.Max(m.Max, x)
+	} else if x < m.Min {
+		m.Min = x
+	} else if x > m.Max {
+		m.Max = x
 	}
 	d := x - m.mean
 	m.mean += d / float64(m.N)

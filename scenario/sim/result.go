@@ -232,7 +232,9 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	anyFalse := false
 	for i := range real {
 		r := &real[i]
-		a.peak[i] = math.Max(a.peak[i], r.Signal)
+		if r.Signal > a.peak[i] {
+			a.peak[i] = r.Signal
+		}
 		if r.Saturated {
 			a.saturated[i]++
 		}

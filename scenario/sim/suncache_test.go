@@ -2,9 +2,14 @@ package sim
 
 import (
 	"math"
+	"math/rand/v2"
 	"testing"
 
+	"gonum.org/v1/gonum/spatial/r3"
+
 	"sunsight/ephem"
+	"sunsight/internal/vecmath"
+	"sunsight/scenario/attitude"
 )
 
 // The interpolated sun stays within 1e-8 rad and 10 m of the ephemeris it
@@ -23,4 +28,22 @@ func TestSunCacheMatchesEphemeris(t *testing.T) {
 		t.Fatalf("worst %g rad, %g km", worstAng, worstD)
 	}
 	t.Logf("worst interpolation error %.2g rad, %.2g km", worstAng, worstD)
+}
+
+// The attitude matrix rotates like the quaternion it comes from (gonum's
+// r3.Rotation is the reference), both ways.
+func TestBodyMatrixMatchesQuaternion(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	for range 1000 {
+		q := attitude.UniformRotation(rng)
+		A := attitudeRot(q)
+		M := A.matrix()
+		v := r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()}
+		if d := vecmath.Norm(r3.Sub(M.toBody(v), A.toBody(v))); d > 1e-14*vecmath.Norm(v) {
+			t.Fatalf("toBody differs by %g", d)
+		}
+		if d := vecmath.Norm(r3.Sub(M.toECI(v), A.toECI(v))); d > 1e-14*vecmath.Norm(v) {
+			t.Fatalf("toECI differs by %g", d)
+		}
+	}
 }

@@ -20,9 +20,10 @@ type refCase struct {
 	dir                                r3.Vec // mean arrival direction, local frame
 }
 
-func readReference(t testing.TB) []refCase {
+// readCSV reads a generator's CSV output ('#' lines are comments).
+func readCSV(t testing.TB, path string) [][]string {
 	t.Helper()
-	f, err := os.Open("testdata/albedo_ref.csv")
+	f, err := os.Open(path)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -33,6 +34,12 @@ func readReference(t testing.TB) []refCase {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return recs
+}
+
+func readReference(t testing.TB) []refCase {
+	t.Helper()
+	recs := readCSV(t, "testdata/albedo_ref.csv")
 	var out []refCase
 	for _, rec := range recs[1:] {
 		v := parseRow(t, rec)
@@ -154,17 +161,7 @@ func TestConvergence(t *testing.T) {
 // brute force with the Knocke albedo at t0 (testdata/albedo_zonal_ref.csv):
 // spacecraft at geocentric latitude φ, local frame x north, y = z × x.
 func TestZonalAgainstReference(t *testing.T) {
-	f, err := os.Open("testdata/albedo_zonal_ref.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	cr := csv.NewReader(f)
-	cr.Comment = '#'
-	recs, err := cr.ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	recs := readCSV(t, "testdata/albedo_zonal_ref.csv")
 	m, err := New(Config{Reflectance: KnockeZonal()})
 	if err != nil {
 		t.Fatal(err)

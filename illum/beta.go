@@ -5,7 +5,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 // BetaAngle returns the sun's elevation above the orbit plane, rad, positive

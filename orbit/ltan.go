@@ -4,9 +4,9 @@ import (
 	"math"
 	"time"
 
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"gonum.org/v1/gonum/spatial/r3"
-	"sunsight/ephem"
-	"sunsight/internal/vecmath"
 )
 
 // RAANFromLTAN returns the RAAN (rad, [0, 2π), EME2000) of the ascending

@@ -15,7 +15,7 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 )
 
 // Caption is the text printed under every figure. The caller fills it so

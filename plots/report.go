@@ -8,7 +8,7 @@ import (
 	"io"
 	"regexp"
 
-	"sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 )
 
 // Report is everything the HTML design-review report shows. All text is

@@ -15,7 +15,7 @@ import (
 	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
 
-	"sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 )
 
 var screenshot = flag.String("screenshot", "", "write a PNG screenshot of the demo report to this path")

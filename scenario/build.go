@@ -8,13 +8,13 @@ import (
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/illum/albedo"
-	"sunsight/illum/sensor"
-	"sunsight/illum/sky"
-	"sunsight/orbit"
-	"sunsight/scenario/attitude"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // MeanElements returns the orbit's mean Keplerian elements at the epoch:

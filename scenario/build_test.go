@@ -7,8 +7,8 @@ import (
 	"strings"
 	"testing"
 
-	"sunsight/illum"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // Every bundled example builds and runs (a few orbits).

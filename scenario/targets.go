@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"math"
 
-	"sunsight/illum/sky"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // Target keys name the requirements a scenario can state.

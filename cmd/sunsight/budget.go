@@ -12,9 +12,9 @@ import (
 	"text/tabwriter"
 	"time"
 
-	"sunsight/plots"
-	"sunsight/scenario"
-	"sunsight/scenario/budget"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/budget"
 )
 
 func init() {

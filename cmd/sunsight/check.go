@@ -6,7 +6,7 @@ import (
 	"fmt"
 	"io"
 
-	"sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 func init() {

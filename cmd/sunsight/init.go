@@ -7,8 +7,8 @@ import (
 	"io"
 	"os"
 
-	"sunsight/internal/atomicfile"
-	"sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 func init() {

@@ -12,11 +12,11 @@ import (
 	"path/filepath"
 	"strings"
 
-	"sunsight/illum/sky"
-	"sunsight/internal/atomicfile"
-	"sunsight/scenario"
-	"sunsight/scenario/layout"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/layout"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 func init() {

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"time"
 
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 func init() {

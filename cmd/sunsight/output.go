@@ -13,11 +13,11 @@ import (
 	"strings"
 	"time"
 
-	"sunsight/illum/sky"
-	"sunsight/internal/atomicfile"
-	"sunsight/orbit"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // schemaVersion numbers the layout of the JSON record.

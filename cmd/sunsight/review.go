@@ -4,10 +4,10 @@ import (
 	"fmt"
 	"slices"
 
-	"sunsight/plots"
-	"sunsight/scenario"
-	"sunsight/scenario/review"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/review"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // writeReview draws the design-review figures of a run and writes them as

@@ -11,8 +11,8 @@ import (
 	"path/filepath"
 	"strings"
 
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 func init() {

@@ -13,8 +13,8 @@ import (
 	"strings"
 	"sync/atomic"
 
-	"sunsight/plots"
-	"sunsight/scenario/sweep"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario/sweep"
 )
 
 func init() {

@@ -8,7 +8,7 @@ import (
 	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 // Sensor is a small flat sensor seen by the albedo model.

@@ -10,7 +10,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 // localFaceSensors returns six hemispherical cosine sensors on the faces of a

@@ -7,7 +7,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 // DigitalSpec describes a digital (aperture over a detector array) sun sensor.

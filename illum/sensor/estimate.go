@@ -6,7 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 // Estimate is a sun direction estimated from one instant's readings.

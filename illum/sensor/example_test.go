@@ -6,7 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 // Six cosine sensors on a cube, sun on +X, albedo of 10 % of the direct sun

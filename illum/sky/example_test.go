@@ -6,7 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/illum/sky"
 )
 
 // Six sensors of 60° half-angle on the faces of a cube-shaped body: the

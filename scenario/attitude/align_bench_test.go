@@ -5,7 +5,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 // triadNadir and triadSun are the laws as built before alignAxes, for the

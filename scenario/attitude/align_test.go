@@ -7,7 +7,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 // nadirTriad is Nadir.Attitude as it was built before alignAxes: TRIAD on

@@ -6,8 +6,8 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/orbit"
-	"sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario/attitude"
 )
 
 // Nadir pointing on an invented circular orbit: the body +Z axis points

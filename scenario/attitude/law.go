@@ -5,8 +5,8 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/internal/vecmath"
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 // Law gives the spacecraft attitude along the trajectory.

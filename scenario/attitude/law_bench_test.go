@@ -6,7 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 var sinkRotation r3.Rotation

@@ -8,7 +8,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 // randomStates returns invented LEO-like states (demo data).

@@ -4,7 +4,7 @@ import (
 	"context"
 	"testing"
 
-	"sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 // BenchmarkBootstrap is the bootstrap of a budget with 8 sources and 64 units.

@@ -5,10 +5,10 @@ import (
 	"fmt"
 	"math"
 
-	"sunsight/illum/albedo"
-	"sunsight/orbit"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // DefaultMaxDurationS caps the budget's runs (6 h, about four low orbits):

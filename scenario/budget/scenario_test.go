@@ -5,7 +5,7 @@ import (
 	"math"
 	"testing"
 
-	"sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 func loadRunner(t *testing.T, edit func(*scenario.Scenario)) *Runner {

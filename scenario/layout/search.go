@@ -8,7 +8,7 @@ import (
 	"sort"
 	"sync"
 
-	"sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/illum/sky"
 )
 
 // MaxCandidates is the most candidates Search accepts.

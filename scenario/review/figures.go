@@ -12,13 +12,13 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/illum"
-	"sunsight/illum/sky"
-	"sunsight/orbit"
-	"sunsight/plots"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // Named is one figure of a run: Name is the file stem ("sky", "timeline",

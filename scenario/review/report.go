@@ -7,10 +7,10 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/illum/sky"
-	"sunsight/plots"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // orbitText describes the orbit in a few words.

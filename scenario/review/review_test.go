@@ -10,10 +10,10 @@ import (
 	"testing"
 	"time"
 
-	"sunsight/illum/sky"
-	"sunsight/plots"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // -render DIR writes the PNGs and report of every bundled example (one day

@@ -5,11 +5,11 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/illum/albedo"
-	"sunsight/internal/vecmath"
-	"sunsight/orbit"
-	"sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario/attitude"
 )
 
 // albedoTableMinSteps is the run length (steps × units) from which a

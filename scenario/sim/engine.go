@@ -13,14 +13,14 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/illum"
-	"sunsight/illum/albedo"
-	"sunsight/illum/sensor"
-	"sunsight/illum/sky"
-	"sunsight/internal/vecmath"
-	"sunsight/orbit"
-	"sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario/attitude"
 )
 
 // Config is everything one simulation needs, already built into physics

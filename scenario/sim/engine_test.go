@@ -9,12 +9,12 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/illum"
-	"sunsight/illum/albedo"
-	"sunsight/illum/sensor"
-	"sunsight/orbit"
-	"sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario/attitude"
 )
 
 // referenceCase builds the bench reference case (bench/README.md): a 550 km

@@ -5,8 +5,8 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 // BenchmarkGridYear fills one year at 10 s (3.15 M steps) with the j2-mean

@@ -6,8 +6,8 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/illum"
-	"sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 // Result is the outcome of a run: the eclipses of the orbit, the nominal

@@ -1,7 +1,7 @@
 package sim
 
 import (
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 // rewindable returns a propagator that serves requests going a little back

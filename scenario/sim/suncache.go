@@ -5,7 +5,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/ephem"
 )
 
 // sunKnotS is the spacing of the sun evaluations the step loop interpolates

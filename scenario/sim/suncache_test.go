@@ -7,9 +7,9 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/internal/vecmath"
-	"sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/scenario/attitude"
 )
 
 // The interpolated sun stays within 1e-8 rad and 10 m of the ephemeris it

@@ -7,8 +7,8 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/illum/sensor"
-	"sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sky"
 )
 
 // Trace is the recorded geometry of a run — every step's shadow, attitude,

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 // showUnits prints unit results with %v (NaN equals NaN there).

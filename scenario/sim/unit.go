@@ -9,13 +9,13 @@ import (
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"sunsight/ephem"
-	"sunsight/illum"
-	"sunsight/illum/albedo"
-	"sunsight/illum/sensor"
-	"sunsight/internal/vecmath"
-	"sunsight/orbit"
-	"sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario/attitude"
 )
 
 // solarIrradiance returns the direct solar irradiance (W/m²) at a distance

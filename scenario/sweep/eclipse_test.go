@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit"
 )
 
 // eclipseBase is an equatorial orbit started at the March 2026 equinox

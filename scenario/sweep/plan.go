@@ -7,7 +7,7 @@ import (
 
 	"go.yaml.in/yaml/v3"
 
-	"sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 // Plan is a checked sweep: the base scenario text, its axes and every case's

@@ -13,9 +13,9 @@ import (
 	"slices"
 	"sync"
 
-	"sunsight/internal/atomicfile"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // RunFunc simulates one case with the given seed. RunCase is the real one;

@@ -10,9 +10,9 @@ import (
 	"sync/atomic"
 	"testing"
 
-	"sunsight/plots"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // base is a small, fast scenario: tumbling (so the seed matters), no albedo.

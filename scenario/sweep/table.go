@@ -13,10 +13,10 @@ import (
 	"strconv"
 	"strings"
 
-	"sunsight/internal/atomicfile"
-	"sunsight/plots"
-	"sunsight/scenario"
-	"sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // Gather reads every case of the sweep in dirs (one folder, or the folders of

@@ -13,7 +13,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/orbit"
-	"codeberg.org/sunsight/sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 

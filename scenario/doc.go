@@ -1,6 +1,6 @@
 // Package scenario turns a scenario file into a validated, unit-converted and
 // defaulted Go value (Scenario); a separate build step maps it onto the
-// physics objects of orbit, ephem, illum and scenario/attitude.
+// physics objects of orbit, orbit/attitude, ephem and illum.
 //
 // # Model
 //

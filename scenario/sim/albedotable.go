@@ -9,7 +9,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"codeberg.org/sunsight/sunsight/orbit"
-	"codeberg.org/sunsight/sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // albedoTableMinSteps is the run length (steps × units) from which a

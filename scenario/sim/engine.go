@@ -20,7 +20,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"codeberg.org/sunsight/sunsight/orbit"
-	"codeberg.org/sunsight/sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // Config is everything one simulation needs, already built into physics

@@ -14,7 +14,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/orbit"
-	"codeberg.org/sunsight/sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // referenceCase builds the bench reference case (bench/README.md): a 550 km

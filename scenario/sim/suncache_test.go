@@ -9,7 +9,7 @@ import (
 
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
-	"codeberg.org/sunsight/sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // The interpolated sun stays within 1e-8 rad and 10 m of the ephemeris it

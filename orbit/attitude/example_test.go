@@ -7,7 +7,7 @@ import (
 	"gonum.org/v1/gonum/spatial/r3"
 
 	"codeberg.org/sunsight/sunsight/orbit"
-	"codeberg.org/sunsight/sunsight/scenario/attitude"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // Nadir pointing on an invented circular orbit: the body +Z axis points

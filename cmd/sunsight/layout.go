@@ -1,6 +1,7 @@
 package main
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"encoding/json"
 	"flag"
@@ -52,7 +53,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	if len(cands) > layout.MaxCandidates {
 		return usagef("body.candidates has %d entries; the exact search takes at most %d", len(cands), layout.MaxCandidates)
 	}
-	_, viewers, _, err := s.BuildSensors(cands, "body.candidates")
+	_, viewers, _, err := study.BuildSensors(s, cands, "body.candidates")
 	if err != nil {
 		return usageError{err}
 	}
@@ -153,7 +154,7 @@ func evaluateSubset(ctx context.Context, s *scenario.Scenario) (layout.EvaluateF
 	traces := make([]*sim.Trace, len(atts))
 	configs := make([]sim.Config, len(atts))
 	for mi, m := range atts {
-		cfg, err := s.ConfigFor(s.Body.Candidates, m.Attitude)
+		cfg, err := study.ConfigFor(s, s.Body.Candidates, m.Attitude)
 		if err != nil {
 			return nil, fmt.Errorf("mode %s: %w", m.Name, err)
 		}
@@ -182,8 +183,8 @@ func evaluateSubset(ctx context.Context, s *scenario.Scenario) (layout.EvaluateF
 			}
 			// The time targets, judged as everywhere else; coverage is the
 			// search's own bound.
-			for _, c := range s.CheckTargets(h, sky.Result{}) {
-				if c.Key == scenario.TargetCoverage || c.Key == scenario.TargetCoverageOneFailed {
+			for _, c := range study.CheckTargets(s, h, sky.Result{}) {
+				if c.Key == study.TargetCoverage || c.Key == study.TargetCoverageOneFailed {
 					continue
 				}
 				sc.Meets = sc.Meets && c.Pass

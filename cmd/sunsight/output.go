@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"encoding/csv"
 	"encoding/json"
 	"fmt"
@@ -32,7 +33,7 @@ type runOutput struct {
 	version string
 	cov     sky.Result
 	covErr  error
-	targets []scenario.TargetCheck
+	targets []study.TargetCheck
 }
 
 func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
@@ -42,7 +43,7 @@ func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, versio
 		o.cov, err = sky.Coverage(cfg.Viewers, lat)
 	}
 	o.covErr = err
-	o.targets = s.CheckTargets(res.Headline(), o.cov)
+	o.targets = study.CheckTargets(s, res.Headline(), o.cov)
 	return o
 }
 

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"errors"
 	"flag"
@@ -120,7 +121,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 			return usageError{err}
 		}
 	}
-	cfg, err := s.Config()
+	cfg, err := study.Config(s)
 	if err != nil {
 		return usageError{fmt.Errorf("%s: %w", file, err)}
 	}

@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"fmt"
 	"math"
@@ -179,7 +180,7 @@ func (r *Runner) sensors(c Case) []scenario.Sensor {
 
 // Config builds the simulation of one case.
 func (r *Runner) Config(c Case) (sim.Config, error) {
-	cfg, err := r.s.ConfigFor(r.sensors(c), r.s.Attitude)
+	cfg, err := study.ConfigFor(r.s, r.sensors(c), r.s.Attitude)
 	if err != nil {
 		return cfg, err
 	}

@@ -1,6 +1,7 @@
 package review
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"errors"
 	"fmt"
@@ -260,7 +261,7 @@ func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 // orbit (j2-mean propagator of its mean elements, its sun model), one per day
 // from t0 seconds after the epoch (t0 may be negative).
 func YearTable(s *scenario.Scenario, t0 float64, days int) ([]illum.DayRow, error) {
-	el, err := s.MeanElements()
+	el, err := study.MeanElements(s)
 	if err != nil {
 		return nil, err
 	}

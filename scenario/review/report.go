@@ -1,6 +1,7 @@
 package review
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"fmt"
 	"math"
 	"strings"
@@ -17,7 +18,7 @@ import (
 func orbitText(s *scenario.Scenario) string {
 	o := s.Orbit
 	inc := o.InclinationRad
-	if el, err := s.MeanElements(); err == nil {
+	if el, err := study.MeanElements(s); err == nil {
 		inc = el.Inclination
 	}
 	switch o.Kind {
@@ -214,9 +215,9 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 		return nil, fmt.Errorf("review: %w", err)
 	}
 	// The verdicts come from the scenario's one target judge.
-	checks := s.CheckTargets(h, cov)
+	checks := study.CheckTargets(s, h, cov)
 	judge := func(r *plots.HeadlineRow, key string) {
-		if c, ok := scenario.FindTarget(checks, key); ok {
+		if c, ok := study.FindTarget(checks, key); ok {
 			r.Target, r.Pass = c.Required, verdict(c.Pass)
 		}
 	}
@@ -233,12 +234,12 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 	}
 
 	valid := row("Valid sun vector ("+e.Name+")", pct(e.ValidFraction), "% of sunlit time")
-	judge(&valid, scenario.TargetValid)
+	judge(&valid, study.TargetValid)
 	rows = append(rows, valid)
 
 	p95, which := realisticP95(e)
 	errRow := row("Sun-vector error p95 ("+which+")", num(p95, 2), "deg")
-	judge(&errRow, scenario.TargetErrorP95)
+	judge(&errRow, study.TargetErrorP95)
 	rows = append(rows, errRow, row("Sun-vector error p95 without albedo", num(e.ErrNoAlbedo.P95Deg, 2), "deg"))
 	if e.AlbedoPart.N > 0 {
 		rows = append(rows, row("Error added by albedo p95", num(e.AlbedoPart.P95Deg, 2), "deg"))
@@ -250,14 +251,14 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 	if len(res.AcrossUnits) > 0 {
 		au := res.AcrossUnits[0]
 		u := row(fmt.Sprintf("p95 error reached by 95 %% of %d units", len(res.Units)), num(au.P95OfUnitP95Deg, 2), "deg")
-		if c, ok := s.CheckErrorP95(u.Label, au.P95OfUnitP95Deg); ok {
+		if c, ok := study.CheckErrorP95(s, u.Label, au.P95OfUnitP95Deg); ok {
 			u.Target, u.Pass = c.Required, verdict(c.Pass)
 		}
 		rows = append(rows, u)
 	}
 
 	gap := row("Longest sunlit gap", num(e.LongestGapS, 0), "s")
-	judge(&gap, scenario.TargetGap)
+	judge(&gap, study.TargetGap)
 	rows = append(rows, gap)
 
 	k := t.CoverageSensors
@@ -267,7 +268,7 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 	for lvl := 1; lvl <= sky.MaxLevel; lvl++ {
 		c := row(fmt.Sprintf("Sky seen by ≥ %d sensor(s)", lvl), pct(cov.AtLeast[lvl]), "% of sphere")
 		if lvl == k {
-			judge(&c, scenario.TargetCoverage)
+			judge(&c, study.TargetCoverage)
 		}
 		rows = append(rows, c)
 	}
@@ -277,7 +278,7 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 			crit = cfg.Array.Sensors()[i].Name()
 		}
 		f := row(fmt.Sprintf("Sky seen by ≥ %d with the worst sensor failed (%s)", k, crit), pct(cov.WorstOneFailed[k]), "% of sphere")
-		judge(&f, scenario.TargetCoverageOneFailed)
+		judge(&f, study.TargetCoverageOneFailed)
 		rows = append(rows, f)
 	}
 	return rows, nil

@@ -2,6 +2,7 @@ package review
 
 import (
 	"bytes"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"flag"
 	"os"
@@ -28,7 +29,7 @@ func shortRun(t *testing.T, name string, span time.Duration, units int) (*scenar
 		t.Fatal(err)
 	}
 	s.Duration = scenario.Span(span)
-	cfg, err := s.Config()
+	cfg, err := study.Config(s)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -119,7 +120,7 @@ func TestVerdictsFollowTargets(t *testing.T) {
 	p95 := e.ErrAlbedo.P95Deg * 3.141592653589793 / 180
 	// Coverage verdicts depend on the viewers only: three face sensors
 	// leave part of the sphere unseen, so both verdicts can occur.
-	cfg3, err := s.ConfigFor(s.Body.Sensors[:3], s.Attitude)
+	cfg3, err := study.ConfigFor(s, s.Body.Sensors[:3], s.Attitude)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -1,6 +1,7 @@
 package sweep
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"encoding/json"
 	"errors"
@@ -25,7 +26,7 @@ type RunFunc func(ctx context.Context, s *scenario.Scenario, seed uint64) (sim.H
 // RunCase builds the case's simulation with one worker and the derived seed
 // and returns its headline.
 func RunCase(ctx context.Context, s *scenario.Scenario, seed uint64) (sim.Headline, error) {
-	cfg, err := s.Config()
+	cfg, err := study.Config(s)
 	if err != nil {
 		return sim.Headline{}, err
 	}

@@ -1,6 +1,7 @@
-package scenario
+package study
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario"
 	"fmt"
 	"math"
 	"os"
@@ -20,11 +21,11 @@ import (
 // MeanElements returns the orbit's mean Keplerian elements at the epoch:
 // sun-synchronous orbits get their inclination from the J2 condition and their
 // RAAN from the local time of the ascending node (mean sun).
-func (s *Scenario) MeanElements() (orbit.Elements, error) {
+func MeanElements(s *scenario.Scenario) (orbit.Elements, error) {
 	o := s.Orbit
 	el := orbit.Elements{SemiMajorAxisKm: o.SemiMajorAxisKm, Eccentricity: o.Eccentricity,
 		Inclination: o.InclinationRad, RAAN: o.RAANRad, ArgPerigee: o.ArgPerigeeRad, MeanAnomaly: o.MeanAnomalyRad}
-	if o.Kind == OrbitSunSync {
+	if o.Kind == scenario.OrbitSunSync {
 		inc, err := orbit.SunSyncInclination(o.SemiMajorAxisKm, o.Eccentricity)
 		if err != nil {
 			return el, fmt.Errorf("orbit.altitude_km: %g: %w", o.AltitudeKm, err)
@@ -40,8 +41,8 @@ func (s *Scenario) MeanElements() (orbit.Elements, error) {
 
 // NewPropagator returns the factory of fresh propagators for the scenario's
 // orbit and propagator choice.
-func (s *Scenario) NewPropagator() (func() orbit.Propagator, error) {
-	el, err := s.MeanElements()
+func NewPropagator(s *scenario.Scenario) (func() orbit.Propagator, error) {
+	el, err := MeanElements(s)
 	if err != nil {
 		return nil, err
 	}
@@ -72,34 +73,34 @@ func (s *Scenario) NewPropagator() (func() orbit.Propagator, error) {
 }
 
 // AttitudeLaw builds the scenario's attitude law.
-func (s *Scenario) AttitudeLaw() (attitude.Law, error) {
-	return s.buildAttitude(s.Attitude, "attitude")
+func AttitudeLaw(s *scenario.Scenario) (attitude.Law, error) {
+	return buildAttitude(s, s.Attitude, "attitude")
 }
 
 // ModeLaw builds the attitude law of a named mode.
-func (s *Scenario) ModeLaw(m Mode) (attitude.Law, error) {
-	return s.buildAttitude(m.Attitude, "modes."+m.Name)
+func ModeLaw(s *scenario.Scenario, m scenario.Mode) (attitude.Law, error) {
+	return buildAttitude(s, m.Attitude, "modes."+m.Name)
 }
 
-func (s *Scenario) buildAttitude(a Attitude, path string) (attitude.Law, error) {
-	if a.Name == LawSchedule {
+func buildAttitude(s *scenario.Scenario, a scenario.Attitude, path string) (attitude.Law, error) {
+	if a.Name == scenario.LawSchedule {
 		if a.InSunlight == nil || a.InEclipse == nil {
 			return nil, fmt.Errorf("%s: a schedule needs in_sunlight and in_eclipse laws", path)
 		}
-		lit, err := s.buildLaw(*a.InSunlight, path+".in_sunlight")
+		lit, err := buildLaw(s, *a.InSunlight, path+".in_sunlight")
 		if err != nil {
 			return nil, err
 		}
-		dark, err := s.buildLaw(*a.InEclipse, path+".in_eclipse")
+		dark, err := buildLaw(s, *a.InEclipse, path+".in_eclipse")
 		if err != nil {
 			return nil, err
 		}
 		return attitude.Schedule{Sunlit: lit, Eclipse: dark}, nil
 	}
-	return s.buildLaw(a.Law, path)
+	return buildLaw(s, a.Law, path)
 }
 
-func (s *Scenario) orientation(l Law, path string) (r3.Rotation, error) {
+func orientation(s *scenario.Scenario, l scenario.Law, path string) (r3.Rotation, error) {
 	if l.EulerSequence != "" {
 		seq, err := attitude.ParseEulerSequence(l.EulerSequence)
 		if err != nil {
@@ -113,32 +114,32 @@ func (s *Scenario) orientation(l Law, path string) (r3.Rotation, error) {
 	return r3.Rotation(l.Orientation), nil
 }
 
-func (s *Scenario) buildLaw(l Law, path string) (attitude.Law, error) {
+func buildLaw(s *scenario.Scenario, l scenario.Law, path string) (attitude.Law, error) {
 	switch l.Name {
-	case LawNadir:
+	case scenario.LawNadir:
 		n := attitude.Nadir{NadirAxis: l.PointAxis, VelocityAxis: l.AlignAxis}
 		if l.RollRad != 0 || l.PitchRad != 0 || l.YawRad != 0 {
 			n.Offset = attitude.FromEuler(attitude.Seq321, l.YawRad, l.PitchRad, l.RollRad)
 		}
 		return n, nil
-	case LawSun:
+	case scenario.LawSun:
 		ref := attitude.TowardOrbitNormal
 		switch l.AlignTo {
-		case AlignNadir:
+		case scenario.AlignNadir:
 			ref = attitude.TowardNadir
-		case AlignInertial:
+		case scenario.AlignInertial:
 			ref = attitude.TowardInertial
 		}
 		return attitude.Sun{SunAxis: l.PointAxis, SecondaryAxis: l.AlignAxis, Reference: ref, InertialDir: l.AlignInertial,
 			SpinRate: l.RateRadS, Phase: l.ClockRad}, nil
-	case LawInertial:
-		q, err := s.orientation(l, path)
+	case scenario.LawInertial:
+		q, err := orientation(s, l, path)
 		if err != nil {
 			return nil, err
 		}
 		return attitude.Inertial{Q: q}, nil
-	case LawSpin:
-		q, err := s.orientation(l, path)
+	case scenario.LawSpin:
+		q, err := orientation(s, l, path)
 		if err != nil {
 			return nil, err
 		}
@@ -150,9 +151,9 @@ func (s *Scenario) buildLaw(l Law, path string) (attitude.Law, error) {
 		// body spin axis.
 		axis := r3.Rotation(quat.Conj(quat.Number(q))).Rotate(body)
 		return attitude.Spin{Axis: axis, BodyAxis: body, Rate: l.RateRadS}, nil
-	case LawTumble:
+	case scenario.LawTumble:
 		return attitude.NewTumble(uint64(s.Seed), l.MaxRateRadS), nil
-	case LawIsotropic:
+	case scenario.LawIsotropic:
 		return attitude.Isotropic{Seed: uint64(s.Seed)}, nil
 	}
 	return nil, fmt.Errorf("%s.law: %q is not one of nadir, sun, inertial, spin, tumble, isotropic, schedule", path, l.Name)
@@ -162,14 +163,14 @@ func (s *Scenario) buildLaw(l Law, path string) (attitude.Law, error) {
 // the random laws (a tumble's tip-off attitude and rates, an isotropic
 // sequence): unit 0 keeps the scenario seed, unit u uses seed + u. Other
 // laws are the same for every unit (nil).
-func (s *Scenario) lawForUnit(att Attitude) func(u int) attitude.Law {
-	if att.Name != LawTumble && att.Name != LawIsotropic {
+func lawForUnit(s *scenario.Scenario, att scenario.Attitude) func(u int) attitude.Law {
+	if att.Name != scenario.LawTumble && att.Name != scenario.LawIsotropic {
 		return nil
 	}
 	l := att.Law
 	return func(u int) attitude.Law {
 		seed := uint64(s.Seed) + uint64(u)
-		if l.Name == LawTumble {
+		if l.Name == scenario.LawTumble {
 			return attitude.NewTumble(seed, l.MaxRateRadS)
 		}
 		return attitude.Isotropic{Seed: seed}
@@ -178,11 +179,11 @@ func (s *Scenario) lawForUnit(att Attitude) func(u int) attitude.Law {
 
 // BuildSensors turns sensor entries into a sensor array and, per sensor, the
 // viewer (field of view and obstructions) and the albedo response.
-func (s *Scenario) BuildSensors(list []Sensor, path string) (*sensor.Array, []sky.Viewer, []albedo.Response, error) {
+func BuildSensors(s *scenario.Scenario, list []scenario.Sensor, path string) (*sensor.Array, []sky.Viewer, []albedo.Response, error) {
 	var ss []sensor.Sensor
 	var viewers []sky.Viewer
 	var resp []albedo.Response
-	obstacles := s.Obstacles()
+	obstacles := Obstacles(s)
 	for i, sc := range list {
 		p := fmt.Sprintf("%s[%d] (%s)", path, i, sc.Name)
 		m, err := sensor.VectorMount(sc.Boresight, sc.RefAxis)
@@ -194,7 +195,7 @@ func (s *Scenario) BuildSensors(list []Sensor, path string) (*sensor.Array, []sk
 		var sn sensor.Sensor
 		r := albedo.Response{}
 		switch sc.Kind {
-		case KindCosine:
+		case scenario.KindCosine:
 			spec := sensor.CosineSpec{Name: sc.Name, Mount: m, HalfAngle: sc.HalfAngleRad, Threshold: sc.Threshold, Errors: errs}
 			for _, rp := range sc.RollOff {
 				spec.RollOffAngle = append(spec.RollOffAngle, rp[0])
@@ -213,9 +214,9 @@ func (s *Scenario) BuildSensors(list []Sensor, path string) (*sensor.Array, []sk
 				}
 			}
 			sn, err = sensor.NewCosine(spec)
-		case KindQuadrant:
+		case scenario.KindQuadrant:
 			sn, err = sensor.NewQuadrant(quadrantSpec(sc, m, errs))
-		case KindDigital:
+		case scenario.KindDigital:
 			sn, err = sensor.NewDigital(digitalSpec(sc, m, errs))
 		default:
 			err = fmt.Errorf("kind %q is not one of cosine, quadrant, digital", sc.Kind)
@@ -239,13 +240,13 @@ func (s *Scenario) BuildSensors(list []Sensor, path string) (*sensor.Array, []sk
 }
 
 // Obstacles returns the body's obstructions as sky shapes (body frame, m).
-func (s *Scenario) Obstacles() []sky.Obstacle {
+func Obstacles(s *scenario.Scenario) []sky.Obstacle {
 	var out []sky.Obstacle
 	for _, o := range s.Body.Obstructions {
 		switch o.Shape {
-		case ShapeRectangle:
+		case scenario.ShapeRectangle:
 			out = append(out, boxFaces(o.CentreM, o.HalfExtentsM)...)
-		case ShapeCylinder:
+		case scenario.ShapeCylinder:
 			out = append(out, sky.Cylinder{A: o.FromM, B: o.ToM, Radius: o.RadiusM})
 		}
 	}
@@ -272,7 +273,7 @@ func boxFaces(c, h r3.Vec) []sky.Obstacle {
 	return out
 }
 
-func quadrantSpec(sc Sensor, m sensor.Mount, errs sensor.Errors) sensor.QuadrantSpec {
+func quadrantSpec(sc scenario.Sensor, m sensor.Mount, errs sensor.Errors) sensor.QuadrantSpec {
 	// The aperture is one cell wide, so the spot just fills a cell at
 	// normal incidence (the usual proportion; common practice, no source).
 	return sensor.QuadrantSpec{Name: sc.Name, Mount: m, ApertureSide: sc.CellSizeMM, Height: sc.ShadeHeightMM,
@@ -283,7 +284,7 @@ func quadrantSpec(sc Sensor, m sensor.Mount, errs sensor.Errors) sensor.Quadrant
 // quadrantSigma is the stated 1σ accuracy used to weight a quadrant sensor's
 // direction: the file's accuracy_deg_1sigma, else 1° (a typical figure for a
 // home-built shaded quad cell; common practice, no source).
-func quadrantSigma(sc Sensor) float64 {
+func quadrantSigma(sc scenario.Sensor) float64 {
 	if sc.AccuracyRad1Sigma > 0 {
 		return sc.AccuracyRad1Sigma
 	}
@@ -295,23 +296,23 @@ func quadrantSigma(sc Sensor) float64 {
 // detector property; common practice, no source).
 const digitalAlbedoRejection = 0.3
 
-func digitalSpec(sc Sensor, m sensor.Mount, _ sensor.Errors) sensor.DigitalSpec {
+func digitalSpec(sc scenario.Sensor, m sensor.Mount, _ sensor.Errors) sensor.DigitalSpec {
 	return sensor.DigitalSpec{Name: sc.Name, Mount: m, HalfAngle: sc.HalfAngleRad, Square: sc.SquareFOV,
 		Sigma: sc.AccuracyRad1Sigma, MinIrradiance: sc.Threshold * sensor.SolarConstant,
 		AlbedoThreshold: digitalAlbedoRejection * sensor.SolarConstant, MisalignSigma: sc.Errors.MisalignmentRad1Sigma}
 }
 
 // AlbedoFactory returns the albedo model factory, nil for model "none".
-func (s *Scenario) AlbedoFactory() (func() (*albedo.Model, error), error) {
+func AlbedoFactory(s *scenario.Scenario) (func() (*albedo.Model, error), error) {
 	var refl albedo.Reflectance
 	switch s.Albedo.Model {
-	case AlbedoNone, "":
+	case scenario.AlbedoNone, "":
 		return nil, nil
-	case AlbedoUniform:
+	case scenario.AlbedoUniform:
 		refl = albedo.Uniform{Albedo: s.Albedo.Value}
-	case AlbedoZonal:
+	case scenario.AlbedoZonal:
 		refl = albedo.KnockeZonal()
-	case AlbedoGrid:
+	case scenario.AlbedoGrid:
 		f, err := os.Open(s.Albedo.GridFile)
 		if err != nil {
 			return nil, fmt.Errorf("albedo.grid_file: %w", err)
@@ -337,7 +338,7 @@ func (s *Scenario) AlbedoFactory() (func() (*albedo.Model, error), error) {
 
 // EstimatorList returns the scenario's estimators (the resolver fills the
 // applicable ones, primary first, when the file lists none).
-func (s *Scenario) EstimatorList(list []Sensor) ([]sensor.Estimator, error) {
+func EstimatorList(s *scenario.Scenario, list []scenario.Sensor) ([]sensor.Estimator, error) {
 	if len(s.Estimators) == 0 {
 		return nil, fmt.Errorf("estimators: none applies to the %d sensors listed; add cosine or two-axis sensors", len(list))
 	}
@@ -354,15 +355,15 @@ func (s *Scenario) EstimatorList(list []Sensor) ([]sensor.Estimator, error) {
 
 // Config builds the simulation of the scenario with its own sensors and
 // attitude.
-func (s *Scenario) Config() (sim.Config, error) {
-	return s.ConfigFor(s.Body.Sensors, s.Attitude)
+func Config(s *scenario.Scenario) (sim.Config, error) {
+	return ConfigFor(s, s.Body.Sensors, s.Attitude)
 }
 
 // ConfigFor builds the simulation of the scenario with another sensor list
 // (a layout or a subset of candidates) and attitude (a mode).
-func (s *Scenario) ConfigFor(sensors []Sensor, att Attitude) (sim.Config, error) {
+func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Attitude) (sim.Config, error) {
 	var cfg sim.Config
-	newProp, err := s.NewPropagator()
+	newProp, err := NewPropagator(s)
 	if err != nil {
 		return cfg, err
 	}
@@ -370,24 +371,24 @@ func (s *Scenario) ConfigFor(sensors []Sensor, att Attitude) (sim.Config, error)
 	if err != nil {
 		return cfg, fmt.Errorf("sun_model: %w", err)
 	}
-	law, err := s.buildAttitude(att, "attitude")
+	law, err := buildAttitude(s, att, "attitude")
 	if err != nil {
 		return cfg, err
 	}
-	arr, viewers, resp, err := s.BuildSensors(sensors, "body.sensors")
+	arr, viewers, resp, err := BuildSensors(s, sensors, "body.sensors")
 	if err != nil {
 		return cfg, err
 	}
-	alb, err := s.AlbedoFactory()
+	alb, err := AlbedoFactory(s)
 	if err != nil {
 		return cfg, err
 	}
-	ests, err := s.EstimatorList(sensors)
+	ests, err := EstimatorList(s, sensors)
 	if err != nil {
 		return cfg, err
 	}
 	var blocked []func(r3.Vec) bool
-	if obs := s.Obstacles(); len(obs) > 0 {
+	if obs := Obstacles(s); len(obs) > 0 {
 		for _, sc := range sensors {
 			clear := sky.Obstructed{View: sky.ViewerFunc(func(r3.Vec) bool { return true }), Position: sc.PositionM, Obstacles: obs}
 			blocked = append(blocked, func(d r3.Vec) bool { return !clear.Sees(d) })
@@ -395,7 +396,7 @@ func (s *Scenario) ConfigFor(sensors []Sensor, att Attitude) (sim.Config, error)
 	}
 	cfg = sim.Config{
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
-		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law, LawForUnit: s.lawForUnit(att),
+		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law, LawForUnit: lawForUnit(s, att),
 		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1),
 	}

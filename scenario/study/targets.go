@@ -1,6 +1,7 @@
-package scenario
+package study
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario"
 	"fmt"
 	"math"
 
@@ -35,7 +36,7 @@ type TargetCheck struct {
 // judged: the summary, the report and the layout search all use it. Error
 // targets use the realistic p95 (with albedo when an albedo model is set). A
 // figure that is undefined (no valid estimate at all) fails its target.
-func (s *Scenario) CheckTargets(h sim.Headline, cov sky.Result) []TargetCheck {
+func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []TargetCheck {
 	t := s.Targets
 	var out []TargetCheck
 	pct := func(f float64) string {
@@ -54,7 +55,7 @@ func (s *Scenario) CheckTargets(h sim.Headline, cov sky.Result) []TargetCheck {
 		if !math.IsNaN(h.P95AlbedoDeg) {
 			p95 = h.P95AlbedoDeg
 		}
-		out = append(out, s.checkErrorP95("p95 sun-vector error ("+h.Estimator+")", p95))
+		out = append(out, checkErrorP95(s, "p95 sun-vector error ("+h.Estimator+")", p95))
 	}
 	if t.MinCoverage > 0 && t.CoverageSensors > 0 {
 		k := min(t.CoverageSensors, sky.MaxLevel)
@@ -77,7 +78,7 @@ func (s *Scenario) CheckTargets(h sim.Headline, cov sky.Result) []TargetCheck {
 }
 
 // checkErrorP95 judges a p95 error (degrees) against max_error_p95_deg.
-func (s *Scenario) checkErrorP95(label string, p95 float64) TargetCheck {
+func checkErrorP95(s *scenario.Scenario, label string, p95 float64) TargetCheck {
 	lim := s.Targets.MaxErrorP95Rad * 180 / math.Pi
 	c := TargetCheck{Key: TargetErrorP95, Label: label, Required: fmt.Sprintf("≤ %.2f°", lim), Value: "n/a",
 		Pass: p95 <= lim, Margin: math.Inf(-1)}
@@ -91,11 +92,11 @@ func (s *Scenario) checkErrorP95(label string, p95 float64) TargetCheck {
 // CheckErrorP95 judges another p95 figure (for example the p95 reached by
 // 95 % of Monte Carlo units) against max_error_p95_deg; ok is false when the
 // scenario sets no error target.
-func (s *Scenario) CheckErrorP95(label string, p95Deg float64) (c TargetCheck, ok bool) {
+func CheckErrorP95(s *scenario.Scenario, label string, p95Deg float64) (c TargetCheck, ok bool) {
 	if s.Targets.MaxErrorP95Rad <= 0 {
 		return TargetCheck{}, false
 	}
-	return s.checkErrorP95(label, p95Deg), true
+	return checkErrorP95(s, label, p95Deg), true
 }
 
 // FindTarget returns the check of the given key.

@@ -1,6 +1,7 @@
-package scenario
+package study
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario"
 	"context"
 	"math"
 	"path/filepath"
@@ -13,17 +14,17 @@ import (
 
 // Every bundled example builds and runs (a few orbits).
 func TestExamplesBuildAndRun(t *testing.T) {
-	files, _ := filepath.Glob("../examples/*.yaml")
+	files, _ := filepath.Glob("../../examples/*.yaml")
 	if len(files) < 3 {
 		t.Fatalf("found %d examples", len(files))
 	}
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
-			s, err := Load(f)
+			s, err := scenario.Load(f)
 			if err != nil {
 				t.Fatal(err)
 			}
-			cfg, err := s.Config()
+			cfg, err := Config(s)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -46,11 +47,11 @@ func TestExamplesBuildAndRun(t *testing.T) {
 // quadrant sensors on +X see it on their boresight and the two-axis estimate
 // is exact to its inversion (closed form: the sun stays on the pointing axis).
 func TestDawnDuskSunPointingIdeal(t *testing.T) {
-	s, err := Load("../examples/dawn-dusk-12u.yaml")
+	s, err := scenario.Load("../../examples/dawn-dusk-12u.yaml")
 	if err != nil {
 		t.Fatal(err)
 	}
-	cfg, err := s.Config()
+	cfg, err := Config(s)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -89,7 +90,7 @@ func TestSunLawAlignReferences(t *testing.T) {
 		{"attitude: {law: sun, align_to: moon}\n", "attitude.align_to"},
 		{"attitude: {law: nadir, align_to: nadir}\n", "attitude.align_to"},
 	} {
-		s, err := Parse([]byte(base+c.law), ".")
+		s, err := scenario.Parse([]byte(base+c.law), ".")
 		if c.bad != "" {
 			if err == nil || !strings.Contains(err.Error(), c.bad) {
 				t.Errorf("%q: error %v, want one naming %s", c.law, err, c.bad)
@@ -99,7 +100,7 @@ func TestSunLawAlignReferences(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%q: %v", c.law, err)
 		}
-		cfg, err := s.Config()
+		cfg, err := Config(s)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -26,7 +26,12 @@
 // sign change and refines it with Brent's method (Brent 1973, ch. 4) to
 // EventTolS = 1 ms. Where three samples of one sign show a local extremum, a
 // golden-section search between the outer samples tells whether a pass
-// shorter than the step (a grazing penumbral pass) hides there.
+// shorter than the step (a grazing penumbral pass) hides there. In the
+// cylindrical model (Finder.Model = Cylindrical) the one margin is
+// θ − asin(Rₑ/|r|), θ the angle between r and −ŝ, negative exactly where
+// ShadowCylindrical is dark; its eclipses have umbra = shadow. Checked
+// against T·2·acos(√(1−(R/r)²)/cos β)/(2π) for a circular orbit
+// (elementary geometry) to < 1 ms.
 //
 // Beta angle: β = asin(ĥ·ŝ), ĥ = r × v / |r × v|; the element form from
 // inclination, RAAN, the sun's ecliptic longitude and the obliquity, β* =

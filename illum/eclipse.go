@@ -10,9 +10,29 @@ import (
 // t seconds after the run's epoch.
 type Geometry func(t float64) (rSat, rSun r3.Vec)
 
-// Eclipse is one passage through the Earth's shadow (conical model). Times
-// are seconds after the run's epoch. UmbraStart and UmbraEnd are NaN when the
-// pass is penumbral only.
+// ShadowModel names the shadow geometry of an eclipse search.
+type ShadowModel int
+
+const (
+	// Conical: umbra and penumbra cones of the solar disc (ShadowConical).
+	Conical ShadowModel = iota
+	// Cylindrical: the Earth's cylindrical shadow (ShadowCylindrical). It
+	// has no penumbra, so an eclipse's umbra times equal its shadow times.
+	Cylindrical
+)
+
+// String returns the model's name as the scenario file spells it.
+func (m ShadowModel) String() string {
+	if m == Cylindrical {
+		return "cylindrical"
+	}
+	return "conical"
+}
+
+// Eclipse is one passage through the Earth's shadow. Times are seconds
+// after the run's epoch. UmbraStart and UmbraEnd are NaN when the pass is
+// penumbral only (conical model); in the cylindrical model they equal the
+// penumbra times.
 type Eclipse struct {
 	PenumbraStart, UmbraStart, UmbraEnd, PenumbraEnd float64
 	// StartCut is set when the span began inside this eclipse: the start
@@ -104,8 +124,10 @@ func (d *detector) push(t, g float64) {
 
 // Finder searches for eclipses and keeps its scratch buffers between calls,
 // so that repeated searches (as in YearTable) do not allocate. The zero value
-// is ready to use; a Finder is not safe for concurrent use.
+// is ready to use (conical shadow); a Finder is not safe for concurrent use.
 type Finder struct {
+	// Model is the shadow geometry searched (zero value: Conical).
+	Model    ShadowModel
 	pen, umb detector
 }
 
@@ -119,13 +141,23 @@ func FindEclipses(g Geometry, t0, t1, step float64) []Eclipse {
 	return f.Append(nil, g, t0, t1, step)
 }
 
+// FindEclipsesModel is FindEclipses in the given shadow model.
+func FindEclipsesModel(m ShadowModel, g Geometry, t0, t1, step float64) []Eclipse {
+	f := Finder{Model: m}
+	return f.Append(nil, g, t0, t1, step)
+}
+
 // Append appends the eclipses between t0 and t1 to dst (see FindEclipses).
 func (f *Finder) Append(dst []Eclipse, g Geometry, t0, t1, step float64) []Eclipse {
 	if !(t1 > t0) || !(step > 0) {
 		return dst
 	}
-	penF := func(t float64) float64 { p, _ := shadowMargins(g(t)); return p }
-	umbF := func(t float64) float64 { _, u := shadowMargins(g(t)); return u }
+	margins := shadowMargins
+	if f.Model == Cylindrical {
+		margins = cylinderMargins
+	}
+	penF := func(t float64) float64 { p, _ := margins(g(t)); return p }
+	umbF := func(t float64) float64 { _, u := margins(g(t)); return u }
 	f.pen.reset(penF)
 	f.umb.reset(umbF)
 	var p0, u0 float64
@@ -135,14 +167,24 @@ func (f *Finder) Append(dst []Eclipse, g Geometry, t0, t1, step float64) []Eclip
 		if i == n {
 			t = t1
 		}
-		p, u := shadowMargins(g(t))
+		p, u := margins(g(t))
 		if i == 0 {
 			p0, u0 = p, u
 		}
 		f.pen.push(t, p)
-		f.umb.push(t, u)
+		if f.Model != Cylindrical {
+			f.umb.push(t, u)
+		}
 	}
-	return assemble(dst, f.pen.out, f.umb.out, p0 < 0, u0 < 0, t0, t1)
+	n0 := len(dst)
+	dst = assemble(dst, f.pen.out, f.umb.out, p0 < 0, u0 < 0, t0, t1)
+	if f.Model == Cylindrical {
+		// No penumbra: the whole shadow is umbra.
+		for i := n0; i < len(dst); i++ {
+			dst[i].UmbraStart, dst[i].UmbraEnd = dst[i].PenumbraStart, dst[i].PenumbraEnd
+		}
+	}
+	return dst
 }
 
 // assemble pairs penumbra crossings into eclipses and places the umbra

@@ -256,3 +256,39 @@ func TestEclipseStats(t *testing.T) {
 		}
 	}
 }
+
+// The cylindrical event search times each eclipse to the closed form
+// T·2·acos(√(1−(R/r)²)/cos β)/(2π) (elementary geometry; EclipseFraction-
+// Circular is the same expression), with the umbra equal to the shadow, at
+// every grid step and up to β just below β*.
+func TestFindEclipsesCylindricalVsClosedForm(t *testing.T) {
+	worst := 0.0
+	for _, c := range []struct{ alt, βdeg float64 }{
+		{400, 0}, {400, 45}, {500, 60}, {600, 30}, {800, 60}, {400, 70},
+	} {
+		g, T := betaOrbit(c.alt, c.βdeg*deg)
+		want := EclipseFractionCircular(c.alt, c.βdeg*deg) * T
+		for _, step := range []float64{10, 60, 300} {
+			// Start a quarter orbit in so the eclipse lies inside the span.
+			ecl := FindEclipsesModel(Cylindrical, g, -T/4, 3*T/4, step)
+			if len(ecl) != 1 || !ecl[0].Complete() {
+				t.Fatalf("h=%g β=%g° step %g: %+v", c.alt, c.βdeg, step, ecl)
+			}
+			e := ecl[0]
+			d := math.Abs(e.Duration() - want)
+			worst = math.Max(worst, d)
+			if d > 0.5 {
+				t.Errorf("h=%g β=%g° step %g: %.3f s, closed form %.3f s", c.alt, c.βdeg, step, e.Duration(), want)
+			}
+			if e.UmbraStart != e.PenumbraStart || e.UmbraEnd != e.PenumbraEnd {
+				t.Errorf("h=%g β=%g°: cylindrical eclipse with a penumbra %+v", c.alt, c.βdeg, e)
+			}
+		}
+	}
+	t.Logf("worst |duration − closed form| = %.2e s", worst)
+	// Above β* there is no eclipse.
+	g, T := betaOrbit(400, BetaCritical(EarthRadiusKm+400)+1e-4)
+	if ecl := FindEclipsesModel(Cylindrical, g, 0, 2*T, 60); len(ecl) != 0 {
+		t.Errorf("eclipses above β*: %+v", ecl)
+	}
+}

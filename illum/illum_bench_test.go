@@ -45,6 +45,6 @@ func BenchmarkYearTable365(b *testing.B) {
 	orb := sso(550, 10.5)
 	g := func(t float64) (r3.Vec, r3.Vec) { return orb.pos(t), almanacSun(t) }
 	for b.Loop() {
-		YearTable(g, orb.normal, 0, 365, orb.period())
+		YearTable(Conical, g, orb.normal, 0, 365, orb.period())
 	}
 }

@@ -26,14 +26,14 @@ const SeasonStepS = 60.0
 // from the orbit normal (normal(t), any length, e.g. r × v, so the caller's
 // propagator supplies the nodal drift) and the sun direction of g, and the
 // duration of the first complete eclipse within two orbit periods (periodS)
-// after the day's start. One orbit stands for the whole day, so an eclipse
-// season's first and last day are resolved to a day.
-func YearTable(g Geometry, normal func(t float64) r3.Vec, t0 float64, days int, periodS float64) []DayRow {
+// after the day's start, in shadow model m. One orbit stands for the whole
+// day, so an eclipse season's first and last day are resolved to a day.
+func YearTable(m ShadowModel, g Geometry, normal func(t float64) r3.Vec, t0 float64, days int, periodS float64) []DayRow {
 	if days <= 0 || !(periodS > 0) {
 		return nil
 	}
 	rows := make([]DayRow, days)
-	var f Finder
+	f := Finder{Model: m}
 	var buf []Eclipse
 	for d := range rows {
 		t := t0 + float64(d)*86400

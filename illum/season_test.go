@@ -44,7 +44,7 @@ func sso(altKm, ltanHours float64) circular {
 
 func seasonTable(orb circular) []DayRow {
 	g := func(t float64) (r3.Vec, r3.Vec) { return orb.pos(t), almanacSun(t) }
-	return YearTable(g, orb.normal, 0, 365, orb.period())
+	return YearTable(Conical, g, orb.normal, 0, 365, orb.period())
 }
 
 // A 10:30 LTAN SSO at 550 km eclipses every orbit all year, ≈ 34–35 min

@@ -210,3 +210,15 @@ func shadowMargins(rSat, rSun r3.Vec) (penumbra, umbra float64) {
 	a, b, c := discAngles(rSat, rSun)
 	return c - (a + b), c - (b - a)
 }
+
+// cylinderMargins returns the cylindrical shadow's margin twice (it has no
+// penumbra): θ − asin(Rₑ/|r|), θ being the angle between r and the anti-sun
+// direction −ŝ. It is continuous in time and negative exactly where
+// ShadowCylindrical is 0: r·ŝ < 0 and |r| sin θ < Rₑ ⇔ θ < asin(Rₑ/|r|)
+// (closed form).
+func cylinderMargins(rSat, rSun r3.Vec) (penumbra, umbra float64) {
+	anti := r3.Scale(-1, rSun)
+	θ := math.Atan2(vecmath.Norm(r3.Cross(rSat, anti)), r3.Dot(rSat, anti))
+	m := θ - math.Asin(math.Min(1, EarthRadiusKm/vecmath.Norm(rSat)))
+	return m, m
+}

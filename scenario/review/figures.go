@@ -258,7 +258,7 @@ func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 }
 
 // YearTable returns days rows of beta angle and eclipse of the scenario's
-// orbit (j2-mean propagator of its mean elements, its sun model), one per day
+// orbit (j2-mean propagator of its mean elements, its sun and shadow models), one per day
 // from t0 seconds after the epoch (t0 may be negative).
 func YearTable(s *scenario.Scenario, t0 float64, days int) ([]illum.DayRow, error) {
 	el, err := study.MeanElements(s)
@@ -280,7 +280,7 @@ func YearTable(s *scenario.Scenario, t0 float64, days int) ([]illum.DayRow, erro
 		st := p.StateAt(t)
 		return r3.Cross(st.R, st.V)
 	}
-	return illum.YearTable(g, normal, t0, days, orbit.Period(el.SemiMajorAxisKm)), nil
+	return illum.YearTable(study.ShadowModel(s), g, normal, t0, days, orbit.Period(el.SemiMajorAxisKm)), nil
 }
 
 // yearView covers the calendar year of the epoch (1 January to 31

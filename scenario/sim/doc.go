@@ -13,8 +13,9 @@
 // same noise draws — without albedo and with the albedo irradiance of
 // illum/albedo on its own field of view — and every configured estimator
 // turns each set of readings into a sun direction. The errors are angles to
-// the true body-frame sun. Eclipse events come from illum.FindEclipses on
-// the same propagator and sun (one code path for eclipses).
+// the true body-frame sun. Eclipse events come from illum.FindEclipsesModel on
+// the same propagator, sun and shadow model (one code path for eclipses), so
+// a cylindrical run has cylindrical fractions, events and durations alike.
 //
 // "Sunlit" time means the full solar disc is visible; penumbra time is
 // counted apart. Coverage ("seen by ≥ k sensors") uses each sensor's field of

@@ -35,7 +35,8 @@ type Config struct {
 	// numerical propagators keep state.
 	NewPropagator func() orbit.Propagator
 	Sun           ephem.Sun
-	// Cylindrical selects the cylindrical shadow instead of the conical one.
+	// Cylindrical selects the cylindrical shadow instead of the conical one,
+	// for the sampled fractions and the eclipse events alike.
 	Cylindrical bool
 	Law         attitude.Law
 	// LawForUnit, when set, gives each Monte Carlo unit its own attitude
@@ -258,10 +259,19 @@ func eclipses(cfg *Config) ([]illum.Eclipse, illum.Stats) {
 	// The search samples every 60 s whatever the run's step: it refines
 	// each event to 1 ms and finds grazing passes shorter than its step
 	// (illum.FindEclipses).
-	ecl := illum.FindEclipses(g, 0, cfg.Duration, eclipseSearchStepS)
+	ecl := illum.FindEclipsesModel(cfg.shadowModel(), g, 0, cfg.Duration, eclipseSearchStepS)
 	s0 := p.StateAt(0)
 	period := orbitPeriod(s0)
 	return ecl, illum.EclipseStats(ecl, 0, cfg.Duration, period)
+}
+
+// shadowModel is the shadow geometry of both the step loop and the event
+// search, so fractions and events agree.
+func (c *Config) shadowModel() illum.ShadowModel {
+	if c.Cylindrical {
+		return illum.Cylindrical
+	}
+	return illum.Conical
 }
 
 // eclipseSearchStepS is the sampling step of the eclipse event search.

@@ -10,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/spatial/r3"
 
 	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sky"
@@ -396,9 +397,18 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	}
 	cfg = sim.Config{
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
-		NewPropagator: newProp, Sun: sun, Cylindrical: s.Shadow == "cylindrical", Law: law, LawForUnit: lawForUnit(s, att),
+		NewPropagator: newProp, Sun: sun, Cylindrical: ShadowModel(s) == illum.Cylindrical, Law: law, LawForUnit: lawForUnit(s, att),
 		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1),
 	}
 	return cfg, cfg.Validate()
+}
+
+// ShadowModel is the scenario's shadow geometry, used by the step loop, the
+// eclipse search and the year view alike.
+func ShadowModel(s *scenario.Scenario) illum.ShadowModel {
+	if s.Shadow == "cylindrical" {
+		return illum.Cylindrical
+	}
+	return illum.Conical
 }

@@ -1,6 +1,9 @@
 package sim
 
-import "math"
+import (
+	"math"
+	"sync"
+)
 
 // Moments accumulates count, mean, variance (Welford 1962, Technometrics 4(3):419–420,
 // from memory), RMS, minimum and maximum of a stream without storing it.
@@ -92,16 +95,19 @@ var (
 )
 
 // Quantiles estimates quantiles of a non-negative stream with a fixed
-// histogram (see quantMant): memory is constant (about 220 kB).
+// histogram (see quantMant): memory is constant (about 220 kB once the
+// first value arrives, nothing before), and merging costs only the range of
+// bins in use.
 type Quantiles struct {
-	counts []uint64
+	counts []uint64 // nil until the first value
+	lo, hi int      // bins in use: [lo, hi]
 	n      uint64
 	max    float64
 }
 
 // NewQuantiles returns an empty accumulator.
 func NewQuantiles() *Quantiles {
-	return &Quantiles{counts: make([]uint64, quantBins)}
+	return &Quantiles{}
 }
 
 func binOf(x float64) int {
@@ -124,7 +130,16 @@ func binCentre(i int) float64 {
 
 // Add records x.
 func (q *Quantiles) Add(x float64) {
-	q.counts[binOf(x)]++
+	i := binOf(x)
+	if q.counts == nil {
+		q.counts = getBins()
+		q.lo, q.hi = i, i
+	} else if i < q.lo {
+		q.lo = i
+	} else if i > q.hi {
+		q.hi = i
+	}
+	q.counts[i]++
 	q.n++
 	if x > q.max {
 		q.max = x
@@ -148,8 +163,8 @@ func (q *Quantiles) Quantile(p float64) float64 {
 		rank = 1
 	}
 	var cum uint64
-	for i, c := range q.counts {
-		cum += c
+	for i := q.lo; i <= q.hi; i++ {
+		cum += q.counts[i]
 		if cum >= rank {
 			return math.Min(binCentre(i), q.max)
 		}
@@ -159,11 +174,42 @@ func (q *Quantiles) Quantile(p float64) float64 {
 
 // Merge adds another accumulator's counts.
 func (q *Quantiles) Merge(o *Quantiles) {
-	for i, c := range o.counts {
-		q.counts[i] += c
+	if o.n == 0 {
+		return
 	}
+	if q.counts == nil {
+		q.counts = getBins()
+		q.lo, q.hi = o.lo, o.hi
+	}
+	for i := o.lo; i <= o.hi; i++ {
+		q.counts[i] += o.counts[i]
+	}
+	q.lo, q.hi = min(q.lo, o.lo), max(q.hi, o.hi)
 	q.n += o.n
 	q.max = math.Max(q.max, o.max)
+}
+
+// binPool recycles the bin arrays of accumulators already merged into
+// another, so a long run does not allocate a fresh 220 kB per piece of grid.
+var binPool sync.Pool
+
+// getBins returns a zeroed bin array.
+func getBins() []uint64 {
+	if b, ok := binPool.Get().(*[]uint64); ok {
+		return *b
+	}
+	return make([]uint64, quantBins)
+}
+
+// release empties q and recycles its bins; q must not be read afterwards.
+func (q *Quantiles) release() {
+	if q.counts == nil {
+		return
+	}
+	clear(q.counts[q.lo : q.hi+1])
+	b := q.counts
+	binPool.Put(&b)
+	*q = Quantiles{}
 }
 
 // CDF returns up to n points (value, fraction at or below) of the empirical

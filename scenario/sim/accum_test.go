@@ -103,3 +103,29 @@ func TestSpellsDurations(t *testing.T) {
 		}
 	}
 }
+
+// Quantiles built piece by piece and merged (with the merged pieces'
+// bins recycled into the next pieces) equal those of the whole stream.
+func TestQuantilesMergedPiecesEqualWhole(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	whole, merged := NewQuantiles(), NewQuantiles()
+	for piece := range 20 {
+		q := NewQuantiles()
+		for range 1000 * (piece%3 + 1) {
+			x := math.Exp(4 * rng.NormFloat64())
+			whole.Add(x)
+			q.Add(x)
+		}
+		merged.Merge(q)
+		q.release()
+	}
+	merged.Merge(NewQuantiles()) // an empty piece changes nothing
+	if merged.N() != whole.N() {
+		t.Fatalf("n %d, want %d", merged.N(), whole.N())
+	}
+	for _, p := range []float64{0, 0.001, 0.1, 0.5, 0.9, 0.99, 0.9999, 1} {
+		if a, b := merged.Quantile(p), whole.Quantile(p); a != b {
+			t.Errorf("p%v: merged %v, whole %v", p, a, b)
+		}
+	}
+}

@@ -178,9 +178,12 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 		drawSrc, _ := unitSeed(cfg.Seed, u)
 		arrays[u] = cfg.Array.Draw(rand.New(drawSrc))
 	}
-	accs := make([][]*unitAcc, units)
-	for u := range accs {
-		accs[u] = make([]*unitAcc, nChunks)
+	// Each unit's pieces are folded into its running accumulator as soon as
+	// they are next in time order, so memory stays flat in the duration: at
+	// most about one piece per worker waits for an earlier one.
+	merged := make([]*orderedMerge, units)
+	for u := range merged {
+		merged[u] = &orderedMerge{pending: map[int]*unitAcc{}}
 	}
 	var firstErr error
 	var mu sync.Mutex
@@ -195,8 +198,10 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 				if err != nil && firstErr == nil {
 					firstErr = err
 				}
-				accs[tk.unit][tk.chunk] = a
 				mu.Unlock()
+				if err == nil {
+					merged[tk.unit].add(tk.chunk, a)
+				}
 			}
 		})
 	}
@@ -222,9 +227,9 @@ feed:
 	}
 	unitRes := make([]*UnitResult, units)
 	for u := range units {
-		a := accs[u][0]
-		for _, b := range accs[u][1:] {
-			a.merge(b)
+		a := merged[u].acc
+		if a == nil || merged[u].next != nChunks {
+			return nil, fmt.Errorf("sim: unit %d: %d of %d pieces merged", u, merged[u].next, nChunks)
 		}
 		a.finish()
 		unitRes[u] = a.result()
@@ -233,6 +238,37 @@ feed:
 	res.Nominal = unitRes[0]
 	res.AcrossUnits = acrossUnits(unitRes)
 	return res, nil
+}
+
+// orderedMerge folds the pieces of one unit's grid into one accumulator in
+// time order, whatever order they finish in (the numbers do not depend on
+// the number of workers).
+type orderedMerge struct {
+	mu      sync.Mutex
+	acc     *unitAcc
+	next    int // index of the next piece to fold in
+	pending map[int]*unitAcc
+}
+
+// add hands over piece c.
+func (m *orderedMerge) add(c int, a *unitAcc) {
+	m.mu.Lock()
+	defer m.mu.Unlock()
+	m.pending[c] = a
+	for {
+		p, ok := m.pending[m.next]
+		if !ok {
+			return
+		}
+		delete(m.pending, m.next)
+		if m.acc == nil {
+			m.acc = p
+		} else {
+			m.acc.merge(p)
+			p.release()
+		}
+		m.next++
+	}
 }
 
 // unitSeed derives the seed of unit u's error draws and noise from the run

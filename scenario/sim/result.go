@@ -374,6 +374,18 @@ func (a *unitAcc) merge(b *unitAcc) {
 	a.track = append(a.track, b.track...)
 }
 
+// release recycles the quantile bins of an accumulator already merged into
+// another one.
+func (a *unitAcc) release() {
+	for j := range a.est {
+		e := &a.est[j]
+		e.qNo.release()
+		e.qAlb.release()
+		e.qPart.release()
+		e.qFalse.release()
+	}
+}
+
 // finish completes the merged accumulator of a whole unit.
 func (a *unitAcc) finish() {
 	for i := range a.est {

@@ -72,6 +72,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	target := fs.Float64("tolerance-target", 0, "p95 target (deg) for the tolerances; 0 = budget.tolerance_deg, else targets.max_error_p95_deg")
 	asJSON := fs.Bool("json", false, "print the budget as JSON")
 	full := fs.Bool("full", false, "simulate the scenario's whole duration instead of at most 6 h")
+	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: sunsight budget FILE [--units N] [--out DIR] [--tolerance-target DEG] [--json] [--full]")
 		fs.PrintDefaults()
@@ -129,6 +130,11 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	case s.Targets.MaxErrorP95Rad > 0:
 		tgt = s.Targets.MaxErrorP95Rad * 180 / math.Pi
 	}
+	stopProf, err := startCPUProfile(*cpuProf)
+	if err != nil {
+		return err
+	}
+	defer stopProf()
 	ctx := context.Background()
 	start := time.Now()
 	sources := r.Sources()

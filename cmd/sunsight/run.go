@@ -31,6 +31,7 @@ type runFlags struct {
 	quiet    bool
 	duration string
 	step     string
+	cpuProf  string
 }
 
 func parseRunFlags(args []string, stderr io.Writer) (runFlags, string, error) {
@@ -46,6 +47,7 @@ func parseRunFlags(args []string, stderr io.Writer) (runFlags, string, error) {
 	fs.BoolVar(&f.quiet, "quiet", false, "no progress display")
 	fs.StringVar(&f.duration, "duration", "", "override the scenario duration (e.g. 6h, 30d)")
 	fs.StringVar(&f.step, "step", "", "override the scenario step (e.g. 10s)")
+	fs.StringVar(&f.cpuProf, "cpuprofile", "", cpuProfileUsage)
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "Usage: sunsight run [flags] FILE\n\nSimulates the scenario FILE and prints its summary.\n\nFlags:")
 		fs.PrintDefaults()
@@ -145,8 +147,15 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	defer stop()
 	prog := newProgress(stderr, f.quiet, cfg.Steps(), s.Name)
 	cfg.Progress = prog.update
+	stopProf, err := startCPUProfile(f.cpuProf)
+	if err != nil {
+		return err
+	}
 	res, err := sim.Run(ctx, cfg)
 	prog.done()
+	if perr := stopProf(); perr != nil && err == nil {
+		err = perr
+	}
 	if err != nil {
 		if errors.Is(err, context.Canceled) {
 			return errors.New("interrupted: no output written")

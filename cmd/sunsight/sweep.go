@@ -61,6 +61,7 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	workers := fs.Int("workers", 0, "cases run in parallel (0 = number of CPUs)")
 	shard := fs.String("shard", "", "K/N: run only cases with index % N == K-1 (join the shards with sunsight merge)")
 	noPlots := fs.Bool("no-plots", false, "write the table but no figures")
+	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: sunsight sweep FILE --vary KEY=VALUES [--vary ...] [--zip] --out DIR [--workers N] [--shard K/N]")
 		fs.PrintDefaults()
@@ -94,6 +95,11 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return usageError{err}
 	}
+	stopProf, err := startCPUProfile(*cpuProf)
+	if err != nil {
+		return err
+	}
+	defer stopProf()
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
 	var done atomic.Int32

@@ -1,0 +1,48 @@
+package main
+
+import (
+	"bytes"
+	"compress/gzip"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// -cpuprofile writes a profile (pprof's format is gzip-compressed protocol
+// buffers) and leaves the run's output as it is; a path that cannot be
+// created is refused with exit 2 naming the flag.
+func TestRunCPUProfile(t *testing.T) {
+	dir := t.TempDir()
+	prof := filepath.Join(dir, "cpu.pprof")
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"run", "-quiet", "-duration", "6h", "-cpuprofile", prof, "../../examples/nadir-6u-sso.yaml"}, &out, &errb); code != 0 && code != 3 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	f, err := os.Open(prof)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	zr, err := gzip.NewReader(f)
+	if err != nil {
+		t.Fatalf("profile is not gzip-compressed: %v", err)
+	}
+	var body bytes.Buffer
+	if _, err := body.ReadFrom(zr); err != nil || body.Len() == 0 {
+		t.Fatalf("profile body: %d bytes, %v", body.Len(), err)
+	}
+	if !strings.Contains(out.String(), "sun") {
+		t.Errorf("summary missing with -cpuprofile:\n%s", out.String())
+	}
+
+	out.Reset()
+	errb.Reset()
+	bad := filepath.Join(dir, "no-such-folder", "cpu.pprof")
+	if code := runMain([]string{"run", "-quiet", "-duration", "1h", "-cpuprofile", bad, "../../examples/nadir-6u-sso.yaml"}, &out, &errb); code != 2 {
+		t.Fatalf("bad profile path: exit %d, want 2", code)
+	}
+	if !strings.Contains(errb.String(), "-cpuprofile") {
+		t.Errorf("message does not name the flag: %s", errb.String())
+	}
+}

@@ -134,10 +134,13 @@ const chunkSteps = 1 << 15
 // noise without drawing the earlier steps'.
 const noiseBlockSteps = 4096
 
-// task is one chunk [k0, k1) of one unit's grid.
+// task is one chunk [k0, k1) of the grid of units [u0, u1). When every
+// unit flies the same attitude their geometry (orbit, sun, shadow,
+// attitude, albedo) is the same, so one task computes it once per step and
+// reads each unit's sensors on it.
 type task struct {
-	unit, chunk int
-	k0, k1      int
+	u0, u1, chunk int
+	k0, k1        int
 }
 
 // Run simulates every unit and gathers the result. It stops early with the
@@ -185,30 +188,44 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	for u := range merged {
 		merged[u] = &orderedMerge{pending: map[int]*unitAcc{}}
 	}
+	// Units share a task's geometry unless the attitude is drawn per unit.
+	// With fewer pieces than workers the units are split into groups so
+	// every core has work (the numbers do not depend on the grouping: each
+	// unit's draws and noise are its own).
+	group := 1
+	if cfg.LawForUnit == nil {
+		group = units
+		if nChunks < workers {
+			group = (units + workers/nChunks - 1) / (workers / nChunks)
+		}
+	}
 	var firstErr error
 	var mu sync.Mutex
 	var done atomic.Int64
 	next := make(chan task)
 	var wg sync.WaitGroup
-	for range min(workers, units*nChunks) {
+	nTasks := nChunks * ((units + group - 1) / group)
+	for range min(workers, nTasks) {
 		wg.Go(func() {
 			for tk := range next {
-				a, err := runChunk(ctx, &cfg, arrays[tk.unit], tk, &done, units*steps, table)
+				as, err := runChunk(ctx, &cfg, arrays, tk, &done, units*steps, table)
 				mu.Lock()
 				if err != nil && firstErr == nil {
 					firstErr = err
 				}
 				mu.Unlock()
 				if err == nil {
-					merged[tk.unit].add(tk.chunk, a)
+					for i, a := range as {
+						merged[tk.u0+i].add(tk.chunk, a)
+					}
 				}
 			}
 		})
 	}
 feed:
-	for u := range units {
+	for u0 := 0; u0 < units; u0 += group {
 		for c := range nChunks {
-			tk := task{unit: u, chunk: c, k0: c * chunk, k1: min((c+1)*chunk, steps)}
+			tk := task{u0: u0, u1: min(u0+group, units), chunk: c, k0: c * chunk, k1: min((c+1)*chunk, steps)}
 			select {
 			case next <- tk:
 			case <-ctx.Done():

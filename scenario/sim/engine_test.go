@@ -187,3 +187,59 @@ func TestObstructionCutsReadings(t *testing.T) {
 		t.Errorf("unblocked sensor peak signal %g, want a lit reading", p)
 	}
 }
+
+// noisyFaceArray is faceArray with realistic errors: misalignment, dark
+// offset, gain mismatch, noise and a 12-bit ADC (values of a hobby-grade
+// photodiode chain, common practice, no source).
+func noisyFaceArray(t testing.TB, halfDeg float64) *sensor.Array {
+	t.Helper()
+	var ss []sensor.Sensor
+	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
+		face, _ := sensor.ParseFace(f)
+		m, err := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: halfDeg * math.Pi / 180, Threshold: 0.05,
+			Errors: sensor.Errors{MisalignSigma: 0.5 * math.Pi / 180, DarkSigma: 0.005, GainSigma: 0.02, NoiseSigma: 0.003, ADCBits: 12, FullScale: 1.5}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ss = append(ss, c)
+	}
+	arr, err := sensor.NewArray(ss...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return arr
+}
+
+// Monte Carlo units of one attitude share the geometry of each step (one
+// computation read by every unit); the figures equal those of units that
+// each compute their own (a per-unit law returning the same attitude).
+func TestSharedGeometryEqualsPerUnit(t *testing.T) {
+	var shows []string
+	for _, perUnit := range []bool{false, true} {
+		for _, w := range []int{1, 2} {
+			cfg := referenceCase(t, 0.5, true)
+			cfg.Array = noisyFaceArray(t, 70)
+			cfg.Units, cfg.Workers = 5, w
+			if perUnit {
+				cfg.LawForUnit = func(int) attitude.Law { return attitude.Nadir{} }
+			}
+			res, err := Run(context.Background(), cfg)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if a, b := res.Units[0].Estimators[0].ErrAlbedo, res.Units[1].Estimators[0].ErrAlbedo; a == b {
+				t.Fatalf("units 0 and 1 have the same errors %+v: the drawn errors do not act", a)
+			}
+			shows = append(shows, showUnits(res))
+		}
+	}
+	for i := 1; i < len(shows); i++ {
+		if shows[i] != shows[0] {
+			t.Fatalf("case %d differs from shared geometry on one worker:\n%s\n%s", i, shows[0], shows[i])
+		}
+	}
+}

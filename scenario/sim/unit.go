@@ -221,29 +221,42 @@ func (r *reader) step(k int, g *stepGeom, albBody []sensor.Albedo) {
 	r.acc.step(k, g.t, g.region, g.lit, seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.arr, r.ests)
 }
 
-// runChunk simulates the steps [tk.k0, tk.k1) of unit tk.unit, whose
-// sensors (with their drawn errors) are arr.
-func runChunk(ctx context.Context, cfg *Config, arr *sensor.Array, tk task, done *atomic.Int64, total int, table *localAlbedo) (*unitAcc, error) {
-	g, err := newGeometry(cfg, arr, tk.unit, table)
+// runChunk simulates the steps [tk.k0, tk.k1) of units [tk.u0, tk.u1),
+// whose sensors (with their drawn errors) are arrays[u]: the geometry is
+// computed once per step (on the nominal mounts, with unit tk.u0's
+// attitude, the same for every unit of a task) and each unit's sensors are
+// read on it.
+func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task, done *atomic.Int64, total int, table *localAlbedo) ([]*unitAcc, error) {
+	g, err := newGeometry(cfg, arrays[tk.u0], tk.u0, table)
 	if err != nil {
 		return nil, err
 	}
-	r := newReader(cfg, arr, tk.unit, tk.k0)
-	albBody := make([]sensor.Albedo, arr.Len())
+	readers := make([]*reader, tk.u1-tk.u0)
+	for i := range readers {
+		readers[i] = newReader(cfg, arrays[tk.u0+i], tk.u0+i, tk.k0)
+	}
+	albBody := make([]sensor.Albedo, arrays[tk.u0].Len())
+	n := int64(len(readers))
 	for k := tk.k0; k < tk.k1; k++ {
 		if k&1023 == 0 && k > tk.k0 {
 			if ctx.Err() != nil {
 				return nil, ctx.Err()
 			}
-			if d := done.Add(1024); cfg.Progress != nil {
+			if d := done.Add(1024 * n); cfg.Progress != nil {
 				cfg.Progress(float64(d) / float64(total))
 			}
 		}
 		sg := g.step(k, albBody)
-		r.step(k, &sg, albBody)
+		for _, r := range readers {
+			r.step(k, &sg, albBody)
+		}
 	}
-	r.acc.end(float64(tk.k1) * cfg.Step)
-	return r.acc, nil
+	accs := make([]*unitAcc, len(readers))
+	for i, r := range readers {
+		r.acc.end(float64(tk.k1) * cfg.Step)
+		accs[i] = r.acc
+	}
+	return accs, nil
 }
 
 // readAll reads every sensor; blocked[i] (nil: none blocked) cuts sensor i's

@@ -22,6 +22,9 @@ func (r *resolver) vec(path string, v []float64, def r3.Vec) r3.Vec {
 
 func (r *resolver) body(b *fileBody) Body {
 	var out Body
+	out.FormFactor, out.SizeM = r.outline(b)
+	r.half = r3.Scale(0.5, out.SizeM)
+	r.obstructed = len(b.Obstructions) > 0
 	if len(b.Sensors) == 0 {
 		r.fail("body.sensors", "value is an empty list; allowed at least one sensor")
 	}
@@ -127,10 +130,7 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	if s.ClockRad != 0 && r3.Norm(s.Boresight) > 0 {
 		s.RefAxis = r3.Rotate(s.RefAxis, s.ClockRad, s.Boresight)
 	}
-	if f.PositionM == nil {
-		f.PositionM = []float64{0, 0, 0}
-	}
-	s.PositionM = r.vec(p+".position_m", f.PositionM, r3.Vec{})
+	r.place(p, f, &s)
 
 	halfDef := 60.0
 	if f.Kind == KindCosine {
@@ -204,6 +204,134 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	}
 	s.Errors = r.errorsOf(p+".errors", f.Errors)
 	return s
+}
+
+// formFactors are the outer dimensions (m, along body X, Y, Z) of the
+// CubeSat sizes a file may name instead of size_m: 1U 100 × 100 × 113.5 mm
+// and 3U 100 × 100 × 340.5 mm (CubeSat Design Specification rev. 14,
+// Cal Poly, from memory), 6U 226.3 × 100 × 366 mm and 12U 226.3 × 226.3 ×
+// 366 mm (6U/12U CubeSat Design Specification rev. 1.0, Cal Poly, from
+// memory). The long (deployer rail) axis is body Z and a 6U's wide side
+// body X: our convention. Rails and deployables are not part of the outline.
+var formFactors = map[string]r3.Vec{
+	"1U":  {X: 0.1, Y: 0.1, Z: 0.1135},
+	"3U":  {X: 0.1, Y: 0.1, Z: 0.3405},
+	"6U":  {X: 0.2263, Y: 0.1, Z: 0.366},
+	"12U": {X: 0.2263, Y: 0.2263, Z: 0.366},
+}
+
+var formFactorNames = []string{"1U", "3U", "6U", "12U"}
+
+// outline resolves the bus outline: form_factor or size_m, not both.
+func (r *resolver) outline(b *fileBody) (string, r3.Vec) {
+	switch {
+	case b.FormFactor != "" && b.SizeM != nil:
+		r.fail("body.size_m", "value is given together with form_factor; allowed one of form_factor or size_m")
+	case b.FormFactor != "":
+		f := strings.ToUpper(b.FormFactor)
+		size, ok := formFactors[f]
+		if !ok {
+			r.fail("body.form_factor", "value %q is unknown; allowed %s (or size_m: [x, y, z] in metres)", b.FormFactor, strings.Join(formFactorNames, ", "))
+			return "", r3.Vec{}
+		}
+		b.FormFactor = f
+		return f, size
+	case b.SizeM != nil:
+		size := r.vec("body.size_m", b.SizeM, r3.Vec{})
+		if !(size.X > 0 && size.Y > 0 && size.Z > 0 && size.X <= 100 && size.Y <= 100 && size.Z <= 100) {
+			r.fail("body.size_m", "value %v is out of range; allowed three full extents in (0, 100] metres along body X, Y, Z", b.SizeM)
+			return "", r3.Vec{}
+		}
+		return "", size
+	}
+	return "", r3.Vec{}
+}
+
+// surfaceTolM is how far from the outline a position may lie and still count
+// as on its surface (1 mm).
+const surfaceTolM = 1e-3
+
+// place sets a sensor's position and mounting plane. On a bus outline a
+// sensor left without position_m sits at the centre of its face (a face
+// mount) or where its boresight leaves the outline (a vector mount); a given
+// position inside the outline is refused. Without an outline the position
+// defaults to the body origin, which is refused when obstructions are traced
+// from it. The mounting plane is the face's for a face mount; for a vector
+// mount, the outline face it sits on, else the plane normal to its boresight.
+func (r *resolver) place(p string, f *fileSensor, s *Sensor) {
+	h := r.half
+	onBus := h != (r3.Vec{})
+	var face r3.Vec
+	if s.Face != "" {
+		face, _ = parseAxis(s.Face)
+	}
+	if r3.Norm(s.Boresight) == 0 {
+		return // the mount was refused already
+	}
+	if f.PositionM != nil {
+		s.PositionM = r.vec(p+".position_m", f.PositionM, r3.Vec{})
+		q := s.PositionM
+		if onBus && math.Abs(q.X) < h.X-surfaceTolM && math.Abs(q.Y) < h.Y-surfaceTolM && math.Abs(q.Z) < h.Z-surfaceTolM {
+			r.fail(p+".position_m", "value %v lies inside the bus outline (half extents %.4g, %.4g, %.4g m); allowed a point on a face or outside it, or leave position_m out to place the sensor at its face centre",
+				f.PositionM, h.X, h.Y, h.Z)
+		}
+	} else {
+		switch {
+		case onBus && face != (r3.Vec{}):
+			s.PositionM = r3.Vec{X: face.X * h.X, Y: face.Y * h.Y, Z: face.Z * h.Z}
+		case onBus:
+			s.PositionM = exitPoint(s.Boresight, h)
+		case r.obstructed:
+			r.fail(p+".position_m", "value is missing while body.obstructions are traced from each sensor's position; allowed position_m [x, y, z] in metres, or body.form_factor / body.size_m to place sensors at their face centres")
+		}
+		f.PositionM = []float64{s.PositionM.X, s.PositionM.Y, s.PositionM.Z}
+	}
+	switch {
+	case face != (r3.Vec{}):
+		s.MountNormal = face
+	case onBus:
+		s.MountNormal = surfaceNormal(s.PositionM, s.Boresight, h)
+	default:
+		s.MountNormal = s.Boresight
+	}
+}
+
+// exitPoint is where the ray from the body origin along unit b leaves the
+// box of half extents h.
+func exitPoint(b, h r3.Vec) r3.Vec {
+	t := math.Inf(1)
+	for _, c := range [3][2]float64{{b.X, h.X}, {b.Y, h.Y}, {b.Z, h.Z}} {
+		if c[0] != 0 {
+			t = math.Min(t, c[1]/math.Abs(c[0]))
+		}
+	}
+	return r3.Scale(t, b)
+}
+
+// surfaceNormal is the outward normal of the outline face the point q lies
+// on (within surfaceTolM), the one facing the boresight b best on an edge;
+// the boresight itself when q is off the outline.
+func surfaceNormal(q, b, h r3.Vec) r3.Vec {
+	best, bestDot := b, math.Inf(-1)
+	for _, c := range []struct {
+		q, h float64
+		n    r3.Vec
+	}{{q.X, h.X, r3.Vec{X: 1}}, {q.Y, h.Y, r3.Vec{Y: 1}}, {q.Z, h.Z, r3.Vec{Z: 1}}} {
+		if math.Abs(math.Abs(c.q)-c.h) > surfaceTolM {
+			continue
+		}
+		n := c.n
+		if c.q < 0 {
+			n = r3.Scale(-1, n)
+		}
+		if d := r3.Dot(n, b); d > bestDot {
+			best, bestDot = n, d
+		}
+	}
+	if math.Abs(q.X) > h.X+surfaceTolM || math.Abs(q.Y) > h.Y+surfaceTolM || math.Abs(q.Z) > h.Z+surfaceTolM {
+		return b
+	}
+	return best
 }
 
 func (r *resolver) errorsOf(p string, e *fileErrors) SensorErrors {

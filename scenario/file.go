@@ -112,6 +112,8 @@ type fileLayout struct {
 }
 
 type fileBody struct {
+	FormFactor   string            `yaml:"form_factor,omitempty"`
+	SizeM        []float64         `yaml:"size_m,omitempty"`
 	Sensors      []fileSensor      `yaml:"sensors"`
 	Obstructions []fileObstruction `yaml:"obstructions,omitempty"`
 	Layouts      []fileLayout      `yaml:"layouts,omitempty"`

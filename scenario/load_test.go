@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
 )
 
 func TestExamplesLoadAndMatchTemplates(t *testing.T) {
@@ -142,6 +144,11 @@ func TestBadInputs(t *testing.T) {
 		{"list for mapping", "orbit: [1, 2]\n" + sensor, "orbit (line 1, col 8): value a list is not a mapping"},
 		{"empty file", "", "value is empty"},
 		{"cylinder radius", orbit + sensor + "  obstructions: [{name: m, shape: cylinder, from_m: [0,0,0], to_m: [0,0,1]}]\n", "radius_m"},
+		{"unknown form factor", orbit + "body:\n  form_factor: 5U\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n", "body.form_factor (line 3"},
+		{"form factor and size", orbit + "body:\n  form_factor: 3U\n  size_m: [0.1, 0.1, 0.3]\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n", "body.size_m"},
+		{"size negative", orbit + "body:\n  size_m: [0.1, -0.1, 0.3]\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n", "body.size_m"},
+		{"sensor inside the bus", orbit + "body:\n  form_factor: 3U\n  sensors: [{name: a, kind: cosine, face: \"+X\", position_m: [0.01, 0, 0]}]\n", "inside the bus outline"},
+		{"obstruction without positions", orbit + sensor + "  obstructions: [{name: m, shape: cylinder, from_m: [0,0,0], to_m: [0,0,1], radius_m: 0.01}]\n", "body.sensors[0].position_m"},
 		{"coverage k too big", orbit + sensor + "targets: {coverage_sensors: 3, min_coverage: 0.9}\n", "targets.coverage_sensors"},
 		{"bool type", orbit + sensor + "targets: {survive_one_failure: maybe}\n", "not true or false"},
 	}
@@ -181,4 +188,45 @@ func FuzzParse(f *testing.F) {
 			}
 		}
 	})
+}
+
+// Sensors on a bus outline: a face mount left without position_m sits at
+// its face centre, a vector mount where its boresight leaves the outline,
+// and each sees nothing behind the surface it sits on. The 3U outline is
+// 100 × 100 × 340.5 mm (CubeSat Design Specification rev. 14, from memory).
+func TestSensorPlacementOnTheOutline(t *testing.T) {
+	text := "orbit: {altitude_km: 500, inclination_deg: 97}\nbody:\n  form_factor: 3u\n  sensors:\n" +
+		"    - {name: a, kind: cosine, face: \"-Z\", tilt_deg: 30}\n" +
+		"    - {name: b, kind: cosine, boresight: [1, 1, 0]}\n" +
+		"    - {name: c, kind: cosine, boresight: [0, 0, 1], position_m: [0.3, 0, 0]}\n" +
+		"    - {name: d, kind: cosine, boresight: [0.2, 0, 1], position_m: [0.02, 0.01, 0.17025]}\n"
+	s, err := Parse([]byte(text), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Body.FormFactor != "3U" || s.Body.SizeM != (r3.Vec{X: 0.1, Y: 0.1, Z: 0.3405}) {
+		t.Fatalf("outline %q %v", s.Body.FormFactor, s.Body.SizeM)
+	}
+	want := []struct{ pos, normal r3.Vec }{
+		{r3.Vec{Z: -0.17025}, r3.Vec{Z: -1}},
+		{r3.Vec{X: 0.05, Y: 0.05}, r3.Vec{X: 1}}, // an edge: the first face met along the boresight
+		{r3.Vec{X: 0.3}, r3.Vec{Z: 1}},           // off the outline: its own boresight plane
+		{r3.Vec{X: 0.02, Y: 0.01, Z: 0.17025}, r3.Vec{Z: 1}},
+	}
+	for i, w := range want {
+		got := s.Body.Sensors[i]
+		if r3.Norm(r3.Sub(got.PositionM, w.pos)) > 1e-12 || r3.Norm(r3.Sub(got.MountNormal, w.normal)) > 1e-12 {
+			t.Errorf("sensor %s: position %v normal %v, want %v %v", got.Name, got.PositionM, got.MountNormal, w.pos, w.normal)
+		}
+	}
+	// The record states the placed positions and loads to the same scenario.
+	again, err := Parse(s.Record(), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range want {
+		if again.Body.Sensors[i].PositionM != s.Body.Sensors[i].PositionM || again.Body.Sensors[i].MountNormal != s.Body.Sensors[i].MountNormal {
+			t.Errorf("sensor %d placed differently from the record", i)
+		}
+	}
 }

@@ -58,6 +58,11 @@ type resolver struct {
 	nodes map[string]*yaml.Node
 	dir   string
 	errs  Errors
+	// half is the bus outline's half extents (m), zero without an outline;
+	// obstructed says the body lists obstructions. Both are set before the
+	// sensors are resolved, which are placed on the outline.
+	half       r3.Vec
+	obstructed bool
 }
 
 // fail records a problem at path, taking the line from the nearest key of the

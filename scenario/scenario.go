@@ -130,9 +130,14 @@ type Sensor struct {
 	Face      string // "+X" …, empty when the mount was a boresight vector
 	Boresight r3.Vec // unit vector, body axes
 	RefAxis   r3.Vec // unit vector ⟂ Boresight: the sensor's own x axis after tilt and clock
-	PositionM r3.Vec
-	TiltRad   float64
-	ClockRad  float64
+	// PositionM is where the sensor sits (body axes, m): given, or the
+	// centre of its face on the bus outline. MountNormal is the outward
+	// normal of the surface it sits on: it sees nothing at or behind that
+	// plane.
+	PositionM   r3.Vec
+	MountNormal r3.Vec
+	TiltRad     float64
+	ClockRad    float64
 
 	HalfAngleRad float64 // field of view half angle, in (0, π/2]
 	Threshold    float64 // fraction of the full-sun normal response below which the reading is "no sun"
@@ -182,9 +187,15 @@ type Layout struct {
 	Sensors []Sensor
 }
 
-// Body holds the sensors flown, obstructions, alternative layouts and the
-// candidate mounts a layout search may choose from.
+// Body holds the bus outline, the sensors flown, obstructions, alternative
+// layouts and the candidate mounts a layout search may choose from.
 type Body struct {
+	// FormFactor is the CubeSat size named in the file ("" when none);
+	// SizeM the outline's full extents along body X, Y, Z (m), a solid box
+	// centred on the body origin that hides what lies behind it from every
+	// sensor; zero when the file gives neither form_factor nor size_m.
+	FormFactor   string
+	SizeM        r3.Vec
 	Sensors      []Sensor
 	Obstructions []Obstruction
 	Layouts      []Layout

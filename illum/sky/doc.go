@@ -14,8 +14,15 @@
 // Viewers are anything with Sees(dirBody) bool, so the sensor package's
 // field-of-view tests plug in directly; Cone is a plain circular field of
 // view. Obstacles are Rectangle (a flat plate given by centre and two half-
-// extent vectors) and Cylinder (a solid rod about a segment); Obstructed
-// wraps a Viewer, its mount position and the obstacles into a Viewer.
+// extent vectors), Cylinder (a solid rod about a segment) and Box (a solid
+// axis-aligned box: the bus outline); Obstructed wraps a Viewer, its mount
+// position, the outward normal of the surface it sits on and the obstacles
+// into a Viewer. A sensor never sees a direction at or behind its mounting
+// plane (d·n ≤ 0), whatever its field of view: a +X sensor tilted 45° with
+// an 80° half-angle sees 32.9 % of the sky, not the 41.3 % of its bare cone.
+// From a point on a face of a convex bus the box hides exactly the space
+// behind that face; it hides more from a sensor standing off the bus (on a
+// boom or a deployed panel) or beside a protrusion.
 //
 // # Assumptions
 //

@@ -107,24 +107,72 @@ func (c Cylinder) Blocks(o, d r3.Vec) bool {
 	return lo <= hi
 }
 
-// Obstructed is a Viewer mounted at Position (body frame) whose view is
-// blocked by Obstacles. Sun and albedo rays are treated as parallel, so a
-// direction is blocked when the ray from the mount position meets a shape.
-type Obstructed struct {
-	View      Viewer
-	Position  r3.Vec
-	Obstacles []Obstacle
+// Box is a solid axis-aligned box Centre ± Half (half extents ≥ 0): the
+// bus outline, or a box-shaped body part.
+type Box struct {
+	Centre, Half r3.Vec
 }
 
-// Sees implements Viewer.
-func (o Obstructed) Sees(d r3.Vec) bool {
-	if !o.View.Sees(d) {
-		return false
-	}
-	for _, ob := range o.Obstacles {
-		if ob.Blocks(o.Position, d) {
+// Blocks implements Obstacle by the slab method: the ray is inside the box
+// for t in the intersection of its three slab intervals, and it meets the
+// box when that intersection holds some t > rayEps (Kay & Kajiya 1986,
+// SIGGRAPH 20(4) 269–278, from memory). A sensor on a face looking out of
+// the box is not blocked: its interval ends at t = 0.
+func (b Box) Blocks(o, d r3.Vec) bool {
+	lo, hi := rayEps, math.Inf(1)
+	for _, ax := range [3][3]float64{
+		{o.X - b.Centre.X, d.X, b.Half.X},
+		{o.Y - b.Centre.Y, d.Y, b.Half.Y},
+		{o.Z - b.Centre.Z, d.Z, b.Half.Z},
+	} {
+		p, v, h := ax[0], ax[1], ax[2]
+		if v == 0 {
+			if p < -h || p > h {
+				return false
+			}
+			continue
+		}
+		t1, t2 := (-h-p)/v, (h-p)/v
+		if t1 > t2 {
+			t1, t2 = t2, t1
+		}
+		lo, hi = math.Max(lo, t1), math.Min(hi, t2)
+		if lo > hi {
 			return false
 		}
 	}
 	return true
+}
+
+// Obstructed is a Viewer mounted at Position (body frame) on a surface of
+// outward normal Face, whose view is blocked by Obstacles. A direction at
+// or behind the mounting plane (d·Face ≤ 0) is never seen, whatever the
+// field of view: the sensor cannot look through the surface it sits on. A
+// zero Face means no mounting plane. Sun and albedo rays are treated as
+// parallel, so a direction is blocked when the ray from the mount position
+// meets a shape.
+type Obstructed struct {
+	View      Viewer
+	Position  r3.Vec
+	Face      r3.Vec
+	Obstacles []Obstacle
+}
+
+// Hidden reports whether the mounting plane or an obstacle hides the body
+// direction d from the mount position (the field of view aside).
+func (o Obstructed) Hidden(d r3.Vec) bool {
+	if o.Face != (r3.Vec{}) && !(r3.Dot(d, o.Face) > 0) {
+		return true
+	}
+	for _, ob := range o.Obstacles {
+		if ob.Blocks(o.Position, d) {
+			return true
+		}
+	}
+	return false
+}
+
+// Sees implements Viewer.
+func (o Obstructed) Sees(d r3.Vec) bool {
+	return o.View.Sees(d) && !o.Hidden(d)
 }

@@ -98,3 +98,68 @@ func TestObstructedViewer(t *testing.T) {
 		t.Errorf("unobstructed %.6f, bare cone %.6f", free, want)
 	}
 }
+
+// From the centre of a box face every inward direction meets the box and no
+// outward one does: the box hides exactly half of the sphere (closed form;
+// the lattice's z values are symmetric, so a ±Z face gives exactly 1/2).
+func TestBoxFromItsFaceHidesHalf(t *testing.T) {
+	b := Box{Half: r3.Vec{X: 0.05, Y: 0.1135, Z: 0.17025}}
+	for _, o := range []r3.Vec{{Z: 0.17025}, {X: 0.02, Y: -0.1, Z: -0.17025}} {
+		if f := blockedFraction(t, b, o, DefaultPoints); f != 0.5 {
+			t.Errorf("box seen from its face at %v hides %.8f, want 0.5", o, f)
+		}
+	}
+}
+
+// Seen from a point on the axis in front of a face, a box hides exactly the
+// solid angle of that face: its side faces recede behind the face's outline
+// (closed form, the rectangle formula of TestRectangleSolidAngle).
+func TestBoxFromOutside(t *testing.T) {
+	a, b, c, d := 0.3, 0.5, 0.2, 0.9
+	box := Box{Centre: r3.Vec{X: 0.1, Y: -0.2}, Half: r3.Vec{X: a, Y: b, Z: c}}
+	o := r3.Vec{X: 0.1, Y: -0.2, Z: d}
+	h := d - c
+	want := 4 * math.Asin(a*b/math.Sqrt((a*a+h*h)*(b*b+h*h))) / (4 * math.Pi)
+	if got := blockedFraction(t, box, o, 1<<18); math.Abs(got-want) > 2e-4 {
+		t.Errorf("box hides %.6f, its near face subtends %.6f", got, want)
+	}
+	cases := []struct {
+		name   string
+		o, d   r3.Vec
+		blocks bool
+	}{
+		{"toward the box", r3.Vec{Z: 1}, r3.Vec{Z: -1}, true},
+		{"away from the box", r3.Vec{Z: 1}, r3.Vec{Z: 1}, false},
+		{"parallel, outside a slab", r3.Vec{X: 1}, r3.Vec{Y: 1}, false},
+		{"parallel, inside the slabs", r3.Vec{X: 0.1, Y: -2}, r3.Vec{Y: 1}, true},
+		{"passes a corner", r3.Vec{X: 1, Y: -0.2, Z: 0.5}, r3.Unit(r3.Vec{X: -1, Z: -0.1}), false},
+		{"from inside", r3.Vec{X: 0.1, Y: -0.2}, r3.Vec{X: 1}, true},
+	}
+	for _, cs := range cases {
+		if got := box.Blocks(cs.o, cs.d); got != cs.blocks {
+			t.Errorf("%s: blocks = %v, want %v", cs.name, got, cs.blocks)
+		}
+	}
+}
+
+// A sensor never sees behind its mounting plane: a hemispherical sensor
+// tilted 45° off a +Z face sees only the lune between the plane z = 0 and
+// its own horizon, and a cone on the face normal loses nothing (closed form:
+// a lune of dihedral angle θ covers 2θ of the sphere's 4π).
+func TestObstructedFacePlane(t *testing.T) {
+	lat := mustLattice(t, 1<<18)
+	tilted := NewCone(r3.Unit(r3.Vec{X: 1, Z: 1}), math.Pi/2)
+	v := Obstructed{View: tilted, Face: r3.Vec{Z: 1}}
+	// Hemisphere about (1,0,1)/√2 cut by z > 0: a lune of dihedral angle
+	// 135°, area 2·(3π/4) of 4π = 3/8.
+	if got := mustCoverage(t, []Viewer{v}, lat).AtLeast[1]; math.Abs(got-0.375) > 2e-4 {
+		t.Errorf("tilted hemisphere behind a face sees %.6f, want 0.375", got)
+	}
+	n := Obstructed{View: NewCone(r3.Vec{Z: 1}, math.Pi/2-1e-12), Face: r3.Vec{Z: 1}}
+	if got, want := mustCoverage(t, []Viewer{n}, lat).AtLeast[1], mustCoverage(t, []Viewer{n.View}, lat).AtLeast[1]; got != want {
+		t.Errorf("face-normal sensor: %.6f with the face plane, %.6f without", got, want)
+	}
+	if v.Sees(r3.Vec{X: 1}) {
+		t.Error("a direction in the mounting plane is seen")
+	}
+}

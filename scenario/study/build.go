@@ -227,11 +227,7 @@ func BuildSensors(s *scenario.Scenario, list []scenario.Sensor, path string) (*s
 		}
 		ss = append(ss, sn)
 		resp = append(resp, r)
-		var v sky.Viewer = sky.ViewerFunc(sn.InFOV)
-		if len(obstacles) > 0 {
-			v = sky.Obstructed{View: v, Position: sc.PositionM, Obstacles: obstacles}
-		}
-		viewers = append(viewers, v)
+		viewers = append(viewers, mounted(sky.ViewerFunc(sn.InFOV), sc, obstacles))
 	}
 	arr, err := sensor.NewArray(ss...)
 	if err != nil {
@@ -240,9 +236,20 @@ func BuildSensors(s *scenario.Scenario, list []scenario.Sensor, path string) (*s
 	return arr, viewers, resp, nil
 }
 
-// Obstacles returns the body's obstructions as sky shapes (body frame, m).
+// mounted wraps a sensor's field of view with what its mount hides: the
+// plane of the surface it sits on and every obstacle, traced from its
+// position.
+func mounted(v sky.Viewer, sc scenario.Sensor, obstacles []sky.Obstacle) sky.Obstructed {
+	return sky.Obstructed{View: v, Position: sc.PositionM, Face: sc.MountNormal, Obstacles: obstacles}
+}
+
+// Obstacles returns the bus outline (a solid box, when the body has one)
+// and the body's obstructions as sky shapes (body frame, m).
 func Obstacles(s *scenario.Scenario) []sky.Obstacle {
 	var out []sky.Obstacle
+	if b := s.Body.SizeM; b != (r3.Vec{}) {
+		out = append(out, sky.Box{Half: r3.Scale(0.5, b)})
+	}
 	for _, o := range s.Body.Obstructions {
 		switch o.Shape {
 		case scenario.ShapeRectangle:
@@ -388,12 +395,12 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	if err != nil {
 		return cfg, err
 	}
+	// The mounting plane and the obstacles cut each sensor's direct sunlight
+	// and albedo in the time domain as they cut its view of the sky.
 	var blocked []func(r3.Vec) bool
-	if obs := Obstacles(s); len(obs) > 0 {
-		for _, sc := range sensors {
-			clear := sky.Obstructed{View: sky.ViewerFunc(func(r3.Vec) bool { return true }), Position: sc.PositionM, Obstacles: obs}
-			blocked = append(blocked, func(d r3.Vec) bool { return !clear.Sees(d) })
-		}
+	obs := Obstacles(s)
+	for _, sc := range sensors {
+		blocked = append(blocked, mounted(nil, sc, obs).Hidden)
 	}
 	cfg = sim.Config{
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),

@@ -432,7 +432,13 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 	r.choice("albedo.model", &a.Model, AlbedoUniform, albedos)
 	out := Albedo{Model: a.Model}
 	if a.Model != AlbedoNone && a.Model != AlbedoGrid {
-		out.Value = setDefault(&a.Value, defaultAlbedo)
+		def := defaultAlbedo
+		if a.Model == AlbedoZonal {
+			// The zonal profile is scaled to the stated global mean;
+			// by default it keeps its own (no scaling).
+			def = ZonalMeanAlbedo
+		}
+		out.Value = setDefault(&a.Value, def)
 		r.rangeCheck("albedo.value", out.Value, 0, 1, false, "[0, 1]")
 	} else if a.Value != nil {
 		r.fail("albedo.value", "value does not apply to model %q; allowed with uniform or zonal", a.Model)

@@ -67,6 +67,9 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 	if doc.Kind == 0 || len(doc.Content) == 0 {
 		return nil, Errors{{Path: "(file)", Msg: "value is empty; allowed a scenario mapping with at least orbit and body (sunsight init writes one)"}}
 	}
+	if fe := secondDocument(data); fe != nil {
+		return nil, Errors{fe}
+	}
 	root := doc.Content[0]
 	w := walker{nodes: map[string]*yaml.Node{}}
 	w.check(root, reflect.TypeOf(fileScenario{}), "")
@@ -92,6 +95,31 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 	}
 	s.record = rec
 	return s, nil
+}
+
+// secondDocument returns an error when the text holds more than one YAML
+// document (a second one after "---" would otherwise be ignored).
+func secondDocument(data []byte) *FieldError {
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	var first, second yaml.Node
+	if dec.Decode(&first) != nil {
+		return nil
+	}
+	if err := dec.Decode(&second); err != nil {
+		// io.EOF: one document. A syntax error in a later document is
+		// reported as such.
+		if err == io.EOF {
+			return nil
+		}
+		return yamlSyntaxError(err)
+	}
+	fe := &FieldError{Path: "(file)", Msg: "value holds more than one YAML document (a second one starts after \"---\"); allowed one scenario per file: remove the \"---\" line and what follows, or split it into its own file"}
+	if len(second.Content) > 0 {
+		fe.Line, fe.Col = second.Content[0].Line, second.Content[0].Column
+	} else if second.Line > 0 {
+		fe.Line, fe.Col = second.Line, second.Column
+	}
+	return fe
 }
 
 func yamlSyntaxError(err error) *FieldError {

@@ -151,6 +151,10 @@ func TestBadInputs(t *testing.T) {
 		{"obstruction without positions", orbit + sensor + "  obstructions: [{name: m, shape: cylinder, from_m: [0,0,0], to_m: [0,0,1], radius_m: 0.01}]\n", "body.sensors[0].position_m"},
 		{"coverage k too big", orbit + sensor + "targets: {coverage_sensors: 3, min_coverage: 0.9}\n", "targets.coverage_sensors"},
 		{"bool type", orbit + sensor + "targets: {survive_one_failure: maybe}\n", "not true or false"},
+		{"nadir axes parallel", orbit + sensor + "attitude: {law: nadir, point_axis: \"+Z\", align_axis: \"+Z\"}\n", "attitude.align_axis (line 4"},
+		{"nadir axes opposite", orbit + sensor + "attitude: {law: nadir, point_axis: \"+Z\", align_axis: \"-Z\"}\n", "parallel to point_axis"},
+		{"sun axes parallel", orbit + sensor + "attitude: {law: sun, point_axis: \"+X\"}\nmodes: [{name: safe, law: sun, point_axis: \"-X\", align_axis: \"+X\"}]\n", "parallel to point_axis"},
+		{"second document", orbit + sensor + "---\nname: other\n", "(file) (line 5, col 1): value holds more than one YAML document"},
 	}
 	for _, c := range cases {
 		_, err := Parse([]byte(c.text), "")

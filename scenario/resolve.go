@@ -31,13 +31,18 @@ const (
 	defaultSunModel   = "low-precision"
 	defaultShadow     = "conical"
 	defaultAlbedo     = 0.30 // global mean Bond albedo ≈ 0.29–0.31 (from memory)
-	defaultCells      = 1000
-	defaultUnits      = 1
-	defaultDecimate   = 1
-	defaultThreshold  = 0.05
-	defaultFullScale  = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
-	defaultADCBits    = 12
-	defaultMaxRate    = 10.0 // deg/s: a typical post-deployment tip-off bound
+	// ZonalMeanAlbedo is the global (area) mean of the zonal reflectance
+	// profile, its a₀ term (Knocke, Ries & Tapley 1988, as in ECSS-E-ST-10-04C
+	// annex F; from memory): albedo.value with model zonal scales the whole
+	// profile by value / ZonalMeanAlbedo, so its mean becomes value.
+	ZonalMeanAlbedo  = 0.34
+	defaultCells     = 1000
+	defaultUnits     = 1
+	defaultDecimate  = 1
+	defaultThreshold = 0.05
+	defaultFullScale = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
+	defaultADCBits   = 12
+	defaultMaxRate   = 10.0 // deg/s: a typical post-deployment tip-off bound
 )
 
 var (
@@ -390,6 +395,9 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
 		out.MaxRateRadS = m * deg
 		used["max_rate_deg_s"] = true
+	}
+	if (l.Law == LawNadir || l.Law == LawSun) && r3.Norm(r3.Cross(out.PointAxis, out.AlignAxis)) < 1e-9 && r3.Norm(out.PointAxis) > 0 && r3.Norm(out.AlignAxis) > 0 {
+		r.fail(path+".align_axis", "value %q is parallel to point_axis %q, so it fixes no rotation about the pointed axis; allowed a body axis perpendicular to point_axis (for example +X with point_axis +Z)", l.AlignAxis, l.PointAxis)
 	}
 	given := map[string]bool{
 		"point_axis": l.PointAxis != "", "align_axis": l.AlignAxis != "", "roll_offset_deg": l.RollOffsetDeg != nil,

@@ -165,3 +165,23 @@ func FuzzParseGrid(f *testing.F) {
 		}
 	})
 }
+
+// Zonal.Scaled keeps the profile's shape and scales its global (area) mean:
+// ∫ρ d(sin φ)/2 = A0 because P₁ and P₂ integrate to zero (closed form),
+// checked by a midpoint sum in sin φ at several seasons.
+func TestZonalScaledMean(t *testing.T) {
+	for _, f := range []float64{0.3 / 0.34, 1, 1.3} {
+		z := KnockeZonal().Scaled(f)
+		for _, jd := range []float64{2451545, 2451545 + 91, 2451545 + 182} {
+			const n = 20000
+			sum := 0.0
+			for i := range n {
+				sφ := -1 + (float64(i)+0.5)*2/n
+				sum += z.Reflectance(math.Asin(sφ), 0, jd)
+			}
+			if mean := sum / n; math.Abs(mean-f*0.34) > 1e-6 {
+				t.Errorf("scale %.3f jd %.0f: area mean %.6f, want %.6f", f, jd, mean, f*0.34)
+			}
+		}
+	}
+}

@@ -41,6 +41,15 @@ func KnockeZonal() Zonal {
 	return Zonal{A0: 0.34, C0: 0, C1: 0.10, C2: 0, A2: 0.29, T0: 2444960.5}
 }
 
+// Scaled returns the profile with every coefficient multiplied by f, so its
+// global (area) mean A0 becomes f·A0 and its shape is kept: P₁ and P₂
+// integrate to zero over the sphere (closed form). Where the scaled ρ leaves
+// [0, 1] it is clamped, and the mean then differs from f·A0.
+func (z Zonal) Scaled(f float64) Zonal {
+	z.A0, z.A2, z.C0, z.C1, z.C2 = f*z.A0, f*z.A2, f*z.C0, f*z.C1, f*z.C2
+	return z
+}
+
 // a1 returns the seasonal first-degree coefficient at jd.
 func (z Zonal) a1(jd float64) float64 {
 	const ω = 2 * math.Pi / 365.25

@@ -72,7 +72,7 @@ func albedoText(s *scenario.Scenario) string {
 	case scenario.AlbedoUniform:
 		return fmt.Sprintf("albedo uniform %.2f", s.Albedo.Value)
 	case scenario.AlbedoZonal:
-		return fmt.Sprintf("albedo zonal (mean %.2f)", s.Albedo.Value)
+		return fmt.Sprintf("albedo zonal (global mean %.2f)", s.Albedo.Value)
 	case scenario.AlbedoGrid:
 		return "albedo from a reflectance grid"
 	}
@@ -349,7 +349,7 @@ func assumptions(s *scenario.Scenario) []plots.Assumption {
 		out = append(out, plots.Assumption{Model: fmt.Sprintf("Albedo: uniform Lambertian Earth, reflectance %.2f, %d cells", s.Albedo.Value, s.Albedo.Cells),
 			Source: "cell integration of the sunlit, visible cap after D. D. V. Bhanderi and T. Bak, Modeling Earth albedo for satellites in Earth orbit, AIAA GNC 2005; reflectance 0.30 from ECSS-E-ST-10-04C"})
 	case scenario.AlbedoZonal:
-		out = append(out, plots.Assumption{Model: fmt.Sprintf("Albedo: zonal reflectance (mean %.2f), %d cells", s.Albedo.Value, s.Albedo.Cells),
+		out = append(out, plots.Assumption{Model: fmt.Sprintf("Albedo: zonal reflectance scaled to a global mean of %.2f, %d cells", s.Albedo.Value, s.Albedo.Cells),
 			Source: "latitude model after R. Knocke, J. Ries and B. Tapley, AIAA 88-4292, 1988; cell integration after Bhanderi and Bak, AIAA GNC 2005"})
 	case scenario.AlbedoGrid:
 		out = append(out, plots.Assumption{Model: "Albedo: reflectance grid from a file", Source: "cell integration after Bhanderi and Bak, AIAA GNC 2005; grid values as supplied by the user"})

@@ -119,3 +119,31 @@ func TestConicalEventsAreTheConicalSearch(t *testing.T) {
 		}
 	}
 }
+
+// A gap never exceeds the run: one sensor alone never gives a least-squares
+// estimate, so the whole run (a day, no eclipse at β 80°) is one gap of
+// exactly the run's length, for a duration on and off the step grid.
+func TestLongestGapIsAtMostTheRun(t *testing.T) {
+	for _, dur := range []float64{86400, 86395} {
+		cfg := betaCase(t, 550, 80, false)
+		cfg.Duration = dur
+		m, _ := sensor.FaceMount(sensor.FacePlusX, 0, sensor.FaceNone, 0)
+		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "only", Mount: m, HalfAngle: math.Pi / 2, Threshold: 0.05})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if cfg.Array, err = sensor.NewArray(c); err != nil {
+			t.Fatal(err)
+		}
+		res, err := Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(res.Eclipses) != 0 {
+			t.Fatalf("eclipses at β 80°: %d", len(res.Eclipses))
+		}
+		if g := res.Nominal.Estimators[0].LongestGapS; g != dur {
+			t.Errorf("run %.0f s: longest gap %.0f s, want the run's length", dur, g)
+		}
+	}
+}

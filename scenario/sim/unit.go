@@ -251,9 +251,11 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 			r.step(k, &sg, albBody)
 		}
 	}
+	// The last sample stands for the time up to the run's end, not a whole
+	// step beyond it: no spell outlasts the run.
 	accs := make([]*unitAcc, len(readers))
 	for i, r := range readers {
-		r.acc.end(float64(tk.k1) * cfg.Step)
+		r.acc.end(min(float64(tk.k1)*cfg.Step, cfg.Duration))
 		accs[i] = r.acc
 	}
 	return accs, nil

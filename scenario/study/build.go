@@ -319,7 +319,10 @@ func AlbedoFactory(s *scenario.Scenario) (func() (*albedo.Model, error), error) 
 	case scenario.AlbedoUniform:
 		refl = albedo.Uniform{Albedo: s.Albedo.Value}
 	case scenario.AlbedoZonal:
-		refl = albedo.KnockeZonal()
+		// albedo.value is the profile's global mean: scale it (the
+		// default, scenario.ZonalMeanAlbedo, leaves it as published).
+		z := albedo.KnockeZonal()
+		refl = z.Scaled(s.Albedo.Value / z.A0)
 	case scenario.AlbedoGrid:
 		f, err := os.Open(s.Albedo.GridFile)
 		if err != nil {

@@ -213,9 +213,13 @@ func (o *runOutput) record() map[string]any {
 	}
 	var tj []map[string]any
 	for _, t := range o.targets {
-		tj = append(tj, map[string]any{"target": t.Label, "required": t.Required, "value": t.Value, "pass": t.Pass})
+		tj = append(tj, map[string]any{"key": t.Key, "target": t.Label, "required": t.Required, "value": t.Value, "pass": t.Pass})
 	}
 	out["targets"] = tj
+	v := study.Judge(o.targets)
+	failed := append([]string{}, v.FailedKeys...)
+	out["verdict"] = map[string]any{"status": v.Status(), "targets": v.Total, "failed": v.Failed,
+		"failed_targets": failed, "text": v.Text()}
 	return out
 }
 
@@ -238,14 +242,14 @@ func (o *runOutput) writeJSON(w io.Writer) error {
 
 func pct(f float64) string {
 	if math.IsNaN(f) {
-		return "   n/a"
+		return "     " + study.Missing
 	}
 	return fmt.Sprintf("%5.1f %%", 100*f)
 }
 
 func deg(f float64) string {
 	if math.IsNaN(f) {
-		return "n/a"
+		return study.Missing
 	}
 	return fmt.Sprintf("%.2f°", f)
 }
@@ -254,6 +258,7 @@ func deg(f float64) string {
 func (o *runOutput) writeSummary(w io.Writer) {
 	s, r, u := o.s, o.res, o.res.Nominal
 	fmt.Fprintf(w, "sunsight run: %s\n", s.Name)
+	fmt.Fprintf(w, "  verdict: %s\n", study.Judge(o.targets).Text())
 	fmt.Fprintf(w, "  %s for %s at %s steps (%d samples), seed %d, %d unit(s)\n", s.Epoch.Format(time.RFC3339), s.Duration, s.Step, r.Steps, s.Seed, len(r.Units))
 	fmt.Fprintf(w, "  orbit %s, a = %.1f km (mean altitude %.0f km), e = %.4f; propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
 		s.Orbit.Kind, s.Orbit.SemiMajorAxisKm, s.Orbit.SemiMajorAxisKm-orbit.RadiusEarthKm, s.Orbit.Eccentricity,
@@ -303,7 +308,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	}
 	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal)\n")
 	if len(o.targets) > 0 {
-		fmt.Fprintf(w, "\nTargets\n")
+		fmt.Fprintf(w, "\nTargets: %s\n", study.Judge(o.targets).Text())
 		for _, t := range o.targets {
 			verdict := "FAIL"
 			if t.Pass {

@@ -118,3 +118,31 @@ func TestRunPlotsHonoursOutputFigures(t *testing.T) {
 		t.Errorf("figures written: %s", got)
 	}
 }
+
+// The summary and the JSON record carry the same verdict, computed once by
+// study.Judge from the target checks.
+func TestRunVerdictSummaryMatchesJSON(t *testing.T) {
+	args := []string{"run", "-quiet", "-duration", "3h", "../../examples/nadir-6u-sso.yaml"}
+	var sum, js, errb bytes.Buffer
+	runMain(args, &sum, &errb)
+	runMain(append([]string{"run", "-json"}, args[1:]...), &js, &errb)
+	var rec struct {
+		Verdict struct {
+			Status  string   `json:"status"`
+			Targets int      `json:"targets"`
+			Failed  int      `json:"failed"`
+			Keys    []string `json:"failed_targets"`
+			Text    string   `json:"text"`
+		} `json:"verdict"`
+	}
+	if err := json.Unmarshal(js.Bytes(), &rec); err != nil {
+		t.Fatalf("JSON does not parse: %v (%s)", err, errb.String())
+	}
+	v := rec.Verdict
+	if v.Targets != 4 || v.Status == "" || v.Text == "" || len(v.Keys) != v.Failed {
+		t.Fatalf("verdict %+v", v)
+	}
+	if !strings.Contains(sum.String(), "verdict: "+v.Text+"\n") || !strings.Contains(sum.String(), "Targets: "+v.Text+"\n") {
+		t.Errorf("summary lacks the JSON verdict %q:\n%s", v.Text, sum.String())
+	}
+}

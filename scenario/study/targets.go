@@ -1,13 +1,19 @@
 package study
 
 import (
-	"codeberg.org/sunsight/sunsight/scenario"
 	"fmt"
 	"math"
+	"strings"
+
+	"codeberg.org/sunsight/sunsight/scenario"
 
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
+
+// Missing is the one mark for a value that is not defined (no valid sample,
+// no target, not modelled); summary, report and tables all print it.
+const Missing = "—"
 
 // Target keys name the requirements a scenario can state.
 const (
@@ -41,7 +47,7 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 	var out []TargetCheck
 	pct := func(f float64) string {
 		if math.IsNaN(f) {
-			return "n/a"
+			return Missing
 		}
 		return fmt.Sprintf("%.1f %%", 100*f)
 	}
@@ -71,7 +77,7 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 	if t.MaxGap > 0 {
 		lim := t.MaxGap.Seconds()
 		out = append(out, TargetCheck{Key: TargetGap, Label: "longest sunlit gap without a valid sun vector",
-			Required: "≤ " + t.MaxGap.String(), Value: fmt.Sprintf("%.0f s", h.LongestGapS), Pass: h.LongestGapS <= lim,
+			Required: "≤ " + spanS(lim), Value: spanS(h.LongestGapS), Pass: h.LongestGapS <= lim,
 			Margin: (lim - h.LongestGapS) / lim})
 	}
 	return out
@@ -80,7 +86,7 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 // checkErrorP95 judges a p95 error (degrees) against max_error_p95_deg.
 func checkErrorP95(s *scenario.Scenario, label string, p95 float64) TargetCheck {
 	lim := s.Targets.MaxErrorP95Rad * 180 / math.Pi
-	c := TargetCheck{Key: TargetErrorP95, Label: label, Required: fmt.Sprintf("≤ %.2f°", lim), Value: "n/a",
+	c := TargetCheck{Key: TargetErrorP95, Label: label, Required: fmt.Sprintf("≤ %.2f°", lim), Value: Missing,
 		Pass: p95 <= lim, Margin: math.Inf(-1)}
 	if !math.IsNaN(p95) {
 		c.Value = fmt.Sprintf("%.2f°", p95)
@@ -108,3 +114,60 @@ func FindTarget(checks []TargetCheck, key string) (TargetCheck, bool) {
 	}
 	return TargetCheck{}, false
 }
+
+// Verdict is the overall judgement of a run against its targets, computed
+// once from the checks so the summary, the JSON record, the report banner
+// and the exit code all say the same thing.
+type Verdict struct {
+	// Total is the number of targets judged; Failed how many were missed.
+	Total, Failed int
+	// FailedKeys and FailedLabels name the missed targets in check order.
+	FailedKeys   []string
+	FailedLabels []string
+}
+
+// Judge returns the overall verdict of the checks.
+func Judge(checks []TargetCheck) Verdict {
+	v := Verdict{Total: len(checks)}
+	for _, c := range checks {
+		if !c.Pass {
+			v.Failed++
+			v.FailedKeys = append(v.FailedKeys, c.Key)
+			v.FailedLabels = append(v.FailedLabels, c.Label)
+		}
+	}
+	return v
+}
+
+// Met reports whether every target was met (true when there are none).
+func (v Verdict) Met() bool { return v.Failed == 0 }
+
+// Status is a one-word status for machines: "met", "failed" or
+// "no-targets".
+func (v Verdict) Status() string {
+	switch {
+	case v.Total == 0:
+		return "no-targets"
+	case v.Failed == 0:
+		return "met"
+	}
+	return "failed"
+}
+
+// Text is the verdict in one line: "all 4 targets met", "1 of 4 targets
+// failed: p95 sun-vector error (combined)" or "no targets set".
+func (v Verdict) Text() string {
+	switch {
+	case v.Total == 0:
+		return "no targets set"
+	case v.Failed == 0:
+		if v.Total == 1 {
+			return "the 1 target met"
+		}
+		return fmt.Sprintf("all %d targets met", v.Total)
+	}
+	return fmt.Sprintf("%d of %d targets failed: %s", v.Failed, v.Total, strings.Join(v.FailedLabels, "; "))
+}
+
+// spanS prints a span in seconds ("600 s"), the unit every gap figure uses.
+func spanS(s float64) string { return fmt.Sprintf("%.0f s", s) }

@@ -198,6 +198,14 @@ func (c *Chart) Draw(dc draw.Canvas) {
 	}
 }
 
+// Uncaptioned returns a copy of the chart without its drawn caption, for a
+// page that sets the caption as text beside the figure.
+func (c *Chart) Uncaptioned() *Chart {
+	d := *c
+	d.Caption = Caption{}
+	return &d
+}
+
 // Formats lists the file formats Save and Encode accept.
 var Formats = []string{"png", "svg", "pdf"}
 

@@ -14,8 +14,13 @@ import (
 // Report is everything the HTML design-review report shows. All text is
 // escaped; only Figure.SVG, which must come from Chart.SVG, is inlined.
 type Report struct {
-	Title       string
-	GeneratedBy string // tool version, seed, date
+	Title string
+	// Verdict is the banner at the top: all targets met, or which failed.
+	Verdict Verdict
+	// Provenance is shown under the banner: date, input path and hash,
+	// tool version, VCS revision, seed.
+	Provenance  []Field
+	GeneratedBy string // free text under the provenance (optional)
 	// ScenarioRecord is the resolved scenario as text (shown verbatim).
 	ScenarioRecord string
 	Mounts         []MountRow
@@ -28,13 +33,29 @@ type Report struct {
 	Notes       []string
 }
 
+// Verdict is the overall judgement of the run against its targets, shown as
+// the banner at the top of the report.
+type Verdict struct {
+	// Status is "met", "failed" or "no-targets" (anything else is refused).
+	Status string
+	// Text is the verdict in one line ("1 of 4 targets failed: …").
+	Text string
+	// Failed names the failed targets, one per line of the banner.
+	Failed []string
+}
+
 // Table is a plain table of text cells; every column after the first is
 // aligned right (they hold figures).
 type Table struct {
 	Title  string
 	Header []string
 	Rows   [][]string
+	// Note is one line under the table (what a mark or unit means).
+	Note string
 }
+
+// Field is one named value of the provenance list.
+type Field struct{ Name, Value string }
 
 // MountRow is one sensor of the layout.
 type MountRow struct {
@@ -52,13 +73,23 @@ type HeadlineRow struct {
 	Unit   string
 	Target string
 	Pass   *bool
+	// Flag, when set, warns that the value is valid but misleading (for
+	// example an estimator valid most of the time with errors beyond the
+	// false-sun bound); shown under the label.
+	Flag string
 }
 
-// Figure is one inline figure; SVG is the output of Chart.SVG.
+// Figure is one inline figure; SVG is the output of Chart.SVG (render the
+// chart with Chart.Uncaptioned and give its caption as Lines, so the text
+// reflows as HTML).
 type Figure struct {
 	Title   string
-	Caption string
-	SVG     []byte
+	Caption string   // one paragraph of caption (optional)
+	Lines   []string // further caption paragraphs (Caption.Lines)
+	// Shape is "tall" for a figure of stacked panels (printed a little
+	// taller), empty otherwise.
+	Shape string
+	SVG   []byte
 }
 
 // Assumption names a model and its published source.
@@ -115,6 +146,11 @@ type figView struct {
 func WriteReport(w io.Writer, r Report) error {
 	if r.Title == "" {
 		return fmt.Errorf("plots: report: Title is empty; give the report a title")
+	}
+	switch r.Verdict.Status {
+	case "", "met", "failed", "no-targets":
+	default:
+		return fmt.Errorf("plots: report: Verdict.Status %q is not one of met, failed, no-targets", r.Verdict.Status)
 	}
 	v := reportView{Report: r}
 	for i, f := range r.Figures {

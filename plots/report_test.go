@@ -52,7 +52,7 @@ func TestWriteReport(t *testing.T) {
 		"Demo sun-sensor layout review &lt;draft&gt;", // user text escaped
 		"&lt;script&gt;alert(1)&lt;/script&gt;",
 		"not flight verification",
-		`<td class="pass">pass</td>`, `<td class="fail">fail</td>`, `<td class="none">—</td>`,
+		`<td class="pass">pass</td>`, `<td class="fail">FAIL</td>`, `<td class="none">—</td>`,
 		"97.4", "@media print",
 	} {
 		if !strings.Contains(h, want) {

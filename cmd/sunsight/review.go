@@ -1,8 +1,12 @@
 package main
 
 import (
+	"crypto/sha256"
 	"fmt"
+	"os"
+	"runtime/debug"
 	"slices"
+	"time"
 
 	"codeberg.org/sunsight/sunsight/plots"
 	"codeberg.org/sunsight/sunsight/scenario"
@@ -12,7 +16,7 @@ import (
 
 // writeReview draws the design-review figures of a run and writes them as
 // files (plotsDir) and/or binds them into the HTML report.
-func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, plotsDir string) error {
+func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, plotsDir string, prov review.Provenance) error {
 	all, err := review.Figures(s, cfg, res)
 	if err != nil {
 		return fmt.Errorf("figures: %w", err)
@@ -30,7 +34,7 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, 
 		}
 	}
 	if report != "" {
-		r, err := review.Report(s, cfg, res, figs, toolVersion())
+		r, err := review.Report(s, cfg, res, figs, prov)
 		if err != nil {
 			return fmt.Errorf("report: %w", err)
 		}
@@ -39,4 +43,30 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, 
 		}
 	}
 	return nil
+}
+
+// provenance records where a report comes from: the scenario file as given,
+// the SHA-256 of its bytes, the build's version and VCS revision, and now.
+func provenance(file string) (review.Provenance, error) {
+	b, err := os.ReadFile(file)
+	if err != nil {
+		return review.Provenance{}, err
+	}
+	p := review.Provenance{Input: file, InputSHA256: fmt.Sprintf("%x", sha256.Sum256(b)), Generated: time.Now().UTC()}
+	if bi, ok := debug.ReadBuildInfo(); ok {
+		p.Version = bi.Main.Version
+		dirty := false
+		for _, s := range bi.Settings {
+			switch s.Key {
+			case "vcs.revision":
+				p.Revision = s.Value
+			case "vcs.modified":
+				dirty = s.Value == "true"
+			}
+		}
+		if dirty && p.Revision != "" {
+			p.Revision += " (with local changes)"
+		}
+	}
+	return p, nil
 }

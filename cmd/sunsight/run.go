@@ -169,7 +169,11 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		}
 	}
 	if f.report != "" || f.plotsDir != "" {
-		if err := writeReview(s, cfg, res, f.report, f.plotsDir); err != nil {
+		prov, err := provenance(file)
+		if err != nil {
+			return err
+		}
+		if err := writeReview(s, cfg, res, f.report, f.plotsDir, prov); err != nil {
 			return err
 		}
 	}

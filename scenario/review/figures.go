@@ -27,6 +27,9 @@ import (
 type Named struct {
 	Name, Title string
 	Chart       *plots.Chart
+	// Tells is the figure's message in one sentence, with the run's
+	// numbers (the first line of its caption in the report).
+	Tells string
 }
 
 // Figure names, in report order.

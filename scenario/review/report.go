@@ -4,7 +4,7 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/study"
 	"fmt"
 	"math"
-	"strings"
+	"time"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
@@ -106,19 +106,84 @@ func captionOf(s *scenario.Scenario, cfg sim.Config, res *sim.Result) plots.Capt
 	return c
 }
 
-// figures of merit, formatted.
+// figures of merit, formatted; an undefined value prints study.Missing.
 func pct(f float64) string {
 	if math.IsNaN(f) {
-		return "n/a"
+		return study.Missing
 	}
 	return fmt.Sprintf("%.1f", 100*f)
 }
 
 func num(v float64, prec int) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return "n/a"
+		return study.Missing
 	}
 	return fmt.Sprintf("%.*f", prec, v)
+}
+
+// WrongBoundDeg is the error beyond which a valid estimate is counted as
+// wrong: the estimator says "here is the sun" and points more than this
+// far off (common practice, no source: a coarse sun sensor's estimate is
+// used for sun acquisition, which tolerates tens of degrees, not more).
+const WrongBoundDeg = 30.0
+
+// wrongShare is the share of valid estimates (realistic readings) more than
+// WrongBoundDeg off the sun, read from the error quantiles; NaN when there
+// is no valid estimate.
+func wrongShare(e *sim.EstimatorStats) float64 {
+	x, _ := e.ErrorCDF(cdfPoints, e.ErrAlbedo.N > 0)
+	if len(x) == 0 {
+		return math.NaN()
+	}
+	n := 0
+	for _, v := range x {
+		if v > WrongBoundDeg {
+			n++
+		}
+	}
+	return float64(n) / float64(len(x))
+}
+
+// wrongFlag is the warning of an estimator that is valid but wrong: more
+// than 5 % of its valid estimates lie beyond WrongBoundDeg, so its valid
+// share must not be read as a share of good estimates.
+func wrongFlag(e *sim.EstimatorStats) string {
+	w := wrongShare(e)
+	if !(w > 0.05) {
+		return ""
+	}
+	return fmt.Sprintf("valid but wrong: %.0f %% of its valid estimates are more than %.0f° off the sun", 100*w, WrongBoundDeg)
+}
+
+// Provenance says where a report comes from: the input file and its
+// SHA-256, the tool version and VCS revision, and when it was made.
+type Provenance struct {
+	Input       string // path of the scenario file as given
+	InputSHA256 string // hex
+	Version     string // module version
+	Revision    string // VCS revision ("" when not recorded)
+	Generated   time.Time
+}
+
+func (p Provenance) fields(seed int64) []plots.Field {
+	or := func(v string) string {
+		if v == "" {
+			return study.Missing
+		}
+		return v
+	}
+	gen := study.Missing
+	if !p.Generated.IsZero() {
+		gen = p.Generated.UTC().Format("2006-01-02 15:04 UTC")
+	}
+	return []plots.Field{
+		{Name: "Date", Value: gen},
+		{Name: "Input", Value: or(p.Input)},
+		{Name: "Input SHA-256", Value: or(p.InputSHA256)},
+		{Name: "Tool", Value: "sunsight " + or(p.Version)},
+		{Name: "Revision", Value: or(p.Revision)},
+		{Name: "Seed", Value: fmt.Sprint(seed)},
+	}
 }
 
 func verdict(ok bool) *bool { return &ok }
@@ -127,38 +192,42 @@ func verdict(ok bool) *bool { return &ok }
 // against the scenario's targets, the mount table, every figure, the
 // estimators side by side, the models with their sources, and the scenario
 // as run. version names the tool build.
-func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named, version string) (plots.Report, error) {
+func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named, prov Provenance) (plots.Report, error) {
 	if err := checkInputs(s, cfg, res); err != nil {
 		return plots.Report{}, err
 	}
 	r := plots.Report{
 		Title:          "Sun sensor design review: " + s.Name,
-		GeneratedBy:    fmt.Sprintf("sunsight %s, seed %d", version, s.Seed),
+		Provenance:     prov.fields(s.Seed),
 		ScenarioRecord: string(s.Record()),
 		Mounts:         mounts(s, cfg),
 	}
-	hl, err := headline(s, cfg, res)
+	hl, checks, err := headline(s, cfg, res)
 	if err != nil {
 		return r, err
 	}
 	r.Headline = hl
+	r.Verdict = verdictOf(checks)
 	cap := captionOf(s, cfg, res)
 	for _, f := range figs {
 		if f.Chart == nil {
 			return r, fmt.Errorf("review: figure %q has no chart", f.Name)
 		}
-		svg, err := f.Chart.SVG()
+		// The caption is set as HTML text under the figure (it reflows);
+		// the figure itself is drawn without it.
+		svg, err := f.Chart.Uncaptioned().SVG()
 		if err != nil {
 			return r, fmt.Errorf("review: figure %q: %w", f.Name, err)
 		}
-		// The chart draws its own caption; a figure without one gets the
-		// run's caption as the HTML figure caption instead (never both, so
-		// the text is not shown twice).
-		var text string
-		if f.Chart.Caption == (plots.Caption{}) {
-			text = strings.Join(cap.Lines(), " ")
+		c := f.Chart.Caption
+		if c == (plots.Caption{}) {
+			c = cap
 		}
-		r.Figures = append(r.Figures, plots.Figure{Title: f.Title, Caption: text, SVG: svg})
+		fig := plots.Figure{Title: f.Title, Caption: f.Tells, Lines: c.Lines(), SVG: svg}
+		if len(f.Chart.Panels) > 2 {
+			fig.Shape = "tall"
+		}
+		r.Figures = append(r.Figures, fig)
 	}
 	r.Assumptions = assumptions(s)
 	r.Tables = append(r.Tables, estimatorTable(res), sensorTable(s, res))
@@ -202,17 +271,32 @@ func realisticP95(e *sim.EstimatorStats) (float64, string) {
 	return e.ErrNoAlbedo.P95Deg, "no albedo modelled"
 }
 
-func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.HeadlineRow, error) {
+// verdictOf is the report banner of the target checks (study.Judge).
+func verdictOf(checks []study.TargetCheck) plots.Verdict {
+	v := study.Judge(checks)
+	out := plots.Verdict{Status: v.Status(), Text: v.Text()}
+	if v.Failed > 0 {
+		out.Text = fmt.Sprintf("%d of %d targets failed", v.Failed, v.Total)
+	}
+	for _, c := range checks {
+		if !c.Pass {
+			out.Failed = append(out.Failed, fmt.Sprintf("%s: got %s, required %s", c.Label, c.Value, c.Required))
+		}
+	}
+	return out
+}
+
+func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.HeadlineRow, []study.TargetCheck, error) {
 	h := res.Headline()
 	t := s.Targets
 	e := &res.Nominal.Estimators[0]
 	lat, err := sky.Fibonacci(sky.DefaultPoints)
 	if err != nil {
-		return nil, fmt.Errorf("review: %w", err)
+		return nil, nil, fmt.Errorf("review: %w", err)
 	}
 	cov, err := sky.Coverage(viewers(cfg), lat)
 	if err != nil {
-		return nil, fmt.Errorf("review: %w", err)
+		return nil, nil, fmt.Errorf("review: %w", err)
 	}
 	// The verdicts come from the scenario's one target judge.
 	checks := study.CheckTargets(s, h, cov)
@@ -226,14 +310,20 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 	}
 	rows := []plots.HeadlineRow{
 		row("Sunlit time", pct(h.SunlitFraction), "% of run"),
-		row("Eclipses (mean / longest)", fmt.Sprintf("%d (%s / %s)", h.Eclipses, num(h.EclipseMeanMin, 1), num(h.EclipseMaxMin, 1)), "min"),
-		row("Beta angle range", num(h.BetaMinDeg, 1)+" … "+num(h.BetaMaxDeg, 1), "deg"),
-		row("Sun seen by ≥ 1 sensor", pct(h.Seen1), "% of sunlit time"),
-		row("Sun seen by ≥ 2 sensors", pct(h.Seen2), "% of sunlit time"),
-		row("Sun seen by ≥ 3 sensors", pct(h.Seen3), "% of sunlit time"),
+		row("Eclipses in the run", fmt.Sprint(h.Eclipses), "count"),
 	}
+	if h.Eclipses > 0 {
+		rows = append(rows, row("Eclipse duration, mean / longest", num(h.EclipseMeanMin, 1)+" / "+num(h.EclipseMaxMin, 1), "min"))
+	}
+	rows = append(rows,
+		row("Beta angle range", num(h.BetaMinDeg, 1)+" … "+num(h.BetaMaxDeg, 1), "deg"),
+		row("Sun in view of ≥ 1 sensor", pct(h.Seen1), "% of sunlit time"),
+		row("Sun in view of ≥ 2 sensors", pct(h.Seen2), "% of sunlit time"),
+		row("Sun in view of ≥ 3 sensors", pct(h.Seen3), "% of sunlit time"),
+	)
 
 	valid := row("Valid sun vector ("+e.Name+")", pct(e.ValidFraction), "% of sunlit time")
+	valid.Flag = wrongFlag(e)
 	judge(&valid, study.TargetValid)
 	rows = append(rows, valid)
 
@@ -266,44 +356,51 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 		k = 0
 	}
 	for lvl := 1; lvl <= sky.MaxLevel; lvl++ {
-		c := row(fmt.Sprintf("Sky seen by ≥ %d sensor(s)", lvl), pct(cov.AtLeast[lvl]), "% of sphere")
+		c := row(fmt.Sprintf("Sky directions in view of ≥ %d sensor(s)", lvl), pct(cov.AtLeast[lvl]), "% of sphere")
 		if lvl == k {
 			judge(&c, study.TargetCoverage)
 		}
 		rows = append(rows, c)
 	}
 	if k > 0 {
-		crit := "none"
+		crit := study.Missing
 		if i := cov.Critical[k]; i >= 0 && i < cfg.Array.Len() {
 			crit = cfg.Array.Sensors()[i].Name()
 		}
-		f := row(fmt.Sprintf("Sky seen by ≥ %d with the worst sensor failed (%s)", k, crit), pct(cov.WorstOneFailed[k]), "% of sphere")
+		f := row(fmt.Sprintf("Sky directions in view of ≥ %d with the worst sensor failed (%s)", k, crit), pct(cov.WorstOneFailed[k]), "% of sphere")
 		judge(&f, study.TargetCoverageOneFailed)
 		rows = append(rows, f)
 	}
-	return rows, nil
+	return rows, checks, nil
 }
 
 // estimatorTable lists the estimators side by side on the same readings.
 func estimatorTable(res *sim.Result) plots.Table {
 	t := plots.Table{Title: "Sun-vector estimators side by side (same readings)",
-		Header: []string{"estimator", "valid (% of sunlit)", "valid without albedo", "p95 without albedo (deg)",
-			"p95 with albedo (deg)", "albedo part p95 (deg)", "longest gap (s)", "gaps", "p95 reached by 95 % of units (deg)"}}
+		Header: []string{"estimator", "valid (% of sunlit)", "valid without albedo (% of sunlit)", "p95 without albedo (deg)",
+			"p95 with albedo (deg)", "albedo part p95 (deg)", fmt.Sprintf("valid but > %.0f° off (%% of valid)", WrongBoundDeg),
+			"longest gap (s)", "gaps (count)", "p95 reached by 95 % of units (deg)"},
+		Note: fmt.Sprintf("— : not defined for this run (no albedo model, one unit, or no valid estimate). ⚠ marks an estimator valid but wrong: more than 5 %% of its valid estimates lie more than %.0f° off the sun.", WrongBoundDeg)}
 	for j, e := range res.Nominal.Estimators {
 		name := e.Name
 		if j == 0 {
 			name += " (primary)"
 		}
-		units := "—"
+		units := study.Missing
 		if j < len(res.AcrossUnits) {
 			units = num(res.AcrossUnits[j].P95OfUnitP95Deg, 2)
 		}
-		with, part := "—", "—"
+		with, part := study.Missing, study.Missing
 		if e.ErrAlbedo.N > 0 {
 			with, part = num(e.ErrAlbedo.P95Deg, 2), num(e.AlbedoPart.P95Deg, 2)
 		}
+		wrong := pct(wrongShare(&e))
+		if wrongFlag(&e) != "" {
+			name = "⚠ " + name
+			wrong = "⚠ " + wrong
+		}
 		t.Rows = append(t.Rows, []string{name, pct(e.ValidFraction), pct(e.ValidFractionNoAlbedo), num(e.ErrNoAlbedo.P95Deg, 2),
-			with, part, num(e.LongestGapS, 0), fmt.Sprint(len(e.Gaps)), units})
+			with, part, wrong, num(e.LongestGapS, 0), fmt.Sprint(len(e.Gaps)), units})
 	}
 	return t
 }
@@ -312,12 +409,12 @@ func estimatorTable(res *sim.Result) plots.Table {
 // scale, saturation and false sun.
 func sensorTable(s *scenario.Scenario, res *sim.Result) plots.Table {
 	t := plots.Table{Title: "Sensors (signal 1 = normal sun at 1 AU)",
-		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal", "full scale", "margin above peak", "saturated (% of time)", "false sun (% of umbra)"}}
+		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of time)", "false sun (% of umbra)"}}
 	for i, sn := range res.Nominal.Sensors {
-		fs, margin := "—", "—"
+		fs, margin := study.Missing, study.Missing
 		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
 			f := s.Body.Sensors[i].FullScale
-			fs, margin = num(f, 2), fmt.Sprintf("%.0f %%", 100*(1-sn.PeakSignal/f))
+			fs, margin = num(f, 2), fmt.Sprintf("%.0f", 100*(1-sn.PeakSignal/f))
 		}
 		t.Rows = append(t.Rows, []string{sn.Name, pct(sn.InViewFraction), num(sn.PeakSignal, 3), fs, margin,
 			pct(sn.SaturatedFraction), pct(sn.FalseSunFraction)})

@@ -80,7 +80,7 @@ func TestFiguresAndReportNadir(t *testing.T) {
 		t.Errorf("figures %v, want %v", got, want)
 	}
 
-	rep, err := Report(s, cfg, res, figs, "test")
+	rep, err := Report(s, cfg, res, figs, Provenance{Input: "test.yaml", Version: "test"})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -95,7 +95,7 @@ func TestFiguresAndReportNadir(t *testing.T) {
 	if r := rowByPrefix(t, rep.Headline, "Sun-vector error p95 (with albedo)"); r.Value != num(e.ErrAlbedo.P95Deg, 2) {
 		t.Errorf("p95 row %q, want %q", r.Value, num(e.ErrAlbedo.P95Deg, 2))
 	}
-	if r := rowByPrefix(t, rep.Headline, "Sun seen by ≥ 2"); r.Value != pct(res.Nominal.SeenAtLeast[2]) {
+	if r := rowByPrefix(t, rep.Headline, "Sun in view of ≥ 2"); r.Value != pct(res.Nominal.SeenAtLeast[2]) {
 		t.Errorf("seen-by-2 row %q, want %q", r.Value, pct(res.Nominal.SeenAtLeast[2]))
 	}
 	if r := rowByPrefix(t, rep.Headline, "Longest sunlit gap"); r.Value != num(e.LongestGapS, 0) {
@@ -140,7 +140,7 @@ func TestVerdictsFollowTargets(t *testing.T) {
 		if strings.HasPrefix(prefix, "Sky") {
 			c = cfg3
 		}
-		rows, err := headline(s, c, res)
+		rows, _, err := headline(s, c, res)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -159,10 +159,10 @@ func TestVerdictsFollowTargets(t *testing.T) {
 		{"gap", "Longest sunlit gap",
 			func(tg *scenario.Targets) { tg.MaxGap = scenario.Span((e.LongestGapS + 1) * 1e9) },
 			func(tg *scenario.Targets) { tg.MaxGap = scenario.Span(max(e.LongestGapS-1, 0.5) * 1e9) }},
-		{"coverage", "Sky seen by ≥ 2",
+		{"coverage", "Sky directions in view of ≥ 2",
 			func(tg *scenario.Targets) { tg.CoverageSensors, tg.MinCoverage = 2, cov.AtLeast[2] },
 			func(tg *scenario.Targets) { tg.CoverageSensors, tg.MinCoverage = 2, cov.AtLeast[2]+1e-4 }},
-		{"one failed", "Sky seen by ≥ 1 with the worst",
+		{"one failed", "Sky directions in view of ≥ 1 with the worst",
 			func(tg *scenario.Targets) {
 				tg.CoverageSensors, tg.MinCoverage, tg.SurviveOneFailure = 1, cov.WorstOneFailed[1], true
 			},
@@ -253,7 +253,7 @@ func TestRenderExamples(t *testing.T) {
 		if err := WritePlots(dir, figs, []string{"png"}); err != nil {
 			t.Fatal(err)
 		}
-		rep, err := Report(s, cfg, res, figs, "render-test")
+		rep, err := Report(s, cfg, res, figs, Provenance{Input: name, Version: "render-test"})
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -119,6 +119,13 @@ func (c *Cosine) inCone(cosTheta float64) bool {
 	return cosTheta > 0 && cosTheta >= c.cosHalf
 }
 
+// SeesSun implements Sensor: the nominal signal R(θ)·S/S_ref reaches the
+// threshold (and MinSeenSignal).
+func (c *Cosine) SeesSun(dir r3.Vec) bool {
+	v := c.Response(dir) * SolarConstant / c.spec.RefIrradiance
+	return v >= c.spec.Threshold && v >= MinSeenSignal
+}
+
 // Response implements Sensor: cos θ times the roll-off, zero outside the FOV.
 func (c *Cosine) Response(dir r3.Vec) float64 {
 	return c.response(r3.Dot(c.spec.Mount.Boresight(), dir))

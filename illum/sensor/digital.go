@@ -101,6 +101,14 @@ func (d *Digital) inFOV(s r3.Vec) bool {
 // InFOV implements Sensor.
 func (d *Digital) InFOV(dir r3.Vec) bool { return d.inFOV(d.spec.Mount.ToSensor(dir)) }
 
+// SeesSun implements Sensor: the sun is in the nominal field of view and
+// its irradiance S·cos θ on the detector reaches MinIrradiance (and
+// MinSeenSignal of full sun).
+func (d *Digital) SeesSun(dir r3.Vec) bool {
+	e := SolarConstant * d.Response(dir)
+	return e >= d.spec.MinIrradiance && e >= MinSeenSignal*SolarConstant
+}
+
 // Response implements Sensor: cos θ inside the FOV.
 func (d *Digital) Response(dir r3.Vec) float64 {
 	s := d.spec.Mount.ToSensor(dir)

@@ -37,6 +37,16 @@
 // FOV), plus Gaussian noise of the stated σ on each axis angle. Albedo alone
 // above the threshold produces a false sun, as real detectors can.
 //
+// Seeing the sun (SeesSun): a sensor sees the sun where the nominal unit,
+// with its error model off and no albedo, gives a valid reading from direct
+// sun at 1361 W/m² — a cosine or digital signal at or above its threshold,
+// a quadrant reading it would invert — and never below MinSeenSignal (10⁻⁶
+// of full sun). Coverage shares count exactly that, so a sun edge-on to a
+// sensor (cos 90° ≈ 10⁻¹⁷, with either sign after rounding) is not seen.
+// The irradiance is fixed at 1 AU so that sky coverage and time coverage
+// count the same directions; the ±3.4 % seasonal change of the solar
+// irradiance would move a cosine sensor's 5 % threshold edge by ±0.1°.
+//
 // Estimators: LeastSquares ŝ ∝ (NᵀN)⁻¹Nᵀm over lit cosine sensors (≥ 3,
 // condition of NᵀN ≤ 100, eigenvalues by Smith 1961); OppositePairs
 // ŝ ∝ (Σaaᵀ)⁻¹Σa(m₊ − m₋) over opposed pairs; TwoAxis the 1/σ²-weighted

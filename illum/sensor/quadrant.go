@@ -166,6 +166,16 @@ func (q *Quadrant) InFOV(dir r3.Vec) bool {
 	return q.Response(dir) > 0
 }
 
+// SeesSun implements Sensor: the nominal unit (spec geometry, no drawn
+// errors) reads the sun at SolarConstant as a valid direction, with a cell
+// sum of at least MinSeenSignal.
+func (q *Quadrant) SeesSun(dir r3.Vec) bool {
+	n := Quadrant{spec: q.spec, actual: q.spec.Mount, offX: q.spec.OffsetX, offY: q.spec.OffsetY}
+	n.spec.Errors = Errors{}
+	r := n.Read(dir, SolarConstant, Albedo{}, nil)
+	return r.Valid && r.Signal >= MinSeenSignal
+}
+
 // Response implements Sensor: cos θ times the lit cell area over the spot
 // area w².
 func (q *Quadrant) Response(dir r3.Vec) float64 {

@@ -13,6 +13,13 @@ import (
 // 1361 W/m² (TSI at 1 AU, Kopp & Lean 2011, GRL 38 L01706, from memory).
 const SolarConstant = 1361.0
 
+// MinSeenSignal is the smallest normalised signal from direct sun that
+// counts as seeing it, whatever the threshold: a millionth of full sun, the
+// reading of a cosine sensor 0.00006° from edge-on, which no detector
+// resolves (common practice, no source). It keeps a threshold of 0 from
+// counting a reading of rounding noise.
+const MinSeenSignal = 1e-6
+
 // Kind names a sensor kind.
 type Kind string
 
@@ -71,6 +78,14 @@ type Sensor interface {
 	// HalfAngle is the half-angle (rad) of the cone containing the field of
 	// view: the cone itself, or the circumscribed cone of a square FOV.
 	HalfAngle() float64
+	// SeesSun reports whether the nominal unit (no error model, no noise,
+	// no albedo) gives a valid reading from the sun alone in the body
+	// direction dir at the irradiance SolarConstant: its modelled signal is
+	// at or above its threshold, and never below MinSeenSignal. Coverage
+	// counts a sensor as seeing the sun exactly there, so an edge-on sun
+	// (a reading of cos 90° ≈ 1e-17) is decided by the signal, not by an
+	// angle comparison that rounding can flip.
+	SeesSun(dir r3.Vec) bool
 	// Response is the relative response (1 at normal incidence) to a
 	// collimated beam from the body direction dir, zero outside the FOV. The
 	// albedo model integrates radiance with it.

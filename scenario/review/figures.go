@@ -157,7 +157,7 @@ func viewers(cfg sim.Config) []sky.Viewer {
 	}
 	var v []sky.Viewer
 	for _, sn := range cfg.Array.Sensors() {
-		v = append(v, sky.ViewerFunc(sn.InFOV))
+		v = append(v, sky.ViewerFunc(sn.SeesSun))
 	}
 	return v
 }

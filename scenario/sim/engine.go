@@ -45,7 +45,8 @@ type Config struct {
 
 	// Array is the nominal sensor layout; Viewers[i] says whether sensor i
 	// sees a body direction (field of view and obstructions). When Viewers is
-	// nil the sensors' own InFOV is used.
+	// nil the sensors' own SeesSun is used (signal from direct sun above
+	// threshold).
 	Array   *sensor.Array
 	Viewers []sky.Viewer
 	// Blocked[i], when set, says whether the body blocks sensor i's view

@@ -175,7 +175,7 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 		if cfg.Viewers != nil {
 			r.sees = append(r.sees, cfg.Viewers[i].Sees)
 		} else {
-			r.sees = append(r.sees, s.InFOV)
+			r.sees = append(r.sees, s.SeesSun)
 		}
 	}
 	r.acc = newUnitAcc(cfg, arr, r.withAlbedo, u == 0, float64(k0)*cfg.Step)

@@ -227,7 +227,7 @@ func BuildSensors(s *scenario.Scenario, list []scenario.Sensor, path string) (*s
 		}
 		ss = append(ss, sn)
 		resp = append(resp, r)
-		viewers = append(viewers, mounted(sky.ViewerFunc(sn.InFOV), sc, obstacles))
+		viewers = append(viewers, mounted(sky.ViewerFunc(sn.SeesSun), sc, obstacles))
 	}
 	arr, err := sensor.NewArray(ss...)
 	if err != nil {

@@ -1,10 +1,7 @@
 package main
 
 import (
-	"context"
 	"encoding/json"
-	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -18,7 +15,15 @@ import (
 )
 
 func init() {
-	register(command{name: "budget", summary: "split the sun-vector error into its sources, find tolerances, show what calibration buys", run: runBudget})
+	register(command{name: "budget", summary: "split the sun-vector error into its sources, find tolerances, show what calibration buys",
+		args: "[flags] FILE",
+		about: `Runs the Monte Carlo of the scenario FILE (- reads standard input) with each error source
+alone and all together, and finds each source's largest 1σ that keeps the p95 error within
+the tolerance target. The exit status is 3 when a tolerance target is set and the
+all-together error misses it.`,
+		examples: []string{"sunsight budget scenario/budget/testdata/inertial-4css.yaml --tolerance-target 3.5",
+			"sunsight budget scen.yaml --json > budget.json"},
+		run: runBudget})
 }
 
 // budgetReport is the --json form of the budget.
@@ -65,40 +70,22 @@ type toleranceJSON struct {
 }
 
 func runBudget(args []string, stdout, stderr io.Writer) error {
-	fs := flag.NewFlagSet("budget", flag.ContinueOnError)
-	fs.SetOutput(stderr)
-	units := fs.Int("units", 0, "Monte Carlo units per run (0 = the scenario's, at least 2)")
-	out := fs.String("out", "", "folder for the figures (PNG and SVG); none when empty")
-	target := fs.Float64("tolerance-target", 0, "p95 target (deg) for the tolerances; 0 = budget.tolerance_deg, else targets.max_error_p95_deg")
+	fs := newFlagSet("budget")
+	units := fs.Int("units", 0, "Monte Carlo units per run (`N`; 0 = the scenario's, at least 2)")
+	out := fs.String("out", "", "folder for the figures (`DIR`; PNG and SVG); none when empty")
+	target := fs.Float64("tolerance-target", 0, "p95 target (`DEG`) for the tolerances; 0 = budget.tolerance_deg, else targets.max_error_p95_deg")
 	asJSON := fs.Bool("json", false, "print the budget as JSON")
+	force := fs.Bool("force", false, "replace an earlier --out folder")
 	full := fs.Bool("full", false, "simulate the scenario's whole duration instead of at most 6 h")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: sunsight budget FILE [--units N] [--out DIR] [--tolerance-target DEG] [--json] [--full]")
-		fs.PrintDefaults()
-	}
-	parse := func(a []string) error {
-		if err := fs.Parse(a); err != nil {
-			if errors.Is(err, flag.ErrHelp) {
-				return errHelpShown
-			}
-			return usagef("%v", err)
-		}
-		return nil
-	}
-	if err := parse(args); err != nil {
+	pos, err := fs.parse(args, stdout)
+	if err != nil {
 		return err
 	}
-	if fs.NArg() < 1 {
-		return usagef("want one scenario file; usage: sunsight budget FILE [--units N] [--out DIR] [--tolerance-target DEG] [--json]")
+	if len(pos) != 1 {
+		return usagef("want one scenario file; usage: sunsight budget [flags] FILE")
 	}
-	file := fs.Arg(0)
-	if err := parse(fs.Args()[1:]); err != nil {
-		return err
-	}
-	if fs.NArg() > 0 {
-		return usagef("unexpected argument %q after the flags; give one scenario file", fs.Arg(0))
-	}
+	file := pos[0]
 	if *units < 0 {
 		return usagef("--units %d: want a count ≥ 1 (or 0 for the scenario's)", *units)
 	}
@@ -106,13 +93,13 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 		return usagef("--tolerance-target %g: want a p95 error in degrees > 0", *target)
 	}
 	if *out != "" {
-		if err := ensureWritableDir(*out); err != nil {
-			return usagef("--out: %v", err)
+		if err := checkOutputDir(*out, *force); err != nil {
+			return err
 		}
 	}
-	s, err := scenario.Load(file)
+	s, err := loadScenario(file)
 	if err != nil {
-		return usageError{err}
+		return err
 	}
 	opt := budget.Options{Units: *units}
 	if *full {
@@ -135,7 +122,8 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	defer stopProf()
-	ctx := context.Background()
+	ctx, stop := interruptContext()
+	defer stop()
 	start := time.Now()
 	sources := r.Sources()
 	b, err := budget.Decompose(ctx, r.Run, sources)
@@ -205,18 +193,32 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 			}
 			curves = append(curves, c)
 		}
-		if err := budgetFigures(s, r, rep, curves, tgt, *out); err != nil {
+		err := writeOutputDir(*out, *force, func(dir string) error { return budgetFigures(s, r, rep, curves, tgt, dir) })
+		if err != nil {
 			return err
 		}
 	}
 	elapsed := time.Since(start)
+	// A tolerance target the all-together error misses: exit status 3.
+	var verdict error
+	if tgt > 0 && !(rep.AllP95Deg <= tgt) {
+		verdict = targetsFailed{fmt.Sprintf("p95 error with every source as stated %.3f° exceeds the tolerance target %.3g°", rep.AllP95Deg, tgt)}
+	}
 	if *asJSON {
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
-		return enc.Encode(rep)
+		if err := enc.Encode(rep); err != nil {
+			return err
+		}
+		return verdict
 	}
 	printBudget(stdout, rep, r, elapsed)
-	return nil
+	if verdict != nil {
+		fmt.Fprintf(stdout, "\nverdict: FAIL, %v\n", verdict)
+	} else if tgt > 0 {
+		fmt.Fprintf(stdout, "\nverdict: PASS, p95 %.3f° within the tolerance target %.3g°\n", rep.AllP95Deg, tgt)
+	}
+	return verdict
 }
 
 // sensitivityScales are the multiples of the stated σ of the sensitivity curves.

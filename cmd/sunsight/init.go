@@ -1,43 +1,41 @@
 package main
 
 import (
-	"errors"
-	"flag"
 	"fmt"
 	"io"
-	"os"
 
-	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 func init() {
-	register(command{name: "init", summary: "write a commented starting scenario file", run: runInit})
+	register(command{name: "init", summary: "write a commented starting scenario file", args: "[flags]",
+		about: "Writes a commented starting scenario from one of the bundled examples; -o - prints it on standard output.",
+		examples: []string{"sunsight init", "sunsight init --example nadir-6u-sso -o my-sat.yaml",
+			"sunsight init -o - | sunsight check -"},
+		run: runInit})
 }
 
 func runInit(args []string, stdout, stderr io.Writer) error {
-	fs := flag.NewFlagSet("init", flag.ContinueOnError)
-	fs.SetOutput(stderr)
-	example := fs.String("example", "tumbling-3u", "bundled example to start from: "+fmt.Sprint(scenario.ExampleNames()))
-	out := fs.String("o", "scenario.yaml", "file to write")
+	fs := newFlagSet("init")
+	example := fs.String("example", "tumbling-3u", "bundled example to start from (`NAME`): "+fmt.Sprint(scenario.ExampleNames()))
+	out := fs.StringP("out", "o", "scenario.yaml", "file to write (`FILE`; - for standard output)")
 	force := fs.Bool("force", false, "overwrite an existing file")
-	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return errHelpShown
-		}
-		return usagef("%v", err)
+	pos, err := fs.parse(args, stdout)
+	if err != nil {
+		return err
 	}
-	if fs.NArg() > 0 {
-		return usagef("unexpected argument %q; usage: sunsight init [-example NAME] [-o FILE] [-force]", fs.Arg(0))
+	if err := wantArgs("init", pos, 0, 0); err != nil {
+		return err
 	}
 	text, err := scenario.ExampleText(*example)
 	if err != nil {
-		return usagef("-example: %v", err)
+		return usagef("--example: %v", err)
 	}
-	if _, err := os.Stat(*out); err == nil && !*force {
-		return usagef("-o: file %s exists; allowed a new path, or add -force to overwrite it", *out)
+	if *out == stdinName {
+		_, err := stdout.Write(text)
+		return err
 	}
-	if err := atomicfile.Write(*out, text); err != nil {
+	if err := writeOutput(*out, text, *force); err != nil {
 		return err
 	}
 	fmt.Fprintf(stdout, "wrote %s (from example %s); check it with: sunsight check %s\n", *out, *example, *out)

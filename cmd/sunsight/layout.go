@@ -4,12 +4,9 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"encoding/json"
-	"flag"
 	"fmt"
 	"io"
 	"math"
-	"os"
-	"os/signal"
 	"path/filepath"
 	"strings"
 
@@ -21,20 +18,25 @@ import (
 )
 
 func init() {
-	register(command{name: "layout", summary: "find the fewest candidate sun sensors that meet the targets", run: runLayout})
+	register(command{name: "layout", summary: "find the fewest candidate sun sensors that meet the targets", args: "[flags] FILE",
+		about: `Searches the candidate mounts of body.candidates in the scenario FILE (- reads standard
+input) for the fewest sensors that meet its targets in its attitude and every mode (exact
+branch and bound). The exit status is 3 when no subset meets the targets.`,
+		examples: []string{"sunsight layout examples/layout-6u.yaml", "sunsight layout examples/layout-6u.yaml --top 10 --out layout-out"},
+		run:      runLayout})
 }
 
 func runLayout(args []string, stdout, stderr io.Writer) error {
-	fs := flag.NewFlagSet("layout", flag.ContinueOnError)
-	fs.SetOutput(stderr)
-	maxSensors := fs.Int("max-sensors", 0, "largest subset tried (0 = all candidates)")
-	top := fs.Int("top", 5, "ranked alternatives to report")
-	out := fs.String("out", "", "folder for layout.json (optional)")
-	points := fs.Int("sky-points", layout.DefaultPoints, "sky lattice points for the coverage bound")
-	maxRuns := fs.Int("max-runs", 0, "stop after this many time simulations (0 = no limit; the answer is then not proven)")
-	pos, err := parseInterleaved(fs, args)
+	fs := newFlagSet("layout")
+	maxSensors := fs.Int("max-sensors", 0, "largest subset tried (`N`; 0 = all candidates)")
+	top := fs.Int("top", 5, "ranked alternatives to report (`K`)")
+	out := fs.String("out", "", "folder for layout.json (`DIR`, optional)")
+	points := fs.Int("sky-points", layout.DefaultPoints, "sky lattice points for the coverage bound (`N`)")
+	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; the answer is then not proven)")
+	force := fs.Bool("force", false, "replace an earlier --out folder")
+	pos, err := fs.parse(args, stdout)
 	if err != nil {
-		return flagError(err)
+		return err
 	}
 	if len(pos) != 1 {
 		return usagef("want one scenario file; usage: sunsight layout FILE [--max-sensors N] [--top K] [--out DIR]")
@@ -42,9 +44,14 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	if *maxSensors < 0 || *top < 1 || *points < 1 || *maxRuns < 0 {
 		return usagef("--max-sensors ≥ 0, --top ≥ 1, --sky-points ≥ 1 and --max-runs ≥ 0 are required")
 	}
-	s, err := scenario.Load(pos[0])
+	if *out != "" {
+		if err := checkOutputDir(*out, *force); err != nil {
+			return err
+		}
+	}
+	s, err := loadScenario(pos[0])
 	if err != nil {
-		return usageError{err}
+		return err
 	}
 	cands := s.Body.Candidates
 	if len(cands) == 0 {
@@ -57,7 +64,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return usageError{err}
 	}
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	ctx, stop := interruptContext()
 	defer stop()
 	eval, err := evaluateSubset(ctx, s)
 	if err != nil {
@@ -97,11 +104,14 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		fmt.Fprintf(stdout, "%7d  %8.4f  %7.3f  %-5v %s\n", len(c.Subset), c.Coverage, c.Score.P95Deg, c.Score.Meets, name(c))
 	}
 	fmt.Fprintln(stdout, "\nanalysis aid: verify the chosen layout with a finer sky map and qualified flight analysis")
-	if *out == "" {
-		return nil
+	// No subset meeting the targets is a completed search whose answer is
+	// "none": exit status 3, after the table and layout.json are written.
+	var verdict error
+	if res.Best == nil {
+		verdict = targetsFailed{"no subset of body.candidates meets every target"}
 	}
-	if err := os.MkdirAll(*out, 0o755); err != nil {
-		return fmt.Errorf("layout: output folder: %w", err)
+	if *out == "" {
+		return verdict
 	}
 	type row struct {
 		Sensors  []string `json:"sensors"`
@@ -135,11 +145,14 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	path := filepath.Join(*out, "layout.json")
-	if err := atomicfile.Write(path, append(data, '\n')); err != nil {
+	err = writeOutputDir(*out, *force, func(dir string) error {
+		return atomicfile.Write(filepath.Join(dir, "layout.json"), append(data, '\n'))
+	})
+	if err != nil {
 		return err
 	}
 	fmt.Fprintf(stdout, "wrote %s\n", path)
-	return nil
+	return verdict
 }
 
 // evaluateSubset scores a subset in the scenario's attitude and in every

@@ -36,6 +36,7 @@ func TestLayoutCommandPicksAllSixFaces(t *testing.T) {
 	file := filepath.Join(dir, "s.yaml")
 	os.WriteFile(file, []byte(layoutCLIScenario), 0o644)
 	var out, errb bytes.Buffer
+	dir = filepath.Join(dir, "out")
 	if code := runMain([]string{"layout", file, "--out", dir}, &out, &errb); code != 0 {
 		t.Fatalf("exit %d: %s", code, errb.String())
 	}

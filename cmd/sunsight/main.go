@@ -3,8 +3,8 @@
 // the light reflected by the Earth corrupts the measured sun vector.
 //
 // Each subcommand lives in its own file and registers itself in init with
-// register; main only dispatches. Exit codes: 0 success, 1 run failure,
-// 2 usage or input error (the flag package's convention).
+// register; main only dispatches. Every command parses its flags the same way
+// (cli.go) and ends with one of the exit statuses of exitHelp.
 package main
 
 import (
@@ -13,14 +13,34 @@ import (
 	"io"
 	"os"
 	"sort"
+	"strings"
 )
 
-// command is one subcommand: its name, a one-line summary and the function
-// that runs it with the remaining arguments.
+// Exit statuses: the contract scripts and CI rely on.
+const (
+	exitOK           = 0 // success, and every stated target met
+	exitFailure      = 1 // the run failed (including any write error, stdout too)
+	exitUsage        = 2 // bad input: flags, arguments, scenario file
+	exitTargetFailed = 3 // the run completed but a stated target was not met
+)
+
+// exitHelp is the exit-status paragraph of every help text and the README.
+const exitHelp = `Exit status:
+  0  success, and every target stated in the scenario met
+  1  the run failed (including any error writing an output, standard output too)
+  2  bad input (flag, argument or scenario file; the message names the fix)
+  3  the run completed but a target was not met (run: a target; layout: no
+     subset meets the targets; budget: the p95 misses the tolerance target)`
+
+// command is one subcommand: its name, a one-line summary, the shape of its
+// arguments and the function that runs it with the remaining arguments.
 type command struct {
-	name    string
-	summary string
-	run     func(args []string, stdout, stderr io.Writer) error
+	name     string
+	summary  string
+	args     string   // after "sunsight NAME", e.g. "[flags] FILE"
+	about    string   // what it does and what each positional argument is
+	examples []string // whole command lines
+	run      func(args []string, stdout, stderr io.Writer) error
 }
 
 var commands = map[string]command{}
@@ -43,45 +63,95 @@ func (u usageError) Unwrap() error { return u.err }
 // usagef builds a usageError.
 func usagef(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
 
+// targetsFailed is returned by a command that ran to the end and printed its
+// results, but whose stated targets were not met (exit status 3).
+type targetsFailed struct{ what string }
+
+func (t targetsFailed) Error() string { return t.what }
+
+// errHelpShown is returned by a subcommand after it printed its help text.
+var errHelpShown = errors.New("help shown")
+
 func main() {
 	os.Exit(runMain(os.Args[1:], os.Stdout, os.Stderr))
 }
 
 // runMain dispatches to a subcommand and maps its error to an exit status.
+// A write error on stdout (a full disk, a closed pipe) is a run failure.
 func runMain(args []string, stdout, stderr io.Writer) int {
-	if len(args) == 0 || args[0] == "help" || args[0] == "-h" || args[0] == "--help" || args[0] == "-help" {
-		printUsage(stdout)
-		if len(args) == 0 {
-			return 2
+	out := &checkedWriter{w: stdout}
+	code := dispatch(args, out, stderr)
+	if out.err != nil && code != exitUsage {
+		fmt.Fprintf(stderr, "sunsight: writing to standard output: %v\n", out.err)
+		return exitFailure
+	}
+	return code
+}
+
+func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
+	if len(args) == 0 {
+		printUsage(stderr)
+		return exitUsage
+	}
+	switch args[0] {
+	case "help", "-h", "--help", "-help":
+		if len(args) > 1 && args[0] == "help" {
+			c, ok := commands[args[1]]
+			if !ok {
+				fmt.Fprintf(stderr, "sunsight: unknown command %q; run 'sunsight help' for the list\n", args[1])
+				return exitUsage
+			}
+			args = []string{c.name, "--help"}
+			break
 		}
-		return 0
+		printUsage(stdout)
+		return exitOK
+	case "--version", "-version":
+		args = []string{"version"}
 	}
 	c, ok := commands[args[0]]
 	if !ok {
 		fmt.Fprintf(stderr, "sunsight: unknown command %q; run 'sunsight help' for the list\n", args[0])
-		return 2
+		return exitUsage
 	}
 	err := c.run(args[1:], stdout, stderr)
-	if err == nil {
-		return 0
-	}
-	if errors.Is(err, errHelpShown) {
-		return 0
+	var u usageError
+	var tf targetsFailed
+	switch {
+	case err == nil, errors.Is(err, errHelpShown):
+		return exitOK
+	case errors.As(err, &tf):
+		fmt.Fprintf(stderr, "sunsight %s: %v\n", c.name, err)
+		return exitTargetFailed
+	case errors.As(err, &u):
+		fmt.Fprintf(stderr, "sunsight %s: %v\n", c.name, err)
+		return exitUsage
 	}
 	fmt.Fprintf(stderr, "sunsight %s: %v\n", c.name, err)
-	var u usageError
-	if errors.As(err, &u) {
-		return 2
-	}
-	return 1
+	return exitFailure
 }
 
-// errHelpShown is returned by a subcommand after it printed its -help text.
-var errHelpShown = errors.New("help shown")
+// checkedWriter remembers the first write error; later writes are dropped.
+type checkedWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (c *checkedWriter) Write(p []byte) (int, error) {
+	if c.err != nil {
+		return 0, c.err
+	}
+	n, err := c.w.Write(p)
+	if err == nil && n < len(p) {
+		err = io.ErrShortWrite
+	}
+	c.err = err
+	return n, err
+}
 
 func printUsage(w io.Writer) {
 	fmt.Fprintln(w, "sunsight - sun-sensor layout, eclipse and albedo analysis for small satellites")
-	fmt.Fprintln(w, "\nUsage: sunsight <command> [flags] [args]\n\nCommands:")
+	fmt.Fprintln(w, "\nUsage: sunsight COMMAND [flags] [arguments]\n       sunsight --version\n\nCommands:")
 	names := make([]string, 0, len(commands))
 	for n := range commands {
 		names = append(names, n)
@@ -90,5 +160,25 @@ func printUsage(w io.Writer) {
 	for _, n := range names {
 		fmt.Fprintf(w, "  %-9s %s\n", n, commands[n].summary)
 	}
-	fmt.Fprintln(w, "\nRun 'sunsight <command> -help' for the flags of one command.")
+	fmt.Fprintln(w, "\nRun 'sunsight COMMAND --help' (or 'sunsight help COMMAND') for the flags and examples of one command.")
+	fmt.Fprintln(w, "Flags are GNU style (--name value or --name=value) and may come before or after the arguments.")
+	fmt.Fprintln(w, "\n"+exitHelp)
+}
+
+// printCommandHelp writes one command's help: usage line, description,
+// flags, examples and the exit statuses.
+func printCommandHelp(w io.Writer, c command, fs *flagSet) {
+	fmt.Fprintf(w, "Usage: sunsight %s %s\n\n%s\n", c.name, c.args, strings.TrimSpace(c.about))
+	// A switch is given as --name (or --name=false): the library's
+	// "[=true|false]" becomes blanks of the same width, keeping the columns.
+	if fl := strings.ReplaceAll(fs.FlagUsages(), "[=true|false]", "             "); fl != "" {
+		fmt.Fprintf(w, "\nFlags:\n%s", fl)
+	}
+	if len(c.examples) > 0 {
+		fmt.Fprintln(w, "\nExamples:")
+		for _, e := range c.examples {
+			fmt.Fprintf(w, "  %s\n", e)
+		}
+	}
+	fmt.Fprintln(w, "\n"+exitHelp)
 }

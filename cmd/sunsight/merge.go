@@ -1,21 +1,23 @@
 package main
 
 import (
-	"flag"
 	"io"
 )
 
 func init() {
-	register(command{name: "merge", summary: "join the output folders of a sharded sweep into one sweep.csv", run: runMerge})
+	register(command{name: "merge", summary: "join the output folders of a sharded sweep into one sweep.csv", args: "[flags] DIR...",
+		about: `Joins the output folders of a sweep run in shards (sunsight sweep --shard K/N) into one
+sweep.csv. The first folder receives every case file and the joined table.`,
+		examples: []string{"sunsight merge out-1 out-2 out-3 out-4"},
+		run:      runMerge})
 }
 
 func runMerge(args []string, stdout, stderr io.Writer) error {
-	fs := flag.NewFlagSet("merge", flag.ContinueOnError)
-	fs.SetOutput(stderr)
+	fs := newFlagSet("merge")
 	noPlots := fs.Bool("no-plots", false, "write the table but no figures")
-	pos, err := parseInterleaved(fs, args)
+	pos, err := fs.parse(args, stdout)
 	if err != nil {
-		return flagError(err)
+		return err
 	}
 	if len(pos) == 0 {
 		return usagef("want the shard folders; usage: sunsight merge DIR... (the first one receives every case and sweep.csv)")

@@ -2,7 +2,6 @@ package main
 
 import (
 	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -14,34 +13,33 @@ import (
 )
 
 func init() {
-	register(command{name: "orbit", summary: "period, sun-synchronous inclination, RAAN and J2 drift of a circular or elliptic orbit", run: runOrbit})
+	register(command{name: "orbit", summary: "period, sun-synchronous inclination, RAAN and J2 drift of a circular or elliptic orbit",
+		args: "--altitude-km KM (--ltan HH:MM --epoch RFC3339 | --inclination-deg DEG) [flags]", about: orbitAbout,
+		examples: []string{"sunsight orbit --altitude-km 550 --ltan 10:30 --epoch 2027-03-20T12:00:00Z",
+			"sunsight orbit --altitude-km 420 --inclination-deg 51.6"},
+		run: runOrbit})
 }
 
-const orbitUsage = `Usage: sunsight orbit --altitude-km KM --ltan HH:MM --epoch RFC3339 [--inclination-deg DEG] [--ecc E]
-
-Prints the orbit's period, sun-synchronous inclination, RAAN (from the local
+const orbitAbout = `Prints the orbit's period, sun-synchronous inclination, RAAN (from the local
 mean solar time of the ascending node), nodal drift and the other secular J2
 rates. Without --inclination-deg the orbit is sun-synchronous. The altitude is
 the mean semi-major axis minus the WGS 84 equatorial radius.
 `
 
 func runOrbit(args []string, stdout, stderr io.Writer) error {
-	fs := flag.NewFlagSet("orbit", flag.ContinueOnError)
-	fs.SetOutput(stderr)
-	fs.Usage = func() { fmt.Fprint(stderr, orbitUsage, "\nFlags:\n"); fs.PrintDefaults() }
-	alt := fs.Float64("altitude-km", math.NaN(), "mean altitude above the equatorial radius, km (required, > 0)")
-	ltan := fs.String("ltan", "", "local mean solar time of the ascending node, HH:MM (required, 00:00 to 23:59)")
-	epochS := fs.String("epoch", "", "epoch, UTC, RFC 3339 such as 2027-03-20T12:00:00Z (required)")
-	incl := fs.Float64("inclination-deg", math.NaN(), "inclination, degrees in [0, 180] (default: sun-synchronous)")
-	ecc := fs.Float64("ecc", 0, "eccentricity, in [0, 1)")
-	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return errHelpShown
-		}
-		return usageError{err}
+	fs := newFlagSet("orbit")
+	alt := fs.Float64("altitude-km", math.NaN(), "mean altitude above the equatorial radius, `KM` (required, > 0)")
+	ltan := fs.String("ltan", "", "local mean solar time of the ascending node, `HH:MM` (00:00 to 23:59)")
+	epochS := fs.String("epoch", "", "epoch, UTC, `RFC3339` such as 2027-03-20T12:00:00Z (required with --ltan)")
+	incl := fs.Float64("inclination-deg", math.NaN(), "inclination, `DEG` in [0, 180] (when absent: sun-synchronous)")
+	ecc := fs.Float64("ecc", 0, "eccentricity, `E` in [0, 1)")
+	noDefault(fs, "altitude-km", "inclination-deg")
+	pos, err := fs.parse(args, stdout)
+	if err != nil {
+		return err
 	}
-	if fs.NArg() > 0 {
-		return usagef("unexpected argument %q; orbit takes flags only", fs.Arg(0))
+	if len(pos) > 0 {
+		return usagef("unexpected argument %q; orbit takes flags only", pos[0])
 	}
 	if math.IsNaN(*alt) {
 		return usagef("--altitude-km is required (a number of km above the equator, e.g. 550)")

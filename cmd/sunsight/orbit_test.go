@@ -68,7 +68,7 @@ func TestOrbitCommandErrors(t *testing.T) {
 		}
 	}
 	var out, errb bytes.Buffer
-	if code := runMain([]string{"orbit", "-help"}, &out, &errb); code != 0 || !strings.Contains(errb.String(), "--altitude-km") {
+	if code := runMain([]string{"orbit", "--help"}, &out, &errb); code != 0 || !strings.Contains(out.String(), "--altitude-km") || errb.Len() != 0 {
 		t.Errorf("-help: exit %d, stderr %q", code, errb.String())
 	}
 }

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"fmt"
 	"os"
@@ -16,7 +17,7 @@ import (
 
 // writeReview draws the design-review figures of a run and writes them as
 // files (plotsDir) and/or binds them into the HTML report.
-func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, plotsDir string, prov review.Provenance) error {
+func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, plotsDir string, prov review.Provenance, force bool) error {
 	all, err := review.Figures(s, cfg, res)
 	if err != nil {
 		return fmt.Errorf("figures: %w", err)
@@ -29,7 +30,10 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, 
 		}
 	}
 	if plotsDir != "" {
-		if err := review.WritePlots(plotsDir, figs, []string{"png", "svg"}); err != nil {
+		err := writeOutputDir(plotsDir, force, func(dir string) error {
+			return review.WritePlots(dir, figs, []string{"png", "svg"})
+		})
+		if err != nil {
 			return err
 		}
 	}
@@ -38,7 +42,11 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, 
 		if err != nil {
 			return fmt.Errorf("report: %w", err)
 		}
-		if err := plots.WriteReportFile(report, r); err != nil {
+		var buf bytes.Buffer
+		if err := plots.WriteReport(&buf, r); err != nil {
+			return fmt.Errorf("report: %w", err)
+		}
+		if err := writeOutput(report, buf.Bytes(), force); err != nil {
 			return err
 		}
 	}

@@ -4,12 +4,9 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"os"
-	"os/signal"
-	"path/filepath"
 	"strings"
 
 	"codeberg.org/sunsight/sunsight/scenario"
@@ -17,7 +14,18 @@ import (
 )
 
 func init() {
-	register(command{name: "run", summary: "simulate a scenario: eclipses, sun visibility, sun-vector error with and without albedo", run: runRun})
+	register(command{name: "run", summary: "simulate a scenario: eclipses, sun visibility, sun-vector error with and without albedo",
+		args: "[flags] FILE",
+		about: `Simulates the scenario FILE (YAML; - reads it from standard input) and prints its summary,
+ending with a verdict line on the scenario's targets. The exit status is 3 when the run
+completes but a target is not met.`,
+		examples: []string{
+			"sunsight run examples/nadir-6u-sso.yaml",
+			"sunsight run examples/nadir-6u-sso.yaml --json > run.json",
+			"sunsight run examples/tumbling-3u.yaml --units 200 --csv out/ --report report.html",
+			"sunsight init -o - | sunsight run - --duration 6h",
+		},
+		run: runRun})
 }
 
 // runFlags are the options of sunsight run.
@@ -29,80 +37,69 @@ type runFlags struct {
 	units    int
 	workers  int
 	quiet    bool
+	force    bool
 	duration string
 	step     string
 	cpuProf  string
 }
 
-func parseRunFlags(args []string, stderr io.Writer) (runFlags, string, error) {
-	var f runFlags
-	fs := flag.NewFlagSet("run", flag.ContinueOnError)
-	fs.SetOutput(stderr)
+func runFlagSet(f *runFlags) *flagSet {
+	fs := newFlagSet("run")
 	fs.BoolVar(&f.json, "json", false, "print the results as JSON on stdout instead of the summary table")
 	fs.StringVar(&f.csvDir, "csv", "", "write the time series and tables as CSV files into `DIR`")
 	fs.StringVar(&f.report, "report", "", "write a self-contained HTML design-review report to `FILE`")
 	fs.StringVar(&f.plotsDir, "plots", "", "write every figure as PNG and SVG into `DIR`")
 	fs.IntVar(&f.units, "units", 0, "simulated sensor units for the Monte Carlo (`N`; 0 = the scenario's monte_carlo.units)")
-	fs.IntVar(&f.workers, "workers", 0, "parallel units (0 = all cores)")
+	fs.IntVar(&f.workers, "workers", 0, "parallel units (`N`; 0 = all cores)")
 	fs.BoolVar(&f.quiet, "quiet", false, "no progress display")
-	fs.StringVar(&f.duration, "duration", "", "override the scenario duration (e.g. 6h, 30d)")
-	fs.StringVar(&f.step, "step", "", "override the scenario step (e.g. 10s)")
+	fs.BoolVar(&f.force, "force", false, "replace an earlier --csv or --plots folder or --report file")
+	fs.StringVar(&f.duration, "duration", "", "override the scenario duration (`SPAN`, e.g. 6h, 30d)")
+	fs.StringVar(&f.step, "step", "", "override the scenario step (`SPAN`, e.g. 10s)")
 	fs.StringVar(&f.cpuProf, "cpuprofile", "", cpuProfileUsage)
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "Usage: sunsight run [flags] FILE\n\nSimulates the scenario FILE and prints its summary.\n\nFlags:")
-		fs.PrintDefaults()
+	return fs
+}
+
+func parseRunFlags(args []string, stdout io.Writer) (runFlags, string, error) {
+	var f runFlags
+	pos, err := runFlagSet(&f).parse(args, stdout)
+	if err != nil {
+		return f, "", err
 	}
-	// Flags may come before or after the file.
-	var file string
-	rest := args
-	for {
-		if err := fs.Parse(rest); err != nil {
-			if errors.Is(err, flag.ErrHelp) {
-				return f, "", errHelpShown
-			}
-			return f, "", usagef("%v", err)
-		}
-		if fs.NArg() == 0 {
-			break
-		}
-		if file != "" {
-			return f, "", usagef("want one scenario file, got %q and %q", file, fs.Arg(0))
-		}
-		file = fs.Arg(0)
-		rest = fs.Args()[1:]
-	}
-	if file == "" {
+	if len(pos) == 0 {
 		return f, "", usagef("no scenario file; usage: sunsight run [flags] FILE (sunsight init writes one)")
 	}
+	if len(pos) > 1 {
+		return f, "", usagef("want one scenario file, got %q and %q", pos[0], pos[1])
+	}
 	if f.units < 0 {
-		return f, "", usagef("-units %d: want a whole number ≥ 1 (or 0 for the scenario's value)", f.units)
+		return f, "", usagef("--units %d: want a whole number ≥ 1 (or 0 for the scenario's value)", f.units)
 	}
 	if f.workers < 0 {
-		return f, "", usagef("-workers %d: want a whole number ≥ 1 (or 0 for all cores)", f.workers)
+		return f, "", usagef("--workers %d: want a whole number ≥ 1 (or 0 for all cores)", f.workers)
 	}
-	return f, file, nil
+	return f, pos[0], nil
 }
 
 func runRun(args []string, stdout, stderr io.Writer) error {
-	f, file, err := parseRunFlags(args, stderr)
+	f, file, err := parseRunFlags(args, stdout)
 	if err != nil {
 		return err
 	}
-	s, err := scenario.Load(file)
+	s, err := loadScenario(file)
 	if err != nil {
-		return usageError{err}
+		return err
 	}
 	if f.duration != "" {
 		d, err := scenario.ParseSpan(f.duration)
 		if err != nil || d.Seconds() <= 0 {
-			return usagef("-duration %q: want a positive span such as 90m, 12h, 30d", f.duration)
+			return usagef("--duration %q: want a positive span such as 90m, 12h, 30d", f.duration)
 		}
 		s.Duration = d
 	}
 	if f.step != "" {
 		d, err := scenario.ParseSpan(f.step)
 		if err != nil || d.Seconds() <= 0 {
-			return usagef("-step %q: want a positive span such as 10s", f.step)
+			return usagef("--step %q: want a positive span such as 10s", f.step)
 		}
 		s.Step = d
 	}
@@ -110,17 +107,17 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		return usagef("step %s is longer than the duration %s: shorten the step or lengthen the run", s.Step, s.Duration)
 	}
 	// Check every output place before the run, so a long run does not end
-	// on an unwritable folder.
+	// on an unwritable folder or an output it may not replace.
 	for _, d := range []string{f.csvDir, f.plotsDir} {
 		if d != "" {
-			if err := ensureWritableDir(d); err != nil {
-				return usageError{err}
+			if err := checkOutputDir(d, f.force); err != nil {
+				return err
 			}
 		}
 	}
 	if f.report != "" {
-		if err := ensureWritableDir(filepath.Dir(f.report)); err != nil {
-			return usageError{err}
+		if err := checkOutputFile(f.report, f.force); err != nil {
+			return err
 		}
 	}
 	cfg, err := study.Config(s)
@@ -143,7 +140,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		cfg.SunTrackPoints = 4000
 	}
 
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	ctx, stop := interruptContext()
 	defer stop()
 	prog := newProgress(stderr, f.quiet, cfg.Steps(), s.Name)
 	cfg.Progress = prog.update
@@ -164,7 +161,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	}
 	out := newRunOutput(s, &cfg, res, toolVersion())
 	if f.csvDir != "" {
-		if err := out.writeCSV(f.csvDir); err != nil {
+		if err := writeOutputDir(f.csvDir, f.force, out.writeCSV); err != nil {
 			return err
 		}
 	}
@@ -173,12 +170,16 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		if err != nil {
 			return err
 		}
-		if err := writeReview(s, cfg, res, f.report, f.plotsDir, prov); err != nil {
+		if err := writeReview(s, cfg, res, f.report, f.plotsDir, prov, f.force); err != nil {
 			return err
 		}
 	}
+	verdict := study.Judge(out.targets)
 	if f.json {
-		return out.writeJSON(stdout)
+		if err := out.writeJSON(stdout); err != nil {
+			return err
+		}
+		return verdictError(verdict)
 	}
 	out.writeSummary(stdout)
 	var written []string
@@ -190,7 +191,16 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	if len(written) > 0 {
 		fmt.Fprintf(stdout, "\nwritten: %s\n", strings.Join(written, ", "))
 	}
-	return nil
+	fmt.Fprintf(stdout, "\nverdict: %s\n", verdict.Text())
+	return verdictError(verdict)
+}
+
+// verdictError is the error of a run whose targets are not all met (exit 3).
+func verdictError(v study.Verdict) error {
+	if v.Met() {
+		return nil
+	}
+	return targetsFailed{v.Text()}
 }
 
 // maxSeriesRows bounds the default time series kept for CSV files and

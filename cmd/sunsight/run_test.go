@@ -79,7 +79,7 @@ func TestRunBadInput(t *testing.T) {
 func TestRunCSV(t *testing.T) {
 	dir := t.TempDir()
 	var out, errb bytes.Buffer
-	if code := runMain([]string{"run", "-quiet", "-duration", "3h", "-csv", dir, "../../examples/nadir-6u-sso.yaml"}, &out, &errb); code != 0 {
+	if code := runMain([]string{"run", "-quiet", "-duration", "3h", "-csv", dir, "../../examples/nadir-6u-sso.yaml"}, &out, &errb); code != exitTargetFailed {
 		t.Fatalf("exit %d: %s", code, errb.String())
 	}
 	for _, f := range []string{"series.csv", "eclipses.csv", "estimators.csv", "sensors.csv", "scenario.resolved.yaml", "run.json"} {
@@ -106,7 +106,7 @@ func TestRunPlotsHonoursOutputFigures(t *testing.T) {
 		t.Fatal(err)
 	}
 	var out, errb bytes.Buffer
-	if code := runMain([]string{"run", "-quiet", "-duration", "3h", "-plots", filepath.Join(dir, "figs"), scen}, &out, &errb); code != 0 {
+	if code := runMain([]string{"run", "-quiet", "-duration", "3h", "-plots", filepath.Join(dir, "figs"), scen}, &out, &errb); code != exitTargetFailed {
 		t.Fatalf("exit %d: %s", code, errb.String())
 	}
 	ents, _ := os.ReadDir(filepath.Join(dir, "figs"))
@@ -114,7 +114,7 @@ func TestRunPlotsHonoursOutputFigures(t *testing.T) {
 	for _, e := range ents {
 		names = append(names, e.Name())
 	}
-	if got := strings.Join(names, " "); got != "gaps.png gaps.svg sky.png sky.svg" {
+	if got := strings.Join(names, " "); got != "gaps.png gaps.svg manifest.json sky.png sky.svg" {
 		t.Errorf("figures written: %s", got)
 	}
 }

@@ -1,13 +1,8 @@
 package main
 
 import (
-	"context"
-	"errors"
-	"flag"
 	"fmt"
 	"io"
-	"os"
-	"os/signal"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -18,57 +13,38 @@ import (
 )
 
 func init() {
-	register(command{name: "sweep", summary: "run a scenario over ranges of its keys (altitude, LTAN, epoch, layout, mode…)", run: runSweep})
-}
-
-// parseInterleaved parses flags that may come before and after the one
-// positional argument (the flag package stops at the first positional).
-func parseInterleaved(fs *flag.FlagSet, args []string) ([]string, error) {
-	var pos []string
-	for {
-		if err := fs.Parse(args); err != nil {
-			return nil, err
-		}
-		if fs.NArg() == 0 {
-			return pos, nil
-		}
-		pos = append(pos, fs.Arg(0))
-		args = fs.Args()[1:]
-	}
-}
-
-func flagError(err error) error {
-	if errors.Is(err, flag.ErrHelp) {
-		return errHelpShown
-	}
-	return usagef("%v", err)
+	register(command{name: "sweep", summary: "run a scenario over ranges of its keys (altitude, LTAN, epoch, layout, mode…)",
+		args: "FILE --vary KEY=VALUES [--vary ...] --out DIR [flags]",
+		about: `Runs the scenario FILE (- reads standard input) once per combination of the --vary
+values and writes one case file per case, sweep.csv and figures into --out. Re-running the
+same command into the same folder resumes.`,
+		examples: []string{
+			"sunsight sweep examples/nadir-6u-sso.yaml --vary orbit.altitude_km=400:700:100 --vary orbit.ltan=06:00,10:30 --out sweep-out",
+			"sunsight sweep scen.yaml --vary orbit.altitude_km=300:900:25 --shard 2/8 --out out-2",
+		},
+		run: runSweep})
 }
 
 func runSweep(args []string, stdout, stderr io.Writer) error {
-	fs := flag.NewFlagSet("sweep", flag.ContinueOnError)
-	fs.SetOutput(stderr)
-	var axes []sweep.Axis
-	fs.Func("vary", "KEY=VALUES to vary (repeatable): a dotted key of the scenario file, layout or mode; VALUES lo:hi:step or a comma list", func(s string) error {
-		a, err := sweep.ParseAxis(s)
-		if err != nil {
-			return err
-		}
-		axes = append(axes, a)
-		return nil
-	})
+	fs := newFlagSet("sweep")
+	vary := fs.StringArray("vary", nil, "`KEY=VALUES` to vary (repeatable): a dotted key of the scenario file, layout or mode; VALUES lo:hi:step or a comma list")
 	zip := fs.Bool("zip", false, "pair the i-th values of every --vary (lists of equal length) instead of the cross product")
-	out := fs.String("out", "", "output folder (required); re-running into it resumes")
-	workers := fs.Int("workers", 0, "cases run in parallel (0 = number of CPUs)")
-	shard := fs.String("shard", "", "K/N: run only cases with index % N == K-1 (join the shards with sunsight merge)")
+	out := fs.String("out", "", "output folder (`DIR`, required); re-running into it resumes")
+	workers := fs.Int("workers", 0, "cases run in parallel (`N`; 0 = number of CPUs)")
+	shard := fs.String("shard", "", "`K/N`: run only cases with index % N == K-1 (join the shards with sunsight merge)")
 	noPlots := fs.Bool("no-plots", false, "write the table but no figures")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: sunsight sweep FILE --vary KEY=VALUES [--vary ...] [--zip] --out DIR [--workers N] [--shard K/N]")
-		fs.PrintDefaults()
-	}
-	pos, err := parseInterleaved(fs, args)
+	pos, err := fs.parse(args, stdout)
 	if err != nil {
-		return flagError(err)
+		return err
+	}
+	var axes []sweep.Axis
+	for _, v := range *vary {
+		a, err := sweep.ParseAxis(v)
+		if err != nil {
+			return usagef("--vary %q: %v", v, err)
+		}
+		axes = append(axes, a)
 	}
 	if len(pos) != 1 {
 		return usagef("want one scenario file; usage: sunsight sweep FILE --vary KEY=VALUES --out DIR")
@@ -83,24 +59,28 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	data, err := os.ReadFile(pos[0])
+	data, err := readInput(pos[0], maxScenarioBytes, "scenario file")
 	if err != nil {
-		return usagef("scenario file: %v", err)
+		return err
 	}
-	dir, err := filepath.Abs(filepath.Dir(pos[0]))
+	dir := "."
+	if pos[0] != stdinName {
+		dir = filepath.Dir(pos[0])
+	}
+	dir, err = filepath.Abs(dir)
 	if err != nil {
 		return err
 	}
 	plan, err := sweep.NewPlan(data, dir, axes, *zip)
 	if err != nil {
-		return usageError{err}
+		return usageError{scenarioError(describeFile(pos[0]), err)}
 	}
 	stopProf, err := startCPUProfile(*cpuProf)
 	if err != nil {
 		return err
 	}
 	defer stopProf()
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	ctx, stop := interruptContext()
 	defer stop()
 	var done atomic.Int32
 	total := len(plan.Cases)

@@ -7,7 +7,10 @@ import (
 )
 
 func init() {
-	register(command{name: "version", summary: "print the tool version and build details", run: runVersion})
+	register(command{name: "version", summary: "print the tool version and build details", args: "",
+		about:    "Prints the module version and the version-control revision recorded when the binary was built.",
+		examples: []string{"sunsight version", "sunsight --version"},
+		run:      runVersion})
 }
 
 // toolVersion returns the module version and VCS revision recorded at build time.
@@ -17,18 +20,42 @@ func toolVersion() string {
 		return "unknown"
 	}
 	v := bi.Main.Version
+	if v == "" {
+		v = "(devel)"
+	}
+	rev, dirty := "", false
 	for _, s := range bi.Settings {
-		if s.Key == "vcs.revision" && len(s.Value) >= 12 {
-			v += " (" + s.Value[:12] + ")"
+		switch s.Key {
+		case "vcs.revision":
+			rev = s.Value
+		case "vcs.modified":
+			dirty = s.Value == "true"
 		}
+	}
+	if len(rev) >= 12 {
+		v += " (" + rev[:12]
+		if dirty {
+			v += ", modified"
+		}
+		v += ")"
 	}
 	return v
 }
 
 func runVersion(args []string, stdout, _ io.Writer) error {
-	if len(args) > 0 {
-		return usagef("version takes no arguments, got %q", args[0])
+	fs := newFlagSet("version")
+	pos, err := fs.parse(args, stdout)
+	if err != nil {
+		return err
 	}
-	fmt.Fprintf(stdout, "sunsight %s\n", toolVersion())
+	if err := wantArgs("version", pos, 0, 0); err != nil {
+		return err
+	}
+	bi, _ := debug.ReadBuildInfo()
+	goVersion := "unknown Go"
+	if bi != nil {
+		goVersion = bi.GoVersion
+	}
+	fmt.Fprintf(stdout, "sunsight %s %s\n", toolVersion(), goVersion)
 	return nil
 }

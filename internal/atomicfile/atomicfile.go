@@ -1,25 +1,70 @@
-// Package atomicfile writes files so that no partial file is ever left: the
-// data goes to a temporary file in the target's folder, which is then renamed
-// over the target (a rename within one file system is atomic on POSIX).
-// Every output of sunsight — tables, records, figures, reports, sweep case
-// files — is written through it.
+// Package atomicfile writes files and folders so that no partial output is
+// ever left: a file's data goes to a temporary file in the target's folder,
+// is flushed to the disk (fsync) and then renamed over the target (a rename
+// within one file system is atomic on POSIX); a folder of outputs is filled
+// as a fresh sibling folder, flushed, and swapped into place as a whole, so a
+// reader (or a run killed half way) sees the old set or the new set, never a
+// mix. Every output of sunsight — tables, records, figures, reports, sweep
+// case files — is written through it.
 package atomicfile
 
 import (
+	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 )
 
-// Write writes data to path with mode 0644 through a temporary file and a
-// rename. On any error the temporary file is removed and path is untouched.
+// CheckTarget refuses a path that exists and is not a regular file (a device,
+// a folder, a pipe): replacing it would destroy something that is not an
+// output of ours.
+func CheckTarget(path string) error {
+	st, err := os.Lstat(path)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil
+	}
+	if err != nil {
+		return fmt.Errorf("cannot write %s: %w", path, err)
+	}
+	if !st.Mode().IsRegular() {
+		return fmt.Errorf("cannot write %s: it exists and is not a regular file (%s); give the path of a new or regular file", path, kind(st.Mode()))
+	}
+	return nil
+}
+
+func kind(m fs.FileMode) string {
+	switch {
+	case m.IsDir():
+		return "a folder"
+	case m&fs.ModeSymlink != 0:
+		return "a symbolic link"
+	case m&fs.ModeDevice != 0:
+		return "a device"
+	case m&fs.ModeNamedPipe != 0:
+		return "a named pipe"
+	case m&fs.ModeSocket != 0:
+		return "a socket"
+	}
+	return "not a regular file"
+}
+
+// Write writes data to path with mode 0644 through a temporary file, an
+// fsync and a rename. On any error the temporary file is removed and path is
+// untouched. A path that exists and is not a regular file is refused.
 func Write(path string, data []byte) error {
+	if err := CheckTarget(path); err != nil {
+		return err
+	}
 	f, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
 	if err != nil {
 		return fmt.Errorf("cannot write %s: %w (check that the folder exists and is writable)", path, err)
 	}
 	tmp := f.Name()
 	_, werr := f.Write(data)
+	if werr == nil {
+		werr = f.Sync()
+	}
 	if cerr := f.Close(); werr == nil {
 		werr = cerr
 	}
@@ -33,5 +78,15 @@ func Write(path string, data []byte) error {
 		os.Remove(tmp)
 		return fmt.Errorf("writing %s: %w", path, werr)
 	}
+	syncDir(filepath.Dir(path))
 	return nil
+}
+
+// syncDir flushes a folder's entries (the rename) to the disk; file systems
+// that cannot sync a folder are not an error.
+func syncDir(dir string) {
+	if d, err := os.Open(dir); err == nil {
+		d.Sync()
+		d.Close()
+	}
 }

@@ -1,0 +1,129 @@
+package main
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
+)
+
+// Every command writes its files the same way: an output file or folder that
+// already exists is replaced only with --force; a path that is not a regular
+// file (a device, a pipe) is never replaced; a folder of outputs is built
+// aside and swapped into place whole, with a manifest listing its files and
+// their SHA-256 sums.
+
+// manifestName is the file that marks a folder as a sunsight output set.
+const manifestName = "manifest.json"
+
+// checkOutputFile refuses, before any work, an output file that would
+// replace something: a non-regular file always, an existing file without
+// --force; and a folder it cannot be written in.
+func checkOutputFile(path string, force bool) error {
+	if err := atomicfile.CheckTarget(path); err != nil {
+		return usageError{err}
+	}
+	if _, err := os.Stat(path); err == nil && !force {
+		return usagef("%s exists; give a new path, or add --force to replace it", path)
+	}
+	return usageError2(ensureWritableDir(filepath.Dir(path)))
+}
+
+// checkOutputDir refuses, before any work, an output folder that would
+// replace something: one that is not a folder, one holding files that are not
+// a sunsight output set, an earlier output set without --force.
+func checkOutputDir(dir string, force bool) error {
+	st, err := os.Lstat(dir)
+	if errors.Is(err, fs.ErrNotExist) {
+		return usageError2(ensureWritableDir(filepath.Dir(filepath.Clean(dir))))
+	}
+	if err != nil {
+		return usageError{err}
+	}
+	if !st.IsDir() {
+		return usagef("output folder %s exists and is not a folder; give a new or empty folder", dir)
+	}
+	ents, err := os.ReadDir(dir)
+	if err != nil {
+		return usageError{err}
+	}
+	if len(ents) > 0 {
+		if _, err := os.Stat(filepath.Join(dir, manifestName)); err != nil {
+			return usagef("output folder %s holds files that are not a sunsight output set (no %s); give a new or empty folder", dir, manifestName)
+		}
+		if !force {
+			return usagef("output folder %s holds an earlier output set; give a new folder, or add --force to replace it", dir)
+		}
+	}
+	return usageError2(ensureWritableDir(filepath.Dir(filepath.Clean(dir))))
+}
+
+func usageError2(err error) error {
+	if err == nil {
+		return nil
+	}
+	return usageError{err}
+}
+
+// writeOutput writes one output file after checkOutputFile's rules.
+func writeOutput(path string, data []byte, force bool) error {
+	if err := checkOutputFile(path, force); err != nil {
+		return err
+	}
+	return atomicfile.Write(path, data)
+}
+
+// writeOutputDir builds the output folder dir with fill and swaps it into
+// place whole, after checkOutputDir's rules; the manifest is written last.
+func writeOutputDir(dir string, force bool, fill func(dir string) error) error {
+	if err := checkOutputDir(dir, force); err != nil {
+		return err
+	}
+	return atomicfile.ReplaceDir(dir, func(tmp string) error {
+		if err := fill(tmp); err != nil {
+			return err
+		}
+		return writeManifest(tmp)
+	})
+}
+
+// manifest lists the files of an output set with their SHA-256 sums.
+type manifest struct {
+	Tool    string            `json:"tool"`
+	Version string            `json:"version"`
+	Files   map[string]string `json:"files_sha256"`
+}
+
+func writeManifest(dir string) error {
+	m := manifest{Tool: "sunsight", Version: toolVersion(), Files: map[string]string{}}
+	err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		rel, _ := filepath.Rel(dir, p)
+		b, err := os.ReadFile(p)
+		if err != nil {
+			return err
+		}
+		sum := sha256.Sum256(b)
+		m.Files[filepath.ToSlash(rel)] = hex.EncodeToString(sum[:])
+		return nil
+	})
+	if err != nil {
+		return err
+	}
+	b, err := json.MarshalIndent(m, "", "  ")
+	if err != nil {
+		return err
+	}
+	if err := atomicfile.Write(filepath.Join(dir, manifestName), append(b, '\n')); err != nil {
+		return fmt.Errorf("manifest: %w", err)
+	}
+	return nil
+}

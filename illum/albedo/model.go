@@ -134,6 +134,10 @@ func New(cfg Config) (*Model, error) {
 // Cells returns the number of cells on the visible cap.
 func (m *Model) Cells() int { return m.n }
 
+// IsUniform reports whether the model's reflectance is the same everywhere
+// (the case the albedo tables serve).
+func (m *Model) IsUniform() bool { return m.kind == kindUniform }
+
 // capFrame returns the unit basis (ex, ey, ez) of the cap frame, ez toward rSat.
 func capFrame(rSat r3.Vec, r float64) (ex, ey, ez r3.Vec) {
 	ez = r3.Scale(1/r, rSat)

@@ -170,11 +170,13 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 		close(eclDone)
 	}()
 
-	var table *localAlbedo
-	if steps*units >= albedoTableMinSteps && !cfg.NoAlbedoTable {
-		table = buildLocalAlbedo(&cfg)
+	sets := 1 // geometries computed per step
+	if cfg.LawForUnit != nil {
+		sets = units
 	}
+	table := newAlbedoTable(&cfg, steps, sets)
 	res.AlbedoTable = table != nil
+	res.albedoBoresight = table != nil && table.bore != nil
 
 	// Each unit's errors are drawn once, before its chunks run.
 	arrays := make([]*sensor.Array, units)

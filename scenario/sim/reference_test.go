@@ -6,6 +6,8 @@ import (
 	"math"
 	"os"
 	"testing"
+
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // benchRef is the part of bench/reference.py's output the test compares.
@@ -32,15 +34,20 @@ type benchErr struct {
 // albedo on a 7200-cell cap). Coverage and sunlit fractions must agree to
 // 0.1 percentage point (one 10 s sample of a day is 0.012 pp).
 func TestAgainstNumpyReference(t *testing.T) {
-	defer func(n int) { albedoTableMinSteps = n }(albedoTableMinSteps)
+	defer func(n, w int) { albedoTableMinSteps, boresightMinWork = n, w }(albedoTableMinSteps, boresightMinWork)
 	for _, c := range []struct {
 		file   string
 		albedo bool
-		table  bool // albedo from the precomputed LVLH table
-	}{{"../../bench/ref-1d.json", false, false}, {"../../bench/ref-1d-albedo.json", true, false}, {"../../bench/ref-1d-albedo.json", true, true}} {
-		albedoTableMinSteps = 1 << 30
-		if c.table {
+		table  bool // albedo from a precomputed table
+		bore   bool // the boresight table (any attitude) instead of the LVLH one
+	}{{"../../bench/ref-1d.json", false, false, false}, {"../../bench/ref-1d-albedo.json", true, false, false},
+		{"../../bench/ref-1d-albedo.json", true, true, false}, {"../../bench/ref-1d-albedo.json", true, true, true}} {
+		albedoTableMinSteps, boresightMinWork = 1<<30, 1<<30
+		if c.table && !c.bore {
 			albedoTableMinSteps = 0
+		}
+		if c.bore {
+			boresightMinWork = 0
 		}
 		b, err := os.ReadFile(c.file)
 		if err != nil {
@@ -56,6 +63,9 @@ func TestAgainstNumpyReference(t *testing.T) {
 		}
 		if res.AlbedoTable != c.table {
 			t.Fatalf("albedo table used: %v, want %v", res.AlbedoTable, c.table)
+		}
+		if c.bore && res.AlbedoTable && !res.albedoBoresight {
+			t.Fatal("the LVLH table was used, want the boresight table")
 		}
 		u := res.Nominal
 		const pp = 0.001
@@ -88,6 +98,48 @@ func TestAgainstNumpyReference(t *testing.T) {
 		check("error without albedo", e.ErrNoAlbedo, ref.ErrNo)
 		if c.albedo {
 			check("error with albedo", e.ErrAlbedo, ref.ErrAlb)
+		}
+	}
+}
+
+// Away from nadir pointing (a tumble: every attitude) the boresight albedo
+// table gives the figures of the cell integral: error statistics within
+// 0.05°, peak signals within 0.5 % of full sun, the same valid and false-sun
+// fractions to 0.2 percentage point.
+func TestBoresightTableRunMatchesIntegral(t *testing.T) {
+	defer func(w int) { boresightMinWork = w }(boresightMinWork)
+	var runs []*Result
+	for _, w := range []int{1 << 30, 0} {
+		boresightMinWork = w
+		cfg := referenceCase(t, 0.5, true)
+		cfg.Array = noisyFaceArray(t, 70)
+		cfg.Law = attitude.NewTumble(3, 2*math.Pi/180)
+		res, err := Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.albedoBoresight != (w == 0) {
+			t.Fatalf("boresight table used: %v, want %v", res.albedoBoresight, w == 0)
+		}
+		runs = append(runs, res)
+	}
+	a, b := runs[0].Nominal, runs[1].Nominal
+	for i := range a.Sensors {
+		if d := math.Abs(a.Sensors[i].PeakSignal - b.Sensors[i].PeakSignal); d > 0.005 {
+			t.Errorf("%s peak: integral %.4f, table %.4f", a.Sensors[i].Name, a.Sensors[i].PeakSignal, b.Sensors[i].PeakSignal)
+		}
+	}
+	for j := range a.Estimators {
+		x, y := a.Estimators[j], b.Estimators[j]
+		t.Logf("%s: albedo part p95 %.3f° (integral) / %.3f° (table), error p95 %.3f° / %.3f°", x.Name, x.AlbedoPart.P95Deg, y.AlbedoPart.P95Deg, x.ErrAlbedo.P95Deg, y.ErrAlbedo.P95Deg)
+		for _, p := range [][2]float64{{x.ErrAlbedo.MeanDeg, y.ErrAlbedo.MeanDeg}, {x.ErrAlbedo.P95Deg, y.ErrAlbedo.P95Deg},
+			{x.ErrAlbedo.P99Deg, y.ErrAlbedo.P99Deg}, {x.AlbedoPart.P95Deg, y.AlbedoPart.P95Deg}} {
+			if math.Abs(p[0]-p[1]) > 0.05 {
+				t.Errorf("%s: integral %.3f°, table %.3f°", x.Name, p[0], p[1])
+			}
+		}
+		if math.Abs(x.ValidFraction-y.ValidFraction) > 0.002 || math.Abs(x.FalseSunFraction-y.FalseSunFraction) > 0.002 {
+			t.Errorf("%s: valid %.4f / %.4f, false sun %.4f / %.4f", x.Name, x.ValidFraction, y.ValidFraction, x.FalseSunFraction, y.FalseSunFraction)
 		}
 	}
 }

@@ -21,10 +21,12 @@ type Result struct {
 	Nominal      *UnitResult   // unit 0
 	Units        []*UnitResult // all units, Units[0] == Nominal
 	AcrossUnits  []AcrossUnits // one per estimator; empty with one unit
-	// AlbedoTable says the albedo came from the precomputed LVLH table
-	// (nadir pointing, uniform albedo, circular orbit) rather than the cell
-	// integral at every step.
+	// AlbedoTable says the albedo came from a precomputed table (uniform
+	// albedo: the LVLH table for nadir pointing on a circular orbit, else
+	// the boresight tables) rather than the cell integral at every step.
 	AlbedoTable bool
+
+	albedoBoresight bool // the table is the boresight one (tests)
 }
 
 // ErrorStats summarises an angle error in degrees. N = 0 means no sample

@@ -64,7 +64,7 @@ type geometry struct {
 }
 
 func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*geometry, error) {
-	g := &geometry{cfg: cfg, prop: cfg.NewPropagator(), table: table,
+	g := &geometry{cfg: cfg, prop: cfg.NewPropagator(), table: table.clone(),
 		jd0: ephem.JulianDateTT(cfg.Epoch), jdUT0: ephem.JulianDateUT1(cfg.Epoch)}
 	g.sun = newSunCache(cfg.Sun, g.jd0)
 	g.law = cfg.Law
@@ -126,7 +126,7 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 		g.albIn[i].Normal = M.toECI(b)
 	}
 	gmst := ephem.GMST(g.jdUT0 + t/86400)
-	if g.table == nil || !g.table.irradiance(g.albOut, st, sunU, sunD) {
+	if g.table == nil || !g.table.irradiance(g.albOut, st, sunU, sunD, g.albIn) {
 		g.alb.Irradiance(g.albOut, st.R, sunU, sunD, gmst, jd, g.albIn)
 	}
 	if g.corr != nil {

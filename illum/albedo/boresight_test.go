@@ -1,0 +1,103 @@
+package albedo
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+	"time"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// compareBoresight draws n random cases (radius in [r0, r1], spacecraft
+// position, sun and boresight directions uniform on the sphere) and returns
+// the worst differences between the table and the cell integral with the
+// same cells, the peak being the largest integral of the sample.
+func compareBoresight(t *testing.T, tab *BoresightTable, m *Model, r0, r1 float64, n int, seed uint64) errStats {
+	t.Helper()
+	rng := rand.New(rand.NewPCG(seed, 11))
+	type sample struct{ got, want Result }
+	samples := make([]sample, 0, n)
+	var peak float64
+	want := make([]Result, 1)
+	var f SunFrame
+	for range n {
+		rSat := r3.Scale(r0+(r1-r0)*rng.Float64(), randUnit(rng))
+		sun, bore := randUnit(rng), randUnit(rng)
+		if !tab.Frame(&f, rSat, sun, AUKm) {
+			t.Fatalf("radius %g km not covered by %v", math.Sqrt(r3.Norm2(rSat)), tab.RadiiKm())
+		}
+		m.Irradiance(want, rSat, sun, AUKm, 0, 2451545, []Sensor{{Normal: bore, HalfAngle: tab.HalfAngle()}})
+		samples = append(samples, sample{tab.At(&f, bore), want[0]})
+		peak = max(peak, want[0].Irradiance)
+	}
+	var st errStats
+	for _, s := range samples {
+		g, w := s.got, s.want
+		g.Fill, w.Fill = 0, 0 // the boresight table keeps no fill fraction
+		st.add(g, w, peak)
+	}
+	return st
+}
+
+// The boresight table agrees with the cell integral it samples, for any
+// attitude, at radii between its nodes 25 km apart (and within the slack
+// beyond them), for cones of 90° and 30°, at the default steps. Measured
+// worst cases over 4000 random cases each: 90° at 400 km |ΔE| ≤ 3.5e-4 of
+// the peak, direction ≤ 0.43° where E ≥ 1 % of the peak; 30° at 700 km
+// |ΔE| ≤ 4.4e-3 of the peak, direction ≤ 0.36°; the bounds are those
+// rounded up.
+func TestBoresightTableMatchesIntegral(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds four tables")
+	}
+	for _, tc := range []struct {
+		halfDeg float64
+		r0, r1  float64
+	}{
+		{90, EarthRadiusKm + 400, EarthRadiusKm + 425},
+		{30, EarthRadiusKm + 700, EarthRadiusKm + 725},
+	} {
+		m, err := New(Config{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		start := time.Now()
+		tab, err := NewBoresightTable(m, []float64{tc.r0, tc.r1}, tc.halfDeg*math.Pi/180, Response{}, DefaultBoresightSunResDeg, DefaultBoresightStepDeg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		build := time.Since(start)
+		st := compareBoresight(t, tab, m, tc.r0-BoresightSlackKm, tc.r1+BoresightSlackKm, 4000, uint64(tc.halfDeg))
+		t.Logf("%g° cone, r %g…%g km (built in %v): %v", tc.halfDeg, tc.r0, tc.r1, build.Round(time.Millisecond), st)
+		if st.absFrac > 5e-3 {
+			t.Errorf("%g°: |ΔE| up to %.2e of the peak, want ≤ 5e-3", tc.halfDeg, st.absFrac)
+		}
+		if st.dir > 1*math.Pi/180 {
+			t.Errorf("%g°: direction off by up to %.2f° where E ≥ 1 %% of peak, want ≤ 1°", tc.halfDeg, st.dir*180/math.Pi)
+		}
+	}
+}
+
+// Bad arguments are refused with the field named.
+func TestBoresightTableRefusesBadInput(t *testing.T) {
+	m, _ := New(Config{})
+	z, _ := New(Config{Reflectance: Zonal{A0: 0.3, A2: 0.1}})
+	r := EarthRadiusKm + 500
+	for _, tc := range []struct {
+		m     *Model
+		radii []float64
+		half  float64
+	}{
+		{nil, []float64{r}, 1},
+		{z, []float64{r}, 1},
+		{m, nil, 1},
+		{m, []float64{r, r}, 1},
+		{m, []float64{EarthRadiusKm}, 1},
+		{m, []float64{r}, 2},
+	} {
+		if _, err := NewBoresightTable(tc.m, tc.radii, tc.half, Response{}, 1, 3); err == nil {
+			t.Errorf("%v %v %v: no error", tc.m != nil, tc.radii, tc.half)
+		}
+	}
+}

@@ -102,7 +102,6 @@
 //     TestLocalTableRadiusDrift). A "circular" orbit under J2 with a frozen
 //     eccentricity of 1e-3 swings by about ±7 km: check |r − RadiusKm()|
 //     against this budget before trusting the table for such an orbit.
-//
 //   - BoresightTable: any attitude, a uniform reflectance and one cone
 //     (half-angle and response) per table. With a uniform Earth the albedo on
 //     a cone depends only on the sun's angle from nadir θs, the boresight's

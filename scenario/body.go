@@ -2,11 +2,15 @@ package scenario
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"path/filepath"
+	"slices"
 	"strings"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 func (r *resolver) vec(path string, v []float64, def r3.Vec) r3.Vec {
@@ -77,7 +81,7 @@ func defaultToward(face string) string {
 
 func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	s := Sensor{Name: f.Name, Kind: f.Kind}
-	if !oneOf(f.Kind, kinds) {
+	if kinds := sensor.KindNames(); !oneOf(f.Kind, kinds) {
 		r.fail(p+".kind", "value %q is unknown; allowed %s", f.Kind, strings.Join(kinds, ", "))
 	}
 	switch {
@@ -132,9 +136,10 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	}
 	r.place(p, f, &s)
 
+	info, known := sensor.LookupKind(f.Kind)
 	halfDef := 60.0
-	if f.Kind == KindCosine {
-		halfDef = 90
+	if known {
+		halfDef = info.HalfAngleDeg
 	}
 	half := setDefault(&f.HalfAngleDeg, halfDef)
 	r.rangeCheck(p+".half_angle_deg", half, 0, 90, true, "a field of view half angle in (0, 90] degrees")
@@ -151,53 +156,8 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	if s.ADCBits < 0 || s.ADCBits > 32 {
 		r.fail(p+".adc_bits", "value %d is out of range; allowed [0, 32] (0 = no quantisation)", s.ADCBits)
 	}
-	only := func(key string, given bool, kind string) {
-		if given && f.Kind != kind && oneOf(f.Kind, kinds) {
-			r.fail(p+"."+key, "value does not apply to kind %q; allowed for kind %s only", f.Kind, kind)
-		}
-	}
-	only("roll_off", f.RollOff != nil, KindCosine)
-	only("shade_height_mm", f.ShadeHeightMM != nil, KindQuadrant)
-	only("cell_size_mm", f.CellSizeMM != nil, KindQuadrant)
-	only("gap_mm", f.GapMM != nil, KindQuadrant)
-	only("accuracy_deg_1sigma", f.AccuracyDeg1Sigma != nil, KindDigital)
-	only("fov_shape", f.FOVShape != "", KindDigital)
-	switch f.Kind {
-	case KindCosine:
-		prev := -1.0
-		for i, row := range f.RollOff {
-			rp := fmt.Sprintf("%s.roll_off[%d]", p, i)
-			if len(row) != 2 {
-				r.fail(rp, "value has %d numbers; allowed [angle_deg, relative_response]", len(row))
-				continue
-			}
-			if row[0] <= prev || row[0] > 90 || row[0] < 0 {
-				r.fail(rp, "value angle %g is out of order or range; allowed increasing angles in [0, 90]", row[0])
-			}
-			if row[1] < 0 || row[1] > 2 {
-				r.fail(rp, "value response %g is out of range; allowed [0, 2] relative to the cosine law", row[1])
-			}
-			prev = row[0]
-			s.RollOff = append(s.RollOff, [2]float64{row[0] * deg, row[1]})
-		}
-	case KindQuadrant:
-		s.ShadeHeightMM = setDefault(&f.ShadeHeightMM, 1.0)
-		s.CellSizeMM = setDefault(&f.CellSizeMM, 2.0)
-		s.GapMM = setDefault(&f.GapMM, 0.1)
-		r.rangeCheck(p+".shade_height_mm", s.ShadeHeightMM, 0, 100, true, "(0, 100] mm")
-		r.rangeCheck(p+".cell_size_mm", s.CellSizeMM, 0, 100, true, "(0, 100] mm")
-		r.rangeCheck(p+".gap_mm", s.GapMM, 0, s.CellSizeMM, false, "[0, cell_size_mm] mm")
-	case KindDigital:
-		acc := setDefault(&f.AccuracyDeg1Sigma, 0.5)
-		r.rangeCheck(p+".accuracy_deg_1sigma", acc, 0, 90, false, "[0, 90] degrees")
-		s.AccuracyRad1Sigma = acc * deg
-		if f.FOVShape == "" {
-			f.FOVShape = "cone"
-		}
-		if !oneOf(f.FOVShape, []string{"cone", "square"}) {
-			r.fail(p+".fov_shape", "value %q is unknown; allowed cone, square", f.FOVShape)
-		}
-		s.SquareFOV = f.FOVShape == "square"
+	if known {
+		s.Params = r.kindParams(p, info, f)
 	}
 	if f.Errors == nil {
 		f.Errors = &fileErrors{}
@@ -334,6 +294,82 @@ func surfaceNormal(q, b, h r3.Vec) r3.Vec {
 	return best
 }
 
+// kindParams checks the kind keys of a sensor entry against the kind's
+// registry entry, fills their defaults in place (for the record) and returns
+// them in model units.
+func (r *resolver) kindParams(p string, info sensor.KindInfo, f *fileSensor) sensor.Params {
+	for _, key := range slices.Sorted(maps.Keys(f.Params)) {
+		if _, ok := info.Param(key); !ok {
+			r.fail(p+"."+key, "value does not apply to kind %q; allowed for kind %s only", f.Kind, strings.Join(sensor.KindsWithKey(key), ", "))
+		}
+	}
+	if f.Params == nil {
+		f.Params = map[string]any{}
+	}
+	out := sensor.Params{Num: map[string]float64{}, Text: map[string]string{}, Table: map[string][][2]float64{}}
+	for _, k := range info.Params {
+		kp := p + "." + k.Key
+		v, given := f.Params[k.Key]
+		switch k.Type {
+		case sensor.Number:
+			if !given {
+				v = k.Default
+				f.Params[k.Key] = v
+			}
+			x := v.(float64)
+			hi := k.Max
+			if k.MaxKey != "" {
+				hi = f.Params[k.MaxKey].(float64)
+			}
+			r.rangeCheck(kp, x, k.Min, hi, k.MinOpen, k.Allowed)
+			out.Num[k.Key] = x * sensor.ScaleOr1(k.Scale)
+		case sensor.Choice:
+			if !given {
+				v = k.Choices[0]
+				f.Params[k.Key] = v
+			}
+			if !oneOf(v.(string), k.Choices) {
+				r.fail(kp, "value %q is unknown; allowed %s", v, strings.Join(k.Choices, ", "))
+			}
+			out.Text[k.Key] = v.(string)
+		case sensor.Table:
+			if given {
+				out.Table[k.Key] = r.table(kp, k.Columns, v.([][]float64))
+			}
+		}
+	}
+	return out
+}
+
+// table checks the rows of a two-column table parameter and returns them in
+// model units.
+func (r *resolver) table(p string, cols [2]sensor.Column, rows [][]float64) [][2]float64 {
+	var out [][2]float64
+	prev := [2]float64{math.Inf(-1), math.Inf(-1)}
+	for i, row := range rows {
+		rp := fmt.Sprintf("%s[%d]", p, i)
+		if len(row) != 2 {
+			r.fail(rp, "value has %d numbers; allowed [%s, %s]", len(row), cols[0].Name, cols[1].Name)
+			continue
+		}
+		var v [2]float64
+		for j, c := range cols {
+			x := row[j]
+			if x < c.Min || x > c.Max || (c.Increasing && !(x > prev[j])) {
+				order := ""
+				if c.Increasing {
+					order = " increasing"
+				}
+				r.fail(rp, "value %s %g is out of order or range; allowed%s values in [%g, %g]", c.Name, x, order, c.Min, c.Max)
+			}
+			v[j] = x * sensor.ScaleOr1(c.Scale)
+		}
+		prev = [2]float64(row)
+		out = append(out, v)
+	}
+	return out
+}
+
 func (r *resolver) errorsOf(p string, e *fileErrors) SensorErrors {
 	for _, c := range []struct {
 		key string
@@ -381,10 +417,10 @@ func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 	if len(f.Estimators) == 0 {
 		cos, twoAxis, pairs := 0, 0, false
 		for i, s := range sensors {
-			if s.Kind == KindCosine {
+			if k, _ := sensor.LookupKind(s.Kind); !k.TwoAxis {
 				cos++
 				for _, o := range sensors[:i] {
-					if o.Kind == KindCosine && r3.Dot(o.Boresight, s.Boresight) < -0.999 {
+					if k, _ := sensor.LookupKind(o.Kind); !k.TwoAxis && r3.Dot(o.Boresight, s.Boresight) < -0.999 {
 						pairs = true
 					}
 				}

@@ -74,26 +74,28 @@ type fileErrors struct {
 	ApertureOffsetMM1Sigma float64 `yaml:"aperture_offset_mm_1sigma"`
 }
 
+// fileSensor is one sensor entry: the keys every kind has, the kind's own
+// keys (declared by its registry entry in illum/sensor, decoded by
+// UnmarshalYAML) and the errors block. The record prints them in that order.
 type fileSensor struct {
-	Name              string      `yaml:"name"`
-	Kind              string      `yaml:"kind"`
-	Face              string      `yaml:"face,omitempty"`
-	TiltDeg           *float64    `yaml:"tilt_deg,omitempty"`
-	TiltToward        string      `yaml:"tilt_toward,omitempty"`
-	ClockDeg          *float64    `yaml:"clock_deg,omitempty"`
-	Boresight         []float64   `yaml:"boresight,omitempty"`
-	PositionM         []float64   `yaml:"position_m"`
-	HalfAngleDeg      *float64    `yaml:"half_angle_deg,omitempty"`
-	Threshold         *float64    `yaml:"threshold,omitempty"`
-	FullScale         *float64    `yaml:"full_scale,omitempty"`
-	ADCBits           *int        `yaml:"adc_bits,omitempty"`
-	RollOff           [][]float64 `yaml:"roll_off,omitempty"`
-	ShadeHeightMM     *float64    `yaml:"shade_height_mm,omitempty"`
-	CellSizeMM        *float64    `yaml:"cell_size_mm,omitempty"`
-	GapMM             *float64    `yaml:"gap_mm,omitempty"`
-	AccuracyDeg1Sigma *float64    `yaml:"accuracy_deg_1sigma,omitempty"`
-	FOVShape          string      `yaml:"fov_shape,omitempty"`
-	Errors            *fileErrors `yaml:"errors,omitempty"`
+	sensorKeys
+	Params map[string]any // kind key → float64, string or [][]float64
+	Errors *fileErrors
+}
+
+type sensorKeys struct {
+	Name         string    `yaml:"name"`
+	Kind         string    `yaml:"kind"`
+	Face         string    `yaml:"face,omitempty"`
+	TiltDeg      *float64  `yaml:"tilt_deg,omitempty"`
+	TiltToward   string    `yaml:"tilt_toward,omitempty"`
+	ClockDeg     *float64  `yaml:"clock_deg,omitempty"`
+	Boresight    []float64 `yaml:"boresight,omitempty"`
+	PositionM    []float64 `yaml:"position_m"`
+	HalfAngleDeg *float64  `yaml:"half_angle_deg,omitempty"`
+	Threshold    *float64  `yaml:"threshold,omitempty"`
+	FullScale    *float64  `yaml:"full_scale,omitempty"`
+	ADCBits      *int      `yaml:"adc_bits,omitempty"`
 }
 
 type fileObstruction struct {

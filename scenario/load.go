@@ -164,10 +164,21 @@ func (w *walker) fail(n *yaml.Node, path, format string, a ...any) {
 	w.errs = append(w.errs, &FieldError{Path: path, Line: n.Line, Col: n.Column, Msg: fmt.Sprintf(format, a...)})
 }
 
+// keyLister is a file type whose keys are not its fields (a sensor entry
+// takes the keys of the registered sensor kinds).
+type keyLister interface {
+	yamlKeys() map[string]reflect.Type
+}
+
+var keyListerType = reflect.TypeOf((*keyLister)(nil)).Elem()
+
 var textUnmarshaler = reflect.TypeOf((*encoding.TextUnmarshaler)(nil)).Elem()
 
 // yamlFields lists a struct type's keys, flattening inline fields.
 func yamlFields(t reflect.Type) map[string]reflect.Type {
+	if t.Implements(keyListerType) {
+		return reflect.Zero(t).Interface().(keyLister).yamlKeys()
+	}
 	out := map[string]reflect.Type{}
 	for i := 0; i < t.NumField(); i++ {
 		f := t.Field(i)

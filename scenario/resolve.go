@@ -50,7 +50,6 @@ var (
 	sunModels   = []string{"low-precision", "meeus"}
 	shadows     = []string{"conical", "cylindrical"}
 	lawNames    = []string{LawNadir, LawSun, LawInertial, LawSpin, LawTumble, LawIsotropic}
-	kinds       = []string{KindCosine, KindQuadrant, KindDigital}
 	estimators  = []string{"least-squares", "opposite-pairs", "two-axis", "combined"}
 	albedos     = []string{AlbedoNone, AlbedoUniform, AlbedoZonal, AlbedoGrid}
 	faces       = []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"}

@@ -5,6 +5,8 @@ import (
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 // Scenario is a validated scenario file with every default filled in and every
@@ -115,13 +117,6 @@ type Mode struct {
 	Attitude Attitude
 }
 
-// Sensor kinds.
-const (
-	KindCosine   = "cosine"
-	KindQuadrant = "quadrant"
-	KindDigital  = "digital"
-)
-
 // Sensor is one sun sensor: its mount in body axes, its field of view, its
 // kind's parameters and its error model (one-sigma values).
 type Sensor struct {
@@ -144,12 +139,9 @@ type Sensor struct {
 	FullScale    float64 // reading at full sun along the boresight
 	ADCBits      int
 
-	RollOff [][2]float64 // cosine: (angle rad, response relative to cos) pairs, angle increasing; nil = ideal cosine
-
-	ShadeHeightMM, CellSizeMM, GapMM float64 // quadrant
-
-	AccuracyRad1Sigma float64 // digital
-	SquareFOV         bool    // digital: square field of view of half side HalfAngleRad instead of a cone
+	// Params are the kind's own keys in model units (rad, mm), as its entry
+	// in the sensor-kind registry (illum/sensor) declares them.
+	Params sensor.Params
 
 	Errors SensorErrors
 }

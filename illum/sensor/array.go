@@ -36,11 +36,10 @@ func NewArray(sensors ...Sensor) (*Array, error) {
 			return nil, fmt.Errorf("sensor: name %q used twice: give every sensor a unique name", s.Name())
 		}
 		seen[s.Name()] = true
-		switch s.Kind() {
-		case KindCosine:
-			a.cosine = append(a.cosine, i)
-		default:
+		if IsTwoAxis(s) {
 			a.twoAxis = append(a.twoAxis, i)
+		} else {
+			a.cosine = append(a.cosine, i)
 		}
 	}
 	used := make([]bool, len(sensors))

@@ -165,3 +165,42 @@ func (c *Cosine) Draw(rng *rand.Rand) Sensor {
 	u.actual, u.unit = drawUnit(c.spec.Errors, c.spec.Mount, 1, rng)
 	return &u
 }
+
+// The registry entry of the cosine kind.
+func init() {
+	Register(KindInfo{
+		Kind: KindCosine, Doc: "coarse cosine photodiode: one signal proportional to the cosine of the incidence",
+		Source:       "Wertz (ed.), Spacecraft Attitude Determination and Control, Reidel 1978, ch. 6 (cosine detector; from memory)",
+		HalfAngleDeg: 90,
+		Params: []Param{{Key: "roll_off", Type: Table,
+			Doc: "measured response relative to the cosine law: [angle_deg, relative_response] rows",
+			Columns: [2]Column{{Name: "angle_deg", Min: 0, Max: 90, Increasing: true, Scale: math.Pi / 180},
+				{Name: "relative_response", Min: 0, Max: 2}}}},
+		Sources: []ErrorSource{{Name: SourceDarkOffset}, {Name: SourceGain}, {Name: SourceNoise},
+			{Name: SourceQuantisation}, {Name: SourceMisalignment}},
+		Build: buildCosine,
+	})
+}
+
+func buildCosine(c Common, p Params) (Sensor, error) {
+	spec := CosineSpec{Name: c.Name, Mount: c.Mount, HalfAngle: c.HalfAngle, Threshold: c.Threshold, Errors: c.Errors}
+	for _, rp := range p.Table["roll_off"] {
+		spec.RollOffAngle = append(spec.RollOffAngle, rp[0])
+		spec.RollOffRel = append(spec.RollOffRel, rp[1])
+	}
+	return NewCosine(spec)
+}
+
+// ResponseTable implements ResponseTabler: cos θ times the roll-off, nil
+// for an ideal cosine.
+func (c *Cosine) ResponseTable() (incidence, response []float64) {
+	if len(c.spec.RollOffAngle) == 0 {
+		return nil, nil
+	}
+	incidence = slices.Clone(c.spec.RollOffAngle)
+	response = make([]float64, len(incidence))
+	for k, a := range incidence {
+		response[k] = c.spec.RollOffRel[k] * math.Cos(a)
+	}
+	return incidence, response
+}

@@ -156,3 +156,29 @@ func (d *Digital) Draw(rng *rand.Rand) Sensor {
 	u.actual, _ = drawUnit(Errors{MisalignSigma: d.spec.MisalignSigma}, d.spec.Mount, 0, rng)
 	return &u
 }
+
+// The registry entry of the digital kind.
+func init() {
+	Register(KindInfo{
+		Kind: KindDigital, Doc: "digital aperture sensor: a two-axis direction at its stated accuracy",
+		Source:       "stated-accuracy model (common practice, no source)",
+		HalfAngleDeg: 60, TwoAxis: true,
+		Params: []Param{
+			{Key: "accuracy_deg_1sigma", Doc: "stated accuracy per axis", Default: 0.5, Min: 0, Max: 90, Allowed: "[0, 90] degrees", Scale: math.Pi / 180},
+			{Key: "fov_shape", Type: Choice, Doc: "cone, or a square of half side half_angle_deg", Choices: []string{"cone", "square"}},
+		},
+		Sources: []ErrorSource{{Name: SourceMisalignment}, {Name: SourceDigitalNoise, Param: "accuracy_deg_1sigma"}},
+		Build:   buildDigital,
+	})
+}
+
+// digitalAlbedoRejection is the diffuse irradiance, as a fraction of the solar
+// constant, below which a digital sensor ignores albedo (an assumed
+// detector property; common practice, no source).
+const digitalAlbedoRejection = 0.3
+
+func buildDigital(c Common, p Params) (Sensor, error) {
+	return NewDigital(DigitalSpec{Name: c.Name, Mount: c.Mount, HalfAngle: c.HalfAngle, Square: p.Text["fov_shape"] == "square",
+		Sigma: p.Num["accuracy_deg_1sigma"], MinIrradiance: c.Threshold * SolarConstant,
+		AlbedoThreshold: digitalAlbedoRejection * SolarConstant, MisalignSigma: c.Errors.MisalignSigma})
+}

@@ -258,3 +258,34 @@ func (q *Quadrant) Draw(rng *rand.Rand) Sensor {
 	u.offY = q.spec.OffsetY + q.spec.OffsetSigma*rng.NormFloat64()
 	return &u
 }
+
+// The registry entry of the quadrant kind.
+func init() {
+	Register(KindInfo{
+		Kind: KindQuadrant, Doc: "four-quadrant cells under a square aperture: a two-axis direction from the cell imbalance",
+		Source:       "closed-form spot geometry X = 2h·tan α/w; Wertz (ed.), Spacecraft Attitude Determination and Control, Reidel 1978, ch. 6 (from memory)",
+		HalfAngleDeg: 60, TwoAxis: true,
+		Params: []Param{
+			{Key: "shade_height_mm", Doc: "height of the aperture above the cells", Default: 1.0, Min: 0, Max: 100, MinOpen: true, Allowed: "(0, 100] mm"},
+			{Key: "cell_size_mm", Doc: "side of the square of four cells", Default: 2.0, Min: 0, Max: 100, MinOpen: true, Allowed: "(0, 100] mm"},
+			{Key: "gap_mm", Doc: "gap between the cells", Default: 0.1, Min: 0, MaxKey: "cell_size_mm", Allowed: "[0, cell_size_mm] mm"},
+		},
+		Sources: []ErrorSource{{Name: SourceDarkOffset}, {Name: SourceGain}, {Name: SourceNoise},
+			{Name: SourceQuantisation}, {Name: SourceMisalignment}, {Name: SourceApertureOffset}},
+		Build: buildQuadrant,
+	})
+}
+
+// quadrantSigma is the 1σ accuracy used to weight a quadrant sensor's
+// direction: 1°, a typical figure for a home-built shaded quad cell (common
+// practice, no source).
+const quadrantSigma = math.Pi / 180
+
+func buildQuadrant(c Common, p Params) (Sensor, error) {
+	// The aperture is one cell wide, so the spot just fills a cell at
+	// normal incidence (the usual proportion; common practice, no source).
+	cell := p.Num["cell_size_mm"]
+	return NewQuadrant(QuadrantSpec{Name: c.Name, Mount: c.Mount, ApertureSide: cell, Height: p.Num["shade_height_mm"],
+		CellSide: cell, Gap: p.Num["gap_mm"], Threshold: c.Threshold, Sigma: quadrantSigma,
+		OffsetSigma: c.OffsetSigma, Errors: c.Errors})
+}

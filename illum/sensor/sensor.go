@@ -30,9 +30,6 @@ const (
 	KindDigital  Kind = "digital"
 )
 
-// Kinds lists every sensor kind in a stable order.
-func Kinds() []Kind { return []Kind{KindCosine, KindQuadrant, KindDigital} }
-
 // Albedo is the Earth-reflected light reaching one sensor, as the albedo
 // model delivers it: the response-weighted irradiance ∫L·R(θ)dω over the
 // field of view (W/m², R from the sensor's Response) and the

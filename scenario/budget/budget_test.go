@@ -4,6 +4,8 @@ import (
 	"context"
 	"math"
 	"testing"
+
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 // fakeRun is a closed-form budget: source s alone gives a unit error
@@ -70,5 +72,21 @@ func TestFindToleranceClosedForm(t *testing.T) {
 	}
 	if _, err := FindTolerance(context.Background(), run, All(), Albedo, 1.0, Metric.P95Deg); err == nil {
 		t.Error("albedo has no σ: want an error")
+	}
+}
+
+// Every error source a registered sensor kind offers is a row the budget
+// knows.
+func TestBudgetKnowsEverySourceOfEveryKind(t *testing.T) {
+	for _, name := range sensor.KindNames() {
+		k, _ := sensor.LookupKind(name)
+		for _, es := range k.Sources {
+			if _, ok := sourceNamed(es.Name); !ok {
+				t.Errorf("kind %s offers source %q, unknown to the budget", name, es.Name)
+			}
+			if p, ok := k.Param(es.Param); es.Param != "" && (!ok || p.Type != sensor.Number) {
+				t.Errorf("kind %s: source %q lives in %q, not a number key of the kind", name, es.Name, es.Param)
+			}
+		}
 	}
 }

@@ -7,6 +7,7 @@ import (
 	"math"
 
 	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -24,9 +25,40 @@ var referenceSigma = [NumSources]float64{
 	ApertureOffset: 0.02, DigitalNoise: 0.1 * math.Pi / 180,
 }
 
-// tinyDigitalSigma stands for "no noise" on a digital sensor, whose model
-// needs a σ > 0 (rad).
-const tinyDigitalSigma = 1e-12
+// tinySigma stands for "no error" in a source held in a kind parameter
+// (a digital sensor's stated accuracy), whose model needs a σ > 0.
+const tinySigma = 1e-12
+
+// sourceNamed returns the source the budget table prints as name.
+func sourceNamed(name string) (Source, bool) {
+	for s, n := range sourceNames {
+		if n == name {
+			return Source(s), true
+		}
+	}
+	return 0, false
+}
+
+// sigmaOf is a sensor's 1σ of a source it offers: from its kind parameter
+// when the source lives there, else from the errors block e.
+func sigmaOf(sc scenario.Sensor, e scenario.SensorErrors, src Source, es sensor.ErrorSource) float64 {
+	if es.Param != "" {
+		return sc.Params.Num[es.Param]
+	}
+	switch src {
+	case DarkOffset:
+		return e.DarkOffset1Sigma
+	case Gain:
+		return e.Gain1Sigma
+	case Noise:
+		return e.Noise1Sigma
+	case Misalignment:
+		return e.MisalignmentRad1Sigma
+	case ApertureOffset:
+		return e.ApertureOffsetMM1Sigma
+	}
+	return 0
+}
 
 // Options set the runs of a Runner.
 type Options struct {
@@ -63,28 +95,18 @@ func NewRunner(s *scenario.Scenario, o Options) (*Runner, error) {
 	if maxD > 0 && r.durationS > maxD {
 		r.durationS, r.shortened = maxD, true
 	}
-	var hasQuad, hasDigital, hasAnalog bool
 	for _, sc := range s.Body.Sensors {
-		e := sc.Errors
-		vals := [NumSources]float64{DarkOffset: e.DarkOffset1Sigma, Gain: e.Gain1Sigma, Noise: e.Noise1Sigma,
-			Misalignment: e.MisalignmentRad1Sigma, ApertureOffset: e.ApertureOffsetMM1Sigma}
-		switch sc.Kind {
-		case scenario.KindQuadrant:
-			hasQuad, hasAnalog = true, true
-		case scenario.KindDigital:
-			hasDigital = true
-			vals = [NumSources]float64{Misalignment: e.MisalignmentRad1Sigma, DigitalNoise: sc.AccuracyRad1Sigma}
-		default:
-			hasAnalog = true
-			vals[ApertureOffset] = 0
-		}
-		if sc.ADCBits > 0 && sc.Kind != scenario.KindDigital {
-			r.stated[Quantisation] = true
-		}
-		for i, v := range vals {
-			if v > r.unit[i] {
-				r.unit[i] = v
+		info, _ := sensor.LookupKind(sc.Kind)
+		for _, es := range info.Sources {
+			src, ok := sourceNamed(es.Name)
+			if !ok {
+				return nil, fmt.Errorf("budget: sensor kind %q offers error source %q, which the budget does not know", sc.Kind, es.Name)
 			}
+			r.present[src] = true
+			if src == Quantisation && sc.ADCBits > 0 {
+				r.stated[Quantisation] = true
+			}
+			r.unit[src] = max(r.unit[src], sigmaOf(sc, sc.Errors, src, es))
 		}
 	}
 	for i := range r.unit {
@@ -93,9 +115,7 @@ func NewRunner(s *scenario.Scenario, o Options) (*Runner, error) {
 			r.unit[i] = referenceSigma[i]
 		}
 	}
-	r.present = [NumSources]bool{DarkOffset: hasAnalog, Gain: hasAnalog, Noise: hasAnalog, Quantisation: hasAnalog,
-		Misalignment: true, ApertureOffset: hasQuad, DigitalNoise: hasDigital,
-		Albedo: s.Albedo.Model != scenario.AlbedoNone && s.Albedo.Model != ""}
+	r.present[Albedo] = s.Albedo.Model != scenario.AlbedoNone && s.Albedo.Model != ""
 	r.stated[Albedo] = r.present[Albedo]
 	return r, nil
 }
@@ -170,8 +190,12 @@ func (r *Runner) sensors(c Case) []scenario.Sensor {
 		if !(c.Scale[Quantisation] > 0) {
 			sc.ADCBits = 0
 		}
-		if sc.Kind == scenario.KindDigital {
-			sc.AccuracyRad1Sigma = max(r.scaled(DigitalNoise, sc.AccuracyRad1Sigma, c.Scale[DigitalNoise]), tinyDigitalSigma)
+		info, _ := sensor.LookupKind(sc.Kind)
+		for _, es := range info.Sources {
+			if src, ok := sourceNamed(es.Name); ok && es.Param != "" {
+				v := r.scaled(src, sc.Params.Num[es.Param], c.Scale[src])
+				sc.Params = sc.Params.WithNumber(es.Param, max(v, tinySigma))
+			}
 		}
 		list[i] = sc
 	}

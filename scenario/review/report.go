@@ -8,6 +8,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/plots"
 	"codeberg.org/sunsight/sunsight/scenario"
@@ -83,8 +84,14 @@ func hasErrorModels(s *scenario.Scenario) bool {
 	for _, sn := range s.Body.Sensors {
 		e := sn.Errors
 		if e.DarkOffset1Sigma > 0 || e.Gain1Sigma > 0 || e.Noise1Sigma > 0 || e.MisalignmentRad1Sigma > 0 ||
-			e.ApertureOffsetMM1Sigma > 0 || (sn.Kind == scenario.KindDigital && sn.AccuracyRad1Sigma > 0) {
+			e.ApertureOffsetMM1Sigma > 0 {
 			return true
+		}
+		info, _ := sensor.LookupKind(sn.Kind)
+		for _, es := range info.Sources {
+			if es.Param != "" && sn.Params.Num[es.Param] > 0 {
+				return true
+			}
 		}
 	}
 	return false

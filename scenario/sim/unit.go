@@ -75,7 +75,7 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*ge
 	n := arr.Len()
 	for _, s := range arr.Sensors() {
 		g.boresights = append(g.boresights, s.Mount().Boresight())
-		g.cosine = append(g.cosine, s.Kind() == sensor.KindCosine)
+		g.cosine = append(g.cosine, !sensor.IsTwoAxis(s))
 	}
 	if cfg.NewAlbedo != nil {
 		m, err := cfg.NewAlbedo()

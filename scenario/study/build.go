@@ -3,8 +3,8 @@ package study
 import (
 	"codeberg.org/sunsight/sunsight/scenario"
 	"fmt"
-	"math"
 	"os"
+	"strings"
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
@@ -193,37 +193,23 @@ func BuildSensors(s *scenario.Scenario, list []scenario.Sensor, path string) (*s
 		}
 		errs := sensor.Errors{MisalignSigma: sc.Errors.MisalignmentRad1Sigma, DarkSigma: sc.Errors.DarkOffset1Sigma,
 			GainSigma: sc.Errors.Gain1Sigma, NoiseSigma: sc.Errors.Noise1Sigma, ADCBits: sc.ADCBits, FullScale: sc.FullScale}
-		var sn sensor.Sensor
-		r := albedo.Response{}
-		switch sc.Kind {
-		case scenario.KindCosine:
-			spec := sensor.CosineSpec{Name: sc.Name, Mount: m, HalfAngle: sc.HalfAngleRad, Threshold: sc.Threshold, Errors: errs}
-			for _, rp := range sc.RollOff {
-				spec.RollOffAngle = append(spec.RollOffAngle, rp[0])
-				spec.RollOffRel = append(spec.RollOffRel, rp[1])
-			}
-			if len(sc.RollOff) > 0 {
-				// The albedo integral uses the same response: cos θ times
-				// the roll-off.
-				inc := make([]float64, len(sc.RollOff))
-				rel := make([]float64, len(sc.RollOff))
-				for k, rp := range sc.RollOff {
-					inc[k], rel[k] = rp[0], rp[1]*math.Cos(rp[0])
-				}
-				if r, err = albedo.NewTableResponse(inc, rel); err != nil {
-					return nil, nil, nil, fmt.Errorf("%s.roll_off: %w", p, err)
-				}
-			}
-			sn, err = sensor.NewCosine(spec)
-		case scenario.KindQuadrant:
-			sn, err = sensor.NewQuadrant(quadrantSpec(sc, m, errs))
-		case scenario.KindDigital:
-			sn, err = sensor.NewDigital(digitalSpec(sc, m, errs))
-		default:
-			err = fmt.Errorf("kind %q is not one of cosine, quadrant, digital", sc.Kind)
+		info, ok := sensor.LookupKind(sc.Kind)
+		if !ok {
+			return nil, nil, nil, fmt.Errorf("%s: kind %q is not one of %s", p, sc.Kind, strings.Join(sensor.KindNames(), ", "))
 		}
+		sn, err := info.Build(sensor.Common{Name: sc.Name, Mount: m, HalfAngle: sc.HalfAngleRad, Threshold: sc.Threshold,
+			Errors: errs, OffsetSigma: sc.Errors.ApertureOffsetMM1Sigma}, sc.Params)
 		if err != nil {
 			return nil, nil, nil, fmt.Errorf("%s: %w", p, err)
+		}
+		r := albedo.Response{}
+		if t, ok := sn.(sensor.ResponseTabler); ok {
+			// The albedo integral uses the sensor's own measured response.
+			if inc, rel := t.ResponseTable(); len(inc) > 0 {
+				if r, err = albedo.NewTableResponse(inc, rel); err != nil {
+					return nil, nil, nil, fmt.Errorf("%s: albedo response: %w", p, err)
+				}
+			}
 		}
 		ss = append(ss, sn)
 		resp = append(resp, r)
@@ -279,35 +265,6 @@ func boxFaces(c, h r3.Vec) []sky.Obstacle {
 	add(ey, ex, ez)
 	add(ez, ex, ey)
 	return out
-}
-
-func quadrantSpec(sc scenario.Sensor, m sensor.Mount, errs sensor.Errors) sensor.QuadrantSpec {
-	// The aperture is one cell wide, so the spot just fills a cell at
-	// normal incidence (the usual proportion; common practice, no source).
-	return sensor.QuadrantSpec{Name: sc.Name, Mount: m, ApertureSide: sc.CellSizeMM, Height: sc.ShadeHeightMM,
-		CellSide: sc.CellSizeMM, Gap: sc.GapMM, Threshold: sc.Threshold, Sigma: quadrantSigma(sc),
-		OffsetSigma: sc.Errors.ApertureOffsetMM1Sigma, Errors: errs}
-}
-
-// quadrantSigma is the stated 1σ accuracy used to weight a quadrant sensor's
-// direction: the file's accuracy_deg_1sigma, else 1° (a typical figure for a
-// home-built shaded quad cell; common practice, no source).
-func quadrantSigma(sc scenario.Sensor) float64 {
-	if sc.AccuracyRad1Sigma > 0 {
-		return sc.AccuracyRad1Sigma
-	}
-	return math.Pi / 180
-}
-
-// digitalAlbedoRejection is the diffuse irradiance, as a fraction of the solar
-// constant, below which a digital sensor ignores albedo (an assumed
-// detector property; common practice, no source).
-const digitalAlbedoRejection = 0.3
-
-func digitalSpec(sc scenario.Sensor, m sensor.Mount, _ sensor.Errors) sensor.DigitalSpec {
-	return sensor.DigitalSpec{Name: sc.Name, Mount: m, HalfAngle: sc.HalfAngleRad, Square: sc.SquareFOV,
-		Sigma: sc.AccuracyRad1Sigma, MinIrradiance: sc.Threshold * sensor.SolarConstant,
-		AlbedoThreshold: digitalAlbedoRejection * sensor.SolarConstant, MisalignSigma: sc.Errors.MisalignmentRad1Sigma}
 }
 
 // AlbedoFactory returns the albedo model factory, nil for model "none".

@@ -1,0 +1,375 @@
+package properties
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/num/quat"
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/internal/randscenario"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
+)
+
+// turned is a law followed by a fixed small rotation of the body.
+type turned struct {
+	law attitude.Law
+	d   quat.Number
+}
+
+func (l turned) Attitude(t float64, s orbit.State, sun r3.Vec) r3.Rotation {
+	return r3.Rotation(quat.Mul(l.d, quat.Number(l.law.Attitude(t, s, sun))))
+}
+
+// turnedAware keeps the eclipse flag of an eclipse-aware law.
+type turnedAware struct{ turned }
+
+func (l turnedAware) AttitudeInEclipse(t float64, s orbit.State, sun r3.Vec, in bool) r3.Rotation {
+	return r3.Rotation(quat.Mul(l.d, quat.Number(l.law.(attitude.EclipseAware).AttitudeInEclipse(t, s, sun, in))))
+}
+
+func turn(l attitude.Law, d quat.Number) attitude.Law {
+	if _, ok := l.(attitude.EclipseAware); ok {
+		return turnedAware{turned{l, d}}
+	}
+	return turned{l, d}
+}
+
+// smallRotation is the quaternion of a rotation by angle about axis.
+func smallRotation(axis r3.Vec, angle float64) quat.Number {
+	a := r3.Unit(axis)
+	s := math.Sin(angle / 2)
+	return quat.Number{Real: math.Cos(angle / 2), Imag: s * a.X, Jmag: s * a.Y, Kmag: s * a.Z}
+}
+
+// shareDiffs reports the shares of two runs that differ by more than tol:
+// sunlit fraction, ≥k shares, per-sensor in-view shares and every
+// estimator's valid fractions, for the nominal unit.
+func shareDiffs(f *failures, label string, a, b *sim.UnitResult, tol float64) {
+	cmp := func(what string, x, y float64) {
+		if math.Abs(x-y) > tol+eps {
+			f.addf("%s: %s %.6f vs %.6f (tolerance %.6f)", label, what, x, y, tol)
+		}
+	}
+	cmp("sunlit fraction", a.SunlitFraction, b.SunlitFraction)
+	for k := 1; k <= 3; k++ {
+		cmp("seen by ≥"+string(rune('0'+k)), a.SeenAtLeast[k], b.SeenAtLeast[k])
+	}
+	for i := range a.Sensors {
+		cmp("sensor "+a.Sensors[i].Name+" in view", a.Sensors[i].InViewFraction, b.Sensors[i].InViewFraction)
+	}
+	for i := range a.Estimators {
+		cmp(a.Estimators[i].Name+" valid", a.Estimators[i].ValidFraction, b.Estimators[i].ValidFraction)
+		cmp(a.Estimators[i].Name+" valid without albedo", a.Estimators[i].ValidFractionNoAlbedo, b.Estimators[i].ValidFractionNoAlbedo)
+	}
+}
+
+// A perturbation of the attitude by 1e-9 rad changes no share by more than
+// one sample: seeing the sun is decided by the modelled signal, not by
+// floating-point rounding at the edge of a field of view.
+func checkPerturbation(c *runCase) (f failures) {
+	axis := r3.Vec{X: 0.48, Y: -0.6, Z: 0.64}
+	d := smallRotation(axis, 1e-9)
+	_, res := c.rerun(func(b *built) bool {
+		cfg := b.cfg
+		cfg.Units = 1
+		cfg.Law = turn(cfg.Law, d)
+		if lfu := cfg.LawForUnit; lfu != nil {
+			cfg.LawForUnit = func(u int) attitude.Law { return turn(lfu(u), d) }
+		}
+		b.cfg = cfg
+		return true
+	})
+	n := float64(sunlitSamples(c.res.Nominal))
+	if n == 0 {
+		return nil
+	}
+	shareDiffs(&f, "attitude turned by 1e-9 rad", c.res.Nominal, res.Nominal, 1/n)
+	return f
+}
+
+// Halving the step leaves the fractions unchanged within sampling error:
+// one fine-grid sample per change of state seen on the fine grid for a
+// smooth attitude, 4σ of a binomial share for an isotropic one.
+func checkHalfStep(c *runCase) (f failures) {
+	var fine *sim.Result
+	_, fine = c.rerun(func(b *built) bool {
+		cfg := b.cfg
+		cfg.Units = 1
+		cfg.Step /= 2
+		cfg.SeriesStride = 1
+		b.cfg = cfg
+		return true
+	})
+	a, b := c.res.Nominal, fine.Nominal
+	s := fine.Nominal.Series
+	changes := 0
+	for k := 1; k < len(s.T); k++ {
+		if s.Region[k] != s.Region[k-1] || s.Seen[k] != s.Seen[k-1] || s.Valid[k] != s.Valid[k-1] {
+			changes++
+		}
+	}
+	n := float64(sunlitSamples(a))
+	if n == 0 {
+		return nil
+	}
+	iso := c.b.s.Attitude.Name == scenario.LawIsotropic ||
+		(c.b.s.Attitude.Name == scenario.LawSchedule && (c.b.s.Attitude.InSunlight.Name == scenario.LawIsotropic))
+	tol := 2 * float64(changes+2) / n
+	if iso {
+		// Worst case p = 1/2; the coarse samples are also fine samples.
+		tol = 4*math.Sqrt(0.25/n) + 2/n
+	}
+	if tol >= 1 {
+		return nil // too many changes for the step to resolve: nothing to assert
+	}
+	shareDiffs(&f, "step halved", a, b, tol)
+	return f
+}
+
+// Errors removed from every sensor (or only misalignment, or replaced).
+func setErrors(file *randscenario.File, e *randscenario.Errors, kinds ...string) {
+	for i := range file.Body.Sensors {
+		s := &file.Body.Sensors[i]
+		s.Errors = nil
+		for _, k := range kinds {
+			if s.Kind == k && e != nil {
+				v := *e
+				s.Errors = &v
+			}
+		}
+	}
+}
+
+// rebuild parses a transformed file into b.
+func (c *runCase) rebuild(b *built, f *randscenario.File) {
+	c.t.Helper()
+	nb, err := build(f)
+	if err != nil {
+		c.t.Fatalf("transformed scenario: %v\n%s", err, replay(f.YAML()))
+	}
+	*b = *nb
+}
+
+// Small realistic errors (a dark offset or a noise of 0.0005 of full sun
+// on every cosine and quadrant sensor) change the primary estimator's p95
+// by < 1° and its validity by < 3 points against the ideal sensors.
+func checkSmallErrors(c *runCase) (f failures) {
+	runWith := func(e *randscenario.Errors) *sim.UnitResult {
+		_, res := c.rerun(func(b *built) bool {
+			g := c.b.file.Clone()
+			setErrors(g, e, "cosine", "quadrant")
+			g.MonteCarlo = nil
+			c.rebuild(b, g)
+			return true
+		})
+		return res.Nominal
+	}
+	ideal := runWith(nil)
+	pick := func(e *sim.EstimatorStats) sim.ErrorStats {
+		if c.b.s.Albedo.Model == scenario.AlbedoNone {
+			return e.ErrNoAlbedo
+		}
+		return e.ErrAlbedo
+	}
+	for _, v := range []struct {
+		label string
+		e     randscenario.Errors
+	}{{"dark offset 0.0005", randscenario.Errors{DarkOffset1Sigma: 0.0005}}, {"noise 0.0005", randscenario.Errors{Noise1Sigma: 0.0005}}} {
+		u := runWith(&v.e)
+		e0, e1 := &ideal.Estimators[0], &u.Estimators[0]
+		if d := math.Abs(e1.ValidFraction - e0.ValidFraction); d > 0.03 {
+			f.addf("%s: %s valid %.4f, ideal %.4f", v.label, e0.Name, e1.ValidFraction, e0.ValidFraction)
+		}
+		s0, s1 := pick(e0), pick(e1)
+		if s0.N >= 20 && s1.N >= 20 && math.Abs(s1.P95Deg-s0.P95Deg) >= 1 {
+			f.addf("%s: %s p95 %.3f°, ideal %.3f° (%d and %d samples)", v.label, e0.Name, s1.P95Deg, s0.P95Deg, s1.N, s0.N)
+		}
+	}
+	return f
+}
+
+// idealCosine makes every cosine sensor ideal (no errors, no ADC, no
+// saturation), drops the other kinds and obstructions, turns albedo off and
+// asks for one estimator.
+func idealCosine(g *randscenario.File, estimator string) {
+	var keep []randscenario.Sensor
+	for _, s := range g.Body.Sensors {
+		if s.Kind != "cosine" {
+			continue
+		}
+		s.Errors = nil
+		zero := 0
+		s.ADCBits = &zero
+		fs := 1000.0
+		s.FullScale = &fs
+		keep = append(keep, s)
+	}
+	g.Body.Sensors, g.Body.Obstructions = keep, nil
+	g.Albedo = randscenario.Albedo{Model: "none"}
+	g.Estimators = []string{estimator}
+	g.MonteCarlo = nil
+}
+
+// No errors, no albedo, ≥ 3 non-coplanar cosine sensors seeing the sun ⇒
+// the least-squares error is below 1e-6° whenever it is valid.
+func checkIdealLeastSquares(c *runCase) (f failures) {
+	g := c.b.file.Clone()
+	idealCosine(g, "least-squares")
+	if len(g.Body.Sensors) < 3 {
+		return nil
+	}
+	_, res := c.rerun(func(b *built) bool { c.rebuild(b, g); return true })
+	e := res.Nominal.Estimators[0]
+	if e.ErrNoAlbedo.N > 0 && e.ErrNoAlbedo.MaxDeg >= 1e-6 {
+		f.addf("ideal least squares: max error %.3g° over %d valid samples", e.ErrNoAlbedo.MaxDeg, e.ErrNoAlbedo.N)
+	}
+	return f
+}
+
+// Six ideal 90° faces, no albedo ⇒ the opposite-pairs estimate is exact and
+// valid in all sunlit time.
+func checkIdealOppositePairs(c *runCase) (f failures) {
+	g := c.b.file.Clone()
+	idealCosine(g, "opposite-pairs")
+	var six []randscenario.Sensor
+	for i, face := range randscenario.Faces {
+		s := randscenario.Sensor{Name: "f" + string(rune('0'+i)), Kind: "cosine", Face: face}
+		zero, fs, half, th := 0, 1000.0, 90.0, 0.05
+		s.ADCBits, s.FullScale, s.HalfAngleDeg, s.Threshold = &zero, &fs, &half, &th
+		six = append(six, s)
+	}
+	g.Body.Sensors = six
+	_, res := c.rerun(func(b *built) bool { c.rebuild(b, g); return true })
+	e := res.Nominal.Estimators[0]
+	if e.ErrNoAlbedo.N > 0 && e.ErrNoAlbedo.MaxDeg >= 1e-6 {
+		f.addf("ideal opposite pairs: max error %.3g° over %d valid samples", e.ErrNoAlbedo.MaxDeg, e.ErrNoAlbedo.N)
+	}
+	if res.Nominal.SunlitFraction > 0 && e.ValidFraction != 1 {
+		f.addf("ideal opposite pairs: valid %.6f of sunlit time, want 1", e.ValidFraction)
+	}
+	return f
+}
+
+// directions returns n quasi-uniform directions (Fibonacci lattice, a
+// different construction from the sky package's) plus, for each sensor
+// boresight, directions just inside and outside half-angles of interest.
+func directions(n int) []r3.Vec {
+	out := make([]r3.Vec, 0, n)
+	golden := math.Pi * (3 - math.Sqrt(5))
+	for i := range n {
+		z := 1 - (2*float64(i)+1)/float64(n)
+		r := math.Sqrt(1 - z*z)
+		out = append(out, r3.Vec{X: r * math.Cos(golden*float64(i)), Y: r * math.Sin(golden*float64(i)), Z: z})
+	}
+	return out
+}
+
+// edgeDirections are directions around a boresight at angles from it.
+func edgeDirections(b r3.Vec, angles []float64) []r3.Vec {
+	x := r3.Unit(r3.Cross(b, r3.Vec{X: 0.3, Y: 0.5, Z: 0.81}))
+	y := r3.Cross(b, x)
+	var out []r3.Vec
+	for _, a := range angles {
+		for k := range 12 {
+			phi := float64(k) * math.Pi / 6
+			d := r3.Add(r3.Scale(math.Cos(a), b), r3.Scale(math.Sin(a), r3.Add(r3.Scale(math.Cos(phi), x), r3.Scale(math.Sin(phi), y))))
+			out = append(out, d)
+		}
+	}
+	return out
+}
+
+// A sensor sees the sun exactly where its modelled reading from direct sun
+// alone (no errors, no albedo) reports a sun: the viewer the coverage
+// counts with and the reading agree, field-of-view edges included.
+func checkSeeingIsSignal(c *runCase) (f failures) {
+	cfg := c.b.cfg
+	dirs := directions(4000)
+	full := ephem.SolarIrradiance1AU
+	for i, sn := range cfg.Array.Sensors() {
+		b := sn.Mount().Boresight()
+		half := sn.HalfAngle()
+		ds := append(append([]r3.Vec(nil), dirs...), edgeDirections(b, []float64{half - 1e-6, half + 1e-6, math.Pi/2 - 1e-6, math.Pi/2 + 1e-6})...)
+		bad := 0
+		var first string
+		for _, d := range ds {
+			direct := full
+			if cfg.Blocked != nil && cfg.Blocked[i] != nil && cfg.Blocked[i](d) {
+				direct = 0
+			}
+			r := sn.Read(d, direct, sensor.Albedo{}, nil)
+			sees := sn.InFOV(d)
+			if cfg.Viewers != nil {
+				sees = cfg.Viewers[i].Sees(d)
+			}
+			if sees != r.Valid {
+				bad++
+				if first == "" {
+					ang := math.Acos(math.Max(-1, math.Min(1, r3.Dot(d, b)))) * 180 / math.Pi
+					first = fmt.Sprintf("at %.4f° from the boresight: seen %v, reading %.4g valid %v", ang, sees, r.Signal, r.Valid)
+				}
+			}
+		}
+		if bad > 0 {
+			f.addf("sensor %s (%s, half-angle %.2f°): %d of %d directions disagree, first %s", sn.Name(), sn.Kind(), half*180/math.Pi, bad, len(ds), first)
+		}
+	}
+	return f
+}
+
+// A face-mounted sensor never sees a direction behind its own mounting
+// face, whatever its tilt and field of view.
+func checkBehindFace(c *runCase) (f failures) {
+	cfg := c.b.cfg
+	dirs := directions(4000)
+	for i, sc := range c.b.s.Body.Sensors {
+		if sc.Face == "" {
+			continue
+		}
+		n, _ := faceNormal(sc.Face)
+		bad := 0
+		worst := 0.0
+		for _, d := range dirs {
+			if r3.Dot(d, n) >= -1e-9 {
+				continue
+			}
+			sees := cfg.Array.Sensors()[i].InFOV(d)
+			if cfg.Viewers != nil {
+				sees = cfg.Viewers[i].Sees(d)
+			}
+			if sees {
+				bad++
+				worst = math.Max(worst, -r3.Dot(d, n))
+			}
+		}
+		if bad > 0 {
+			f.addf("sensor %s on face %s tilted %.1f°, half-angle %.1f°: sees %d of %d lattice directions behind its face (up to %.1f° behind)",
+				sc.Name, sc.Face, sc.TiltRad*180/math.Pi, sc.HalfAngleRad*180/math.Pi, bad, len(dirs), math.Asin(worst)*180/math.Pi)
+		}
+	}
+	return f
+}
+
+// faceNormal reads "+X" … as a unit vector.
+func faceNormal(face string) (r3.Vec, bool) {
+	sign := 1.0
+	if face[0] == '-' {
+		sign = -1
+	}
+	switch face[1] {
+	case 'X':
+		return r3.Vec{X: sign}, true
+	case 'Y':
+		return r3.Vec{Y: sign}, true
+	case 'Z':
+		return r3.Vec{Z: sign}, true
+	}
+	return r3.Vec{}, false
+}
+

@@ -3,6 +3,7 @@ package attitude
 import (
 	"math"
 
+	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
 
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
@@ -239,6 +240,21 @@ type Spin struct {
 	BodyAxis r3.Vec  // body spin axis; default +Z
 	Rate     float64 // rad/s
 	Phase    float64 // rad
+}
+
+// SpinFrom returns the spin about the body axis bodyAxis at rate (rad/s)
+// whose attitude at t = 0 is q0 (body ← ECI): the inertial axis is where q0
+// puts the body axis, and the phase is the turn about it that brings the
+// zero-phase attitude onto q0, so the whole starting attitude is kept.
+func SpinFrom(q0 r3.Rotation, bodyAxis r3.Vec, rate float64) Spin {
+	b := vecmath.Unit(orDefault(bodyAxis, unitZ))
+	l := Spin{Axis: Inverse(q0).Rotate(b), BodyAxis: b, Rate: rate}
+	z := l.Attitude(0, orbit.State{}, r3.Vec{})
+	// q0 = then(z, frameTurn(φ, b)), so frameTurn(φ, b) = q0 ⊗ z̄, whose
+	// vector part is sin(−φ/2)·b.
+	r := quat.Mul(quat.Number(q0), quat.Conj(quat.Number(z)))
+	l.Phase = -2 * math.Atan2(r.Imag*b.X+r.Jmag*b.Y+r.Kmag*b.Z, r.Real)
+	return l
 }
 
 // Attitude implements Law.

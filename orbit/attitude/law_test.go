@@ -241,3 +241,26 @@ func TestSchedule(t *testing.T) {
 		t.Error("At changed a law that ignores eclipses")
 	}
 }
+
+// A spin built from a starting attitude starts there, keeps the body axis on
+// one inertial direction, and has turned by |rate|·t about it (definition of
+// a spin about a body axis): A(t) = R_b(rate·t) ∘ q0 as a frame rotation.
+func TestSpinFromKeepsStartingAttitude(t *testing.T) {
+	r := rand.New(rand.NewPCG(11, 12))
+	for range 200 {
+		q0 := randomRotation(r)
+		b := r3.Unit(r3.Vec{X: r.NormFloat64(), Y: r.NormFloat64(), Z: r.NormFloat64()})
+		rate := 0.2 * r.NormFloat64()
+		l := SpinFrom(q0, b, rate)
+		if d := sameRotation(l.Attitude(0, orbit.State{}, r3.Vec{}), q0); d > 1e-12 {
+			t.Fatalf("start attitude off by %g rad", d)
+		}
+		for _, tt := range []float64{1, 10, 77} {
+			a := l.Attitude(tt, orbit.State{}, r3.Vec{})
+			want := then(q0, frameTurn(rate*tt, b))
+			if d := sameRotation(a, want); d > 1e-9 {
+				t.Fatalf("t = %g: attitude off by %g rad from the turn about the body axis", tt, d)
+			}
+		}
+	}
+}

@@ -2,7 +2,9 @@ package attitude
 
 import (
 	"errors"
+	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
@@ -110,7 +112,9 @@ func FromDCM(m *r3.Mat) r3.Rotation {
 	return dcmToQuat(c)
 }
 
-// EulerSequence names the axes of a three-angle frame-rotation sequence.
+// EulerSequence names the axes of a three-angle frame-rotation sequence:
+// any of the twelve sequences whose successive axes differ (six symmetric
+// ones such as 3-1-3, six asymmetric ones such as 3-2-1).
 type EulerSequence int
 
 const (
@@ -120,40 +124,54 @@ const (
 	// Seq313 is the classical orbit-element sequence (Ω, i, ω):
 	// C = R₃(φ₃)·R₁(φ₂)·R₃(φ₁). Angles: φ₂ ∈ [0, π].
 	Seq313
+	// The other ten sequences, named by their axes.
+	Seq121
+	Seq123
+	Seq131
+	Seq132
+	Seq212
+	Seq213
+	Seq231
+	Seq232
+	Seq312
+	Seq323
 )
 
-// String returns the sequence name ("3-2-1" or "3-1-3").
-func (s EulerSequence) String() string {
-	switch s {
-	case Seq321:
-		return "3-2-1"
-	case Seq313:
-		return "3-1-3"
-	}
-	return "unknown"
+// eulerAxes holds each sequence's axis numbers (1 = x, 2 = y, 3 = z).
+var eulerAxes = map[EulerSequence][3]int{
+	Seq321: {3, 2, 1}, Seq313: {3, 1, 3}, Seq121: {1, 2, 1}, Seq123: {1, 2, 3}, Seq131: {1, 3, 1}, Seq132: {1, 3, 2},
+	Seq212: {2, 1, 2}, Seq213: {2, 1, 3}, Seq231: {2, 3, 1}, Seq232: {2, 3, 2}, Seq312: {3, 1, 2}, Seq323: {3, 2, 3},
 }
 
-// ParseEulerSequence reads "321", "3-2-1", "313" or "3-1-3".
-func ParseEulerSequence(s string) (EulerSequence, error) {
-	switch s {
-	case "321", "3-2-1":
-		return Seq321, nil
-	case "313", "3-1-3":
-		return Seq313, nil
+// String returns the sequence name, such as "3-2-1".
+func (s EulerSequence) String() string {
+	a, ok := eulerAxes[s]
+	if !ok {
+		return "unknown"
 	}
-	return 0, errors.New("attitude: euler sequence " + `"` + s + `"` + " unknown; use \"3-2-1\" or \"3-1-3\"")
+	return fmt.Sprintf("%d-%d-%d", a[0], a[1], a[2])
+}
+
+// ParseEulerSequence reads a sequence as "321" or "3-2-1": three axis
+// numbers 1–3, no two successive ones equal.
+func ParseEulerSequence(s string) (EulerSequence, error) {
+	for seq := range eulerAxes {
+		name := seq.String()
+		if s == name || s == strings.ReplaceAll(name, "-", "") {
+			return seq, nil
+		}
+	}
+	return 0, errors.New("attitude: euler sequence " + `"` + s + `"` + " unknown; use three axis numbers 1–3 with no two successive ones equal, such as \"3-2-1\" or \"3-1-3\"")
 }
 
 var axes = [4]r3.Vec{{}, {X: 1}, {Y: 1}, {Z: 1}}
 
 func (s EulerSequence) axisIndices() (int, int, int) {
-	switch s {
-	case Seq321:
-		return 3, 2, 1
-	case Seq313:
-		return 3, 1, 3
+	a, ok := eulerAxes[s]
+	if !ok {
+		panic("attitude: invalid EulerSequence")
 	}
-	panic("attitude: invalid EulerSequence")
+	return a[0], a[1], a[2]
 }
 
 // FromEuler returns the body ← reference rotation of three successive
@@ -165,7 +183,8 @@ func FromEuler(seq EulerSequence, φ1, φ2, φ3 float64) r3.Rotation {
 	return then(then(frameTurn(φ1, axes[i]), frameTurn(φ2, axes[j])), frameTurn(φ3, axes[k]))
 }
 
-// ToEuler returns the angles of a in the sequence, inverse of FromEuler.
+// ToEuler returns the angles of a in the sequence, inverse of FromEuler,
+// for the 3-2-1 and 3-1-3 sequences (it panics for the others).
 // At the gimbal-lock singularity (φ2 = ±π/2 for 3-2-1, 0 or π for 3-1-3)
 // φ3 is set to 0 and φ1 takes the whole rotation about the first axis.
 func ToEuler(seq EulerSequence, a r3.Rotation) (φ1, φ2, φ3 float64) {
@@ -192,7 +211,7 @@ func ToEuler(seq EulerSequence, a r3.Rotation) (φ1, φ2, φ3 float64) {
 		}
 		return math.Atan2(c[2][0], -c[2][1]), φ2, math.Atan2(c[0][2], c[1][2])
 	}
-	panic("attitude: invalid EulerSequence")
+	panic("attitude: ToEuler supports the 3-2-1 and 3-1-3 sequences only")
 }
 
 // triadBasis returns the orthonormal TRIAD frame of (p, s): t1 = p̂,

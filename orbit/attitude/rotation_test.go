@@ -132,6 +132,50 @@ func TestEulerRoundTrip(t *testing.T) {
 	}
 }
 
+// Every one of the twelve sequences against the product of the elementary
+// frame-rotation matrices R₁, R₂, R₃ (Wertz 1978, App. E, from memory):
+// C = R_k(φ₃)·R_j(φ₂)·R_i(φ₁) for the sequence i-j-k.
+func TestEulerAllSequences(t *testing.T) {
+	elem := func(axis int, θ float64) [3][3]float64 {
+		c, s := math.Cos(θ), math.Sin(θ)
+		switch axis {
+		case 1:
+			return [3][3]float64{{1, 0, 0}, {0, c, s}, {0, -s, c}}
+		case 2:
+			return [3][3]float64{{c, 0, -s}, {0, 1, 0}, {s, 0, c}}
+		}
+		return [3][3]float64{{c, s, 0}, {-s, c, 0}, {0, 0, 1}}
+	}
+	mul := func(a, b [3][3]float64) (m [3][3]float64) {
+		for i := range 3 {
+			for j := range 3 {
+				for k := range 3 {
+					m[i][j] += a[i][k] * b[k][j]
+				}
+			}
+		}
+		return m
+	}
+	names := []string{"121", "123", "131", "132", "212", "213", "231", "232", "312", "313", "321", "323"}
+	for _, name := range names {
+		seq, err := ParseEulerSequence(name)
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		if dashed, err := ParseEulerSequence(seq.String()); err != nil || dashed != seq {
+			t.Errorf("%s: %q does not parse back (%v)", name, seq.String(), err)
+		}
+		φ1, φ2, φ3 := 0.4, -0.7, 1.3
+		want := mul(elem(int(name[2]-'0'), φ3), mul(elem(int(name[1]-'0'), φ2), elem(int(name[0]-'0'), φ1)))
+		matClose(t, name, ToDCM(FromEuler(seq, φ1, φ2, φ3)), want, tight)
+	}
+	for _, bad := range []string{"112", "3-3-1", "124", "32", ""} {
+		if _, err := ParseEulerSequence(bad); err == nil {
+			t.Errorf("%q parsed as a sequence", bad)
+		}
+	}
+}
+
 func TestParseEulerSequence(t *testing.T) {
 	for _, s := range []string{"321", "3-2-1", "313", "3-1-3"} {
 		if _, err := ParseEulerSequence(s); err != nil {

@@ -148,10 +148,9 @@ func buildLaw(s *scenario.Scenario, l scenario.Law, path string) (attitude.Law, 
 		if body == (r3.Vec{}) {
 			body = r3.Vec{Z: 1}
 		}
-		// The inertial spin axis is where the starting attitude puts the
-		// body spin axis.
-		axis := r3.Rotation(quat.Conj(quat.Number(q))).Rotate(body)
-		return attitude.Spin{Axis: axis, BodyAxis: body, Rate: l.RateRadS}, nil
+		// The starting attitude is kept whole: the inertial spin axis is
+		// where it puts the body spin axis, the phase its turn about it.
+		return attitude.SpinFrom(q, body, l.RateRadS), nil
 	case scenario.LawTumble:
 		return attitude.NewTumble(uint64(s.Seed), l.MaxRateRadS), nil
 	case scenario.LawIsotropic:

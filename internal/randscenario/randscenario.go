@@ -106,6 +106,8 @@ type Obstruction struct {
 
 // Body holds the sensors and obstructions.
 type Body struct {
+	FormFactor   string        `yaml:"form_factor,omitempty"`
+	SizeM        []float64     `yaml:"size_m,omitempty,flow"`
 	Sensors      []Sensor      `yaml:"sensors"`
 	Obstructions []Obstruction `yaml:"obstructions,omitempty"`
 }
@@ -374,7 +376,7 @@ func (d drawer) law(top bool) Law {
 func (d drawer) orientation(l *Law) {
 	if d.p(0.3) {
 		l.EulerDeg = []float64{d.round(d.u(-180, 180), 3), d.round(d.u(-90, 90), 3), d.round(d.u(-180, 180), 3)}
-		l.EulerSequence = d.pick("321", "313", "123", "231")
+		l.EulerSequence = d.pick("321", "313", "123", "231", "121", "323")
 		return
 	}
 	l.Quaternion = d.quaternion()
@@ -404,15 +406,35 @@ func (d drawer) body(f *File) {
 			b.Sensors = append(b.Sensors, d.sensor(fmt.Sprintf("s%d", i), kind, d.p(0.5)))
 		}
 	}
+	outline := d.p(0.5)
+	if outline {
+		// Sensors are placed on the outline's faces: no position of their own.
+		if d.p(0.5) {
+			b.FormFactor = d.pick("1U", "3U", "6U", "12U")
+		} else {
+			b.SizeM = []float64{d.round(d.u(0.05, 0.5), 3), d.round(d.u(0.05, 0.5), 3), d.round(d.u(0.05, 0.5), 3)}
+		}
+		for i := range b.Sensors {
+			b.Sensors[i].PositionM = nil
+		}
+	}
 	if d.p(0.2) {
+		if !outline {
+			// Obstructions are traced from each sensor's position.
+			for i := range b.Sensors {
+				if b.Sensors[i].PositionM == nil {
+					b.Sensors[i].PositionM = []float64{d.round(d.u(-0.1, 0.1), 3), d.round(d.u(-0.1, 0.1), 3), d.round(d.u(-0.1, 0.1), 3)}
+				}
+			}
+		}
 		// A deployed panel beside the bus, or a boom.
 		if d.p(0.6) {
-			c := []float64{d.round(d.u(-0.3, 0.3), 3), d.round(d.u(-0.3, 0.3), 3), d.round(d.u(0.1, 0.3), 3)}
+			c := []float64{d.round(d.u(-0.3, 0.3), 3), d.round(d.u(-0.3, 0.3), 3), d.round(d.u(0.3, 0.5), 3)}
 			h := []float64{d.round(d.u(0.05, 0.2), 3), d.round(d.u(0.05, 0.2), 3), 0}
 			b.Obstructions = append(b.Obstructions, Obstruction{Name: "panel", Shape: "rectangle", CentreM: c, HalfExtentsM: h})
 		} else {
 			b.Obstructions = append(b.Obstructions, Obstruction{Name: "boom", Shape: "cylinder",
-				FromM: []float64{0, 0, 0.1}, ToM: []float64{d.round(d.u(-0.5, 0.5), 3), d.round(d.u(-0.5, 0.5), 3), 0.5}, RadiusM: val(0.01)})
+				FromM: []float64{0, 0, 0.3}, ToM: []float64{d.round(d.u(-0.5, 0.5), 3), d.round(d.u(-0.5, 0.5), 3), 0.5}, RadiusM: val(0.01)})
 		}
 	}
 }

@@ -95,8 +95,11 @@ func (b bodyTurn) law(l *randscenario.Law) bool {
 // file turns the whole body of a scenario file: sensors, obstructions and
 // the attitude. ok is false when the file cannot be turned exactly.
 func (b bodyTurn) file(f *randscenario.File) bool {
-	if !b.law(&f.Attitude) {
-		return false
+	if !b.law(&f.Attitude) || f.Body.FormFactor != "" {
+		return false // a named form factor has fixed axes
+	}
+	if h := b.slice(f.Body.SizeM); h != nil {
+		f.Body.SizeM = []float64{math.Abs(h[0]), math.Abs(h[1]), math.Abs(h[2])}
 	}
 	for i := range f.Body.Sensors {
 		s := &f.Body.Sensors[i]
@@ -191,4 +194,22 @@ func abs(n int) int {
 		return -n
 	}
 	return n
+}
+
+// A spin at zero rate is the inertial law at the spin's starting attitude
+// (definition: the starting attitude is the whole attitude at t = 0).
+func checkSpinAtRest(c *runCase) (f failures) {
+	l := c.b.file.Attitude
+	if l.Law != "spin" {
+		return nil
+	}
+	spin := c.b.file.Clone()
+	zero := 0.0
+	spin.Attitude.RateDegS = &zero
+	inertial := c.b.file.Clone()
+	inertial.Attitude = randscenario.Law{Law: "inertial", Quaternion: l.Quaternion, EulerDeg: l.EulerDeg, EulerSequence: l.EulerSequence}
+	_, a := c.rerun(func(b *built) bool { c.rebuild(b, spin); return true })
+	_, r := c.rerun(func(b *built) bool { c.rebuild(b, inertial); return true })
+	shareDiffs(&f, "spin at rate 0 vs inertial", a.Nominal, r.Nominal, 0)
+	return f
 }

@@ -21,7 +21,11 @@ import (
 // issue that fixes it. Where such an invariant fails, the case is skipped
 // with the issue and the drawn numbers; where it holds it passes as usual.
 // Remove an entry as soon as its fix lands.
-var knownFailures = map[string]string{}
+var knownFailures = map[string]string{
+	"seeing-is-signal":                 "issue 12 (a sensor sees the sun where its reading is above threshold; a quadrant sensor only where it reads valid)",
+	"attitude-perturbation-1e-9":       "issue 12 (edge-on sensors are decided by floating-point rounding)",
+	"small-errors-continuous-quadrant": "issue 12 (four-quadrant validity gate under small errors)",
+}
 
 // envInt reads a whole-number environment variable.
 func envInt(t testing.TB, key string, def int) int {

@@ -100,11 +100,17 @@ func TestTLEOrbit(t *testing.T) {
 	}
 }
 
-func TestBadInputs(t *testing.T) {
+// badInput is a scenario text Parse must refuse, with a piece of the
+// message it must give.
+type badInput struct{ name, text, want string }
+
+// badInputs lists the bad inputs; checkrun_test.go also runs each through
+// check and run.
+func badInputs() []badInput {
 	sensor := "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n"
 	orbit := "orbit: {altitude_km: 500, inclination_deg: 45}\n"
 	tle := tleSamples[0]
-	cases := []struct{ name, text, want string }{
+	return []badInput{
 		{"negative altitude", "orbit: {altitude_km: -20, inclination_deg: 45}\n" + sensor, "orbit.altitude_km (line 1, col 22): value -20"},
 		{"sub-surface perigee", "orbit: {semi_major_axis_km: 6000, eccentricity: 0, inclination_deg: 10}\n" + sensor, "orbit.semi_major_axis_km"},
 		{"eccentricity 1", "orbit: {semi_major_axis_km: 8000, eccentricity: 1, inclination_deg: 10}\n" + sensor, "orbit.eccentricity"},
@@ -154,9 +160,16 @@ func TestBadInputs(t *testing.T) {
 		{"nadir axes parallel", orbit + sensor + "attitude: {law: nadir, point_axis: \"+Z\", align_axis: \"+Z\"}\n", "attitude.align_axis (line 4"},
 		{"nadir axes opposite", orbit + sensor + "attitude: {law: nadir, point_axis: \"+Z\", align_axis: \"-Z\"}\n", "parallel to point_axis"},
 		{"sun axes parallel", orbit + sensor + "attitude: {law: sun, point_axis: \"+X\"}\nmodes: [{name: safe, law: sun, point_axis: \"-X\", align_axis: \"+X\"}]\n", "parallel to point_axis"},
+		{"tle far out", "orbit:\n  tle: [\"" + tle.l1 + "\", \"" + withTLEField(tle.l2, 52, "00.01000000") + "\"]\n" + sensor, "orbit.tle (line 2, col 8): value: mean motion 0.01000000 rev/day"},
+		{"tle perigee inside", "orbit:\n  tle: [\"" + tle.l1 + "\", \"" + withTLEField(tle.l2, 26, "5000000") + "\"]\n" + sensor, "perigee altitude"},
+		{"altitude above range", "orbit: {altitude_km: 150000, inclination_deg: 45}\n" + sensor, "allowed [100, 100000]"},
+		{"apogee above range", "orbit: {semi_major_axis_km: 80000, eccentricity: 0.5, inclination_deg: 10}\n" + sensor, "apogee altitude"},
 		{"second document", orbit + sensor + "---\nname: other\n", "(file) (line 5, col 1): value holds more than one YAML document"},
 	}
-	for _, c := range cases {
+}
+
+func TestBadInputs(t *testing.T) {
+	for _, c := range badInputs() {
 		_, err := Parse([]byte(c.text), "")
 		if err == nil {
 			t.Errorf("%s: accepted", c.name)
@@ -233,4 +246,11 @@ func TestSensorPlacementOnTheOutline(t *testing.T) {
 			t.Errorf("sensor %d placed differently from the record", i)
 		}
 	}
+}
+
+// withTLEField returns a TLE line with the field at 0-based column col
+// replaced by v and the checksum (column 69) recomputed.
+func withTLEField(line string, col int, v string) string {
+	l := line[:col] + v + line[col+len(v):]
+	return l[:68] + string(rune('0'+tleChecksum(l[:68]+"0")))
 }

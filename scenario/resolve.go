@@ -15,10 +15,6 @@ import (
 // 2000), repeated here for the altitude checks only.
 const earthRadiusKm = 6378.137
 
-// minAltitudeKm is the lowest perigee altitude accepted: 100 km, the
-// conventional edge of space (common practice, no source); below ~150 km an
-// orbit decays within days, so results there are not meaningful anyway.
-const minAltitudeKm = 100
 
 // Defaults, all in one place (each is common practice, no source, unless noted).
 const (
@@ -218,6 +214,10 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 			r.fail("orbit.tle", "value is not a valid element set: %s", err)
 			return out
 		}
+		if msg := OrbitSizeError(t.SemiMajorAxisKm, t.Eccentricity); msg != "" {
+			r.fail("orbit.tle", "value: mean motion %.8f rev/day and eccentricity %.7f give a %s", t.MeanMotionRevDay, t.Eccentricity, msg)
+			return out
+		}
 		out.Kind, out.TLE = OrbitTLE, &t
 		out.SemiMajorAxisKm, out.Eccentricity = t.SemiMajorAxisKm, t.Eccentricity
 		out.InclinationRad, out.RAANRad, out.ArgPerigeeRad, out.MeanAnomalyRad = t.InclinationRad, t.RAANRad, t.ArgPerigeeRad, t.MeanAnomalyRad
@@ -230,8 +230,8 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 		return out
 	case has(o.AltitudeKm):
 		h := *o.AltitudeKm
-		if h < minAltitudeKm || h > 100000 {
-			r.fail("orbit.altitude_km", "value %g is below %d km or above 100000 km (the surface is at 0); allowed [%d, 100000]", h, minAltitudeKm, minAltitudeKm)
+		if h < MinPerigeeAltitudeKm || h > MaxApogeeAltitudeKm || h != h {
+			r.fail("orbit.altitude_km", "value %g is below %d km or above %d km (the surface is at 0); allowed [%d, %d]", h, MinPerigeeAltitudeKm, MaxApogeeAltitudeKm, MinPerigeeAltitudeKm, MaxApogeeAltitudeKm)
 		}
 		if has(o.Eccentricity) || has(o.ArgPerigeeDeg) {
 			r.fail("orbit.altitude_km", "value is given with eccentricity or arg_perigee_deg; allowed semi_major_axis_km with full elements, or altitude_km for a circular orbit")
@@ -266,8 +266,8 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 			r.fail("orbit.eccentricity", "value %g is not an ellipse; allowed [0, 1)", e)
 			return out
 		}
-		if rp := a * (1 - e); rp < earthRadiusKm+minAltitudeKm {
-			r.fail("orbit.semi_major_axis_km", "value %g gives a perigee altitude of %.1f km; allowed a·(1−e) ≥ %.0f km (%d km above the surface)", a, rp-earthRadiusKm, earthRadiusKm+minAltitudeKm, minAltitudeKm)
+		if msg := OrbitSizeError(a, e); msg != "" {
+			r.fail("orbit.semi_major_axis_km", "value %g gives a %s", a, msg)
 		}
 		if !has(o.InclinationDeg) {
 			r.fail("orbit.inclination_deg", "value is missing; allowed [0, 180]")

@@ -3,6 +3,10 @@ package main
 import (
 	"fmt"
 	"io"
+	"math"
+
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
 func init() {
@@ -28,9 +32,42 @@ func runCheck(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	if !*quiet {
-		fmt.Fprintf(stdout, "# %s: valid; resolved scenario with every default shown\n", describeFile(pos[0]))
-		stdout.Write(s.Record())
+	// Build everything run builds (propagator, albedo model and grid file,
+	// sensors, estimators, every mode), so a file check accepts is one run
+	// accepts.
+	file := describeFile(pos[0])
+	plan, err := study.Prepare(s)
+	if err != nil {
+		return usageError{fmt.Errorf("%s: %w", file, err)}
 	}
+	d, err := study.Derive(s, plan)
+	if err != nil {
+		return usageError{fmt.Errorf("%s: %w", file, err)}
+	}
+	if *quiet {
+		return nil
+	}
+	fmt.Fprintf(stdout, "# %s: valid (every model run uses was built)\n", file)
+	writeDerived(stdout, s, d)
+	fmt.Fprintf(stdout, "# resolved scenario with every default shown:\n")
+	stdout.Write(s.Record())
 	return nil
+}
+
+// writeDerived prints the values a user wants before a long run, as YAML
+// comments so the output stays a loadable scenario.
+func writeDerived(w io.Writer, s *scenario.Scenario, d study.Derived) {
+	fmt.Fprintf(w, "#   orbit period %.2f min (Keplerian, mean a = %.1f km), inclination %.3f°, RAAN %.3f° at the epoch\n",
+		d.PeriodS/60, d.SemiMajorAxisKm, d.InclinationDeg, d.RAANDeg)
+	if d.SunSync {
+		h, m := math.Modf(d.LTANHours)
+		fmt.Fprintf(w, "#   sun-synchronous: inclination from the secular J2 condition; RAAN from LTAN %02.0f:%02.0f in %s solar time\n", h, math.Round(m*60), d.SolarTime)
+	}
+	fmt.Fprintf(w, "#   beta angle over the run %.1f° to %.1f° (sampled every %.0f s)\n", d.BetaMinDeg, d.BetaMaxDeg, d.BetaSampleS)
+	runs := ""
+	if d.Runs > 1 {
+		runs = fmt.Sprintf(", %d attitudes (primary and %d mode(s))", d.Runs, d.Runs-1)
+	}
+	fmt.Fprintf(w, "#   %s at %s: %d steps × %d unit(s)%s = %d unit-steps; memory about %.0f MB without time series\n",
+		s.Duration, s.Step, d.Steps, d.Units, runs, int64(d.Steps)*int64(d.Units)*int64(d.Runs), float64(d.MemoryBytes)/(1<<20))
 }

@@ -10,6 +10,7 @@ import (
 	"time"
 
 	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 func init() {
@@ -49,6 +50,10 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 	}
 	if !(*ecc >= 0 && *ecc < 1) {
 		return usagef("--ecc %g: eccentricity must be in [0, 1)", *ecc)
+	}
+	// The same orbit sizes as scenario files and TLEs.
+	if msg := scenario.OrbitSizeError(orbit.RadiusEarthKm+*alt, *ecc); msg != "" {
+		return usagef("--altitude-km %g --ecc %g: %s", *alt, *ecc, msg)
 	}
 	// The local time of the node (and the epoch it needs) is required for a
 	// sun-synchronous orbit; with --inclination-deg it is optional and only

@@ -34,6 +34,9 @@ type runOutput struct {
 	cov     sky.Result
 	covErr  error
 	targets []study.TargetCheck
+	// modes are the scenario's named modes, run beside the primary
+	// attitude (modes.go).
+	modes []modeOutput
 }
 
 func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
@@ -216,10 +219,13 @@ func (o *runOutput) record() map[string]any {
 		tj = append(tj, map[string]any{"key": t.Key, "target": t.Label, "required": t.Required, "value": t.Value, "pass": t.Pass})
 	}
 	out["targets"] = tj
-	v := study.Judge(o.targets)
+	v := study.Judge(o.allTargets())
 	failed := append([]string{}, v.FailedKeys...)
 	out["verdict"] = map[string]any{"status": v.Status(), "targets": v.Total, "failed": v.Failed,
 		"failed_targets": failed, "text": v.Text()}
+	if len(o.modes) > 0 {
+		out["modes"] = o.modesJSON()
+	}
 	return out
 }
 
@@ -258,7 +264,7 @@ func deg(f float64) string {
 func (o *runOutput) writeSummary(w io.Writer) {
 	s, r, u := o.s, o.res, o.res.Nominal
 	fmt.Fprintf(w, "sunsight run: %s\n", s.Name)
-	fmt.Fprintf(w, "  verdict: %s\n", study.Judge(o.targets).Text())
+	fmt.Fprintf(w, "  verdict: %s\n", study.Judge(o.allTargets()).Text())
 	fmt.Fprintf(w, "  %s for %s at %s steps (%d samples), seed %d, %d unit(s)\n", s.Epoch.Format(time.RFC3339), s.Duration, s.Step, r.Steps, s.Seed, len(r.Units))
 	fmt.Fprintf(w, "  orbit %s, a = %.1f km (mean altitude %.0f km), e = %.4f; propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
 		s.Orbit.Kind, s.Orbit.SemiMajorAxisKm, s.Orbit.SemiMajorAxisKm-orbit.RadiusEarthKm, s.Orbit.Eccentricity,
@@ -307,8 +313,9 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, pct(sn.SaturatedFraction), pct(sn.FalseSunFraction))
 	}
 	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal)\n")
+	o.writeModes(w)
 	if len(o.targets) > 0 {
-		fmt.Fprintf(w, "\nTargets: %s\n", study.Judge(o.targets).Text())
+		fmt.Fprintf(w, "\nTargets: %s\n", study.Judge(o.allTargets()).Text())
 		for _, t := range o.targets {
 			verdict := "FAIL"
 			if t.Pass {
@@ -395,6 +402,9 @@ func (o *runOutput) writeCSV(dir string) error {
 		gaps = append(gaps, []string{ff(g, 1)})
 	}
 	files["gaps_"+u.Estimators[0].Name+".csv"] = gaps
+	if len(o.modes) > 0 {
+		files["modes.csv"] = o.modesCSV()
+	}
 
 	for name, rows := range files {
 		b, err := csvBytes(rows)

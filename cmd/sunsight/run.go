@@ -120,10 +120,11 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 			return err
 		}
 	}
-	cfg, err := study.Config(s)
+	plan, err := study.Prepare(s)
 	if err != nil {
 		return usageError{fmt.Errorf("%s: %w", file, err)}
 	}
+	cfg := plan.Primary
 	if f.units > 0 {
 		cfg.Units = f.units
 	}
@@ -160,6 +161,23 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	out := newRunOutput(s, &cfg, res, toolVersion())
+	// Each mode runs on the same orbit, sensors and estimators, reported
+	// beside the primary attitude.
+	for _, m := range plan.Modes {
+		mc := m.Config
+		mc.Units, mc.Workers = cfg.Units, cfg.Workers
+		prog := newProgress(stderr, f.quiet, mc.Steps(), s.Name+" / "+m.Name)
+		mc.Progress = prog.update
+		mr, err := sim.Run(ctx, mc)
+		prog.done()
+		if err != nil {
+			if errors.Is(err, context.Canceled) {
+				return errors.New("interrupted: no output written")
+			}
+			return fmt.Errorf("mode %s: %w", m.Name, err)
+		}
+		out.addMode(m.Name, &mc, mr)
+	}
 	if f.csvDir != "" {
 		if err := writeOutputDir(f.csvDir, f.force, out.writeCSV); err != nil {
 			return err
@@ -174,7 +192,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 			return err
 		}
 	}
-	verdict := study.Judge(out.targets)
+	verdict := study.Judge(out.allTargets())
 	if f.json {
 		if err := out.writeJSON(stdout); err != nil {
 			return err

@@ -48,7 +48,7 @@ func NewDigital(s DigitalSpec) (*Digital, error) {
 		return nil, err
 	}
 	if !(s.HalfAngle > 0 && s.HalfAngle < math.Pi/2) {
-		return nil, fmt.Errorf("sensor %q: half_angle = %g rad: want (0, 90°)", s.Name, s.HalfAngle)
+		return nil, fmt.Errorf("sensor %q: half-angle %g° is out of range; allowed (0°, 90°) for a digital sensor (its detector sits behind the aperture)", s.Name, s.HalfAngle*180/math.Pi)
 	}
 	for _, f := range []struct {
 		key string

@@ -1,0 +1,140 @@
+package study
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
+)
+
+// Plan is everything `run` builds from a scenario before it simulates: the
+// primary attitude's engine configuration and one per named mode, in file
+// order. `check` builds the same plan, so a file check accepts is a file run
+// accepts.
+type Plan struct {
+	Primary sim.Config
+	Modes   []ModePlan
+}
+
+// ModePlan is the engine configuration of one named mode: the scenario's
+// sensors, estimators, orbit and albedo under the mode's attitude.
+type ModePlan struct {
+	Name   string
+	Config sim.Config
+}
+
+// Prepare builds the plan of a scenario: propagator, sun, attitude laws,
+// sensors, obstructions, albedo model (reading a grid file) and estimators,
+// for the primary attitude and every mode. An error names the field.
+func Prepare(s *scenario.Scenario) (*Plan, error) {
+	cfg, err := Config(s)
+	if err != nil {
+		return nil, err
+	}
+	p := &Plan{Primary: cfg}
+	for i, m := range s.Modes {
+		mc, err := ConfigFor(s, s.Body.Sensors, m.Attitude)
+		if err != nil {
+			return nil, fmt.Errorf("modes[%d] (%s): %w", i, m.Name, err)
+		}
+		p.Modes = append(p.Modes, ModePlan{Name: m.Name, Config: mc})
+	}
+	return p, nil
+}
+
+// Derived is what a user wants to know before a long run, computed from the
+// plan without simulating it.
+type Derived struct {
+	// PeriodS is the Keplerian period of the mean semi-major axis.
+	PeriodS float64
+	// SemiMajorAxisKm, InclinationDeg and RAANDeg are the mean elements at
+	// the epoch; for a sun-synchronous orbit the inclination comes from the
+	// secular J2 condition and the RAAN from the LTAN.
+	SemiMajorAxisKm, InclinationDeg, RAANDeg float64
+	// SunSync is set for an orbit given by altitude and LTAN; SolarTime
+	// then names the solar time the LTAN is read in ("mean": the mean sun's
+	// right ascension, orbit.RAANFromLTAN).
+	SunSync   bool
+	LTANHours float64
+	SolarTime string
+	// BetaMinDeg and BetaMaxDeg bound the beta angle over the run, sampled
+	// on the run's propagator and sun every BetaSampleS seconds.
+	BetaMinDeg, BetaMaxDeg, BetaSampleS float64
+	// Steps is the number of time steps of one unit, Units the number of
+	// Monte Carlo units and Runs the number of simulations run makes (the
+	// primary attitude and each mode).
+	Steps, Units, Runs int
+	// MemoryBytes is a rough estimate of run's peak memory (MemoryEstimate).
+	MemoryBytes int64
+}
+
+// betaSamples bounds the samples of the beta range.
+const betaSamples = 20000
+
+// Derive computes the derived values of a plan.
+func Derive(s *scenario.Scenario, p *Plan) (Derived, error) {
+	el, err := MeanElements(s)
+	if err != nil {
+		return Derived{}, err
+	}
+	cfg := &p.Primary
+	d := Derived{PeriodS: orbit.Period(el.SemiMajorAxisKm), SemiMajorAxisKm: el.SemiMajorAxisKm,
+		InclinationDeg: el.Inclination * 180 / math.Pi, RAANDeg: math.Mod(el.RAAN*180/math.Pi+360, 360),
+		Steps: cfg.Steps(), Units: max(cfg.Units, 1), Runs: 1 + len(p.Modes)}
+	if s.Orbit.Kind == scenario.OrbitSunSync {
+		d.SunSync, d.LTANHours, d.SolarTime = true, s.Orbit.LTANHours, "mean"
+	}
+	// Beta range: at most betaSamples samples, at least every 600 s
+	// (beta moves by ≈ 1°/day, so 600 s resolves it to ≈ 0.01°) and never
+	// coarser than the run's own step when the run is short.
+	n := betaSamples
+	dt := cfg.Duration / float64(n-1)
+	if dt < 600 {
+		dt = math.Max(600, cfg.Step)
+		n = int(cfg.Duration/dt) + 2
+	}
+	d.BetaSampleS = dt
+	prop := cfg.NewPropagator()
+	jd0 := ephem.JulianDateTT(cfg.Epoch)
+	d.BetaMinDeg, d.BetaMaxDeg = math.Inf(1), math.Inf(-1)
+	for k := range n {
+		t := math.Min(float64(k)*dt, cfg.Duration)
+		st := prop.StateAt(t)
+		u, _ := cfg.Sun.Position(jd0 + t/86400)
+		β := math.Asin(math.Max(-1, math.Min(1, r3.Cos(r3.Cross(st.R, st.V), u)))) * 180 / math.Pi
+		d.BetaMinDeg, d.BetaMaxDeg = math.Min(d.BetaMinDeg, β), math.Max(d.BetaMaxDeg, β)
+	}
+	d.MemoryBytes = MemoryEstimate(cfg, 0)
+	return d, nil
+}
+
+// Terms of MemoryEstimate, in bytes (own estimates from the data structures
+// of scenario/sim; not a bound).
+const (
+	// memBase: the Go runtime, the program and the albedo model's cells.
+	memBase = 30 << 20
+	// memPerUnitEstimator: the four streaming quantile histograms of one
+	// estimator of one unit (about 220 kB each when every bin is in use).
+	memPerUnitEstimator = 4 * 225 << 10
+	// memPerSeriesRowScalar: one float64 or int per time-series column.
+	memPerSeriesRowScalar = 8
+)
+
+// MemoryEstimate is a rough estimate of the peak memory of a run of cfg
+// keeping seriesRows rows of time series (0 for none): a fixed base, the
+// quantile histograms of each unit and estimator, and the series (ten
+// columns plus one signal per sensor). The step loop keeps no other
+// per-step data (scenario/sim streams its statistics).
+func MemoryEstimate(cfg *sim.Config, seriesRows int) int64 {
+	units := int64(max(cfg.Units, 1))
+	m := int64(memBase) + units*int64(len(cfg.Estimators))*memPerUnitEstimator
+	if seriesRows > 0 && cfg.Array != nil {
+		m += int64(seriesRows) * int64(10+cfg.Array.Len()) * memPerSeriesRowScalar
+	}
+	return m
+}

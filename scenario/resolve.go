@@ -15,7 +15,6 @@ import (
 // 2000), repeated here for the altitude checks only.
 const earthRadiusKm = 6378.137
 
-
 // Defaults, all in one place (each is common practice, no source, unless noted).
 const (
 	defaultName       = "unnamed scenario"

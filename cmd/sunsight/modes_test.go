@@ -21,8 +21,8 @@ func TestRunReportsModesSideBySide(t *testing.T) {
 	}
 	var rec struct {
 		Modes []struct {
-			Mode     string             `json:"mode"`
-			Primary  bool               `json:"primary"`
+			Mode     string         `json:"mode"`
+			Primary  bool           `json:"primary"`
 			Headline map[string]any `json:"headline"`
 		} `json:"modes"`
 	}

@@ -57,7 +57,7 @@ func TestOrbitCommandErrors(t *testing.T) {
 		{with("--ltan", "10.5"), "HH:MM"},
 		{with("--epoch", "yesterday"), "--epoch"},
 		{with("--inclination-deg", "200"), "--inclination-deg"},
-		{with("--altitude-km", "9000"), "--altitude-km"}, // no SSO up there
+		{with("--altitude-km", "9000"), "--altitude-km"},                          // no SSO up there
 		{with("--altitude-km", "50"), "perigee altitude 50.0 km is below 100 km"}, // scenario.MinPerigeeAltitudeKm, as in files
 		{with("--altitude-km", "150000"), "apogee altitude 150000 km is above 100000 km"},
 		{append(with("--altitude-km", "1000"), "--ecc", "0.9"), "perigee altitude"},

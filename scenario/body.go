@@ -137,13 +137,21 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	r.place(p, f, &s)
 
 	info, known := sensor.LookupKind(f.Kind)
-	halfDef := 60.0
-	if known {
-		halfDef = info.HalfAngleDeg
+	if known && info.GeometricFOV {
+		// The view follows from the kind's geometry (check and run print
+		// its ranges); a half angle would be ignored.
+		if f.HalfAngleDeg != nil {
+			r.fail(p+".half_angle_deg", "value does not apply to kind %s: its field of view follows from its geometry keys; remove half_angle_deg", f.Kind)
+		}
+	} else {
+		halfDef := 60.0
+		if known {
+			halfDef = info.HalfAngleDeg
+		}
+		half := setDefault(&f.HalfAngleDeg, halfDef)
+		r.rangeCheck(p+".half_angle_deg", half, 0, 90, true, "a field of view half angle in (0, 90] degrees")
+		s.HalfAngleRad = half * deg
 	}
-	half := setDefault(&f.HalfAngleDeg, halfDef)
-	r.rangeCheck(p+".half_angle_deg", half, 0, 90, true, "a field of view half angle in (0, 90] degrees")
-	s.HalfAngleRad = half * deg
 	s.Threshold = setDefault(&f.Threshold, defaultThreshold)
 	r.rangeCheck(p+".threshold", s.Threshold, 0, 1, false, "[0, 1] (fraction of the full-sun reading)")
 	s.FullScale = setDefault(&f.FullScale, defaultFullScale)

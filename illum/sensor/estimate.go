@@ -118,6 +118,9 @@ func twoAxisSum(a *Array, r []Reading) (r3.Vec, int) {
 			continue
 		}
 		s := a.sensors[i].Sigma()
+		if r[i].Sigma > s {
+			s = r[i].Sigma
+		}
 		x = r3.Add(x, r3.Scale(1/(s*s), r[i].Dir))
 		n++
 	}

@@ -20,6 +20,9 @@ type KindInfo struct {
 	Source string
 	// HalfAngleDeg is the default field-of-view half angle (half_angle_deg).
 	HalfAngleDeg float64
+	// GeometricFOV says the field of view follows from the kind's own
+	// geometry keys: half_angle_deg is refused (HalfAngleDeg unused).
+	GeometricFOV bool
 	// TwoAxis says a single sensor of the kind measures a direction
 	// (Reading.Dir); the others give one signal and need an array.
 	TwoAxis bool
@@ -97,6 +100,7 @@ const (
 	SourceMisalignment   = "misalignment"
 	SourceApertureOffset = "aperture offset"
 	SourceDigitalNoise   = "digital accuracy"
+	SourceTwist          = "twist"
 )
 
 // ErrorSource is one error source a kind offers the budget. Its 1σ is a
@@ -143,7 +147,7 @@ var registry = map[Kind]KindInfo{}
 // registered twice, a key of two types, a source without a name), so that
 // the package's tests catch it.
 func Register(k KindInfo) {
-	if k.Kind == "" || k.Build == nil || !(k.HalfAngleDeg > 0 && k.HalfAngleDeg <= 90) {
+	if k.Kind == "" || k.Build == nil || (!k.GeometricFOV && !(k.HalfAngleDeg > 0 && k.HalfAngleDeg <= 90)) {
 		panic(fmt.Sprintf("sensor: kind %q: needs a name, a builder and a default half angle in (0, 90]", k.Kind))
 	}
 	if _, dup := registry[k.Kind]; dup {

@@ -28,6 +28,9 @@ const (
 	KindCosine   Kind = "cosine"
 	KindQuadrant Kind = "quadrant"
 	KindDigital  Kind = "digital"
+	// KindQuadrantWall is a four-quadrant sensor under a cross-shaped
+	// shade wall (Quadrant with GeometryWall).
+	KindQuadrantWall Kind = "quadrant-wall"
 )
 
 // Albedo is the Earth-reflected light reaching one sensor, as the albedo
@@ -35,9 +38,16 @@ const (
 // field of view (W/m², R from the sensor's Response) and the
 // irradiance-weighted mean arrival direction (unit vector, body axes, pointing
 // from the sensor toward the lit Earth). A zero Albedo means none.
+//
+// Cells, for a quadrant sensor, holds the albedo integrated through each
+// cell's own response (W/m² in the units of direct irradiance: the direct
+// sun S from direction d gives cell i S·CellResponse(d)[i]); zero when the
+// albedo model did not integrate the cells, and the quadrant then splits
+// Irradiance in the proportions of the mean direction's lit areas.
 type Albedo struct {
 	Irradiance float64
 	Dir        r3.Vec
+	Cells      [4]float64
 }
 
 // Reading is one sensor's output at one instant.
@@ -57,8 +67,13 @@ type Reading struct {
 	// Valid says the sensor reports a sun: signal above its threshold and,
 	// for two-axis kinds, a direction that could be inverted.
 	Valid bool
-	// Saturated says an output hit full scale or a quadrant ratio hit ±1.
+	// Saturated says an output (a cell for a quadrant) hit full scale.
 	Saturated bool
+	// Sigma, when > 0, is this reading's own 1σ per axis (rad), worse than
+	// the sensor's stated Sigma: a quadrant axis in its dead zone reports
+	// "straight above" with the dead zone's spread, tan⁻¹(tan δ/√3). The
+	// weighted estimators use it in place of the sensor's.
+	Sigma float64
 }
 
 // Sensor is one sun sensor of any kind. Every vector is in body axes.
@@ -182,6 +197,10 @@ type MountRow struct {
 	Toward    string     // face the tilt leans to ("" when none)
 	Boresight [3]float64 // body axes, unit
 	FOVDeg    float64    // half-angle of the (circumscribed) FOV cone
+	// Quadrant sensors only (per sensor axis; zero for other kinds): the
+	// half-angle up to which a reading can be valid, the half-angle up to
+	// which light reaches a cell, and the dead zone round the boresight.
+	LinearDeg, DetectionDeg, DeadZoneDeg float64
 }
 
 // Row returns the mount-table row of a sensor.
@@ -193,11 +212,17 @@ func Row(s Sensor) MountRow {
 		face = "vector"
 	}
 	tilt, toward := m.Tilt()
-	return MountRow{
+	row := MountRow{
 		Name: s.Name(), Kind: s.Kind(), Face: face,
 		TiltDeg: tilt * 180 / math.Pi, Toward: toward.String(),
 		Boresight: [3]float64{b.X, b.Y, b.Z}, FOVDeg: s.HalfAngle() * 180 / math.Pi,
 	}
+	if q, ok := s.(*Quadrant); ok {
+		row.LinearDeg = q.LinearHalfAngle() * 180 / math.Pi
+		row.DetectionDeg = q.DetectionHalfAngle() * 180 / math.Pi
+		row.DeadZoneDeg = q.DeadZoneHalfAngle() * 180 / math.Pi
+	}
+	return row
 }
 
 func checkMount(name string, m Mount) error {

@@ -22,12 +22,13 @@ const (
 	Misalignment
 	ApertureOffset // quadrant sensors only
 	DigitalNoise   // digital sensors' stated accuracy
+	Twist          // quadrant sensors' rotation about the boresight
 	Albedo
 	NumSources
 )
 
 var sourceNames = [NumSources]string{"dark offset", "gain mismatch", "noise", "quantisation",
-	"misalignment", "aperture offset", "digital accuracy", "albedo"}
+	"misalignment", "aperture offset", "digital accuracy", "twist", "albedo"}
 
 // String names the source as the tables print it.
 func (s Source) String() string {

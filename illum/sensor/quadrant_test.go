@@ -1,0 +1,267 @@
+package sensor
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+func quadSpec(t testing.TB, s QuadrantSpec) *Quadrant {
+	t.Helper()
+	if s.Name == "" {
+		s.Name = "q"
+	}
+	if s.Mount == (Mount{}) {
+		s.Mount, _ = FaceMount(FacePlusZ, 0, FaceNone, 0)
+	}
+	q, err := NewQuadrant(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return q
+}
+
+// Elementary geometry (square aperture over square cells, own calculation):
+// w = c = 2, g = 0.2, h = 1, aperture offset (0.1, −0.05), sun at tangents
+// (0.3, −0.2). Spot centre (0.1 − 0.3, −0.05 + 0.2) = (−0.2, 0.15): in x
+// [−1.2, 0.8] against cells [−2.1, −0.1] and [0.1, 2.1] gives lit lengths
+// 1.1 and 0.7; in y [−0.85, 1.15] gives 0.75 (bottom) and 1.05 (top).
+// A = 1.1·1.05, B = 0.7·1.05, C = 0.7·0.75, D = 1.1·0.75; total (w − g)².
+func TestQuadrantApertureOverlapClosedForm(t *testing.T) {
+	q := quadSpec(t, QuadrantSpec{ApertureSide: 2, Height: 1, CellSide: 2, Gap: 0.2})
+	got := q.cellAreas(r3.Vec{X: 0.3, Y: -0.2, Z: 1}, 0.1, -0.05)
+	want := [4]float64{1.1 * 1.05, 0.7 * 1.05, 0.7 * 0.75, 1.1 * 0.75}
+	for i := range got {
+		if math.Abs(got[i]-want[i]) > 1e-12 {
+			t.Errorf("cell %c: area %.12f, closed form %.12f", 'A'+i, got[i], want[i])
+		}
+	}
+	if s := got[0] + got[1] + got[2] + got[3]; math.Abs(s-1.8*1.8) > 1e-12 {
+		t.Errorf("lit area %.12f, want (w − g)² = 3.24", s)
+	}
+	// The cell responses are cos θ · area / w².
+	d := r3.Unit(r3.Vec{X: 0.3, Y: -0.2, Z: 1})
+	r := q.CellResponse(d)
+	a0 := q.cellAreas(d, 0, 0)
+	for i := range r {
+		if math.Abs(r[i]-d.Z*a0[i]/4) > 1e-15 {
+			t.Errorf("cell response %c %.15f, want cos θ·area/w² %.15f", 'A'+i, r[i], d.Z*a0[i]/4)
+		}
+	}
+}
+
+// Elementary geometry of a cross-shaped wall (own calculation): c = 2,
+// d = 0.5, H = 1, wall offset (0.1, −0.05), sun at tangents (1.2, −0.9).
+// The x wall's shadow runs from its foot at 0.1 to 0.1 − 1.2 = −1.1 and cuts
+// 0.6 from the −x cells [−2.5, −0.5] (lit 1.4, +x lit 2). The y wall's
+// shadow runs from −0.05 to 0.85 and cuts 0.35 from the +y cells [0.5, 2.5]
+// (top lit 1.65, bottom 2). A = 1.4·1.65, B = 2·1.65, C = 2·2, D = 1.4·2.
+func TestQuadrantWallOverlapClosedForm(t *testing.T) {
+	q := quadSpec(t, QuadrantSpec{Geometry: GeometryWall, Height: 1, CellSide: 2, WallDistance: 0.5})
+	got := q.cellAreas(r3.Vec{X: 1.2, Y: -0.9, Z: 1}, 0.1, -0.05)
+	want := [4]float64{1.4 * 1.65, 2 * 1.65, 2 * 2, 1.4 * 2}
+	for i := range got {
+		if math.Abs(got[i]-want[i]) > 1e-12 {
+			t.Errorf("cell %c: area %.12f, closed form %.12f", 'A'+i, got[i], want[i])
+		}
+	}
+	// The wall geometry's sum is normalised by the whole detector, 4c².
+	if s := q.sum(r3.Vec{Z: 1}, 0, 0); math.Abs(s-1) > 1e-15 {
+		t.Errorf("normal-incidence sum %.15f, want 1", s)
+	}
+}
+
+// Dead zone of a shade wall: the shadow reaches the cells only beyond
+// atan(d/H); d/H = tan 30° gives 30° (geometry; a 30° dead zone for a hobby
+// four-quadrant shade is a fact of the trade, common practice, no source).
+// The transfer is exactly flat inside and falls outside.
+func TestQuadrantWallDeadZone(t *testing.T) {
+	const h = 4.0
+	q := quadSpec(t, QuadrantSpec{Geometry: GeometryWall, Height: h, CellSide: 3, WallDistance: h * math.Tan(30*deg)})
+	if got := q.DeadZoneHalfAngle() / deg; math.Abs(got-30) > 1e-12 {
+		t.Errorf("dead zone %.14f°, want 30°", got)
+	}
+	if x := q.Transfer(math.Tan(29.999 * deg)); x != 0 {
+		t.Errorf("X(29.999°) = %g, want 0 inside the dead zone", x)
+	}
+	if x := q.Transfer(math.Tan(30.01 * deg)); !(x < 0) {
+		t.Errorf("X(30.01°) = %g, want < 0 (shadow on the −x cells)", x)
+	}
+	// Noise-free: the reading says straight above anywhere inside.
+	for _, a := range []float64{0, 10, 20, 29.9} {
+		r := q.Read(sunAt(a*deg, 0), SolarConstant, Albedo{}, nil)
+		if !r.Valid || angle(r.Dir, r3.Vec{Z: 1}) > 1e-15 || r.Sigma < math.Atan(math.Tan(30*deg)/math.Sqrt(3)) {
+			t.Errorf("%g° inside the dead zone: %+v, want straight above with the dead zone's σ", a, r)
+		}
+	}
+	// With the no-sun choice the dead zone gives no reading.
+	spec := q.Spec()
+	spec.DeadZone = DeadZoneNoSun
+	qn := quadSpec(t, spec)
+	if r := qn.Read(sunAt(20*deg, 35*deg), SolarConstant, Albedo{}, nil); r.Valid {
+		t.Errorf("no-sun dead zone: %+v, want not valid", r)
+	}
+	// Outside the dead zone and inside the linear range (to atan((d + c)/H)
+	// = 47.5°) the inversion is exact.
+	worst := 0.0
+	for ax := 31.0; ax <= 47; ax += 2 {
+		for _, sx := range []float64{-1, 1} {
+			for ay := 31.0; ay <= 47; ay += 4 {
+				s := sunAt(sx*ax*deg, -ay*deg)
+				r := q.Read(s, SolarConstant, Albedo{}, nil)
+				if !r.Valid {
+					t.Fatalf("(%g°, %g°): not valid: %+v", sx*ax, -ay, r)
+				}
+				worst = math.Max(worst, angle(r.Dir, s))
+			}
+		}
+	}
+	if worst > 1e-9 {
+		t.Errorf("worst inversion error outside the dead zone %.3g rad", worst)
+	}
+	if got, want := q.DetectionHalfAngle(), math.Pi/2; got != want {
+		t.Errorf("detection %.3f°, want 90° (far cells lit to grazing)", got/deg)
+	}
+}
+
+// Outside the dead zone the estimate meets its stated accuracy: with
+// realistic dark offsets, noise, gain mismatch and misalignment, 500 units,
+// the per-axis error stays within 3 σ/cos θ (σ the derived Sigma, which
+// holds at normal incidence and grows as the signal falls) for ≥ 99 % of
+// the readings.
+func TestQuadrantWallAccuracyOutsideDeadZone(t *testing.T) {
+	const h = 4.0
+	errs := Errors{DarkSigma: 0.002, NoiseSigma: 0.001, GainSigma: 0.01, MisalignSigma: 0.1 * deg}
+	q := quadSpec(t, QuadrantSpec{Geometry: GeometryWall, Height: h, CellSide: 3, WallDistance: h * math.Tan(30*deg),
+		ImbalanceMargin: 0.05, DeadZoneImbalance: 0.01, SignalMargin: 0.2, Errors: errs})
+	sigma := q.Sigma()
+	t.Logf("derived σ %.3f° per axis; linear range to %.2f°, dead zone %.2f°", sigma/deg, q.LinearHalfAngle()/deg, q.DeadZoneHalfAngle()/deg)
+	rng := rand.New(rand.NewPCG(3, 4))
+	n, bad := 0, 0
+	for range 500 {
+		u := q.Draw(rng).(*Quadrant)
+		for range 20 {
+			ax := (33 + 11*rng.Float64()) * deg * float64(1-2*rng.IntN(2))
+			ay := (33 + 11*rng.Float64()) * deg * float64(1-2*rng.IntN(2))
+			s := sunAt(ax, ay)
+			r := u.Read(s, SolarConstant, Albedo{}, rng)
+			if !r.Valid || r.Sigma > 0 {
+				continue // no sun, or a dead-zone reading with its own σ
+			}
+			n++
+			ex := math.Atan(r.Dir.X/r.Dir.Z) - ax
+			ey := math.Atan(r.Dir.Y/r.Dir.Z) - ay
+			if lim := 3 * sigma / s.Z; math.Abs(ex) > lim || math.Abs(ey) > lim {
+				bad++
+			}
+		}
+	}
+	t.Logf("%d valid readings, %d beyond 3σ/cos θ", n, bad)
+	if n < 9000 || float64(bad) > 0.01*float64(n) {
+		t.Errorf("%d of %d readings beyond 3σ/cos θ (σ %.3f°)", bad, n, sigma/deg)
+	}
+}
+
+// The validity gate: no edge-of-range direction. Beyond the linear range
+// less the imbalance margin there is no sun; a partial spot or a strong
+// albedo fails the signal gate; a cell at full scale gives no sun.
+func TestQuadrantValidityGate(t *testing.T) {
+	q := quadSpec(t, QuadrantSpec{ApertureSide: 2, Height: 1, CellSide: 2, Gap: 0.1, ImbalanceMargin: 0.05,
+		SignalMargin: 0.2, Threshold: 0.01})
+	lin := q.LinearHalfAngle()
+	// Closed form: |X| = 0.95 at tan α = 0.95·(w − g)/2h.
+	if want := math.Atan(0.95 * 1.9 / 2); math.Abs(lin-want) > 1e-12 {
+		t.Errorf("linear half-angle %.6f°, closed form %.6f°", lin/deg, want/deg)
+	}
+	if r := q.Read(sunAt(lin-1e-6, 0), SolarConstant, Albedo{}, nil); !r.Valid {
+		t.Errorf("just inside the linear range: %+v, want valid", r)
+	}
+	if r := q.Read(sunAt(lin+1e-6, 0), SolarConstant, Albedo{}, nil); r.Valid {
+		t.Errorf("just outside the linear range: %+v, want no sun", r)
+	}
+	if q.SeesSun(sunAt(lin+1e-6, 0)) || !q.SeesSun(sunAt(lin-1e-6, 0)) {
+		t.Error("SeesSun disagrees with the reading at the linear range's edge")
+	}
+	// With a small dark offset the saturated ring (spot on one column of
+	// cells) must stay invalid: the edge test alone would pass it.
+	u := *q
+	u.unit.dark = [4]float64{0.0005, 0.0002, 0.0007, 0.0001}
+	for a := lin + 0.01; a < q.DetectionHalfAngle(); a += 0.01 {
+		if r := u.Read(sunAt(a, 0.1), SolarConstant, Albedo{}, nil); r.Valid {
+			t.Fatalf("dark offsets, %.2f° beyond the linear range: valid %+v", a/deg, r)
+		}
+	}
+	// Penumbra at 70 % of the sun: the cell sum is 30 % below expectation.
+	if r := q.Read(sunAt(10*deg, 5*deg), 0.7*SolarConstant, Albedo{}, nil); r.Valid {
+		t.Errorf("penumbra at 70 %%: %+v, want no sun (signal gate)", r)
+	}
+	// Albedo of 30 % of the sun on the cells fails the signal gate; 10 %
+	// passes with a pulled direction.
+	alb := Albedo{Cells: [4]float64{0, 0, 0.15 * SolarConstant, 0.15 * SolarConstant}}
+	if r := q.Read(sunAt(0, 0), SolarConstant, alb, nil); r.Valid {
+		t.Errorf("30 %% albedo: %+v, want no sun", r)
+	}
+	// Light on the bottom cells means a spot moved toward −y: a sun toward +y.
+	alb = Albedo{Cells: [4]float64{0, 0, 0.05 * SolarConstant, 0.05 * SolarConstant}}
+	if r := q.Read(sunAt(0, 0), SolarConstant, alb, nil); !r.Valid || r.Dir.Y <= 0 {
+		t.Errorf("10 %% albedo on the bottom cells: %+v, want valid, pulled toward +y", r)
+	}
+	// Albedo alone whose mean direction lights no cell adds nothing (never
+	// an even split).
+	if r := q.Read(sunAt(0, 0), 0, Albedo{Irradiance: 400, Dir: sunAt(85*deg, 0)}, nil); r.Signal != 0 {
+		t.Errorf("albedo from outside the detection range: signal %g, want 0", r.Signal)
+	}
+	// A cell at full scale gives no sun.
+	spec := q.Spec()
+	spec.Errors = Errors{FullScale: 0.2}
+	qs := quadSpec(t, spec)
+	if r := qs.Read(sunAt(0, 0), SolarConstant, Albedo{}, nil); r.Valid || !r.Saturated {
+		t.Errorf("cells at full scale: %+v, want saturated, no sun", r)
+	}
+}
+
+// Twist about the boresight turns the measured direction about it: a drawn
+// twist of δ moves a sun at α off the boresight by 2·sin(α)·sin(δ/2) in
+// angle (closed form) within the linear range.
+func TestQuadrantTwist(t *testing.T) {
+	q := quadSpec(t, QuadrantSpec{ApertureSide: 2, Height: 1, CellSide: 2, TwistSigma: 1 * deg})
+	u := q.Draw(rand.New(rand.NewPCG(1, 2))).(*Quadrant)
+	x, _, _ := u.actual.Axes()
+	delta := math.Atan2(x.Y, x.X)
+	s := sunAt(20*deg, 0)
+	r := u.Read(s, SolarConstant, Albedo{}, nil)
+	th := math.Acos(s.Z)
+	want := 2 * math.Asin(math.Sin(th)*math.Sin(math.Abs(delta)/2))
+	if delta == 0 || math.Abs(angle(r.Dir, s)-want) > 1e-9 {
+		t.Errorf("twist %.4f°: error %.6f°, closed form %.6f°", delta/deg, angle(r.Dir, s)/deg, want/deg)
+	}
+}
+
+// Every derived range agrees with the transfer curve: the dead zone ends
+// where X leaves 0, the detection range where the light leaves the cells.
+func TestQuadrantRangesMatchTransfer(t *testing.T) {
+	for _, s := range []QuadrantSpec{
+		{ApertureSide: 2, Height: 1, CellSide: 2, Gap: 0.1},
+		{ApertureSide: 3, Height: 1, CellSide: 1},
+		{ApertureSide: 1.5, Height: 2, CellSide: 1, Gap: 0.2},
+		{Geometry: GeometryWall, Height: 3, CellSide: 2, WallDistance: 1},
+	} {
+		q := quadSpec(t, s)
+		if dz := q.DeadZoneHalfAngle(); dz > 0 {
+			if q.Transfer(math.Tan(dz)*(1-1e-9)) != 0 || q.Transfer(math.Tan(dz)*(1+1e-6)) == 0 {
+				t.Errorf("%+v: dead zone %.4f° does not bound X = 0", s, dz/deg)
+			}
+		}
+		if det := q.DetectionHalfAngle(); det < math.Pi/2 {
+			if q.Response(sunAt(det*(1-1e-6), 0)) == 0 || q.Response(sunAt(det*(1+1e-6), 0)) != 0 {
+				t.Errorf("%+v: detection %.4f° does not bound the response", s, det/deg)
+			}
+		}
+		lin := q.LinearHalfAngle()
+		if !q.SeesSun(sunAt(lin*(1-1e-6), 0)) || q.SeesSun(sunAt(lin*(1+1e-6)+1e-9, 0)) {
+			t.Errorf("%+v: linear range %.4f° does not bound the valid readings", s, lin/deg)
+		}
+	}
+}

@@ -14,9 +14,10 @@ import (
 // no physics package; the build step uses orbit's.
 const muEarthKm3S2 = 398600.4418
 
-// TLE holds the fields of a two-line element set that sunsight uses as mean
-// elements for a starting point. It is not an SGP4 element set: the build step
-// propagates these elements with the scenario's own propagator.
+// TLE holds the fields of a two-line element set. The build step propagates
+// them with SGP4 (the default for a TLE orbit, the model TLEs are fitted
+// with) or, when the scenario asks for another propagator, reads them as mean
+// elements for a starting point.
 type TLE struct {
 	Catalog          string    // satellite catalogue number, columns 3–7 of both lines
 	Epoch            time.Time // UTC, from line 1 columns 19–32 (YYDDD.DDDDDDDD)
@@ -26,6 +27,7 @@ type TLE struct {
 	ArgPerigeeRad    float64   // line 2 columns 35–42
 	MeanAnomalyRad   float64   // line 2 columns 44–51
 	MeanMotionRevDay float64   // line 2 columns 53–63
+	BStar            float64   // line 1 columns 54–61, B* drag term in 1/Earth radii (±.NNNNN±E)
 	SemiMajorAxisKm  float64   // from the mean motion by Kepler's third law, a = (μ/n²)^(1/3)
 }
 
@@ -134,7 +136,48 @@ func ParseTLE(line1, line2 string) (TLE, error) {
 		return t, fmt.Errorf("line 2 mean motion %v rev/day is out of range; allowed (0, 20]", n)
 	}
 	t.MeanMotionRevDay = n
+	if t.BStar, err = parseTLEExp(l1[53:61]); err != nil {
+		return t, fmt.Errorf("line 1 B* %q: %v", l1[53:61], err)
+	}
 	nRadS := n * 2 * math.Pi / 86400
 	t.SemiMajorAxisKm = math.Cbrt(muEarthKm3S2 / (nRadS * nRadS)) // Kepler's third law, n² a³ = μ
 	return t, nil
+}
+
+// parseTLEExp reads a TLE field in assumed-decimal exponent form, " 28098-4"
+// = 0.28098e-4, "-11606-4" = −0.11606e-4 (Spacetrack Report No. 3).
+func parseTLEExp(f string) (float64, error) {
+	f = strings.TrimSpace(f)
+	if f == "" {
+		return 0, nil
+	}
+	if len(f) < 3 {
+		return 0, fmt.Errorf("too short; allowed ±NNNNN±E")
+	}
+	mant, exp := f[:len(f)-2], f[len(f)-2:]
+	if exp[0] != '-' && exp[0] != '+' {
+		return 0, fmt.Errorf("no exponent sign; allowed ±NNNNN±E")
+	}
+	sign := 1.0
+	switch mant[0] {
+	case '-':
+		sign, mant = -1, mant[1:]
+	case '+':
+		mant = mant[1:]
+	}
+	mant = strings.TrimPrefix(mant, ".")
+	for _, c := range mant {
+		if c < '0' || c > '9' {
+			return 0, fmt.Errorf("mantissa is not digits; allowed ±NNNNN±E")
+		}
+	}
+	e, err := strconv.Atoi(exp)
+	if err != nil {
+		return 0, fmt.Errorf("exponent is not a digit; allowed ±NNNNN±E")
+	}
+	m, err := strconv.ParseFloat("0."+mant, 64)
+	if err != nil {
+		return 0, err
+	}
+	return sign * m * math.Pow(10, float64(e)), nil
 }

@@ -23,6 +23,7 @@ const (
 	defaultStep       = Span(10 * time.Second)
 	defaultSeed       = 1
 	defaultPropagator = "j2-mean"
+	tlePropagator     = "sgp4" // default for a TLE orbit
 	defaultSunModel   = "low-precision"
 	defaultShadow     = "conical"
 	defaultAlbedo     = 0.30 // global mean Bond albedo ≈ 0.29–0.31 (from memory)
@@ -41,7 +42,7 @@ const (
 )
 
 var (
-	propagators = []string{"two-body", "j2-mean", "j2-numeric"}
+	propagators = []string{"two-body", "j2-mean", "j2-numeric", "sgp4"}
 	sunModels   = []string{"low-precision", "meeus"}
 	shadows     = []string{"conical", "cylindrical"}
 	lawNames    = []string{LawNadir, LawSun, LawInertial, LawSpin, LawTumble, LawIsotropic}
@@ -194,8 +195,15 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 
 func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 	var out Orbit
-	r.choice("orbit.propagator", &o.Propagator, defaultPropagator, propagators)
+	def := defaultPropagator
+	if len(o.TLE) > 0 {
+		def = tlePropagator // the model TLEs are fitted with
+	}
+	r.choice("orbit.propagator", &o.Propagator, def, propagators)
 	out.Propagator = o.Propagator
+	if o.Propagator == tlePropagator && len(o.TLE) == 0 {
+		r.fail("orbit.propagator", "value sgp4 propagates the mean elements of a TLE; allowed with orbit.tle only (two-body, j2-mean or j2-numeric for other orbits)")
+	}
 	has := func(p *float64) bool { return p != nil }
 	elems := has(o.SemiMajorAxisKm) || has(o.Eccentricity) || has(o.ArgPerigeeDeg)
 	switch {

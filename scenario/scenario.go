@@ -47,7 +47,7 @@ const (
 // epoch with orbit's J2 helpers.
 type Orbit struct {
 	Kind            string
-	Propagator      string  // "two-body", "j2-mean" or "j2-numeric"
+	Propagator      string  // "two-body", "j2-mean", "j2-numeric" or "sgp4" (the default for a TLE)
 	AltitudeKm      float64 // circular and sun-synchronous kinds; else a−Rₑ
 	LTANHours       float64 // sun-synchronous kind only, in [0, 24)
 	SemiMajorAxisKm float64 // all kinds (Rₑ + altitude for the circular kinds)

@@ -17,11 +17,11 @@ const (
 
 // common holds the dscom outputs that dsinit needs.
 type common struct {
-	sinim, cosim, emsq                                  float64
-	s1, s2, s3, s4, s5, ss1, ss2, ss3, ss4, ss5         float64
-	sz1, sz3, sz11, sz13, sz21, sz23, sz31, sz33        float64
-	z1, z3, z11, z13, z21, z23, z31, z33                float64
-	em, nm                                              float64
+	sinim, cosim, emsq                           float64
+	s1, s2, s3, s4, s5, ss1, ss2, ss3, ss4, ss5  float64
+	sz1, sz3, sz11, sz13, sz21, sz23, sz31, sz33 float64
+	z1, z3, z11, z13, z21, z23, z31, z33         float64
+	em, nm                                       float64
 }
 
 // initDeepSpace runs dscom, the initial dpper and dsinit.

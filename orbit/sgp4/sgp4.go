@@ -54,19 +54,19 @@ const (
 // from one goroutine at a time (the deep-space resonance integrator keeps its
 // last step, as the published code does).
 type Model struct {
-	g                            Gravity
-	xke, tumin, j3oj2            float64
-	el                           Elements
-	noUnkozai                    float64
-	isimp                        bool
-	deep                         bool
-	aycof, con41, cc1, cc4, cc5  float64
-	d2, d3, d4, delmo, eta       float64
-	argpdot, omgcof, sinmao      float64
-	t2cof, t3cof, t4cof, t5cof   float64
-	x1mth2, x7thm1, mdot         float64
-	nodedot, xlcof, xmcof        float64
-	nodecf                       float64
+	g                             Gravity
+	xke, tumin, j3oj2             float64
+	el                            Elements
+	noUnkozai                     float64
+	isimp                         bool
+	deep                          bool
+	aycof, con41, cc1, cc4, cc5   float64
+	d2, d3, d4, delmo, eta        float64
+	argpdot, omgcof, sinmao       float64
+	t2cof, t3cof, t4cof, t5cof    float64
+	x1mth2, x7thm1, mdot          float64
+	nodedot, xlcof, xmcof         float64
+	nodecf                        float64
 	ecco, inclo, nodeo, argpo, mo float64 // possibly changed by the deep-space init
 
 	// deep space

@@ -48,6 +48,8 @@ func NewPropagator(s *scenario.Scenario) (func() orbit.Propagator, error) {
 		return nil, err
 	}
 	switch s.Orbit.Propagator {
+	case "sgp4":
+		return sgp4Factory(s)
 	case "two-body":
 		return func() orbit.Propagator { return orbit.NewTwoBody(el) }, nil
 	case "j2-mean", "":
@@ -70,7 +72,7 @@ func NewPropagator(s *scenario.Scenario) (func() orbit.Propagator, error) {
 			return q
 		}, nil
 	}
-	return nil, fmt.Errorf("orbit.propagator: %q is not one of two-body, j2-mean, j2-numeric", s.Orbit.Propagator)
+	return nil, fmt.Errorf("orbit.propagator: %q is not one of two-body, j2-mean, j2-numeric, sgp4", s.Orbit.Propagator)
 }
 
 // AttitudeLaw builds the scenario's attitude law.

@@ -47,3 +47,30 @@ for i in range(0, len(lines), 2):
         st.write("%s,%.8f,%d,%.9f,%.9f,%.9f,%.12f,%.12f,%.12f\n" % ((cat, t, e) + tuple(r) + tuple(v)))
         if e != 0:
             break
+
+# EME2000 states of two sets (near-Earth 06251, 12 h Molniya 09880) every
+# 6 h over 2 days from the element epoch: TEME rotated by ERFA's
+# pmat76^T . numat^T . R3(-dpsi cos epsa) at the sample's TT date.
+import erfa
+import numpy as np
+with open(os.path.join(here, "sgp4_eme2000.csv"), "w") as f:
+    f.write("catalog,tsince_min,x_km,y_km,z_km,vx_km_s,vy_km_s,vz_km_s\n")
+    for i in range(0, len(lines), 2):
+        l1, l2 = lines[i], lines[i + 1][:69]
+        cat = l1[2:7].strip()
+        if cat not in ("06251", "09880"):
+            continue
+        sat = Satrec.twoline2rv(l1, l2, WGS72)
+        for k in range(9):
+            t = k * 360.0
+            e, r, v = sat.sgp4_tsince(t)
+            jd1, jd2 = sat.jdsatepoch, sat.jdsatepochF + t / 1440.0
+            tai1, tai2 = erfa.utctai(jd1, jd2)
+            tt1, tt2 = erfa.taitt(tai1, tai2)
+            p = erfa.pmat76(tt1, tt2)
+            dpsi, deps = erfa.nut80(tt1, tt2)
+            epsa = erfa.obl80(tt1, tt2)
+            n = erfa.numat(epsa, dpsi, deps)
+            m = p.T @ n.T @ erfa.rz(-(dpsi * np.cos(epsa)), np.identity(3))
+            R, V = m @ np.array(r), m @ np.array(v)
+            f.write("%s,%.1f,%.9f,%.9f,%.9f,%.12f,%.12f,%.12f\n" % ((cat, t) + tuple(R) + tuple(V)))

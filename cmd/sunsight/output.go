@@ -125,6 +125,8 @@ type jsonEstimator struct {
 	AlbedoPart        jsonErr `json:"albedo_part"`
 	FalseSun          num     `json:"false_sun_fraction_of_umbra"`
 	FalseSunFromNadir jsonErr `json:"false_sun_from_nadir"`
+	AlbedoOnly        num     `json:"valid_only_with_albedo_fraction_of_sunlit"`
+	BeyondBound       num     `json:"valid_beyond_false_sun_bound_fraction_of_sunlit"`
 }
 
 type jsonSensor struct {
@@ -133,6 +135,9 @@ type jsonSensor struct {
 	Peak      num    `json:"peak_signal"`
 	Saturated num    `json:"saturated_fraction"`
 	FalseSun  num    `json:"false_sun_fraction_of_umbra"`
+	// A cosine sensor gives no direction: its beyond-bound share is null.
+	AlbedoOnly  num `json:"valid_only_with_albedo_fraction_of_sunlit"`
+	BeyondBound num `json:"valid_beyond_false_sun_bound_fraction_of_sunlit"`
 }
 
 type jsonUnit struct {
@@ -161,13 +166,14 @@ func unitJSON(u *sim.UnitResult) jsonUnit {
 		Seen: [3]num{num(u.SeenAtLeast[1]), num(u.SeenAtLeast[2]), num(u.SeenAtLeast[3])}, FalseSun: num(u.FalseSunFraction),
 		BetaMinDeg: num(u.BetaMinDeg), BetaMaxDeg: num(u.BetaMaxDeg)}
 	for _, s := range u.Sensors {
-		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.SaturatedFraction), num(s.FalseSunFraction)})
+		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.SaturatedFraction), num(s.FalseSunFraction),
+			num(s.AlbedoOnlyFraction), num(s.WrongFraction)})
 	}
 	for _, e := range u.Estimators {
 		j.Estimators = append(j.Estimators, jsonEstimator{Name: e.Name, Valid: num(e.ValidFraction), ValidNoAlbedo: num(e.ValidFractionNoAlbedo),
 			Gaps: len(e.Gaps), LongestGapS: num(e.LongestGapS), LongestAtS: num(e.LongestAtS), ErrNoAlbedo: errJSON(e.ErrNoAlbedo),
 			ErrAlbedo: errJSON(e.ErrAlbedo), AlbedoPart: errJSON(e.AlbedoPart), FalseSun: num(e.FalseSunFraction),
-			FalseSunFromNadir: errJSON(e.FalseSunFromNadir)})
+			FalseSunFromNadir: errJSON(e.FalseSunFromNadir), AlbedoOnly: num(e.AlbedoOnlyFraction), BeyondBound: num(e.WrongFraction)})
 	}
 	return j
 }
@@ -199,7 +205,7 @@ func (o *runOutput) record() map[string]any {
 		"tool":           map[string]any{"name": "sunsight", "version": o.version},
 		"scenario":       map[string]any{"name": o.s.Name, "seed": o.s.Seed, "record": string(o.s.Record())},
 		"run": map[string]any{"epoch": o.s.Epoch.Format(time.RFC3339), "duration_s": num(r.DurationS), "step_s": num(r.StepS),
-			"steps": r.Steps, "units": len(r.Units)},
+			"steps": r.Steps, "units": len(r.Units), "false_sun_bound_deg": num(r.FalseSunBoundDeg)},
 		"headline": jsonFields{r.Headline()},
 		"eclipse_stats": map[string]any{"count": es.Count, "mean_s": num(es.MeanS), "max_s": num(es.MaxS), "total_s": num(es.TotalS),
 			"mean_umbra_s": num(es.MeanUmbraS), "max_umbra_s": num(es.MaxUmbraS), "shadow_fraction": num(es.ShadowFraction),
@@ -295,7 +301,12 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		fmt.Fprintf(w, "  %-16s %8s %7.0f s %13s %11s %12s %9s %10s\n", e.Name, pct(e.ValidFraction), e.LongestGapS,
 			deg(e.ErrNoAlbedo.P95Deg), deg(e.ErrAlbedo.P95Deg), deg(e.AlbedoPart.P95Deg), deg(mx), pct(e.FalseSunFraction))
 	}
-	fmt.Fprintf(w, "  (false sun: share of umbra time with a valid estimate although no direct sun reaches the sensors)\n")
+	fmt.Fprintf(w, "\nFalse suns (share of sunlit time; umbra: share of umbra time)\n")
+	fmt.Fprintf(w, "  %-16s %22s %22s %10s\n", "estimator", "valid only with albedo", fmt.Sprintf("valid, > %g° off", r.FalseSunBoundDeg), "umbra")
+	for _, e := range u.Estimators {
+		fmt.Fprintf(w, "  %-16s %22s %22s %10s\n", e.Name, pct(e.AlbedoOnlyFraction), pct(e.WrongFraction), pct(e.FalseSunFraction))
+	}
+	fmt.Fprintf(w, "  (umbra: a valid estimate with no direct sun; from albedo it cannot happen on a spherical Earth, only from sensor errors)\n")
 	if len(r.AcrossUnits) > 0 {
 		fmt.Fprintf(w, "\nMonte Carlo over %d units (p95 error of each unit)\n", len(r.Units))
 		for _, a := range r.AcrossUnits {
@@ -303,16 +314,19 @@ func (o *runOutput) writeSummary(w io.Writer) {
 				deg(a.P50OfUnitP95Deg), deg(a.P95OfUnitP95Deg), deg(a.WorstUnitP95Deg), pct(a.MinValidFraction))
 		}
 	}
-	fmt.Fprintf(w, "\nSensors (signal 1 = normal sun at 1 AU)\n  %-14s %9s %12s %15s %10s %10s\n", "sensor", "in view", "peak signal", "full scale", "saturated", "false sun")
+	fmt.Fprintf(w, "\nSensors (signal 1 = normal sun at 1 AU)\n  %-14s %9s %12s %15s %10s %10s %12s %12s\n", "sensor", "in view", "peak signal", "full scale", "saturated",
+		"umbra lit", "albedo only", fmt.Sprintf("> %g° off", r.FalseSunBoundDeg))
 	for i, sn := range u.Sensors {
 		fs := "-"
 		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
 			f := s.Body.Sensors[i].FullScale
 			fs = fmt.Sprintf("%.2f (%+.0f %%)", f, 100*(1-sn.PeakSignal/f))
 		}
-		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, pct(sn.SaturatedFraction), pct(sn.FalseSunFraction))
+		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s %12s %12s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, pct(sn.SaturatedFraction),
+			pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction))
 	}
-	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal)\n")
+	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal; umbra lit: share of umbra time above threshold;\n")
+	fmt.Fprintf(w, "   albedo only: share of sunlit time valid only because of albedo; off: a two-axis direction that far from the sun)\n")
 	o.writeModes(w)
 	if len(o.targets) > 0 {
 		fmt.Fprintf(w, "\nTargets: %s\n", study.Judge(o.allTargets()).Text())
@@ -385,16 +399,20 @@ func (o *runOutput) writeCSV(dir string) error {
 	}
 	files["eclipses.csv"] = ecl
 	est := [][]string{{"estimator", "valid_fraction", "longest_gap_s", "mean_no_albedo_deg", "p50_no_albedo_deg", "p95_no_albedo_deg", "p99_no_albedo_deg", "max_no_albedo_deg",
-		"mean_albedo_deg", "p50_albedo_deg", "p95_albedo_deg", "p99_albedo_deg", "max_albedo_deg", "p95_albedo_part_deg", "false_sun_fraction_of_umbra"}}
+		"mean_albedo_deg", "p50_albedo_deg", "p95_albedo_deg", "p99_albedo_deg", "max_albedo_deg", "p95_albedo_part_deg", "false_sun_fraction_of_umbra",
+		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
 	for _, e := range u.Estimators {
 		a, b := e.ErrNoAlbedo, e.ErrAlbedo
 		est = append(est, []string{e.Name, ff(e.ValidFraction, 6), ff(e.LongestGapS, 1), ff(a.MeanDeg, 4), ff(a.P50Deg, 4), ff(a.P95Deg, 4), ff(a.P99Deg, 4), ff(a.MaxDeg, 4),
-			ff(b.MeanDeg, 4), ff(b.P50Deg, 4), ff(b.P95Deg, 4), ff(b.P99Deg, 4), ff(b.MaxDeg, 4), ff(e.AlbedoPart.P95Deg, 4), ff(e.FalseSunFraction, 6)})
+			ff(b.MeanDeg, 4), ff(b.P50Deg, 4), ff(b.P95Deg, 4), ff(b.P99Deg, 4), ff(b.MaxDeg, 4), ff(e.AlbedoPart.P95Deg, 4), ff(e.FalseSunFraction, 6),
+			ff(e.AlbedoOnlyFraction, 6), ff(e.WrongFraction, 6)})
 	}
 	files["estimators.csv"] = est
-	sens := [][]string{{"sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra"}}
+	sens := [][]string{{"sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra",
+		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
 	for _, s := range u.Sensors {
-		sens = append(sens, []string{s.Name, ff(s.InViewFraction, 6), ff(s.PeakSignal, 5), ff(s.SaturatedFraction, 6), ff(s.FalseSunFraction, 6)})
+		sens = append(sens, []string{s.Name, ff(s.InViewFraction, 6), ff(s.PeakSignal, 5), ff(s.SaturatedFraction, 6), ff(s.FalseSunFraction, 6),
+			ff(s.AlbedoOnlyFraction, 6), ff(s.WrongFraction, 6)})
 	}
 	files["sensors.csv"] = sens
 	gaps := [][]string{{"gap_s"}}

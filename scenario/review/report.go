@@ -343,6 +343,10 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 	}
 	rows = append(rows, row("Largest error", num(h.MaxErrorDeg, 2), "deg"))
 	if cfg.NewAlbedo != nil {
+		rows = append(rows, row("Valid only because of albedo (false sun)", pct(e.AlbedoOnlyFraction), "% of sunlit time"))
+	}
+	rows = append(rows, row(fmt.Sprintf("Valid but more than %g° off (false sun)", res.FalseSunBoundDeg), pct(e.WrongFraction), "% of sunlit time"))
+	if cfg.NewAlbedo != nil {
 		rows = append(rows, row("False sun in umbra (no direct sun)", pct(e.FalseSunFraction), "% of umbra time"))
 	}
 	if len(res.AcrossUnits) > 0 {
@@ -416,7 +420,8 @@ func estimatorTable(res *sim.Result) plots.Table {
 // scale, saturation and false sun.
 func sensorTable(s *scenario.Scenario, res *sim.Result) plots.Table {
 	t := plots.Table{Title: "Sensors (signal 1 = normal sun at 1 AU)",
-		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of time)", "false sun (% of umbra)"}}
+		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of time)", "false sun (% of umbra)",
+			"valid only with albedo (% of sunlit)", fmt.Sprintf("direction > %g° off (%% of sunlit)", res.FalseSunBoundDeg)}}
 	for i, sn := range res.Nominal.Sensors {
 		fs, margin := study.Missing, study.Missing
 		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
@@ -424,7 +429,7 @@ func sensorTable(s *scenario.Scenario, res *sim.Result) plots.Table {
 			fs, margin = num(f, 2), fmt.Sprintf("%.0f", 100*(1-sn.PeakSignal/f))
 		}
 		t.Rows = append(t.Rows, []string{sn.Name, pct(sn.InViewFraction), num(sn.PeakSignal, 3), fs, margin,
-			pct(sn.SaturatedFraction), pct(sn.FalseSunFraction)})
+			pct(sn.SaturatedFraction), pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction)})
 	}
 	return t
 }

@@ -18,9 +18,36 @@
 // a cylindrical run has cylindrical fractions, events and durations alike.
 //
 // "Sunlit" time means the full solar disc is visible; penumbra time is
-// counted apart. Coverage ("seen by ≥ k sensors") uses each sensor's field of
-// view and the body's obstructions on the true sun direction; validity and
-// errors use the estimators on the readings.
+// counted apart. Coverage ("seen by ≥ k sensors") is taken on the true sun
+// direction; validity and errors use the estimators on the readings.
+//
+// Coverage counts a sensor as seeing the sun where its nominal reading from
+// direct sun is valid (sensor.Sensor.SeesSun) and neither the surface it
+// sits on nor the bus nor an obstruction hides it (Config.Viewers); the same
+// mounting plane and obstacles cut the sensor's direct sun and its albedo
+// (when the albedo's mean arrival direction is hidden) in the readings
+// (Config.Blocked).
+//
+// False suns. Three measures, per estimator and per sensor: (1) the share
+// of sunlit time with a valid estimate (reading) that is invalid from the
+// same readings without albedo — valid only because of albedo, exactly 0
+// without an albedo model; (2) the share of sunlit time with a valid
+// estimate (two-axis reading) more than Config.FalseSunBoundDeg (default
+// 20°) from the sun; (3) the share of umbra time with a valid estimate. For
+// a spherical Earth without atmosphere (3) can come only from sensor errors
+// (dark offsets, noise), never from albedo: no sunlit ground is visible from
+// inside the cylindrical shadow, and the conical umbra lies inside it.
+// Proof (closed form): let ŝ be the sun direction and the spacecraft at
+// r = −a·ŝ + ρ with a > 0 and ρ ⟂ ŝ, |ρ| < R (inside the cylinder). A
+// ground point P (|P| = R) is sunlit when P·ŝ > 0 and visible when it lies
+// above the spacecraft's horizon, (r − P)·P > 0, i.e. P·r > R². For a
+// sunlit P, P·r = −a·(P·ŝ) + P·ρ < P·ρ ≤ R·|ρ| < R², so no sunlit point
+// is visible. In angles: the visible cap reaches acos(R/|r|) from the
+// sub-spacecraft point and the lit hemisphere 90° from the subsolar point,
+// and inside the shadow these two points are more than 90° + acos(R/|r|)
+// apart. Measure (3) is kept for models where that fails (an oblate Earth,
+// light scattered by the atmosphere, a reflectance model with a limb); the
+// sunlit measures (1) and (2) are the ones that fire.
 //
 // Long runs are cut into fixed chunks of 32768 steps that run in parallel
 // and are merged in time order; noise is reseeded per block of 4096 steps

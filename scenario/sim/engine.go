@@ -74,6 +74,10 @@ type Config struct {
 	// Estimators are run side by side on the same readings; the first one is
 	// the primary, used for validity gaps and the time series.
 	Estimators []sensor.Estimator
+	// FalseSunBoundDeg is the error (deg) beyond which a valid estimate or
+	// a valid two-axis reading in sunlight counts as a false sun; 0 means
+	// DefaultFalseSunBoundDeg.
+	FalseSunBoundDeg float64
 
 	// Seed drives every random draw. Units is the number of simulated units
 	// of the sensor error models (1 = the nominal unit with noise only if
@@ -91,6 +95,18 @@ type Config struct {
 	// Progress, when not nil, is called from the unit-0 loop with the
 	// fraction done; it must be cheap.
 	Progress func(done float64)
+}
+
+// DefaultFalseSunBoundDeg is the default false-sun bound: 20°, well beyond
+// the few degrees of albedo bias of a coarse sensor, so an estimate that far
+// off points the spacecraft at the wrong thing (common practice, no source).
+const DefaultFalseSunBoundDeg = 20.0
+
+func (c *Config) falseSunBoundDeg() float64 {
+	if c.FalseSunBoundDeg > 0 {
+		return c.FalseSunBoundDeg
+	}
+	return DefaultFalseSunBoundDeg
 }
 
 // Validate checks the fields a caller can get wrong.
@@ -163,7 +179,7 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	}
 	nChunks := (steps + chunk - 1) / chunk
 
-	res := &Result{Steps: steps, StepS: cfg.Step, DurationS: cfg.Duration}
+	res := &Result{Steps: steps, StepS: cfg.Step, DurationS: cfg.Duration, FalseSunBoundDeg: cfg.falseSunBoundDeg()}
 	eclDone := make(chan struct{})
 	go func() {
 		res.Eclipses, res.EclipseStats = eclipses(&cfg)

@@ -21,6 +21,9 @@ type Result struct {
 	Nominal      *UnitResult   // unit 0
 	Units        []*UnitResult // all units, Units[0] == Nominal
 	AcrossUnits  []AcrossUnits // one per estimator; empty with one unit
+	// FalseSunBoundDeg is the error beyond which a valid estimate counts
+	// as a false sun (EstimatorStats.WrongFraction).
+	FalseSunBoundDeg float64
 	// AlbedoTable says the albedo came from a precomputed table (uniform
 	// albedo: the LVLH table for nadir pointing on a circular orbit, else
 	// the boresight tables) rather than the cell integral at every step.
@@ -67,6 +70,12 @@ type SensorStats struct {
 	SaturatedFraction float64
 	// FalseSunFraction is the fraction of umbra time above threshold.
 	FalseSunFraction float64
+	// AlbedoOnlyFraction is the fraction of sunlit time with a valid
+	// reading that would not be valid without albedo; WrongFraction, for a
+	// two-axis sensor, the fraction of sunlit time with a valid direction
+	// more than the false-sun bound from the sun (NaN for a cosine sensor,
+	// which gives no direction).
+	AlbedoOnlyFraction, WrongFraction float64
 }
 
 // EstimatorStats are one estimator's figures. "With albedo" readings are the
@@ -94,6 +103,14 @@ type EstimatorStats struct {
 	// of that false sun from nadir.
 	FalseSunFraction  float64
 	FalseSunFromNadir ErrorStats
+	// AlbedoOnlyFraction is the fraction of sunlit time with an estimate
+	// valid only because of albedo (invalid from the same readings without
+	// it): exactly 0 without an albedo model. WrongFraction is the fraction
+	// of sunlit time with a valid estimate more than the false-sun bound
+	// (Result.FalseSunBoundDeg) from the sun. Both are false suns that can
+	// fire in sunlight, where the umbra measure cannot for a spherical
+	// Earth (see the package doc).
+	AlbedoOnlyFraction, WrongFraction float64
 
 	errNo, errAlb *Quantiles // for CDF figures
 }
@@ -156,6 +173,9 @@ type estAcc struct {
 	falseSun          int
 	mFalse            Moments
 	qFalse            *Quantiles
+	// Sunlit samples valid only with albedo, and valid with an error above
+	// the false-sun bound.
+	albedoOnly, wrong int
 }
 
 // unitAcc accumulates one unit's figures in constant memory (except the
@@ -170,6 +190,10 @@ type unitAcc struct {
 	saturated                 []int
 	falseSunSensor            []int
 	falseSunAny               int
+	sensorAlbedoOnly          []int // sunlit, valid only with albedo
+	sensorWrong               []int // sunlit, a two-axis direction beyond the bound
+	twoAxis                   []bool
+	boundDeg                  float64
 	est                       []estAcc
 	betaMin, betaMax          float64 // extremes of sin β
 	series                    *Series
@@ -184,9 +208,11 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float
 	n := arr.Len()
 	a := &unitAcc{cfg: cfg, albedo: withAlbedo, inView: make([]int, n), peak: make([]float64, n),
 		saturated: make([]int, n), falseSunSensor: make([]int, n), est: make([]estAcc, len(cfg.Estimators)),
-		betaMin: math.Inf(1), betaMax: math.Inf(-1)}
-	for _, s := range arr.Sensors() {
+		sensorAlbedoOnly: make([]int, n), sensorWrong: make([]int, n), twoAxis: make([]bool, n),
+		boundDeg: cfg.falseSunBoundDeg(), betaMin: math.Inf(1), betaMax: math.Inf(-1)}
+	for i, s := range arr.Sensors() {
 		a.names = append(a.names, s.Name())
+		a.twoAxis[i] = s.Kind() != sensor.KindCosine
 	}
 	for i := range a.est {
 		a.est[i] = estAcc{gaps: NewSpells(t0), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
@@ -244,6 +270,14 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 			a.falseSunSensor[i]++
 			anyFalse = true
 		}
+		if sunlit && r.Valid {
+			if a.albedo && !readNo[i].Valid {
+				a.sensorAlbedoOnly[i]++
+			}
+			if a.twoAxis[i] && degOf(angleBetween(r.Dir, sunBody)) > a.boundDeg {
+				a.sensorWrong[i]++
+			}
+		}
 	}
 	if anyFalse {
 		a.falseSunAny++
@@ -270,6 +304,12 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 			}
 			if eAlb.Valid {
 				ea.validAlb++
+				if !eNo.Valid {
+					ea.albedoOnly++
+				}
+				if degOf(angleBetween(eAlb.Dir, sunBody)) > a.boundDeg {
+					ea.wrong++
+				}
 				if a.albedo {
 					d := degOf(angleBetween(eAlb.Dir, sunBody))
 					ea.mAlb.Add(d)
@@ -340,6 +380,8 @@ func (a *unitAcc) merge(b *unitAcc) {
 		a.peak[i] = math.Max(a.peak[i], b.peak[i])
 		a.saturated[i] += b.saturated[i]
 		a.falseSunSensor[i] += b.falseSunSensor[i]
+		a.sensorAlbedoOnly[i] += b.sensorAlbedoOnly[i]
+		a.sensorWrong[i] += b.sensorWrong[i]
 	}
 	a.falseSunAny += b.falseSunAny
 	a.betaMin = math.Min(a.betaMin, b.betaMin)
@@ -356,6 +398,8 @@ func (a *unitAcc) merge(b *unitAcc) {
 		x.qAlb.Merge(y.qAlb)
 		x.qPart.Merge(y.qPart)
 		x.falseSun += y.falseSun
+		x.albedoOnly += y.albedoOnly
+		x.wrong += y.wrong
 		x.mFalse.Merge(&y.mFalse)
 		x.qFalse.Merge(y.qFalse)
 	}
@@ -416,7 +460,11 @@ func (a *unitAcc) result() *UnitResult {
 	for i, name := range a.names {
 		r.Sensors = append(r.Sensors, SensorStats{Name: name, InViewFraction: frac(a.inView[i], a.sunlit),
 			PeakSignal: a.peak[i], SaturatedFraction: frac(a.saturated[i], a.samples),
-			FalseSunFraction: frac(a.falseSunSensor[i], a.umb)})
+			FalseSunFraction: frac(a.falseSunSensor[i], a.umb), AlbedoOnlyFraction: frac(a.sensorAlbedoOnly[i], a.sunlit),
+			WrongFraction: math.NaN()})
+		if a.twoAxis[i] {
+			r.Sensors[i].WrongFraction = frac(a.sensorWrong[i], a.sunlit)
+		}
 	}
 	for j, e := range a.cfg.Estimators {
 		ea := &a.est[j]
@@ -425,7 +473,8 @@ func (a *unitAcc) result() *UnitResult {
 			LongestGapS: ea.gaps.Longest, LongestAtS: ea.gaps.LongestAt,
 			ErrNoAlbedo: errorStats(&ea.mNo, ea.qNo), ErrAlbedo: errorStats(&ea.mAlb, ea.qAlb),
 			AlbedoPart: errorStats(&ea.mPart, ea.qPart), FalseSunFraction: frac(ea.falseSun, a.umb),
-			FalseSunFromNadir: errorStats(&ea.mFalse, ea.qFalse), errNo: ea.qNo, errAlb: ea.qAlb}
+			FalseSunFromNadir: errorStats(&ea.mFalse, ea.qFalse), errNo: ea.qNo, errAlb: ea.qAlb,
+			AlbedoOnlyFraction: frac(ea.albedoOnly, a.sunlit), WrongFraction: frac(ea.wrong, a.sunlit)}
 		if !a.albedo {
 			es.errAlb = nil
 		}

@@ -511,6 +511,12 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 	return out
 }
 
+func (r *resolver) validity(v *fileValidity) Validity {
+	out := Validity{FalseSunBoundDeg: setDefault(&v.FalseSunBoundDeg, defaultFalseSunBoundDeg)}
+	r.rangeCheck("validity.false_sun_bound_deg", out.FalseSunBoundDeg, 0, 180, true, "an angle in (0, 180) degrees")
+	return out
+}
+
 func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 	var out Targets
 	if t == nil {

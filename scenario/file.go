@@ -18,6 +18,7 @@ type fileScenario struct {
 	Body       fileBody       `yaml:"body"`
 	Estimators []string       `yaml:"estimators"`
 	Albedo     fileAlbedo     `yaml:"albedo"`
+	Validity   fileValidity   `yaml:"validity"`
 	Targets    *fileTargets   `yaml:"targets,omitempty"`
 	MonteCarlo fileMonteCarlo `yaml:"monte_carlo"`
 	Budget     *fileBudget    `yaml:"budget,omitempty"`
@@ -136,6 +137,10 @@ type fileTargets struct {
 	MinCoverage       *float64 `yaml:"min_coverage,omitempty"`
 	MaxGap            *Span    `yaml:"max_gap,omitempty"`
 	SurviveOneFailure bool     `yaml:"survive_one_failure"`
+}
+
+type fileValidity struct {
+	FalseSunBoundDeg *float64 `yaml:"false_sun_bound_deg,omitempty"`
 }
 
 type fileMonteCarlo struct {

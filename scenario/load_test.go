@@ -155,6 +155,7 @@ func badInputs() []badInput {
 		{"size negative", orbit + "body:\n  size_m: [0.1, -0.1, 0.3]\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n", "body.size_m"},
 		{"sensor inside the bus", orbit + "body:\n  form_factor: 3U\n  sensors: [{name: a, kind: cosine, face: \"+X\", position_m: [0.01, 0, 0]}]\n", "inside the bus outline"},
 		{"obstruction without positions", orbit + sensor + "  obstructions: [{name: m, shape: cylinder, from_m: [0,0,0], to_m: [0,0,1], radius_m: 0.01}]\n", "body.sensors[0].position_m"},
+		{"false-sun bound 0", orbit + sensor + "validity: {false_sun_bound_deg: 0}\n", "validity.false_sun_bound_deg (line 4"},
 		{"coverage k too big", orbit + sensor + "targets: {coverage_sensors: 3, min_coverage: 0.9}\n", "targets.coverage_sensors"},
 		{"bool type", orbit + sensor + "targets: {survive_one_failure: maybe}\n", "not true or false"},
 		{"nadir axes parallel", orbit + sensor + "attitude: {law: nadir, point_axis: \"+Z\", align_axis: \"+Z\"}\n", "attitude.align_axis (line 4"},

@@ -39,6 +39,11 @@ const (
 	defaultFullScale = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
 	defaultADCBits   = 12
 	defaultMaxRate   = 10.0 // deg/s: a typical post-deployment tip-off bound
+	// defaultFalseSunBoundDeg: a valid estimate this far from the sun points
+	// the spacecraft at the wrong thing, well beyond the few degrees of
+	// albedo bias of a coarse sensor (the engine's default; common practice,
+	// no source).
+	defaultFalseSunBoundDeg = 20.0
 )
 
 var (
@@ -175,6 +180,7 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 	s.Body = r.body(&f.Body)
 	s.Estimators = r.estimators(f, s.Body.Sensors)
 	s.Albedo = r.albedo(&f.Albedo)
+	s.Validity = r.validity(&f.Validity)
 	s.Targets = r.targets(f.Targets, len(s.Body.Sensors))
 	if f.MonteCarlo.Units == 0 {
 		if _, given := r.nodes["monte_carlo.units"]; !given {

@@ -25,6 +25,7 @@ type Scenario struct {
 	Body       Body
 	Estimators []string // "least-squares", "opposite-pairs", "two-axis", "combined"
 	Albedo     Albedo
+	Validity   Validity
 	Targets    Targets
 	MonteCarlo MonteCarlo
 	Budget     Budget
@@ -219,6 +220,13 @@ type Targets struct {
 	MinCoverage       float64 // fraction of the sky seen by at least CoverageSensors sensors
 	MaxGap            Span    // longest sunlit interval without a valid sun vector
 	SurviveOneFailure bool    // targets must hold with any one sensor failed
+}
+
+// Validity says what counts as a trustworthy estimate: FalseSunBoundDeg is
+// the error beyond which a valid estimate (or two-axis reading) in
+// sunlight counts as a false sun.
+type Validity struct {
+	FalseSunBoundDeg float64
 }
 
 // MonteCarlo sets the number of error-model draws.

@@ -122,6 +122,8 @@ func (c *Config) Validate() error {
 		return errors.New("sim: no sensors")
 	case !(c.Step > 0) || !(c.Duration >= c.Step):
 		return fmt.Errorf("sim: step %g s and duration %g s: need 0 < step ≤ duration", c.Step, c.Duration)
+	case !(c.FalseSunBoundDeg >= 0 && c.FalseSunBoundDeg < 180):
+		return fmt.Errorf("sim: false-sun bound %g°: want [0°, 180°) (0 = default %g°)", c.FalseSunBoundDeg, DefaultFalseSunBoundDeg)
 	case len(c.Estimators) == 0:
 		return errors.New("sim: no estimator")
 	case c.Viewers != nil && len(c.Viewers) != c.Array.Len():

@@ -367,7 +367,7 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
 		NewPropagator: newProp, Sun: sun, Cylindrical: ShadowModel(s) == illum.Cylindrical, Law: law, LawForUnit: lawForUnit(s, att),
 		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
-		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1),
+		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), FalseSunBoundDeg: s.Validity.FalseSunBoundDeg,
 	}
 	return cfg, cfg.Validate()
 }

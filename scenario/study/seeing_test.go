@@ -3,6 +3,7 @@ package study
 import (
 	"context"
 	"math"
+	"os"
 	"testing"
 
 	"gonum.org/v1/gonum/num/quat"
@@ -71,5 +72,45 @@ func TestDawnDuskSeeingIsRobustToRounding(t *testing.T) {
 		if ss.InViewFraction != 0 {
 			t.Errorf("%s: edge-on to the sun, in view %.4f of sunlit time", ss.Name, ss.InViewFraction)
 		}
+	}
+}
+
+// validity.false_sun_bound_deg reaches the engine: in the dawn-dusk example
+// least squares, fed by albedo on the sensors away from the sun, is valid
+// far from the sun; a bound of 179° counts none of it.
+func TestFalseSunBoundKey(t *testing.T) {
+	share := func(bound string) float64 {
+		text, err := os.ReadFile("../../examples/dawn-dusk-12u.yaml")
+		if err != nil {
+			t.Fatal(err)
+		}
+		s, err := scenario.Parse(append(text, []byte("validity: {false_sun_bound_deg: "+bound+"}\n")...), "../../examples")
+		if err != nil {
+			t.Fatal(err)
+		}
+		cfg, err := Config(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cfg.Duration = 6 * 3600
+		res, err := sim.Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.FalseSunBoundDeg != s.Validity.FalseSunBoundDeg {
+			t.Errorf("bound %g° in the result, %g° in the file", res.FalseSunBoundDeg, s.Validity.FalseSunBoundDeg)
+		}
+		for _, e := range res.Nominal.Estimators {
+			if e.Name == "least-squares" {
+				return e.WrongFraction
+			}
+		}
+		t.Fatal("no least-squares estimator")
+		return 0
+	}
+	at20, at179 := share("20"), share("179")
+	t.Logf("least squares valid beyond 20°: %.4f of sunlit time; beyond 179°: %.4f", at20, at179)
+	if !(at20 > 0.05) || at179 != 0 {
+		t.Errorf("beyond-bound share %.4f at 20°, %.4f at 179°", at20, at179)
 	}
 }

@@ -91,6 +91,7 @@ var runInvariants = []invariant{
 	{"small-errors-continuous-quadrant", smallErrors("quadrant")},
 	{"ideal-least-squares-exact", checkIdealLeastSquares},
 	{"ideal-opposite-pairs-exact", checkIdealOppositePairs},
+	{"albedo-correction-removes-albedo-part", checkAlbedoCorrection},
 	{"seeing-is-signal", checkSeeingIsSignal},
 	{"never-behind-own-face", checkBehindFace},
 }

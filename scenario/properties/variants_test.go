@@ -389,3 +389,36 @@ func faceNormal(face string) (r3.Vec, bool) {
 	}
 	return r3.Vec{}, false
 }
+
+// Identical on-board and truth albedo models ⇒ the albedo-corrected
+// estimate removes the albedo part: with the correction model equal to the
+// truth, the cosine readings with albedo equal those without.
+func checkAlbedoCorrection(c *runCase) (f failures) {
+	if c.b.s.Albedo.Model == scenario.AlbedoNone {
+		return nil
+	}
+	g := c.b.file.Clone()
+	var keep []randscenario.Sensor
+	for _, s := range g.Body.Sensors {
+		if s.Kind == "cosine" {
+			keep = append(keep, s)
+		}
+	}
+	if len(keep) < 3 {
+		return nil
+	}
+	g.Body.Sensors, g.Estimators, g.MonteCarlo = keep, []string{"least-squares"}, nil
+	_, res := c.rerun(func(b *built) bool {
+		c.rebuild(b, g)
+		b.cfg.NewCorrection = b.cfg.NewAlbedo
+		return true
+	})
+	e := res.Nominal.Estimators[0]
+	if e.ValidFraction != e.ValidFractionNoAlbedo {
+		f.addf("corrected: valid %.6f with albedo, %.6f without", e.ValidFraction, e.ValidFractionNoAlbedo)
+	}
+	if e.AlbedoPart.N > 0 && e.AlbedoPart.MaxDeg > 1e-9 {
+		f.addf("corrected: albedo part up to %.3g° over %d samples (p95 %.3g°)", e.AlbedoPart.MaxDeg, e.AlbedoPart.N, e.AlbedoPart.P95Deg)
+	}
+	return f
+}

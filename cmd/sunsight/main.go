@@ -29,8 +29,9 @@ const exitHelp = `Exit status:
   0  success, and every target stated in the scenario met
   1  the run failed (including any error writing an output, standard output too)
   2  bad input (flag, argument or scenario file; the message names the fix)
-  3  the run completed but a target was not met (run: a target; layout: no
-     subset meets the targets; budget: the p95 misses the tolerance target)`
+  3  the run completed but a target was not met (run: a target; sweep, merge:
+     any case; layout: no subset meets the targets; budget: the p95 misses
+     the tolerance target)`
 
 // command is one subcommand: its name, a one-line summary, the shape of its
 // arguments and the function that runs it with the remaining arguments.

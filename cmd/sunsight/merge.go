@@ -7,7 +7,8 @@ import (
 func init() {
 	register(command{name: "merge", summary: "join the output folders of a sharded sweep into one sweep.csv", args: "[flags] DIR...",
 		about: `Joins the output folders of a sweep run in shards (sunsight sweep --shard K/N) into one
-sweep.csv. The first folder receives every case file and the joined table.`,
+sweep.csv. The first folder receives every case file and the joined table. Every case
+file's checksum is verified; the exit status is 3 when any case misses a target.`,
 		examples: []string{"sunsight merge out-1 out-2 out-3 out-4"},
 		run:      runMerge})
 }
@@ -22,5 +23,10 @@ func runMerge(args []string, stdout, stderr io.Writer) error {
 	if len(pos) == 0 {
 		return usagef("want the shard folders; usage: sunsight merge DIR... (the first one receives every case and sweep.csv)")
 	}
+	release, err := lockOutput(pos[0])
+	if err != nil {
+		return err
+	}
+	defer release()
 	return writeSweepOutputs(pos, *noPlots, pos[0], stdout)
 }

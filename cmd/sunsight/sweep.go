@@ -17,7 +17,8 @@ func init() {
 		args: "FILE --vary KEY=VALUES [--vary ...] --out DIR [flags]",
 		about: `Runs the scenario FILE (- reads standard input) once per combination of the --vary
 values and writes one case file per case, sweep.csv and figures into --out. Re-running the
-same command into the same folder resumes.`,
+same command into the same folder resumes; a second sweep on a folder in use is refused.
+The exit status is 3 when any case misses a target (for a sharded sweep, at the merge).`,
 		examples: []string{
 			"sunsight sweep examples/nadir-6u-sso.yaml --vary orbit.altitude_km=400:700:100 --vary orbit.ltan=06:00,10:30 --out sweep-out",
 			"sunsight sweep scen.yaml --vary orbit.altitude_km=300:900:25 --shard 2/8 --out out-2",
@@ -82,6 +83,13 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	defer stopProf()
 	ctx, stop := interruptContext()
 	defer stop()
+	// One sweep at a time writes a folder: a second one on the same --out
+	// is refused at once instead of racing on plan.json and the case files.
+	release, err := lockOutput(*out)
+	if err != nil {
+		return err
+	}
+	defer release()
 	var done atomic.Int32
 	total := len(plan.Cases)
 	sum, err := sweep.Execute(ctx, plan, *out, sweep.Options{Workers: *workers, ShardK: k, ShardN: n, Done: func(int) {
@@ -108,13 +116,25 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 	}
 	caption := plots.Caption{Scenario: source + " swept over " + strings.Join(m.Keys, ", "),
 		Assumptions: "analysis aid; flight hardware needs qualified verification"}
-	if err := sweep.WriteOutputs(dirs, noPlots, caption); err != nil {
+	cases, err := sweep.WriteOutputs(dirs, noPlots, caption)
+	if err != nil {
 		return err
 	}
 	fmt.Fprintf(stdout, "sweep: wrote %s\n", filepath.Join(dirs[0], "sweep.csv"))
 	if !noPlots {
 		fmt.Fprintf(stdout, "sweep: figures in %s\n", filepath.Join(dirs[0], "plots"))
 	}
+	failed := 0
+	for _, cf := range cases {
+		if !cf.Met() {
+			failed++
+		}
+	}
+	if failed > 0 {
+		fmt.Fprintf(stdout, "verdict: %d of %d cases miss a target (see the target_*_pass columns of sweep.csv)\n", failed, len(cases))
+		return targetsFailed{fmt.Sprintf("%d of %d cases miss a target", failed, len(cases))}
+	}
+	fmt.Fprintf(stdout, "verdict: every target met in all %d cases\n", len(cases))
 	return nil
 }
 

@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 )
 
 const sweepCLIScenario = `name: cli sweep
@@ -53,5 +55,135 @@ func TestSweepCommandAndShardMerge(t *testing.T) {
 	}
 	if _, err := os.Stat(filepath.Join(dir, "bad")); err == nil {
 		t.Error("a rejected sweep created its output folder")
+	}
+}
+
+// writeSweepScenario writes the sweep test scenario with a gap target (the
+// nadir three-face layout of 30 min has one 1800 s gap: 1h is met, 1m not).
+func writeSweepScenario(t *testing.T) string {
+	t.Helper()
+	file := filepath.Join(t.TempDir(), "s.yaml")
+	if err := os.WriteFile(file, []byte(sweepCLIScenario+"targets: {max_gap: 1h}\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return file
+}
+
+// sweep exits 3 when any case misses a target, 0 when all meet them; the
+// table has the scenario hash and one pass column per target.
+func TestSweepExitStatusAndPassColumns(t *testing.T) {
+	file := writeSweepScenario(t)
+	for _, c := range []struct {
+		vary string
+		code int
+		col  string
+	}{
+		{"targets.max_gap=1h,2h", exitOK, "true,true"},
+		{"targets.max_gap=1h,1m", exitTargetFailed, "false,false"},
+	} {
+		out := filepath.Join(t.TempDir(), "o")
+		var so, se bytes.Buffer
+		code := runMain([]string{"sweep", file, "--vary", c.vary, "--out", out, "--no-plots"}, &so, &se)
+		if code != c.code {
+			t.Errorf("%s: exit %d, want %d (%s)", c.vary, code, c.code, se.String())
+		}
+		b, _ := os.ReadFile(filepath.Join(out, "sweep.csv"))
+		lines := strings.Split(strings.TrimSpace(string(b)), "\n")
+		if !strings.HasPrefix(lines[0], "case,seed,scenario_sha256,") || !strings.HasSuffix(lines[0], ",targets_met,target_gap_pass") {
+			t.Errorf("header %s", lines[0])
+		}
+		if last := lines[len(lines)-1]; !strings.HasSuffix(last, ","+c.col) {
+			t.Errorf("%s: last row %s, want it to end with %s", c.vary, last, c.col)
+		}
+	}
+}
+
+// A second sweep on a folder in use is refused at once (exit 1) and leaves
+// the folder to the first.
+func TestSweepLockRefusesSecond(t *testing.T) {
+	file := writeSweepScenario(t)
+	out := filepath.Join(t.TempDir(), "o")
+	release, err := atomicfile.Lock(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var so, se bytes.Buffer
+	code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", out, "--no-plots"}, &so, &se)
+	if code != exitFailure || !strings.Contains(se.String(), "in use by another sunsight process") {
+		t.Errorf("locked folder: exit %d, %s", code, se.String())
+	}
+	if _, err := os.Stat(filepath.Join(out, "plan.json")); err == nil {
+		t.Error("the refused sweep wrote plan.json")
+	}
+	release()
+	if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", out, "--no-plots"}, &so, &se); code != 0 {
+		t.Errorf("after release: exit %d, %s", code, se.String())
+	}
+}
+
+// Two sweeps started together on one folder: each either runs (the later one
+// then resumes) or is refused as "in use"; the folder ends as one sweep's,
+// its table byte-identical to a sweep run alone.
+func TestConcurrentSweepsOneFolder(t *testing.T) {
+	file := writeSweepScenario(t)
+	args := func(out string) []string {
+		return []string{"sweep", file, "--vary", "orbit.altitude_km=400:700:100", "--out", out, "--no-plots", "--workers", "1"}
+	}
+	alone := filepath.Join(t.TempDir(), "alone")
+	var so, se bytes.Buffer
+	if code := runMain(args(alone), &so, &se); code != 0 {
+		t.Fatalf("alone: %d %s", code, se.String())
+	}
+	want, _ := os.ReadFile(filepath.Join(alone, "sweep.csv"))
+	for trial := range 5 {
+		out := filepath.Join(t.TempDir(), "o")
+		codes := make([]int, 2)
+		errs := make([]string, 2)
+		done := make(chan int)
+		for k := range 2 {
+			go func() {
+				var so, se bytes.Buffer
+				codes[k] = runMain(args(out), &so, &se)
+				errs[k] = se.String()
+				done <- k
+			}()
+		}
+		<-done
+		<-done
+		ran := 0
+		for k := range 2 {
+			switch {
+			case codes[k] == 0:
+				ran++
+			case codes[k] == exitFailure && strings.Contains(errs[k], "in use"):
+			default:
+				t.Errorf("trial %d sweep %d: exit %d, %s", trial, k, codes[k], errs[k])
+			}
+		}
+		got, _ := os.ReadFile(filepath.Join(out, "sweep.csv"))
+		if ran == 0 || !bytes.Equal(got, want) {
+			t.Errorf("trial %d: %d ran; table equal to the lone run: %v", trial, ran, bytes.Equal(got, want))
+		}
+	}
+}
+
+// merge verifies every case file's checksum: a hand-edited one is refused.
+func TestMergeRefusesEditedCase(t *testing.T) {
+	file := writeSweepScenario(t)
+	out := filepath.Join(t.TempDir(), "o")
+	var so, se bytes.Buffer
+	if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", out, "--no-plots"}, &so, &se); code != 0 {
+		t.Fatalf("%d %s", code, se.String())
+	}
+	p := filepath.Join(out, "cases", "00001.json")
+	b, _ := os.ReadFile(p)
+	edited := strings.Replace(string(b), `"pass": true`, `"pass": false`, 1)
+	if edited == string(b) {
+		t.Fatal("no pass field to edit")
+	}
+	os.WriteFile(p, []byte(edited), 0o644)
+	se.Reset()
+	if code := runMain([]string{"merge", "--no-plots", out}, &so, &se); code == 0 || !strings.Contains(se.String(), "checksum") {
+		t.Errorf("edited case: exit %d, %s", code, se.String())
 	}
 }

@@ -127,3 +127,12 @@ func writeManifest(dir string) error {
 	}
 	return nil
 }
+
+// lockOutput holds the folder dir for this process (see atomicfile.Lock).
+func lockOutput(dir string) (release func(), err error) {
+	release, err = atomicfile.Lock(dir)
+	if errors.Is(err, atomicfile.ErrLocked) {
+		return nil, fmt.Errorf("%s is in use by another sunsight process; wait for it to finish or give another folder", dir)
+	}
+	return release, err
+}

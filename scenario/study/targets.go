@@ -35,7 +35,62 @@ type TargetCheck struct {
 	Value    string
 	Pass     bool
 	Margin   float64
+	// The same in numbers: Got Op Limit (Op ">=" or "<="), both in Unit
+	// ("fraction", "deg" or "s"); Got is NaN when the figure is undefined.
+	Op         string
+	Limit, Got float64
+	Unit       string
 }
+
+// Units of the numeric target records.
+const (
+	UnitFraction = "fraction"
+	UnitDeg      = "deg"
+	UnitSeconds  = "s"
+)
+
+// TargetRecord is a judged target as every machine-readable output writes
+// it (run JSON, sweep case files): numbers, not display strings. Value and
+// Margin are null when the figure is undefined; Margin is in Unit, positive
+// when the target is met with room.
+type TargetRecord struct {
+	Key      string   `json:"key"`
+	Label    string   `json:"label"`
+	Op       string   `json:"op"`
+	Required float64  `json:"required"`
+	Value    *float64 `json:"value"`
+	Unit     string   `json:"unit"`
+	Pass     bool     `json:"pass"`
+	Margin   *float64 `json:"margin"`
+}
+
+// Record returns the check as a TargetRecord.
+func (c TargetCheck) Record() TargetRecord {
+	r := TargetRecord{Key: c.Key, Label: c.Label, Op: c.Op, Required: c.Limit, Unit: c.Unit, Pass: c.Pass}
+	if !math.IsNaN(c.Got) && !math.IsInf(c.Got, 0) {
+		v, m := c.Got, c.Got-c.Limit
+		if c.Op == OpAtMost {
+			m = c.Limit - c.Got
+		}
+		r.Value, r.Margin = &v, &m
+	}
+	return r
+}
+
+// Records returns the checks as records (an empty list, never nil).
+func Records(checks []TargetCheck) []TargetRecord {
+	out := make([]TargetRecord, 0, len(checks))
+	for _, c := range checks {
+		out = append(out, c.Record())
+	}
+	return out
+}
+
+// Comparison operators of the target records.
+const (
+	OpAtLeast = ">="
+	OpAtMost  = "<="
+)
 
 // CheckTargets judges the run's headline figures and the layout's sky
 // coverage against the scenario's targets. This is the one place targets are
@@ -54,7 +109,8 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 	if t.MinValidFraction > 0 {
 		out = append(out, TargetCheck{Key: TargetValid, Label: "sunlit time with a valid sun vector (" + h.Estimator + ")",
 			Required: "≥ " + pct(t.MinValidFraction), Value: pct(h.ValidFraction), Pass: h.ValidFraction >= t.MinValidFraction,
-			Margin: h.ValidFraction - t.MinValidFraction})
+			Margin: h.ValidFraction - t.MinValidFraction,
+			Op:     OpAtLeast, Limit: t.MinValidFraction, Got: h.ValidFraction, Unit: UnitFraction})
 	}
 	if t.MaxErrorP95Rad > 0 {
 		p95 := h.P95NoAlbedoDeg
@@ -67,18 +123,21 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 		k := min(t.CoverageSensors, sky.MaxLevel)
 		out = append(out, TargetCheck{Key: TargetCoverage, Label: fmt.Sprintf("sky seen by ≥ %d sensors", k),
 			Required: "≥ " + pct(t.MinCoverage), Value: pct(cov.AtLeast[k]), Pass: cov.AtLeast[k] >= t.MinCoverage,
-			Margin: cov.AtLeast[k] - t.MinCoverage})
+			Margin: cov.AtLeast[k] - t.MinCoverage,
+			Op:     OpAtLeast, Limit: t.MinCoverage, Got: cov.AtLeast[k], Unit: UnitFraction})
 		if t.SurviveOneFailure {
 			out = append(out, TargetCheck{Key: TargetCoverageOneFailed, Label: fmt.Sprintf("sky seen by ≥ %d sensors, any one failed", k),
 				Required: "≥ " + pct(t.MinCoverage), Value: pct(cov.WorstOneFailed[k]), Pass: cov.WorstOneFailed[k] >= t.MinCoverage,
-				Margin: cov.WorstOneFailed[k] - t.MinCoverage})
+				Margin: cov.WorstOneFailed[k] - t.MinCoverage,
+				Op:     OpAtLeast, Limit: t.MinCoverage, Got: cov.WorstOneFailed[k], Unit: UnitFraction})
 		}
 	}
 	if t.MaxGap > 0 {
 		lim := t.MaxGap.Seconds()
 		out = append(out, TargetCheck{Key: TargetGap, Label: "longest sunlit gap without a valid sun vector",
 			Required: "≤ " + spanS(lim), Value: spanS(h.LongestGapS), Pass: h.LongestGapS <= lim,
-			Margin: (lim - h.LongestGapS) / lim})
+			Margin: (lim - h.LongestGapS) / lim,
+			Op:     OpAtMost, Limit: lim, Got: h.LongestGapS, Unit: UnitSeconds})
 	}
 	return out
 }
@@ -87,7 +146,7 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 func checkErrorP95(s *scenario.Scenario, label string, p95 float64) TargetCheck {
 	lim := s.Targets.MaxErrorP95Rad * 180 / math.Pi
 	c := TargetCheck{Key: TargetErrorP95, Label: label, Required: fmt.Sprintf("≤ %.2f°", lim), Value: Missing,
-		Pass: p95 <= lim, Margin: math.Inf(-1)}
+		Pass: p95 <= lim, Margin: math.Inf(-1), Op: OpAtMost, Limit: lim, Got: p95, Unit: UnitDeg}
 	if !math.IsNaN(p95) {
 		c.Value = fmt.Sprintf("%.2f°", p95)
 		c.Margin = (lim - p95) / lim

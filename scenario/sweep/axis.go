@@ -13,6 +13,10 @@ type Axis struct {
 	Values []string
 }
 
+// MaxCases bounds the cases of one sweep, checked before any case is built
+// (each case is a whole scenario in memory and a run).
+const MaxCases = 20000
+
 // maxRangeValues bounds a range so a typo cannot make millions of cases.
 const maxRangeValues = 10000
 
@@ -124,8 +128,8 @@ func Cases(axes []Axis, zip bool) ([][]string, error) {
 	total := 1
 	for _, a := range axes {
 		total *= len(a.Values)
-		if total > 1_000_000 {
-			return nil, fmt.Errorf("sweep: more than 1 000 000 cases; vary fewer values or split the sweep")
+		if total > MaxCases {
+			return nil, fmt.Errorf("sweep: more than %d cases (the limit of one sweep); vary fewer values, or split the sweep into several runs with their own --out", MaxCases)
 		}
 	}
 	out := make([][]string, total)

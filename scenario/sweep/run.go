@@ -1,8 +1,11 @@
 package sweep
 
 import (
+	"bytes"
 	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -14,6 +17,7 @@ import (
 	"slices"
 	"sync"
 
+	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -21,21 +25,39 @@ import (
 
 // RunFunc simulates one case with the given seed. RunCase is the real one;
 // tests may inject a cheaper function.
-type RunFunc func(ctx context.Context, s *scenario.Scenario, seed uint64) (sim.Headline, error)
+type RunFunc func(ctx context.Context, s *scenario.Scenario, seed uint64) (Outcome, error)
+
+// Outcome is what a case run gives: its headline and its targets judged.
+type Outcome struct {
+	Headline sim.Headline
+	Targets  []study.TargetCheck
+}
 
 // RunCase builds the case's simulation with one worker and the derived seed
-// and returns its headline.
-func RunCase(ctx context.Context, s *scenario.Scenario, seed uint64) (sim.Headline, error) {
+// and returns its headline and its targets, judged with the layout's sky
+// coverage as run does.
+func RunCase(ctx context.Context, s *scenario.Scenario, seed uint64) (Outcome, error) {
 	cfg, err := study.Config(s)
 	if err != nil {
-		return sim.Headline{}, err
+		return Outcome{}, err
 	}
 	cfg.Workers, cfg.Seed, cfg.SeriesStride, cfg.SunTrackPoints = 1, seed, 0, 0
 	res, err := sim.Run(ctx, cfg)
 	if err != nil {
-		return sim.Headline{}, err
+		return Outcome{}, err
 	}
-	return res.Headline(), nil
+	var cov sky.Result
+	if s.Targets.MinCoverage > 0 && s.Targets.CoverageSensors > 0 {
+		lat, err := sky.Fibonacci(sky.DefaultPoints)
+		if err == nil {
+			cov, err = sky.Coverage(cfg.Viewers, lat)
+		}
+		if err != nil {
+			return Outcome{}, err
+		}
+	}
+	h := res.Headline()
+	return Outcome{Headline: h, Targets: study.CheckTargets(s, h, cov)}, nil
 }
 
 // Options controls Execute.
@@ -59,13 +81,38 @@ type Manifest struct {
 	BaseSeeds []int64    `json:"case_scenario_seed"`
 }
 
-// CaseFile is DIR/cases/NNNNN.json.
+// CaseFile is DIR/cases/NNNNN.json. Checksum is the SHA-256 of the file's
+// JSON with the checksum left empty: a case file edited by hand or damaged
+// is refused on resume and merge.
 type CaseFile struct {
-	Index    int            `json:"index"`
-	Inputs   []Input        `json:"inputs"`
-	SHA256   string         `json:"scenario_sha256"`
-	Seed     uint64         `json:"seed"`
-	Headline map[string]any `json:"headline"` // NaN stored as null
+	Index    int                  `json:"index"`
+	Inputs   []Input              `json:"inputs"`
+	SHA256   string               `json:"scenario_sha256"`
+	Seed     uint64               `json:"seed,string"`
+	Headline map[string]any       `json:"headline"` // NaN stored as null
+	Targets  []study.TargetRecord `json:"targets"`
+	Checksum string               `json:"checksum_sha256"`
+}
+
+// Met reports whether every target of the case is met.
+func (cf *CaseFile) Met() bool {
+	for _, t := range cf.Targets {
+		if !t.Pass {
+			return false
+		}
+	}
+	return true
+}
+
+// sum returns the checksum of the case file's content.
+func (cf CaseFile) sum() (string, error) {
+	cf.Checksum = ""
+	b, err := marshal(cf)
+	if err != nil {
+		return "", err
+	}
+	s := sha256.Sum256(b)
+	return hex.EncodeToString(s[:]), nil
 }
 
 // Input is one varied key and its value.
@@ -152,14 +199,18 @@ func Execute(ctx context.Context, p *Plan, dir string, opt Options) (Summary, er
 			defer wg.Done()
 			for i := range jobs {
 				seed := CaseSeed(p.scen[i].Seed, i)
-				h, err := run(ctx, p.scen[i], seed)
+				oc, err := run(ctx, p.scen[i], seed)
 				if err != nil {
 					if ctx.Err() == nil {
 						fail(fmt.Errorf("sweep: case %d (%s): %w", i, describeCase(p.Axes, p.Cases[i]), err))
 					}
 					continue
 				}
-				if err := writeJSON(caseFile(dir, i), p.caseFile(i, seed, h)); err != nil {
+				cf, err := p.caseFile(i, seed, oc)
+				if err == nil {
+					err = writeJSON(caseFile(dir, i), cf)
+				}
+				if err != nil {
 					fail(err)
 					continue
 				}
@@ -227,8 +278,9 @@ func (p *Plan) matches(cf *CaseFile) error {
 	return nil
 }
 
-func (p *Plan) caseFile(i int, seed uint64, h sim.Headline) CaseFile {
-	cf := CaseFile{Index: i, SHA256: p.sum[i], Seed: seed, Headline: map[string]any{}}
+func (p *Plan) caseFile(i int, seed uint64, oc Outcome) (CaseFile, error) {
+	h := oc.Headline
+	cf := CaseFile{Index: i, SHA256: p.sum[i], Seed: seed, Headline: map[string]any{}, Targets: study.Records(oc.Targets)}
 	for k, a := range p.Axes {
 		cf.Inputs = append(cf.Inputs, Input{a.Key, p.Cases[i][k]})
 	}
@@ -242,7 +294,9 @@ func (p *Plan) caseFile(i int, seed uint64, h sim.Headline) CaseFile {
 			cf.Headline[c.name] = c.num
 		}
 	}
-	return cf
+	sum, err := cf.sum()
+	cf.Checksum = sum
+	return cf, err
 }
 
 func caseFile(dir string, i int) string {
@@ -264,6 +318,9 @@ func ReadCase(dir string, i int) (*CaseFile, error) {
 	}
 	if cf.Index != i {
 		return nil, fmt.Errorf("sweep: %s says it is case %d; delete it to run the case again", caseFile(dir, i), cf.Index)
+	}
+	if sum, err := cf.sum(); err != nil || sum != cf.Checksum {
+		return nil, fmt.Errorf("sweep: %s fails its checksum (edited or damaged); delete it to run the case again", caseFile(dir, i))
 	}
 	return &cf, nil
 }
@@ -287,11 +344,24 @@ func ReadManifest(dir string) (Manifest, error) {
 // writeJSON writes v atomically: a temporary file in the same folder, then
 // a rename, so a reader never sees a partial file.
 func writeJSON(path string, v any) error {
-	data, err := json.MarshalIndent(v, "", "  ")
+	data, err := marshal(v)
 	if err != nil {
 		return fmt.Errorf("sweep: %w", err)
 	}
-	return atomicfile.Write(path, append(data, '\n'))
+	return atomicfile.Write(path, data)
+}
+
+// marshal is the one JSON form of the sweep's files: indented, "<" and ">"
+// as themselves, a final newline.
+func marshal(v any) ([]byte, error) {
+	var b bytes.Buffer
+	enc := json.NewEncoder(&b)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(v); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
 }
 
 // column is one headline figure.

@@ -10,9 +10,11 @@ import (
 	"sync/atomic"
 	"testing"
 
+	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/plots"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
 // base is a small, fast scenario: tumbling (so the seed matters), no albedo.
@@ -139,14 +141,15 @@ func TestBadKeysAreNamed(t *testing.T) {
 
 // fake is a cheap deterministic case run: the headline echoes the inputs and
 // the seed.
-func fake(_ context.Context, s *scenario.Scenario, seed uint64) (sim.Headline, error) {
-	return sim.Headline{SunlitFraction: s.Orbit.AltitudeKm / 1000, Seen3: float64(seed%1000) / 1000,
-		Estimator: "fake", P95AlbedoDeg: math.NaN(), Eclipses: int(s.Body.Sensors[0].HalfAngleRad * 100)}, nil
+func fake(_ context.Context, s *scenario.Scenario, seed uint64) (Outcome, error) {
+	h := sim.Headline{SunlitFraction: s.Orbit.AltitudeKm / 1000, Seen3: float64(seed%1000) / 1000,
+		Estimator: "fake", P95AlbedoDeg: math.NaN(), Eclipses: int(s.Body.Sensors[0].HalfAngleRad * 100)}
+	return Outcome{Headline: h, Targets: study.CheckTargets(s, h, sky.Result{})}, nil
 }
 
 func csvOf(t *testing.T, dirs ...string) []byte {
 	t.Helper()
-	if err := WriteOutputs(dirs, true, scenarioCaption()); err != nil {
+	if _, err := WriteOutputs(dirs, true, scenarioCaption()); err != nil {
 		t.Fatal(err)
 	}
 	b, err := os.ReadFile(filepath.Join(dirs[0], "sweep.csv"))
@@ -175,7 +178,7 @@ func TestResumeAfterCancelIsByteIdentical(t *testing.T) {
 	if err == nil {
 		t.Fatal("cancelled sweep returned no error")
 	}
-	if err := WriteOutputs([]string{dir}, true, scenarioCaption()); err == nil || !strings.Contains(err.Error(), "missing") {
+	if _, err := WriteOutputs([]string{dir}, true, scenarioCaption()); err == nil || !strings.Contains(err.Error(), "missing") {
 		t.Errorf("table of a partial sweep: %v", err)
 	}
 	if _, err := os.Stat(filepath.Join(dir, "sweep.csv")); err == nil {

@@ -77,14 +77,32 @@ func Gather(dirs []string) (Manifest, []*CaseFile, error) {
 	return m, cases, nil
 }
 
-// Table writes the sweep table: one row per case in case order, the varied
-// inputs then the headline columns (names carry units), floats with six
-// decimals, counts as whole numbers, NaN where a figure is undefined.
+// Table writes the sweep table: one row per case in case order: the case,
+// its seed and the SHA-256 of its resolved scenario, the varied inputs, the
+// headline columns (names carry units), then targets_met and one
+// target_<key>_pass column per target stated in any case (true, false, or
+// empty where that case states no such target). Floats have six decimals,
+// counts are whole numbers, an undefined figure is an empty cell.
 func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 	cw := csv.NewWriter(w)
 	names := HeadlineNames()
-	head := append([]string{"case", "seed"}, m.Keys...)
-	if err := cw.Write(append(head, names...)); err != nil {
+	var keys []string
+	seen := map[string]bool{}
+	for _, cf := range cases {
+		for _, t := range cf.Targets {
+			if !seen[t.Key] {
+				seen[t.Key] = true
+				keys = append(keys, t.Key)
+			}
+		}
+	}
+	head := append([]string{"case", "seed", "scenario_sha256"}, m.Keys...)
+	head = append(head, names...)
+	head = append(head, "targets_met")
+	for _, k := range keys {
+		head = append(head, TargetPassColumn(k))
+	}
+	if err := cw.Write(head); err != nil {
 		return err
 	}
 	isInt := map[string]bool{}
@@ -92,7 +110,7 @@ func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 		isInt[c.name] = c.isInt
 	}
 	for _, cf := range cases {
-		row := []string{strconv.Itoa(cf.Index), strconv.FormatUint(cf.Seed, 10)}
+		row := []string{strconv.Itoa(cf.Index), strconv.FormatUint(cf.Seed, 10), cf.SHA256}
 		for _, in := range cf.Inputs {
 			row = append(row, in.Value)
 		}
@@ -103,6 +121,16 @@ func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 			}
 			row = append(row, cell(v))
 		}
+		row = append(row, strconv.FormatBool(cf.Met()))
+		for _, k := range keys {
+			c := ""
+			for _, t := range cf.Targets {
+				if t.Key == k {
+					c = strconv.FormatBool(t.Pass)
+				}
+			}
+			row = append(row, c)
+		}
 		if err := cw.Write(row); err != nil {
 			return err
 		}
@@ -111,10 +139,15 @@ func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 	return cw.Error()
 }
 
+// TargetPassColumn is the sweep.csv column of one target's verdict.
+func TargetPassColumn(key string) string {
+	return "target_" + strings.ReplaceAll(key, "-", "_") + "_pass"
+}
+
 func cell(v any) string {
 	switch x := v.(type) {
 	case nil:
-		return "NaN"
+		return "" // undefined: an empty cell, as in every CSV of sunsight
 	case string:
 		return x
 	case float64:
@@ -134,22 +167,26 @@ func (cf *CaseFile) Value(name string) float64 {
 // WriteOutputs gathers dirs, writes dirs[0]/sweep.csv and, unless noPlots,
 // the sweep curves in dirs[0]/plots (PNG and SVG). It writes nothing when a
 // case is missing.
-func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) error {
+func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) ([]*CaseFile, error) {
 	m, cases, err := Gather(dirs)
 	if err != nil {
-		return err
+		return nil, err
 	}
 	var buf bytes.Buffer
 	if err := Table(&buf, m, cases); err != nil {
-		return fmt.Errorf("sweep: table: %w", err)
+		return nil, fmt.Errorf("sweep: table: %w", err)
 	}
 	if err := atomicfile.Write(filepath.Join(dirs[0], "sweep.csv"), buf.Bytes()); err != nil {
-		return err
+		return nil, err
 	}
 	if noPlots {
-		return nil
+		return cases, nil
 	}
-	return writePlots(filepath.Join(dirs[0], "plots"), m, cases, caption)
+	// The figures are drawn into a fresh folder swapped in whole.
+	err = atomicfile.ReplaceDir(filepath.Join(dirs[0], "plots"), func(dir string) error {
+		return writePlots(dir, m, cases, caption)
+	})
+	return cases, err
 }
 
 // curveFigures are the figures drawn for every sweep: headline name, title,
@@ -243,9 +280,6 @@ func Curves(m Manifest, cases []*CaseFile, name string) (x []float64, xLabel str
 }
 
 func writePlots(dir string, m Manifest, cases []*CaseFile, caption plots.Caption) error {
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return fmt.Errorf("sweep: plots folder: %w", err)
-	}
 	for _, f := range curveFigures {
 		x, xLabel, lines := Curves(m, cases, f[0])
 		chart, err := plots.Sweep{Title: f[1], XLabel: xLabel, X: x, Lines: lines, YLabel: f[2]}.Plot(caption)

@@ -14,6 +14,7 @@ import (
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
 
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 )
@@ -53,6 +54,18 @@ type Chart struct {
 	// drawn records the data handed to each plotter, for tests to read back.
 	drawn []drawnSeries
 	sky   *skyPlotter
+	// DPI is the resolution of PNG output; 0 means DefaultDPI.
+	DPI int
+}
+
+// DefaultDPI is the PNG resolution: twice the 96 dpi of a screen.
+const DefaultDPI = 192
+
+func (c *Chart) dpi() int {
+	if c.DPI > 0 {
+		return c.DPI
+	}
+	return DefaultDPI
 }
 
 // drawnSeries is the data of one plotter as drawn (after unit scaling).
@@ -94,6 +107,13 @@ var (
 var seriesColours = []color.Color{colBlue, colVermil, colGreen, colOrange, colPurple, colSky, colBlack}
 
 func seriesColour(i int) color.Color { return seriesColours[i%len(seriesColours)] }
+
+// One font family for every figure and the report page: Liberation Sans
+// (metric-compatible with Arial), named in SVG with fallbacks.
+func init() { plot.DefaultFont = font.Font{Typeface: "Liberation", Variant: "Sans"} }
+
+// svgFontFamily is the family vgsvg writes and the same with fallbacks.
+var svgFontFamily = [2][]byte{[]byte("font-family:Liberation Sans;"), []byte("font-family:'Liberation Sans',Arial,Helvetica,sans-serif;")}
 
 // newPlot returns a plot with the project's text sizes and a light grid.
 func newPlot(title, xLabel, yLabel string) *plot.Plot {
@@ -220,16 +240,26 @@ func (c *Chart) Encode(format string) ([]byte, error) {
 		return nil, fmt.Errorf("plots: format %q is not supported; use one of %s", format, strings.Join(Formats, ", "))
 	}
 	w, h := c.size()
-	cv, err := draw.NewFormattedCanvas(w, h, format)
-	if err != nil {
-		return nil, fmt.Errorf("plots: %w", err)
+	var cv vg.CanvasWriterTo
+	if format == "png" {
+		// Twice screen resolution (192 dpi), sharp on slides.
+		cv = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(c.dpi()))}
+	} else {
+		var err error
+		if cv, err = draw.NewFormattedCanvas(w, h, format); err != nil {
+			return nil, fmt.Errorf("plots: %w", err)
+		}
 	}
 	c.Draw(draw.New(cv))
 	var buf bytes.Buffer
 	if _, err := cv.WriteTo(&buf); err != nil {
 		return nil, fmt.Errorf("plots: encoding %s: %w", format, err)
 	}
-	return buf.Bytes(), nil
+	b := buf.Bytes()
+	if format == "svg" {
+		b = bytes.ReplaceAll(b, svgFontFamily[0], svgFontFamily[1])
+	}
+	return b, nil
 }
 
 // SVG renders the chart as SVG, ready for Figure.SVG in a Report.

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"flag"
 	"fmt"
+	"image/color"
 	"math"
 	"os"
 	"path/filepath"
@@ -112,28 +113,42 @@ func wantText(t *testing.T, svg string, texts ...string) {
 
 func TestSkyMapFigure(t *testing.T) {
 	f := SkyMap{
-		AzDeg:      []float64{-135, -45, 45, 135},
-		ElDeg:      []float64{-45, 45},
-		Counts:     [][]int{{0, 1, 2, 3}, {4, 7, 1, 0}},
-		Boresights: []Marker{{"sensor A", 10, 20}},
-		SunTrack:   []Point{{0, 0}, {370, 10}},
+		AzDeg:          []float64{-135, -45, 45, 135},
+		ElDeg:          []float64{-45, 45},
+		Counts:         [][]int{{0, 1, 2, 3}, {4, 7, 1, 0}},
+		Boresights:     []Marker{{"sensor A", 10, 20}},
+		SunTrack:       []Point{{0, 0}, {370, 10}},
+		Nadir:          []Point{{0, 90}, {30, 89.5}},
+		EarthRadiusDeg: 67,
+		Obstructions:   []Marker{{"solar wing", 90, -30}},
 	}
 	c, err := f.Plot(Caption{Scenario: "test scenario"})
 	if err != nil {
 		t.Fatal(err)
 	}
 	svg := mustSVG(t, c)
-	wantText(t, svg, "0 sensors", "1 sensor", "2 sensors", "3 sensors", "4+ sensors", "sun track (sunlit)",
-		"sensor boresight", "sensor A", "Scenario: test scenario", "-150°", "+30°")
-	// Read back: classes in row-major order, 7 clamped to 4+; the two
-	// touching 4+ cells of the second row are merged into one polygon.
-	wantClass := []int{0, 1, 2, 3, 4, 1, 0}
-	if len(c.sky.Cells) != len(wantClass) {
-		t.Fatalf("%d cells drawn, want %d", len(c.sky.Cells), len(wantClass))
+	wantText(t, svg, "0 sensors (blind)", "1 sensor", "2 sensors", "3 sensors", "4+ sensors", "sun at start", "sun track, arrow: time",
+		"sensor boresight", "sensor A", "Scenario: test scenario", "-120°", "+30°", "+X", "−Y", "+Z", "−Z",
+		"nadir, Earth 67° radius", "solar wing", "obstruction")
+	if !strings.Contains(svg, "<image") || strings.Count(svg, "<path") > 400 {
+		t.Errorf("sky fill not one raster image (%d paths)", strings.Count(svg, "<path"))
 	}
-	for i, cell := range c.sky.Cells {
-		if cell.Class != wantClass[i] {
-			t.Errorf("cell %d class %d, want %d", i, cell.Class, wantClass[i])
+	// Read back the raster: the pixel at each cell centre has its class
+	// colour (7 clamped to 4+; hatch stripes aside).
+	img := c.sky.Fill
+	for i, el := range f.ElDeg {
+		for j, az := range f.AzDeg {
+			x, y := Hammer(az*math.Pi/180, el*math.Pi/180)
+			px := int((x/(2*math.Sqrt2) + 1) / 2 * float64(img.Bounds().Dx()))
+			py := int((1 - y/math.Sqrt2) / 2 * float64(img.Bounds().Dy()))
+			want := coverageClass(f.Counts[i][j])
+			var got color.Color = img.At(px, py)
+			if want == 0 && got == color.Color(blindHatch) {
+				continue
+			}
+			if got != color.Color(coverageColours[want]) {
+				t.Errorf("cell (%g, %g): pixel %v, want class %d colour %v", el, az, got, want, coverageColours[want])
+			}
 		}
 	}
 	// 370° wraps to 10°.
@@ -141,17 +156,50 @@ func TestSkyMapFigure(t *testing.T) {
 	if p := c.sky.Track[1]; math.Abs(p.X-x) > 1e-12 || math.Abs(p.Y-y) > 1e-12 {
 		t.Errorf("track point 1 at %v, want (%g, %g)", p, x, y)
 	}
-}
-
-func TestSkyMapCellAcross180IsSplit(t *testing.T) {
-	f := SkyMap{AzDeg: []float64{0, 180}, ElDeg: []float64{0}, Counts: [][]int{{1, 2}}}
-	c, err := f.Plot(Caption{})
+	// A nadir that stays within a few degrees is drawn as one disc.
+	if len(c.sky.Earth) == 0 || c.sky.EarthCentre == nil || len(c.sky.NadirTrack) != 0 {
+		t.Errorf("fixed nadir not drawn as a disc")
+	}
+	f.Nadir = []Point{{0, 0}, {90, 0}, {180, 0}}
+	c, err = f.Plot(Caption{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	// Cell at 180° spans 90…270°: drawn as 90…180 and −180…−90.
-	if len(c.sky.Cells) != 3 {
-		t.Fatalf("%d cell pieces, want 3", len(c.sky.Cells))
+	if len(c.sky.Earth) != 0 || len(c.sky.NadirTrack) != 3 {
+		t.Errorf("moving nadir not drawn as a track")
+	}
+}
+
+// A cell across ±180° colours both edges of the map.
+func TestSkyMapCellAcross180(t *testing.T) {
+	f := SkyMap{AzDeg: []float64{0, 180}, ElDeg: []float64{0}, Counts: [][]int{{1, 2}}}
+	g := newClassGrid(f)
+	for _, c := range []struct{ az, want float64 }{{0, 1}, {89, 1}, {91, 2}, {179, 2}, {-179, 2}, {-91, 2}, {-89, 1}, {540, 2}} {
+		if got := g.class(c.az, 0); float64(got) != c.want {
+			t.Errorf("class at az %g = %d, want %g", c.az, got, c.want)
+		}
+	}
+}
+
+// The inverse projection undoes the projection (closed-form round trip)
+// and refuses points outside the boundary ellipse.
+func TestInverseHammer(t *testing.T) {
+	worst := 0.0
+	for lam := -179.0; lam <= 179; lam += 7 {
+		for phi := -89.0; phi <= 89; phi += 7 {
+			x, y := Hammer(lam*math.Pi/180, phi*math.Pi/180)
+			l, p, ok := InverseHammer(x, y)
+			if !ok {
+				t.Fatalf("(%g, %g) projected outside the map", lam, phi)
+			}
+			worst = math.Max(worst, math.Max(math.Abs(l*180/math.Pi-lam), math.Abs(p*180/math.Pi-phi)))
+		}
+	}
+	if worst > 1e-9 {
+		t.Errorf("round trip off by %g°", worst)
+	}
+	if _, _, ok := InverseHammer(2.8, 1.0); ok {
+		t.Error("point outside the ellipse accepted")
 	}
 }
 

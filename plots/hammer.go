@@ -20,3 +20,18 @@ func Hammer(λ, φ float64) (x, y float64) {
 	d := math.Sqrt(1 + cφ*ch)
 	return 2 * math.Sqrt2 * cφ * sh / d, math.Sqrt2 * sφ / d
 }
+
+// InverseHammer returns the longitude λ and latitude φ (radians) of the
+// point (x, y) of the Hammer projection; ok is false outside the boundary
+// ellipse x²/8 + y²/2 = 1. Snyder 1987 (from memory), checked here by the
+// round trip through Hammer:
+//
+//	z = √(1 − (x/4)² − (y/2)²)
+//	λ = 2 atan2(z x, 2 (2z² − 1)),  φ = asin(z y)
+func InverseHammer(x, y float64) (λ, φ float64, ok bool) {
+	if x*x/8+y*y/2 > 1 {
+		return 0, 0, false
+	}
+	z := math.Sqrt(math.Max(0, 1-x*x/16-y*y/4))
+	return 2 * math.Atan2(z*x, 2*(2*z*z-1)), math.Asin(math.Max(-1, math.Min(1, z*y))), true
+}

@@ -68,20 +68,23 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 		return nil
 	}
 
-	sm, err := skyMap(cfg, res)
+	sm, err := skyMap(s, cfg, res)
 	if err != nil {
 		return nil, fmt.Errorf("review: sky figure: %w", err)
 	}
 	sc := cap
+	sc.Model = "Viewing convention: the body-frame sphere seen from outside, like a globe: +Z up, azimuth from +X toward +Y " +
+		"increasing to the right, −X on both side edges; equal areas look equal (Hammer projection). " + sc.Model
 	if n := len(res.Nominal.SunTrack); n > 0 && cfg.SunTrackPoints > 0 {
 		every := float64(max(cfg.Steps()/cfg.SunTrackPoints, 1)) * cfg.Step
-		sc.Assumptions = fmt.Sprintf("sun track: %d sunlit samples, one every %s (a fast rotation can alias); ", n,
+		sc.Assumptions = fmt.Sprintf("sun track and nadir of the nominal unit (unit 0): %d sunlit samples, one every %s (a fast rotation can alias); ", n,
 			scenario.Span(every*1e9)) + sc.Assumptions
 	}
 	c, err := sm.Plot(sc)
 	if err := add(FigSky, "Sky coverage in body axes: sensors seeing each sun direction", c, err); err != nil {
 		return nil, err
 	}
+	out[len(out)-1].Tells = skyTells(s, cfg, res, sm)
 
 	tl, err := timeline(cfg, res)
 	if err != nil {
@@ -171,7 +174,7 @@ func azEl(v r3.Vec) (az, el float64) {
 	return degOf(math.Atan2(u.Y, u.X)), degOf(math.Asin(math.Max(-1, math.Min(1, u.Z))))
 }
 
-func skyMap(cfg sim.Config, res *sim.Result) (plots.SkyMap, error) {
+func skyMap(s *scenario.Scenario, cfg sim.Config, res *sim.Result) (plots.SkyMap, error) {
 	g, err := sky.Map(viewers(cfg), SkyCellDeg)
 	if err != nil {
 		return plots.SkyMap{}, err
@@ -192,7 +195,70 @@ func skyMap(cfg sim.Config, res *sim.Result) (plots.SkyMap, error) {
 		az, el := azEl(v)
 		m.SunTrack = append(m.SunTrack, plots.Point{AzDeg: az, ElDeg: el})
 	}
+	for _, v := range res.Nominal.NadirTrack {
+		az, el := azEl(v)
+		m.Nadir = append(m.Nadir, plots.Point{AzDeg: az, ElDeg: el})
+	}
+	m.EarthRadiusDeg = earthRadiusDeg(cfg)
+	for _, o := range s.Body.Obstructions {
+		c := o.CentreM
+		if o.Shape == scenario.ShapeCylinder {
+			c = r3.Scale(0.5, r3.Add(o.FromM, o.ToM))
+		}
+		if r3.Norm(c) == 0 {
+			continue
+		}
+		az, el := azEl(c)
+		m.Obstructions = append(m.Obstructions, plots.Marker{Name: o.Name, AzDeg: az, ElDeg: el})
+	}
 	return m, nil
+}
+
+// earthRadiusDeg is the angular radius of the Earth seen from the orbit's
+// mean radius (spherical Earth: asin(R⊕/r)).
+func earthRadiusDeg(cfg sim.Config) float64 {
+	st := cfg.NewPropagator().StateAt(0)
+	r, v := r3.Norm(st.R), r3.Norm(st.V)
+	a := 1 / (2/r - v*v/orbit.MuEarth)
+	return degOf(math.Asin(math.Min(1, orbit.RadiusEarthKm/a)))
+}
+
+// skyTells is the sky map's message with the run's numbers.
+func skyTells(s *scenario.Scenario, cfg sim.Config, res *sim.Result, m plots.SkyMap) string {
+	lat, err := sky.Fibonacci(sky.DefaultPoints)
+	if err != nil {
+		return ""
+	}
+	cov, err := sky.Coverage(viewers(cfg), lat)
+	if err != nil {
+		return ""
+	}
+	u := res.Nominal
+	t := fmt.Sprintf("%.1f %% of body directions are blind (no sensor sees the sun there) and %.1f %% are seen by ≥ 2 sensors; "+
+		"along this run's sun track the sun was seen by ≥ 1 sensor %.1f %% of sunlit time.",
+		100*(1-cov.AtLeast[1]), 100*cov.AtLeast[2], 100*u.SeenAtLeast[1])
+	if len(m.Nadir) > 0 {
+		var sum r3.Vec
+		for _, v := range res.Nominal.NadirTrack {
+			sum = r3.Add(sum, v)
+		}
+		if r3.Norm(sum) > 0.99*float64(len(res.Nominal.NadirTrack)) {
+			t += fmt.Sprintf(" The Earth fills a %.0f° disc around %s: sensors facing it get albedo.", m.EarthRadiusDeg, axisText(nearestAxis(r3.Unit(sum))))
+		} else {
+			t += fmt.Sprintf(" The Earth (%.0f° radius) moves over the body sphere (dots: nadir over the run).", m.EarthRadiusDeg)
+		}
+	}
+	return t
+}
+
+// nearestAxis snaps a direction to a body axis when within 1°.
+func nearestAxis(v r3.Vec) r3.Vec {
+	for _, a := range []r3.Vec{{X: 1}, {X: -1}, {Y: 1}, {Y: -1}, {Z: 1}, {Z: -1}} {
+		if r3.Dot(v, a) > math.Cos(math.Pi/180) {
+			return a
+		}
+	}
+	return v
 }
 
 // periodOf is the orbit period from the run's initial state (two-body).

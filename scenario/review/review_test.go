@@ -5,6 +5,7 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"flag"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -260,5 +261,28 @@ func TestRenderExamples(t *testing.T) {
 		if err := plots.WriteReportFile(filepath.Join(dir, "report.html"), rep); err != nil {
 			t.Fatal(err)
 		}
+	}
+}
+
+// The sky map places the Earth where the attitude puts it: the nadir
+// example points +Z to nadir, so every nadir sample of the run is +Z and the
+// Earth's angular radius is asin(R⊕/a) (closed form, spherical Earth).
+func TestSkyMapEarthDisc(t *testing.T) {
+	s, cfg, res := shortRun(t, "nadir-6u-sso.yaml", 3*time.Hour, 1)
+	m, err := skyMap(s, cfg, res)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(m.Nadir) == 0 {
+		t.Fatal("no nadir track kept")
+	}
+	for i, p := range m.Nadir {
+		if p.ElDeg < 89.999 {
+			t.Fatalf("nadir sample %d at elevation %.4f°, want +Z (90°)", i, p.ElDeg)
+		}
+	}
+	want := 180 / math.Pi * math.Asin(6378.137/(6378.137+550))
+	if math.Abs(m.EarthRadiusDeg-want) > 0.2 {
+		t.Errorf("Earth radius %.2f°, want %.2f° (550 km)", m.EarthRadiusDeg, want)
 	}
 }

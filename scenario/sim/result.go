@@ -57,6 +57,9 @@ type UnitResult struct {
 	BetaMaxDeg       float64
 	Series           *Series  // unit 0 only, when asked for
 	SunTrack         []r3.Vec // body-frame sun directions in sunlight (unit 0)
+	// NadirTrack is the body-frame nadir (unit 0) at the same stride as
+	// SunTrack, sunlit or not: where the Earth sits in body axes.
+	NadirTrack []r3.Vec
 }
 
 // SensorStats are one sensor's figures.
@@ -198,6 +201,7 @@ type unitAcc struct {
 	betaMin, betaMax          float64 // extremes of sin β
 	series                    *Series
 	track                     []r3.Vec
+	nadirTrack                []r3.Vec
 	trackStride               int
 	unit                      int
 	k0                        int // first step of the piece accumulated
@@ -337,8 +341,11 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 			primaryValid = eAlb.Valid && sunlit
 		}
 	}
-	if a.trackStride > 0 && sunlit && k%a.trackStride == 0 {
-		a.track = append(a.track, sunBody)
+	if a.trackStride > 0 && k%a.trackStride == 0 {
+		if sunlit {
+			a.track = append(a.track, sunBody)
+		}
+		a.nadirTrack = append(a.nadirTrack, nadirBody)
 	}
 	if s := a.series; s != nil && k%a.cfg.SeriesStride == 0 {
 		s.T = append(s.T, t)
@@ -418,6 +425,7 @@ func (a *unitAcc) merge(b *unitAcc) {
 		s.Signals = append(s.Signals, t.Signals...)
 	}
 	a.track = append(a.track, b.track...)
+	a.nadirTrack = append(a.nadirTrack, b.nadirTrack...)
 }
 
 // release recycles the quantile bins of an accumulator already merged into
@@ -452,7 +460,7 @@ func (a *unitAcc) result() *UnitResult {
 		SunlitFraction: frac(a.sunlit, a.samples), PenumbraFraction: frac(a.pen, a.samples),
 		UmbraFraction: frac(a.umb, a.samples), FalseSunFraction: frac(a.falseSunAny, a.umb),
 		BetaMinDeg: degOf(math.Asin(a.betaMin)), BetaMaxDeg: degOf(math.Asin(a.betaMax)),
-		Series: a.series, SunTrack: a.track,
+		Series: a.series, SunTrack: a.track, NadirTrack: a.nadirTrack,
 	}
 	for k := 1; k <= 3; k++ {
 		r.SeenAtLeast[k] = frac(a.seenAtLeast[k], a.sunlit)

@@ -22,8 +22,6 @@ import (
 // with the issue and the drawn numbers; where it holds it passes as usual.
 // Remove an entry as soon as its fix lands.
 var knownFailures = map[string]string{
-	"seeing-is-signal":                 "issue 12 (a sensor sees the sun where its reading is above threshold; a quadrant sensor only where it reads valid)",
-	"attitude-perturbation-1e-9":       "issue 12 (edge-on sensors are decided by floating-point rounding)",
 	"small-errors-continuous-quadrant": "issue 12 (four-quadrant validity gate under small errors)",
 }
 

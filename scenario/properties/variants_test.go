@@ -303,9 +303,17 @@ func edgeDirections(b r3.Vec, angles []float64) []r3.Vec {
 // counts with and the reading agree, field-of-view edges included.
 func checkSeeingIsSignal(c *runCase) (f failures) {
 	cfg := c.b.cfg
+	// The readings come from the same sensors with the converter off (no
+	// ADC steps): the error model is off, as in the definition of seeing.
+	g := c.b.file.Clone()
+	for i := range g.Body.Sensors {
+		g.Body.Sensors[i].ADCBits = new(int)
+	}
+	var plain built
+	c.rebuild(&plain, g)
 	dirs := directions(4000)
 	full := ephem.SolarIrradiance1AU
-	for i, sn := range cfg.Array.Sensors() {
+	for i, sn := range plain.cfg.Array.Sensors() {
 		b := sn.Mount().Boresight()
 		half := sn.HalfAngle()
 		ds := append(append([]r3.Vec(nil), dirs...), edgeDirections(b, []float64{half - 1e-6, half + 1e-6, math.Pi/2 - 1e-6, math.Pi/2 + 1e-6})...)

@@ -6,10 +6,31 @@ import (
 	"strings"
 )
 
-// sunModels maps each model name to its constructor. "meeus" is added by
-// meeus.go.
-var sunModels = map[string]func() Sun{
-	"low-precision": func() Sun { return LowPrecision{} },
+// SunModelInfo is the registry entry of one sun model: its name in the
+// scenario file, what it models and its published source (the report's
+// models table and check print both), and its builder.
+type SunModelInfo struct {
+	Name   string
+	Model  string
+	Source string
+	New    func() Sun
+}
+
+// sunModels is the registry; "meeus" is added by meeus.go.
+var sunModels = map[string]SunModelInfo{
+	"low-precision": {Name: "low-precision",
+		Model:  "low-precision formulas for the Sun of The Astronomical Almanac (stated 0.01°, 1950–2050), precessed to EME2000 with IAU 1976 precession",
+		Source: "The Astronomical Almanac, section C, Low-precision formulas for the Sun (from memory); J. H. Lieske et al., A&A 58, 1, 1977; checked against IAU SOFA/ERFA to 0.0101°",
+		New:    func() Sun { return LowPrecision{} }},
+}
+
+// SunModels lists the registered sun models, sorted by name.
+func SunModels() []SunModelInfo {
+	out := make([]SunModelInfo, 0, len(sunModels))
+	for _, n := range SunModelNames() {
+		out = append(out, sunModels[n])
+	}
+	return out
 }
 
 // SunModelNames returns the names SunByName accepts, sorted.
@@ -22,11 +43,20 @@ func SunModelNames() []string {
 	return names
 }
 
-// SunByName returns the sun model of that name: "low-precision"
-// (LowPrecision) or "meeus" (Meeus, when built in).
-func SunByName(name string) (Sun, error) {
-	if f, ok := sunModels[name]; ok {
-		return f(), nil
+// LookupSunModel returns the registry entry of a sun model.
+func LookupSunModel(name string) (SunModelInfo, error) {
+	if m, ok := sunModels[name]; ok {
+		return m, nil
 	}
-	return nil, fmt.Errorf("ephem: unknown sun model %q (allowed: %s)", name, strings.Join(SunModelNames(), ", "))
+	return SunModelInfo{}, fmt.Errorf("ephem: unknown sun model %q (allowed: %s)", name, strings.Join(SunModelNames(), ", "))
+}
+
+// SunByName returns the sun model of that name: "low-precision"
+// (LowPrecision) or "meeus" (Meeus).
+func SunByName(name string) (Sun, error) {
+	m, err := LookupSunModel(name)
+	if err != nil {
+		return nil, err
+	}
+	return m.New(), nil
 }

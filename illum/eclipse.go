@@ -1,6 +1,7 @@
 package illum
 
 import (
+	"fmt"
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -23,10 +24,12 @@ const (
 
 // String returns the model's name as the scenario file spells it.
 func (m ShadowModel) String() string {
-	if m == Cylindrical {
-		return "cylindrical"
+	for _, s := range shadows {
+		if s.Shadow == m {
+			return s.Name
+		}
 	}
-	return "conical"
+	return fmt.Sprintf("shadow(%d)", int(m))
 }
 
 // Eclipse is one passage through the Earth's shadow. Times are seconds

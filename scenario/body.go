@@ -10,7 +10,9 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/plots/figures"
 )
 
 func (r *resolver) vec(path string, v []float64, def r3.Vec) r3.Vec {
@@ -462,8 +464,8 @@ func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 	seen := map[string]bool{}
 	for i, e := range f.Estimators {
 		p := fmt.Sprintf("estimators[%d]", i)
-		if !oneOf(e, estimators) {
-			r.fail(p, "value %q is unknown; allowed %s", e, strings.Join(estimators, ", "))
+		if names := sensor.EstimatorNames(); !oneOf(e, names) {
+			r.fail(p, "value %q is unknown; allowed %s", e, strings.Join(names, ", "))
 		} else if seen[e] {
 			r.fail(p, "value %q is listed twice; allowed each estimator once", e)
 		}
@@ -473,21 +475,19 @@ func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 }
 
 func (r *resolver) albedo(a *fileAlbedo) Albedo {
-	r.choice("albedo.model", &a.Model, AlbedoUniform, albedos)
+	r.choice("albedo.model", &a.Model, AlbedoUniform, albedo.ModelNames())
 	out := Albedo{Model: a.Model}
-	if a.Model != AlbedoNone && a.Model != AlbedoGrid {
-		def := defaultAlbedo
-		if a.Model == AlbedoZonal {
-			// The zonal profile is scaled to the stated global mean;
-			// by default it keeps its own (no scaling).
-			def = ZonalMeanAlbedo
-		}
-		out.Value = setDefault(&a.Value, def)
+	m, err := albedo.LookupModel(a.Model)
+	if err != nil {
+		return out
+	}
+	if m.TakesValue {
+		out.Value = setDefault(&a.Value, m.DefaultValue)
 		r.rangeCheck("albedo.value", out.Value, 0, 1, false, "[0, 1]")
 	} else if a.Value != nil {
-		r.fail("albedo.value", "value does not apply to model %q; allowed with uniform or zonal", a.Model)
+		r.fail("albedo.value", "value does not apply to model %q; allowed with %s", a.Model, strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesValue }), " or "))
 	}
-	if a.Model == AlbedoGrid {
+	if m.TakesGrid {
 		if a.GridFile == "" {
 			r.fail("albedo.grid_file", "value is missing; allowed the path of a reflectance grid (relative to the scenario file)")
 		} else {
@@ -497,7 +497,7 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 			}
 		}
 	} else if a.GridFile != "" {
-		r.fail("albedo.grid_file", "value applies to model grid only; allowed model: grid with grid_file")
+		r.fail("albedo.grid_file", "value applies to model %s only; allowed model: %s with grid_file", strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesGrid }), ", "), strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesGrid }), ", "))
 	}
 	if a.Cells == 0 {
 		if _, given := r.nodes["albedo.cells"]; !given {
@@ -514,6 +514,17 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 func (r *resolver) validity(v *fileValidity) Validity {
 	out := Validity{FalseSunBoundDeg: setDefault(&v.FalseSunBoundDeg, defaultFalseSunBoundDeg)}
 	r.rangeCheck("validity.false_sun_bound_deg", out.FalseSunBoundDeg, 0, 180, true, "an angle in (0, 180) degrees")
+	return out
+}
+
+// albedoModelsWith lists the albedo models for which has is true.
+func albedoModelsWith(has func(albedo.ModelInfo) bool) []string {
+	var out []string
+	for _, m := range albedo.Models() {
+		if has(m) {
+			out = append(out, m.Name)
+		}
+	}
 	return out
 }
 
@@ -564,11 +575,11 @@ func (r *resolver) output(o *fileOutput) Output {
 		r.fail("output.decimate", "value %d is below 1; allowed a whole number ≥ 1 (keep every n-th step)", o.Decimate)
 	}
 	if o.Figures == nil {
-		o.Figures = append([]string(nil), figureNames...)
+		o.Figures = figures.Names()
 	}
 	for i, f := range o.Figures {
-		if !oneOf(f, figureNames) {
-			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q is unknown; allowed %s", f, strings.Join(figureNames, ", "))
+		if names := figures.Names(); !oneOf(f, names) {
+			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q is unknown; allowed %s", f, strings.Join(names, ", "))
 		}
 	}
 	return Output{Decimate: o.Decimate, Figures: append([]string(nil), o.Figures...)}

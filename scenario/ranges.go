@@ -1,6 +1,10 @@
 package scenario
 
-import "fmt"
+import (
+	"fmt"
+
+	"codeberg.org/sunsight/sunsight/orbit"
+)
 
 // The orbit sizes sunsight accepts, in one place: scenario keys
 // (altitude_km, semi_major_axis_km + eccentricity), two-line element sets
@@ -23,12 +27,12 @@ const (
 // eccentricity e has its perigee and apogee inside the accepted range, or a
 // message naming what is wrong and what is allowed.
 func OrbitSizeError(aKm, e float64) string {
-	rp, ra := aKm*(1-e)-earthRadiusKm, aKm*(1+e)-earthRadiusKm
+	rp, ra := aKm*(1-e)-orbit.RadiusEarthKm, aKm*(1+e)-orbit.RadiusEarthKm
 	switch {
 	case !(aKm > 0) || aKm != aKm:
 		return fmt.Sprintf("semi-major axis %g km is not a positive number; allowed perigee altitude ≥ %d km and apogee altitude ≤ %d km", aKm, MinPerigeeAltitudeKm, MaxApogeeAltitudeKm)
 	case rp < MinPerigeeAltitudeKm:
-		return fmt.Sprintf("perigee altitude %.1f km is below %d km (a = %.1f km, e = %.4f); allowed perigee altitude ≥ %d km above the equatorial radius %.3f km", rp, MinPerigeeAltitudeKm, aKm, e, MinPerigeeAltitudeKm, earthRadiusKm)
+		return fmt.Sprintf("perigee altitude %.1f km is below %d km (a = %.1f km, e = %.4f); allowed perigee altitude ≥ %d km above the equatorial radius %.3f km", rp, MinPerigeeAltitudeKm, aKm, e, MinPerigeeAltitudeKm, orbit.RadiusEarthKm)
 	case ra > MaxApogeeAltitudeKm:
 		return fmt.Sprintf("apogee altitude %.0f km is above %d km (a = %.1f km, e = %.4f); allowed apogee altitude ≤ %d km (the Moon's and sun's pull are not modelled)", ra, MaxApogeeAltitudeKm, aKm, e, MaxApogeeAltitudeKm)
 	}

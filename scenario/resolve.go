@@ -3,19 +3,23 @@ package scenario
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"time"
 
 	"go.yaml.in/yaml/v3"
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
-// earthRadiusKm is the WGS 84 equatorial radius (NIMA TR8350.2, 3rd ed.
-// 2000), repeated here for the altitude checks only.
-const earthRadiusKm = 6378.137
-
-// Defaults, all in one place (each is common practice, no source, unless noted).
+// Defaults of the file's own keys (each is common practice, no source, unless
+// noted). The defaults of a model's keys live in its registry entry (sensor
+// kinds in illum/sensor, albedo models in illum/albedo).
 const (
 	defaultName       = "unnamed scenario"
 	defaultEpoch      = "2026-03-20T00:00:00Z" // near an equinox, so eclipses are near their longest for low inclinations
@@ -26,19 +30,13 @@ const (
 	tlePropagator     = "sgp4" // default for a TLE orbit
 	defaultSunModel   = "low-precision"
 	defaultShadow     = "conical"
-	defaultAlbedo     = 0.30 // global mean Bond albedo ≈ 0.29–0.31 (from memory)
-	// ZonalMeanAlbedo is the global (area) mean of the zonal reflectance
-	// profile, its a₀ term (Knocke, Ries & Tapley 1988, as in ECSS-E-ST-10-04C
-	// annex F; from memory): albedo.value with model zonal scales the whole
-	// profile by value / ZonalMeanAlbedo, so its mean becomes value.
-	ZonalMeanAlbedo  = 0.34
-	defaultCells     = 1000
-	defaultUnits     = 1
-	defaultDecimate  = 1
-	defaultThreshold = 0.05
-	defaultFullScale = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
-	defaultADCBits   = 12
-	defaultMaxRate   = 10.0 // deg/s: a typical post-deployment tip-off bound
+	defaultCells      = 1000
+	defaultUnits      = 1
+	defaultDecimate   = 1
+	defaultThreshold  = 0.05
+	defaultFullScale  = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
+	defaultADCBits    = 12
+	defaultMaxRate    = 10.0 // deg/s: a typical post-deployment tip-off bound
 	// defaultFalseSunBoundDeg: a valid estimate this far from the sun points
 	// the spacecraft at the wrong thing, well beyond the few degrees of
 	// albedo bias of a coarse sensor (the engine's default; common practice,
@@ -47,14 +45,8 @@ const (
 )
 
 var (
-	propagators = []string{"two-body", "j2-mean", "j2-numeric", "sgp4"}
-	sunModels   = []string{"low-precision", "meeus"}
-	shadows     = []string{"conical", "cylindrical"}
-	lawNames    = []string{LawNadir, LawSun, LawInertial, LawSpin, LawTumble, LawIsotropic}
-	estimators  = []string{"least-squares", "opposite-pairs", "two-axis", "combined"}
-	albedos     = []string{AlbedoNone, AlbedoUniform, AlbedoZonal, AlbedoGrid}
-	faces       = []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"}
-	eulerSeqs   = []string{"121", "123", "131", "132", "212", "213", "231", "232", "312", "313", "321", "323"}
+	faces     = []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"}
+	eulerSeqs = []string{"121", "123", "131", "132", "212", "213", "231", "232", "312", "313", "321", "323"}
 )
 
 const deg = math.Pi / 180
@@ -161,8 +153,8 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 	}
 	s.Seed = *f.Seed
 	s.Orbit = r.orbit(&f.Orbit, &f.Epoch, &s.Epoch)
-	r.choice("sun_model", &f.SunModel, defaultSunModel, sunModels)
-	r.choice("shadow", &f.Shadow, defaultShadow, shadows)
+	r.choice("sun_model", &f.SunModel, defaultSunModel, ephem.SunModelNames())
+	r.choice("shadow", &f.Shadow, defaultShadow, illum.ShadowNames())
 	s.SunModel, s.Shadow = f.SunModel, f.Shadow
 	s.Attitude = r.attitude("attitude", &f.Attitude)
 	names := map[string]bool{}
@@ -205,7 +197,7 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 	if len(o.TLE) > 0 {
 		def = tlePropagator // the model TLEs are fitted with
 	}
-	r.choice("orbit.propagator", &o.Propagator, def, propagators)
+	r.choice("orbit.propagator", &o.Propagator, def, orbit.PropagatorNames())
 	out.Propagator = o.Propagator
 	if o.Propagator == tlePropagator && len(o.TLE) == 0 {
 		r.fail("orbit.propagator", "value sgp4 propagates the mean elements of a TLE; allowed with orbit.tle only (two-body, j2-mean or j2-numeric for other orbits)")
@@ -249,7 +241,7 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 		if has(o.Eccentricity) || has(o.ArgPerigeeDeg) {
 			r.fail("orbit.altitude_km", "value is given with eccentricity or arg_perigee_deg; allowed semi_major_axis_km with full elements, or altitude_km for a circular orbit")
 		}
-		out.AltitudeKm, out.SemiMajorAxisKm = h, earthRadiusKm+h
+		out.AltitudeKm, out.SemiMajorAxisKm = h, orbit.RadiusEarthKm+h
 		if o.LTAN != "" {
 			if has(o.InclinationDeg) || has(o.RAANDeg) {
 				r.fail("orbit.ltan", "value is given with inclination_deg or raan_deg; allowed ltan alone (a sun-synchronous orbit sets both)")
@@ -287,7 +279,7 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 			return out
 		}
 		out.Kind, out.SemiMajorAxisKm, out.Eccentricity = OrbitKeplerian, a, e
-		out.AltitudeKm = a - earthRadiusKm
+		out.AltitudeKm = a - orbit.RadiusEarthKm
 		out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, 0, 180)
 		out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), 0, 360)
 		out.ArgPerigeeRad = r.angle("orbit.arg_perigee_deg", setDefault(&o.ArgPerigeeDeg, 0), 0, 360)
@@ -356,15 +348,15 @@ func (r *resolver) attitude(path string, a *fileAttitude) Attitude {
 
 func (r *resolver) law(path string, l *fileLaw) Law {
 	if l.Law == "" {
-		r.fail(path+".law", "value is missing; allowed %s", strings.Join(lawNames, ", "))
+		r.fail(path+".law", "value is missing; allowed %s", strings.Join(attitude.LawNames(), ", "))
 		return Law{}
 	}
-	if !oneOf(l.Law, lawNames) {
-		r.fail(path+".law", "value %q is unknown; allowed %s", l.Law, strings.Join(lawNames, ", "))
+	info, err := attitude.LookupLaw(l.Law)
+	if err != nil {
+		r.fail(path+".law", "value %q is unknown; allowed %s", l.Law, strings.Join(attitude.LawNames(), ", "))
 		return Law{}
 	}
 	out := Law{Name: l.Law, Orientation: quat.Number{Real: 1}}
-	used := map[string]bool{}
 	switch l.Law {
 	case LawNadir:
 		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
@@ -372,7 +364,6 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		out.RollRad = r.angle(path+".roll_offset_deg", setDefault(&l.RollOffsetDeg, 0), -180, 180)
 		out.PitchRad = r.angle(path+".pitch_offset_deg", setDefault(&l.PitchOffsetDeg, 0), -180, 180)
 		out.YawRad = r.angle(path+".yaw_offset_deg", setDefault(&l.YawOffsetDeg, 0), -180, 180)
-		used["point_axis"], used["align_axis"], used["roll_offset_deg"], used["pitch_offset_deg"], used["yaw_offset_deg"] = true, true, true, true, true
 	case LawSun:
 		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
 		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, "+X")
@@ -386,27 +377,25 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 			} else {
 				out.AlignInertial = r3.Scale(1/n, v)
 			}
-			used["align_inertial"] = true
+		}
+		if l.AlignTo != AlignInertial && l.AlignInertial != nil {
+			r.fail(path+".align_inertial", "value applies with align_to: inertial only; allowed align_to: inertial with align_inertial, or no align_inertial")
 		}
 		rate := setDefault(&l.RateDegS, 0)
 		r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s (spin about the sun line)")
 		out.RateRadS = rate * deg
-		used["point_axis"], used["align_axis"], used["clock_deg"], used["align_to"], used["rate_deg_s"] = true, true, true, true, true
 	case LawInertial, LawSpin:
 		r.orientation(path, l, &out)
-		used["quaternion"], used["euler_deg"], used["euler_sequence"] = true, true, true
 		if l.Law == LawSpin {
 			out.SpinAxis = r.axis(path+".spin_axis", &l.SpinAxis, "+Z")
 			rate := setDefault(&l.RateDegS, 1)
 			r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s")
 			out.RateRadS = rate * deg
-			used["spin_axis"], used["rate_deg_s"] = true, true
 		}
 	case LawTumble:
 		m := setDefault(&l.MaxRateDegS, defaultMaxRate)
 		r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
 		out.MaxRateRadS = m * deg
-		used["max_rate_deg_s"] = true
 	}
 	if (l.Law == LawNadir || l.Law == LawSun) && r3.Norm(r3.Cross(out.PointAxis, out.AlignAxis)) < 1e-9 && r3.Norm(out.PointAxis) > 0 && r3.Norm(out.AlignAxis) > 0 {
 		r.fail(path+".align_axis", "value %q is parallel to point_axis %q, so it fixes no rotation about the pointed axis; allowed a body axis perpendicular to point_axis (for example +X with point_axis +Z)", l.AlignAxis, l.PointAxis)
@@ -418,8 +407,8 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		"spin_axis": l.SpinAxis != "", "rate_deg_s": l.RateDegS != nil, "max_rate_deg_s": l.MaxRateDegS != nil,
 		"align_to": l.AlignTo != "", "align_inertial": l.AlignInertial != nil,
 	}
-	for _, k := range []string{"point_axis", "align_axis", "roll_offset_deg", "pitch_offset_deg", "yaw_offset_deg", "clock_deg", "quaternion", "euler_deg", "euler_sequence", "spin_axis", "rate_deg_s", "max_rate_deg_s", "align_to", "align_inertial"} {
-		if given[k] && !used[k] {
+	for _, k := range attitude.LawKeys() {
+		if given[k] && !slices.Contains(info.Keys, k) {
 			r.fail(path+"."+k, "value does not apply to law %q; allowed only that law's keys", l.Law)
 		}
 	}

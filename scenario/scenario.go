@@ -6,7 +6,9 @@ import (
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // Scenario is a validated scenario file with every default filled in and every
@@ -62,13 +64,13 @@ type Orbit struct {
 
 // Attitude law names.
 const (
-	LawNadir     = "nadir"
-	LawSun       = "sun"
-	LawInertial  = "inertial"
-	LawSpin      = "spin"
-	LawTumble    = "tumble"
-	LawIsotropic = "isotropic"
-	LawSchedule  = "schedule" // InSunlight while lit, InEclipse in shadow
+	LawNadir     = attitude.NameNadir
+	LawSun       = attitude.NameSun
+	LawInertial  = attitude.NameInertial
+	LawSpin      = attitude.NameSpin
+	LawTumble    = attitude.NameTumble
+	LawIsotropic = attitude.NameIsotropic
+	LawSchedule  = attitude.NameSchedule // InSunlight while lit, InEclipse in shadow
 )
 
 // Law is one attitude law with its parameters; only those of its kind are set.
@@ -197,10 +199,10 @@ type Body struct {
 
 // Albedo models.
 const (
-	AlbedoNone    = "none"
-	AlbedoUniform = "uniform"
-	AlbedoZonal   = "zonal"
-	AlbedoGrid    = "grid"
+	AlbedoNone    = albedo.NameNone
+	AlbedoUniform = albedo.NameUniform
+	AlbedoZonal   = albedo.NameZonal
+	AlbedoGrid    = albedo.NameGrid
 )
 
 // Albedo selects the Earth-reflection model.
@@ -246,10 +248,6 @@ type Output struct {
 	Decimate int
 	Figures  []string
 }
-
-// Figure names (the review figures: sky coverage map, timeline of the first
-// orbits, year view of beta and eclipses, error distribution, sunlit gaps).
-var figureNames = []string{"sky", "timeline", "year", "error", "gaps"}
 
 // Record returns the whole resolved scenario as YAML with every default
 // written out, for the run's record; loading it gives the same scenario.

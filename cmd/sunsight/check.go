@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/review"
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
@@ -49,6 +50,10 @@ func runCheck(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "# %s: valid (every model run uses was built)\n", file)
 	writeDerived(stdout, s, d)
+	fmt.Fprintln(stdout, "# models and sources:")
+	for _, m := range review.ModelsAndSources(s) {
+		fmt.Fprintf(stdout, "#   %s — %s\n", m.Model, m.Source)
+	}
 	fmt.Fprintf(stdout, "# resolved scenario with every default shown:\n")
 	stdout.Write(s.Record())
 	return nil

@@ -1,7 +1,6 @@
 package sensor
 
 import (
-	"fmt"
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -151,25 +150,4 @@ func (e Combined) Estimate(a *Array, r []Reading) Estimate {
 		n += c.N
 	}
 	return unitEstimate(x, n)
-}
-
-var estimators = []Estimator{LeastSquares{}, OppositePairs{}, TwoAxis{}, Combined{}}
-
-// EstimatorNames lists the estimator names in a stable order.
-func EstimatorNames() []string {
-	out := make([]string, len(estimators))
-	for i, e := range estimators {
-		out[i] = e.Name()
-	}
-	return out
-}
-
-// EstimatorByName returns the estimator with its default settings.
-func EstimatorByName(name string) (Estimator, error) {
-	for _, e := range estimators {
-		if e.Name() == name {
-			return e, nil
-		}
-	}
-	return nil, fmt.Errorf("sensor: estimator %q: want one of %v", name, EstimatorNames())
 }

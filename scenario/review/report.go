@@ -4,12 +4,18 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/study"
 	"fmt"
 	"math"
+	"strings"
 	"time"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sky"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 	"codeberg.org/sunsight/sunsight/plots"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -435,36 +441,64 @@ func sensorTable(s *scenario.Scenario, res *sim.Result) plots.Table {
 }
 
 func assumptions(s *scenario.Scenario) []plots.Assumption {
-	orbitSrc := map[string]string{
-		"two-body":   "Keplerian two-body motion (closed form); D. A. Vallado, Fundamentals of Astrodynamics and Applications, 4th ed., 2013",
-		"j2-mean":    "mean elements with first-order secular J2 rates of RAAN, argument of perigee and mean anomaly, no short-period terms; Y. Kozai, AJ 64, 367, 1959; Vallado 4th ed. 2013, §9.6",
-		"j2-numeric": "Cowell integration of point mass + J2 with adaptive Dormand–Prince 5(4) (Dormand & Prince 1980), started from the osculating state of the mean elements",
+	return append(ModelsAndSources(s), errorModelRows(s)...)
+}
+
+// ModelsAndSources lists the models a scenario uses with their published
+// sources, read from the model registries: orbit, sun, shadow, attitude,
+// albedo, the sensor kinds flown and the estimators.
+func ModelsAndSources(s *scenario.Scenario) []plots.Assumption {
+	var out []plots.Assumption
+	add := func(model, what, source string) {
+		out = append(out, plots.Assumption{Model: model, Source: strings.TrimPrefix(what+"; "+source, "; ")})
 	}
-	sunSrc := map[string]string{
-		"low-precision": "low-precision formulas for the Sun of The Astronomical Almanac (stated 0.01°, 1950–2050), precessed to EME2000 with IAU 1976 precession (Lieske et al. 1977); checked against IAU SOFA/ERFA to 0.0101°",
-		"meeus":         "J. Meeus, Astronomical Algorithms, 2nd ed., 1998, ch. 25 (low-accuracy theory) via github.com/soniakeys/meeus/v3, on the J2000 equinox; checked against IAU SOFA/ERFA to 0.0091°",
+	if p, err := orbit.LookupPropagator(s.Orbit.Propagator); err == nil {
+		add("Orbit: "+p.Name, p.Model, p.Source)
 	}
-	shadowSrc := map[string]string{
-		"conical":     "conical Earth shadow with umbra and penumbra; O. Montenbruck and E. Gill, Satellite Orbits, 2000, §3.4",
-		"cylindrical": "cylindrical Earth shadow (no penumbra); O. Montenbruck and E. Gill, Satellite Orbits, 2000, §3.4",
+	if m, err := ephem.LookupSunModel(s.SunModel); err == nil {
+		add("Sun: "+m.Name, m.Model, m.Source)
 	}
-	out := []plots.Assumption{
-		{Model: "Orbit: " + s.Orbit.Propagator, Source: orbitSrc[s.Orbit.Propagator]},
-		{Model: "Sun: " + s.SunModel, Source: sunSrc[s.SunModel]},
-		{Model: "Shadow: " + s.Shadow, Source: shadowSrc[s.Shadow]},
+	if m, err := illum.LookupShadow(s.Shadow); err == nil {
+		add("Shadow: "+m.Name, m.Model, m.Source)
 	}
-	switch s.Albedo.Model {
-	case scenario.AlbedoUniform:
-		out = append(out, plots.Assumption{Model: fmt.Sprintf("Albedo: uniform Lambertian Earth, reflectance %.2f, %d cells", s.Albedo.Value, s.Albedo.Cells),
-			Source: "cell integration of the sunlit, visible cap after D. D. V. Bhanderi and T. Bak, Modeling Earth albedo for satellites in Earth orbit, AIAA GNC 2005; reflectance 0.30 from ECSS-E-ST-10-04C"})
-	case scenario.AlbedoZonal:
-		out = append(out, plots.Assumption{Model: fmt.Sprintf("Albedo: zonal reflectance scaled to a global mean of %.2f, %d cells", s.Albedo.Value, s.Albedo.Cells),
-			Source: "latitude model after R. Knocke, J. Ries and B. Tapley, AIAA 88-4292, 1988; cell integration after Bhanderi and Bak, AIAA GNC 2005"})
-	case scenario.AlbedoGrid:
-		out = append(out, plots.Assumption{Model: "Albedo: reflectance grid from a file", Source: "cell integration after Bhanderi and Bak, AIAA GNC 2005; grid values as supplied by the user"})
-	default:
-		out = append(out, plots.Assumption{Model: "Albedo: none", Source: "Earth reflection left out: coarse-sensor errors are underestimated"})
+	for _, l := range lawsOf(s) {
+		add("Attitude: "+l.Name, l.Model, l.Source)
 	}
+	if m, err := albedo.LookupModel(s.Albedo.Model); err == nil {
+		add("Albedo: "+m.Describe(s.Albedo.Value, s.Albedo.Cells), "", m.Source)
+	}
+	seen := map[string]bool{}
+	for _, sn := range s.Body.Sensors {
+		if k, ok := sensor.LookupKind(sn.Kind); ok && !seen[sn.Kind] {
+			seen[sn.Kind] = true
+			add("Sensor kind: "+sn.Kind, k.Doc, k.Source)
+		}
+	}
+	for _, name := range s.Estimators {
+		if e, err := sensor.LookupEstimator(name); err == nil {
+			add("Estimator: "+e.Name, e.Model, e.Source)
+		}
+	}
+	return out
+}
+
+// lawsOf lists the registry entries of the scenario's attitude laws (both
+// of a schedule).
+func lawsOf(s *scenario.Scenario) []attitude.LawInfo {
+	var out []attitude.LawInfo
+	for _, l := range []*scenario.Law{&s.Attitude.Law, s.Attitude.InSunlight, s.Attitude.InEclipse} {
+		if l == nil {
+			continue
+		}
+		if info, err := attitude.LookupLaw(l.Name); err == nil {
+			out = append(out, info)
+		}
+	}
+	return out
+}
+
+func errorModelRows(s *scenario.Scenario) []plots.Assumption {
+	var out []plots.Assumption
 	if hasErrorModels(s) {
 		out = append(out, plots.Assumption{Model: fmt.Sprintf("Sensors: error models on (%d Monte Carlo unit(s))", max(s.MonteCarlo.Units, 1)),
 			Source: "one-sigma values from the scenario file (user supplied)"})

@@ -3,7 +3,6 @@ package study
 import (
 	"codeberg.org/sunsight/sunsight/scenario"
 	"fmt"
-	"os"
 	"strings"
 
 	"gonum.org/v1/gonum/num/quat"
@@ -47,32 +46,18 @@ func NewPropagator(s *scenario.Scenario) (func() orbit.Propagator, error) {
 	if err != nil {
 		return nil, err
 	}
-	switch s.Orbit.Propagator {
-	case "sgp4":
-		return sgp4Factory(s)
-	case "two-body":
-		return func() orbit.Propagator { return orbit.NewTwoBody(el) }, nil
-	case "j2-mean", "":
-		return func() orbit.Propagator { return orbit.NewJ2Mean(el) }, nil
-	case "j2-numeric":
-		p, err := orbit.NewJ2Numeric(el, orbit.NumericOptions{})
-		if err != nil {
-			return nil, fmt.Errorf("orbit.propagator: %w", err)
-		}
-		// The mean-to-osculating conversion is done once; each fresh
-		// propagator restarts from the same osculating state.
-		s0, opt := p.InitialState(), p.Options()
-		first := true
-		return func() orbit.Propagator {
-			if first {
-				first = false
-				return p
-			}
-			q, _ := orbit.NewJ2NumericFromState(s0, opt)
-			return q
-		}, nil
+	p, err := orbit.LookupPropagator(s.Orbit.Propagator)
+	if err != nil {
+		return nil, fmt.Errorf("orbit.propagator: %w", err)
 	}
-	return nil, fmt.Errorf("orbit.propagator: %q is not one of two-body, j2-mean, j2-numeric, sgp4", s.Orbit.Propagator)
+	if p.FromTLE {
+		return sgp4Factory(s)
+	}
+	f, err := p.New(el)
+	if err != nil {
+		return nil, fmt.Errorf("orbit.propagator: %w", err)
+	}
+	return f, nil
 }
 
 // AttitudeLaw builds the scenario's attitude law.
@@ -117,15 +102,22 @@ func orientation(s *scenario.Scenario, l scenario.Law, path string) (r3.Rotation
 	return r3.Rotation(l.Orientation), nil
 }
 
-func buildLaw(s *scenario.Scenario, l scenario.Law, path string) (attitude.Law, error) {
-	switch l.Name {
-	case scenario.LawNadir:
+// lawBuilder builds one attitude law of the registry (orbit/attitude) from
+// its resolved keys; seed is the scenario seed, or the unit's for the random
+// laws.
+type lawBuilder func(s *scenario.Scenario, l scenario.Law, seed uint64, path string) (attitude.Law, error)
+
+// lawBuilders holds a builder for every registered law
+// (TestEveryLawHasABuilder).
+var lawBuilders = map[string]lawBuilder{
+	attitude.NameNadir: func(_ *scenario.Scenario, l scenario.Law, _ uint64, _ string) (attitude.Law, error) {
 		n := attitude.Nadir{NadirAxis: l.PointAxis, VelocityAxis: l.AlignAxis}
 		if l.RollRad != 0 || l.PitchRad != 0 || l.YawRad != 0 {
 			n.Offset = attitude.FromEuler(attitude.Seq321, l.YawRad, l.PitchRad, l.RollRad)
 		}
 		return n, nil
-	case scenario.LawSun:
+	},
+	attitude.NameSun: func(_ *scenario.Scenario, l scenario.Law, _ uint64, _ string) (attitude.Law, error) {
 		ref := attitude.TowardOrbitNormal
 		switch l.AlignTo {
 		case scenario.AlignNadir:
@@ -135,13 +127,15 @@ func buildLaw(s *scenario.Scenario, l scenario.Law, path string) (attitude.Law, 
 		}
 		return attitude.Sun{SunAxis: l.PointAxis, SecondaryAxis: l.AlignAxis, Reference: ref, InertialDir: l.AlignInertial,
 			SpinRate: l.RateRadS, Phase: l.ClockRad}, nil
-	case scenario.LawInertial:
+	},
+	attitude.NameInertial: func(s *scenario.Scenario, l scenario.Law, _ uint64, path string) (attitude.Law, error) {
 		q, err := orientation(s, l, path)
 		if err != nil {
 			return nil, err
 		}
 		return attitude.Inertial{Q: q}, nil
-	case scenario.LawSpin:
+	},
+	attitude.NameSpin: func(s *scenario.Scenario, l scenario.Law, _ uint64, path string) (attitude.Law, error) {
 		q, err := orientation(s, l, path)
 		if err != nil {
 			return nil, err
@@ -153,12 +147,21 @@ func buildLaw(s *scenario.Scenario, l scenario.Law, path string) (attitude.Law, 
 		// The starting attitude is kept whole: the inertial spin axis is
 		// where it puts the body spin axis, the phase its turn about it.
 		return attitude.SpinFrom(q, body, l.RateRadS), nil
-	case scenario.LawTumble:
-		return attitude.NewTumble(uint64(s.Seed), l.MaxRateRadS), nil
-	case scenario.LawIsotropic:
-		return attitude.Isotropic{Seed: uint64(s.Seed)}, nil
+	},
+	attitude.NameTumble: func(_ *scenario.Scenario, l scenario.Law, seed uint64, _ string) (attitude.Law, error) {
+		return attitude.NewTumble(seed, l.MaxRateRadS), nil
+	},
+	attitude.NameIsotropic: func(_ *scenario.Scenario, _ scenario.Law, seed uint64, _ string) (attitude.Law, error) {
+		return attitude.Isotropic{Seed: seed}, nil
+	},
+}
+
+func buildLaw(s *scenario.Scenario, l scenario.Law, path string) (attitude.Law, error) {
+	b, ok := lawBuilders[l.Name]
+	if !ok {
+		return nil, fmt.Errorf("%s.law: %q is not one of %s", path, l.Name, strings.Join(attitude.LawNames(), ", "))
 	}
-	return nil, fmt.Errorf("%s.law: %q is not one of nadir, sun, inertial, spin, tumble, isotropic, schedule", path, l.Name)
+	return b(s, l, uint64(s.Seed), path)
 }
 
 // lawForUnit gives each Monte Carlo unit its own random attitude draw for
@@ -166,16 +169,14 @@ func buildLaw(s *scenario.Scenario, l scenario.Law, path string) (attitude.Law, 
 // sequence): unit 0 keeps the scenario seed, unit u uses seed + u. Other
 // laws are the same for every unit (nil).
 func lawForUnit(s *scenario.Scenario, att scenario.Attitude) func(u int) attitude.Law {
-	if att.Name != scenario.LawTumble && att.Name != scenario.LawIsotropic {
+	info, err := attitude.LookupLaw(att.Name)
+	if err != nil || !info.Random {
 		return nil
 	}
-	l := att.Law
+	l, b := att.Law, lawBuilders[att.Name]
 	return func(u int) attitude.Law {
-		seed := uint64(s.Seed) + uint64(u)
-		if l.Name == scenario.LawTumble {
-			return attitude.NewTumble(seed, l.MaxRateRadS)
-		}
-		return attitude.Isotropic{Seed: seed}
+		law, _ := b(s, l, uint64(s.Seed)+uint64(u), "attitude")
+		return law
 	}
 }
 
@@ -270,30 +271,19 @@ func boxFaces(c, h r3.Vec) []sky.Obstacle {
 
 // AlbedoFactory returns the albedo model factory, nil for model "none".
 func AlbedoFactory(s *scenario.Scenario) (func() (*albedo.Model, error), error) {
-	var refl albedo.Reflectance
-	switch s.Albedo.Model {
-	case scenario.AlbedoNone, "":
+	m, err := albedo.LookupModel(s.Albedo.Model)
+	if err != nil {
+		return nil, fmt.Errorf("albedo.model: %w", err)
+	}
+	if m.Reflectance == nil {
 		return nil, nil
-	case scenario.AlbedoUniform:
-		refl = albedo.Uniform{Albedo: s.Albedo.Value}
-	case scenario.AlbedoZonal:
-		// albedo.value is the profile's global mean: scale it (the
-		// default, scenario.ZonalMeanAlbedo, leaves it as published).
-		z := albedo.KnockeZonal()
-		refl = z.Scaled(s.Albedo.Value / z.A0)
-	case scenario.AlbedoGrid:
-		f, err := os.Open(s.Albedo.GridFile)
-		if err != nil {
+	}
+	refl, err := m.Reflectance(s.Albedo.Value, s.Albedo.GridFile)
+	if err != nil {
+		if m.TakesGrid {
 			return nil, fmt.Errorf("albedo.grid_file: %w", err)
 		}
-		g, err := albedo.ParseGrid(f)
-		f.Close()
-		if err != nil {
-			return nil, fmt.Errorf("albedo.grid_file %s: %w", s.Albedo.GridFile, err)
-		}
-		refl = g
-	default:
-		return nil, fmt.Errorf("albedo.model: %q is not one of none, uniform, zonal, grid", s.Albedo.Model)
+		return nil, fmt.Errorf("albedo.value: %w", err)
 	}
 	cfg := albedo.Config{Reflectance: refl, Cells: s.Albedo.Cells, AltitudeKm: s.Orbit.SemiMajorAxisKm - orbit.RadiusEarthKm}
 	if s.Orbit.Eccentricity > 0 {
@@ -340,6 +330,9 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	if err != nil {
 		return cfg, fmt.Errorf("sun_model: %w", err)
 	}
+	if _, err := illum.LookupShadow(s.Shadow); err != nil {
+		return cfg, fmt.Errorf("shadow: %w", err)
+	}
 	law, err := buildAttitude(s, att, "attitude")
 	if err != nil {
 		return cfg, err
@@ -375,8 +368,9 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 // ShadowModel is the scenario's shadow geometry, used by the step loop, the
 // eclipse search and the year view alike.
 func ShadowModel(s *scenario.Scenario) illum.ShadowModel {
-	if s.Shadow == "cylindrical" {
-		return illum.Cylindrical
+	m, err := illum.LookupShadow(s.Shadow)
+	if err != nil {
+		return illum.Conical // refused by the scenario's validation already
 	}
-	return illum.Conical
+	return m.Shadow
 }

@@ -13,8 +13,12 @@ import (
 // The scenario's default zonal mean is the published profile's own a₀, so
 // an unset albedo.value leaves the Knocke profile unscaled.
 func TestZonalDefaultIsThePublishedMean(t *testing.T) {
-	if scenario.ZonalMeanAlbedo != albedo.KnockeZonal().A0 {
-		t.Errorf("scenario.ZonalMeanAlbedo %g, Knocke a₀ %g", scenario.ZonalMeanAlbedo, albedo.KnockeZonal().A0)
+	s, err := scenario.Parse([]byte("orbit: {altitude_km: 550, inclination_deg: 97.6}\nbody:\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\nalbedo: {model: zonal}\n"), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Albedo.Value != albedo.KnockeZonal().A0 {
+		t.Errorf("default zonal albedo.value %g, Knocke a₀ %g", s.Albedo.Value, albedo.KnockeZonal().A0)
 	}
 }
 

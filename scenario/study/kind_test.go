@@ -8,6 +8,7 @@ import (
 	"gonum.org/v1/gonum/spatial/r3"
 
 	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 	"codeberg.org/sunsight/sunsight/scenario"
 )
 
@@ -58,5 +59,20 @@ func TestNewKindNeedsOnlyItsRegistryEntry(t *testing.T) {
 	_, err = scenario.Parse([]byte(head+"    - {name: a, kind: test-cutoff, face: \"+Z\", cutoff_fraction: 2}\n"), ".")
 	if err == nil || !strings.Contains(err.Error(), "cutoff_fraction") {
 		t.Errorf("cutoff_fraction 2: %v", err)
+	}
+}
+
+// Every attitude law of the registry has a builder here, and no builder is
+// left without a registered law.
+func TestEveryLawHasABuilder(t *testing.T) {
+	for _, l := range attitude.Laws() {
+		if _, ok := lawBuilders[l.Name]; !ok {
+			t.Errorf("law %q has no builder", l.Name)
+		}
+	}
+	for name := range lawBuilders {
+		if _, err := attitude.LookupLaw(name); err != nil {
+			t.Errorf("builder %q: %v", name, err)
+		}
 	}
 }

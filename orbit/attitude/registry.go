@@ -1,0 +1,90 @@
+package attitude
+
+import (
+	"fmt"
+	"strings"
+)
+
+// Attitude law names in the scenario file.
+const (
+	NameNadir     = "nadir"
+	NameSun       = "sun"
+	NameInertial  = "inertial"
+	NameSpin      = "spin"
+	NameTumble    = "tumble"
+	NameIsotropic = "isotropic"
+	// NameSchedule is one law in sunlight and another in eclipse; it is
+	// written with in_sunlight and in_eclipse rather than with law.
+	NameSchedule = "schedule"
+)
+
+// LawInfo is the registry entry of one attitude law: its name in the
+// scenario file, what it models and its source (the report's models table
+// and check print both), the file keys it takes, and whether each Monte
+// Carlo unit draws its own attitude.
+type LawInfo struct {
+	Name   string
+	Model  string
+	Source string
+	Keys   []string
+	Random bool
+}
+
+var laws = []LawInfo{
+	{Name: NameNadir, Model: "LVLH pointing with an optional fixed 3-2-1 offset",
+		Source: "TRIAD (H. D. Black, AIAA J. 2(7), 1964; from memory)",
+		Keys:   []string{"point_axis", "align_axis", "roll_offset_deg", "pitch_offset_deg", "yaw_offset_deg"}},
+	{Name: NameSun, Model: "a body axis to the sun, a second toward the orbit normal, nadir or an inertial direction, optional spin about the sun line",
+		Source: "TRIAD (H. D. Black, AIAA J. 2(7), 1964; from memory)",
+		Keys:   []string{"point_axis", "align_axis", "clock_deg", "align_to", "align_inertial", "rate_deg_s"}},
+	{Name: NameInertial, Model: "a fixed attitude, as a quaternion or Euler angles",
+		Source: "H. Schaub and J. L. Junkins, Analytical Mechanics of Space Systems, 4th ed., 2018, §3.2 (from memory)",
+		Keys:   []string{"quaternion", "euler_deg", "euler_sequence"}},
+	{Name: NameSpin, Model: "a body axis held on an inertial axis, turning at a constant rate",
+		Source: "closed form (rotation about a fixed axis)",
+		Keys:   []string{"quaternion", "euler_deg", "euler_sequence", "spin_axis", "rate_deg_s"}},
+	{Name: NameTumble, Model: "a seeded random start attitude and constant body rates up to a maximum",
+		Source: "K. Shoemake, Uniform random rotations, Graphics Gems III, 1992 (from memory); constant rates: common practice, no source",
+		Keys:   []string{"max_rate_deg_s"}, Random: true},
+	{Name: NameIsotropic, Model: "an independent uniform random attitude at each step",
+		Source: "K. Shoemake, Uniform random rotations, Graphics Gems III, 1992 (from memory)",
+		Random: true},
+}
+
+// Laws lists the registered attitude laws (not the schedule, which combines
+// two of them).
+func Laws() []LawInfo { return append([]LawInfo(nil), laws...) }
+
+// LawNames lists the registered law names.
+func LawNames() []string {
+	out := make([]string, len(laws))
+	for i, l := range laws {
+		out[i] = l.Name
+	}
+	return out
+}
+
+// LookupLaw returns the registry entry of an attitude law.
+func LookupLaw(name string) (LawInfo, error) {
+	for _, l := range laws {
+		if l.Name == name {
+			return l, nil
+		}
+	}
+	return LawInfo{}, fmt.Errorf("attitude: law %q is not one of %s", name, strings.Join(LawNames(), ", "))
+}
+
+// LawKeys lists every key some law takes, in registry order without repeats.
+func LawKeys() []string {
+	var out []string
+	seen := map[string]bool{}
+	for _, l := range laws {
+		for _, k := range l.Keys {
+			if !seen[k] {
+				seen[k] = true
+				out = append(out, k)
+			}
+		}
+	}
+	return out
+}

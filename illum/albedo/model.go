@@ -16,6 +16,21 @@ type Sensor struct {
 	Normal    r3.Vec   // boresight, unit, EME2000
 	HalfAngle float64  // cone field of view, rad, (0, π/2]
 	Response  Response // relative response vs incidence; zero value = cosine
+	// Cells, when set, is a detector split into cells (a four-quadrant
+	// sensor): the sum runs through each cell's own response, in the
+	// sensor frame (X, Y, Normal), instead of Response, and fills
+	// Result.Cells. HalfAngle still bounds the cells the sum visits.
+	Cells CellResponse
+	X, Y  r3.Vec // sensor axes with Cells: unit, ⟂ Normal, Y = Normal × X
+}
+
+// CellResponse is the response of a detector split into up to four cells to
+// a collimated beam arriving from the sensor-frame direction d (d.Z = cos θ
+// > 0; d need not be unit: the response must scale with |d| as cos θ does):
+// the relative response of each cell, so that a direct beam of irradiance S
+// gives cell i the signal S·CellResponse(d)[i].
+type CellResponse interface {
+	CellResponse(d r3.Vec) [4]float64
 }
 
 // Validate reports a sensor the model cannot use; field names the sensor in
@@ -43,6 +58,9 @@ type Result struct {
 	// Fill is the fraction of the field-of-view solid angle filled by sunlit,
 	// visible Earth, in [0, 1].
 	Fill float64
+	// Cells is, for a sensor with Cells, ∫ L(ω)·CellResponse(ω)[i] dω
+	// per cell (W/m²); Irradiance is then their sum.
+	Cells [4]float64
 }
 
 // Config sets up a Model.
@@ -247,8 +265,53 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 	}
 }
 
+// sumCells integrates the lit cells through a cell detector's own
+// responses: each Earth cell lights the detector cells its own direction
+// lights (midpoint rule on the cell's mean arrival direction; the cell
+// responses are continuous, so no edge weighting is needed).
+func sumCells(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Result {
+	n := toFrame(sn.Normal, ex, ey, ez)
+	x, y := toFrame(sn.X, ex, ey, ez), toFrame(sn.Y, ex, ey, ez)
+	var res Result
+	if math.Acos(max(-1, min(1, -n.Z))) >= geo.η+sn.HalfAngle+geo.halfWidth {
+		return res
+	}
+	var dx, dy, dz, count float64
+	for k := range lit {
+		l := &lit[k]
+		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz
+		if c <= 0 {
+			continue
+		}
+		d := r3.Vec{X: x.X*l.ux + x.Y*l.uy + x.Z*l.uz, Y: y.X*l.ux + y.Y*l.uy + y.Z*l.uz, Z: c}
+		w := sn.Cells.CellResponse(d)
+		t := w[0] + w[1] + w[2] + w[3]
+		if t <= 0 {
+			continue
+		}
+		count++
+		for i := range w {
+			res.Cells[i] += l.w * w[i]
+		}
+		we := l.w * t
+		res.Irradiance += we
+		dx += we * l.ux
+		dy += we * l.uy
+		dz += we * l.uz
+	}
+	if res.Irradiance > 0 {
+		res.Dir = vecmath.Unit(r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez)))
+	}
+	cosH := math.Cos(sn.HalfAngle)
+	res.Fill = min(1, count*geo.cellSolidAngle/(2*math.Pi*(1-cosH)))
+	return res
+}
+
 // sumSensor integrates the lit cells over one sensor's cone.
 func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Result {
+	if sn.Cells != nil {
+		return sumCells(lit, sn, ex, ey, ez, geo)
+	}
 	n := toFrame(sn.Normal, ex, ey, ez)
 	cosH := math.Cos(sn.HalfAngle)
 	if sn.HalfAngle >= math.Pi/2 {

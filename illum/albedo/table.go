@@ -123,6 +123,9 @@ func NewLocalTable(m *Model, radiusKm float64, sensors []Sensor, resDeg float64)
 		if err := s.Validate(fmt.Sprintf("sensors[%d]", i)); err != nil {
 			return nil, err
 		}
+		if s.Cells != nil {
+			return nil, fmt.Errorf("albedo: local table: sensors[%d] has cells: the table keeps one value per sensor; integrate it with Model.Irradiance", i)
+		}
 	}
 	nθ := int(math.Ceil(180/resDeg - 1e-9))
 	t := &LocalTable{

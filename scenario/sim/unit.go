@@ -61,6 +61,13 @@ type geometry struct {
 	cosine          []bool
 	albIn           []albedo.Sensor
 	albOut, corrOut []albedo.Result
+	// Sensors whose albedo runs through their own cell responses (quadrant
+	// sensors): their sensor axes, and, when a table serves the others,
+	// their own integral.
+	cells        []int
+	cellX, cellY []r3.Vec
+	cellIn       []albedo.Sensor
+	cellOut      []albedo.Result
 }
 
 func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*geometry, error) {
@@ -96,7 +103,15 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*ge
 			if cfg.AlbedoResponse != nil {
 				g.albIn[i].Response = cfg.AlbedoResponse[i]
 			}
+			if cr, ok := s.(albedo.CellResponse); ok {
+				x, y, _ := s.Mount().Axes()
+				g.albIn[i].Cells = cr
+				g.cells = append(g.cells, i)
+				g.cellX, g.cellY = append(g.cellX, x), append(g.cellY, y)
+			}
 		}
+		g.cellIn = make([]albedo.Sensor, len(g.cells))
+		g.cellOut = make([]albedo.Result, len(g.cells))
 	}
 	return g, nil
 }
@@ -125,15 +140,27 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 	for i, b := range g.boresights {
 		g.albIn[i].Normal = M.toECI(b)
 	}
+	for k, i := range g.cells {
+		g.albIn[i].X, g.albIn[i].Y = M.toECI(g.cellX[k]), M.toECI(g.cellY[k])
+	}
 	gmst := ephem.GMST(g.jdUT0 + t/86400)
 	if g.table == nil || !g.table.irradiance(g.albOut, st, sunU, sunD, g.albIn) {
 		g.alb.Irradiance(g.albOut, st.R, sunU, sunD, gmst, jd, g.albIn)
+	} else if len(g.cells) > 0 {
+		// The tables hold cones: the cell sensors are integrated on their own.
+		for k, i := range g.cells {
+			g.cellIn[k] = g.albIn[i]
+		}
+		g.alb.Irradiance(g.cellOut, st.R, sunU, sunD, gmst, jd, g.cellIn)
+		for k, i := range g.cells {
+			g.albOut[i] = g.cellOut[k]
+		}
 	}
 	if g.corr != nil {
 		g.corr.Irradiance(g.corrOut, st.R, sunU, sunD, gmst, jd, g.albIn)
 	}
 	for i := range g.albOut {
-		albBody[i] = sensor.Albedo{Irradiance: g.albOut[i].Irradiance}
+		albBody[i] = sensor.Albedo{Irradiance: g.albOut[i].Irradiance, Cells: g.albOut[i].Cells}
 		if g.albOut[i].Irradiance > 0 {
 			albBody[i].Dir = M.toBody(g.albOut[i].Dir)
 		}

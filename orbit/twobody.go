@@ -46,6 +46,11 @@ func (p *TwoBody) Fill(dst []State, t0, dt float64) {
 // (Montenbruck & Gill 2000, eqs. (2.34) and (2.36) p. 28, from memory).
 func ellipseState(a, e, b, n, E float64, P, Q r3.Vec) State {
 	sE, cE := math.Sincos(E)
+	return ellipseStateSC(a, e, b, n, sE, cE, P, Q)
+}
+
+// ellipseStateSC is ellipseState given sin E and cos E.
+func ellipseStateSC(a, e, b, n, sE, cE float64, P, Q r3.Vec) State {
 	x, y := a*(cE-e), a*b*sE
 	k := n * a / (1 - e*cE)
 	vx, vy := -k*sE, k*b*cE

@@ -6,7 +6,7 @@ import (
 	"runtime/pprof"
 )
 
-// cpuProfileUsage is the help text of the -cpuprofile flag the long-running
+// cpuProfileUsage is the help text of the --cpuprofile flag the long-running
 // commands share.
 const cpuProfileUsage = "write a CPU profile of the command to `FILE` (read it with go tool pprof)"
 
@@ -19,12 +19,12 @@ func startCPUProfile(path string) (stop func() error, err error) {
 	}
 	f, err := os.Create(path)
 	if err != nil {
-		return nil, usagef("-cpuprofile %s: %v", path, err)
+		return nil, usagef("--cpuprofile %s: %v", path, err)
 	}
 	if err := pprof.StartCPUProfile(f); err != nil {
 		f.Close()
 		os.Remove(path)
-		return nil, fmt.Errorf("-cpuprofile %s: %w", path, err)
+		return nil, fmt.Errorf("--cpuprofile %s: %w", path, err)
 	}
 	return func() error {
 		pprof.StopCPUProfile()

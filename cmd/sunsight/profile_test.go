@@ -9,7 +9,7 @@ import (
 	"testing"
 )
 
-// -cpuprofile writes a profile (pprof's format is gzip-compressed protocol
+// --cpuprofile writes a profile (pprof's format is gzip-compressed protocol
 // buffers) and leaves the run's output as it is; a path that cannot be
 // created is refused with exit 2 naming the flag.
 func TestRunCPUProfile(t *testing.T) {
@@ -42,7 +42,7 @@ func TestRunCPUProfile(t *testing.T) {
 	if code := runMain([]string{"run", "-quiet", "-duration", "1h", "-cpuprofile", bad, "../../examples/nadir-6u-sso.yaml"}, &out, &errb); code != 2 {
 		t.Fatalf("bad profile path: exit %d, want 2", code)
 	}
-	if !strings.Contains(errb.String(), "-cpuprofile") {
+	if !strings.Contains(errb.String(), "--cpuprofile") {
 		t.Errorf("message does not name the flag: %s", errb.String())
 	}
 }

@@ -74,18 +74,46 @@ func alignPair(pb, pi, sb, si r3.Vec) r3.Rotation {
 // +Z, +X: +Z × +X = +Y, +Z × +Y = −X), so the rows of C are −i3, i2, i1.
 // Where either triad is near degenerate it calls alignPair itself.
 func alignAxes(primaryBody, pi, secondaryBody, si r3.Vec) r3.Rotation {
+	if m, ok := alignRows(primaryBody, pi, secondaryBody, si); ok {
+		return orthoToQuat(m[0], m[1], m[2])
+	}
+	return alignPair(orDefault(primaryBody, unitZ), pi, orDefault(secondaryBody, unitX), si)
+}
+
+// alignRows is the matrix of alignAxes (rows: the body axes in ECI), built
+// directly; ok is false in the degenerate cases alignPair handles.
+func alignRows(primaryBody, pi, secondaryBody, si r3.Vec) (Rows, bool) {
 	i1, i2, i3, ok := unitPair(pi, si)
-	if primaryBody == (r3.Vec{}) && secondaryBody == (r3.Vec{}) {
+	if (primaryBody == (r3.Vec{}) || primaryBody == unitZ) && (secondaryBody == (r3.Vec{}) || secondaryBody == unitX) {
+		// The default axes: the rows are the inertial triad itself.
 		if ok {
-			return orthoToQuat(r3.Scale(-1, i3), i2, i1)
+			return Rows{r3.Scale(-1, i3), i2, i1}, true
 		}
 	} else if b1, b2, b3, okB := unitPair(axisOr(primaryBody, unitZ), axisOr(secondaryBody, unitX)); ok && okB {
 		row := func(x1, x2, x3 float64) r3.Vec { // Σ_k b_k[r]·i_k
 			return r3.Add(r3.Add(r3.Scale(x1, i1), r3.Scale(x2, i2)), r3.Scale(x3, i3))
 		}
-		return orthoToQuat(row(b1.X, b2.X, b3.X), row(b1.Y, b2.Y, b3.Y), row(b1.Z, b2.Z, b3.Z))
+		return Rows{row(b1.X, b2.X, b3.X), row(b1.Y, b2.Y, b3.Y), row(b1.Z, b2.Z, b3.Z)}, true
 	}
-	return alignPair(orDefault(primaryBody, unitZ), pi, orDefault(secondaryBody, unitX), si)
+	return Rows{}, false
+}
+
+// Rows is an attitude as a direction-cosine matrix: Rows[i] is body axis i
+// in ECI, so Rows[i]·v is component i in body axes of the ECI vector v. It
+// is the matrix of the rotation a Law returns (ToDCM).
+type Rows [3]r3.Vec
+
+// RowsLaw is a Law that also builds its matrix directly, without the
+// quaternion a step loop would turn back into a matrix.
+type RowsLaw interface {
+	Law
+	Rows(t float64, s orbit.State, sunDir r3.Vec) Rows
+}
+
+// RowsOf returns the matrix of a rotation (quatToDCM).
+func RowsOf(q r3.Rotation) Rows {
+	d := quatToDCM(q)
+	return Rows{{X: d[0][0], Y: d[0][1], Z: d[0][2]}, {X: d[1][0], Y: d[1][1], Z: d[1][2]}, {X: d[2][0], Y: d[2][1], Z: d[2][2]}}
 }
 
 // axisOr is v, or def when v is zero. Unlike orDefault it does not
@@ -165,6 +193,16 @@ func (n Nadir) Attitude(_ float64, s orbit.State, _ r3.Vec) r3.Rotation {
 		return q
 	}
 	return then(q, n.Offset)
+}
+
+// Rows implements RowsLaw: the matrix of Attitude, built from the axes.
+func (n Nadir) Rows(t float64, s orbit.State, sun r3.Vec) Rows {
+	if n.Offset == (r3.Rotation{}) {
+		if m, ok := alignRows(n.NadirAxis, r3.Scale(-1, s.R), n.VelocityAxis, s.V); ok {
+			return m
+		}
+	}
+	return RowsOf(n.Attitude(t, s, sun))
 }
 
 // SunReference names the direction the secondary axis of Sun pointing is

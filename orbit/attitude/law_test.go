@@ -260,6 +260,22 @@ func TestSpinFromKeepsStartingAttitude(t *testing.T) {
 			want := then(q0, frameTurn(rate*tt, b))
 			if d := sameRotation(a, want); d > 1e-9 {
 				t.Fatalf("t = %g: attitude off by %g rad from the turn about the body axis", tt, d)
+
+// Nadir's matrix built directly from the axes is the matrix of its
+// quaternion (closed form: the same rotation), for default, custom and
+// offset body axes, to 1e-14.
+func TestNadirRowsMatchAttitude(t *testing.T) {
+	laws := []Nadir{{}, {NadirAxis: r3.Vec{X: 1}, VelocityAxis: r3.Vec{Y: -1}},
+		{NadirAxis: r3.Vec{X: 0.3, Y: 0.2, Z: 0.9}, VelocityAxis: r3.Vec{X: 1, Z: -0.2}},
+		{Offset: r3.Rotation{Real: math.Cos(0.1), Imag: math.Sin(0.1)}}}
+	for li, law := range laws {
+		for _, s := range randomStates(200, uint64(li)+7) {
+			got := law.Rows(0, s, r3.Vec{X: 1})
+			want := RowsOf(law.Attitude(0, s, r3.Vec{X: 1}))
+			for i := range got {
+				if d := r3.Norm(r3.Sub(got[i], want[i])); d > 1e-14 {
+					t.Fatalf("law %d: row %d differs by %g: %v vs %v", li, i, d, got[i], want[i])
+				}
 			}
 		}
 	}

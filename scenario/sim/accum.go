@@ -5,28 +5,34 @@ import (
 	"sync"
 )
 
-// Moments accumulates count, mean, variance (Welford 1962, Technometrics 4(3):419–420,
-// from memory), RMS, minimum and maximum of a stream without storing it.
+// Moments accumulates count, mean, variance, RMS, minimum and maximum of a
+// stream without storing it. It keeps the sums of x − K and (x − K)² about
+// a shift K, the first value (the shifted-data algorithm: Chan, Golub &
+// LeVeque 1983, Am. Stat. 37(3):242–247, from memory): no division per
+// value, and no cancellation as long as the spread of the values is not far
+// below their distance from K (angle errors in degrees: relative error of
+// the variance ~1e-12 measured against gonum, TestMomentsMatchGonum).
 type Moments struct {
 	N        int
-	mean, m2 float64
+	k        float64 // shift: the first value
+	s1, s2   float64 // Σ(x − k), Σ(x − k)²
 	sumSq    float64
 	Min, Max float64
 }
 
 // Add folds x into the moments.
 func (m *Moments) Add(x float64) {
-	m.N++
-	if m.N == 1 {
-		m.Min, m.Max = x, x
+	if m.N == 0 {
+		m.k, m.Min, m.Max = x, x, x
 	} else if x < m.Min {
 		m.Min = x
 	} else if x > m.Max {
 		m.Max = x
 	}
-	d := x - m.mean
-	m.mean += d / float64(m.N)
-	m.m2 += d * (x - m.mean)
+	m.N++
+	d := x - m.k
+	m.s1 += d
+	m.s2 += d * d
 	m.sumSq += x * x
 }
 
@@ -35,7 +41,7 @@ func (m *Moments) Mean() float64 {
 	if m.N == 0 {
 		return math.NaN()
 	}
-	return m.mean
+	return m.k + m.s1/float64(m.N)
 }
 
 // StdDev returns the sample standard deviation, NaN with fewer than two values.
@@ -43,7 +49,8 @@ func (m *Moments) StdDev() float64 {
 	if m.N < 2 {
 		return math.NaN()
 	}
-	return math.Sqrt(m.m2 / float64(m.N-1))
+	n := float64(m.N)
+	return math.Sqrt(max(0, m.s2-m.s1*m.s1/n) / (n - 1))
 }
 
 // RMS returns the root mean square, NaN when empty.
@@ -54,8 +61,9 @@ func (m *Moments) RMS() float64 {
 	return math.Sqrt(m.sumSq / float64(m.N))
 }
 
-// Merge folds another accumulator into m (Chan, Golub & LeVeque 1979 pairwise
-// update, from memory).
+// Merge folds another accumulator into m: o's sums are moved to m's shift,
+// Σ(x − k₁) = Σ(x − k₂) + n₂δ and Σ(x − k₁)² = Σ(x − k₂)² + 2δΣ(x − k₂) + n₂δ²
+// with δ = k₂ − k₁ (closed form).
 func (m *Moments) Merge(o *Moments) {
 	if o.N == 0 {
 		return
@@ -64,10 +72,10 @@ func (m *Moments) Merge(o *Moments) {
 		*m = *o
 		return
 	}
-	n := float64(m.N + o.N)
-	d := o.mean - m.mean
-	m.m2 += o.m2 + d*d*float64(m.N)*float64(o.N)/n
-	m.mean += d * float64(o.N) / n
+	δ := o.k - m.k
+	n2 := float64(o.N)
+	m.s2 += o.s2 + 2*δ*o.s1 + n2*δ*δ
+	m.s1 += o.s1 + n2*δ
 	m.sumSq += o.sumSq
 	m.N += o.N
 	m.Min = math.Min(m.Min, o.Min)

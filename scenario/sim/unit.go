@@ -54,6 +54,9 @@ type geometry struct {
 	sun             *sunCache
 	law             attitude.Law
 	eclAware        attitude.EclipseAware
+	rows            attitude.RowsLaw
+	states          []orbit.State // the block of steps [blk0, blk0+len)
+	blk0            int
 	alb, corr       *albedo.Model
 	table           *localAlbedo
 	jd0, jdUT0      float64
@@ -79,6 +82,7 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*ge
 		g.law = cfg.LawForUnit(u)
 	}
 	g.eclAware, _ = g.law.(attitude.EclipseAware)
+	g.rows, _ = g.law.(attitude.RowsLaw)
 	n := arr.Len()
 	for _, s := range arr.Sensors() {
 		g.boresights = append(g.boresights, s.Mount().Boresight())
@@ -116,21 +120,43 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*ge
 	return g, nil
 }
 
+// geomBlock is the length of the blocks of steps whose orbit states are
+// filled at once (Propagator.Fill: a recurrence for the J2-mean
+// propagator). Blocks start at multiples of geomBlock, so a step's state
+// does not depend on where a chunk starts.
+const geomBlock = 1024
+
+// state returns the orbit state of step k, filling its block when needed.
+func (g *geometry) state(k int) orbit.State {
+	if k < g.blk0 || k >= g.blk0+len(g.states) {
+		g.blk0 = k - k%geomBlock
+		n := min(geomBlock, g.cfg.Steps()-g.blk0)
+		if cap(g.states) < n {
+			g.states = make([]orbit.State, geomBlock)
+		}
+		g.states = g.states[:n]
+		g.prop.Fill(g.states, float64(g.blk0)*g.cfg.Step, g.cfg.Step)
+	}
+	return g.states[k-g.blk0]
+}
+
 // step computes step k; with an albedo model it fills albBody (one entry per
 // sensor). It allocates nothing.
 func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 	cfg := g.cfg
 	t := float64(k) * cfg.Step
-	st := g.prop.StateAt(t)
+	st := g.state(k)
 	sunU, sunD := g.sun.at(t)
 	lit, region := shadow(cfg.Cylindrical, st.R, sunU, sunD)
-	var A attitudeRot
-	if g.eclAware != nil {
-		A = attitudeRot(g.eclAware.AttitudeInEclipse(t, st, sunU, region != illum.Sunlit))
-	} else {
-		A = attitudeRot(g.law.Attitude(t, st, sunU))
+	var M bodyMatrix
+	switch {
+	case g.eclAware != nil:
+		M = attitudeRot(g.eclAware.AttitudeInEclipse(t, st, sunU, region != illum.Sunlit)).matrix()
+	case g.rows != nil:
+		M = bodyMatrix(g.rows.Rows(t, st, sunU)) // built directly, no quaternion
+	default:
+		M = attitudeRot(g.law.Attitude(t, st, sunU)).matrix()
 	}
-	M := A.matrix()
 	sg := stepGeom{t: t, region: region, lit: lit, direct: solarIrradiance(sunD) * lit, sunBody: M.toBody(sunU),
 		nadirBody: M.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU)}
 	if g.alb == nil {
@@ -319,16 +345,8 @@ func (a attitudeRot) toBody(v r3.Vec) r3.Vec { return r3.Rotation(a).Rotate(v) }
 // rotation costs two Hamilton products, so the step builds it once.
 type bodyMatrix [3]r3.Vec
 
-// matrix returns the DCM of the rotation q·v·q̄ (the standard quaternion to
-// rotation-matrix form; Shepperd 1978 gives its inverse, from memory).
-func (a attitudeRot) matrix() bodyMatrix {
-	w, x, y, z := a.Real, a.Imag, a.Jmag, a.Kmag
-	return bodyMatrix{
-		{X: 1 - 2*(y*y+z*z), Y: 2 * (x*y - w*z), Z: 2 * (x*z + w*y)},
-		{X: 2 * (x*y + w*z), Y: 1 - 2*(x*x+z*z), Z: 2 * (y*z - w*x)},
-		{X: 2 * (x*z - w*y), Y: 2 * (y*z + w*x), Z: 1 - 2*(x*x+y*y)},
-	}
-}
+// matrix returns the DCM of the rotation q·v·q̄.
+func (a attitudeRot) matrix() bodyMatrix { return bodyMatrix(attitude.RowsOf(r3.Rotation(a))) }
 
 // toBody expresses an ECI vector in body axes.
 func (m *bodyMatrix) toBody(v r3.Vec) r3.Vec {

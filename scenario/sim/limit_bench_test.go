@@ -1,0 +1,195 @@
+package sim
+
+import (
+	"context"
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
+)
+
+// benchDaySteps is one day at 10 s, the span of the per-step benchmarks.
+const benchDaySteps = 8640
+
+// BenchmarkStepLimit is the floor of the no-albedo reference case (bench/
+// README.md) on one core: only the arithmetic the job needs, in one tight
+// loop — the circular J2-mean orbit by incremental rotation of the argument
+// of latitude and the node, the interpolated sun, the cylindrical shadow, the
+// nadir frame, six dot products for the face sensors (60° cones), the
+// coverage counts, the opposite-pairs estimate and its error into a moment
+// and quantile accumulator. It reports ns/step; the engine's figure is
+// BenchmarkEngineStep's, in the same run.
+func BenchmarkStepLimit(b *testing.B) {
+	cfg := referenceCase(b, 1, false)
+	p := cfg.NewPropagator().(*orbit.J2Mean)
+	el := p.MeanElementsAt(0)
+	dΩ, _, dM := orbit.J2Rates(el)
+	a := el.SemiMajorAxisKm
+	si, ci := math.Sincos(el.Inclination)
+	const dt = 10.0
+	sdu, cdu := math.Sincos(dM * dt) // circular: argument of latitude rate
+	sdΩ, cdΩ := math.Sincos(dΩ * dt)
+	cosHalf := math.Cos(60 * math.Pi / 180)
+	re2 := illum.EarthRadiusKm * illum.EarthRadiusKm
+	var m Moments
+	q := NewQuantiles()
+	var counts [4]int
+	b.ResetTimer()
+	for b.Loop() {
+		sun := newSunCache(cfg.Sun, ephem.JulianDateTT(cfg.Epoch))
+		su, cu := math.Sincos(el.ArgPerigee + el.MeanAnomaly)
+		sΩ, cΩ := math.Sincos(el.RAAN)
+		for k := range benchDaySteps {
+			t := float64(k) * dt
+			// Orbit: r = a (cos u P + sin u Q), v = n a (−sin u P + cos u Q).
+			P := r3.Vec{X: cΩ, Y: sΩ}
+			Q := r3.Vec{X: -sΩ * ci, Y: cΩ * ci, Z: si}
+			r := r3.Vec{X: a * (cu*P.X + su*Q.X), Y: a * (cu*P.Y + su*Q.Y), Z: a * su * Q.Z}
+			h := r3.Cross(P, Q) // orbit normal
+			su, cu = su*cdu+cu*sdu, cu*cdu-su*sdu
+			sΩ, cΩ = sΩ*cdΩ+cΩ*sdΩ, cΩ*cdΩ-sΩ*sdΩ
+			s, _ := sun.at(t)
+			// Cylindrical shadow.
+			rs := r3.Dot(r, s)
+			if rs < 0 && r3.Norm2(r)-rs*rs < re2 {
+				continue
+			}
+			// Nadir frame: z = −r̂, y = −ĥ, x = y × z; the sun in body axes.
+			z := r3.Scale(-1/math.Sqrt(r3.Norm2(r)), r)
+			y := r3.Scale(-1, h)
+			x := r3.Cross(y, z)
+			bx, by, bz := r3.Dot(x, s), r3.Dot(y, s), r3.Dot(z, s)
+			// Six face sensors: cosine inside the 60° cone.
+			var sig [6]float64
+			seen := 0
+			for i, c := range [6]float64{bx, -bx, by, -by, bz, -bz} {
+				if c >= cosHalf {
+					sig[i] = c
+					seen++
+				}
+			}
+			counts[min(seen, 3)]++
+			// Opposite pairs and the error to the true direction.
+			ex, ey, ez := sig[0]-sig[1], sig[2]-sig[3], sig[4]-sig[5]
+			n := math.Sqrt(ex*ex + ey*ey + ez*ez)
+			if n == 0 {
+				continue
+			}
+			cosErr := (ex*bx + ey*by + ez*bz) / n
+			d := math.Acos(min(1, cosErr)) * (180 / math.Pi)
+			m.Add(d)
+			q.Add(d)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*benchDaySteps), "ns/step")
+	if m.N == 0 || counts[0]+counts[1]+counts[2]+counts[3] == 0 {
+		b.Fatal("nothing accumulated")
+	}
+}
+
+// BenchmarkEngineStep runs the engine on the no-albedo reference case (one
+// day, one worker, one unit) and reports ns/step, to set beside
+// BenchmarkStepLimit.
+func BenchmarkEngineStep(b *testing.B) {
+	cfg := referenceCase(b, 1, false)
+	cfg.Estimators = cfg.Estimators[:1] // opposite pairs, as the limit
+	cfg.Workers = 1
+	for b.Loop() {
+		if _, err := Run(context.Background(), cfg); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*cfg.Steps()), "ns/step")
+}
+
+// BenchmarkStages times each stage of the engine's step on the reference
+// case, one day, each stage alone over the inputs of the one before (ns/step).
+func BenchmarkStages(b *testing.B) {
+	cfg := referenceCase(b, 1, false)
+	steps := cfg.Steps()
+	report := func(b *testing.B) {
+		b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*steps), "ns/step")
+	}
+	p := cfg.NewPropagator()
+	states := make([]orbit.State, steps)
+	p.Fill(states, 0, cfg.Step)
+	jd0 := ephem.JulianDateTT(cfg.Epoch)
+	sunU := make([]r3.Vec, steps)
+	sunD := make([]float64, steps)
+	b.Run("propagation", func(b *testing.B) {
+		for b.Loop() {
+			p.Fill(states, 0, cfg.Step)
+		}
+		report(b)
+	})
+	b.Run("sun", func(b *testing.B) {
+		for b.Loop() {
+			c := newSunCache(cfg.Sun, jd0)
+			for k := range states {
+				sunU[k], sunD[k] = c.at(float64(k) * cfg.Step)
+			}
+		}
+		report(b)
+	})
+	region := make([]illum.Region, steps)
+	b.Run("shadow", func(b *testing.B) {
+		for b.Loop() {
+			for k := range states {
+				_, region[k] = shadow(cfg.Cylindrical, states[k].R, sunU[k], sunD[k])
+			}
+		}
+		report(b)
+	})
+	sunBody := make([]r3.Vec, steps)
+	law := cfg.Law.(attitude.RowsLaw)
+	b.Run("attitude", func(b *testing.B) {
+		for b.Loop() {
+			for k := range states {
+				M := bodyMatrix(law.Rows(float64(k)*cfg.Step, states[k], sunU[k]))
+				sunBody[k] = M.toBody(sunU[k])
+			}
+		}
+		report(b)
+	})
+	arr := cfg.Array
+	n := arr.Len()
+	reads := make([]sensor.Reading, steps*n)
+	noise := rand.New(rand.NewPCG(1, 2))
+	b.Run("sensors", func(b *testing.B) {
+		for b.Loop() {
+			for k := range states {
+				arr.Read(reads[k*n:(k+1)*n], sunBody[k], ephem.SolarIrradiance1AU, nil, noise)
+			}
+		}
+		report(b)
+	})
+	est := sensor.OppositePairs{}
+	b.Run("estimator", func(b *testing.B) {
+		for b.Loop() {
+			for k := range states {
+				sinkEst = est.Estimate(arr, reads[k*n:(k+1)*n])
+			}
+		}
+		report(b)
+	})
+	b.Run("accumulators", func(b *testing.B) {
+		c := cfg
+		c.Estimators = []sensor.Estimator{est}
+		for b.Loop() {
+			a := newUnitAcc(&c, arr, false, true, 0)
+			for k := range states {
+				a.step(k, float64(k)*cfg.Step, region[k], 1, 2, sunBody[k], r3.Vec{Z: 1}, 0.3, reads[k*n:(k+1)*n], nil, arr, c.Estimators)
+			}
+		}
+		report(b)
+	})
+}
+
+var sinkEst sensor.Estimate

@@ -260,6 +260,10 @@ func TestSpinFromKeepsStartingAttitude(t *testing.T) {
 			want := then(q0, frameTurn(rate*tt, b))
 			if d := sameRotation(a, want); d > 1e-9 {
 				t.Fatalf("t = %g: attitude off by %g rad from the turn about the body axis", tt, d)
+			}
+		}
+	}
+}
 
 // Nadir's matrix built directly from the axes is the matrix of its
 // quaternion (closed form: the same rotation), for default, custom and

@@ -29,3 +29,12 @@ func ExampleText(name string) ([]byte, error) {
 	}
 	return data, nil
 }
+
+// SchemaURL is the JSON Schema of the scenario file (docs/schema/
+// scenario.schema.json, generated from the file types by a test). sunsight
+// init names it in the first line of the file it writes, so editors with a
+// YAML language server validate and complete the keys.
+const SchemaURL = "https://codeberg.org/sunsight/sunsight/raw/branch/main/docs/schema/scenario.schema.json"
+
+// SchemaComment is the first line sunsight init writes.
+const SchemaComment = "# yaml-language-server: $schema=" + SchemaURL + "\n"

@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"codeberg.org/sunsight/sunsight/scenario"
 )
 
 // Every command's help goes to stdout with its usage line, flags, examples
@@ -73,7 +75,7 @@ func TestInitToStdoutCheckFromStdin(t *testing.T) {
 		t.Fatalf("exit %d: %s", code, errb.String())
 	}
 	want, _ := os.ReadFile("../../examples/nadir-6u-sso.yaml")
-	if out.String() != string(want) {
+	if out.String() != scenario.SchemaComment+string(want) {
 		t.Fatalf("init -o - printed something else than the example")
 	}
 	old := stdin

@@ -31,6 +31,8 @@ func runInit(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return usagef("--example: %v", err)
 	}
+	// The first line names the scenario's JSON Schema for editors.
+	text = append([]byte(scenario.SchemaComment), text...)
 	if *out == stdinName {
 		_, err := stdout.Write(text)
 		return err

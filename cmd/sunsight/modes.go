@@ -88,18 +88,14 @@ func (o *runOutput) writeModes(w io.Writer) {
 }
 
 // modesJSON is the "modes" list of the JSON record, primary first.
-func (o *runOutput) modesJSON() []map[string]any {
-	var out []map[string]any
+func (o *runOutput) modesJSON() []modeRecord {
+	var out []modeRecord
 	for i, m := range o.modeRows() {
-		var tj []map[string]any
-		for _, t := range m.targets {
-			tj = append(tj, map[string]any{"target": t.Label, "required": t.Required, "value": t.Value, "pass": t.Pass})
-		}
 		name := m.name
 		if i == 0 {
 			name = "primary"
 		}
-		out = append(out, map[string]any{"mode": name, "primary": i == 0, "headline": jsonFields{m.h}, "targets": tj})
+		out = append(out, modeRecord{Mode: name, Primary: i == 0, Headline: headlineRecord{m.h}, Targets: study.Records(m.targets)})
 	}
 	return out
 }

@@ -145,7 +145,9 @@ type jsonUnit struct {
 	Sunlit     num             `json:"sunlit_fraction"`
 	Penumbra   num             `json:"penumbra_fraction"`
 	Umbra      num             `json:"umbra_fraction"`
-	Seen       [3]num          `json:"seen_by_at_least_1_2_3"`
+	Seen1      num             `json:"seen_by_1_fraction"`
+	Seen2      num             `json:"seen_by_2_fraction"`
+	Seen3      num             `json:"seen_by_3_fraction"`
 	FalseSun   num             `json:"false_sun_fraction_of_umbra"`
 	BetaMinDeg num             `json:"beta_min_deg"`
 	BetaMaxDeg num             `json:"beta_max_deg"`
@@ -163,7 +165,7 @@ type jsonEclipse struct {
 
 func unitJSON(u *sim.UnitResult) jsonUnit {
 	j := jsonUnit{Unit: u.Unit, Sunlit: num(u.SunlitFraction), Penumbra: num(u.PenumbraFraction), Umbra: num(u.UmbraFraction),
-		Seen: [3]num{num(u.SeenAtLeast[1]), num(u.SeenAtLeast[2]), num(u.SeenAtLeast[3])}, FalseSun: num(u.FalseSunFraction),
+		Seen1: num(u.SeenAtLeast[1]), Seen2: num(u.SeenAtLeast[2]), Seen3: num(u.SeenAtLeast[3]), FalseSun: num(u.FalseSunFraction),
 		BetaMinDeg: num(u.BetaMinDeg), BetaMaxDeg: num(u.BetaMaxDeg)}
 	for _, s := range u.Sensors {
 		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.SaturatedFraction), num(s.FalseSunFraction),
@@ -178,69 +180,161 @@ func unitJSON(u *sim.UnitResult) jsonUnit {
 	return j
 }
 
-// record is the whole JSON document of a run.
-func (o *runOutput) record() map[string]any {
+// runRecord is the whole JSON document of a run (run --json, run.json in
+// the --csv folder). It is the one owner of the record's layout: the JSON
+// Schema docs/schema/run.schema.json is generated from these types and every
+// name is listed in docs/data-dictionary.md (both checked by tests).
+type runRecord struct {
+	SchemaVersion int                  `json:"schema_version"`
+	Tool          toolRecord           `json:"tool"`
+	Scenario      scenarioRecord       `json:"scenario"`
+	Run           runInfoRecord        `json:"run"`
+	Headline      headlineRecord       `json:"headline"`
+	EclipseStats  eclipseStatsRecord   `json:"eclipse_stats"`
+	Eclipses      []jsonEclipse        `json:"eclipses"`
+	Units         []jsonUnit           `json:"units"`
+	AcrossUnits   []acrossRecord       `json:"across_units"`
+	SkyCoverage   *skyRecord           `json:"sky_coverage,omitempty"`
+	Targets       []study.TargetRecord `json:"targets"`
+	Verdict       verdictRecord        `json:"verdict"`
+	Modes         []modeRecord         `json:"modes,omitempty"`
+}
+
+type toolRecord struct {
+	Name    string `json:"name"`
+	Version string `json:"version"`
+}
+
+// scenarioRecord names the scenario; the seed is a string (a 64-bit value
+// that JSON numbers in JavaScript and jq would round).
+type scenarioRecord struct {
+	Name   string `json:"name"`
+	Seed   string `json:"seed"`
+	Record string `json:"record"`
+}
+
+type runInfoRecord struct {
+	Epoch            string `json:"epoch"`
+	DurationS        num    `json:"duration_s"`
+	StepS            num    `json:"step_s"`
+	Steps            int    `json:"steps"`
+	Units            int    `json:"units"`
+	FalseSunBoundDeg num    `json:"false_sun_bound_deg"`
+}
+
+// headlineRecord is sim.Headline under its json names, NaN as null.
+type headlineRecord struct{ h sim.Headline }
+
+func (h headlineRecord) MarshalJSON() ([]byte, error) { return jsonFields{h.h}.MarshalJSON() }
+
+type eclipseStatsRecord struct {
+	Count           int `json:"eclipses"`
+	MeanS           num `json:"mean_s"`
+	MaxS            num `json:"max_s"`
+	TotalS          num `json:"total_s"`
+	MeanUmbraS      num `json:"mean_umbra_s"`
+	MaxUmbraS       num `json:"max_umbra_s"`
+	ShadowFraction  num `json:"shadow_fraction"`
+	PerOrbit        num `json:"eclipses_per_orbit"`
+	ShadowPerOrbitS num `json:"shadow_per_orbit_s"`
+	LongestSunlitS  num `json:"longest_sunlit_s"`
+	LongestShadowS  num `json:"longest_shadow_s"`
+}
+
+type acrossRecord struct {
+	Estimator        string `json:"estimator"`
+	P50OfUnitP95Deg  num    `json:"p50_of_unit_p95_error_deg"`
+	P95OfUnitP95Deg  num    `json:"p95_of_unit_p95_error_deg"`
+	WorstUnitP95Deg  num    `json:"worst_unit_p95_error_deg"`
+	MinValidFraction num    `json:"min_valid_fraction"`
+	UnitP95Deg       []num  `json:"unit_p95_error_deg"`
+}
+
+// skyRecord is the layout's sky coverage: the share of the body-frame sky
+// seen by at least 1, 2, 3 sensors, and the same with the worst one failed.
+type skyRecord struct {
+	Points     int `json:"points"`
+	Seen1      num `json:"sky_seen_by_1_fraction"`
+	Seen2      num `json:"sky_seen_by_2_fraction"`
+	Seen3      num `json:"sky_seen_by_3_fraction"`
+	OneFailed1 num `json:"sky_seen_by_1_one_failed_fraction"`
+	OneFailed2 num `json:"sky_seen_by_2_one_failed_fraction"`
+	OneFailed3 num `json:"sky_seen_by_3_one_failed_fraction"`
+}
+
+type verdictRecord struct {
+	Status        string   `json:"status"`
+	Targets       int      `json:"targets"`
+	Failed        int      `json:"failed"`
+	FailedTargets []string `json:"failed_targets"`
+	Text          string   `json:"text"`
+}
+
+type modeRecord struct {
+	Mode     string               `json:"mode"`
+	Primary  bool                 `json:"primary"`
+	Headline headlineRecord       `json:"headline"`
+	Targets  []study.TargetRecord `json:"targets"`
+}
+
+// record builds the JSON document of the run.
+func (o *runOutput) record() runRecord {
 	r := o.res
-	var ecl []jsonEclipse
+	ecl := []jsonEclipse{}
 	for _, e := range r.Eclipses {
 		ecl = append(ecl, jsonEclipse{num(e.PenumbraStart), num(e.UmbraStart), num(e.UmbraEnd), num(e.PenumbraEnd), e.StartCut || e.EndCut})
 	}
-	var units []jsonUnit
+	units := []jsonUnit{}
 	for _, u := range r.Units {
 		units = append(units, unitJSON(u))
 	}
-	var across []map[string]any
+	across := []acrossRecord{}
 	for _, a := range r.AcrossUnits {
 		p := make([]num, len(a.UnitP95Deg))
 		for i, v := range a.UnitP95Deg {
 			p[i] = num(v)
 		}
-		across = append(across, map[string]any{"estimator": a.Name, "p50_of_unit_p95_deg": num(a.P50OfUnitP95Deg),
-			"p95_of_unit_p95_deg": num(a.P95OfUnitP95Deg), "worst_unit_p95_deg": num(a.WorstUnitP95Deg),
-			"min_valid_fraction": num(a.MinValidFraction), "unit_p95_deg": p})
+		across = append(across, acrossRecord{a.Name, num(a.P50OfUnitP95Deg), num(a.P95OfUnitP95Deg), num(a.WorstUnitP95Deg),
+			num(a.MinValidFraction), p})
 	}
 	es := r.EclipseStats
-	out := map[string]any{
-		"schema_version": schemaVersion,
-		"tool":           map[string]any{"name": "sunsight", "version": o.version},
-		"scenario":       map[string]any{"name": o.s.Name, "seed": o.s.Seed, "record": string(o.s.Record())},
-		"run": map[string]any{"epoch": o.s.Epoch.Format(time.RFC3339), "duration_s": num(r.DurationS), "step_s": num(r.StepS),
-			"steps": r.Steps, "units": len(r.Units), "false_sun_bound_deg": num(r.FalseSunBoundDeg)},
-		"headline": jsonFields{r.Headline()},
-		"eclipse_stats": map[string]any{"count": es.Count, "mean_s": num(es.MeanS), "max_s": num(es.MaxS), "total_s": num(es.TotalS),
-			"mean_umbra_s": num(es.MeanUmbraS), "max_umbra_s": num(es.MaxUmbraS), "shadow_fraction": num(es.ShadowFraction),
-			"per_orbit": num(es.EclipsesPerOrbit), "shadow_per_orbit_s": num(es.ShadowPerOrbitS),
-			"longest_sunlit_s": num(es.LongestSunlitS), "longest_shadow_s": num(es.LongestShadowS)},
-		"eclipses":     ecl,
-		"units":        units,
-		"across_units": across,
+	v := study.Judge(o.allTargets())
+	rec := runRecord{
+		SchemaVersion: schemaVersion,
+		Tool:          toolRecord{"sunsight", o.version},
+		Scenario:      scenarioRecord{o.s.Name, strconv.FormatInt(int64(o.s.Seed), 10), string(o.s.Record())},
+		Run: runInfoRecord{o.s.Epoch.Format(time.RFC3339), num(r.DurationS), num(r.StepS), r.Steps, len(r.Units),
+			num(r.FalseSunBoundDeg)},
+		Headline: headlineRecord{r.Headline()},
+		EclipseStats: eclipseStatsRecord{es.Count, num(es.MeanS), num(es.MaxS), num(es.TotalS), num(es.MeanUmbraS),
+			num(es.MaxUmbraS), num(es.ShadowFraction), num(es.EclipsesPerOrbit), num(es.ShadowPerOrbitS),
+			num(es.LongestSunlitS), num(es.LongestShadowS)},
+		Eclipses:    ecl,
+		Units:       units,
+		AcrossUnits: across,
+		Targets:     study.Records(o.targets),
+		Verdict:     verdictRecord{v.Status(), v.Total, v.Failed, append([]string{}, v.FailedKeys...), v.Text()},
 	}
 	if o.covErr == nil {
-		out["sky_coverage"] = map[string]any{"points": o.cov.Points,
-			"at_least_1_2_3":         []num{num(o.cov.AtLeast[1]), num(o.cov.AtLeast[2]), num(o.cov.AtLeast[3])},
-			"worst_one_failed_1_2_3": []num{num(o.cov.WorstOneFailed[1]), num(o.cov.WorstOneFailed[2]), num(o.cov.WorstOneFailed[3])}}
+		c := o.cov
+		rec.SkyCoverage = &skyRecord{c.Points, num(c.AtLeast[1]), num(c.AtLeast[2]), num(c.AtLeast[3]),
+			num(c.WorstOneFailed[1]), num(c.WorstOneFailed[2]), num(c.WorstOneFailed[3])}
 	}
-	var tj []map[string]any
-	for _, t := range o.targets {
-		tj = append(tj, map[string]any{"key": t.Key, "target": t.Label, "required": t.Required, "value": t.Value, "pass": t.Pass})
-	}
-	out["targets"] = tj
-	v := study.Judge(o.allTargets())
-	failed := append([]string{}, v.FailedKeys...)
-	out["verdict"] = map[string]any{"status": v.Status(), "targets": v.Total, "failed": v.Failed,
-		"failed_targets": failed, "text": v.Text()}
 	if len(o.modes) > 0 {
-		out["modes"] = o.modesJSON()
+		rec.Modes = o.modesJSON()
 	}
-	return out
+	return rec
 }
 
 func (o *runOutput) jsonBytes() ([]byte, error) {
-	b, err := json.MarshalIndent(o.record(), "", "  ")
-	if err != nil {
+	var b bytes.Buffer
+	enc := json.NewEncoder(&b)
+	enc.SetEscapeHTML(false) // "<=" stays readable
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(o.record()); err != nil {
 		return nil, err
 	}
-	return append(b, '\n'), nil
+	return b.Bytes(), nil
 }
 
 func (o *runOutput) writeJSON(w io.Writer) error {

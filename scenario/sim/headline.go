@@ -25,7 +25,7 @@ type Headline struct {
 	P95AlbedoDeg     float64 `json:"p95_error_albedo_deg"`
 	P95AlbedoPartDeg float64 `json:"p95_albedo_part_deg"`
 	MaxErrorDeg      float64 `json:"max_error_deg"`
-	FalseSunFraction float64 `json:"false_sun_fraction"`
+	FalseSunFraction float64 `json:"false_sun_fraction_of_umbra"`
 	// UnitsP95Deg is the p95 error reached by 95 % of Monte Carlo units
 	// (NaN with a single unit).
 	UnitsP95Deg float64 `json:"units_p95_error_deg"`

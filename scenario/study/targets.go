@@ -58,10 +58,10 @@ type TargetRecord struct {
 	Label    string   `json:"label"`
 	Op       string   `json:"op"`
 	Required float64  `json:"required"`
-	Value    *float64 `json:"value"`
+	Value    *float64 `json:"value" jsonschema:"nullable"`
 	Unit     string   `json:"unit"`
 	Pass     bool     `json:"pass"`
-	Margin   *float64 `json:"margin"`
+	Margin   *float64 `json:"margin" jsonschema:"nullable"`
 }
 
 // Record returns the check as a TargetRecord.

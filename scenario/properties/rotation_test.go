@@ -138,8 +138,11 @@ func (b bodyTurn) file(f *randscenario.File) bool {
 
 // Rotating the layout with the attitude leaves coverage, peak signals and
 // errors unchanged (the physics does not know the names of the body axes).
-func checkRotation(c *runCase) (f failures) {
-	g := c.b.file.Clone()
+func checkRotation(c *runCase) failures {
+	return inMountingPlane(c, rotation(c, c.b.file.Clone()))
+}
+
+func rotation(c *runCase, g *randscenario.File) (f failures) {
 	// Make the default tilt direction explicit in the original too.
 	for i := range g.Body.Sensors {
 		if s := &g.Body.Sensors[i]; s.Face != "" && s.TiltToward == "" {

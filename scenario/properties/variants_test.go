@@ -3,6 +3,7 @@ package properties
 import (
 	"fmt"
 	"math"
+	"testing"
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
@@ -72,11 +73,21 @@ func shareDiffs(f *failures, label string, a, b *sim.UnitResult, tol float64) {
 // A perturbation of the attitude by 1e-9 rad changes no share by more than
 // one sample: seeing the sun is decided by the modelled signal, not by
 // floating-point rounding at the edge of a field of view.
-func checkPerturbation(c *runCase) (f failures) {
+func checkPerturbation(c *runCase) failures {
+	return inMountingPlane(c, perturbation(c, c.b))
+}
+
+func perturbation(c *runCase, base *built) (f failures) {
 	axis := r3.Vec{X: 0.48, Y: -0.6, Z: 0.64}
 	d := smallRotation(axis, 1e-9)
+	refCfg := base.cfg
+	refCfg.Units = 1
+	ref, err := run(refCfg)
+	if err != nil {
+		c.t.Fatal(err)
+	}
 	_, res := c.rerun(func(b *built) bool {
-		cfg := b.cfg
+		cfg := base.cfg
 		cfg.Units = 1
 		cfg.Law = turn(cfg.Law, d)
 		if lfu := cfg.LawForUnit; lfu != nil {
@@ -85,11 +96,11 @@ func checkPerturbation(c *runCase) (f failures) {
 		b.cfg = cfg
 		return true
 	})
-	n := float64(sunlitSamples(c.res.Nominal))
+	n := float64(sunlitSamples(ref.Nominal))
 	if n == 0 {
 		return nil
 	}
-	shareDiffs(&f, "attitude turned by 1e-9 rad", c.res.Nominal, res.Nominal, 1/n)
+	shareDiffs(&f, "attitude turned by 1e-9 rad", ref.Nominal, res.Nominal, 1/n)
 	return f
 }
 
@@ -199,7 +210,10 @@ func smallErrors(kind string) func(c *runCase) failures {
 				f.addf("%d %s sensors, %s: %s valid %.4f, ideal %.4f", len(keep), kind, v.label, e0.Name, e1.ValidFraction, e0.ValidFraction)
 			}
 			s0, s1 := pick(e0), pick(e1)
-			if s0.N >= 20 && s1.N >= 20 && math.Abs(s1.P95Deg-s0.P95Deg) >= 1 {
+			// A p95 over fewer than 200 samples of a broad distribution
+			// (albedo-driven estimates tens of degrees off) moves by
+			// degrees from one sample more or less: not compared.
+			if s0.N >= 200 && s1.N >= 200 && math.Abs(s1.P95Deg-s0.P95Deg) >= 1 {
 				f.addf("%d %s sensors, %s: %s p95 %.3f°, ideal %.3f° (%d and %d samples)", len(keep), kind, v.label, e0.Name, s1.P95Deg, s0.P95Deg, s1.N, s0.N)
 			}
 		}
@@ -429,4 +443,59 @@ func checkAlbedoCorrection(c *runCase) (f failures) {
 		f.addf("corrected: albedo part up to %.3g° over %d samples (p95 %.3g°)", e.AlbedoPart.MaxDeg, e.AlbedoPart.N, e.AlbedoPart.P95Deg)
 	}
 	return f
+}
+
+// inMountingPlane marks the failures of a sun-pointing case in which the
+// sun lies exactly in some sensor's mounting plane (the law's sun axis
+// perpendicular to the surface normal): there the clip at the mounting
+// plane is decided by rounding, a known failure of its own.
+func inMountingPlane(c *runCase, f failures) failures {
+	if len(f) == 0 {
+		return f
+	}
+	laws := []scenario.Law{c.b.s.Attitude.Law}
+	if a := c.b.s.Attitude; a.InSunlight != nil {
+		laws = []scenario.Law{*a.InSunlight}
+	}
+	for _, l := range laws {
+		if l.Name != scenario.LawSun {
+			continue
+		}
+		for _, sc := range c.b.s.Body.Sensors {
+			n := sc.MountNormal
+			if sc.Face != "" {
+				n, _ = faceNormal(sc.Face)
+			}
+			if r3.Norm(n) > 0 && math.Abs(r3.Dot(n, l.PointAxis)) < 1e-12 {
+				for i := range f {
+					f[i] = mountingPlaneTag + f[i]
+				}
+				return f
+			}
+		}
+	}
+	return f
+}
+
+// mountingPlaneTag starts a failure explained by the sun lying in a
+// sensor's mounting plane.
+const mountingPlaneTag = "[sun in the mounting plane of a sensor] "
+
+// A constructed case of the known failure above, so that the default suite
+// always exercises it: the sun held on body +X, a cosine sensor on face −Y
+// tilted 45° toward +X (the sun 45° from its boresight, in its mounting
+// plane), and a quadrant sensor likewise. Turning the attitude by 1e-9 rad
+// must change no share by more than one sample.
+func TestSunInMountingPlane(t *testing.T) {
+	tilt, half := 45.0, 90.0
+	f := simpleFile(600, 51.6, 30, "2026-03-20T00:00:00Z", "conical", 1)
+	f.Attitude = randscenario.Law{Law: "sun", PointAxis: "+X", AlignAxis: "+Z"}
+	f.Body.Sensors = []randscenario.Sensor{
+		{Name: "grazing-cosine", Kind: "cosine", Face: "-Y", TiltDeg: &tilt, TiltToward: "+X", HalfAngleDeg: &half},
+		{Name: "grazing-quadrant", Kind: "quadrant", Face: "+Z", TiltDeg: &tilt, TiltToward: "+X"},
+	}
+	showOnFailure(t, f.YAML())
+	b, res := mustRun(t, f)
+	c := &runCase{t: t, b: b, res: res}
+	verdict(t, "attitude-perturbation-1e-9", checkPerturbation(c))
 }

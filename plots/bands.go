@@ -113,3 +113,32 @@ func runs(x []float64, mask []bool) []Interval {
 	}
 	return out
 }
+
+// Target is a requirement drawn on a figure: a line at Value (in the axis
+// unit of the figure) with its verdict, e.g. Label "≤ 5.00°", Got "15.29°",
+// Pass false.
+type Target struct {
+	Value float64
+	Label string // the requirement as text
+	Got   string // the run's value as text
+	Pass  bool
+}
+
+// text is the legend entry of the target: "target ≤ 5.00°: FAIL (15.29°)".
+func (t Target) text() string {
+	v := "pass"
+	if !t.Pass {
+		v = "FAIL"
+	}
+	s := "target " + t.Label + ": " + v
+	if t.Got != "" {
+		s += " (" + t.Got + ")"
+	}
+	return s
+}
+
+// style is the line of a target: black, long dashes and dots (no series
+// uses it); the verdict is in the legend text.
+func (t Target) style() draw.LineStyle {
+	return draw.LineStyle{Color: colBlack, Width: 2.2, Dashes: []vg.Length{10, 3, 2, 3}}
+}

@@ -101,6 +101,7 @@ var (
 	colUmbra    = color.NRGBA{60, 60, 60, 90}
 	colPenumbra = color.NRGBA{150, 150, 150, 60}
 	colSeason   = color.NRGBA{240, 228, 66, 110}
+	colRun      = color.NRGBA{0, 114, 178, 70}
 	colGrid     = color.RGBA{200, 200, 200, 255}
 )
 
@@ -207,16 +208,49 @@ func (c *Chart) Draw(dc draw.Canvas) {
 	if len(c.Panels) == 0 {
 		return
 	}
+	// Legends go in a column right of the panels, outside the data: each
+	// panel's legend is taken out while the panel draws and drawn beside
+	// it, then put back (a chart may be drawn more than once).
+	legends := make([]plot.Legend, len(c.Panels))
+	var lw vg.Length
+	if c.sky == nil {
+		for i, p := range c.Panels {
+			r := p.Legend.Rectangle(area)
+			if w := r.Max.X - r.Min.X; w > 0 {
+				legends[i] = p.Legend
+				lw = max(lw, w)
+			}
+		}
+	}
+	if lw > 0 {
+		lw += 16
+		for i, p := range c.Panels {
+			if legends[i].TextStyle.Font.Size > 0 {
+				p.Legend = plot.NewLegend()
+				defer func(p *plot.Plot, l plot.Legend) { p.Legend = l }(p, legends[i])
+			}
+		}
+	}
+	panels := draw.Crop(area, 0, -lw, 0, 0)
 	rows := make([][]*plot.Plot, len(c.Panels))
 	for i, p := range c.Panels {
 		rows[i] = []*plot.Plot{p}
 	}
 	t := draw.Tiles{Rows: len(rows), Cols: 1, PadTop: 4, PadBottom: 4, PadLeft: 4, PadRight: 12, PadY: 10}
-	cs := plot.Align(rows, t, area)
+	cs := plot.Align(rows, t, panels)
 	for i, p := range c.Panels {
 		p.Draw(cs[i][0])
+		if legends[i].TextStyle.Font.Size > 0 {
+			l := legends[i]
+			l.Left, l.Top, l.XOffs, l.YOffs = true, true, 0, -float64ToLen(l.TextStyle.Font.Size)*1.6
+			box := draw.Canvas{Canvas: dc.Canvas, Rectangle: vg.Rectangle{
+				Min: vg.Point{X: area.Max.X - lw + 6, Y: cs[i][0].Min.Y}, Max: vg.Point{X: area.Max.X, Y: cs[i][0].Max.Y}}}
+			l.Draw(box)
+		}
 	}
 }
+
+func float64ToLen(v vg.Length) vg.Length { return v }
 
 // Uncaptioned returns a copy of the chart without its drawn caption, for a
 // page that sets the caption as text beside the figure.

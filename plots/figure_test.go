@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"flag"
 	"fmt"
+	"gonum.org/v1/plot"
 	"image/color"
 	"math"
 	"os"
@@ -12,7 +13,7 @@ import (
 	"testing"
 )
 
-var regen = flag.Bool("regen", false, "rewrite testdata/*_golden.svg from the current code")
+var regen = flag.Bool("regen", false, "rewrite testdata/golden/*.svg from the current code")
 
 // Hammer projection, Snyder 1987 USGS PP 1395 (from memory): closed-form
 // values at the centre, the poles, the ±180° meridian and the equator.
@@ -266,32 +267,46 @@ func TestErrorDistFigure(t *testing.T) {
 	f := ErrorDist{Series: []ErrSeries{
 		{Label: "without albedo", ErrorsDeg: append(a, math.NaN())},
 		{Label: "with albedo", BinEdgesDeg: []float64{0, 1, 2, 3}, BinCounts: []float64{50, 40, 10}},
-	}, UnitP95Deg: []float64{0.9, 1.0}}
+	}, UnitP95Deg: []float64{0.9, 1.0}, Target: &Target{Value: 2, Label: "≤ 2.00°", Got: "2.50°", Pass: false}}
 	c, err := f.Plot(Caption{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	svg := mustSVG(t, c)
-	wantText(t, svg, "sun-vector error (deg)", "fraction of valid samples", "without albedo", "with albedo",
-		"p95 without albedo = 0.95°", "p95 with albedo = 2.50°", "p95 of each Monte Carlo unit")
+	wantText(t, svg, "sun-vector error (deg, log scale)", "fraction of valid samples", "without albedo", "with albedo",
+		"p95 without albedo = 0.95°", "p95 with albedo = 2.5°", "p95 of each Monte Carlo unit",
+		"target ≤ 2.00°: FAIL (2.50°)", "0.01", "0.1", "1", "10")
+	if _, ok := c.Panels[0].X.Scale.(plot.LogScale); !ok {
+		t.Error("CDF error axis is not logarithmic")
+	}
 	cdf := c.drawn[0].XYs
 	if len(cdf) != 100 || cdf[0] != (struct{ X, Y float64 }{0.01, 0.01}) || cdf[99].Y != 1 {
 		t.Errorf("CDF read back %v…%v (%d points)", cdf[0], cdf[len(cdf)-1], len(cdf))
 	}
 	// Binned: 95 % falls half-way into the last bin (2…3, 90 % → 100 %).
-	if p := c.drawn[3].XYs[0].X; math.Abs(p-2.5) > 1e-12 {
+	if p := c.drawn[4].XYs[0].X; c.drawn[4].Label != "p95 with albedo" || math.Abs(p-2.5) > 1e-12 {
 		t.Errorf("binned p95 %g, want 2.5", p)
 	}
 }
 
 func TestGapsFigure(t *testing.T) {
-	f := Gaps{DurationsS: []float64{10, 20, 30, 40, 50, 60}, LongestS: 60}
+	f := Gaps{DurationsS: []float64{10, 20, 30, 40, 50, 60}, LongestS: 60, StepS: 10,
+		Target: &Target{Value: 45, Label: "≤ 45 s", Got: "60 s"}}
 	c, err := f.Plot(Caption{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	svg := mustSVG(t, c)
-	wantText(t, svg, "gap duration (s)", "number of gaps", "6 gaps", "longest = 60 s")
+	wantText(t, svg, "gap duration (s; bins of 10 s = 1 × the 10 s step)", "number of gaps", "6 gaps", "longest = 60 s",
+		"target ≤ 45 s: FAIL (60 s)")
+	// Durations are whole steps: with one step per bin every bin holds one
+	// gap and no bin is empty by construction.
+	for _, d := range c.drawn[1:] {
+		w := d.XYs[1].X - d.XYs[0].X
+		if math.Abs(w/10-math.Round(w/10)) > 1e-9 || d.XYs[0].Y != 1 {
+			t.Errorf("bin %v…%v (width %g s) holds %g gaps, want 1 in a whole-step bin", d.XYs[0].X, d.XYs[1].X, w, d.XYs[0].Y)
+		}
+	}
 	total := 0.0
 	for _, d := range c.drawn[1:] {
 		total += d.XYs[0].Y
@@ -385,33 +400,36 @@ func TestSaveLeavesNoPartialFile(t *testing.T) {
 	}
 }
 
-// Golden SVG (gonum/plot cmpimg pattern): the sweep figure of fixed data,
-// byte for byte. Run `go test ./plots -run Golden -regen` after an
-// intended change and review the diff.
-func TestGoldenSweepSVG(t *testing.T) {
-	target := 90.0
-	f := Sweep{Title: "golden sweep", XLabel: "altitude (km)", YLabel: "valid (%)", X: []float64{400, 500, 600},
-		Lines: []Line{{Label: "a", Y: []float64{80, 85, 92}}, {Label: "b", Y: []float64{70, math.NaN(), 95}}}, Target: &target}
-	c, err := f.Plot(Caption{Scenario: "golden", Model: "none", Assumptions: "fixed data"})
-	if err != nil {
-		t.Fatal(err)
-	}
-	got, err := c.SVG()
-	if err != nil {
-		t.Fatal(err)
-	}
-	path := filepath.Join("testdata", "sweep_golden.svg")
-	if *regen {
-		if err := os.WriteFile(path, got, 0o644); err != nil {
+// Golden SVG files (the gonum/plot cmpimg pattern): every figure kind,
+// drawn from fixed demo data, byte for byte. Run
+// `go test ./plots -run Golden -regen` after an intended change and look at
+// the new files (and their PNGs with -demo DIR) before committing.
+func TestGoldenFigures(t *testing.T) {
+	for _, d := range demoFigures() {
+		c, err := d.chart()
+		if err != nil {
+			t.Fatalf("%s: %v", d.name, err)
+		}
+		got, err := c.SVG()
+		if err != nil {
 			t.Fatal(err)
 		}
-	}
-	want, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatalf("%v (run with -regen to create it)", err)
-	}
-	if !bytes.Equal(got, want) {
-		t.Errorf("SVG differs from %s (%d vs %d bytes); rerun with -regen if intended", path, len(got), len(want))
+		path := filepath.Join("testdata", "golden", d.name+".svg")
+		if *regen {
+			if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+				t.Fatal(err)
+			}
+			if err := os.WriteFile(path, got, 0o644); err != nil {
+				t.Fatal(err)
+			}
+		}
+		want, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatalf("%v (run with -regen to create it)", err)
+		}
+		if !bytes.Equal(got, want) {
+			t.Errorf("%s: SVG differs from %s (%d vs %d bytes); rerun with -regen if intended", d.name, path, len(got), len(want))
+		}
 	}
 }
 

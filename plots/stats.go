@@ -6,6 +6,7 @@ import (
 	"math"
 	"slices"
 	"sort"
+	"time"
 
 	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/plot"
@@ -20,6 +21,25 @@ type YearView struct {
 	BetaDeg     []float64 // beta angle, deg
 	EclipseMin  []float64 // eclipse (umbra + penumbra) minutes per orbit
 	EclipseFree []bool    // no eclipse on this day; nil when not known
+	// Year, when set, labels the axis with month starts of that year.
+	Year int
+	// Run is the span of the run in days of year (shaded and labelled);
+	// zero when not shown.
+	Run Interval
+}
+
+// monthTicks labels the first day of each month of year.
+type monthTicks struct{ year int }
+
+func (m monthTicks) Ticks(lo, hi float64) []plot.Tick {
+	var ts []plot.Tick
+	for mo := time.January; mo <= time.December; mo++ {
+		d := float64(time.Date(m.year, mo, 1, 0, 0, 0, 0, time.UTC).YearDay())
+		if d >= lo && d <= hi {
+			ts = append(ts, plot.Tick{Value: d, Label: mo.String()[:3]})
+		}
+	}
+	return ts
 }
 
 // Plot draws beta angle and eclipse minutes per orbit versus day of year,
@@ -35,11 +55,19 @@ func (f YearView) Plot(caption Caption) (*Chart, error) {
 		}
 	}
 	season := runs(f.Day, f.EclipseFree)
+	run := f.Run
+	if run.End < run.Start+1 && run != (Interval{}) {
+		// A run shorter than a day is still shown a day wide.
+		run.End = run.Start + 1
+	}
 	var panels []*plot.Plot
 	var rec []drawnSeries
 	add := func(title, ylabel string, y []float64, c color.Color, legend string) error {
 		p := newPlot(title, "", ylabel)
 		p.Add(bands{season, colSeason})
+		if f.Run != (Interval{}) {
+			p.Add(bands{[]Interval{run}, colRun})
+		}
 		for _, seg := range segments(f.Day, y) {
 			l, err := plotter.NewLine(seg)
 			if err != nil {
@@ -52,7 +80,13 @@ func (f YearView) Plot(caption Caption) (*Chart, error) {
 		if len(season) > 0 {
 			p.Legend.Add("eclipse-free", swatch{colSeason})
 		}
+		if f.Run != (Interval{}) {
+			p.Legend.Add(fmt.Sprintf("this run (days %.0f–%.0f)", math.Floor(f.Run.Start), math.Ceil(f.Run.End)), swatch{colRun})
+		}
 		p.X.Min, p.X.Max = f.Day[0], f.Day[n-1]
+		if f.Year > 0 {
+			p.X.Tick.Marker = monthTicks{f.Year}
+		}
 		panels = append(panels, p)
 		return nil
 	}
@@ -78,6 +112,9 @@ func (f YearView) Plot(caption Caption) (*Chart, error) {
 		}
 	}
 	panels[len(panels)-1].X.Label.Text = "day of year"
+	if f.Year > 0 {
+		panels[len(panels)-1].X.Label.Text = fmt.Sprintf("date in %d (ticks on the 1st of each month)", f.Year)
+	}
 	return &Chart{Panels: panels, Caption: caption, drawn: rec}, nil
 }
 
@@ -98,6 +135,8 @@ type ErrorDist struct {
 	// UnitP95Deg optionally holds the p95 of each Monte Carlo unit; shown
 	// as ticks on the 95 % line of the CDF.
 	UnitP95Deg []float64
+	// Target is the p95 requirement (deg) with its verdict, when set.
+	Target *Target
 }
 
 // cdf returns the points of the empirical or binned CDF and the p95.
@@ -149,68 +188,112 @@ func (s ErrSeries) cdf() (plotter.XYs, float64, error) {
 	return pts, p95, nil
 }
 
-// Plot draws the CDFs (top) and histograms (bottom) with each p95 marked.
+// Plot draws the CDFs (top, log error axis, so a 0.01° curve and a 10°
+// curve both read) and step-outline histograms on log-spaced bins (bottom)
+// with each p95 and the target marked.
 func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	if len(f.Series) == 0 {
 		return nil, fmt.Errorf("plots: error distribution: Series is empty")
 	}
 	cdfP := newPlot("Sun-vector error: cumulative distribution", "", "fraction of valid samples")
-	histP := newPlot("Sun-vector error: histogram", "sun-vector error (deg)", "fraction per bin")
+	histP := newPlot("Sun-vector error: histogram (log-spaced bins)", "sun-vector error (deg, log scale)", "fraction per bin")
 	cdfP.Y.Min, cdfP.Y.Max = 0, 1.02
 	var rec []drawnSeries
-	top := 0.0
-	for _, s := range f.Series {
-		for _, v := range s.ErrorsDeg {
-			if finite(v) {
-				top = math.Max(top, v)
-			}
-		}
+	type prepared struct {
+		pts plotter.XYs
+		p95 float64
 	}
-	if top == 0 {
-		top = 1
-	}
-	sharedEdges := make([]float64, 41)
-	for i := range sharedEdges {
-		sharedEdges[i] = top * float64(i) / 40
-	}
-	cdfP.Add(hline{0.95, draw.LineStyle{Color: color.Gray{140}, Width: 0.8, Dashes: []vg.Length{2, 2}}})
+	var prep []prepared
+	lo, hi := math.Inf(1), math.Inf(-1)
 	for k, s := range f.Series {
 		pts, p95, err := s.cdf()
 		if err != nil {
 			return nil, fmt.Errorf("plots: error distribution: Series[%d] (%q): %w", k, s.Label, err)
 		}
+		for _, p := range pts {
+			if p.X > 0 {
+				lo, hi = math.Min(lo, p.X), math.Max(hi, p.X)
+			}
+		}
+		prep = append(prep, prepared{pts, p95})
+	}
+	if f.Target != nil && f.Target.Value > 0 {
+		lo, hi = math.Min(lo, f.Target.Value), math.Max(hi, f.Target.Value)
+	}
+	if !(lo <= hi) {
+		lo, hi = 0.01, 1
+	}
+	// Whole decades around the data; zero errors sit on the left edge.
+	xmin := math.Pow(10, math.Floor(math.Log10(lo)))
+	xmax := math.Pow(10, math.Ceil(math.Log10(hi*1.0001)))
+	if xmax/xmin < 100 {
+		xmax = xmin * 100
+	}
+	const nb = 40
+	edges := make([]float64, nb+1)
+	for i := range edges {
+		edges[i] = xmin * math.Pow(xmax/xmin, float64(i)/nb)
+	}
+	cdfP.Add(hline{0.95, draw.LineStyle{Color: color.Gray{140}, Width: 0.8, Dashes: []vg.Length{2, 2}}})
+	histTop := 0.0
+	for k, s := range f.Series {
+		pts := make(plotter.XYs, len(prep[k].pts))
+		for i, p := range prep[k].pts {
+			pts[i] = plotter.XY{X: math.Max(p.X, xmin), Y: p.Y}
+		}
+		p95 := prep[k].p95
 		l, err := plotter.NewLine(pts)
 		if err != nil {
 			return nil, fmt.Errorf("plots: error distribution: %w", err)
 		}
-		l.Color, l.Width = seriesColour(k), 2
+		l.Color, l.Width = seriesColour(k), 2.2
+		if k == 1 {
+			l.Dashes = []vg.Length{7, 3}
+		}
 		cdfP.Add(l)
 		rec = append(rec, drawnSeries{0, s.Label, l.XYs}, drawnSeries{0, "p95 " + s.Label, plotter.XYs{{X: p95, Y: 0.95}}})
-		mark := vline{p95, draw.LineStyle{Color: seriesColour(k), Width: 1.2, Dashes: []vg.Length{5, 3}}}
+		mark := vline{math.Max(p95, xmin), draw.LineStyle{Color: seriesColour(k), Width: 1.2, Dashes: []vg.Length{2, 2}}}
 		cdfP.Add(mark)
 		cdfP.Legend.Add(s.Label, l)
-		cdfP.Legend.Add(fmt.Sprintf("p95 %s = %.2f°", s.Label, p95), mark)
+		cdfP.Legend.Add(fmt.Sprintf("p95 %s = %.3g°", s.Label, p95), mark)
 
-		var h *plotter.Histogram
+		// Fraction per log-spaced bin, drawn as a step outline so the
+		// series overlap without mixing colours.
+		counts := make([]float64, nb)
+		total := 0.0
 		if len(s.ErrorsDeg) > 0 {
-			// Shared bins for every sampled series, so bars compare.
-			counts := make([]float64, len(sharedEdges)-1)
-			for _, p := range pts {
-				i := sort.SearchFloat64s(sharedEdges, p.X) - 1
-				counts[max(0, min(i, len(counts)-1))]++
+			for _, p := range prep[k].pts {
+				i := sort.SearchFloat64s(edges, p.X) - 1
+				counts[max(0, min(i, nb-1))]++
+				total++
 			}
-			h, err = binnedHist(sharedEdges, counts)
 		} else {
-			h, err = binnedHist(s.BinEdgesDeg, s.BinCounts)
+			for i, c := range s.BinCounts {
+				mid := (s.BinEdgesDeg[i] + s.BinEdgesDeg[i+1]) / 2
+				j := sort.SearchFloat64s(edges, mid) - 1
+				counts[max(0, min(j, nb-1))] += c
+				total += c
+			}
 		}
+		step := make(plotter.XYs, 0, 2*nb+2)
+		step = append(step, plotter.XY{X: edges[0], Y: 0})
+		for i, c := range counts {
+			step = append(step, plotter.XY{X: edges[i], Y: c / total}, plotter.XY{X: edges[i+1], Y: c / total})
+			histTop = math.Max(histTop, c/total)
+		}
+		step = append(step, plotter.XY{X: edges[nb], Y: 0})
+		h, err := plotter.NewLine(step)
 		if err != nil {
-			return nil, fmt.Errorf("plots: error distribution: Series[%d] (%q): %w", k, s.Label, err)
+			return nil, fmt.Errorf("plots: error distribution: %w", err)
 		}
-		h.FillColor = withAlpha(seriesColour(k), 90)
-		h.LineStyle.Color = seriesColour(k)
+		h.Color, h.Width = seriesColour(k), 2
+		if k == 1 {
+			h.Dashes = []vg.Length{7, 3}
+		}
 		histP.Add(h)
-		histP.Add(vline{p95, mark.Style})
+		histP.Add(vline{mark.X, mark.Style})
 		histP.Legend.Add(s.Label, h)
+		rec = append(rec, drawnSeries{1, "hist " + s.Label, step})
 	}
 	if len(f.UnitP95Deg) > 0 {
 		sc, err := plotter.NewScatter(xy(f.UnitP95Deg, constant(len(f.UnitP95Deg), 0.95)))
@@ -221,25 +304,43 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		cdfP.Add(sc)
 		cdfP.Legend.Add("p95 of each Monte Carlo unit", sc)
 	}
-	cdfP.X.Min, histP.X.Min = 0, 0
-	cdfP.X.Tick.Marker, histP.X.Tick.Marker = niceTicks{}, niceTicks{}
-	cdfP.Legend.Left, cdfP.Legend.Top = false, false
-	cdfP.Legend.XOffs, cdfP.Legend.YOffs = -4, 8
-	histP.Y.Min = 0
+	if tg := f.Target; tg != nil {
+		v := vline{tg.Value, tg.style()}
+		cdfP.Add(v)
+		histP.Add(v)
+		cdfP.Legend.Add(tg.text(), v)
+		histP.Legend.Add("target p95 "+tg.Label, v)
+	}
+	for _, p := range []*plot.Plot{cdfP, histP} {
+		p.X.Scale = plot.LogScale{}
+		p.X.Tick.Marker = decadeTicks{}
+		p.X.Min, p.X.Max = xmin, xmax
+	}
+	histP.Y.Min, histP.Y.Max = 0, histTop*1.08
 	return &Chart{Panels: []*plot.Plot{cdfP, histP}, Caption: caption, Height: 7.5 * vg.Inch, drawn: rec}, nil
 }
 
-func binnedHist(edges, counts []float64) (*plotter.Histogram, error) {
-	total := 0.0
-	for _, c := range counts {
-		total += c
+// decadeTicks labels 1, 2 and 5 × 10ⁿ on a log axis, with minor ticks at
+// the other integers.
+type decadeTicks struct{}
+
+func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
+	var ts []plot.Tick
+	for e := math.Floor(math.Log10(lo)); e <= math.Ceil(math.Log10(hi)); e++ {
+		d := math.Pow(10, e)
+		for m := 1.0; m < 10; m++ {
+			v := m * d
+			if v < lo*(1-1e-9) || v > hi*(1+1e-9) {
+				continue
+			}
+			lab := ""
+			if m == 1 || m == 2 || m == 5 {
+				lab = tickLabel(v)
+			}
+			ts = append(ts, plot.Tick{Value: v, Label: lab})
+		}
 	}
-	bins := make([]plotter.HistogramBin, len(counts))
-	for i, c := range counts {
-		bins[i] = plotter.HistogramBin{Min: edges[i], Max: edges[i+1], Weight: c / total}
-	}
-	h := &plotter.Histogram{Bins: bins, Width: edges[1] - edges[0], FillColor: color.Gray{200}, LineStyle: plotter.DefaultLineStyle}
-	return h, nil
+	return ts
 }
 
 func withAlpha(c color.Color, a uint8) color.Color {
@@ -259,41 +360,90 @@ func constant(n int, v float64) []float64 {
 type Gaps struct {
 	DurationsS []float64 // one per gap, seconds
 	LongestS   float64   // the longest gap, seconds (marked)
+	// StepS is the run's time step: gap durations are whole steps, so bins
+	// are whole multiples of it (0 = free bins).
+	StepS float64
+	// Target is the longest-gap requirement (s) with its verdict.
+	Target *Target
 }
 
-// Plot draws the histogram of gap durations with the longest marked.
+// gapBins returns bin edges for durations that are whole multiples of step:
+// each bin holds the same whole number of steps, edges half a step off the
+// possible values, at most about 30 bins.
+func gapBins(longest, step float64) []float64 {
+	if !(step > 0) {
+		n := 20
+		e := make([]float64, n+1)
+		for i := range e {
+			e[i] = longest * 1.05 * float64(i) / float64(n)
+		}
+		return e
+	}
+	steps := math.Round(longest/step) + 1
+	per := math.Max(1, math.Ceil(steps/30))
+	var e []float64
+	for v := 0.5 * step; ; v += per * step {
+		e = append(e, v)
+		if v > longest {
+			break
+		}
+	}
+	return e
+}
+
+// Plot draws the histogram of gap durations (seconds, bins of whole steps)
+// as a step outline, with the longest gap and the target marked.
 func (f Gaps) Plot(caption Caption) (*Chart, error) {
 	if len(f.DurationsS) == 0 {
 		return nil, fmt.Errorf("plots: gaps: DurationsS is empty (a run with no gap needs no gap figure)")
 	}
-	div, unit := 1.0, "s"
-	if f.LongestS > 600 {
-		div, unit = 60, "min"
-	}
-	v := make(plotter.Values, 0, len(f.DurationsS))
 	for i, d := range f.DurationsS {
 		if !finite(d) || d < 0 {
 			return nil, fmt.Errorf("plots: gaps: DurationsS[%d] = %g; durations must be finite and ≥ 0", i, d)
 		}
-		v = append(v, d/div)
 	}
-	p := newPlot("Sunlit gaps without a valid sun vector", fmt.Sprintf("gap duration (%s)", unit), "number of gaps")
-	h, err := plotter.NewHist(v, min(30, max(5, len(v)/3)))
+	longest := math.Max(f.LongestS, slices.Max(f.DurationsS))
+	edges := gapBins(longest, f.StepS)
+	counts := make([]float64, len(edges)-1)
+	for _, d := range f.DurationsS {
+		i := sort.SearchFloat64s(edges, d) - 1
+		counts[max(0, min(i, len(counts)-1))]++
+	}
+	xlabel := "gap duration (s)"
+	if f.StepS > 0 {
+		w := edges[1] - edges[0]
+		xlabel = fmt.Sprintf("gap duration (s; bins of %.0f s = %.0f × the %.0f s step)", w, w/f.StepS, f.StepS)
+	}
+	p := newPlot("Sunlit gaps without a valid sun vector", xlabel, "number of gaps")
+	step := plotter.XYs{{X: edges[0], Y: 0}}
+	top := 0.0
+	for i, c := range counts {
+		step = append(step, plotter.XY{X: edges[i], Y: c}, plotter.XY{X: edges[i+1], Y: c})
+		top = math.Max(top, c)
+	}
+	step = append(step, plotter.XY{X: edges[len(edges)-1], Y: 0})
+	h, err := plotter.NewLine(step)
 	if err != nil {
 		return nil, fmt.Errorf("plots: gaps: %w", err)
 	}
-	h.FillColor = withAlpha(colBlue, 120)
-	h.LineStyle.Color = colBlue
+	h.Color, h.Width = colBlue, 2
+	h.FillColor = withAlpha(colBlue, 60)
 	p.Add(h)
-	p.Legend.Add(fmt.Sprintf("%d gaps", len(v)), h)
-	mark := vline{f.LongestS / div, draw.LineStyle{Color: colVermil, Width: 2, Dashes: []vg.Length{6, 3}}}
+	p.Legend.Add(fmt.Sprintf("%d gaps", len(f.DurationsS)), h)
+	mark := vline{f.LongestS, draw.LineStyle{Color: colVermil, Width: 2, Dashes: []vg.Length{6, 3}}}
 	p.Add(mark)
 	p.Legend.Add(fmt.Sprintf("longest = %.0f s", f.LongestS), mark)
-	p.Legend.Top, p.Legend.Left = true, false
-	p.Y.Min = 0
+	if tg := f.Target; tg != nil {
+		v := vline{tg.Value, tg.style()}
+		p.Add(v)
+		p.Legend.Add(tg.text(), v)
+	}
+	p.X.Min = 0
+	p.Y.Min, p.Y.Max = 0, top*1.08
+	p.Y.Tick.Marker = integerTicks{}
 	rec := []drawnSeries{{0, "longest", plotter.XYs{{X: mark.X}}}}
-	for _, b := range h.Bins {
-		rec = append(rec, drawnSeries{0, "bin", plotter.XYs{{X: b.Min, Y: b.Weight}, {X: b.Max, Y: b.Weight}}})
+	for i, c := range counts {
+		rec = append(rec, drawnSeries{0, "bin", plotter.XYs{{X: edges[i], Y: c}, {X: edges[i+1], Y: c}}})
 	}
 	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }
@@ -316,6 +466,9 @@ type Sweep struct {
 	Target *float64
 	// TargetLabel names it ("requirement: 95 %").
 	TargetLabel string
+	// Fails, when set (one row per line, one entry per X), rings the
+	// points that miss their target.
+	Fails [][]bool
 }
 
 // Plot draws the sweep curves with markers at each computed point.
@@ -325,13 +478,31 @@ func (f Sweep) Plot(caption Caption) (*Chart, error) {
 		return nil, err
 	}
 	if f.Target != nil {
-		h := hline{*f.Target, draw.LineStyle{Color: colBlack, Width: 1.5, Dashes: []vg.Length{8, 4}}}
+		h := hline{*f.Target, Target{}.style()}
 		p.Add(h)
 		lab := f.TargetLabel
 		if lab == "" {
 			lab = fmt.Sprintf("target %g", *f.Target)
 		}
 		p.Legend.Add(lab, h)
+	}
+	var failed plotter.XYs
+	for k, row := range f.Fails {
+		for i, bad := range row {
+			if bad && k < len(f.Lines) && i < len(f.X) && i < len(f.Lines[k].Y) && finite(f.Lines[k].Y[i]) {
+				failed = append(failed, plotter.XY{X: f.X[i], Y: f.Lines[k].Y[i]})
+			}
+		}
+	}
+	if len(failed) > 0 {
+		sc, err := plotter.NewScatter(failed)
+		if err != nil {
+			return nil, fmt.Errorf("plots: sweep: %w", err)
+		}
+		sc.GlyphStyle = draw.GlyphStyle{Color: colVermil, Radius: 8, Shape: draw.RingGlyph{}}
+		p.Add(sc)
+		p.Legend.Add(fmt.Sprintf("misses its target (%d points)", len(failed)), sc)
+		rec = append(rec, drawnSeries{0, "fails", failed})
 	}
 	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }
@@ -366,8 +537,8 @@ func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plo
 		}
 	}
 	p.Legend.Top, p.Legend.Left = true, false
-	// Head-room above the data for the legend rows (gonum legends have no
-	// background, so a line under the legend would be unreadable).
+	// The y axis starts at zero for figures that cannot go negative, so
+	// differences are not exaggerated (the legend sits outside the data).
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for _, ln := range lines {
 		for _, v := range ln.Y {
@@ -382,7 +553,10 @@ func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plo
 			r = math.Max(math.Abs(hi), 1)
 		}
 		p.Y.Min = lo - 0.05*r
-		p.Y.Max = hi + (0.05+0.07*float64(len(lines)))*r
+		if lo >= 0 {
+			p.Y.Min = 0
+		}
+		p.Y.Max = hi + 0.05*r
 	}
 	return p, rec, nil
 }

@@ -2,13 +2,34 @@ package plots
 
 import (
 	"fmt"
+	"image/color"
 	"math"
 	"strconv"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
 )
+
+// finiteMask marks the finite values of y.
+func finiteMask(y []float64) []bool {
+	m := make([]bool, len(y))
+	for i, v := range y {
+		m[i] = finite(v)
+	}
+	return m
+}
+
+// inSpans reports whether x lies in one of the spans.
+func inSpans(x float64, spans []Interval) bool {
+	for _, s := range spans {
+		if x >= s.Start && x <= s.End {
+			return true
+		}
+	}
+	return false
+}
 
 // Timeline is a few orbits of samples. All slices are indexed like T;
 // a nil slice leaves its panel out.
@@ -21,6 +42,81 @@ type Timeline struct {
 	// Sun-vector error without and with albedo, deg; NaN where undefined
 	// (eclipse or no valid vector).
 	ErrNoAlbedoDeg, ErrAlbedoDeg []float64
+	// ErrorTarget (deg) and ValidTarget (fraction of sunlit time) are drawn
+	// with their verdicts when set; ValidShare is the run's valid share
+	// shown in the panel title.
+	ErrorTarget, ValidTarget *Target
+	ValidShare               float64
+}
+
+// fastChanges is the number of changes of the sensor count over the shown
+// span beyond which the raw steps would merge into a solid band; the
+// timeline then shows a rolling envelope and share instead.
+const fastChanges = 150
+
+// rollingWindows is the number of windows of the rolling envelope.
+const rollingWindows = 240
+
+// rolling returns window centres and the min, mean and max of y over
+// windows of equal length, over the samples where use is true (all when
+// use is nil); windows without samples give NaN.
+func rolling(t, y []float64, use []bool, n int) (tc, lo, mean, hi []float64) {
+	t0, t1 := t[0], t[len(t)-1]
+	w := (t1 - t0) / float64(n)
+	k := 0
+	for i := range n {
+		a, b := t0+float64(i)*w, t0+float64(i+1)*w
+		mn, mx, sum, cnt := math.Inf(1), math.Inf(-1), 0.0, 0
+		for ; k < len(t) && (t[k] < b || (i == n-1 && t[k] <= b)); k++ {
+			if use != nil && !use[k] {
+				continue
+			}
+			mn, mx, sum = math.Min(mn, y[k]), math.Max(mx, y[k]), sum+y[k]
+			cnt++
+		}
+		tc = append(tc, (a+b)/2)
+		if cnt == 0 {
+			lo, mean, hi = append(lo, math.NaN()), append(mean, math.NaN()), append(hi, math.NaN())
+			continue
+		}
+		lo, mean, hi = append(lo, mn), append(mean, sum/float64(cnt)), append(hi, mx)
+	}
+	return tc, lo, mean, hi
+}
+
+// envelope fills the area between lo and hi.
+type envelope struct {
+	X, Lo, Hi []float64
+	Fill      color.Color
+}
+
+func (e envelope) Plot(c draw.Canvas, p *plot.Plot) {
+	tx, ty := p.Transforms(&c)
+	var run []vg.Point
+	var back []vg.Point
+	flush := func() {
+		if len(run) > 1 {
+			for i := len(back) - 1; i >= 0; i-- {
+				run = append(run, back[i])
+			}
+			c.FillPolygon(e.Fill, c.ClipPolygonXY(run))
+		}
+		run, back = nil, nil
+	}
+	for i := range e.X {
+		if !finite(e.Lo[i]) || !finite(e.Hi[i]) {
+			flush()
+			continue
+		}
+		run = append(run, vg.Point{X: tx(e.X[i]), Y: ty(e.Hi[i])})
+		back = append(back, vg.Point{X: tx(e.X[i]), Y: ty(e.Lo[i])})
+	}
+	flush()
+}
+
+func (e envelope) Thumbnail(c *draw.Canvas) {
+	pts := []vg.Point{{X: c.Min.X, Y: c.Min.Y}, {X: c.Max.X, Y: c.Min.Y}, {X: c.Max.X, Y: c.Max.Y}, {X: c.Min.X, Y: c.Max.Y}}
+	c.FillPolygon(e.Fill, pts)
 }
 
 func (f Timeline) validate() error {
@@ -90,49 +186,124 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 		panels = append(panels, p)
 		return p
 	}
+	// A fast attitude changes the sensor count faster than the page can
+	// show: draw the rolling envelope and share instead of raw steps.
+	changes := 0
+	for i := 1; i < len(f.SensorsSeeing); i++ {
+		if f.SensorsSeeing[i] != f.SensorsSeeing[i-1] {
+			changes++
+		}
+	}
+	fast := changes > fastChanges
+	window := (t[len(t)-1] - t[0]) / rollingWindows
 	if f.SensorsSeeing != nil {
-		p := addPanel("Sensors seeing the sun", "sensors")
 		y := make([]float64, len(f.SensorsSeeing))
 		top := 1
 		for i, v := range f.SensorsSeeing {
 			y[i] = float64(v)
 			top = max(top, v)
 		}
-		l, err := plotter.NewLine(xy(t, y))
-		if err != nil {
-			return nil, fmt.Errorf("plots: timeline: %w", err)
+		title := "Sensors seeing the sun"
+		if fast {
+			title += fmt.Sprintf(" (fast attitude: per %.3g %s window)", window, unit)
 		}
-		l.StepStyle = plotter.PostStep
-		l.Color, l.Width = colBlue, 1.5
-		p.Add(l)
-		rec = append(rec, drawnSeries{len(panels) - 1, "sensors seeing", l.XYs})
-		p.Y.Min, p.Y.Max = 0, float64(top)+1.6 // head room for the legend
+		p := addPanel(title, "sensors")
+		if fast {
+			tc, lo, mean, hi := rolling(t, y, nil, rollingWindows)
+			env := envelope{X: tc, Lo: lo, Hi: hi, Fill: withAlpha(colSky, 120)}
+			p.Add(env)
+			for k, seg := range segments(tc, mean) {
+				l, err := plotter.NewLine(seg)
+				if err != nil {
+					return nil, fmt.Errorf("plots: timeline: %w", err)
+				}
+				l.Color, l.Width = colBlue, 1.8
+				p.Add(l)
+				rec = append(rec, drawnSeries{len(panels) - 1, "sensors seeing (mean)", l.XYs})
+				if k == 0 {
+					p.Legend.Add("mean per window", l)
+				}
+			}
+			p.Legend.Add("min…max per window", env)
+		} else {
+			l, err := plotter.NewLine(xy(t, y))
+			if err != nil {
+				return nil, fmt.Errorf("plots: timeline: %w", err)
+			}
+			l.StepStyle = plotter.PostStep
+			l.Color, l.Width = colBlue, 1.5
+			p.Add(l)
+			rec = append(rec, drawnSeries{len(panels) - 1, "sensors seeing", l.XYs})
+			p.Legend.Add("sensors seeing", l)
+		}
+		p.Y.Min, p.Y.Max = 0, float64(top)+0.3
 		p.Y.Tick.Marker = integerTicks{}
-		p.Legend.Add("sensors seeing", l)
 	}
 	if f.Valid != nil {
-		p := addPanel("Sun vector valid", "valid")
+		title := "Sun vector valid"
+		if finite(f.ValidShare) && f.ValidShare > 0 {
+			title += fmt.Sprintf(": %.1f %% of sunlit time", 100*f.ValidShare)
+		}
+		if fast || f.ValidTarget != nil {
+			title += fmt.Sprintf(" (share per %.3g %s window)", window, unit)
+		}
+		p := addPanel(title, "valid")
 		y := make([]float64, len(f.Valid))
 		for i, v := range f.Valid {
 			if v {
 				y[i] = 1
 			}
 		}
-		l, err := plotter.NewLine(xy(t, y))
-		if err != nil {
-			return nil, fmt.Errorf("plots: timeline: %w", err)
+		if fast || f.ValidTarget != nil {
+			// Rolling share of sunlit samples with a valid vector, in %.
+			sunlit := make([]bool, len(t))
+			for i := range t {
+				sunlit[i] = !inSpans(t[i], umbra) && !inSpans(t[i], penumbra)
+				y[i] *= 100
+			}
+			tc, _, mean, _ := rolling(t, y, sunlit, rollingWindows)
+			for k, seg := range segments(tc, mean) {
+				l, err := plotter.NewLine(seg)
+				if err != nil {
+					return nil, fmt.Errorf("plots: timeline: %w", err)
+				}
+				l.Color, l.Width = colGreen, 1.8
+				p.Add(l)
+				rec = append(rec, drawnSeries{len(panels) - 1, "valid share", l.XYs})
+				if k == 0 {
+					p.Legend.Add("valid share", l)
+				}
+			}
+			p.Y.Label.Text = "valid (% of sunlit)"
+			p.Y.Min, p.Y.Max = 0, 102
+			if tg := f.ValidTarget; tg != nil {
+				h := hline{100 * tg.Value, tg.style()}
+				p.Add(h)
+				p.Legend.Add(tg.text(), h)
+			}
+		} else {
+			l, err := plotter.NewLine(xy(t, y))
+			if err != nil {
+				return nil, fmt.Errorf("plots: timeline: %w", err)
+			}
+			l.StepStyle = plotter.PostStep
+			l.Color, l.Width = colGreen, 1.5
+			p.Add(l)
+			rec = append(rec, drawnSeries{len(panels) - 1, "valid", l.XYs})
+			p.Legend.Add("valid", l)
+			p.Y.Min, p.Y.Max = -0.1, 1.1
+			p.Y.Tick.Marker = plot.ConstantTicks([]plot.Tick{{Value: 0, Label: "no"}, {Value: 1, Label: "yes"}})
 		}
-		l.StepStyle = plotter.PostStep
-		l.Color, l.Width = colGreen, 1.5
-		p.Add(l)
-		rec = append(rec, drawnSeries{len(panels) - 1, "valid", l.XYs})
-		p.Y.Min, p.Y.Max = -0.1, 1.1
-		p.Y.Tick.Marker = plot.ConstantTicks([]plot.Tick{{Value: 0, Label: "no"}, {Value: 1, Label: "yes"}})
 	}
 	if f.ErrNoAlbedoDeg != nil || f.ErrAlbedoDeg != nil {
 		p := addPanel("Sun-vector error", "error (deg)")
 		p.Y.Min = 0
-		defer func() { p.Y.Max *= 1.35 }() // head room for the legend
+		if tg := f.ErrorTarget; tg != nil {
+			h := hline{tg.Value, tg.style()}
+			p.Add(h)
+			p.Legend.Add(tg.text(), h)
+			p.Title.Text += " (target is on the p95 over the run)"
+		}
 		for k, s := range []struct {
 			label string
 			y     []float64
@@ -141,12 +312,24 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 				continue
 			}
 			var first *plotter.Line
-			for _, seg := range segments(t, s.y) {
+			y, x := s.y, t
+			var hi []float64
+			if fast {
+				// Mean per window (thick) and the largest error per window
+				// (thin), instead of a solid band of raw samples.
+				var lo []float64
+				x, lo, y, hi = rolling(t, s.y, finiteMask(s.y), rollingWindows)
+				_ = lo
+			}
+			for _, seg := range segments(x, y) {
 				l, err := plotter.NewLine(seg)
 				if err != nil {
 					return nil, fmt.Errorf("plots: timeline: %w", err)
 				}
 				l.Color, l.Width = seriesColour(k), 1.5
+				if fast {
+					l.Width = 2.2
+				}
 				if k == 1 {
 					l.Dashes = []vg.Length{6, 3}
 				}
@@ -156,8 +339,32 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 					first = l
 				}
 			}
+			label := s.label
+			if fast {
+				label += ", mean"
+			}
 			if first != nil {
-				p.Legend.Add(s.label, first)
+				p.Legend.Add(label, first)
+			}
+			if fast {
+				var firstHi *plotter.Line
+				for _, seg := range segments(x, hi) {
+					l, err := plotter.NewLine(seg)
+					if err != nil {
+						return nil, fmt.Errorf("plots: timeline: %w", err)
+					}
+					l.Color, l.Width = seriesColour(k), 0.8
+					if k == 1 {
+						l.Dashes = []vg.Length{3, 2}
+					}
+					p.Add(l)
+					if firstHi == nil {
+						firstHi = l
+					}
+				}
+				if firstHi != nil {
+					p.Legend.Add(s.label+", max", firstHi)
+				}
 			}
 		}
 	}
@@ -201,7 +408,7 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 	if !(hi > lo) {
 		return []plot.Tick{{Value: lo, Label: strconv.FormatFloat(lo, 'g', 6, 64)}}
 	}
-	raw := (hi - lo) / 8
+	raw := (hi - lo) / 6
 	mag := math.Pow(10, math.Floor(math.Log10(raw)))
 	step := mag
 	for _, m := range []float64{1, 2, 2.5, 5, 10} {

@@ -90,6 +90,9 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	if err != nil {
 		return nil, fmt.Errorf("review: timeline figure: %w", err)
 	}
+	tg := targetsOf(s, cfg, res)
+	tl.ErrorTarget, tl.ValidTarget = tg.errP95, tg.valid
+	tl.ValidShare = res.Nominal.Estimators[0].ValidFraction
 	c, err = tl.Plot(cap)
 	if err := add(FigTimeline, fmt.Sprintf("Timeline of the first %d orbits: sensors seeing the sun, validity, error", TimelineOrbits), c, err); err != nil {
 		return nil, err
@@ -99,6 +102,9 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	if err != nil {
 		return nil, fmt.Errorf("review: year figure: %w", err)
 	}
+	yv.Year = s.Epoch.Year()
+	d0 := float64(s.Epoch.YearDay()) + float64(s.Epoch.Hour()*3600+s.Epoch.Minute()*60+s.Epoch.Second())/86400
+	yv.Run = plots.Interval{Start: d0, End: d0 + res.DurationS/86400}
 	yc := cap
 	yc.Model = fmt.Sprintf("calendar year %d; ", s.Epoch.Year()) + "j2-mean orbit from the mean elements (for speed), " + s.SunModel + " sun, conical shadow; one orbit examined per day"
 	yc.Assumptions = "no attitude or sensors involved; eclipse minutes of the first complete eclipse of the day"
@@ -108,6 +114,7 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	}
 
 	if ed, ok := errorDist(res); ok {
+		ed.Target = tg.errP95
 		c, err = ed.Plot(cap)
 		if err := add(FigError, "Sun-vector error distribution of the primary estimator ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
 			return nil, err
@@ -115,12 +122,43 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	}
 
 	if g, ok := gaps(res); ok {
+		g.StepS, g.Target = res.StepS, tg.gap
 		c, err = g.Plot(cap)
 		if err := add(FigGaps, "Sunlit gaps without a valid sun vector ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
 			return nil, err
 		}
 	}
 	return out, nil
+}
+
+// figureTargets are the scenario's targets in the units of the figures,
+// with the verdicts of the one target judge (study.CheckTargets).
+type figureTargets struct {
+	errP95 *plots.Target // deg
+	valid  *plots.Target // fraction
+	gap    *plots.Target // s
+}
+
+func targetsOf(s *scenario.Scenario, cfg sim.Config, res *sim.Result) figureTargets {
+	var cov sky.Result
+	if lat, err := sky.Fibonacci(sky.DefaultPoints); err == nil {
+		if c, err := sky.Coverage(viewers(cfg), lat); err == nil {
+			cov = c
+		}
+	}
+	checks := study.CheckTargets(s, res.Headline(), cov)
+	var out figureTargets
+	mk := func(key string, v float64) *plots.Target {
+		c, ok := study.FindTarget(checks, key)
+		if !ok {
+			return nil
+		}
+		return &plots.Target{Value: v, Label: c.Required, Got: c.Value, Pass: c.Pass}
+	}
+	out.errP95 = mk(study.TargetErrorP95, degOf(s.Targets.MaxErrorP95Rad))
+	out.valid = mk(study.TargetValid, s.Targets.MinValidFraction)
+	out.gap = mk(study.TargetGap, s.Targets.MaxGap.Seconds())
+	return out
 }
 
 // Skipped says which figures a run leaves out and why, for the report.

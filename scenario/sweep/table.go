@@ -10,6 +10,7 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -17,6 +18,7 @@ import (
 	"codeberg.org/sunsight/sunsight/plots"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
 // Gather reads every case of the sweep in dirs (one folder, or the folders of
@@ -192,11 +194,43 @@ func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) ([]*CaseFi
 // curveFigures are the figures drawn for every sweep: headline name, title,
 // axis label.
 var curveFigures = [][3]string{
-	{"seen_by_3_fraction", "Sunlit time seen by ≥ 3 sensors", "fraction of sunlit time"},
-	{"seen_by_1_fraction", "Sunlit time seen by ≥ 1 sensor", "fraction of sunlit time"},
-	{"sunlit_fraction", "Sunlit fraction of the orbit", "fraction of time"},
-	{"valid_fraction", "Sunlit time with a valid sun vector", "fraction of sunlit time"},
-	{"p95_error_albedo_deg", "Sun-vector error, 95th percentile, with albedo", "error (deg)"},
+	{"seen_by_3_fraction", "Sunlit time with the sun in view of ≥ 3 sensors", "% of sunlit time"},
+	{"seen_by_1_fraction", "Sunlit time with the sun in view of ≥ 1 sensor", "% of sunlit time"},
+	{"sunlit_fraction", "Sunlit share of the run", "% of run"},
+	{"valid_fraction", "Sunlit time with a valid sun vector", "% of sunlit time"},
+	{"p95_error_albedo_deg", "Sun-vector error, 95th percentile, with albedo", "p95 error (deg)"},
+}
+
+// curveTarget names the target key judged on a figure's headline value.
+var curveTarget = map[string]string{"valid_fraction": study.TargetValid, "p95_error_albedo_deg": study.TargetErrorP95}
+
+// axisLabel turns a sweep key into an axis label with its unit:
+// "orbit.altitude_km" → "orbit altitude (km)", "orbit.ltan" → "orbit LTAN
+// (h, local time)", "epoch" → "epoch (days after the first)".
+func axisLabel(key string) string {
+	words := strings.Fields(strings.NewReplacer(".", " ", "_", " ").Replace(key))
+	unit := ""
+	if n := len(words); n > 1 {
+		if u, ok := map[string]string{"km": "km", "m": "m", "mm": "mm", "deg": "deg", "s": "s", "min": "min", "h": "h",
+			"fraction": "fraction", "pct": "%"}[words[n-1]]; ok {
+			unit, words = u, words[:n-1]
+		}
+	}
+	for i, w := range words {
+		switch w {
+		case "ltan", "ltdn", "raan":
+			words[i] = strings.ToUpper(w)
+			if w != "raan" {
+				unit = "h, local time"
+			}
+		case "epoch":
+			unit = "days after the first"
+		}
+	}
+	if unit == "" {
+		return strings.Join(words, " ")
+	}
+	return strings.Join(words, " ") + " (" + unit + ")"
 }
 
 // axisNumber turns a value of the first key into a plot abscissa: a number,
@@ -221,7 +255,7 @@ func axisNumber(v string, first string) (float64, bool) {
 // Curves arranges a figure's values versus the first key, one line per value
 // of the second key (one line for a single key or a zipped sweep).
 func Curves(m Manifest, cases []*CaseFile, name string) (x []float64, xLabel string, lines []plots.Line) {
-	xLabel = m.Keys[0]
+	xLabel = axisLabel(m.Keys[0])
 	var xs []string
 	xi := map[string]int{}
 	var ls []string
@@ -261,7 +295,7 @@ func Curves(m Manifest, cases []*CaseFile, name string) (x []float64, xLabel str
 	for k, lv := range ls {
 		lines[k] = plots.Line{Label: lv, Y: make([]float64, len(xs))}
 		if lv != "" {
-			lines[k].Label = m.Keys[1] + " = " + lv
+			lines[k].Label = axisLabel(m.Keys[1]) + " = " + lv
 		} else {
 			lines[k].Label = name
 		}
@@ -279,10 +313,87 @@ func Curves(m Manifest, cases []*CaseFile, name string) (x []float64, xLabel str
 	return x, xLabel, lines
 }
 
+// addTarget draws the target of key on a sweep figure, with the cases that
+// miss it ringed and the count of passing cases in the legend.
+func addTarget(sw *plots.Sweep, m Manifest, cases []*CaseFile, key string, scale float64) {
+	fails := make([][]bool, len(sw.Lines))
+	for k := range fails {
+		fails[k] = make([]bool, len(sw.X))
+	}
+	var limit *float64
+	var op string
+	pass, total := 0, 0
+	for _, cf := range cases {
+		for _, t := range cf.Targets {
+			if t.Key != key {
+				continue
+			}
+			l := t.Required * scale
+			limit, op = &l, t.Op
+			total++
+			if t.Pass {
+				pass++
+				continue
+			}
+			i, k := caseIndex(m, cases, cf)
+			if k < len(fails) && i < len(fails[k]) {
+				fails[k][i] = true
+			}
+		}
+	}
+	if limit == nil {
+		return
+	}
+	sym := "≥"
+	if op == study.OpAtMost {
+		sym = "≤"
+	}
+	sw.Target = limit
+	sw.TargetLabel = fmt.Sprintf("target %s %.4g: %d of %d cases pass", sym, *limit, pass, total)
+	sw.Fails = fails
+}
+
+// caseIndex finds the x index and line of a case as Curves arranges them.
+func caseIndex(m Manifest, cases []*CaseFile, cf *CaseFile) (i, k int) {
+	var xs, ls []string
+	for _, c := range cases {
+		if !slices.Contains(xs, c.Inputs[0].Value) {
+			xs = append(xs, c.Inputs[0].Value)
+		}
+		lv := ""
+		if len(m.Keys) > 1 && !m.Zip {
+			lv = c.Inputs[1].Value
+		}
+		if !slices.Contains(ls, lv) {
+			ls = append(ls, lv)
+		}
+	}
+	lv := ""
+	if len(m.Keys) > 1 && !m.Zip {
+		lv = cf.Inputs[1].Value
+	}
+	return slices.Index(xs, cf.Inputs[0].Value), slices.Index(ls, lv)
+}
+
 func writePlots(dir string, m Manifest, cases []*CaseFile, caption plots.Caption) error {
 	for _, f := range curveFigures {
 		x, xLabel, lines := Curves(m, cases, f[0])
-		chart, err := plots.Sweep{Title: f[1], XLabel: xLabel, X: x, Lines: lines, YLabel: f[2]}.Plot(caption)
+		sw := plots.Sweep{Title: f[1], XLabel: xLabel, X: x, Lines: lines, YLabel: f[2]}
+		scale := 1.0
+		if strings.HasSuffix(f[0], "_fraction") {
+			scale = 100
+		}
+		for k := range sw.Lines {
+			y := append([]float64(nil), sw.Lines[k].Y...)
+			for i := range y {
+				y[i] *= scale
+			}
+			sw.Lines[k].Y = y
+		}
+		if key, ok := curveTarget[f[0]]; ok {
+			addTarget(&sw, m, cases, key, scale)
+		}
+		chart, err := sw.Plot(caption)
 		if err != nil {
 			return fmt.Errorf("sweep: figure %s: %w", f[0], err)
 		}

@@ -511,9 +511,56 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 	return out
 }
 
-func (r *resolver) validity(v *fileValidity) Validity {
-	out := Validity{FalseSunBoundDeg: setDefault(&v.FalseSunBoundDeg, defaultFalseSunBoundDeg)}
+// defaultGates are the estimators' validity gates when the file sets none
+// (the engine's sensor.DefaultGate, repeated here because this package
+// imports no engine; a test keeps them equal): each estimator's own minimum
+// of sensors, half of full sun summed over a cosine fit's sensors (a 1 AU
+// sun on a box's lit faces sums to ≥ 1, albedo alone to ≲ 0.5), no residual
+// limit (common practice, no source).
+var defaultGates = map[string]Gate{
+	"least-squares":  {MinSensors: 3, MinTotalSignal: 0.5},
+	"opposite-pairs": {MinSensors: 6, MinTotalSignal: 0.5},
+	"two-axis":       {MinSensors: 1},
+	"combined":       {MinSensors: 1},
+}
+
+// DefaultGate returns the validity gate of an estimator when the file sets
+// none.
+func DefaultGate(estimator string) Gate { return defaultGates[estimator] }
+
+func (r *resolver) validity(v *fileValidity, ests []string) Validity {
+	out := Validity{FalseSunBoundDeg: setDefault(&v.FalseSunBoundDeg, defaultFalseSunBoundDeg), Gates: map[string]Gate{}}
 	r.rangeCheck("validity.false_sun_bound_deg", out.FalseSunBoundDeg, 0, 180, true, "an angle in (0, 180) degrees")
+	run := map[string]bool{}
+	for _, e := range ests {
+		run[e] = true
+	}
+	for name := range v.Gates {
+		if !run[name] {
+			r.fail("validity.gates."+name, "value names an estimator this scenario does not run; allowed %s", strings.Join(ests, ", "))
+		}
+	}
+	if v.Gates == nil {
+		v.Gates = map[string]fileGate{}
+	}
+	for _, name := range ests {
+		p := "validity.gates." + name
+		fg := v.Gates[name]
+		d := defaultGates[name]
+		if fg.MinSensors == nil {
+			n := d.MinSensors
+			fg.MinSensors = &n
+		}
+		g := Gate{MinSensors: *fg.MinSensors, MinTotalSignal: setDefault(&fg.MinTotalSignal, d.MinTotalSignal),
+			MaxResidual: setDefault(&fg.MaxResidual, d.MaxResidual)}
+		if g.MinSensors < 0 || g.MinSensors > 1000 {
+			r.fail(p+".min_sensors", "value %d is out of range; allowed a whole number in [0, 1000] (0: the estimator's own minimum)", g.MinSensors)
+		}
+		r.rangeCheck(p+".min_total_signal", g.MinTotalSignal, 0, 100, false, "[0, 100] (sum of normalised signals; 1 = one sensor facing a 1 AU sun)")
+		r.rangeCheck(p+".max_residual", g.MaxResidual, 0, 10, false, "[0, 10] (RMS fit residual in normalised signal, or chord between directions; 0: no limit)")
+		v.Gates[name] = fg
+		out.Gates[name] = g
+	}
 	return out
 }
 

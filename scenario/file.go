@@ -140,7 +140,14 @@ type fileTargets struct {
 }
 
 type fileValidity struct {
-	FalseSunBoundDeg *float64 `yaml:"false_sun_bound_deg,omitempty"`
+	FalseSunBoundDeg *float64            `yaml:"false_sun_bound_deg,omitempty"`
+	Gates            map[string]fileGate `yaml:"gates,omitempty"`
+}
+
+type fileGate struct {
+	MinSensors     *int     `yaml:"min_sensors,omitempty"`
+	MinTotalSignal *float64 `yaml:"min_total_signal,omitempty"`
+	MaxResidual    *float64 `yaml:"max_residual,omitempty"`
 }
 
 type fileMonteCarlo struct {

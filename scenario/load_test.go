@@ -156,6 +156,8 @@ func badInputs() []badInput {
 		{"sensor inside the bus", orbit + "body:\n  form_factor: 3U\n  sensors: [{name: a, kind: cosine, face: \"+X\", position_m: [0.01, 0, 0]}]\n", "inside the bus outline"},
 		{"obstruction without positions", orbit + sensor + "  obstructions: [{name: m, shape: cylinder, from_m: [0,0,0], to_m: [0,0,1], radius_m: 0.01}]\n", "body.sensors[0].position_m"},
 		{"false-sun bound 0", orbit + sensor + "validity: {false_sun_bound_deg: 0}\n", "validity.false_sun_bound_deg (line 4"},
+		{"gate for an estimator not run", orbit + sensor + "estimators: [least-squares]\nvalidity: {gates: {two-axis: {min_sensors: 2}}}\n", "validity.gates.two-axis"},
+		{"gate negative signal", orbit + sensor + "estimators: [least-squares]\nvalidity: {gates: {least-squares: {min_total_signal: -1}}}\n", "validity.gates.least-squares.min_total_signal"},
 		{"coverage k too big", orbit + sensor + "targets: {coverage_sensors: 3, min_coverage: 0.9}\n", "targets.coverage_sensors"},
 		{"bool type", orbit + sensor + "targets: {survive_one_failure: maybe}\n", "not true or false"},
 		{"nadir axes parallel", orbit + sensor + "attitude: {law: nadir, point_axis: \"+Z\", align_axis: \"+Z\"}\n", "attitude.align_axis (line 4"},

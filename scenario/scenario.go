@@ -226,9 +226,20 @@ type Targets struct {
 
 // Validity says what counts as a trustworthy estimate: FalseSunBoundDeg is
 // the error beyond which a valid estimate (or two-axis reading) in
-// sunlight counts as a false sun.
+// sunlight counts as a false sun; Gates holds the validity gate of every
+// estimator run, by name.
 type Validity struct {
 	FalseSunBoundDeg float64
+	Gates            map[string]Gate
+}
+
+// Gate is an estimator's validity gate: an estimate counts only when it
+// uses at least MinSensors sensors whose normalised signals sum to at least
+// MinTotalSignal and its fit residual is at most MaxResidual (0: no limit).
+type Gate struct {
+	MinSensors     int
+	MinTotalSignal float64
+	MaxResidual    float64
 }
 
 // MonteCarlo sets the number of error-model draws.

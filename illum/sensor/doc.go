@@ -47,6 +47,18 @@
 // count the same directions; the ±3.4 % seasonal change of the solar
 // irradiance would move a cosine sensor's 5 % threshold edge by ±0.1°.
 //
+// Validity gate (Gate): every estimate counts as available only when the
+// estimator found one, it uses at least MinSensors sensors, their signals
+// sum to at least MinSignal, and its fit Residual is at most MaxResidual.
+// The residual is the RMS of m − n·x over the readings of a cosine fit
+// (normalised signal; Σm² − x·b at the least-squares solution, since
+// NᵀNx = b) and the RMS chord between each two-axis direction and the
+// estimate. DefaultGate: each estimator's own minimum of sensors, half of
+// full sun summed over a cosine fit (a 1 AU sun on a box's lit faces sums to
+// |sx| + |sy| + |sz| ≥ 1; albedo alone gives a sensor at most ρ·(R/r)² of
+// full sun), no residual limit (common practice, no source). Combined lets
+// its cosine part join only through CosineGate.
+//
 // Estimators: LeastSquares ŝ ∝ (NᵀN)⁻¹Nᵀm over lit cosine sensors (≥ 3,
 // condition of NᵀN ≤ 100, eigenvalues by Smith 1961); OppositePairs
 // ŝ ∝ (Σaaᵀ)⁻¹Σa(m₊ − m₋) over opposed pairs; TwoAxis the 1/σ²-weighted

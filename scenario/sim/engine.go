@@ -74,6 +74,10 @@ type Config struct {
 	// Estimators are run side by side on the same readings; the first one is
 	// the primary, used for validity gaps and the time series.
 	Estimators []sensor.Estimator
+	// Gates[j] is the validity gate estimator j's estimates pass (minimum
+	// sensors, minimum total signal, maximum fit residual); nil lets every
+	// estimate the estimators find through.
+	Gates []sensor.Gate
 	// FalseSunBoundDeg is the error (deg) beyond which a valid estimate or
 	// a valid two-axis reading in sunlight counts as a false sun; 0 means
 	// DefaultFalseSunBoundDeg.
@@ -124,6 +128,8 @@ func (c *Config) Validate() error {
 		return fmt.Errorf("sim: step %g s and duration %g s: need 0 < step ≤ duration", c.Step, c.Duration)
 	case !(c.FalseSunBoundDeg >= 0 && c.FalseSunBoundDeg < 180):
 		return fmt.Errorf("sim: false-sun bound %g°: want [0°, 180°) (0 = default %g°)", c.FalseSunBoundDeg, DefaultFalseSunBoundDeg)
+	case c.Gates != nil && len(c.Gates) != len(c.Estimators):
+		return fmt.Errorf("sim: %d validity gates for %d estimators", len(c.Gates), len(c.Estimators))
 	case len(c.Estimators) == 0:
 		return errors.New("sim: no estimator")
 	case c.Viewers != nil && len(c.Viewers) != c.Array.Len():
@@ -132,6 +138,11 @@ func (c *Config) Validate() error {
 		return fmt.Errorf("sim: %d obstruction tests for %d sensors", len(c.Blocked), c.Array.Len())
 	case c.AlbedoResponse != nil && len(c.AlbedoResponse) != c.Array.Len():
 		return fmt.Errorf("sim: %d albedo responses for %d sensors", len(c.AlbedoResponse), c.Array.Len())
+	}
+	for _, g := range c.Gates {
+		if err := g.Validate(); err != nil {
+			return fmt.Errorf("sim: %w", err)
+		}
 	}
 	return nil
 }

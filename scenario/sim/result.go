@@ -290,10 +290,14 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	var primaryValid bool
 	for j, e := range ests {
 		ea := &a.est[j]
-		eNo := e.Estimate(arr, readNo)
+		var gate sensor.Gate
+		if a.cfg.Gates != nil {
+			gate = a.cfg.Gates[j]
+		}
+		eNo := gate.Apply(e.Estimate(arr, readNo))
 		eAlb := eNo
 		if a.albedo {
-			eAlb = e.Estimate(arr, readAlb)
+			eAlb = gate.Apply(e.Estimate(arr, readAlb))
 		}
 		if sunlit {
 			ea.gaps.Observe(t, !eAlb.Valid)

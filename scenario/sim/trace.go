@@ -98,6 +98,7 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 		return nil, err
 	}
 	cfg.Array, cfg.Viewers, cfg.Blocked, cfg.Estimators = arr, viewers, blocked, ests
+	cfg.Gates = gatesFor(tr.cfg, ests)
 	cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
 	res := tr.result
 	res.Units = nil
@@ -124,4 +125,22 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 	res.Nominal = res.Units[0]
 	res.AcrossUnits = acrossUnits(res.Units)
 	return &res, nil
+}
+
+// gatesFor gives each estimator the validity gate the trace's configuration
+// set for an estimator of that name, else its default gate.
+func gatesFor(c Config, ests []sensor.Estimator) []sensor.Gate {
+	if c.Gates == nil {
+		return nil
+	}
+	out := make([]sensor.Gate, len(ests))
+	for j, e := range ests {
+		out[j] = sensor.DefaultGate(e.Name())
+		for i, ce := range c.Estimators {
+			if ce.Name() == e.Name() {
+				out[j] = c.Gates[i]
+			}
+		}
+	}
+	return out
 }

@@ -307,9 +307,33 @@ func EstimatorList(s *scenario.Scenario, list []scenario.Sensor) ([]sensor.Estim
 		if err != nil {
 			return nil, fmt.Errorf("estimators[%d]: %w", i, err)
 		}
+		if c, ok := e.(sensor.Combined); ok {
+			// The cosine part of the combination passes the least-squares gate.
+			c.CosineGate = Gate(s, sensor.LeastSquares{}.Name())
+			e = c
+		}
 		out = append(out, e)
 	}
 	return out, nil
+}
+
+// Gate returns the validity gate of the named estimator: the scenario's,
+// else the default.
+func Gate(s *scenario.Scenario, estimator string) sensor.Gate {
+	g, ok := s.Validity.Gates[estimator]
+	if !ok {
+		g = scenario.DefaultGate(estimator)
+	}
+	return sensor.Gate{MinSensors: g.MinSensors, MinSignal: g.MinTotalSignal, MaxResidual: g.MaxResidual}
+}
+
+// Gates returns the validity gates of a list of estimators, in order.
+func Gates(s *scenario.Scenario, ests []sensor.Estimator) []sensor.Gate {
+	out := make([]sensor.Gate, len(ests))
+	for j, e := range ests {
+		out[j] = Gate(s, e.Name())
+	}
+	return out
 }
 
 // Config builds the simulation of the scenario with its own sensors and
@@ -360,7 +384,7 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
 		NewPropagator: newProp, Sun: sun, Cylindrical: ShadowModel(s) == illum.Cylindrical, Law: law, LawForUnit: lawForUnit(s, att),
 		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
-		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), FalseSunBoundDeg: s.Validity.FalseSunBoundDeg,
+		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), FalseSunBoundDeg: s.Validity.FalseSunBoundDeg, Gates: Gates(s, ests),
 	}
 	return cfg, cfg.Validate()
 }

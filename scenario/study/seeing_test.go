@@ -9,6 +9,7 @@ import (
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 	"codeberg.org/sunsight/sunsight/scenario"
@@ -75,42 +76,96 @@ func TestDawnDuskSeeingIsRobustToRounding(t *testing.T) {
 	}
 }
 
-// validity.false_sun_bound_deg reaches the engine: in the dawn-dusk example
-// least squares, fed by albedo on the sensors away from the sun, is valid
-// far from the sun; a bound of 179° counts none of it.
+// dawnDusk runs six hours of the dawn-dusk example with extra file text.
+func dawnDusk(t *testing.T, extra string) (*scenario.Scenario, *sim.Result) {
+	t.Helper()
+	text, err := os.ReadFile("../../examples/dawn-dusk-12u.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenario.Parse(append(text, []byte(extra)...), "../../examples")
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Duration = 6 * 3600
+	res, err := sim.Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s, res
+}
+
+func estimatorStats(t *testing.T, res *sim.Result, name string) sim.EstimatorStats {
+	t.Helper()
+	for _, e := range res.Nominal.Estimators {
+		if e.Name == name {
+			return e
+		}
+	}
+	t.Fatalf("no %s estimator", name)
+	return sim.EstimatorStats{}
+}
+
+// validity.false_sun_bound_deg reaches the engine: in the dawn-dusk example,
+// with its validity gate opened, least squares is fed by albedo on the
+// sensors away from the sun and valid far from it; a bound of 179° counts
+// none of it.
 func TestFalseSunBoundKey(t *testing.T) {
+	open := "validity:\n  gates: {least-squares: {min_total_signal: 0}}\n  false_sun_bound_deg: "
 	share := func(bound string) float64 {
-		text, err := os.ReadFile("../../examples/dawn-dusk-12u.yaml")
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := scenario.Parse(append(text, []byte("validity: {false_sun_bound_deg: "+bound+"}\n")...), "../../examples")
-		if err != nil {
-			t.Fatal(err)
-		}
-		cfg, err := Config(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		cfg.Duration = 6 * 3600
-		res, err := sim.Run(context.Background(), cfg)
-		if err != nil {
-			t.Fatal(err)
-		}
+		s, res := dawnDusk(t, open+bound+"\n")
 		if res.FalseSunBoundDeg != s.Validity.FalseSunBoundDeg {
 			t.Errorf("bound %g° in the result, %g° in the file", res.FalseSunBoundDeg, s.Validity.FalseSunBoundDeg)
 		}
-		for _, e := range res.Nominal.Estimators {
-			if e.Name == "least-squares" {
-				return e.WrongFraction
-			}
-		}
-		t.Fatal("no least-squares estimator")
-		return 0
+		return estimatorStats(t, res, "least-squares").WrongFraction
 	}
 	at20, at179 := share("20"), share("179")
 	t.Logf("least squares valid beyond 20°: %.4f of sunlit time; beyond 179°: %.4f", at20, at179)
 	if !(at20 > 0.05) || at179 != 0 {
 		t.Errorf("beyond-bound share %.4f at 20°, %.4f at 179°", at20, at179)
+	}
+}
+
+// The validity gate keeps a fit driven by albedo out of the availability:
+// in the dawn-dusk example no cosine sensor faces the sun, and least
+// squares on the albedo-lit ones is 120° off. Its default gate (signals
+// summing to half of full sun) refuses all of it; opened, it is "valid" a
+// quarter of sunlit time; each gate key on its own has an effect.
+func TestValidityGateRefusesAlbedoFits(t *testing.T) {
+	_, def := dawnDusk(t, "")
+	_, opened := dawnDusk(t, "validity: {gates: {least-squares: {min_total_signal: 0}}}\n")
+	d, o := estimatorStats(t, def, "least-squares"), estimatorStats(t, opened, "least-squares")
+	t.Logf("least squares: valid %.4f with the default gate, %.4f opened (p95 %.1f°, beyond 20° %.4f)",
+		d.ValidFraction, o.ValidFraction, o.ErrAlbedo.P95Deg, o.WrongFraction)
+	if d.ValidFraction != 0 || d.WrongFraction != 0 {
+		t.Errorf("default gate: valid %.4f, beyond 20° %.4f; want 0", d.ValidFraction, d.WrongFraction)
+	}
+	if !(o.ValidFraction > 0.1 && o.ErrAlbedo.P95Deg > 90) {
+		t.Errorf("opened gate: valid %.4f at p95 %.1f°; the case proves nothing", o.ValidFraction, o.ErrAlbedo.P95Deg)
+	}
+	// The combination keeps its two-axis answer and drops the cosine part.
+	if c := estimatorStats(t, def, "combined"); !(c.ValidFraction > 0.99 && c.ErrAlbedo.P95Deg < 5) {
+		t.Errorf("combined: valid %.4f p95 %.2f°", c.ValidFraction, c.ErrAlbedo.P95Deg)
+	}
+	for _, key := range []string{"min_sensors: 5", "max_residual: 0.001"} {
+		_, r := dawnDusk(t, "validity: {gates: {least-squares: {min_total_signal: 0, "+key+"}}}\n")
+		if v := estimatorStats(t, r, "least-squares").ValidFraction; !(v < o.ValidFraction) {
+			t.Errorf("%s: valid %.4f, no lower than the open gate's %.4f", key, v, o.ValidFraction)
+		}
+	}
+}
+
+// The scenario file's default gates are the engine's.
+func TestDefaultGatesAgree(t *testing.T) {
+	for _, name := range sensor.EstimatorNames() {
+		g := scenario.DefaultGate(name)
+		want := sensor.DefaultGate(name)
+		if got := (sensor.Gate{MinSensors: g.MinSensors, MinSignal: g.MinTotalSignal, MaxResidual: g.MaxResidual}); got != want {
+			t.Errorf("%s: scenario default %+v, engine default %+v", name, got, want)
+		}
 	}
 }

@@ -1,6 +1,7 @@
 package sensor
 
 import (
+	"fmt"
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"

@@ -60,3 +60,21 @@ func SunByName(name string) (Sun, error) {
 	}
 	return m.New(), nil
 }
+
+// sunValidity is the span of years over which each model's stated accuracy
+// holds: the Astronomical Almanac states 0.01° for its low-precision
+// formulas over 1950–2050 (section C, from memory); soniakeys/meeus states
+// 0.01° for solar.True2000 over 1900–2100 (v3/solar/solar.go, Meeus 1998
+// ch. 25).
+var sunValidity = map[string][2]int{
+	"low-precision": {1950, 2050},
+	"meeus":         {1900, 2100},
+}
+
+// SunModelValidity returns the first and last year (inclusive) of the span
+// over which the named sun model's stated accuracy holds; ok is false for
+// an unknown name.
+func SunModelValidity(name string) (first, last int, ok bool) {
+	v, ok := sunValidity[name]
+	return v[0], v[1], ok
+}

@@ -54,6 +54,8 @@ type fileLaw struct {
 	SpinAxis       string    `yaml:"spin_axis,omitempty"`
 	RateDegS       *float64  `yaml:"rate_deg_s,omitempty"`
 	MaxRateDegS    *float64  `yaml:"max_rate_deg_s,omitempty"`
+	MinRateDegS    *float64  `yaml:"min_rate_deg_s,omitempty"`
+	InertiaKgM2    []float64 `yaml:"inertia_kg_m2,omitempty"`
 }
 
 type fileAttitude struct {

@@ -395,7 +395,15 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 	case LawTumble:
 		m := setDefault(&l.MaxRateDegS, defaultMaxRate)
 		r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
-		out.MaxRateRadS = m * deg
+		lo := setDefault(&l.MinRateDegS, 0)
+		r.rangeCheck(path+".min_rate_deg_s", lo, 0, 360, false, "[0, 360] deg/s")
+		if lo > m {
+			r.fail(path+".min_rate_deg_s", "value %g is above max_rate_deg_s %g; allowed min_rate_deg_s ≤ max_rate_deg_s (equal values fix the rate)", lo, m)
+		}
+		out.MinRateRadS, out.MaxRateRadS = lo*deg, m*deg
+		if l.InertiaKgM2 != nil {
+			out.Inertia, out.HasInertia = r.inertia(path+".inertia_kg_m2", l.InertiaKgM2)
+		}
 	}
 	if (l.Law == LawNadir || l.Law == LawSun) && r3.Norm(r3.Cross(out.PointAxis, out.AlignAxis)) < 1e-9 && r3.Norm(out.PointAxis) > 0 && r3.Norm(out.AlignAxis) > 0 {
 		r.fail(path+".align_axis", "value %q is parallel to point_axis %q, so it fixes no rotation about the pointed axis; allowed a body axis perpendicular to point_axis (for example +X with point_axis +Z)", l.AlignAxis, l.PointAxis)
@@ -405,6 +413,7 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		"pitch_offset_deg": l.PitchOffsetDeg != nil, "yaw_offset_deg": l.YawOffsetDeg != nil, "clock_deg": l.ClockDeg != nil,
 		"quaternion": l.Quaternion != nil, "euler_deg": l.EulerDeg != nil, "euler_sequence": l.EulerSequence != "",
 		"spin_axis": l.SpinAxis != "", "rate_deg_s": l.RateDegS != nil, "max_rate_deg_s": l.MaxRateDegS != nil,
+		"min_rate_deg_s": l.MinRateDegS != nil, "inertia_kg_m2": l.InertiaKgM2 != nil,
 		"align_to": l.AlignTo != "", "align_inertial": l.AlignInertial != nil,
 	}
 	for _, k := range attitude.LawKeys() {
@@ -413,6 +422,31 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		}
 	}
 	return out
+}
+
+// inertia reads an inertia tensor given as [Ixx, Iyy, Izz] (principal axes
+// along the body axes) or [Ixx, Iyy, Izz, Ixy, Ixz, Iyz] (the tensor's
+// elements, kg·m²). Positive definiteness and the triangle inequalities are
+// checked when the law is built.
+func (r *resolver) inertia(path string, v []float64) ([3][3]float64, bool) {
+	var J [3][3]float64
+	if len(v) != 3 && len(v) != 6 {
+		r.fail(path, "value has %d numbers; allowed [Ixx, Iyy, Izz] or [Ixx, Iyy, Izz, Ixy, Ixz, Iyz] in kg·m² (tensor elements, body axes)", len(v))
+		return J, false
+	}
+	for i, x := range v {
+		if math.IsNaN(x) || math.IsInf(x, 0) || (i < 3 && !(x > 0)) {
+			r.fail(path, "value [%d] = %g is not allowed; allowed positive moments Ixx, Iyy, Izz (kg·m²) and finite products", i, x)
+			return J, false
+		}
+	}
+	J[0][0], J[1][1], J[2][2] = v[0], v[1], v[2]
+	if len(v) == 6 {
+		J[0][1], J[1][0] = v[3], v[3]
+		J[0][2], J[2][0] = v[4], v[4]
+		J[1][2], J[2][1] = v[5], v[5]
+	}
+	return J, true
 }
 
 func (r *resolver) orientation(path string, l *fileLaw, out *Law) {

@@ -98,7 +98,16 @@ type Law struct {
 	EulerSequence string // e.g. "321"; empty when a quaternion was given
 	SpinAxis      r3.Vec // spin law: body axis of rotation
 	RateRadS      float64
-	MaxRateRadS   float64 // tumble law: the largest initial body rate drawn
+	// MinRateRadS and MaxRateRadS bound the tumble law's initial body rate:
+	// its magnitude is drawn uniformly on [min, max], its axis uniformly on
+	// the sphere (body axes), per Monte Carlo unit.
+	MinRateRadS, MaxRateRadS float64
+	// Inertia, when HasInertia, is the body's inertia tensor (body axes,
+	// kg·m², row-major, symmetric): the tumble then follows Euler's
+	// equations (torque-free motion); without it the tumble is a fixed-axis
+	// spin at the drawn rate.
+	Inertia    [3][3]float64
+	HasInertia bool
 }
 
 // Sun-law alignment references.

@@ -45,6 +45,7 @@ func runCheck(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return usageError{fmt.Errorf("%s: %w", file, err)}
 	}
+	printWarnings(stderr, study.Warnings(s, nil))
 	if *quiet {
 		return nil
 	}

@@ -37,10 +37,13 @@ type runOutput struct {
 	// modes are the scenario's named modes, run beside the primary
 	// attitude (modes.go).
 	modes []modeOutput
+	// warnings are study.Warnings of the run (notes.go).
+	warnings []string
 }
 
 func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
 	o := &runOutput{s: s, cfg: cfg, res: res, version: version}
+	o.warnings = study.Warnings(s, res)
 	lat, err := sky.Fibonacci(sky.DefaultPoints)
 	if err == nil {
 		o.cov, err = sky.Coverage(cfg.Viewers, lat)
@@ -198,6 +201,10 @@ type runRecord struct {
 	Targets       []study.TargetRecord `json:"targets"`
 	Verdict       verdictRecord        `json:"verdict"`
 	Modes         []modeRecord         `json:"modes,omitempty"`
+	// Warnings are study.Warnings of the run (sun model span, TLE age, a
+	// run shorter than one orbit); TumbleDraws the drawn tumbles per unit.
+	Warnings    []string            `json:"warnings"`
+	TumbleDraws []tumbleDrawsRecord `json:"tumble_draws,omitempty"`
 }
 
 type toolRecord struct {
@@ -323,6 +330,7 @@ func (o *runOutput) record() runRecord {
 	if len(o.modes) > 0 {
 		rec.Modes = o.modesJSON()
 	}
+	o.notesJSON(&rec)
 	return rec
 }
 
@@ -369,6 +377,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	fmt.Fprintf(w, "  orbit %s, a = %.1f km (mean altitude %.0f km), e = %.4f; propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
 		s.Orbit.Kind, s.Orbit.SemiMajorAxisKm, s.Orbit.SemiMajorAxisKm-orbit.RadiusEarthKm, s.Orbit.Eccentricity,
 		s.Orbit.Propagator, s.SunModel, s.Shadow, s.Attitude.Name, albedoLabel(s))
+	o.writeNotes(w)
 	es := r.EclipseStats
 	fmt.Fprintf(w, "\nIllumination\n")
 	fmt.Fprintf(w, "  sunlit %s   penumbra %s   umbra %s   beta %.1f° to %.1f°\n", pct(u.SunlitFraction), pct(u.PenumbraFraction), pct(u.UmbraFraction), u.BetaMinDeg, u.BetaMaxDeg)
@@ -516,6 +525,9 @@ func (o *runOutput) writeCSV(dir string) error {
 	files["gaps_"+u.Estimators[0].Name+".csv"] = gaps
 	if len(o.modes) > 0 {
 		files["modes.csv"] = o.modesCSV()
+	}
+	if d := o.drawsCSV(); d != nil {
+		files["tumble_draws.csv"] = d
 	}
 
 	for name, rows := range files {

@@ -161,6 +161,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	out := newRunOutput(s, &cfg, res, toolVersion())
+	printWarnings(stderr, out.warnings)
 	// Each mode runs on the same orbit, sensors and estimators, reported
 	// beside the primary attitude.
 	for _, m := range plan.Modes {

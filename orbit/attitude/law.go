@@ -303,14 +303,13 @@ func (l Spin) Attitude(t float64, _ orbit.State, _ r3.Vec) r3.Rotation {
 	return then(q, frameTurn(l.Phase+l.Rate*t, b))
 }
 
-// Tumble is torque-free rotation at constant body rates:
+// Tumble is a fixed-axis spin: rotation at constant body rates,
 // A(t) = exp(−ωt/2) ⊗ A₀ for A = body ← ECI, which is q(t) = q₀ ⊗ exp(ωt/2)
 // for the ECI ← body quaternion (Markley & Crassidis 2014 §3.3, from
 // memory). This solves Euler's equations exactly only for rotation about a
 // principal axis or a body with equal moments of inertia; a real tumbling
-// body nutates (its rate vector moves in the body). For visibility
-// statistics over many orbits the difference is second order (common
-// practice, no source).
+// body nutates (its rate vector moves in the body): FreeTumble integrates
+// Euler's equations for a given inertia tensor.
 type Tumble struct {
 	Q0   r3.Rotation // body ← ECI at t = 0
 	Rate r3.Vec      // body rates, rad/s
@@ -319,7 +318,13 @@ type Tumble struct {
 // NewTumble draws a uniformly random initial attitude (Shoemake 1992) and
 // a body rate vector of uniformly random direction whose magnitude is
 // uniform on [0, maxRate] (rad/s), from a PCG source seeded with seed.
-func NewTumble(seed uint64, maxRate float64) Tumble {
+func NewTumble(seed uint64, maxRate float64) Tumble { return DrawTumble(seed, 0, maxRate) }
+
+// DrawTumble draws a uniformly random initial attitude (Shoemake 1992) and
+// a body rate vector of uniformly random (isotropic) direction whose
+// magnitude is uniform on [minRate, maxRate] (rad/s), from a PCG source
+// seeded with seed. With minRate 0 it draws what NewTumble draws.
+func DrawTumble(seed uint64, minRate, maxRate float64) Tumble {
 	src := newSource(seed, 0x7475_6d62_6c65) // "tumble"
 	q0 := shoemake(src.Float64(), src.Float64(), src.Float64())
 	// Uniform direction: z uniform on [−1, 1], longitude uniform
@@ -328,7 +333,7 @@ func NewTumble(seed uint64, maxRate float64) Tumble {
 	φ := 2 * math.Pi * src.Float64()
 	ρ := math.Sqrt(1 - z*z)
 	dir := r3.Vec{X: ρ * math.Cos(φ), Y: ρ * math.Sin(φ), Z: z}
-	return Tumble{Q0: q0, Rate: r3.Scale(maxRate*src.Float64(), dir)}
+	return Tumble{Q0: q0, Rate: r3.Scale(minRate+(maxRate-minRate)*src.Float64(), dir)}
 }
 
 // Attitude implements Law.

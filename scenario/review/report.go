@@ -245,6 +245,9 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 	r.Assumptions = assumptions(s)
 	r.Tables = append(r.Tables, estimatorTable(res), sensorTable(s, res))
 	r.Notes = append(r.Notes, Skipped(res)...)
+	for _, w := range study.Warnings(s, res) {
+		r.Notes = append(r.Notes, "Warning: "+w+".")
+	}
 	r.Notes = append(r.Notes,
 		"Coverage figures are fractions of the whole body-frame sphere (Fibonacci lattice of "+fmt.Sprint(sky.DefaultPoints)+
 			" points); visibility figures are fractions of the run's sunlit time.",

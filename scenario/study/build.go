@@ -3,7 +3,9 @@ package study
 import (
 	"codeberg.org/sunsight/sunsight/scenario"
 	"fmt"
+	"math"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
@@ -33,10 +35,25 @@ func MeanElements(s *scenario.Scenario) (orbit.Elements, error) {
 		el.Inclination = inc
 		el.RAAN = orbit.RAANFromLTAN(o.LTANHours, s.Epoch)
 	}
+	if t := o.TLE; o.Kind == scenario.OrbitTLE && t != nil && !t.Epoch.Equal(s.Epoch) {
+		// The element set holds at its own epoch: carry it to the run's
+		// with the secular J2 rates (Warnings says when that is far).
+		el = orbit.NewJ2Mean(el).MeanElementsAt(s.Epoch.Sub(t.Epoch).Seconds())
+		el.RAAN, el.ArgPerigee, el.MeanAnomaly = wrap2π(el.RAAN), wrap2π(el.ArgPerigee), wrap2π(el.MeanAnomaly)
+	}
 	if err := el.Validate(); err != nil {
 		return el, fmt.Errorf("orbit: %w", err)
 	}
 	return el, nil
+}
+
+// wrap2π returns x in [0, 2π).
+func wrap2π(x float64) float64 {
+	x = math.Mod(x, 2*math.Pi)
+	if x < 0 {
+		x += 2 * math.Pi
+	}
+	return x
 }
 
 // NewPropagator returns the factory of fresh propagators for the scenario's
@@ -148,8 +165,8 @@ var lawBuilders = map[string]lawBuilder{
 		// where it puts the body spin axis, the phase its turn about it.
 		return attitude.SpinFrom(q, body, l.RateRadS), nil
 	},
-	attitude.NameTumble: func(_ *scenario.Scenario, l scenario.Law, seed uint64, _ string) (attitude.Law, error) {
-		return attitude.NewTumble(seed, l.MaxRateRadS), nil
+	attitude.NameTumble: func(_ *scenario.Scenario, l scenario.Law, seed uint64, path string) (attitude.Law, error) {
+		return tumbleLaw(seed, l, path)
 	},
 	attitude.NameIsotropic: func(_ *scenario.Scenario, _ scenario.Law, seed uint64, _ string) (attitude.Law, error) {
 		return attitude.Isotropic{Seed: seed}, nil
@@ -174,10 +191,71 @@ func lawForUnit(s *scenario.Scenario, att scenario.Attitude) func(u int) attitud
 		return nil
 	}
 	l, b := att.Law, lawBuilders[att.Name]
+	if l.Name == scenario.LawTumble && l.HasInertia {
+		// One torque-free motion per unit, integrated once: each piece of
+		// the run takes a clone that shares nothing mutable.
+		var mu sync.Mutex
+		free := map[int]*attitude.FreeTumble{}
+		return func(u int) attitude.Law {
+			mu.Lock()
+			defer mu.Unlock()
+			f, ok := free[u]
+			if !ok {
+				law, _ := tumbleLaw(uint64(s.Seed)+uint64(u), l, "attitude") // checked by buildLaw for unit 0
+				f = law.(*attitude.FreeTumble)
+				free[u] = f
+			}
+			return f.Clone()
+		}
+	}
 	return func(u int) attitude.Law {
 		law, _ := b(s, l, uint64(s.Seed)+uint64(u), "attitude")
 		return law
 	}
+}
+
+// tumbleLaw draws a tumble from seed: initial attitude uniform, rate
+// magnitude uniform on [min, max], axis isotropic; with an inertia tensor
+// the body then moves torque-free (Euler's equations), else it spins about
+// the drawn axis at the drawn rate.
+func tumbleLaw(seed uint64, l scenario.Law, path string) (attitude.Law, error) {
+	d := attitude.DrawTumble(seed, l.MinRateRadS, l.MaxRateRadS)
+	if !l.HasInertia {
+		return d, nil
+	}
+	f, err := attitude.NewFreeTumble(d.Q0, d.Rate, attitude.Inertia(l.Inertia))
+	if err != nil {
+		return nil, fmt.Errorf("%s.inertia_kg_m2: %w", path, err)
+	}
+	return f, nil
+}
+
+// TumbleDraw is one unit's drawn tumble: the initial rate magnitude and
+// body axis, and whether the body then moves torque-free (an inertia tensor
+// is given) or spins about that fixed axis.
+type TumbleDraw struct {
+	Unit       int
+	RateDegS   float64
+	AxisBody   r3.Vec
+	TorqueFree bool
+}
+
+// TumbleDraws returns the draws of units 0 … units−1 of a tumble attitude
+// (nil for other laws), exactly as the run draws them.
+func TumbleDraws(s *scenario.Scenario, att scenario.Attitude, units int) []TumbleDraw {
+	if att.Name != scenario.LawTumble {
+		return nil
+	}
+	out := make([]TumbleDraw, max(units, 1))
+	for u := range out {
+		d := attitude.DrawTumble(uint64(s.Seed)+uint64(u), att.MinRateRadS, att.MaxRateRadS)
+		w := r3.Norm(d.Rate)
+		out[u] = TumbleDraw{Unit: u, RateDegS: w * 180 / math.Pi, TorqueFree: att.HasInertia}
+		if w > 0 {
+			out[u].AxisBody = r3.Scale(1/w, d.Rate)
+		}
+	}
+	return out
 }
 
 // BuildSensors turns sensor entries into a sensor array and, per sensor, the

@@ -80,6 +80,7 @@ var runInvariants = []invariant{
 	{"percentiles-ordered", checkPercentiles},
 	{"counts-consistent", checkCounts},
 	{"albedo-none-zero", checkAlbedoNone},
+	{"false-sun-measures-consistent", checkFalseSun},
 	{"events-match-samples", checkEventsVsSamples},
 	{"no-eclipse-above-critical-beta", checkHighBeta},
 	{"isotropic-time-vs-sky", checkIsotropicVsSky},
@@ -92,8 +93,10 @@ var runInvariants = []invariant{
 	{"ideal-least-squares-exact", checkIdealLeastSquares},
 	{"ideal-opposite-pairs-exact", checkIdealOppositePairs},
 	{"albedo-correction-removes-albedo-part", checkAlbedoCorrection},
+	{"no-sun-readings-unused", checkNoSunUnused},
 	{"seeing-is-signal", checkSeeingIsSignal},
 	{"never-behind-own-face", checkBehindFace},
+	{"never-through-bus", checkThroughBus},
 }
 
 // sunlit + penumbra + umbra = 1; cylindrical shadow ⇒ penumbra = 0.
@@ -268,6 +271,9 @@ func checkAlbedoNone(c *runCase) (f failures) {
 			f.addf("unit %d: false sun %g with no albedo", u.Unit, u.FalseSunFraction)
 		}
 		for _, sn := range u.Sensors {
+			if sn.AlbedoOnlyFraction != 0 && !(math.IsNaN(sn.AlbedoOnlyFraction) && u.SunlitFraction == 0) {
+				f.addf("unit %d sensor %s: valid only because of albedo in %g of sunlit time with albedo none", u.Unit, sn.Name, sn.AlbedoOnlyFraction)
+			}
 			if !zero(u, sn.FalseSunFraction) {
 				f.addf("unit %d sensor %s: false sun %g with no albedo", u.Unit, sn.Name, sn.FalseSunFraction)
 			}
@@ -278,6 +284,9 @@ func checkAlbedoNone(c *runCase) (f failures) {
 			}
 			if e.AlbedoPart.N > 0 && e.AlbedoPart.MaxDeg != 0 {
 				f.addf("unit %d %s: albedo part up to %g° with albedo none", u.Unit, e.Name, e.AlbedoPart.MaxDeg)
+			}
+			if e.AlbedoOnlyFraction != 0 && !(math.IsNaN(e.AlbedoOnlyFraction) && u.SunlitFraction == 0) {
+				f.addf("unit %d %s: valid only because of albedo in %g of sunlit time with albedo none", u.Unit, e.Name, e.AlbedoOnlyFraction)
 			}
 			if !zero(u, e.FalseSunFraction) {
 				f.addf("unit %d %s: false sun %g with albedo none", u.Unit, e.Name, e.FalseSunFraction)
@@ -369,6 +378,45 @@ func checkIsotropicVsSky(c *runCase) (f failures) {
 			tol := 4*math.Sqrt(p*(1-p)/n) + 1/n + 0.005
 			if math.Abs(u.SeenAtLeast[k]-p) > tol {
 				f.addf("unit %d: ≥%d seen %.4f of %g sunlit samples, sky %.4f (tolerance %.4f)", u.Unit, k, u.SeenAtLeast[k], n, p, tol)
+			}
+		}
+	}
+	return f
+}
+
+// The false-sun shares agree with the validity and error figures they
+// derive from: valid only because of albedo ≥ valid with albedo − valid
+// without and ≤ valid with albedo; the share more than the bound off is 0
+// when the largest error is within the bound, at least half the valid share
+// when the median is beyond it, at most 5 % of it when the p95 is within it
+// (quantiles resolved to 0.2 %).
+func checkFalseSun(c *runCase) (f failures) {
+	bound := c.res.FalseSunBoundDeg
+	for _, u := range c.res.Units {
+		n := float64(sunlitSamples(u))
+		if n == 0 {
+			continue
+		}
+		for i := range u.Estimators {
+			e := &u.Estimators[i]
+			if e.AlbedoOnlyFraction < e.ValidFraction-e.ValidFractionNoAlbedo-eps || e.AlbedoOnlyFraction > e.ValidFraction+eps {
+				f.addf("unit %d %s: valid only because of albedo %.6f, valid %.6f with and %.6f without albedo", u.Unit, e.Name, e.AlbedoOnlyFraction, e.ValidFraction, e.ValidFractionNoAlbedo)
+			}
+			s := e.ErrAlbedo
+			if s.N == 0 {
+				s = e.ErrNoAlbedo
+			}
+			w, v := e.WrongFraction, e.ValidFraction
+			switch {
+			case s.N == 0 && w != 0:
+				f.addf("unit %d %s: %.6f of sunlit time more than %g° off without a valid estimate", u.Unit, e.Name, w, bound)
+			case s.N == 0:
+			case s.MaxDeg <= bound && w != 0:
+				f.addf("unit %d %s: largest error %.3f° within the %g° bound, yet %.6f more than it off", u.Unit, e.Name, s.MaxDeg, bound, w)
+			case s.P50Deg > bound*1.002 && w < 0.5*v-1/n:
+				f.addf("unit %d %s: median error %.3f° beyond the %g° bound, yet only %.6f of %.6f valid more than it off", u.Unit, e.Name, s.P50Deg, bound, w, v)
+			case s.P95Deg < bound/1.002 && w > 0.05*v+1/n:
+				f.addf("unit %d %s: p95 error %.3f° within the %g° bound, yet %.6f of %.6f valid more than it off", u.Unit, e.Name, s.P95Deg, bound, w, v)
 			}
 		}
 	}

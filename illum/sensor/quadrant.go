@@ -221,24 +221,33 @@ func (q *Quadrant) Sigma() float64 { return q.sigma }
 
 // derivedSigma is the per-axis 1σ of the direction at normal incidence from
 // the error model, to first order: the imbalance error of four equal cells
-// (each ≈ Σ₀/4) from dark offsets, noise and gain mismatch,
-// σ_X = (2/Σ₀)·√(σ_d² + σ_n² + (σ_g·Σ₀/4)²), times the slope dt/dX of the
-// transfer at the start of the linear range, added in quadrature to the
-// misalignment, half the twist variance (a twist δ turns a direction at
-// angle α off the boresight by δ·sin α; taken at the mean of sin²) and the
-// aperture offset over the height. It holds near normal incidence: the
-// noise part grows as Σ₀/Σ(θ) off the boresight. A reading in the dead zone
-// carries its own larger Reading.Sigma. A floor of 0.01° keeps an
-// error-free sensor's weight finite. Own first-order derivation from the
-// geometry above.
+// (each ≈ Σ₀/4) from dark offsets, noise, gain mismatch and the ADC step q,
+// σ_X = (2/Σ₀)·√(σ_d² + σ_n² + (σ_g·Σ₀/4)² + q²/12 + r²), times the slope
+// dt/dX of the transfer at the start of the linear range, added in
+// quadrature to the misalignment, half the twist variance (a twist δ turns a
+// direction at angle α off the boresight by δ·sin α; taken at the mean of
+// sin²) and the aperture offset over the height. r = 1e-4 of full sun is a
+// resolution floor per cell (common practice, no source) that keeps an
+// error-free sensor's weight finite and in proportion to its geometry, so
+// that small errors change the weights of several sensors smoothly. It holds
+// near normal incidence: the noise part grows as Σ₀/Σ(θ) off the boresight.
+// A reading in the dead zone carries its own larger Reading.Sigma. Own
+// first-order derivation from the geometry above.
 func (q *Quadrant) derivedSigma() float64 {
+	const resolution = 1e-4
 	s := q.spec
 	e := s.Errors
 	sum0 := q.sum(r3.Vec{Z: 1}, 0, 0) // nominal sum at normal incidence
 	if sum0 <= 0 {
 		sum0 = 1
 	}
-	sx := 2 / sum0 * math.Sqrt(e.DarkSigma*e.DarkSigma+e.NoiseSigma*e.NoiseSigma+(e.GainSigma*sum0/4)*(e.GainSigma*sum0/4))
+	var q2 float64 // ADC step², per cell
+	if e.ADCBits > 0 {
+		step := e.FullScale / float64(uint64(1)<<e.ADCBits)
+		q2 = step * step
+	}
+	sx := 2 / sum0 * math.Sqrt(e.DarkSigma*e.DarkSigma+e.NoiseSigma*e.NoiseSigma+(e.GainSigma*sum0/4)*(e.GainSigma*sum0/4)+
+		q2/12+resolution*resolution)
 	slope := 0.0 // dt/dX
 	switch {
 	case s.Geometry == GeometryWall:
@@ -248,7 +257,10 @@ func (q *Quadrant) derivedSigma() float64 {
 	}
 	v := slope*sx*slope*sx + e.MisalignSigma*e.MisalignSigma + s.TwistSigma*s.TwistSigma/2 +
 		(s.OffsetSigma/s.Height)*(s.OffsetSigma/s.Height)
-	return math.Max(math.Sqrt(v), 0.01*math.Pi/180)
+	if v == 0 { // no linear range and no error: any small weight
+		return 0.01 * math.Pi / 180
+	}
+	return math.Sqrt(v)
 }
 
 // overlap is the length of [a0, a1] ∩ [b0, b1].

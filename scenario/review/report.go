@@ -134,38 +134,25 @@ func num(v float64, prec int) string {
 	return fmt.Sprintf("%.*f", prec, v)
 }
 
-// WrongBoundDeg is the error beyond which a valid estimate is counted as
-// wrong: the estimator says "here is the sun" and points more than this
-// far off (common practice, no source: a coarse sun sensor's estimate is
-// used for sun acquisition, which tolerates tens of degrees, not more).
-const WrongBoundDeg = 30.0
-
 // wrongShare is the share of valid estimates (realistic readings) more than
-// WrongBoundDeg off the sun, read from the error quantiles; NaN when there
-// is no valid estimate.
+// the run's false-sun bound off the sun, from the engine's count over
+// sunlit time; NaN when there is no valid estimate.
 func wrongShare(e *sim.EstimatorStats) float64 {
-	x, _ := e.ErrorCDF(cdfPoints, e.ErrAlbedo.N > 0)
-	if len(x) == 0 {
+	if !(e.ValidFraction > 0) {
 		return math.NaN()
 	}
-	n := 0
-	for _, v := range x {
-		if v > WrongBoundDeg {
-			n++
-		}
-	}
-	return float64(n) / float64(len(x))
+	return e.WrongFraction / e.ValidFraction
 }
 
 // wrongFlag is the warning of an estimator that is valid but wrong: more
-// than 5 % of its valid estimates lie beyond WrongBoundDeg, so its valid
-// share must not be read as a share of good estimates.
-func wrongFlag(e *sim.EstimatorStats) string {
+// than 5 % of its valid estimates lie beyond the false-sun bound boundDeg,
+// so its valid share must not be read as a share of good estimates.
+func wrongFlag(e *sim.EstimatorStats, boundDeg float64) string {
 	w := wrongShare(e)
 	if !(w > 0.05) {
 		return ""
 	}
-	return fmt.Sprintf("valid but wrong: %.0f %% of its valid estimates are more than %.0f° off the sun", 100*w, WrongBoundDeg)
+	return fmt.Sprintf("valid but wrong: %.0f %% of its valid estimates are more than %g° off the sun", 100*w, boundDeg)
 }
 
 // Provenance says where a report comes from: the input file and its
@@ -339,7 +326,7 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 	)
 
 	valid := row("Valid sun vector ("+e.Name+")", pct(e.ValidFraction), "% of sunlit time")
-	valid.Flag = wrongFlag(e)
+	valid.Flag = wrongFlag(e, res.FalseSunBoundDeg)
 	judge(&valid, study.TargetValid)
 	rows = append(rows, valid)
 
@@ -398,9 +385,9 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 func estimatorTable(res *sim.Result) plots.Table {
 	t := plots.Table{Title: "Sun-vector estimators side by side (same readings)",
 		Header: []string{"estimator", "valid (% of sunlit)", "valid without albedo (% of sunlit)", "p95 without albedo (deg)",
-			"p95 with albedo (deg)", "albedo part p95 (deg)", fmt.Sprintf("valid but > %.0f° off (%% of valid)", WrongBoundDeg),
+			"p95 with albedo (deg)", "albedo part p95 (deg)", fmt.Sprintf("valid but > %g° off (%% of valid)", res.FalseSunBoundDeg),
 			"longest gap (s)", "gaps (count)", "p95 reached by 95 % of units (deg)"},
-		Note: fmt.Sprintf("— : not defined for this run (no albedo model, one unit, or no valid estimate). ⚠ marks an estimator valid but wrong: more than 5 %% of its valid estimates lie more than %.0f° off the sun.", WrongBoundDeg)}
+		Note: fmt.Sprintf("— : not defined for this run (no albedo model, one unit, or no valid estimate). ⚠ marks an estimator valid but wrong: more than 5 %% of its valid estimates lie more than %g° off the sun (validity.false_sun_bound_deg).", res.FalseSunBoundDeg)}
 	for j, e := range res.Nominal.Estimators {
 		name := e.Name
 		if j == 0 {
@@ -415,7 +402,7 @@ func estimatorTable(res *sim.Result) plots.Table {
 			with, part = num(e.ErrAlbedo.P95Deg, 2), num(e.AlbedoPart.P95Deg, 2)
 		}
 		wrong := pct(wrongShare(&e))
-		if wrongFlag(&e) != "" {
+		if wrongFlag(&e, res.FalseSunBoundDeg) != "" {
 			name = "⚠ " + name
 			wrong = "⚠ " + wrong
 		}
@@ -531,7 +518,11 @@ func viewAssumptions(s *scenario.Scenario) []plots.Assumption {
 		if g.MaxResidual > 0 {
 			lim = fmt.Sprintf("residual ≤ %g", g.MaxResidual)
 		}
-		gates = append(gates, fmt.Sprintf("%s: ≥ %d sensors, signals summing to ≥ %g of full sun, %s", e, g.MinSensors, g.MinTotalSignal, lim))
+		sig := "no signal floor"
+		if g.MinTotalSignal > 0 {
+			sig = fmt.Sprintf("signals summing to ≥ %g of full sun", g.MinTotalSignal)
+		}
+		gates = append(gates, fmt.Sprintf("%s: ≥ %d sensor(s), %s, %s", e, g.MinSensors, sig, lim))
 	}
 	return []plots.Assumption{
 		{Model: "Field of view: no sensor sees behind the surface it sits on; " + bus,

@@ -1,6 +1,9 @@
 package orbit
 
 import (
+	"fmt"
+
+	"github.com/soniakeys/meeus/v3/eqtime"
 	"math"
 	"time"
 
@@ -46,4 +49,29 @@ func LVLH(s State) (x, y, z r3.Vec) {
 	y = r3.Scale(-1/vecmath.Norm(h), h)
 	x = r3.Cross(y, z)
 	return x, y, z
+}
+
+// Solar times an LTAN can be given in.
+const (
+	MeanSolarTime     = "mean"     // the mean sun (uniform along the equator)
+	ApparentSolarTime = "apparent" // the true sun, ahead of or behind the mean sun by the equation of time
+)
+
+// RAANFromLTANSolar returns the RAAN (rad, [0, 2π), EME2000) for an LTAN
+// read in the named solar time. Mean solar time is RAANFromLTAN. Apparent
+// solar time is the hour angle of the true sun: local apparent time =
+// local mean time + E, so the node of apparent LTAN h sits where the mean
+// LTAN is h − E, Ω = RAANFromLTAN(h) − 15°/h·E, with the equation of time E
+// from Smart's formula (Meeus 1998 eq. 28.3, through
+// github.com/soniakeys/meeus/v3/eqtime.ESmart; Example 28.b within 0.1 s).
+// E reaches ±16 min (±4° of RAAN).
+func RAANFromLTANSolar(ltanHours float64, epoch time.Time, solarTime string) (float64, error) {
+	switch solarTime {
+	case MeanSolarTime, "":
+		return RAANFromLTAN(ltanHours, epoch), nil
+	case ApparentSolarTime:
+		e := eqtime.ESmart(ephem.JulianDateTT(epoch)).Rad() // hour angle, rad
+		return wrap2π(RAANFromLTAN(ltanHours, epoch) - e), nil
+	}
+	return 0, fmt.Errorf("orbit: solar time %q is not one of %s, %s", solarTime, MeanSolarTime, ApparentSolarTime)
 }

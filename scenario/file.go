@@ -28,6 +28,7 @@ type fileScenario struct {
 type fileOrbit struct {
 	AltitudeKm      *float64 `yaml:"altitude_km,omitempty"`
 	LTAN            string   `yaml:"ltan,omitempty"`
+	LTANSolarTime   string   `yaml:"ltan_solar_time,omitempty"`
 	SemiMajorAxisKm *float64 `yaml:"semi_major_axis_km,omitempty"`
 	Eccentricity    *float64 `yaml:"eccentricity,omitempty"`
 	InclinationDeg  *float64 `yaml:"inclination_deg,omitempty"`

@@ -28,15 +28,19 @@ const (
 	defaultSeed       = 1
 	defaultPropagator = "j2-mean"
 	tlePropagator     = "sgp4" // default for a TLE orbit
-	defaultSunModel   = "low-precision"
-	defaultShadow     = "conical"
-	defaultCells      = 1000
-	defaultUnits      = 1
-	defaultDecimate   = 1
-	defaultThreshold  = 0.05
-	defaultFullScale  = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
-	defaultADCBits    = 12
-	defaultMaxRate    = 10.0 // deg/s: a typical post-deployment tip-off bound
+	// defaultLTANSolarTime: an LTAN is local mean solar time unless the
+	// file says apparent (the mean sun is the usual launch-provider
+	// convention; common practice, no source).
+	defaultLTANSolarTime = "mean"
+	defaultSunModel      = "low-precision"
+	defaultShadow        = "conical"
+	defaultCells         = 1000
+	defaultUnits         = 1
+	defaultDecimate      = 1
+	defaultThreshold     = 0.05
+	defaultFullScale     = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
+	defaultADCBits       = 12
+	defaultMaxRate       = 10.0 // deg/s: a typical post-deployment tip-off bound
 	// defaultFalseSunBoundDeg: a valid estimate this far from the sun points
 	// the spacecraft at the wrong thing, well beyond the few degrees of
 	// albedo bias of a coarse sensor (the engine's default; common practice,
@@ -198,6 +202,9 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 		def = tlePropagator // the model TLEs are fitted with
 	}
 	r.choice("orbit.propagator", &o.Propagator, def, orbit.PropagatorNames())
+	if o.LTANSolarTime != "" && o.LTAN == "" {
+		r.fail("orbit.ltan_solar_time", "value is given without ltan; allowed with altitude_km + ltan only")
+	}
 	out.Propagator = o.Propagator
 	if o.Propagator == tlePropagator && len(o.TLE) == 0 {
 		r.fail("orbit.propagator", "value sgp4 propagates the mean elements of a TLE; allowed with orbit.tle only (two-body, j2-mean or j2-numeric for other orbits)")
@@ -251,6 +258,8 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 				r.fail("orbit.ltan", "value %s", err)
 			}
 			out.Kind, out.LTANHours = OrbitSunSync, lt
+			r.choice("orbit.ltan_solar_time", &o.LTANSolarTime, defaultLTANSolarTime, []string{orbit.MeanSolarTime, orbit.ApparentSolarTime})
+			out.LTANSolarTime = o.LTANSolarTime
 		} else {
 			if !has(o.InclinationDeg) {
 				r.fail("orbit.inclination_deg", "value is missing; allowed [0, 180] with altitude_km, or give ltan for a sun-synchronous orbit")

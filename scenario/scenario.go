@@ -53,6 +53,7 @@ type Orbit struct {
 	Propagator      string  // "two-body", "j2-mean", "j2-numeric" or "sgp4" (the default for a TLE)
 	AltitudeKm      float64 // circular and sun-synchronous kinds; else a−Rₑ
 	LTANHours       float64 // sun-synchronous kind only, in [0, 24)
+	LTANSolarTime   string  // "mean" (default) or "apparent": the solar time LTANHours is read in
 	SemiMajorAxisKm float64 // all kinds (Rₑ + altitude for the circular kinds)
 	Eccentricity    float64
 	InclinationRad  float64

@@ -30,7 +30,8 @@ the mean semi-major axis minus the WGS 84 equatorial radius.
 func runOrbit(args []string, stdout, stderr io.Writer) error {
 	fs := newFlagSet("orbit")
 	alt := fs.Float64("altitude-km", math.NaN(), "mean altitude above the equatorial radius, `KM` (required, > 0)")
-	ltan := fs.String("ltan", "", "local mean solar time of the ascending node, `HH:MM` (00:00 to 23:59)")
+	ltan := fs.String("ltan", "", "local solar time of the ascending node, `HH:MM` (00:00 to 23:59), mean unless --ltan-solar-time apparent")
+	solarTime := fs.String("ltan-solar-time", orbit.MeanSolarTime, "the solar time --ltan is read in: `mean` (the mean sun) or apparent (the true sun, differs by the equation of time)")
 	epochS := fs.String("epoch", "", "epoch, UTC, `RFC3339` such as 2027-03-20T12:00:00Z (required with --ltan)")
 	incl := fs.Float64("inclination-deg", math.NaN(), "inclination, `DEG` in [0, 180] (when absent: sun-synchronous)")
 	ecc := fs.Float64("ecc", 0, "eccentricity, `E` in [0, 1)")
@@ -91,7 +92,11 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 	}
 	el := orbit.Elements{SemiMajorAxisKm: a, Eccentricity: *ecc, Inclination: inc}
 	if *ltan != "" {
-		el.RAAN = orbit.RAANFromLTAN(ltanH, epoch)
+		raan, err := orbit.RAANFromLTANSolar(ltanH, epoch, *solarTime)
+		if err != nil {
+			return usagef("--ltan-solar-time %q: allowed mean or apparent", *solarTime)
+		}
+		el.RAAN = raan
 	}
 	dΩ, dω, dM := orbit.J2Rates(el)
 	const degPerDay = 180 / math.Pi * 86400
@@ -104,7 +109,7 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "inclination            %.3f deg\n", inc*180/math.Pi)
 	if *ltan != "" {
-		fmt.Fprintf(stdout, "RAAN (EME2000)         %.3f deg at %s for LTAN %s\n", el.RAAN*180/math.Pi, epoch.UTC().Format(time.RFC3339), formatClock(ltanH))
+		fmt.Fprintf(stdout, "RAAN (EME2000)         %.3f deg at %s for LTAN %s %s solar time\n", el.RAAN*180/math.Pi, epoch.UTC().Format(time.RFC3339), formatClock(ltanH), *solarTime)
 	}
 	fmt.Fprintf(stdout, "nodal drift            %+.5f deg/day\n", dΩ*degPerDay)
 	fmt.Fprintf(stdout, "perigee drift          %+.5f deg/day\n", dω*degPerDay)

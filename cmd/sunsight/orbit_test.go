@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"strings"
 	"testing"
 )
@@ -85,5 +86,38 @@ func TestOrbitInclinationWithoutLTAN(t *testing.T) {
 	}
 	if strings.Contains(out.String(), "RAAN") || !strings.Contains(out.String(), "nodal drift") {
 		t.Errorf("output:\n%s", out.String())
+	}
+}
+
+// --ltan-solar-time apparent moves the RAAN by the equation of time
+// (2027-03-20: E ≈ −7.5 min, so ≈ +1.9°); an unknown solar time is bad input.
+func TestOrbitLTANSolarTime(t *testing.T) {
+	base := []string{"orbit", "--altitude-km", "550", "--ltan", "10:30", "--epoch", "2027-03-20T12:00:00Z"}
+	var mean, app, errb bytes.Buffer
+	if code := runMain(base, &mean, &errb); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	if code := runMain(append(base, "--ltan-solar-time", "apparent"), &app, &errb); code != 0 {
+		t.Fatalf("exit %d: %s", code, errb.String())
+	}
+	raan := func(s string) float64 {
+		for _, l := range strings.Split(s, "\n") {
+			if strings.HasPrefix(l, "RAAN") {
+				var v float64
+				fmt.Sscanf(strings.Fields(l)[2], "%g", &v)
+				return v
+			}
+		}
+		t.Fatalf("no RAAN line in %q", s)
+		return 0
+	}
+	if d := raan(app.String()) - raan(mean.String()); d < 1.7 || d > 2.0 {
+		t.Errorf("apparent − mean RAAN = %.3f°; want ≈ 1.9°", d)
+	}
+	if !strings.Contains(app.String(), "apparent solar time") {
+		t.Errorf("output does not name the solar time: %s", app.String())
+	}
+	if code := runMain(append(base, "--ltan-solar-time", "sidereal"), &mean, &errb); code != 2 {
+		t.Errorf("unknown solar time: exit %d, want 2", code)
 	}
 }

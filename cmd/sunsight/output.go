@@ -377,6 +377,12 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	fmt.Fprintf(w, "  orbit %s, a = %.1f km (mean altitude %.0f km), e = %.4f; propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
 		s.Orbit.Kind, s.Orbit.SemiMajorAxisKm, s.Orbit.SemiMajorAxisKm-orbit.RadiusEarthKm, s.Orbit.Eccentricity,
 		s.Orbit.Propagator, s.SunModel, s.Shadow, s.Attitude.Name, albedoLabel(s))
+	if s.Orbit.Kind == scenario.OrbitSunSync {
+		if el, err := study.MeanElements(s); err == nil {
+			fmt.Fprintf(w, "  sun-synchronous: inclination %.3f°, RAAN %.3f° (EME2000) from LTAN %s %s solar time\n",
+				el.Inclination*180/math.Pi, el.RAAN*180/math.Pi, scenario.FormatLocalTime(s.Orbit.LTANHours), s.Orbit.LTANSolarTime)
+		}
+	}
 	o.writeNotes(w)
 	es := r.EclipseStats
 	fmt.Fprintf(w, "\nIllumination\n")

@@ -33,7 +33,11 @@ func MeanElements(s *scenario.Scenario) (orbit.Elements, error) {
 			return el, fmt.Errorf("orbit.altitude_km: %g: %w", o.AltitudeKm, err)
 		}
 		el.Inclination = inc
-		el.RAAN = orbit.RAANFromLTAN(o.LTANHours, s.Epoch)
+		raan, err := orbit.RAANFromLTANSolar(o.LTANHours, s.Epoch, o.LTANSolarTime)
+		if err != nil {
+			return el, fmt.Errorf("orbit.ltan_solar_time: %w", err)
+		}
+		el.RAAN = raan
 	}
 	if t := o.TLE; o.Kind == scenario.OrbitTLE && t != nil && !t.Epoch.Equal(s.Epoch) {
 		// The element set holds at its own epoch: carry it to the run's

@@ -58,7 +58,7 @@ type Derived struct {
 	SemiMajorAxisKm, InclinationDeg, RAANDeg float64
 	// SunSync is set for an orbit given by altitude and LTAN; SolarTime
 	// then names the solar time the LTAN is read in ("mean": the mean sun's
-	// right ascension, orbit.RAANFromLTAN).
+	// right ascension; "apparent": the true sun, orbit.RAANFromLTANSolar).
 	SunSync   bool
 	LTANHours float64
 	SolarTime string
@@ -87,7 +87,7 @@ func Derive(s *scenario.Scenario, p *Plan) (Derived, error) {
 		InclinationDeg: el.Inclination * 180 / math.Pi, RAANDeg: math.Mod(el.RAAN*180/math.Pi+360, 360),
 		Steps: cfg.Steps(), Units: max(cfg.Units, 1), Runs: 1 + len(p.Modes)}
 	if s.Orbit.Kind == scenario.OrbitSunSync {
-		d.SunSync, d.LTANHours, d.SolarTime = true, s.Orbit.LTANHours, "mean"
+		d.SunSync, d.LTANHours, d.SolarTime = true, s.Orbit.LTANHours, s.Orbit.LTANSolarTime
 	}
 	// Beta range: at most betaSamples samples, at least every 600 s
 	// (beta moves by ≈ 1°/day, so 600 s resolves it to ≈ 0.01°) and never

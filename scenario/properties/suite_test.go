@@ -22,6 +22,7 @@ import (
 // with the issue and the drawn numbers; where it holds it passes as usual.
 // Remove an entry as soon as its fix lands.
 var knownFailures = map[string]string{
+	"albedo-none-umbra-false-sun-zero":                                    "issue 12 (the unit's umbra false-sun share, documented as albedo alone above threshold, also counts dark offsets and noise)",
 	"attitude-perturbation-1e-9 [sun in the mounting plane of a sensor]":  "issue 12 (the clip at a sensor's mounting plane is decided by rounding when the sun lies in that plane)",
 	"rotated-layout-and-attitude [sun in the mounting plane of a sensor]": "issue 12 (the clip at a sensor's mounting plane is decided by rounding when the sun lies in that plane)",
 	// Left after the quadrant validity gate: a sun parked on the edge of the

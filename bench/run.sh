@@ -18,13 +18,21 @@ fi
 go build -o /tmp/sunsight ./cmd/sunsight
 
 # measure <label> <cmd...>: runs the command under /usr/bin/time -v and sets
-# WALL (s) and RSS (MiB) from its report.
+# WALL (s), CPU (user + system, s), PCT (CPU share, %) and RSS (MiB) from
+# its report. The command's exit status is kept in STATUS (a missed target
+# is not a failure of the benchmark).
 measure() {
   local label="$1"; shift
-  /usr/bin/time -v -o "$OUT/$label.time" "$@" >"$OUT/$label.out"
+  STATUS=0
+  /usr/bin/time -v -o "$OUT/$label.time" "$@" >"$OUT/$label.out" || STATUS=$?
   WALL=$(awk -F': ' '/Elapsed \(wall clock\)/ {n=split($2,p,":"); s=0; for(i=1;i<=n;i++) s=s*60+p[i]; print s}' "$OUT/$label.time")
+  CPU=$(awk -F': ' '/User time/ {u=$2} /System time/ {s=$2} END {printf "%.2f", u+s}' "$OUT/$label.time")
+  PCT=$(awk -F': ' '/Percent of CPU/ {sub("%","",$2); print $2}' "$OUT/$label.time")
   RSS=$(awk -F': ' '/Maximum resident set size/ {printf "%.1f", $2/1024}' "$OUT/$label.time")
 }
+
+# ratio A B: A / B with two decimals.
+ratio() { awk -v a="$1" -v b="$2" 'BEGIN {printf "%.2f", (b > 0) ? a / b : 0}'; }
 
 declare -A NP_WALL NP_RSS NP_INNER SS_WALL SS_RSS
 for alb in none uniform; do
@@ -38,7 +46,7 @@ SS_READY=yes
 for alb in none uniform; do
   f=bench/year-nadir.yaml; [ "$alb" = uniform ] && f=bench/year-nadir-albedo.yaml
   if [ "$SS_READY" = yes ]; then
-    measure "sunsight-$alb" /tmp/sunsight run -quiet "$f"
+    measure "sunsight-$alb" /tmp/sunsight run --quiet "$f"
     SS_WALL[$alb]=$WALL; SS_RSS[$alb]=$RSS
   else
     SS_WALL[$alb]=NA; SS_RSS[$alb]=NA
@@ -55,3 +63,48 @@ for alb in none uniform; do
   printf "%-8s %14s %14s %12s %14s %14s %12s\n" "$alb" "${NP_WALL[$alb]}" "${NP_INNER[$alb]}" "${NP_RSS[$alb]}" "${SS_WALL[$alb]}" "${SS_RSS[$alb]}" "$ratio"
 done
 echo "ratio = numpy wall time / sunsight wall time, both whole processes, measured in this run"
+
+# ---- per step, one core: the floor, the engine and its stages ----------
+echo
+echo "per step on one core (go test -bench, one day of the reference case without albedo)"
+go test -run '^$' -bench 'StepLimit|EngineStep|Stages' -benchtime 200x ./scenario/sim >"$OUT/bench.txt"
+awk '/ns\/step/ {name=$1; sub(/^Benchmark/, "", name); sub(/-[0-9]+$/, "", name); for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") printf "  %-24s %9.1f ns/step\n", name, $i}' "$OUT/bench.txt"
+LIMIT=$(awk '/^BenchmarkStepLimit/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/bench.txt")
+ENGINE=$(awk '/^BenchmarkEngineStep/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/bench.txt")
+echo "  engine / floor = $(ratio "$ENGINE" "$LIMIT")"
+
+# ---- whole runs side by side: each pair measured back to back ----------
+# pair <label> <fileA> <argsA> <fileB> <argsB>: prints both runs and the
+# ratio A/B of wall and CPU time.
+PAIRS=0
+pair() {
+  local label="$1" fa="$2" aa="$3" fb="$4" ab="$5"
+  PAIRS=$((PAIRS + 1))
+  # shellcheck disable=SC2086
+  measure "pair$PAIRS-a" /tmp/sunsight run --quiet $aa "$fa"; local wa=$WALL ca=$CPU ra=$RSS
+  # shellcheck disable=SC2086
+  measure "pair$PAIRS-b" /tmp/sunsight run --quiet $ab "$fb"; local wb=$WALL cb=$CPU rb=$RSS
+  printf "%-34s %8s %8s %8s | %8s %8s %8s | %7s %7s\n" "$label" "$wa" "$ca" "$ra" "$wb" "$cb" "$rb" "$(ratio "$wa" "$wb")" "$(ratio "$ca" "$cb")"
+}
+echo
+echo "whole runs, 30 d at 10 s unless named; A then B back to back (wall s, CPU s, peak RSS MiB)"
+printf "%-34s %8s %8s %8s | %8s %8s %8s | %7s %7s\n" "A / B" wallA cpuA rssA wallB cpuB rssB wall_A/B cpu_A/B
+for att in inertial sun tumble; do
+  pair "$att: albedo / none" "bench/month-$att-albedo.yaml" "" "bench/month-$att.yaml" ""
+done
+pair "nadir albedo: j2-numeric / j2-mean" bench/month-nadir-albedo-j2-numeric.yaml "" bench/month-nadir-albedo-j2-mean.yaml ""
+pair "inertial albedo: 10 units / 1" bench/month-inertial-albedo.yaml "--units 10" bench/month-inertial-albedo.yaml "--units 1"
+pair "24 sensors albedo: 10 y / 1 y" bench/year-24-albedo.yaml "--duration 3650d" bench/year-24-albedo.yaml ""
+
+# ---- sweep: 52 cases on one and on two workers -------------------------
+sed 's/^duration: 365d/duration: 10d/' bench/year-nadir.yaml >"$OUT/sweep.yaml"
+sweep() {
+  measure "sweep-$1" /tmp/sunsight sweep "$OUT/sweep.yaml" --vary orbit.altitude_km=400:1000:50 \
+    --vary "orbit.ltan=06:00,09:00,10:30,13:30" --out "$OUT/sweep-$1" --no-plots --workers "$1"
+}
+sweep 1; W1=$WALL; C1=$CPU
+sweep 2; W2=$WALL; C2=$CPU; P2=$PCT
+echo
+echo "sweep of 52 cases (10 d each): 1 worker ${W1} s wall (${C1} s CPU), 2 workers ${W2} s wall (${C2} s CPU, ${P2} % CPU)"
+echo "  speed-up on 2 workers = $(ratio "$W1" "$W2") (the CPU share shows how much of the second core the sweep got)"
+echo "load average at the end: $(cut -d' ' -f1-3 /proc/loadavg) (the machine is shared: compare ratios measured in one run)"

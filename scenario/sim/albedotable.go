@@ -51,10 +51,17 @@ const (
 	boresightMaxRadii     = 4
 )
 
+// localTableMaxSensors bounds the sensors of a LocalTable: it keeps 1.6 MB
+// per sensor (221 × 360 nodes × 5 float64), so a large array uses the
+// boresight tables instead (about 12 MB per kind of cone and radius, shared
+// by every sensor of that kind), which keeps the memory of a run flat in
+// the number of sensors.
+const localTableMaxSensors = 8
+
 // boresightMinWork is the number of sensor integrals (steps × sets of
 // geometry × sensors) per table from which the boresight tables are built.
 // A variable so tests can use them on short runs.
-var boresightMinWork = 1_000_000
+var boresightMinWork = 400_000
 
 // newAlbedoTable returns the table that serves the run, or nil (the loop
 // integrates every step). sets is the number of geometries the run
@@ -63,7 +70,7 @@ func newAlbedoTable(cfg *Config, steps, sets int) *localAlbedo {
 	if cfg.NewAlbedo == nil || cfg.NoAlbedoTable {
 		return nil
 	}
-	if steps*sets >= albedoTableMinSteps {
+	if steps*sets >= albedoTableMinSteps && cfg.Array.Len() <= localTableMaxSensors {
 		if t := buildLocalAlbedo(cfg); t != nil {
 			return t
 		}

@@ -103,7 +103,7 @@ func (o *runOutput) modesJSON() []modeRecord {
 // modesCSV is modes.csv: one row per attitude, primary first.
 func (o *runOutput) modesCSV() [][]string {
 	rows := [][]string{{"mode", "primary", "sunlit_fraction", "seen_by_1_fraction", "seen_by_2_fraction", "seen_by_3_fraction", "valid_fraction",
-		"p95_error_no_albedo_deg", "p95_error_albedo_deg", "longest_gap_s", "targets_met", "targets"}}
+		"p95_error_no_albedo_deg", "p95_error_albedo_deg", "longest_gap_s", "targets_met_count", "targets_stated_count"}}
 	for i, m := range o.modeRows() {
 		name := m.name
 		if i == 0 {

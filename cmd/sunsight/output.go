@@ -34,6 +34,9 @@ type runOutput struct {
 	cov     sky.Result
 	covErr  error
 	targets []study.TargetCheck
+	// allUnits writes every Monte Carlo unit into the per-unit CSV tables
+	// (run --all-units); otherwise the nominal unit only.
+	allUnits bool
 	// modes are the scenario's named modes, run beside the primary
 	// attitude (modes.go).
 	modes []modeOutput
@@ -477,6 +480,14 @@ func csvBytes(rows [][]string) ([]byte, error) {
 	return b.Bytes(), w.Error()
 }
 
+// utc is the UTC time of t seconds after the epoch, empty when t is undefined.
+func (o *runOutput) utc(t float64) string {
+	if math.IsNaN(t) {
+		return ""
+	}
+	return o.s.Epoch.Add(time.Duration(t * float64(time.Second))).UTC().Format("2006-01-02T15:04:05.000Z")
+}
+
 // writeCSV writes the time series, eclipses, estimators and sensors tables,
 // the resolved scenario and the JSON record into dir.
 func (o *runOutput) writeCSV(dir string) error {
@@ -490,7 +501,7 @@ func (o *runOutput) writeCSV(dir string) error {
 		}
 		rows := [][]string{head}
 		for i, t := range s.T {
-			row := []string{ff(t, 1), o.s.Epoch.Add(time.Duration(t * float64(time.Second))).UTC().Format("2006-01-02T15:04:05.000Z"),
+			row := []string{ff(t, 1), o.utc(t),
 				strings.ToLower(s.Region[i].String()), ff(s.Lit[i], 6), strconv.Itoa(s.Seen[i]), strconv.FormatBool(s.Valid[i]),
 				ff(s.ErrNoDeg[i], 4), ff(s.ErrAlbDeg[i], 4), ff(s.BetaDeg[i], 4), ff(s.SunBodyAz[i], 3), ff(s.SunBodyEl[i], 3)}
 			for _, v := range s.Signals[i] {
@@ -502,33 +513,48 @@ func (o *runOutput) writeCSV(dir string) error {
 	}
 	ecl := [][]string{{"penumbra_start_utc", "penumbra_start_s", "umbra_start_s", "umbra_end_s", "penumbra_end_s", "duration_s", "umbra_s", "cut_by_span"}}
 	for _, e := range r.Eclipses {
-		ecl = append(ecl, []string{o.s.Epoch.Add(time.Duration(e.PenumbraStart * float64(time.Second))).UTC().Format("2006-01-02T15:04:05.000Z"),
+		ecl = append(ecl, []string{o.utc(e.PenumbraStart),
 			ff(e.PenumbraStart, 3), ff(e.UmbraStart, 3), ff(e.UmbraEnd, 3), ff(e.PenumbraEnd, 3), ff(e.Duration(), 3),
 			ff(e.UmbraDuration(), 3), strconv.FormatBool(e.StartCut || e.EndCut)})
 	}
 	files["eclipses.csv"] = ecl
-	est := [][]string{{"estimator", "valid_fraction", "longest_gap_s", "mean_no_albedo_deg", "p50_no_albedo_deg", "p95_no_albedo_deg", "p99_no_albedo_deg", "max_no_albedo_deg",
-		"mean_albedo_deg", "p50_albedo_deg", "p95_albedo_deg", "p99_albedo_deg", "max_albedo_deg", "p95_albedo_part_deg", "false_sun_fraction_of_umbra",
+	// Per-unit tables: the nominal unit (unit 0), or every unit with
+	// --all-units; the unit column is always there.
+	units := r.Units
+	if !o.allUnits && len(units) > 1 {
+		units = units[:1]
+	}
+	est := [][]string{{"unit", "estimator", "valid_fraction", "longest_gap_s", "mean_error_no_albedo_deg", "p50_error_no_albedo_deg",
+		"p95_error_no_albedo_deg", "p99_error_no_albedo_deg", "max_error_no_albedo_deg",
+		"mean_error_albedo_deg", "p50_error_albedo_deg", "p95_error_albedo_deg", "p99_error_albedo_deg", "max_error_albedo_deg",
+		"p95_albedo_part_deg", "false_sun_fraction_of_umbra",
 		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
-	for _, e := range u.Estimators {
-		a, b := e.ErrNoAlbedo, e.ErrAlbedo
-		est = append(est, []string{e.Name, ff(e.ValidFraction, 6), ff(e.LongestGapS, 1), ff(a.MeanDeg, 4), ff(a.P50Deg, 4), ff(a.P95Deg, 4), ff(a.P99Deg, 4), ff(a.MaxDeg, 4),
-			ff(b.MeanDeg, 4), ff(b.P50Deg, 4), ff(b.P95Deg, 4), ff(b.P99Deg, 4), ff(b.MaxDeg, 4), ff(e.AlbedoPart.P95Deg, 4), ff(e.FalseSunFraction, 6),
-			ff(e.AlbedoOnlyFraction, 6), ff(e.WrongFraction, 6)})
+	sens := [][]string{{"unit", "sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra",
+		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
+	gaps := [][]string{{"unit", "estimator", "gap_start_utc", "gap_start_s", "gap_end_s", "gap_s"}}
+	for _, un := range units {
+		ui := strconv.Itoa(un.Unit)
+		for _, e := range un.Estimators {
+			a, b := e.ErrNoAlbedo, e.ErrAlbedo
+			est = append(est, []string{ui, e.Name, ff(e.ValidFraction, 6), ff(e.LongestGapS, 1), ff(a.MeanDeg, 4), ff(a.P50Deg, 4), ff(a.P95Deg, 4), ff(a.P99Deg, 4), ff(a.MaxDeg, 4),
+				ff(b.MeanDeg, 4), ff(b.P50Deg, 4), ff(b.P95Deg, 4), ff(b.P99Deg, 4), ff(b.MaxDeg, 4), ff(e.AlbedoPart.P95Deg, 4), ff(e.FalseSunFraction, 6),
+				ff(e.AlbedoOnlyFraction, 6), ff(e.WrongFraction, 6)})
+			for k, g := range e.Gaps {
+				t0 := math.NaN()
+				if k < len(e.GapStartS) {
+					t0 = e.GapStartS[k]
+				}
+				gaps = append(gaps, []string{ui, e.Name, o.utc(t0), ff(t0, 1), ff(t0+g, 1), ff(g, 1)})
+			}
+		}
+		for _, s := range un.Sensors {
+			sens = append(sens, []string{ui, s.Name, ff(s.InViewFraction, 6), ff(s.PeakSignal, 5), ff(s.SaturatedFraction, 6), ff(s.FalseSunFraction, 6),
+				ff(s.AlbedoOnlyFraction, 6), ff(s.WrongFraction, 6)})
+		}
 	}
 	files["estimators.csv"] = est
-	sens := [][]string{{"sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra",
-		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
-	for _, s := range u.Sensors {
-		sens = append(sens, []string{s.Name, ff(s.InViewFraction, 6), ff(s.PeakSignal, 5), ff(s.SaturatedFraction, 6), ff(s.FalseSunFraction, 6),
-			ff(s.AlbedoOnlyFraction, 6), ff(s.WrongFraction, 6)})
-	}
 	files["sensors.csv"] = sens
-	gaps := [][]string{{"gap_s"}}
-	for _, g := range u.Estimators[0].Gaps {
-		gaps = append(gaps, []string{ff(g, 1)})
-	}
-	files["gaps_"+u.Estimators[0].Name+".csv"] = gaps
+	files["gaps.csv"] = gaps
 	if len(o.modes) > 0 {
 		files["modes.csv"] = o.modesCSV()
 	}

@@ -30,17 +30,19 @@ completes but a target is not met.`,
 
 // runFlags are the options of sunsight run.
 type runFlags struct {
-	json     bool
-	csvDir   string
-	report   string
-	plotsDir string
-	units    int
-	workers  int
-	quiet    bool
-	force    bool
-	duration string
-	step     string
-	cpuProf  string
+	json      bool
+	csvDir    string
+	report    string
+	plotsDir  string
+	units     int
+	workers   int
+	quiet     bool
+	force     bool
+	allUnits  bool
+	maxMemMiB int
+	duration  string
+	step      string
+	cpuProf   string
 }
 
 func runFlagSet(f *runFlags) *flagSet {
@@ -53,6 +55,8 @@ func runFlagSet(f *runFlags) *flagSet {
 	fs.IntVar(&f.workers, "workers", 0, "parallel units (`N`; 0 = all cores)")
 	fs.BoolVar(&f.quiet, "quiet", false, "no progress display")
 	fs.BoolVar(&f.force, "force", false, "replace an earlier --csv or --plots folder or --report file")
+	fs.BoolVar(&f.allUnits, "all-units", false, "write every Monte Carlo unit into the --csv tables (default: the nominal unit 0)")
+	fs.IntVar(&f.maxMemMiB, "max-memory-mib", defaultMaxMemoryMiB, "refuse a run whose estimated memory exceeds `MIB`")
 	fs.StringVar(&f.duration, "duration", "", "override the scenario duration (`SPAN`, e.g. 6h, 30d)")
 	fs.StringVar(&f.step, "step", "", "override the scenario step (`SPAN`, e.g. 10s)")
 	fs.StringVar(&f.cpuProf, "cpuprofile", "", cpuProfileUsage)
@@ -76,6 +80,9 @@ func parseRunFlags(args []string, stdout io.Writer) (runFlags, string, error) {
 	}
 	if f.workers < 0 {
 		return f, "", usagef("--workers %d: want a whole number ≥ 1 (or 0 for all cores)", f.workers)
+	}
+	if f.allUnits && f.csvDir == "" {
+		return f, "", usagef("--all-units selects the units of the --csv tables; give --csv DIR too")
 	}
 	return f, pos[0], nil
 }
@@ -129,13 +136,25 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		cfg.Units = f.units
 	}
 	cfg.Workers = f.workers
-	// A time series is kept only for the CSV files and figures: every
-	// output.decimate-th step, or by default at most maxSeriesRows rows.
-	if f.csvDir != "" || f.report != "" || f.plotsDir != "" {
-		cfg.SeriesStride = s.Output.Decimate
-		if cfg.SeriesStride <= 1 {
-			cfg.SeriesStride = max(1, cfg.Steps()/maxSeriesRows)
+	// A time series is kept only for the CSV files and figures. series.csv
+	// has every step unless output.decimate thins it (said on stderr); for
+	// figures alone at most maxSeriesRows rows are kept.
+	switch {
+	case f.csvDir != "":
+		cfg.SeriesStride = max(1, s.Output.Decimate)
+		if cfg.SeriesStride > 1 {
+			fmt.Fprintf(stderr, "sunsight run: series.csv keeps every %d-th step (output.decimate: %d); remove the key for every step\n",
+				cfg.SeriesStride, cfg.SeriesStride)
 		}
+	case f.report != "" || f.plotsDir != "":
+		cfg.SeriesStride = max(1, s.Output.Decimate, cfg.Steps()/maxSeriesRows)
+	}
+	if f.maxMemMiB < 1 {
+		return usagef("--max-memory-mib %d: want a positive number of MiB", f.maxMemMiB)
+	}
+	if est := estimateMemoryMiB(cfg); est > float64(f.maxMemMiB) {
+		return usagef("the run would need about %.0f MiB (%d units × %d steps, series of %d rows), more than --max-memory-mib %d; lower --units, --duration or the step, thin the series with output.decimate, or raise --max-memory-mib",
+			est, cfg.Units, cfg.Steps(), seriesRows(cfg), f.maxMemMiB)
 	}
 	if f.report != "" || f.plotsDir != "" {
 		cfg.SunTrackPoints = 4000
@@ -162,6 +181,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	}
 	out := newRunOutput(s, &cfg, res, toolVersion())
 	printWarnings(stderr, out.warnings)
+	out.allUnits = f.allUnits
 	// Each mode runs on the same orbit, sensors and estimators, reported
 	// beside the primary attitude.
 	for _, m := range plan.Modes {
@@ -222,8 +242,7 @@ func verdictError(v study.Verdict) error {
 	return targetsFailed{v.Text()}
 }
 
-// maxSeriesRows bounds the default time series kept for CSV files and
-// figures (about 10 MB of CSV).
+// maxSeriesRows bounds the time series kept for figures alone.
 const maxSeriesRows = 100000
 
 // ensureWritableDir creates dir if needed and checks a file can be made in it.
@@ -241,4 +260,36 @@ func ensureWritableDir(dir string) error {
 	name := f.Name()
 	f.Close()
 	return os.Remove(name)
+}
+
+// defaultMaxMemoryMiB is the memory a run may be estimated to need before it
+// is refused (--max-memory-mib raises it).
+const defaultMaxMemoryMiB = 4096
+
+// Memory model of a run, measured with /usr/bin/time -f %M on
+// examples/tumbling-3u.yaml (6 h: 17.8 MB at 1 unit, 163 MB at 400, 590 MB
+// at 1600 units; 50 units: 45 MB at 1 d, 115 MB at 10 d): about 30 MiB
+// fixed, 320 KiB per unit, 20 B per unit and step, and per kept series row
+// 9 B per column. The estimate errs high.
+const (
+	memFixedMiB      = 30
+	memPerUnitKiB    = 320
+	memPerUnitStepB  = 20
+	memPerSeriesCell = 9
+)
+
+// seriesRows is the number of time-series rows the run keeps.
+func seriesRows(cfg sim.Config) int {
+	if cfg.SeriesStride <= 0 {
+		return 0
+	}
+	return cfg.Steps()/cfg.SeriesStride + 1
+}
+
+// estimateMemoryMiB is the memory model above for a configuration.
+func estimateMemoryMiB(cfg sim.Config) float64 {
+	units, steps := float64(max(cfg.Units, 1)), float64(cfg.Steps())
+	cols := float64(12 + len(cfg.Viewers))
+	b := units*(memPerUnitKiB*1024+memPerUnitStepB*steps) + float64(seriesRows(cfg))*cols*memPerSeriesCell
+	return memFixedMiB + b/(1<<20)
 }

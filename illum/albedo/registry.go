@@ -2,6 +2,7 @@ package albedo
 
 import (
 	"fmt"
+	"io"
 	"os"
 	"strings"
 )
@@ -68,12 +69,19 @@ func readGrid(_ float64, path string) (Reflectance, error) {
 		return nil, fmt.Errorf("albedo: %w", err)
 	}
 	defer f.Close()
-	g, err := ParseGrid(f)
+	if st, err := f.Stat(); err == nil && st.Size() > MaxGridBytes {
+		return nil, fmt.Errorf("albedo: grid %s is %d bytes, more than the %d bytes a grid may have (a 0.25° monthly grid is about 75 MB); coarsen the grid", path, st.Size(), int64(MaxGridBytes))
+	}
+	g, err := ParseGrid(io.LimitReader(f, MaxGridBytes+1))
 	if err != nil {
 		return nil, fmt.Errorf("albedo: grid %s: %w", path, err)
 	}
 	return g, nil
 }
+
+// MaxGridBytes bounds a reflectance grid file, checked before it is read
+// (also for a device or pipe, whose size is unknown, by reading at most this).
+const MaxGridBytes = 128 << 20
 
 // Models lists the registered albedo models.
 func Models() []ModelInfo { return append([]ModelInfo(nil), models...) }

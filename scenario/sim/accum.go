@@ -246,6 +246,7 @@ type Spells struct {
 	runs    []spell
 	// Filled by Finish:
 	Durations []float64
+	Starts    []float64 // start of each run (s), beside Durations
 	Longest   float64
 	LongestAt float64
 }
@@ -292,11 +293,12 @@ func (s *Spells) Merge(next *Spells) {
 
 // Finish computes the durations and the longest run.
 func (s *Spells) Finish() {
-	s.Durations = s.Durations[:0]
+	s.Durations, s.Starts = s.Durations[:0], s.Starts[:0]
 	s.Longest, s.LongestAt = 0, 0
 	for _, r := range s.runs {
 		d := r.end - r.start
 		s.Durations = append(s.Durations, d)
+		s.Starts = append(s.Starts, r.start)
 		if d > s.Longest {
 			s.Longest, s.LongestAt = d, r.start
 		}

@@ -91,8 +91,10 @@ type EstimatorStats struct {
 	// without albedo.
 	ValidFraction         float64
 	ValidFractionNoAlbedo float64
-	// Gaps are the sunlit spells without a valid estimate (s).
+	// Gaps are the sunlit spells without a valid estimate (s); GapStartS
+	// holds the start of each (s since the epoch).
 	Gaps        []float64
+	GapStartS   []float64
 	LongestGapS float64
 	LongestAtS  float64
 	// Errors to the true sun direction, over sunlit valid samples.
@@ -481,7 +483,7 @@ func (a *unitAcc) result() *UnitResult {
 	for j, e := range a.cfg.Estimators {
 		ea := &a.est[j]
 		es := EstimatorStats{Name: e.Name(), ValidFraction: frac(ea.validAlb, a.sunlit),
-			ValidFractionNoAlbedo: frac(ea.validNo, a.sunlit), Gaps: ea.gaps.Durations,
+			ValidFractionNoAlbedo: frac(ea.validNo, a.sunlit), Gaps: ea.gaps.Durations, GapStartS: ea.gaps.Starts,
 			LongestGapS: ea.gaps.Longest, LongestAtS: ea.gaps.LongestAt,
 			ErrNoAlbedo: errorStats(&ea.mNo, ea.qNo), ErrAlbedo: errorStats(&ea.mAlb, ea.qAlb),
 			AlbedoPart: errorStats(&ea.mPart, ea.qPart), FalseSunFraction: frac(ea.falseSun, a.umb),

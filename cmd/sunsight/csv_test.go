@@ -46,9 +46,9 @@ func TestRunCSVResolutionGapsUnits(t *testing.T) {
 	var raw struct {
 		Units []struct {
 			Estimators []struct {
-				Name     string  `json:"name"`
-				Longest  float64 `json:"longest_gap_s"`
-				NumGaps  int     `json:"sunlit_gaps"`
+				Name    string  `json:"name"`
+				Longest float64 `json:"longest_gap_s"`
+				NumGaps int     `json:"sunlit_gaps"`
 			} `json:"estimators"`
 		} `json:"units"`
 	}

@@ -396,6 +396,69 @@ func (r *resolver) errorsOf(p string, e *fileErrors) SensorErrors {
 		MisalignmentRad1Sigma: e.MisalignmentDeg1Sigma * deg, ApertureOffsetMM1Sigma: e.ApertureOffsetMM1Sigma}
 }
 
+// residuals resolves budget.calibrated: the top-level keys for every kind
+// and each kind's block. A residual must not exceed the error a sensor of
+// that kind states (a calibration that worsens a sensor is a typing slip),
+// and a kind block must name a kind of the layout.
+func (r *resolver) residuals(c *fileCalibrated, sensors []Sensor) map[string]Residuals {
+	out := map[string]Residuals{}
+	blocks := []struct {
+		kind string
+		e    *fileErrors
+	}{{"", &c.fileErrors}, {"cosine", c.Cosine}, {"quadrant", c.Quadrant}, {"digital", c.Digital}} // the kind names of illum/sensor's registry
+	for _, b := range blocks {
+		if b.e == nil {
+			continue
+		}
+		p := "budget.calibrated"
+		if b.kind != "" {
+			p += "." + b.kind
+		}
+		res := Residuals{Errors: r.errorsOf(p, b.e)}
+		vals := (&res.Errors).ptrs()
+		n := 0
+		for i, key := range ErrorSources {
+			if _, given := r.nodes[p+"."+key]; !given {
+				continue
+			}
+			res.Given[i] = true
+			n++
+			applies := false
+			for _, sc := range sensors {
+				applies = applies || ((b.kind == "" || b.kind == sc.Kind) && *(&sc.Errors).ptrs()[i] > 0)
+			}
+			if !applies {
+				r.fail(p+"."+key, "value applies to no sensor: none of the sensors it covers states %s, so there is nothing to calibrate; allowed residuals of errors the sensors state (calibration never adds an error)", key)
+				continue
+			}
+			for _, sc := range sensors {
+				st := *(&sc.Errors).ptrs()[i]
+				if (b.kind == "" || b.kind == sc.Kind) && st > 0 && *vals[i] > st*(1+1e-12) {
+					shown, stShown := *vals[i], st
+					if key == "misalignment_deg_1sigma" {
+						shown, stShown = shown/deg, st/deg
+					}
+					r.fail(p+"."+key, "value %g exceeds the %g sensor %s states; allowed a residual after calibration at most the stated error", shown, stShown, sc.Name)
+					break
+				}
+			}
+		}
+		if b.kind != "" {
+			has := false
+			for _, sc := range sensors {
+				has = has || sc.Kind == b.kind
+			}
+			if !has {
+				r.fail(p, "value names kind %s, which no sensor of body.sensors has; allowed a block for a kind the layout flies", b.kind)
+			}
+		}
+		if n > 0 {
+			out[b.kind] = res
+		}
+	}
+	return out
+}
+
 func (r *resolver) obstruction(p string, o *fileObstruction) Obstruction {
 	out := Obstruction{Name: o.Name, Shape: o.Shape}
 	switch o.Shape {

@@ -158,8 +158,18 @@ type fileMonteCarlo struct {
 }
 
 type fileBudget struct {
-	Calibrated   fileErrors `yaml:"calibrated"`
+	Calibrated   fileCalibrated `yaml:"calibrated"`
 	ToleranceDeg float64    `yaml:"tolerance_deg"`
+}
+
+// fileCalibrated holds the residual errors after calibration: the keys at
+// its top apply to every sensor kind, a kind's own block overrides them for
+// that kind.
+type fileCalibrated struct {
+	fileErrors `yaml:",inline"`
+	Cosine     *fileErrors `yaml:"cosine,omitempty"`
+	Quadrant   *fileErrors `yaml:"quadrant,omitempty"`
+	Digital    *fileErrors `yaml:"digital,omitempty"`
 }
 
 type fileOutput struct {

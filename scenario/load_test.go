@@ -167,6 +167,9 @@ func badInputs() []badInput {
 		{"tle perigee inside", "orbit:\n  tle: [\"" + tle.l1 + "\", \"" + withTLEField(tle.l2, 26, "5000000") + "\"]\n" + sensor, "perigee altitude"},
 		{"altitude above range", "orbit: {altitude_km: 150000, inclination_deg: 45}\n" + sensor, "allowed [100, 100000]"},
 		{"apogee above range", "orbit: {semi_major_axis_km: 80000, eccentricity: 0.5, inclination_deg: 10}\n" + sensor, "apogee altitude"},
+		{"residual above stated", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", errors: {dark_offset_1sigma: 0.001}}]\nbudget: {calibrated: {dark_offset_1sigma: 0.01}, tolerance_deg: 1}\n", "budget.calibrated.dark_offset_1sigma (line 4, col 43): value 0.01 exceeds the 0.001 sensor a states"},
+		{"residual for nothing", orbit + sensor + "budget: {calibrated: {gain_1sigma: 0.001}, tolerance_deg: 1}\n", "applies to no sensor"},
+		{"residual kind absent", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", errors: {noise_1sigma: 0.01}}]\nbudget: {calibrated: {digital: {noise_1sigma: 0.001}}, tolerance_deg: 1}\n", "names kind digital"},
 		{"second document", orbit + sensor + "---\nname: other\n", "(file) (line 5, col 1): value holds more than one YAML document"},
 	}
 }

@@ -188,7 +188,7 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 	}
 	s.MonteCarlo.Units = f.MonteCarlo.Units
 	if f.Budget != nil {
-		s.Budget = Budget{Set: true, Calibrated: r.errorsOf("budget.calibrated", &f.Budget.Calibrated), ToleranceRad: f.Budget.ToleranceDeg * deg}
+		s.Budget = Budget{Set: true, Residuals: r.residuals(&f.Budget.Calibrated, s.Body.Sensors), ToleranceRad: f.Budget.ToleranceDeg * deg}
 		r.rangeCheck("budget.tolerance_deg", f.Budget.ToleranceDeg, 0, 90, true, "(0, 90]")
 	}
 	s.Output = r.output(&f.Output)

@@ -258,9 +258,51 @@ type MonteCarlo struct{ Units int }
 // Budget gives the residual errors after calibration and the pointing-knowledge
 // tolerance the budget is compared with; Set is false when the file has none.
 type Budget struct {
-	Set          bool
-	Calibrated   SensorErrors
+	Set bool
+	// Residuals are the stated residual errors after calibration: "" for
+	// every kind, else per sensor kind (overriding "" source by source).
+	// CalibratedErrors applies them.
+	Residuals    map[string]Residuals
 	ToleranceRad float64
+}
+
+// Residuals are the residual 1σ errors after calibration that a file
+// states; Given says which of the five sources (ErrorSources order) it
+// states.
+type Residuals struct {
+	Errors SensorErrors
+	Given  [5]bool
+}
+
+// ErrorSources names the five fields of SensorErrors in file-key order.
+var ErrorSources = [5]string{"dark_offset_1sigma", "gain_1sigma", "noise_1sigma", "misalignment_deg_1sigma", "aperture_offset_mm_1sigma"}
+
+// CalibratedErrors returns the errors of sensor sc after calibration: for
+// each source the residual stated for its kind, else the one stated for
+// every kind, else its stated error unchanged (that source is not
+// calibrated) — and zero wherever the sensor states no error for that
+// source: calibration never adds an error the stated model does not have.
+func (b Budget) CalibratedErrors(sc Sensor) SensorErrors {
+	out := sc.Errors
+	o := (&out).ptrs()
+	stated := (&sc.Errors).ptrs()
+	for i := range ErrorSources {
+		if *stated[i] == 0 {
+			continue
+		}
+		for _, k := range []string{sc.Kind, ""} {
+			if r, ok := b.Residuals[k]; ok && r.Given[i] {
+				*o[i] = *(&r.Errors).ptrs()[i]
+				break
+			}
+		}
+	}
+	return out
+}
+
+// ptrs returns pointers to the five fields in ErrorSources order.
+func (e *SensorErrors) ptrs() [5]*float64 {
+	return [5]*float64{&e.DarkOffset1Sigma, &e.Gain1Sigma, &e.Noise1Sigma, &e.MisalignmentRad1Sigma, &e.ApertureOffsetMM1Sigma}
 }
 
 // Output sets the time-series decimation (keep every Decimate-th step) and the

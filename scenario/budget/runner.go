@@ -178,7 +178,9 @@ func (r *Runner) sensors(c Case) []scenario.Sensor {
 	for i, sc := range r.s.Body.Sensors {
 		e := sc.Errors
 		if c.Calibrated {
-			e = r.s.Budget.Calibrated
+			// Per kind and per source; never an error the sensor
+			// does not state (scenario.Budget.CalibratedErrors).
+			e = r.s.Budget.CalibratedErrors(sc)
 		}
 		sc.Errors = scenario.SensorErrors{
 			DarkOffset1Sigma:       r.scaled(DarkOffset, e.DarkOffset1Sigma, c.Scale[DarkOffset]),

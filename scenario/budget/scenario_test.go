@@ -159,3 +159,51 @@ func TestSameModelCorrectionRemovesAlbedo(t *testing.T) {
 		}
 	}
 }
+
+// Calibration per kind and per source: each calibrated error is the
+// residual stated for the sensor's kind or for every kind, and never an
+// error the sensor does not state (the quadrant sensor states no dark
+// offset and no gain, so calibration gives it none); each residual is at
+// most its stated value, so the calibrated p95 is at most the as-stated
+// one (PROPERTIES.md: "calibrated residuals each ≤ the stated error ⇒
+// calibrated error ≤ as-stated error").
+func TestCalibrationPerKindNeverAdds(t *testing.T) {
+	s, err := scenario.Load("testdata/mixed-kinds.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := NewRunner(s, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	stated, calibrated := r.sensors(All()), r.sensors(Case{Scale: All().Scale, Calibrated: true})
+	for i := range stated {
+		a, b := stated[i].Errors, calibrated[i].Errors
+		for k, pair := range [][2]float64{{a.DarkOffset1Sigma, b.DarkOffset1Sigma}, {a.Gain1Sigma, b.Gain1Sigma}, {a.Noise1Sigma, b.Noise1Sigma},
+			{a.MisalignmentRad1Sigma, b.MisalignmentRad1Sigma}, {a.ApertureOffsetMM1Sigma, b.ApertureOffsetMM1Sigma}} {
+			if pair[1] > pair[0] {
+				t.Errorf("%s %s: calibrated %g > stated %g", stated[i].Name, scenario.ErrorSources[k], pair[1], pair[0])
+			}
+		}
+	}
+	q := calibrated[4].Errors
+	if q.DarkOffset1Sigma != 0 || q.Gain1Sigma != 0 || q.Noise1Sigma != 0.003 || math.Abs(q.MisalignmentRad1Sigma-0.05*math.Pi/180) > 1e-15 {
+		t.Errorf("quadrant calibrated errors %+v; want no dark offset, no gain, noise 0.003 (every kind), misalignment 0.05° (its kind)", q)
+	}
+	if c := calibrated[0].Errors; c.DarkOffset1Sigma != 0.001 || c.Gain1Sigma != 0.002 || c.MisalignmentRad1Sigma != 0 {
+		t.Errorf("cosine calibrated errors %+v", c)
+	}
+	ctx := context.Background()
+	as, err := r.Run(ctx, All())
+	if err != nil {
+		t.Fatal(err)
+	}
+	cal, err := r.Run(ctx, Case{Scale: All().Scale, Calibrated: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("p95 as stated %.3f°, calibrated %.3f°", as.P95Deg(), cal.P95Deg())
+	if cal.P95Deg() > as.P95Deg() {
+		t.Errorf("calibrated p95 %.3f° > as stated %.3f°", cal.P95Deg(), as.P95Deg())
+	}
+}

@@ -159,7 +159,7 @@ type fileMonteCarlo struct {
 
 type fileBudget struct {
 	Calibrated   fileCalibrated `yaml:"calibrated"`
-	ToleranceDeg float64    `yaml:"tolerance_deg"`
+	ToleranceDeg float64        `yaml:"tolerance_deg"`
 }
 
 // fileCalibrated holds the residual errors after calibration: the keys at

@@ -5,6 +5,7 @@ import (
 	"io"
 	"math"
 
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/review"
 	"codeberg.org/sunsight/sunsight/scenario/study"
@@ -51,6 +52,10 @@ func runCheck(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "# %s: valid (every model run uses was built)\n", file)
 	writeDerived(stdout, s, d)
+	fmt.Fprintln(stdout, "# where each sensor can see the sun:")
+	for _, sn := range plan.Primary.Array.Sensors() {
+		fmt.Fprintf(stdout, "#   %s: %s\n", sn.Name(), sensor.ViewText(sn))
+	}
 	fmt.Fprintln(stdout, "# models and sources:")
 	for _, m := range review.ModelsAndSources(s) {
 		fmt.Fprintf(stdout, "#   %s — %s\n", m.Model, m.Source)

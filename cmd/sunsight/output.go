@@ -14,6 +14,7 @@ import (
 	"strings"
 	"time"
 
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 	"codeberg.org/sunsight/sunsight/orbit"
@@ -439,6 +440,11 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	}
 	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal; umbra lit: share of umbra time above threshold;\n")
 	fmt.Fprintf(w, "   albedo only: share of sunlit time valid only because of albedo; off: a two-axis direction that far from the sun)\n")
+	for _, sn := range o.cfg.Array.Sensors() {
+		if q, ok := sn.(*sensor.Quadrant); ok {
+			fmt.Fprintf(w, "  %s: %s\n", q.Name(), sensor.ViewText(q))
+		}
+	}
 	o.writeModes(w)
 	if len(o.targets) > 0 {
 		fmt.Fprintf(w, "\nTargets: %s\n", study.Judge(o.allTargets()).Text())

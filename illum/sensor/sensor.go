@@ -225,6 +225,24 @@ func Row(s Sensor) MountRow {
 	return row
 }
 
+// ViewText says in words where a sensor can see the sun: for a quadrant
+// sensor the linear range (where a reading can be valid), the detection
+// range (where light reaches a cell) and the dead zone, per sensor axis;
+// for the other kinds the field-of-view cone.
+func ViewText(s Sensor) string {
+	r := Row(s)
+	q, ok := s.(*Quadrant)
+	if !ok {
+		return fmt.Sprintf("field of view %.1f° half-angle (cone containing it)", r.FOVDeg)
+	}
+	dz := "no dead zone"
+	if r.DeadZoneDeg > 0 {
+		dz = fmt.Sprintf("dead zone ±%.1f° (reads %s there)", r.DeadZoneDeg, q.spec.DeadZone)
+	}
+	return fmt.Sprintf("valid within ±%.1f° per axis (linear range less the imbalance margin), light on the cells to ±%.1f°, %s",
+		r.LinearDeg, r.DetectionDeg, dz)
+}
+
 func checkMount(name string, m Mount) error {
 	if !m.defined {
 		return fmt.Errorf("sensor %q: mount: not set; build it with FaceMount or VectorMount", name)

@@ -70,8 +70,22 @@ type Browser struct {
 	problems []string
 }
 
-// Open starts the browser with a fresh profile under dir.
+// Open starts the browser with a fresh profile under dir. A start that
+// fails (several test binaries may start browsers at once on a small
+// machine) is tried again twice.
 func Open(dir string) (*Browser, error) {
+	var err error
+	for try := range 3 {
+		var b *Browser
+		if b, err = open(filepath.Join(dir, fmt.Sprintf("profile-%d", try))); err == nil {
+			return b, nil
+		}
+		time.Sleep(time.Duration(try+1) * time.Second)
+	}
+	return nil, err
+}
+
+func open(profile string) (*Browser, error) {
 	opts := append(chromedp.DefaultExecAllocatorOptions[:],
 		chromedp.ExecPath(Path),
 		chromedp.NoSandbox,
@@ -82,7 +96,8 @@ func Open(dir string) (*Browser, error) {
 		chromedp.Flag("disable-sync", true),
 		chromedp.Flag("no-first-run", true),
 		chromedp.Flag("disable-quic", true),
-		chromedp.UserDataDir(filepath.Join(dir, "profile")),
+		chromedp.Flag("disable-dev-shm-usage", true),
+		chromedp.UserDataDir(profile),
 	)
 	b := &Browser{}
 	actx, cancelA := chromedp.NewExecAllocator(context.Background(), opts...)
@@ -148,6 +163,13 @@ func (b *Browser) Screenshot() ([]byte, error) {
 	ctx, cancel := b.timeout()
 	defer cancel()
 	return chromedp.Run(ctx, chromedp.FullScreenshot(100))
+}
+
+// Viewport is a PNG of the visible part of the page (the first screen).
+func (b *Browser) Viewport() ([]byte, error) {
+	ctx, cancel := b.timeout()
+	defer cancel()
+	return chromedp.Run(ctx, chromedp.CaptureScreenshot())
 }
 
 // PDF prints the page on the paper with the page's own margins.

@@ -7,7 +7,10 @@ import (
 	"testing"
 )
 
-var measure = flag.String("measure", "", "comma-separated HTML files: print each on A4 and Letter and log size and page counts")
+var (
+	measure = flag.String("measure", "", "comma-separated HTML files: print each on A4 and Letter and log size and page counts")
+	keepPDF = flag.Bool("keep-pdf", false, "with -measure, write FILE.a4.pdf and FILE.letter.pdf beside each file")
+)
 
 // TestMeasure prints given reports and logs their size and page counts
 // (go test ./internal/headless -run Measure -v -measure a.html,b.html).
@@ -38,6 +41,11 @@ func TestMeasure(t *testing.T) {
 				t.Fatal(err)
 			}
 			pages = append(pages, Pages(pdf))
+			if *keepPDF {
+				if err := os.WriteFile(strings.TrimSuffix(f, ".html")+"."+strings.ToLower(p.Name)+".pdf", pdf, 0o644); err != nil {
+					t.Fatal(err)
+				}
+			}
 		}
 		t.Logf("%s: %d bytes, %d A4 pages, %d Letter pages", f, st.Size(), pages[0], pages[1])
 	}

@@ -97,6 +97,7 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	if err := add(FigTimeline, fmt.Sprintf("Timeline of the first %d orbits: sensors seeing the sun, validity, error", TimelineOrbits), c, err); err != nil {
 		return nil, err
 	}
+	out[len(out)-1].Tells = timelineTells(tl, tg)
 
 	yv, err := yearView(s)
 	if err != nil {
@@ -112,6 +113,7 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	if err := add(FigYear, "Beta angle and eclipse minutes per orbit over one year", c, err); err != nil {
 		return nil, err
 	}
+	out[len(out)-1].Tells = yearTells(yv)
 
 	if ed, ok := errorDist(res); ok {
 		ed.Target = tg.errP95
@@ -119,6 +121,7 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 		if err := add(FigError, "Sun-vector error distribution of the primary estimator ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
 			return nil, err
 		}
+		out[len(out)-1].Tells = errorTells(&res.Nominal.Estimators[0], tg)
 	}
 
 	if g, ok := gaps(res); ok {
@@ -127,8 +130,67 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 		if err := add(FigGaps, "Sunlit gaps without a valid sun vector ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
 			return nil, err
 		}
+		out[len(out)-1].Tells = gapsTells(g)
 	}
 	return out, nil
+}
+
+// verdictText is " — target ≤ 5.00°: FAIL" or "" without a target.
+func verdictText(t *plots.Target) string {
+	if t == nil {
+		return ""
+	}
+	v := "pass"
+	if !t.Pass {
+		v = "FAIL"
+	}
+	return " (target " + t.Label + ": " + v + ")"
+}
+
+func timelineTells(tl plots.Timeline, tg figureTargets) string {
+	peak := math.NaN()
+	for _, ys := range [][]float64{tl.ErrAlbedoDeg, tl.ErrNoAlbedoDeg} {
+		for _, v := range ys {
+			if !math.IsNaN(v) && !(v <= peak) {
+				peak = v
+			}
+		}
+		if !math.IsNaN(peak) {
+			break
+		}
+	}
+	t := fmt.Sprintf("Over the whole run the sun vector is valid %.1f %% of sunlit time%s; in these orbits the error peaks at %s°",
+		100*tl.ValidShare, verdictText(tg.valid), num(peak, 1))
+	if tg.errP95 != nil {
+		t += fmt.Sprintf(", against a p95 target of %s", tg.errP95.Label)
+	}
+	return t + ". Shaded: umbra (dark) and penumbra (light)."
+}
+
+func yearTells(y plots.YearView) string {
+	lo, hi, ecl, free := math.Inf(1), math.Inf(-1), 0.0, 0
+	for i := range y.Day {
+		lo, hi = math.Min(lo, y.BetaDeg[i]), math.Max(hi, y.BetaDeg[i])
+		ecl = math.Max(ecl, y.EclipseMin[i])
+		if y.EclipseFree[i] {
+			free++
+		}
+	}
+	return fmt.Sprintf("In %d the beta angle ranges %.0f° … %.0f° and eclipses last up to %.0f min per orbit; %d days are eclipse-free. "+
+		"The blue band marks this run (days %.0f–%.0f): a run outside the worst season does not show the worst case.",
+		y.Year, lo, hi, ecl, free, math.Floor(y.Run.Start), math.Ceil(y.Run.End))
+}
+
+func errorTells(e *sim.EstimatorStats, tg figureTargets) string {
+	if e.ErrAlbedo.N == 0 {
+		return fmt.Sprintf("95 %% of valid estimates are within %s°%s (no albedo modelled).", num(e.ErrNoAlbedo.P95Deg, 2), verdictText(tg.errP95))
+	}
+	return fmt.Sprintf("95 %% of valid estimates are within %s° with albedo%s and %s° without: the Earth's reflected light is what moves the curve right.",
+		num(e.ErrAlbedo.P95Deg, 2), verdictText(tg.errP95), num(e.ErrNoAlbedo.P95Deg, 2))
+}
+
+func gapsTells(g plots.Gaps) string {
+	return fmt.Sprintf("%d sunlit gaps without a valid sun vector; the longest lasts %.0f s%s.", len(g.DurationsS), g.LongestS, verdictText(g.Target))
 }
 
 // figureTargets are the scenario's targets in the units of the figures,

@@ -134,9 +134,10 @@ func num(v float64, prec int) string {
 	return fmt.Sprintf("%.*f", prec, v)
 }
 
-// wrongShare is the share of valid estimates (realistic readings) more than
-// the run's false-sun bound off the sun, from the engine's count over
-// sunlit time; NaN when there is no valid estimate.
+// wrongShare is the share of valid estimates more than the run's false-sun
+// bound (validity.false_sun_bound_deg) off the sun: the engine's
+// WrongFraction (of sunlit time) over the valid fraction; NaN when no
+// estimate was valid.
 func wrongShare(e *sim.EstimatorStats) float64 {
 	if !(e.ValidFraction > 0) {
 		return math.NaN()
@@ -145,8 +146,9 @@ func wrongShare(e *sim.EstimatorStats) float64 {
 }
 
 // wrongFlag is the warning of an estimator that is valid but wrong: more
-// than 5 % of its valid estimates lie beyond the false-sun bound boundDeg,
-// so its valid share must not be read as a share of good estimates.
+// than 5 % of its valid estimates lie beyond the false-sun bound, so its
+// valid share must not be read as a share of good estimates (5 %: common
+// practice, no source; it matches the p95 every error figure quotes).
 func wrongFlag(e *sim.EstimatorStats, boundDeg float64) string {
 	w := wrongShare(e)
 	if !(w > 0.05) {

@@ -286,3 +286,21 @@ func TestSkyMapEarthDisc(t *testing.T) {
 		t.Errorf("Earth radius %.2f°, want %.2f° (550 km)", m.EarthRadiusDeg, want)
 	}
 }
+
+// An estimator valid 28.8 % of sunlit time with 20 % of sunlit time more
+// than the false-sun bound off is flagged "valid but wrong" (69 % of its
+// valid estimates); one with 1 % of its valid estimates off is not.
+func TestWrongFlag(t *testing.T) {
+	e := sim.EstimatorStats{ValidFraction: 0.288, WrongFraction: 0.2}
+	if f := wrongFlag(&e, 20); !strings.Contains(f, "valid but wrong: 69 %") || !strings.Contains(f, "20°") {
+		t.Errorf("flag %q", f)
+	}
+	e.WrongFraction = 0.00288
+	if f := wrongFlag(&e, 20); f != "" {
+		t.Errorf("1 %% wrong flagged: %q", f)
+	}
+	e.ValidFraction = 0
+	if f := wrongFlag(&e, 20); f != "" {
+		t.Errorf("never valid flagged: %q", f)
+	}
+}

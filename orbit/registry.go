@@ -15,6 +15,10 @@ type PropagatorInfo struct {
 	// New returns the factory of fresh propagators started from the mean
 	// elements (one per Monte Carlo unit or worker); nil when FromTLE.
 	New func(mean Elements) (func() Propagator, error)
+	// NewFromState returns the factory started from an osculating EME2000
+	// state at the epoch (an orbit given as a state or as osculating
+	// elements); nil when FromTLE.
+	NewFromState func(osc State) (func() Propagator, error)
 	// FromTLE says the propagator starts from a two-line element set (its
 	// builder is orbit/sgp4's, given the TLE).
 	FromTLE bool
@@ -26,15 +30,41 @@ var propagators = []PropagatorInfo{
 		Source: "closed form; D. A. Vallado, Fundamentals of Astrodynamics and Applications, 4th ed., 2013",
 		New: func(el Elements) (func() Propagator, error) {
 			return func() Propagator { return NewTwoBody(el) }, nil
+		},
+		NewFromState: func(osc State) (func() Propagator, error) {
+			el, err := ElementsFromState(osc)
+			if err != nil {
+				return nil, err
+			}
+			return func() Propagator { return NewTwoBody(el) }, nil
 		}},
 	{Name: "j2-mean", Model: "mean elements with first-order secular J2 rates of RAAN, argument of perigee and mean anomaly, no short-period terms",
 		Source: "Y. Kozai, AJ 64, 367, 1959; Vallado 4th ed. 2013, §9.6",
 		New: func(el Elements) (func() Propagator, error) {
 			return func() Propagator { return NewJ2Mean(el) }, nil
+		},
+		NewFromState: func(osc State) (func() Propagator, error) {
+			el, err := ElementsFromState(osc)
+			if err != nil {
+				return nil, err
+			}
+			mean := OsculatingToMean(el)
+			return func() Propagator { return NewJ2Mean(mean) }, nil
 		}},
 	{Name: "j2-numeric", Model: "Cowell integration of point mass + J2 with adaptive Dormand–Prince 5(4), started from the osculating state of the mean elements",
 		Source: "J. R. Dormand and P. J. Prince, A family of embedded Runge-Kutta formulae, J. Comput. Appl. Math. 6, 19–26, 1980",
-		New:    newJ2NumericFactory},
+		New:    newJ2NumericFactory,
+		NewFromState: func(osc State) (func() Propagator, error) {
+			el, err := ElementsFromState(osc)
+			if err != nil {
+				return nil, err
+			}
+			opt := NumericOptions{}.withDefaults(el.SemiMajorAxisKm)
+			if _, err := NewJ2NumericFromState(osc, opt); err != nil {
+				return nil, err
+			}
+			return func() Propagator { q, _ := NewJ2NumericFromState(osc, opt); return q }, nil
+		}},
 	{Name: "sgp4", Model: "SGP4/SDP4 from the mean elements of a TLE, TEME rotated to EME2000", FromTLE: true,
 		Source: "F. R. Hoots and R. L. Roehrich, Spacetrack Report No. 3, 1980; D. A. Vallado et al., Revisiting Spacetrack Report #3, AIAA 2006-6753"},
 }

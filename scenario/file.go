@@ -26,17 +26,25 @@ type fileScenario struct {
 }
 
 type fileOrbit struct {
-	AltitudeKm      *float64 `yaml:"altitude_km,omitempty"`
-	LTAN            string   `yaml:"ltan,omitempty"`
-	LTANSolarTime   string   `yaml:"ltan_solar_time,omitempty"`
-	SemiMajorAxisKm *float64 `yaml:"semi_major_axis_km,omitempty"`
-	Eccentricity    *float64 `yaml:"eccentricity,omitempty"`
-	InclinationDeg  *float64 `yaml:"inclination_deg,omitempty"`
-	RAANDeg         *float64 `yaml:"raan_deg,omitempty"`
-	ArgPerigeeDeg   *float64 `yaml:"arg_perigee_deg,omitempty"`
-	MeanAnomalyDeg  *float64 `yaml:"mean_anomaly_deg,omitempty"`
-	TLE             []string `yaml:"tle,omitempty"`
-	Propagator      string   `yaml:"propagator"`
+	AltitudeKm      *float64   `yaml:"altitude_km,omitempty"`
+	LTAN            string     `yaml:"ltan,omitempty"`
+	LTANSolarTime   string     `yaml:"ltan_solar_time,omitempty"`
+	SemiMajorAxisKm *float64   `yaml:"semi_major_axis_km,omitempty"`
+	Eccentricity    *float64   `yaml:"eccentricity,omitempty"`
+	InclinationDeg  *float64   `yaml:"inclination_deg,omitempty"`
+	RAANDeg         *float64   `yaml:"raan_deg,omitempty"`
+	ArgPerigeeDeg   *float64   `yaml:"arg_perigee_deg,omitempty"`
+	MeanAnomalyDeg  *float64   `yaml:"mean_anomaly_deg,omitempty"`
+	TLE             []string   `yaml:"tle,omitempty"`
+	State           *fileState `yaml:"state,omitempty"`
+	ElementSet      string     `yaml:"element_set,omitempty"`
+	Propagator      string     `yaml:"propagator"`
+}
+
+// fileState is an osculating EME2000 state at the epoch.
+type fileState struct {
+	PositionKm  []float64 `yaml:"position_km"`
+	VelocityKmS []float64 `yaml:"velocity_km_s"`
 }
 
 type fileLaw struct {

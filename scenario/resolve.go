@@ -211,7 +211,35 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 	}
 	has := func(p *float64) bool { return p != nil }
 	elems := has(o.SemiMajorAxisKm) || has(o.Eccentricity) || has(o.ArgPerigeeDeg)
+	if o.ElementSet != "" && o.ElementSet != "mean" && o.ElementSet != "osculating" {
+		r.fail("orbit.element_set", "value %q is unknown; allowed mean or osculating", o.ElementSet)
+	}
+	if o.ElementSet == "osculating" && !has(o.SemiMajorAxisKm) {
+		r.fail("orbit.element_set", "value osculating is given without semi_major_axis_km; allowed with full elements (a state is osculating by itself)")
+	}
 	switch {
+	case o.State != nil:
+		if has(o.AltitudeKm) || elems || has(o.InclinationDeg) || has(o.RAANDeg) || has(o.MeanAnomalyDeg) || o.LTAN != "" || len(o.TLE) > 0 || o.ElementSet != "" {
+			r.fail("orbit.state", "value is given with other orbit keys; allowed state alone (position_km and velocity_km_s hold the whole orbit)")
+			return out
+		}
+		pos := r.vec("orbit.state.position_km", o.State.PositionKm, r3.Vec{})
+		vel := r.vec("orbit.state.velocity_km_s", o.State.VelocityKmS, r3.Vec{})
+		if o.State.PositionKm == nil || o.State.VelocityKmS == nil {
+			r.fail("orbit.state", "value needs position_km and velocity_km_s, three numbers each (EME2000, km and km/s, at the epoch)")
+			return out
+		}
+		out.Kind, out.Osculating, out.StatePositionKm, out.StateVelocityKmS = OrbitState, true, pos, vel
+		el, err := orbit.ElementsFromState(orbit.State{R: pos, V: vel})
+		if err != nil {
+			r.fail("orbit.state", "value is not a closed orbit: %s; allowed an elliptic state above the atmosphere", err)
+			return out
+		}
+		if rp := el.SemiMajorAxisKm * (1 - el.Eccentricity); rp < orbit.RadiusEarthKm+MinPerigeeAltitudeKm {
+			r.fail("orbit.state", "value gives a perigee altitude of %.1f km; allowed a perigee ≥ %d km above the surface", rp-orbit.RadiusEarthKm, MinPerigeeAltitudeKm)
+		}
+		out.SemiMajorAxisKm, out.Eccentricity, out.AltitudeKm = el.SemiMajorAxisKm, el.Eccentricity, el.SemiMajorAxisKm-orbit.RadiusEarthKm
+		out.InclinationRad, out.RAANRad, out.ArgPerigeeRad, out.MeanAnomalyRad = el.Inclination, el.RAAN, el.ArgPerigee, el.MeanAnomaly
 	case len(o.TLE) > 0:
 		if has(o.AltitudeKm) || elems || has(o.InclinationDeg) || has(o.RAANDeg) || has(o.MeanAnomalyDeg) || o.LTAN != "" {
 			r.fail("orbit.tle", "value is given with other orbit keys; allowed tle alone (its lines hold every element)")
@@ -288,6 +316,7 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 			return out
 		}
 		out.Kind, out.SemiMajorAxisKm, out.Eccentricity = OrbitKeplerian, a, e
+		out.Osculating = o.ElementSet == "osculating"
 		out.AltitudeKm = a - orbit.RadiusEarthKm
 		out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, 0, 180)
 		out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), 0, 360)

@@ -43,6 +43,7 @@ const (
 	OrbitSunSync   = "sun-synchronous" // altitude_km + ltan
 	OrbitKeplerian = "keplerian"       // full mean elements
 	OrbitTLE       = "tle"             // mean elements read from a TLE
+	OrbitState     = "state"           // osculating position and velocity (EME2000) at the epoch
 )
 
 // Orbit is the starting orbit. For OrbitSunSync the inclination and RAAN are
@@ -61,6 +62,14 @@ type Orbit struct {
 	ArgPerigeeRad   float64
 	MeanAnomalyRad  float64
 	TLE             *TLE // the parsed element set for OrbitTLE, else nil
+	// Osculating is set when the elements (OrbitKeplerian) or the state
+	// (OrbitState) are osculating values at the epoch rather than mean
+	// elements; the build step converts them (first-order J2 averaging) for
+	// j2-mean and starts j2-numeric from them as they are.
+	Osculating bool
+	// StatePositionKm and StateVelocityKmS are the EME2000 state of
+	// OrbitState at the epoch.
+	StatePositionKm, StateVelocityKmS r3.Vec
 }
 
 // Attitude law names.

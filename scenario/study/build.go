@@ -39,6 +39,13 @@ func MeanElements(s *scenario.Scenario) (orbit.Elements, error) {
 		}
 		el.RAAN = raan
 	}
+	if osc, ok := OsculatingState(s); ok {
+		oel, err := orbit.ElementsFromState(osc)
+		if err != nil {
+			return el, fmt.Errorf("orbit: %w", err)
+		}
+		el = orbit.OsculatingToMean(oel)
+	}
 	if t := o.TLE; o.Kind == scenario.OrbitTLE && t != nil && !t.Epoch.Equal(s.Epoch) {
 		// The element set holds at its own epoch: carry it to the run's
 		// with the secular J2 rates (Warnings says when that is far).
@@ -49,6 +56,22 @@ func MeanElements(s *scenario.Scenario) (orbit.Elements, error) {
 		return el, fmt.Errorf("orbit: %w", err)
 	}
 	return el, nil
+}
+
+// OsculatingState returns the osculating EME2000 state at the epoch of an
+// orbit given as a state or as osculating elements (ok false for mean
+// elements, sun-synchronous and TLE orbits).
+func OsculatingState(s *scenario.Scenario) (orbit.State, bool) {
+	o := s.Orbit
+	switch {
+	case o.Kind == scenario.OrbitState:
+		return orbit.State{R: o.StatePositionKm, V: o.StateVelocityKmS}, true
+	case o.Kind == scenario.OrbitKeplerian && o.Osculating:
+		el := orbit.Elements{SemiMajorAxisKm: o.SemiMajorAxisKm, Eccentricity: o.Eccentricity,
+			Inclination: o.InclinationRad, RAAN: o.RAANRad, ArgPerigee: o.ArgPerigeeRad, MeanAnomaly: o.MeanAnomalyRad}
+		return el.State(), true
+	}
+	return orbit.State{}, false
 }
 
 // wrap2π returns x in [0, 2π).
@@ -73,6 +96,13 @@ func NewPropagator(s *scenario.Scenario) (func() orbit.Propagator, error) {
 	}
 	if p.FromTLE {
 		return sgp4Factory(s)
+	}
+	if osc, ok := OsculatingState(s); ok {
+		f, err := p.NewFromState(osc)
+		if err != nil {
+			return nil, fmt.Errorf("orbit: %w", err)
+		}
+		return f, nil
 	}
 	f, err := p.New(el)
 	if err != nil {

@@ -18,7 +18,9 @@ func readRows(t *testing.T, path string) [][]string {
 		t.Fatal(err)
 	}
 	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
+	cr := csv.NewReader(f)
+	cr.Comment = '#'
+	rows, err := cr.ReadAll()
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -89,9 +89,18 @@ func writeOutputDir(dir string, force bool, fill func(dir string) error) error {
 		if err := fill(tmp); err != nil {
 			return err
 		}
-		return writeManifest(tmp)
+		if err := writeManifest(tmp); err != nil {
+			return err
+		}
+		outputFilled(tmp)
+		return nil
 	})
 }
+
+// outputFilled is called when an output folder is complete and not yet in
+// place; the tests stop a child process there to check that a run killed
+// mid-write leaves the old set.
+var outputFilled = func(string) {}
 
 // manifest lists the files of an output set with their SHA-256 sums.
 type manifest struct {

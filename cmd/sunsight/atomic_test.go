@@ -1,0 +1,189 @@
+package main
+
+import (
+	"bufio"
+	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"fmt"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+)
+
+// The child side: when the test binary is started with SUNSIGHT_CHILD_ARGS
+// it runs those arguments as the command line; with SUNSIGHT_CHILD_STALL it
+// stops, once an output folder is filled, until it is killed.
+func init() {
+	args := os.Getenv("SUNSIGHT_CHILD_ARGS")
+	if args == "" {
+		return
+	}
+	if os.Getenv("SUNSIGHT_CHILD_STALL") != "" {
+		outputFilled = func(string) {
+			fmt.Fprintln(os.Stderr, "FILLED")
+			time.Sleep(time.Minute)
+		}
+	}
+	os.Exit(runMain(strings.Split(args, "\x1f"), os.Stdout, os.Stderr))
+}
+
+func child(stall bool, args ...string) *exec.Cmd {
+	c := exec.Command(os.Args[0], "-test.run=^$")
+	c.Env = append(os.Environ(), "SUNSIGHT_CHILD_ARGS="+strings.Join(args, "\x1f"))
+	if stall {
+		c.Env = append(c.Env, "SUNSIGHT_CHILD_STALL=1")
+	}
+	return c
+}
+
+// outputSet reads an output folder and checks it against its manifest: every
+// file listed with its SHA-256, nothing else. It returns the manifest's map.
+func outputSet(t *testing.T, dir string) map[string]string {
+	t.Helper()
+	var m manifest
+	b, err := os.ReadFile(filepath.Join(dir, manifestName))
+	if err != nil {
+		t.Fatalf("%s: %v", dir, err)
+	}
+	if err := json.Unmarshal(b, &m); err != nil {
+		t.Fatal(err)
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != len(m.Files)+1 {
+		t.Errorf("%s: %d entries, manifest lists %d files", dir, len(ents), len(m.Files))
+	}
+	for name, sum := range m.Files {
+		b, err := os.ReadFile(filepath.Join(dir, name))
+		got := sha256.Sum256(b)
+		if err != nil || hex.EncodeToString(got[:]) != sum {
+			t.Errorf("%s/%s: not the file of the manifest (%v)", dir, name, err)
+		}
+	}
+	return m.Files
+}
+
+func sameSet(a, b map[string]string) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for k, v := range a {
+		if b[k] != v {
+			return false
+		}
+	}
+	return true
+}
+
+// A run killed (SIGKILL) after its new CSV set is written but before it is
+// swapped in leaves the old set, whole; killed at other moments, the folder
+// holds the old set or the new set, never a mix.
+func TestKilledRunLeavesOldOrNewSet(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "csv")
+	scen := "../../examples/nadir-6u-sso.yaml"
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", scen, "--duration", "2h", "--csv", out, "--quiet"}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("old set: exit %d %s", code, se.String())
+	}
+	old := outputSet(t, out)
+	newArgs := []string{"run", scen, "--duration", "3h", "--csv", out, "--force", "--quiet"}
+
+	c := child(true, newArgs...)
+	stderr, _ := c.StderrPipe()
+	if err := c.Start(); err != nil {
+		t.Fatal(err)
+	}
+	sc := bufio.NewScanner(stderr)
+	filled := false
+	for sc.Scan() {
+		if sc.Text() == "FILLED" {
+			filled = true
+			break
+		}
+	}
+	c.Process.Kill()
+	c.Wait()
+	if !filled {
+		t.Fatal("the child never reached the filled output")
+	}
+	if got := outputSet(t, out); !sameSet(got, old) {
+		t.Error("after a kill mid-write the folder is not the old set")
+	}
+
+	// The new set, from a run left to finish, for comparison.
+	ref := filepath.Join(dir, "ref")
+	refArgs := append([]string{}, newArgs...)
+	refArgs[5] = ref
+	runMain(refArgs, &so, &se)
+	newSet := outputSet(t, ref)
+	if sameSet(newSet, old) {
+		t.Fatal("old and new sets are equal: the test cannot tell them apart")
+	}
+	// Kills at spread-out moments of a whole run.
+	start := time.Now()
+	runMain(append(append([]string{}, refArgs[:5]...), filepath.Join(dir, "timing"), "--quiet"), &so, &se)
+	whole := time.Since(start)
+	for i := range 6 {
+		c := child(false, newArgs...)
+		if err := c.Start(); err != nil {
+			t.Fatal(err)
+		}
+		time.Sleep(whole * time.Duration(i+1) / 5)
+		c.Process.Kill()
+		c.Wait()
+		got := outputSet(t, out)
+		if !sameSet(got, old) && !sameSet(got, newSet) {
+			t.Errorf("kill %d: the folder is neither the old nor the new set", i)
+		}
+		if sameSet(got, newSet) {
+			// Put the old set back for the next kill.
+			if code := runMain([]string{"run", scen, "--duration", "2h", "--csv", out, "--force", "--quiet"}, &so, &se); code != exitTargetFailed {
+				t.Fatal(se.String())
+			}
+		}
+	}
+}
+
+// SIGTERM stops a run like Ctrl-C: exit 1, "interrupted", the old output set
+// untouched and no temporary folder left.
+func TestSIGTERMStopsCleanly(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "csv")
+	scen := "../../examples/nadir-6u-sso.yaml"
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", scen, "--duration", "2h", "--csv", out, "--quiet"}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("old set: exit %d %s", code, se.String())
+	}
+	old := outputSet(t, out)
+	c := child(false, "run", scen, "--duration", "365d", "--csv", out, "--force", "--quiet")
+	var cerr bytes.Buffer
+	c.Stderr = &cerr
+	if err := c.Start(); err != nil {
+		t.Fatal(err)
+	}
+	time.Sleep(500 * time.Millisecond)
+	c.Process.Signal(syscall.SIGTERM)
+	err := c.Wait()
+	code := -1
+	if ee, ok := err.(*exec.ExitError); ok {
+		code = ee.ExitCode()
+	} else if err == nil {
+		code = 0
+	}
+	if code != exitFailure || !strings.Contains(cerr.String(), "interrupted") {
+		t.Errorf("SIGTERM: exit %d, stderr %q; want 1 and interrupted", code, cerr.String())
+	}
+	if got := outputSet(t, out); !sameSet(got, old) {
+		t.Error("SIGTERM changed the old set")
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != 1 {
+		t.Errorf("entries left beside the output: %v", ents)
+	}
+}

@@ -74,7 +74,9 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 	w := walker{nodes: map[string]*yaml.Node{}}
 	w.check(root, reflect.TypeOf(fileScenario{}), "")
 	if len(w.errs) > 0 {
-		return nil, w.errs
+		// Report the value problems of the keys that could be read in the
+		// same round as the key and type problems.
+		return nil, sortErrors(append(w.errs, valueErrors(data, dir, w)...))
 	}
 	var f fileScenario
 	dec := yaml.NewDecoder(bytes.NewReader(data))
@@ -95,6 +97,56 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 	}
 	s.record = rec
 	return s, nil
+}
+
+// valueErrors resolves a file whose keys or types the walker refused, as
+// far as it can be read, and returns the value problems of the other keys
+// (those at or under a refused key are left out: one problem per key).
+func valueErrors(data []byte, dir string, w walker) (out Errors) {
+	var f fileScenario
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	if err := dec.Decode(&f); err != nil && err != io.EOF {
+		var te *yaml.TypeError
+		if !errors.As(err, &te) {
+			return nil
+		}
+	}
+	defer func() {
+		// A half-read file may hold a combination the resolver never meets
+		// in a valid one; the key and type problems are then reported alone.
+		if recover() != nil {
+			out = nil
+		}
+	}()
+	r := resolver{nodes: w.nodes, dir: dir}
+	r.resolve(&f)
+	for _, e := range r.errs {
+		covered := false
+		for _, we := range w.errs {
+			if e.Path == we.Path || strings.HasPrefix(e.Path, we.Path+".") || strings.HasPrefix(e.Path, we.Path+"[") {
+				covered = true
+			}
+		}
+		if !covered {
+			out = append(out, e)
+		}
+	}
+	return out
+}
+
+// sortErrors orders problems by line and column, those without a line last.
+func sortErrors(es Errors) Errors {
+	sort.SliceStable(es, func(i, j int) bool {
+		a, b := es[i].Line, es[j].Line
+		if a == 0 || b == 0 {
+			return a != 0 && b == 0
+		}
+		if a == b {
+			return es[i].Col < es[j].Col
+		}
+		return a < b
+	})
+	return es
 }
 
 // secondDocument returns an error when the text holds more than one YAML

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -53,6 +54,32 @@ func TestBounds(t *testing.T) {
 		}
 		if d := time.Since(start); d > 20*time.Second {
 			t.Logf("%s: took %v", c.name, d) // reported, not asserted
+		}
+	}
+}
+
+// Every scenario error line names the file; at most maxErrorLines are
+// printed, then how many more there are.
+func TestScenarioErrorsNameFileAndAreCapped(t *testing.T) {
+	src, _ := os.ReadFile("../../examples/nadir-6u-sso.yaml")
+	var extra strings.Builder
+	extra.WriteString("output:\n")
+	for i := range 30 {
+		fmt.Fprintf(&extra, "  bogus_%02d: 1\n", i)
+	}
+	p := filepath.Join(t.TempDir(), "many.yaml")
+	os.WriteFile(p, append(src, []byte(extra.String())...), 0o644)
+	var so, se bytes.Buffer
+	if code := runMain([]string{"check", p}, &so, &se); code != exitUsage {
+		t.Fatalf("exit %d", code)
+	}
+	lines := strings.Split(strings.TrimSpace(se.String()), "\n")
+	if len(lines) != maxErrorLines+1 || !strings.Contains(lines[len(lines)-1], "and 10 more problems") {
+		t.Errorf("%d lines, last %q", len(lines), lines[len(lines)-1])
+	}
+	for _, l := range lines {
+		if !strings.Contains(l, p+": ") {
+			t.Errorf("line without the file name: %q", l)
 		}
 	}
 }

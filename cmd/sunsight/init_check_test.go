@@ -58,7 +58,7 @@ func TestCheckPrintsQuadrantRanges(t *testing.T) {
 	if code := runMain([]string{"check", "../../examples/hobby-3u-quadrants.yaml"}, &out, &errb); code != 0 {
 		t.Fatalf("check exit %d: %s", code, errb.String())
 	}
-	for _, want := range []string{"#   wall-fwd: valid within ±52.6° per axis", "light on the cells to ±90.0°, dead zone ±30.0° (reads straight-above there)",
+	for _, want := range []string{"#   wall-fwd: valid within ±52.6° per axis", "light on the cells to ±90.0°, dead zone ±30.0° (imbalance below 0.030; reads straight-above there)",
 		"#   quad-zenith: valid within ±36.9° per axis", "light on the cells to ±68.5°, no dead zone"} {
 		if !strings.Contains(out.String(), want) {
 			t.Errorf("check output lacks %q:\n%s", want, out.String())

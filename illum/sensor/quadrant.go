@@ -85,8 +85,12 @@ type QuadrantSpec struct {
 	// calibrated linear range (LinearImbalance).
 	ImbalanceMargin float64
 	// DeadZoneImbalance: for a geometry with a dead zone, an axis whose
-	// imbalance is within this of zero is taken to be in the dead zone (a
-	// few times the imbalance noise); DeadZone says what it reports.
+	// imbalance is within this of zero is taken to be in the dead zone;
+	// DeadZone says what it reports. It is a setting of the flight software
+	// and must exceed the imbalance the calibration residuals can fake
+	// (about (2/Σ₀)·√(σ_d² + σ_n² + (σ_g·Σ₀/4)²)): below that, a dead-zone
+	// reading turns into one at the dead zone's edge, off by up to twice
+	// its half-angle.
 	DeadZoneImbalance float64
 	DeadZone          DeadZoneReading
 	// RefIrradiance (W/m²) makes the cell sum 1 for a whole spot (aperture)
@@ -111,6 +115,7 @@ type Quadrant struct {
 	xLin    float64 // imbalance there
 	tanDet  float64 // per-axis tangent where light stops reaching a cell (+Inf: never)
 	sigma   float64 // stated or derived 1σ per axis
+	deadX   float64 // dead-zone imbalance threshold (stated or derived)
 }
 
 // NewQuadrant checks the spec and returns an ideal unit.
@@ -165,6 +170,7 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 	if q.sigma == 0 {
 		q.sigma = q.derivedSigma()
 	}
+	q.deadX = s.DeadZoneImbalance
 	return q, nil
 }
 
@@ -234,20 +240,9 @@ func (q *Quadrant) Sigma() float64 { return q.sigma }
 // A reading in the dead zone carries its own larger Reading.Sigma. Own
 // first-order derivation from the geometry above.
 func (q *Quadrant) derivedSigma() float64 {
-	const resolution = 1e-4
 	s := q.spec
 	e := s.Errors
-	sum0 := q.sum(r3.Vec{Z: 1}, 0, 0) // nominal sum at normal incidence
-	if sum0 <= 0 {
-		sum0 = 1
-	}
-	var q2 float64 // ADC step², per cell
-	if e.ADCBits > 0 {
-		step := e.FullScale / float64(uint64(1)<<e.ADCBits)
-		q2 = step * step
-	}
-	sx := 2 / sum0 * math.Sqrt(e.DarkSigma*e.DarkSigma+e.NoiseSigma*e.NoiseSigma+(e.GainSigma*sum0/4)*(e.GainSigma*sum0/4)+
-		q2/12+resolution*resolution)
+	sx := q.imbalanceSigma()
 	slope := 0.0 // dt/dX
 	switch {
 	case s.Geometry == GeometryWall:
@@ -262,6 +257,28 @@ func (q *Quadrant) derivedSigma() float64 {
 	}
 	return math.Sqrt(v)
 }
+
+// imbalanceSigma is σ_X of derivedSigma: the 1σ error of one axis'
+// imbalance at normal incidence from the error model.
+func (q *Quadrant) imbalanceSigma() float64 {
+	const resolution = 1e-4
+	e := q.spec.Errors
+	sum0 := q.sum(r3.Vec{Z: 1}, 0, 0) // nominal sum at normal incidence
+	if sum0 <= 0 {
+		sum0 = 1
+	}
+	var q2 float64 // ADC step², per cell
+	if e.ADCBits > 0 {
+		step := e.FullScale / float64(uint64(1)<<e.ADCBits)
+		q2 = step * step
+	}
+	return 2 / sum0 * math.Sqrt(e.DarkSigma*e.DarkSigma+e.NoiseSigma*e.NoiseSigma+(e.GainSigma*sum0/4)*(e.GainSigma*sum0/4)+
+		q2/12+resolution*resolution)
+}
+
+// DeadZoneImbalance returns the imbalance below which an axis is taken to
+// be in the dead zone.
+func (q *Quadrant) DeadZoneImbalance() float64 { return q.deadX }
 
 // overlap is the length of [a0, a1] ∩ [b0, b1].
 func overlap(a0, a1, b0, b1 float64) float64 {
@@ -378,7 +395,7 @@ func (q *Quadrant) axisAngle(x float64) (t float64, ok, dead bool) {
 	if !(ax <= q.xLin-m) || ax >= 1 || q.xLin <= m {
 		return 0, false, false
 	}
-	if q.tanDead > 0 && ax <= q.spec.DeadZoneImbalance {
+	if q.tanDead > 0 && ax <= q.deadX {
 		return 0, true, true
 	}
 	t = q.invert(ax)
@@ -552,8 +569,10 @@ var quadrantGateParams = []Param{
 		Default: 0.2, Min: 0, Max: 10, Allowed: "[0, 10] (relative; 0 turns the intensity check off)"},
 	{Key: "imbalance_margin", Doc: "validity gate: each axis' imbalance at least this far inside the end of the calibrated linear range",
 		Default: 0.05, Min: 0, Max: 0.49, Allowed: "[0, 0.49] (of an imbalance in [-1, 1])"},
-	{Key: "dead_zone_imbalance", Doc: "an imbalance within this of zero is in the dead zone (geometries with one)",
-		Default: 0.01, Min: 0, Max: 0.49, Allowed: "[0, 0.49] (of an imbalance in [-1, 1])"},
+	// 0.03: three times the imbalance error of a 2 % gain mismatch between
+	// cells, σ_X ≈ σ_g/2 (common practice, no source).
+	{Key: "dead_zone_imbalance", Doc: "an imbalance within this of zero is in the dead zone (geometries with one); set it above what the calibration residuals can fake",
+		Default: 0.03, Min: 0, Max: 0.49, Allowed: "[0, 0.49] (of an imbalance in [-1, 1])"},
 	{Key: "dead_zone", Type: Choice, Doc: "what an axis in the dead zone reports: the boresight along it (biased), or no sun",
 		Choices: []string{DeadZoneStraightAbove.String(), DeadZoneNoSun.String()}},
 	{Key: "accuracy_deg_1sigma", Doc: "stated accuracy per axis for the weighted estimators; 0 derives it from the error model",

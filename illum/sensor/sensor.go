@@ -237,7 +237,7 @@ func ViewText(s Sensor) string {
 	}
 	dz := "no dead zone"
 	if r.DeadZoneDeg > 0 {
-		dz = fmt.Sprintf("dead zone ±%.1f° (reads %s there)", r.DeadZoneDeg, q.spec.DeadZone)
+		dz = fmt.Sprintf("dead zone ±%.1f° (imbalance below %.3f; reads %s there)", r.DeadZoneDeg, q.DeadZoneImbalance(), q.spec.DeadZone)
 	}
 	return fmt.Sprintf("valid within ±%.1f° per axis (linear range less the imbalance margin), light on the cells to ±%.1f°, %s",
 		r.LinearDeg, r.DetectionDeg, dz)

@@ -10,6 +10,10 @@ import (
 	"sort"
 )
 
+// ErrNoValid says a run left a Monte Carlo unit without any valid sun
+// vector in sunlight: the budget has no figure for it.
+var ErrNoValid = errors.New("no valid sun vector in sunlight")
+
 // Source is one term of the error budget.
 type Source int
 

@@ -2,6 +2,7 @@ package budget
 
 import (
 	"context"
+	"fmt"
 	"math"
 	"testing"
 
@@ -88,5 +89,29 @@ func TestBudgetKnowsEverySourceOfEveryKind(t *testing.T) {
 				t.Errorf("kind %s: source %q lives in %q, not a number key of the kind", name, es.Name, es.Param)
 			}
 		}
+	}
+}
+
+// A source scaled so far that a unit never gives a valid sun vector (a
+// quadrant sensor twisted out of its linear range) counts as a missed
+// target in the tolerance search, not as a failed budget: closed form
+// p95 = 0.4·k with no valid vector beyond k = 3, target 1 → k = 2.5.
+func TestToleranceTreatsNoValidAsMissed(t *testing.T) {
+	run := func(_ context.Context, c Case) (Metric, error) {
+		k := c.Scale[Twist]
+		if k > 3 {
+			return Metric{}, fmt.Errorf("unit 1: %w", ErrNoValid)
+		}
+		return Metric{UnitP95Deg: []float64{0.4 * k}, UnitRMSDeg: []float64{0.2 * k}}, nil
+	}
+	tol, err := FindTolerance(context.Background(), run, Case{}, Twist, 1, Metric.P95Deg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(tol.Scale-2.5) > 0.03 || !tol.Meets {
+		t.Errorf("tolerance %+v, want scale 2.5", tol)
+	}
+	if Twist.String() != "twist" || !Twist.Scalable() {
+		t.Errorf("twist source %q scalable %v", Twist, Twist.Scalable())
 	}
 }

@@ -256,7 +256,7 @@ func metricOf(res *sim.Result) (Metric, error) {
 			st = e.ErrAlbedo
 		}
 		if st.N == 0 {
-			return m, fmt.Errorf("budget: unit %d: no valid sun vector in sunlight from %s; the layout or attitude cannot give a budget", u.Unit, e.Name)
+			return m, fmt.Errorf("budget: unit %d: %w from %s; the layout or attitude cannot give a budget", u.Unit, ErrNoValid, e.Name)
 		}
 		m.UnitP95Deg = append(m.UnitP95Deg, st.P95Deg)
 		m.UnitRMSDeg = append(m.UnitRMSDeg, st.RMSDeg)

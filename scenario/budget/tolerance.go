@@ -2,7 +2,9 @@ package budget
 
 import (
 	"context"
+	"errors"
 	"fmt"
+	"math"
 )
 
 // Figure picks the number a target is compared with, e.g. Metric.P95Deg.
@@ -47,6 +49,12 @@ func FindTolerance(ctx context.Context, run RunFunc, base Case, src Source, targ
 		c.Scale[src] = k
 		t.Runs++
 		m, err := run(ctx, c)
+		if k > 0 && errors.Is(err, ErrNoValid) {
+			// A source so large that a unit never gives a valid sun
+			// vector (a quadrant twisted or offset out of its linear
+			// range) misses any target.
+			return math.Inf(1), nil
+		}
 		if err != nil {
 			return 0, fmt.Errorf("budget: %s at %g × σ: %w", src, k, err)
 		}

@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -24,49 +25,6 @@ all-together error misses it.`,
 		examples: []string{"sunsight budget scenario/budget/testdata/inertial-4css.yaml --tolerance-target 3.5",
 			"sunsight budget scen.yaml --json > budget.json"},
 		run: runBudget})
-}
-
-// budgetReport is the --json form of the budget.
-type budgetReport struct {
-	SchemaVersion int              `json:"schema_version"`
-	Scenario      string           `json:"scenario"`
-	DurationS     float64          `json:"duration_s"`
-	Shortened     bool             `json:"shortened"`
-	Units         int              `json:"units"`
-	Terms         []budgetTermJSON `json:"terms"`
-	AllP95Deg     float64          `json:"all_p95_deg"`
-	AllRMSDeg     float64          `json:"all_rms_deg"`
-	RSSP95Deg     float64          `json:"rss_p95_deg"`
-	RSSRMSDeg     float64          `json:"rss_rms_deg"`
-	GapP95CIDeg   [2]float64       `json:"all_minus_rss_p95_ci95_deg"`
-	GapRMSCIDeg   [2]float64       `json:"all_minus_rss_rms_ci95_deg"`
-	CalibratedP95 *float64         `json:"calibrated_p95_deg,omitempty"`
-	CorrectedP95  *float64         `json:"albedo_corrected_p95_deg,omitempty"`
-	NoAlbedoP95   *float64         `json:"no_albedo_p95_deg,omitempty"`
-	TargetDeg     float64          `json:"tolerance_target_deg,omitempty"`
-	Tolerances    []toleranceJSON  `json:"tolerances,omitempty"`
-}
-
-type budgetTermJSON struct {
-	Source   string  `json:"source"`
-	Stated   float64 `json:"stated_1sigma"`
-	Unit     string  `json:"unit"`
-	P95Deg   float64 `json:"p95_deg"`
-	RMSDeg   float64 `json:"rms_deg"`
-	ShareRSS float64 `json:"share_of_rss_squared"`
-}
-
-type toleranceJSON struct {
-	Source     string  `json:"source"`
-	Scale      float64 `json:"scale_of_stated"`
-	Sigma      float64 `json:"max_1sigma"`
-	Unit       string  `json:"unit"`
-	AtDeg      float64 `json:"p95_at_max_deg"`
-	At110Deg   float64 `json:"p95_at_1_1x_deg"`
-	Meets      bool    `json:"meets_target"`
-	FailsAbove bool    `json:"fails_at_1_1x"`
-	Infeasible bool    `json:"infeasible"`
-	Unbounded  bool    `json:"unbounded"`
 }
 
 func runBudget(args []string, stdout, stderr io.Writer) error {
@@ -101,22 +59,6 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	opt := budget.Options{Units: *units}
-	if *full {
-		opt.MaxDurationS = -1
-	}
-	r, err := budget.NewRunner(s, opt)
-	if err != nil {
-		return usageError{err}
-	}
-	tgt := *target
-	switch {
-	case tgt > 0:
-	case s.Budget.Set && s.Budget.ToleranceRad > 0:
-		tgt = s.Budget.ToleranceRad * 180 / math.Pi
-	case s.Targets.MaxErrorP95Rad > 0:
-		tgt = s.Targets.MaxErrorP95Rad * 180 / math.Pi
-	}
 	stopProf, err := startCPUProfile(*cpuProf)
 	if err != nil {
 		return err
@@ -125,75 +67,17 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	ctx, stop := interruptContext()
 	defer stop()
 	start := time.Now()
-	sources := r.Sources()
-	b, err := budget.Decompose(ctx, r.Run, sources)
+	rep, err := budget.Study(ctx, s, budget.StudyOptions{Units: *units, Full: *full, TargetDeg: *target, Curves: *out != ""})
+	var optErr *budget.OptionError
+	if errors.As(err, &optErr) {
+		return usageError{err}
+	}
 	if err != nil {
 		return err
 	}
-	rep := budgetReport{SchemaVersion: 1, Scenario: s.Name, DurationS: r.DurationS(), Shortened: r.Shortened(), Units: b.Units,
-		AllP95Deg: b.All.P95Deg, AllRMSDeg: b.All.RMSDeg, RSSP95Deg: b.RSSP95Deg, RSSRMSDeg: b.RSSRMSDeg,
-		GapP95CIDeg: [2]float64{b.NonAdditiveCI.Lo, b.NonAdditiveCI.Hi}, GapRMSCIDeg: [2]float64{b.NonAdditiveRMSCI.Lo, b.NonAdditiveRMSCI.Hi}, TargetDeg: tgt}
-	for _, t := range b.Terms {
-		v, unit := r.Sigma(t.Source, 1)
-		if t.Source == budget.Quantisation || t.Source == budget.Albedo {
-			v, unit = 0, ""
-		}
-		rep.Terms = append(rep.Terms, budgetTermJSON{Source: t.Source.String(), Stated: v, Unit: unit, P95Deg: t.P95Deg, RMSDeg: t.RMSDeg,
-			ShareRSS: t.P95Deg * t.P95Deg / (b.RSSP95Deg * b.RSSP95Deg)})
-	}
-	all := budget.AllOf(sources)
-	hasAlbedo := all.Scale[budget.Albedo] > 0
-	if s.Budget.Set {
-		c := all
-		c.Calibrated = true
-		m, err := r.Run(ctx, c)
-		if err != nil {
-			return err
-		}
-		rep.CalibratedP95 = ptr(m.P95Deg())
-	}
-	if hasAlbedo {
-		c := all
-		c.Correction = true
-		m, err := r.Run(ctx, c)
-		if err != nil {
-			return err
-		}
-		rep.CorrectedP95 = ptr(m.P95Deg())
-		c = all
-		c.Scale[budget.Albedo] = 0
-		if m, err = r.Run(ctx, c); err != nil {
-			return err
-		}
-		rep.NoAlbedoP95 = ptr(m.P95Deg())
-	}
-	var curves []budget.Curve
-	if tgt > 0 {
-		for _, src := range sources {
-			if !src.Scalable() {
-				continue
-			}
-			t, err := budget.FindTolerance(ctx, r.Run, all, src, tgt, budget.Metric.P95Deg)
-			if err != nil {
-				return err
-			}
-			sig, unit := r.Sigma(src, t.Scale)
-			rep.Tolerances = append(rep.Tolerances, toleranceJSON{Source: src.String(), Scale: t.Scale, Sigma: sig, Unit: unit,
-				AtDeg: t.AtScaleDeg, At110Deg: t.At110Deg, Meets: t.Meets, FailsAbove: t.FailsAbove, Infeasible: t.Infeasible, Unbounded: t.Unbounded})
-		}
-	}
+	tgt := rep.TargetDeg
 	if *out != "" {
-		for _, src := range sources {
-			if !src.Scalable() {
-				continue
-			}
-			c, err := budget.Sensitivity(ctx, r.Run, all, src, sensitivityScales, budget.Metric.P95Deg)
-			if err != nil {
-				return err
-			}
-			curves = append(curves, c)
-		}
-		err := writeOutputDir(*out, *force, func(dir string) error { return budgetFigures(s, r, rep, curves, tgt, dir) })
+		err := writeOutputDir(*out, *force, func(dir string) error { return budgetFigures(s, rep, tgt, dir) })
 		if err != nil {
 			return err
 		}
@@ -201,7 +85,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	elapsed := time.Since(start)
 	// A tolerance target the all-together error misses: exit status 3.
 	var verdict error
-	if tgt > 0 && !(rep.AllP95Deg <= tgt) {
+	if rep.Missed() {
 		verdict = targetsFailed{fmt.Sprintf("p95 error with every source as stated %.3f° exceeds the tolerance target %.3g°", rep.AllP95Deg, tgt)}
 	}
 	if *asJSON {
@@ -212,7 +96,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 		}
 		return verdict
 	}
-	printBudget(stdout, rep, r, elapsed)
+	printBudget(stdout, rep, elapsed)
 	if verdict != nil {
 		fmt.Fprintf(stdout, "\nverdict: FAIL, %v\n", verdict)
 	} else if tgt > 0 {
@@ -221,12 +105,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	return verdict
 }
 
-// sensitivityScales are the multiples of the stated σ of the sensitivity curves.
-var sensitivityScales = []float64{0, 0.5, 1, 1.5, 2, 3}
-
-func ptr(v float64) *float64 { return &v }
-
-func printBudget(w io.Writer, rep budgetReport, r *budget.Runner, elapsed time.Duration) {
+func printBudget(w io.Writer, rep budget.Report, elapsed time.Duration) {
 	fmt.Fprintf(w, "Error budget: %s\n", rep.Scenario)
 	fmt.Fprintf(w, "%d Monte Carlo units over %.1f h per run", rep.Units, rep.DurationS/3600)
 	if rep.Shortened {
@@ -284,7 +163,7 @@ func printBudget(w io.Writer, rep budgetReport, r *budget.Runner, elapsed time.D
 	fmt.Fprintf(w, "\nComputed in %.1f s. An analysis aid: flight hardware needs qualified verification.\n", elapsed.Seconds())
 }
 
-func budgetFigures(s *scenario.Scenario, r *budget.Runner, rep budgetReport, curves []budget.Curve, tgt float64, dir string) error {
+func budgetFigures(s *scenario.Scenario, rep budget.Report, tgt float64, dir string) error {
 	caption := plots.Caption{Scenario: s.Name,
 		Model:       fmt.Sprintf("%d Monte Carlo units over %.1f h, albedo %s", rep.Units, rep.DurationS/3600, s.Albedo.Model),
 		Assumptions: "p95 of a typical unit, primary estimator, sunlit samples; each source alone"}
@@ -301,11 +180,11 @@ func budgetFigures(s *scenario.Scenario, r *budget.Runner, rep budgetReport, cur
 		return err
 	}
 	charts["budget"] = c
-	if len(curves) > 0 {
+	if len(rep.Curves) > 0 {
 		nom := 1.0
 		sens := plots.Sensitivity{Title: "Sensitivity of the p95 error to each source", Parameter: "1σ / stated 1σ",
-			X: sensitivityScales, YLabel: "p95 sun-vector error (deg)", Nominal: &nom}
-		for _, cv := range curves {
+			X: budget.SensitivityScales, YLabel: "p95 sun-vector error (deg)", Nominal: &nom}
+		for _, cv := range rep.Curves {
 			sens.Lines = append(sens.Lines, plots.Line{Label: cv.Source.String(), Y: cv.P95Deg})
 		}
 		caption.Assumptions = "one source scaled, the others as stated"

@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"codeberg.org/sunsight/sunsight/scenario/budget"
 )
 
 const budgetScenario = "../../scenario/budget/testdata/inertial-4css.yaml"
@@ -45,7 +47,7 @@ func TestBudgetJSONAndFigures(t *testing.T) {
 	if code := runMain(args, &out, &errb); code != 0 {
 		t.Fatalf("exit %d: %s", code, errb.String())
 	}
-	var rep budgetReport
+	var rep budget.Report
 	if err := json.Unmarshal(out.Bytes(), &rep); err != nil {
 		t.Fatal(err)
 	}

@@ -207,3 +207,35 @@ func TestCalibrationPerKindNeverAdds(t *testing.T) {
 		t.Errorf("calibrated p95 %.3f° > as stated %.3f°", cal.P95Deg(), as.P95Deg())
 	}
 }
+
+// Study gives the CLI's budget: the all-together p95 is at least the
+// largest single source within 5 % (independent errors add; 5 % allows for
+// the Monte Carlo spread, common practice, no source), Missed follows the
+// target, and the curves come only
+// when asked.
+func TestStudyReport(t *testing.T) {
+	s, err := scenario.Load("testdata/inertial-4css.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	rep, err := Study(context.Background(), s, StudyOptions{Units: 2, TargetDeg: 1e-6})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rep.Terms) == 0 || len(rep.Tolerances) == 0 || rep.Curves != nil {
+		t.Fatalf("terms %d tolerances %d curves %d", len(rep.Terms), len(rep.Tolerances), len(rep.Curves))
+	}
+	for _, term := range rep.Terms {
+		if term.P95Deg > rep.AllP95Deg*1.05 {
+			t.Errorf("%s alone %.3f° above all together %.3f°", term.Source, term.P95Deg, rep.AllP95Deg)
+		}
+	}
+	if !rep.Missed() {
+		t.Errorf("target 1e-6° not missed by p95 %.3f°", rep.AllP95Deg)
+	}
+	if _, err := Study(context.Background(), s, StudyOptions{Units: -1}); err == nil {
+		t.Error("units -1 accepted")
+	} else if _, ok := err.(*OptionError); !ok {
+		t.Errorf("units -1: %T, want *OptionError", err)
+	}
+}

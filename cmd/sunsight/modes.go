@@ -5,7 +5,6 @@ import (
 	"io"
 	"strconv"
 
-	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
@@ -21,12 +20,8 @@ type modeOutput struct {
 
 // addMode adds a mode's run to the output.
 func (o *runOutput) addMode(name string, cfg *sim.Config, res *sim.Result) {
-	cov := o.cov
-	if o.covErr != nil {
-		cov = sky.Result{}
-	}
-	h := res.Headline()
-	o.modes = append(o.modes, modeOutput{name: name, h: h, targets: study.CheckTargets(o.s, h, cov)})
+	a := o.assessed.Mode(o.s, res)
+	o.modes = append(o.modes, modeOutput{name: name, h: a.Headline, targets: a.Targets})
 }
 
 // allTargets is every target judged: the primary attitude's, then each

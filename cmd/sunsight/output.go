@@ -32,9 +32,12 @@ type runOutput struct {
 	cfg     *sim.Config
 	res     *sim.Result
 	version string
-	cov     sky.Result
-	covErr  error
-	targets []study.TargetCheck
+	// assessed is the run judged once (study.Assess); cov, covErr and
+	// targets are its parts.
+	assessed study.Assessment
+	cov      sky.Result
+	covErr   error
+	targets  []study.TargetCheck
 	// allUnits writes every Monte Carlo unit into the per-unit CSV tables
 	// (run --all-units); otherwise the nominal unit only.
 	allUnits bool
@@ -48,12 +51,8 @@ type runOutput struct {
 func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
 	o := &runOutput{s: s, cfg: cfg, res: res, version: version}
 	o.warnings = study.Warnings(s, res)
-	lat, err := sky.Fibonacci(sky.DefaultPoints)
-	if err == nil {
-		o.cov, err = sky.Coverage(cfg.Viewers, lat)
-	}
-	o.covErr = err
-	o.targets = study.CheckTargets(s, res.Headline(), o.cov)
+	o.assessed = study.Assess(s, *cfg, res)
+	o.cov, o.covErr, o.targets = o.assessed.Coverage, o.assessed.CoverageErr, o.assessed.Targets
 	return o
 }
 

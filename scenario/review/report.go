@@ -292,19 +292,14 @@ func verdictOf(checks []study.TargetCheck) plots.Verdict {
 }
 
 func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.HeadlineRow, []study.TargetCheck, error) {
-	h := res.Headline()
+	// The figures and verdicts come from the run's one assessment.
+	a := study.Assess(s, cfg, res)
+	if a.CoverageErr != nil {
+		return nil, nil, fmt.Errorf("review: %w", a.CoverageErr)
+	}
+	h, cov, checks := a.Headline, a.Coverage, a.Targets
 	t := s.Targets
 	e := &res.Nominal.Estimators[0]
-	lat, err := sky.Fibonacci(sky.DefaultPoints)
-	if err != nil {
-		return nil, nil, fmt.Errorf("review: %w", err)
-	}
-	cov, err := sky.Coverage(viewers(cfg), lat)
-	if err != nil {
-		return nil, nil, fmt.Errorf("review: %w", err)
-	}
-	// The verdicts come from the scenario's one target judge.
-	checks := study.CheckTargets(s, h, cov)
 	judge := func(r *plots.HeadlineRow, key string) {
 		if c, ok := study.FindTarget(checks, key); ok {
 			r.Target, r.Pass = c.Required, verdict(c.Pass)

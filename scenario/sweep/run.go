@@ -17,7 +17,6 @@ import (
 	"slices"
 	"sync"
 
-	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -46,18 +45,11 @@ func RunCase(ctx context.Context, s *scenario.Scenario, seed uint64) (Outcome, e
 	if err != nil {
 		return Outcome{}, err
 	}
-	var cov sky.Result
-	if s.Targets.MinCoverage > 0 && s.Targets.CoverageSensors > 0 {
-		lat, err := sky.Fibonacci(sky.DefaultPoints)
-		if err == nil {
-			cov, err = sky.Coverage(cfg.Viewers, lat)
-		}
-		if err != nil {
-			return Outcome{}, err
-		}
+	a := study.AssessTargets(s, cfg, res)
+	if a.CoverageErr != nil {
+		return Outcome{}, a.CoverageErr
 	}
-	h := res.Headline()
-	return Outcome{Headline: h, Targets: study.CheckTargets(s, h, cov)}, nil
+	return Outcome{Headline: a.Headline, Targets: a.Targets}, nil
 }
 
 // Options controls Execute.

@@ -84,13 +84,14 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	if err := add(FigSky, "Sky coverage in body axes: sensors seeing each sun direction", c, err); err != nil {
 		return nil, err
 	}
-	out[len(out)-1].Tells = skyTells(s, cfg, res, sm)
+	a := study.Assess(s, cfg, res)
+	out[len(out)-1].Tells = skyTells(a, res, sm)
 
 	tl, err := timeline(cfg, res)
 	if err != nil {
 		return nil, fmt.Errorf("review: timeline figure: %w", err)
 	}
-	tg := targetsOf(s, cfg, res)
+	tg := targetsOf(s, a)
 	tl.ErrorTarget, tl.ValidTarget = tg.errP95, tg.valid
 	tl.ValidShare = res.Nominal.Estimators[0].ValidFraction
 	c, err = tl.Plot(cap)
@@ -201,14 +202,8 @@ type figureTargets struct {
 	gap    *plots.Target // s
 }
 
-func targetsOf(s *scenario.Scenario, cfg sim.Config, res *sim.Result) figureTargets {
-	var cov sky.Result
-	if lat, err := sky.Fibonacci(sky.DefaultPoints); err == nil {
-		if c, err := sky.Coverage(viewers(cfg), lat); err == nil {
-			cov = c
-		}
-	}
-	checks := study.CheckTargets(s, res.Headline(), cov)
+func targetsOf(s *scenario.Scenario, a study.Assessment) figureTargets {
+	checks := a.Targets
 	var out figureTargets
 	mk := func(key string, v float64) *plots.Target {
 		c, ok := study.FindTarget(checks, key)
@@ -254,16 +249,7 @@ func checkInputs(s *scenario.Scenario, cfg sim.Config, res *sim.Result) error {
 }
 
 // viewers returns the run's viewers, or the sensors' own fields of view.
-func viewers(cfg sim.Config) []sky.Viewer {
-	if cfg.Viewers != nil {
-		return cfg.Viewers
-	}
-	var v []sky.Viewer
-	for _, sn := range cfg.Array.Sensors() {
-		v = append(v, sky.ViewerFunc(sn.SeesSun))
-	}
-	return v
-}
+func viewers(cfg sim.Config) []sky.Viewer { return study.Viewers(cfg) }
 
 func degOf(rad float64) float64 { return rad * 180 / math.Pi }
 
@@ -324,15 +310,11 @@ func earthRadiusDeg(cfg sim.Config) float64 {
 }
 
 // skyTells is the sky map's message with the run's numbers.
-func skyTells(s *scenario.Scenario, cfg sim.Config, res *sim.Result, m plots.SkyMap) string {
-	lat, err := sky.Fibonacci(sky.DefaultPoints)
-	if err != nil {
+func skyTells(a study.Assessment, res *sim.Result, m plots.SkyMap) string {
+	if a.CoverageErr != nil {
 		return ""
 	}
-	cov, err := sky.Coverage(viewers(cfg), lat)
-	if err != nil {
-		return ""
-	}
+	cov := a.Coverage
 	u := res.Nominal
 	t := fmt.Sprintf("%.1f %% of body directions are blind (no sensor sees the sun there) and %.1f %% are seen by ≥ 2 sensors; "+
 		"along this run's sun track the sun was seen by ≥ 1 sensor %.1f %% of sunlit time.",

@@ -3,6 +3,7 @@ package headless
 import (
 	"flag"
 	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -10,6 +11,7 @@ import (
 var (
 	measure = flag.String("measure", "", "comma-separated HTML files: print each on A4 and Letter and log size and page counts")
 	keepPDF = flag.Bool("keep-pdf", false, "with -measure, write FILE.a4.pdf and FILE.letter.pdf beside each file")
+	shots   = flag.String("shots", "", "with -measure, write the first screen of each file at 1400 px (desktop) and 390 px (phone) into this folder as report-STEM-desktop.png and report-STEM-phone.png")
 )
 
 // TestMeasure prints given reports and logs their size and page counts
@@ -30,6 +32,24 @@ func TestMeasure(t *testing.T) {
 		st, err := os.Stat(f)
 		if err != nil {
 			t.Fatal(err)
+		}
+		stem := strings.TrimSuffix(filepath.Base(f), ".html")
+		if *shots != "" {
+			for _, v := range []struct {
+				name string
+				w, h int64
+			}{{"phone", 390, 844}, {"desktop", 1400, 1000}} {
+				if err := b.Load(f, v.w, v.h); err != nil {
+					t.Fatal(err)
+				}
+				png, err := b.Viewport()
+				if err != nil {
+					t.Fatal(err)
+				}
+				if err := os.WriteFile(filepath.Join(*shots, "report-"+stem+"-"+v.name+".png"), png, 0o644); err != nil {
+					t.Fatal(err)
+				}
+			}
 		}
 		if err := b.Load(f, 1400, 900); err != nil {
 			t.Fatal(err)

@@ -8,7 +8,14 @@
 // (orbit/attitude), the sensors and estimators (illum/sensor), the
 // obstructions (illum/sky) and the albedo model (illum/albedo), and return a
 // sim.Config. CheckTargets is the one target judge used by the summary, the
-// report and the layout search.
+// report and the layout search. Prepare builds the plan of a run (the
+// primary attitude and each mode) and is what both `check` and `run` call;
+// Derive gives the values `check` prints (period, SSO inclination, RAAN
+// from the LTAN in mean solar time, beta range sampled every 600 s, steps,
+// a memory estimate fitted to measured peaks); Warnings flags a run outside
+// the sun model's stated span, a TLE more than MaxTLEAgeDays from the run
+// and a run shorter than one orbit. A TLE used at another epoch is carried
+// there with the secular J2 rates (MeanElements).
 //
 // # Assumptions
 //

@@ -24,6 +24,14 @@ type File struct {
 	Estimators []string    `yaml:"estimators,omitempty"`
 	Albedo     Albedo      `yaml:"albedo"`
 	MonteCarlo *MonteCarlo `yaml:"monte_carlo,omitempty"`
+	Budget     *Budget     `yaml:"budget,omitempty"`
+}
+
+// Budget is the error budget block: residuals after calibration (for
+// every kind) and the pointing-knowledge tolerance.
+type Budget struct {
+	Calibrated   Errors  `yaml:"calibrated"`
+	ToleranceDeg float64 `yaml:"tolerance_deg"`
 }
 
 // Orbit is the orbit block.

@@ -9,7 +9,9 @@ import (
 	"fmt"
 	"os"
 	"os/exec"
+	"os/signal"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"syscall"
 	"testing"
@@ -23,6 +25,16 @@ func init() {
 	args := os.Getenv("SUNSIGHT_CHILD_ARGS")
 	if args == "" {
 		return
+	}
+	if lim := os.Getenv("SUNSIGHT_CHILD_FSIZE"); lim != "" {
+		// A file-size limit makes every write past it fail (EFBIG), as a
+		// full disk would, without root.
+		n, _ := strconv.ParseUint(lim, 10, 64)
+		signal.Ignore(syscall.SIGXFSZ)
+		if err := syscall.Setrlimit(syscall.RLIMIT_FSIZE, &syscall.Rlimit{Cur: n, Max: n}); err != nil {
+			fmt.Fprintln(os.Stderr, "setrlimit:", err)
+			os.Exit(99)
+		}
 	}
 	if os.Getenv("SUNSIGHT_CHILD_STALL") != "" {
 		outputFilled = func(string) {
@@ -185,5 +197,71 @@ func TestSIGTERMStopsCleanly(t *testing.T) {
 	ents, _ := os.ReadDir(dir)
 	if len(ents) != 1 {
 		t.Errorf("entries left beside the output: %v", ents)
+	}
+}
+
+// exitCode is a finished child's exit status.
+func exitCode(err error) int {
+	if ee, ok := err.(*exec.ExitError); ok {
+		return ee.ExitCode()
+	}
+	if err == nil {
+		return 0
+	}
+	return -1
+}
+
+// A write that fails half way (a file-size limit stands in for a full disk)
+// is a run failure, exit 1, naming the file; the earlier output set stays
+// whole and no temporary file or folder is left beside it. The same for the
+// report file, a layout's and a budget's --out folder.
+func TestWriteFailureMidOutput(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "csv")
+	scen := "../../examples/nadir-6u-sso.yaml"
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", scen, "--duration", "1h", "--csv", out, "--quiet"}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("old set: exit %d %s", code, se.String())
+	}
+	old := outputSet(t, out)
+	report := filepath.Join(dir, "report.html")
+	os.WriteFile(report, []byte("old report"), 0o644)
+	layoutOut := filepath.Join(dir, "layout")
+	layoutScen := filepath.Join(dir, "layout.yaml")
+	os.WriteFile(layoutScen, []byte(layoutCLIScenario), 0o644)
+	for _, c := range []struct {
+		name  string
+		limit string
+		args  []string
+	}{
+		{"csv folder", "2000", []string{"run", scen, "--duration", "6h", "--csv", out, "--force", "--quiet"}},
+		{"report file", "2000", []string{"run", scen, "--duration", "6h", "--report", report, "--force", "--quiet"}},
+		{"layout folder", "100", []string{"layout", layoutScen, "--out", layoutOut}},
+	} {
+		cmd := child(false, c.args...)
+		cmd.Env = append(cmd.Env, "SUNSIGHT_CHILD_FSIZE="+c.limit)
+		var cerr bytes.Buffer
+		cmd.Stderr = &cerr
+		code := exitCode(cmd.Run())
+		if code != exitFailure || !(strings.Contains(cerr.String(), "file too large") || strings.Contains(cerr.String(), "no space")) {
+			t.Errorf("%s: exit %d, stderr %q; want 1 naming the write error", c.name, code, cerr.String())
+		}
+	}
+	if got := outputSet(t, out); !sameSet(got, old) {
+		t.Error("a failed write changed the old CSV set")
+	}
+	if b, _ := os.ReadFile(report); string(b) != "old report" {
+		t.Error("a failed write changed the old report")
+	}
+	if _, err := os.Stat(layoutOut); err == nil {
+		t.Error("a failed layout write left its --out folder")
+	}
+	ents, _ := os.ReadDir(dir)
+	var names []string
+	for _, e := range ents {
+		names = append(names, e.Name())
+	}
+	if strings.Join(names, " ") != "csv layout.yaml report.html" {
+		t.Errorf("left beside the outputs: %v", names)
 	}
 }

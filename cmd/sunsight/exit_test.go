@@ -85,3 +85,39 @@ func TestStdoutFullDevice(t *testing.T) {
 		}
 	}
 }
+
+// layout exits 3 when no subset meets the targets (two opposite 60° cones
+// cannot see the whole sky: closed form), after printing its table.
+func TestLayoutNoAnswerExit3(t *testing.T) {
+	text := strings.Replace(layoutCLIScenario, `    - {name: py, kind: cosine, face: "+Y", half_angle_deg: 60}
+    - {name: my, kind: cosine, face: "-Y", half_angle_deg: 60}
+    - {name: pz, kind: cosine, face: "+Z", half_angle_deg: 60}
+    - {name: mz, kind: cosine, face: "-Z", half_angle_deg: 60}
+`, "", 1)
+	if text == layoutCLIScenario {
+		t.Fatal("candidates not found")
+	}
+	p := filepath.Join(t.TempDir(), "s.yaml")
+	os.WriteFile(p, []byte(text), 0o644)
+	var out, errb bytes.Buffer
+	code := runMain([]string{"layout", p}, &out, &errb)
+	if code != exitTargetFailed || !strings.Contains(out.String(), "no subset meets every target") {
+		t.Errorf("exit %d, stdout %q, stderr %q", code, out.String(), errb.String())
+	}
+}
+
+// budget exits 3 when the p95 with every source as stated misses the
+// tolerance target, 0 when it meets it.
+func TestBudgetToleranceExit(t *testing.T) {
+	for _, c := range []struct {
+		target string
+		code   int
+	}{{"3.5", exitOK}, {"1", exitTargetFailed}} {
+		var out, errb bytes.Buffer
+		code := runMain([]string{"budget", budgetScenario, "--units", "4", "--tolerance-target", c.target}, &out, &errb)
+		lines := strings.Split(strings.TrimSpace(out.String()), "\n")
+		if code != c.code || !strings.HasPrefix(lines[len(lines)-1], "verdict: ") {
+			t.Errorf("target %s: exit %d (want %d), last line %q, stderr %q", c.target, code, c.code, lines[len(lines)-1], errb.String())
+		}
+	}
+}

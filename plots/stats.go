@@ -499,7 +499,7 @@ func (f Sweep) Plot(caption Caption) (*Chart, error) {
 		if err != nil {
 			return nil, fmt.Errorf("plots: sweep: %w", err)
 		}
-		sc.GlyphStyle = draw.GlyphStyle{Color: colVermil, Radius: 8, Shape: draw.RingGlyph{}}
+		sc.GlyphStyle = draw.GlyphStyle{Color: colBlack, Radius: 8, Shape: draw.RingGlyph{}}
 		p.Add(sc)
 		p.Legend.Add(fmt.Sprintf("misses its target (%d points)", len(failed)), sc)
 		rec = append(rec, drawnSeries{0, "fails", failed})

@@ -208,6 +208,20 @@ var curveTarget = map[string]string{"valid_fraction": study.TargetValid, "p95_er
 // "orbit.altitude_km" → "orbit altitude (km)", "orbit.ltan" → "orbit LTAN
 // (h, local time)", "epoch" → "epoch (days after the first)".
 func axisLabel(key string) string {
+	words, unit := splitKey(key)
+	if unit == "" {
+		return words
+	}
+	return words + " (" + unit + ")"
+}
+
+// keyWords is the key in words without its unit ("orbit LTAN").
+func keyWords(key string) string {
+	w, _ := splitKey(key)
+	return w
+}
+
+func splitKey(key string) (string, string) {
 	words := strings.Fields(strings.NewReplacer(".", " ", "_", " ").Replace(key))
 	unit := ""
 	if n := len(words); n > 1 {
@@ -227,10 +241,7 @@ func axisLabel(key string) string {
 			unit = "days after the first"
 		}
 	}
-	if unit == "" {
-		return strings.Join(words, " ")
-	}
-	return strings.Join(words, " ") + " (" + unit + ")"
+	return strings.Join(words, " "), unit
 }
 
 // axisNumber turns a value of the first key into a plot abscissa: a number,
@@ -295,7 +306,7 @@ func Curves(m Manifest, cases []*CaseFile, name string) (x []float64, xLabel str
 	for k, lv := range ls {
 		lines[k] = plots.Line{Label: lv, Y: make([]float64, len(xs))}
 		if lv != "" {
-			lines[k].Label = axisLabel(m.Keys[1]) + " = " + lv
+			lines[k].Label = keyWords(m.Keys[1]) + " = " + lv
 		} else {
 			lines[k].Label = name
 		}
@@ -349,7 +360,11 @@ func addTarget(sw *plots.Sweep, m Manifest, cases []*CaseFile, key string, scale
 		sym = "≤"
 	}
 	sw.Target = limit
-	sw.TargetLabel = fmt.Sprintf("target %s %.4g: %d of %d cases pass", sym, *limit, pass, total)
+	unit := ""
+	if scale == 100 {
+		unit = " %"
+	}
+	sw.TargetLabel = fmt.Sprintf("target %s %.4g%s: %d of %d cases pass", sym, *limit, unit, pass, total)
 	sw.Fails = fails
 }
 

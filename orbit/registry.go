@@ -22,7 +22,14 @@ type PropagatorInfo struct {
 	// FromTLE says the propagator starts from a two-line element set (its
 	// builder is orbit/sgp4's, given the TLE).
 	FromTLE bool
+	// FromFile says the propagator interpolates an ephemeris file (its
+	// builder is orbit/ccsds's, given the file).
+	FromFile bool
 }
+
+// EphemerisPropagator is the name of the propagator that interpolates an
+// orbit ephemeris file.
+const EphemerisPropagator = "ephemeris-file"
 
 // propagators is the registry, in the order names are listed.
 var propagators = []PropagatorInfo{
@@ -65,6 +72,8 @@ var propagators = []PropagatorInfo{
 			}
 			return func() Propagator { q, _ := NewJ2NumericFromState(osc, opt); return q }, nil
 		}},
+	{Name: EphemerisPropagator, Model: "states of a CCSDS OEM interpolated by its Lagrange or Hermite polynomials", FromFile: true,
+		Source: "CCSDS 502.0-B-2 Orbit Data Messages"},
 	{Name: "sgp4", Model: "SGP4/SDP4 from the mean elements of a TLE, TEME rotated to EME2000", FromTLE: true,
 		Source: "F. R. Hoots and R. L. Roehrich, Spacetrack Report No. 3, 1980; D. A. Vallado et al., Revisiting Spacetrack Report #3, AIAA 2006-6753"},
 }

@@ -38,6 +38,7 @@ type fileOrbit struct {
 	TLE             []string   `yaml:"tle,omitempty"`
 	State           *fileState `yaml:"state,omitempty"`
 	ElementSet      string     `yaml:"element_set,omitempty"`
+	EphemerisFile   string     `yaml:"ephemeris_file,omitempty"`
 	Propagator      string     `yaml:"propagator"`
 }
 
@@ -65,6 +66,7 @@ type fileLaw struct {
 	MaxRateDegS    *float64  `yaml:"max_rate_deg_s,omitempty"`
 	MinRateDegS    *float64  `yaml:"min_rate_deg_s,omitempty"`
 	InertiaKgM2    []float64 `yaml:"inertia_kg_m2,omitempty"`
+	File           string    `yaml:"file,omitempty"`
 }
 
 type fileAttitude struct {

@@ -3,6 +3,7 @@ package scenario
 import (
 	"fmt"
 	"math"
+	"path/filepath"
 	"slices"
 	"strings"
 	"time"
@@ -201,6 +202,9 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 	if len(o.TLE) > 0 {
 		def = tlePropagator // the model TLEs are fitted with
 	}
+	if o.EphemerisFile != "" {
+		def = orbit.EphemerisPropagator
+	}
 	r.choice("orbit.propagator", &o.Propagator, def, orbit.PropagatorNames())
 	if o.LTANSolarTime != "" && o.LTAN == "" {
 		r.fail("orbit.ltan_solar_time", "value is given without ltan; allowed with altitude_km + ltan only")
@@ -218,6 +222,15 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 		r.fail("orbit.element_set", "value osculating is given without semi_major_axis_km; allowed with full elements (a state is osculating by itself)")
 	}
 	switch {
+	case o.EphemerisFile != "":
+		if has(o.AltitudeKm) || elems || has(o.InclinationDeg) || has(o.RAANDeg) || has(o.MeanAnomalyDeg) || o.LTAN != "" || len(o.TLE) > 0 || o.State != nil || o.ElementSet != "" {
+			r.fail("orbit.ephemeris_file", "value is given with other orbit keys; allowed ephemeris_file alone (the file holds the orbit)")
+			return out
+		}
+		if o.Propagator != orbit.EphemerisPropagator {
+			r.fail("orbit.propagator", "value %q with ephemeris_file; allowed %s (the file's states, interpolated)", o.Propagator, orbit.EphemerisPropagator)
+		}
+		out.Kind, out.Osculating, out.EphemerisFile = OrbitFile, true, r.path(o.EphemerisFile)
 	case o.State != nil:
 		if has(o.AltitudeKm) || elems || has(o.InclinationDeg) || has(o.RAANDeg) || has(o.MeanAnomalyDeg) || o.LTAN != "" || len(o.TLE) > 0 || o.ElementSet != "" {
 			r.fail("orbit.state", "value is given with other orbit keys; allowed state alone (position_km and velocity_km_s hold the whole orbit)")
@@ -430,6 +443,11 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 			r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s")
 			out.RateRadS = rate * deg
 		}
+	case attitude.NameReplay:
+		if l.File == "" {
+			r.fail(path+".file", "value is missing; allowed the path of an attitude history: a CCSDS AEM (KVN, .aem) or a table time_utc,qx,qy,qz,qw (.csv)")
+		}
+		out.File = r.path(l.File)
 	case LawTumble:
 		m := setDefault(&l.MaxRateDegS, defaultMaxRate)
 		r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
@@ -452,7 +470,7 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		"quaternion": l.Quaternion != nil, "euler_deg": l.EulerDeg != nil, "euler_sequence": l.EulerSequence != "",
 		"spin_axis": l.SpinAxis != "", "rate_deg_s": l.RateDegS != nil, "max_rate_deg_s": l.MaxRateDegS != nil,
 		"min_rate_deg_s": l.MinRateDegS != nil, "inertia_kg_m2": l.InertiaKgM2 != nil,
-		"align_to": l.AlignTo != "", "align_inertial": l.AlignInertial != nil,
+		"align_to": l.AlignTo != "", "align_inertial": l.AlignInertial != nil, "file": l.File != "",
 	}
 	for _, k := range attitude.LawKeys() {
 		if given[k] && !slices.Contains(info.Keys, k) {
@@ -522,4 +540,12 @@ func (r *resolver) orientation(path string, l *fileLaw, out *Law) {
 	default:
 		l.Quaternion = []float64{1, 0, 0, 0}
 	}
+}
+
+// path resolves a file named in the scenario against the scenario's folder.
+func (r *resolver) path(p string) string {
+	if p == "" || filepath.IsAbs(p) {
+		return p
+	}
+	return filepath.Join(r.dir, p)
 }

@@ -44,6 +44,7 @@ const (
 	OrbitKeplerian = "keplerian"       // full mean elements
 	OrbitTLE       = "tle"             // mean elements read from a TLE
 	OrbitState     = "state"           // osculating position and velocity (EME2000) at the epoch
+	OrbitFile      = "ephemeris-file"  // states read from a CCSDS OEM, interpolated
 )
 
 // Orbit is the starting orbit. For OrbitSunSync the inclination and RAAN are
@@ -70,6 +71,9 @@ type Orbit struct {
 	// StatePositionKm and StateVelocityKmS are the EME2000 state of
 	// OrbitState at the epoch.
 	StatePositionKm, StateVelocityKmS r3.Vec
+	// EphemerisFile is the CCSDS OEM of OrbitFile (resolved path); the
+	// propagator is then "ephemeris-file".
+	EphemerisFile string
 }
 
 // Attitude law names.
@@ -86,6 +90,9 @@ const (
 // Law is one attitude law with its parameters; only those of its kind are set.
 type Law struct {
 	Name string // one of the Law* constants
+	// File is the attitude history of a replay law (AEM or CSV), resolved
+	// against the scenario file's folder.
+	File string
 	// PointAxis is the body axis pointed at nadir (nadir) or at the sun (sun);
 	// AlignAxis is the body axis brought closest to the velocity (nadir) or to
 	// the orbit normal (sun).

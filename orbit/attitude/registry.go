@@ -13,6 +13,7 @@ const (
 	NameSpin      = "spin"
 	NameTumble    = "tumble"
 	NameIsotropic = "isotropic"
+	NameReplay    = "replay"
 	// NameSchedule is one law in sunlight and another in eclipse; it is
 	// written with in_sunlight and in_eclipse rather than with law.
 	NameSchedule = "schedule"
@@ -49,6 +50,9 @@ var laws = []LawInfo{
 	{Name: NameIsotropic, Model: "an independent uniform random attitude at each step",
 		Source: "K. Shoemake, Uniform random rotations, Graphics Gems III, 1992 (from memory)",
 		Random: true},
+	{Name: NameReplay, Model: "a sampled attitude history (CCSDS AEM quaternions or a time,quaternion table) played back, slerp between samples",
+		Source: "CCSDS 504.0-B-1 Attitude Data Messages; K. Shoemake, Animating rotation with quaternion curves, SIGGRAPH 1985 (from memory)",
+		Keys:   []string{"file"}},
 }
 
 // Laws lists the registered attitude laws (not the schedule, which combines

@@ -39,7 +39,17 @@ func MeanElements(s *scenario.Scenario) (orbit.Elements, error) {
 		}
 		el.RAAN = raan
 	}
-	if osc, ok := OsculatingState(s); ok {
+	if o.Kind == scenario.OrbitFile {
+		f, err := oemFactory(s)
+		if err != nil {
+			return el, err
+		}
+		oel, err := orbit.ElementsFromState(f().StateAt(0))
+		if err != nil {
+			return el, fmt.Errorf("orbit.ephemeris_file: the state at the epoch: %w", err)
+		}
+		el = orbit.OsculatingToMean(oel)
+	} else if osc, ok := OsculatingState(s); ok {
 		oel, err := orbit.ElementsFromState(osc)
 		if err != nil {
 			return el, fmt.Errorf("orbit: %w", err)
@@ -96,6 +106,12 @@ func NewPropagator(s *scenario.Scenario) (func() orbit.Propagator, error) {
 	}
 	if p.FromTLE {
 		return sgp4Factory(s)
+	}
+	if p.FromFile {
+		if s.Orbit.Kind != scenario.OrbitFile {
+			return nil, fmt.Errorf("orbit.propagator: %s interpolates orbit.ephemeris_file; allowed with an ephemeris file only", p.Name)
+		}
+		return oemFactory(s)
 	}
 	if osc, ok := OsculatingState(s); ok {
 		f, err := p.NewFromState(osc)

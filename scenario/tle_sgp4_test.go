@@ -75,3 +75,16 @@ func TestParseTLEExp(t *testing.T) {
 		}
 	}
 }
+
+func FuzzParseTLE(f *testing.F) {
+	f.Add("1 00005U 58002B   00179.78495062  .00000023  00000-0  28098-4 0  4753", "2 00005  34.2682 348.7242 1859667 331.7664  19.3264 10.82419157413667")
+	f.Fuzz(func(t *testing.T, l1, l2 string) {
+		tle, err := ParseTLE(l1, l2)
+		if err != nil {
+			return
+		}
+		if !(tle.MeanMotionRevDay > 0) || tle.Eccentricity < 0 || tle.Eccentricity >= 1 || math.IsNaN(tle.BStar) || math.IsInf(tle.BStar, 0) {
+			t.Fatalf("accepted an element set out of range: %+v", tle)
+		}
+	})
+}

@@ -377,8 +377,12 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	fmt.Fprintf(w, "sunsight run: %s\n", s.Name)
 	fmt.Fprintf(w, "  verdict: %s\n", study.Judge(o.allTargets()).Text())
 	fmt.Fprintf(w, "  %s for %s at %s steps (%d samples), seed %d, %d unit(s)\n", s.Epoch.Format(time.RFC3339), s.Duration, s.Step, r.Steps, s.Seed, len(r.Units))
+	a, e := s.Orbit.SemiMajorAxisKm, s.Orbit.Eccentricity
+	if el, err := study.MeanElements(s); err == nil {
+		a, e = el.SemiMajorAxisKm, el.Eccentricity // mean values for every kind (a file or a state too)
+	}
 	fmt.Fprintf(w, "  orbit %s, a = %.1f km (mean altitude %.0f km), e = %.4f; propagator %s; sun %s; %s shadow; attitude %s; albedo %s\n",
-		s.Orbit.Kind, s.Orbit.SemiMajorAxisKm, s.Orbit.SemiMajorAxisKm-orbit.RadiusEarthKm, s.Orbit.Eccentricity,
+		s.Orbit.Kind, a, a-orbit.RadiusEarthKm, e,
 		s.Orbit.Propagator, s.SunModel, s.Shadow, s.Attitude.Name, albedoLabel(s))
 	if s.Orbit.Kind == scenario.OrbitSunSync {
 		if el, err := study.MeanElements(s); err == nil {

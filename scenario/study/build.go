@@ -414,7 +414,7 @@ func AlbedoFactory(s *scenario.Scenario) (func() (*albedo.Model, error), error) 
 		return nil, fmt.Errorf("albedo.value: %w", err)
 	}
 	cfg := albedo.Config{Reflectance: refl, Cells: s.Albedo.Cells, AltitudeKm: s.Orbit.SemiMajorAxisKm - orbit.RadiusEarthKm}
-	if s.Orbit.Eccentricity > 0 {
+	if s.Orbit.Eccentricity > 0 || s.Orbit.Kind == scenario.OrbitFile {
 		cfg.AltitudeKm = 0 // built at the first call and rebuilt as the radius changes
 	}
 	if _, err := albedo.New(cfg); err != nil {

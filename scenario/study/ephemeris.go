@@ -2,8 +2,15 @@ package study
 
 import (
 	"fmt"
+	"math"
 	"os"
 	"strings"
+	"time"
+
+	"gonum.org/v1/gonum/num/quat"
+
+	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
@@ -62,4 +69,46 @@ func oemFactory(s *scenario.Scenario) (func() orbit.Propagator, error) {
 		return nil, fmt.Errorf("orbit.ephemeris_file %s: %w", s.Orbit.EphemerisFile, err)
 	}
 	return func() orbit.Propagator { p, _ := o.Propagator(s.Epoch, s.Duration.Seconds()); return p }, nil
+}
+
+// History is the orbit and attitude a run uses, sampled: the states
+// (EME2000) and attitudes (body ← EME2000) of the nominal unit at
+// Epoch + k·Step.
+type History struct {
+	Epoch  time.Time
+	Step   float64
+	Times  []time.Time
+	States []orbit.State
+	Q      []quat.Number
+}
+
+// MaxHistorySamples bounds an exported history (about 250 MB of text).
+const MaxHistorySamples = 2_000_000
+
+// Sample returns the history of a run configuration every step seconds
+// over the run (unit 0's attitude draw for a random law).
+func Sample(cfg sim.Config, step float64) (History, error) {
+	if !(step > 0) {
+		return History{}, fmt.Errorf("study: sample step %v s; allowed > 0", step)
+	}
+	n := int(math.Floor(cfg.Duration/step+1e-9)) + 1
+	if n > MaxHistorySamples {
+		return History{}, fmt.Errorf("study: %d samples at %g s over %.0f s; allowed at most %d (use a longer step)", n, step, cfg.Duration, MaxHistorySamples)
+	}
+	law := cfg.Law
+	if cfg.LawForUnit != nil {
+		law = cfg.LawForUnit(0)
+	}
+	prop := cfg.NewPropagator()
+	jd0 := ephem.JulianDateTT(cfg.Epoch)
+	h := History{Epoch: cfg.Epoch, Step: step}
+	for k := range n {
+		t := float64(k) * step
+		st := prop.StateAt(t)
+		u, _ := cfg.Sun.Position(jd0 + t/86400)
+		h.Times = append(h.Times, cfg.Epoch.Add(time.Duration(math.Round(t*1e9))))
+		h.States = append(h.States, st)
+		h.Q = append(h.Q, quat.Number(law.Attitude(t, st, u)))
+	}
+	return h, nil
 }

@@ -394,10 +394,19 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	es := r.EclipseStats
 	fmt.Fprintf(w, "\nIllumination\n")
 	fmt.Fprintf(w, "  sunlit %s   penumbra %s   umbra %s   beta %.1f° to %.1f°\n", pct(u.SunlitFraction), pct(u.PenumbraFraction), pct(u.UmbraFraction), u.BetaMinDeg, u.BetaMaxDeg)
-	if es.Count > 0 {
-		fmt.Fprintf(w, "  eclipses %d: mean %.1f min, longest %.1f min (umbra %.1f min), longest sunlit spell %.1f min\n",
-			es.Count, es.MeanS/60, es.MaxS/60, es.MaxUmbraS/60, es.LongestSunlitS/60)
-	} else {
+	switch {
+	case es.Count > 0 && es.Complete == 0:
+		// Means and maxima are over complete eclipses: there are none.
+		fmt.Fprintf(w, "  eclipses %d, all cut by the run's ends: %.1f min of shadow in the run, longest sunlit spell %.1f min\n",
+			es.Count, es.TotalS/60, es.LongestSunlitS/60)
+	case es.Count > 0:
+		cut := ""
+		if n := es.Count - es.Complete; n > 0 {
+			cut = fmt.Sprintf(" (%d cut by the run's ends, not in the mean and longest)", n)
+		}
+		fmt.Fprintf(w, "  eclipses %d%s: mean %.1f min, longest %.1f min (umbra %.1f min), longest sunlit spell %.1f min\n",
+			es.Count, cut, es.MeanS/60, es.MaxS/60, es.MaxUmbraS/60, es.LongestSunlitS/60)
+	default:
 		fmt.Fprintf(w, "  no eclipse in the span\n")
 	}
 	fmt.Fprintf(w, "\nSun in the field of view (share of sunlit time)\n")

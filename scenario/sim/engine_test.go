@@ -120,6 +120,11 @@ func TestSunPointingKeepsSunOnAxis(t *testing.T) {
 }
 
 func faceArray(t testing.TB, halfDeg float64) *sensor.Array {
+	return faceArrayWith(t, halfDeg, sensor.Errors{})
+}
+
+// faceArrayWith is faceArray with the given error model on every sensor.
+func faceArrayWith(t testing.TB, halfDeg float64, errs sensor.Errors) *sensor.Array {
 	t.Helper()
 	var ss []sensor.Sensor
 	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
@@ -128,7 +133,7 @@ func faceArray(t testing.TB, halfDeg float64) *sensor.Array {
 		if err != nil {
 			t.Fatal(err)
 		}
-		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: halfDeg * math.Pi / 180, Threshold: 0.05})
+		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: halfDeg * math.Pi / 180, Threshold: 0.05, Errors: errs})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -192,26 +197,8 @@ func TestObstructionCutsReadings(t *testing.T) {
 // offset, gain mismatch, noise and a 12-bit ADC (values of a hobby-grade
 // photodiode chain, common practice, no source).
 func noisyFaceArray(t testing.TB, halfDeg float64) *sensor.Array {
-	t.Helper()
-	var ss []sensor.Sensor
-	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
-		face, _ := sensor.ParseFace(f)
-		m, err := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
-		if err != nil {
-			t.Fatal(err)
-		}
-		c, err := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: halfDeg * math.Pi / 180, Threshold: 0.05,
-			Errors: sensor.Errors{MisalignSigma: 0.5 * math.Pi / 180, DarkSigma: 0.005, GainSigma: 0.02, NoiseSigma: 0.003, ADCBits: 12, FullScale: 1.5}})
-		if err != nil {
-			t.Fatal(err)
-		}
-		ss = append(ss, c)
-	}
-	arr, err := sensor.NewArray(ss...)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return arr
+	return faceArrayWith(t, halfDeg, sensor.Errors{MisalignSigma: 0.5 * math.Pi / 180, DarkSigma: 0.005, GainSigma: 0.02,
+		NoiseSigma: 0.003, ADCBits: 12, FullScale: 1.5})
 }
 
 // Monte Carlo units of one attitude share the geometry of each step (one

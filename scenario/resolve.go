@@ -14,6 +14,7 @@ import (
 
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
@@ -35,7 +36,7 @@ const (
 	defaultLTANSolarTime = "mean"
 	defaultSunModel      = "low-precision"
 	defaultShadow        = "conical"
-	defaultCells         = 1000
+	defaultCells         = albedo.DefaultCells
 	defaultUnits         = 1
 	defaultDecimate      = 1
 	defaultThreshold     = 0.05

@@ -18,8 +18,12 @@ const (
 	// Annex F.5.1; Stephens et al. 2015, Rev. Geophys. 53, give ≈ 0.29).
 	DefaultAlbedo = 0.30
 
-	// DefaultCells is the default number of equal-area cells on the visible cap.
-	DefaultCells = 1000
+	// DefaultCells is the default number of equal-area cells on the visible
+	// cap: the fewest that keep the error within 0.5 % for every field of
+	// view up to 90° in the worst geometry (400 km, sun at the horizon;
+	// TestDefaultResolutionEveryFieldOfView: worst 0.41 %, against 0.69 %
+	// with 1000 cells).
+	DefaultCells = 2000
 
 	// DefaultRebuildKm is the default radius drift after which the cap geometry
 	// is rebuilt (see Config.RebuildKm).

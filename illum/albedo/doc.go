@@ -143,11 +143,18 @@
 //	cells   hemispherical (90°)        60° cone
 //	  250   1.31 %    0.21 W/m²        2.99 %
 //	  500   0.44 %    0.08 W/m²        0.88 %
-//	 1000   0.19 %    0.03 W/m²        0.49 %     ← DefaultCells
+//	 1000   0.19 %    0.03 W/m²        0.49 %
 //	 1500   0.19 %    0.03 W/m²        0.37 %
 //	 3000   0.077 %   0.012 W/m²       0.16 %
 //	 6000   0.040 %   0.007 W/m²       0.11 %
 //	12000   0.019 %   0.003 W/m²       0.068 %
+//
+// DefaultCells is 2000: on every field of view from 10° to 90° at 400 km
+// with the sun 80°, 90° (horizon) and 100° from the sub-satellite zenith
+// (testdata/gen_albedo_fov.py, the same brute force, 54 cases) the worst
+// relative error is 0.69 % at 1000 cells (40° cone; 0.65 % at 70°), 0.50 %
+// at 1500, 0.41 % at 2000, 0.30 % at 3000 — the cone edge crossing the lit
+// cap converges slowly (TestDefaultResolutionEveryFieldOfView).
 //
 // The worst cases are plates tilted 120° from nadir that see only the limb.
 // Mean arrival direction: worst 0.11° (hemispherical) and 0.25° (60° cone).

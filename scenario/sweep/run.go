@@ -15,6 +15,7 @@ import (
 	"reflect"
 	"runtime"
 	"slices"
+	"strconv"
 	"sync"
 
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
@@ -70,7 +71,7 @@ type Manifest struct {
 	Zip       bool       `json:"zip"`
 	Cases     [][]string `json:"cases"`
 	CaseSHA   []string   `json:"case_scenario_sha256"`
-	BaseSeeds []int64    `json:"case_scenario_seed"`
+	BaseSeeds []string   `json:"case_scenario_seed"` // decimal: 64-bit seeds stay exact in JSON
 }
 
 // CaseFile is DIR/cases/NNNNN.json. Checksum is the SHA-256 of the file's
@@ -116,7 +117,7 @@ type Input struct {
 func (p *Plan) manifest() Manifest {
 	m := Manifest{Keys: p.Keys(), Zip: p.Zip, Cases: p.Cases, CaseSHA: p.sum}
 	for _, s := range p.scen {
-		m.BaseSeeds = append(m.BaseSeeds, s.Seed)
+		m.BaseSeeds = append(m.BaseSeeds, strconv.FormatInt(s.Seed, 10))
 	}
 	return m
 }

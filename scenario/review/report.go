@@ -232,7 +232,7 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 		r.Figures = append(r.Figures, fig)
 	}
 	r.Assumptions = assumptions(s)
-	r.Tables = append(r.Tables, estimatorTable(res), sensorTable(s, res))
+	r.Tables = append(r.Tables, estimatorTable(res), sensorTable(s, cfg, res))
 	r.Notes = append(r.Notes, Skipped(res)...)
 	for _, w := range study.Warnings(s, res) {
 		r.Notes = append(r.Notes, "Warning: "+w+".")
@@ -262,7 +262,11 @@ func mounts(s *scenario.Scenario, cfg sim.Config) []plots.MountRow {
 			}
 		}
 		az, el := azEl(r3.Vec{X: row.Boresight[0], Y: row.Boresight[1], Z: row.Boresight[2]})
-		out = append(out, plots.MountRow{Name: row.Name, Kind: string(row.Kind), Face: face, AzDeg: az, ElDeg: el, HalfAngleDeg: row.FOVDeg})
+		half := row.FOVDeg
+		if row.LinearDeg > 0 {
+			half = row.LinearDeg // a quadrant: where its readings can be valid, per axis (see the sensor table's note)
+		}
+		out = append(out, plots.MountRow{Name: row.Name, Kind: string(row.Kind), Face: face, AzDeg: az, ElDeg: el, HalfAngleDeg: half})
 	}
 	return out
 }
@@ -411,7 +415,7 @@ func estimatorTable(res *sim.Result) plots.Table {
 
 // sensorTable lists each sensor's time in view, peak signal against its full
 // scale, saturation and false sun.
-func sensorTable(s *scenario.Scenario, res *sim.Result) plots.Table {
+func sensorTable(s *scenario.Scenario, cfg sim.Config, res *sim.Result) plots.Table {
 	t := plots.Table{Title: "Sensors (signal 1 = normal sun at 1 AU)",
 		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of time)", "false sun (% of umbra)",
 			"valid only with albedo (% of sunlit)", fmt.Sprintf("direction > %g° off (%% of sunlit)", res.FalseSunBoundDeg)}}
@@ -423,6 +427,18 @@ func sensorTable(s *scenario.Scenario, res *sim.Result) plots.Table {
 		}
 		t.Rows = append(t.Rows, []string{sn.Name, pct(sn.InViewFraction), num(sn.PeakSignal, 3), fs, margin,
 			pct(sn.SaturatedFraction), pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction)})
+	}
+	// Four-quadrant sensors: where their readings can be valid (the
+	// validity gate), where light still reaches a cell, and the dead zone.
+	var views []string
+	for _, sn := range cfg.Array.Sensors() {
+		if q, ok := sn.(*sensor.Quadrant); ok {
+			views = append(views, q.Name()+": "+sensor.ViewText(q))
+		}
+	}
+	if len(views) > 0 {
+		t.Note = "Four-quadrant sensors report no sun outside their calibrated linear range or when the cell sum is off the expected one; " +
+			"in a dead zone they read straight above (or no sun). " + strings.Join(views, ". ") + "."
 	}
 	return t
 }

@@ -96,6 +96,10 @@ func (p *J2Numeric) Options() NumericOptions { return p.opt }
 // InitialState returns the osculating state at t = 0.
 func (p *J2Numeric) InitialState() State { return p.initial }
 
+// Restart implements Restarter: a fresh integrator with the same options
+// started from s.
+func (p *J2Numeric) Restart(s State) (Restarter, error) { return NewJ2NumericFromState(s, p.opt) }
+
 // StateAt returns the state at t ≥ 0. Increasing t continues the
 // integration; a t before the current step restarts it from the epoch.
 // A negative t is a programming error and panics.

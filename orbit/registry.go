@@ -5,6 +5,18 @@ import (
 	"strings"
 )
 
+// Restarter is a propagator that integrates forward from its epoch
+// (J2Numeric): going back in time restarts it, and it can restart from any
+// state. A caller asks for this capability, never for a concrete type.
+type Restarter interface {
+	Propagator
+	// InitialState is the state at t = 0.
+	InitialState() State
+	// Restart returns a fresh propagator of the same kind and options
+	// whose t = 0 state is s.
+	Restart(s State) (Restarter, error)
+}
+
 // PropagatorInfo is the registry entry of one propagator: its name in the
 // scenario file, what it models and its published source (the report's
 // models table and check print both), and its builder.

@@ -186,7 +186,7 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	}
 	steps := cfg.Steps()
 	chunk := chunkSteps
-	if _, numeric := cfg.NewPropagator().(*orbit.J2Numeric); numeric {
+	if _, numeric := cfg.NewPropagator().(orbit.Restarter); numeric {
 		// A numerical integration runs forward from the epoch: one piece.
 		chunk = steps
 	}

@@ -5,6 +5,7 @@ import (
 	"sort"
 
 	"gonum.org/v1/gonum/spatial/r3"
+	"gonum.org/v1/gonum/stat"
 
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
@@ -527,8 +528,10 @@ func acrossUnits(units []*UnitResult) []AcrossUnits {
 	return out
 }
 
-// empiricalQuantile is the smallest sorted value with at least p·N values at
-// or below it (NaNs sort first in sort.Float64s and are skipped).
+// empiricalQuantile is the p-quantile of the sorted values by the one
+// definition the project uses, gonum's stat.Empirical (the smallest value
+// with at least p·N values at or below it), as plots uses for its p95 marks;
+// NaNs sort first in sort.Float64s and are skipped.
 func empiricalQuantile(sorted []float64, p float64) float64 {
 	i := 0
 	for i < len(sorted) && math.IsNaN(sorted[i]) {
@@ -538,7 +541,5 @@ func empiricalQuantile(sorted []float64, p float64) float64 {
 	if len(v) == 0 {
 		return math.NaN()
 	}
-	k := int(math.Ceil(p*float64(len(v)))) - 1
-	k = max(0, min(k, len(v)-1))
-	return v[k]
+	return stat.Quantile(p, stat.Empirical, v, nil)
 }

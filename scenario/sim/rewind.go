@@ -12,11 +12,11 @@ import (
 // Closed-form propagators are returned as they are.
 func rewindable(newProp func() orbit.Propagator) orbit.Propagator {
 	p := newProp()
-	num, ok := p.(*orbit.J2Numeric)
+	num, ok := p.(orbit.Restarter)
 	if !ok {
 		return p
 	}
-	return &checkpointed{cur: num, opt: num.Options(), checks: []checkpoint{{0, num.InitialState()}}}
+	return &checkpointed{cur: num, checks: []checkpoint{{0, num.InitialState()}}}
 }
 
 const checkpointS = 3600
@@ -26,12 +26,11 @@ type checkpoint struct {
 	s orbit.State
 }
 
-// checkpointed wraps a J2Numeric with restart points.
+// checkpointed wraps a forward integrator with restart points.
 type checkpointed struct {
-	cur    *orbit.J2Numeric
+	cur    orbit.Restarter
 	t0     float64 // time of cur's epoch
 	last   float64 // latest time served
-	opt    orbit.NumericOptions
 	checks []checkpoint
 }
 
@@ -43,7 +42,7 @@ func (c *checkpointed) StateAt(t float64) orbit.State {
 			i--
 		}
 		ck := c.checks[i]
-		p, err := orbit.NewJ2NumericFromState(ck.s, c.opt)
+		p, err := c.cur.Restart(ck.s)
 		if err != nil {
 			panic("sim: restart of a valid orbit failed: " + err.Error())
 		}

@@ -31,10 +31,10 @@ func TestRestarterCapability(t *testing.T) {
 }
 
 // Every registered propagator has a name, a model, a source and a builder
-// (or starts from a TLE).
+// (or starts from a TLE or an ephemeris file).
 func TestPropagatorRegistry(t *testing.T) {
 	for _, p := range Propagators() {
-		if p.Name == "" || p.Model == "" || p.Source == "" || (p.New == nil) != p.FromTLE {
+		if p.Name == "" || p.Model == "" || p.Source == "" || (p.New == nil && !p.FromTLE && !p.FromFile) {
 			t.Errorf("entry %+v", p)
 		}
 	}

@@ -108,7 +108,7 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	d0 := float64(s.Epoch.YearDay()) + float64(s.Epoch.Hour()*3600+s.Epoch.Minute()*60+s.Epoch.Second())/86400
 	yv.Run = plots.Interval{Start: d0, End: d0 + res.DurationS/86400}
 	yc := cap
-	yc.Model = fmt.Sprintf("calendar year %d; ", s.Epoch.Year()) + "j2-mean orbit from the mean elements (for speed), " + s.SunModel + " sun, conical shadow; one orbit examined per day"
+	yc.Model = fmt.Sprintf("calendar year %d; ", s.Epoch.Year()) + "j2-mean orbit from the mean elements (for speed), " + s.SunModel + " sun, " + s.Shadow + " shadow; one orbit examined per day"
 	yc.Assumptions = "no attitude or sensors involved; eclipse minutes of the first complete eclipse of the day"
 	c, err = yv.Plot(yc)
 	if err := add(FigYear, "Beta angle and eclipse minutes per orbit over one year", c, err); err != nil {

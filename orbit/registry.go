@@ -57,7 +57,7 @@ var propagators = []PropagatorInfo{
 			}
 			return func() Propagator { return NewTwoBody(el) }, nil
 		}},
-	{Name: "j2-mean", Model: "mean elements with first-order secular J2 rates of RAAN, argument of perigee and mean anomaly, no short-period terms",
+	{Name: "j2-mean", Model: "mean elements with the secular J2 rates of RAAN, argument of perigee and mean anomaly to second order in J2, no short-period terms",
 		Source: "Y. Kozai, AJ 64, 367, 1959; Vallado 4th ed. 2013, §9.6",
 		New: func(el Elements) (func() Propagator, error) {
 			return func() Propagator { return NewJ2Mean(el) }, nil

@@ -98,7 +98,7 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 		}
 		el.RAAN = raan
 	}
-	dΩ, dω, dM := orbit.J2Rates(el)
+	dΩ, dω, dM := orbit.J2RatesSecondOrder(el)
 	const degPerDay = 180 / math.Pi * 86400
 	fmt.Fprintf(stdout, "semi-major axis        %.3f km (mean)\n", a)
 	fmt.Fprintf(stdout, "period                 %.3f min\n", orbit.Period(a)/60)
@@ -120,7 +120,7 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 	} else {
 		fmt.Fprintf(stdout, "LTAN drift             %+.3f min/day (%+.2f h per 30 days)\n", drift, drift*30/60)
 	}
-	fmt.Fprintln(stdout, "note: first-order secular J2 only; an analysis aid, not for flight decisions")
+	fmt.Fprintln(stdout, "note: secular J2 to second order only (no drag, no other harmonics); an analysis aid, not for flight decisions")
 	return nil
 }
 

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"runtime/debug"
+	"strings"
 )
 
 func init() {
@@ -32,12 +33,12 @@ func toolVersion() string {
 			dirty = s.Value == "true"
 		}
 	}
-	if len(rev) >= 12 {
-		v += " (" + rev[:12]
-		if dirty {
-			v += ", modified"
-		}
-		v += ")"
+	// A pseudo-version (v0.0.0-date-revision) already names the revision.
+	if len(rev) >= 12 && !strings.Contains(v, rev[:12]) {
+		v += " (" + rev[:12] + ")"
+	}
+	if dirty && !strings.HasSuffix(v, "+dirty") {
+		v += " (modified)"
 	}
 	return v
 }

@@ -265,3 +265,36 @@ func TestQuadrantRangesMatchTransfer(t *testing.T) {
 		}
 	}
 }
+
+// Reading a quadrant sensor (either geometry, with albedo cells and noise)
+// allocates nothing: it runs in the step loop.
+func TestQuadrantReadAllocatesNothing(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	errs := Errors{DarkSigma: 0.001, NoiseSigma: 0.001, GainSigma: 0.01, ADCBits: 12, FullScale: 1.5}
+	for _, s := range []QuadrantSpec{
+		{ApertureSide: 2, Height: 1, CellSide: 2, Gap: 0.1, SignalMargin: 0.2, ImbalanceMargin: 0.05, Errors: errs},
+		{Geometry: GeometryWall, Height: 4, CellSide: 3, WallDistance: 2.31, SignalMargin: 0.2, ImbalanceMargin: 0.05, Errors: errs},
+	} {
+		q := quadSpec(t, s).Draw(rng)
+		alb := Albedo{Irradiance: 100, Cells: [4]float64{20, 30, 25, 25}}
+		if n := testing.AllocsPerRun(200, func() { q.Read(sunAt(20*deg, -10*deg), SolarConstant, alb, rng) }); n != 0 {
+			t.Errorf("%v: %g allocations per read", s.Geometry, n)
+		}
+	}
+}
+
+func BenchmarkQuadrantGeometries(b *testing.B) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	for _, s := range []QuadrantSpec{
+		{ApertureSide: 2, Height: 1, CellSide: 2, Gap: 0.1, SignalMargin: 0.2, ImbalanceMargin: 0.05},
+		{Geometry: GeometryWall, Height: 4, CellSide: 3, WallDistance: 2.31, SignalMargin: 0.2, ImbalanceMargin: 0.05},
+	} {
+		q := quadSpec(b, s)
+		b.Run(s.Geometry.String(), func(b *testing.B) {
+			sun := sunAt(20*deg, -35*deg)
+			for b.Loop() {
+				q.Read(sun, SolarConstant, Albedo{}, rng)
+			}
+		})
+	}
+}

@@ -80,6 +80,12 @@
 // grid rows are not integrated. The 1° table for six sensors holds 221 × 360
 // nodes (19 MB); the build runs on up to GOMAXPROCS goroutines.
 //
+// A sensor may carry the outward normal of the surface it sits on
+// (Sensor.Plane): cells at or behind that plane are left out of its sum, so
+// a tilted sensor whose cone reaches behind its face gets only the Earth in
+// front of it (cell centres decide; a cell straddling the plane counts
+// whole or not at all).
+//
 // # Assumptions
 //
 //   - Spherical Earth, no atmosphere: no twilight, no limb brightening, no

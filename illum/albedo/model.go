@@ -22,6 +22,17 @@ type Sensor struct {
 	// Result.Cells. HalfAngle still bounds the cells the sum visits.
 	Cells CellResponse
 	X, Y  r3.Vec // sensor axes with Cells: unit, ⟂ Normal, Y = Normal × X
+	// Plane, when not zero, is the outward unit normal (EME2000) of the
+	// surface the sensor sits on: light arriving from directions at or
+	// behind that plane (u·Plane ≤ 0) is cut, as the body hides it. A
+	// tilted sensor's cone reaches behind its face; the plane clips it.
+	Plane r3.Vec
+}
+
+// behind reports whether the lit cell's direction l lies at or behind the
+// sensor's mounting plane p (cap frame; zero p: never).
+func behind(p r3.Vec, l *litCell) bool {
+	return p != (r3.Vec{}) && p.X*l.ux+p.Y*l.uy+p.Z*l.uz <= 0
 }
 
 // CellResponse is the response of a detector split into up to four cells to
@@ -272,6 +283,7 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 func sumCells(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Result {
 	n := toFrame(sn.Normal, ex, ey, ez)
 	x, y := toFrame(sn.X, ex, ey, ez), toFrame(sn.Y, ex, ey, ez)
+	p := toFrame(sn.Plane, ex, ey, ez)
 	var res Result
 	if math.Acos(max(-1, min(1, -n.Z))) >= geo.η+sn.HalfAngle+geo.halfWidth {
 		return res
@@ -280,7 +292,7 @@ func sumCells(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Re
 	for k := range lit {
 		l := &lit[k]
 		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz
-		if c <= 0 {
+		if c <= 0 || behind(p, l) {
 			continue
 		}
 		d := r3.Vec{X: x.X*l.ux + x.Y*l.uy + x.Z*l.uz, Y: y.X*l.ux + y.Y*l.uy + y.Z*l.uz, Z: c}
@@ -313,6 +325,7 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) R
 		return sumCells(lit, sn, ex, ey, ez, geo)
 	}
 	n := toFrame(sn.Normal, ex, ey, ez)
+	p := toFrame(sn.Plane, ex, ey, ez)
 	cosH := math.Cos(sn.HalfAngle)
 	if sn.HalfAngle >= math.Pi/2 {
 		cosH = 0
@@ -335,6 +348,9 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) R
 	for k := range lit {
 		l := &lit[k]
 		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
+		if behind(p, l) {
+			continue
+		}
 		var we float64
 		switch {
 		case c >= inner && cosine:

@@ -59,6 +59,10 @@ type Config struct {
 	// for the albedo integral (zero value: cosine).
 	NewAlbedo      func() (*albedo.Model, error)
 	AlbedoResponse []albedo.Response
+	// MountNormals[i], when not zero, is the outward normal (body axes) of
+	// the surface sensor i sits on: the albedo integral of a sensor whose
+	// cone reaches behind that plane is clipped by it. Nil: no clipping.
+	MountNormals []r3.Vec
 
 	// NewCorrection, when set with NewAlbedo, is the albedo model the
 	// flight software would use to correct its cosine readings: the
@@ -136,6 +140,8 @@ func (c *Config) Validate() error {
 		return fmt.Errorf("sim: %d viewers for %d sensors", len(c.Viewers), c.Array.Len())
 	case c.Blocked != nil && len(c.Blocked) != c.Array.Len():
 		return fmt.Errorf("sim: %d obstruction tests for %d sensors", len(c.Blocked), c.Array.Len())
+	case c.MountNormals != nil && len(c.MountNormals) != c.Array.Len():
+		return fmt.Errorf("sim: %d mount normals for %d sensors", len(c.MountNormals), c.Array.Len())
 	case c.AlbedoResponse != nil && len(c.AlbedoResponse) != c.Array.Len():
 		return fmt.Errorf("sim: %d albedo responses for %d sensors", len(c.AlbedoResponse), c.Array.Len())
 	}

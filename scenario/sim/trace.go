@@ -81,6 +81,7 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 	var ss []sensor.Sensor
 	var viewers []sky.Viewer
 	var blocked []func(dirBody r3.Vec) bool
+	var normals []r3.Vec
 	for _, i := range subset {
 		if i < 0 || i >= len(tr.sensors) {
 			return nil, fmt.Errorf("sim: candidate %d out of range [0, %d)", i, len(tr.sensors))
@@ -92,6 +93,9 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 		if cfg.Blocked != nil {
 			blocked = append(blocked, cfg.Blocked[i])
 		}
+		if cfg.MountNormals != nil {
+			normals = append(normals, cfg.MountNormals[i])
+		}
 	}
 	arr, err := sensor.NewArray(ss...)
 	if err != nil {
@@ -99,6 +103,7 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 	}
 	cfg.Array, cfg.Viewers, cfg.Blocked, cfg.Estimators = arr, viewers, blocked, ests
 	cfg.Gates = gatesFor(tr.cfg, ests)
+	cfg.MountNormals = normals
 	cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
 	res := tr.result
 	res.Units = nil

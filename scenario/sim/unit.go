@@ -69,8 +69,14 @@ type geometry struct {
 	// their own integral.
 	cells        []int
 	cellX, cellY []r3.Vec
-	cellIn       []albedo.Sensor
-	cellOut      []albedo.Result
+	// Sensors whose cone reaches behind their mounting plane: their plane
+	// normals (body axes). They too are integrated on their own when a
+	// table serves the others (the tables hold whole cones).
+	clipped []int
+	clipN   []r3.Vec
+	own     []int // cells ∪ clipped
+	ownIn   []albedo.Sensor
+	ownOut  []albedo.Result
 }
 
 func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*geometry, error) {
@@ -113,9 +119,16 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*ge
 				g.cells = append(g.cells, i)
 				g.cellX, g.cellY = append(g.cellX, x), append(g.cellY, y)
 			}
+			if cfg.MountNormals != nil && crossesPlane(s.Mount().Boresight(), cfg.MountNormals[i], s.HalfAngle()) {
+				g.clipped = append(g.clipped, i)
+				g.clipN = append(g.clipN, cfg.MountNormals[i])
+			}
+			if len(g.cells) > 0 && g.cells[len(g.cells)-1] == i || len(g.clipped) > 0 && g.clipped[len(g.clipped)-1] == i {
+				g.own = append(g.own, i)
+			}
 		}
-		g.cellIn = make([]albedo.Sensor, len(g.cells))
-		g.cellOut = make([]albedo.Result, len(g.cells))
+		g.ownIn = make([]albedo.Sensor, len(g.own))
+		g.ownOut = make([]albedo.Result, len(g.own))
 	}
 	return g, nil
 }
@@ -169,17 +182,21 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 	for k, i := range g.cells {
 		g.albIn[i].X, g.albIn[i].Y = M.toECI(g.cellX[k]), M.toECI(g.cellY[k])
 	}
+	for k, i := range g.clipped {
+		g.albIn[i].Plane = M.toECI(g.clipN[k])
+	}
 	gmst := ephem.GMST(g.jdUT0 + t/86400)
 	if g.table == nil || !g.table.irradiance(g.albOut, st, sunU, sunD, g.albIn) {
 		g.alb.Irradiance(g.albOut, st.R, sunU, sunD, gmst, jd, g.albIn)
-	} else if len(g.cells) > 0 {
-		// The tables hold cones: the cell sensors are integrated on their own.
-		for k, i := range g.cells {
-			g.cellIn[k] = g.albIn[i]
+	} else if len(g.own) > 0 {
+		// The tables hold whole cones: the cell sensors and the cones cut
+		// by their mounting plane are integrated on their own.
+		for k, i := range g.own {
+			g.ownIn[k] = g.albIn[i]
 		}
-		g.alb.Irradiance(g.cellOut, st.R, sunU, sunD, gmst, jd, g.cellIn)
-		for k, i := range g.cells {
-			g.albOut[i] = g.cellOut[k]
+		g.alb.Irradiance(g.ownOut, st.R, sunU, sunD, gmst, jd, g.ownIn)
+		for k, i := range g.own {
+			g.albOut[i] = g.ownOut[k]
 		}
 	}
 	if g.corr != nil {
@@ -380,4 +397,14 @@ func shadow(cylindrical bool, r, sunU r3.Vec, sunD float64) (float64, illum.Regi
 		return 0, illum.Umbra
 	}
 	return illum.ShadowConical(r, r3.Scale(sunD, sunU))
+}
+
+// crossesPlane reports whether a cone of half-angle h about the unit
+// boresight b reaches behind the plane of outward normal n: the angle from
+// n to b plus h exceeds 90°.
+func crossesPlane(b, n r3.Vec, h float64) bool {
+	if n == (r3.Vec{}) {
+		return false
+	}
+	return angleBetween(b, n)+h > math.Pi/2+1e-12
 }

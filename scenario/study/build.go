@@ -352,6 +352,15 @@ func BuildSensors(s *scenario.Scenario, list []scenario.Sensor, path string) (*s
 	return arr, viewers, resp, nil
 }
 
+// mountNormals lists the outward normals of the surfaces the sensors sit on.
+func mountNormals(list []scenario.Sensor) []r3.Vec {
+	out := make([]r3.Vec, len(list))
+	for i, sc := range list {
+		out[i] = sc.MountNormal
+	}
+	return out
+}
+
 // mounted wraps a sensor's field of view with what its mount hides: the
 // plane of the surface it sits on and every obstacle, traced from its
 // position.
@@ -513,6 +522,7 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 		NewPropagator: newProp, Sun: sun, Cylindrical: ShadowModel(s) == illum.Cylindrical, Law: law, LawForUnit: lawForUnit(s, att),
 		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), FalseSunBoundDeg: s.Validity.FalseSunBoundDeg, Gates: Gates(s, ests),
+		MountNormals: mountNormals(sensors),
 	}
 	return cfg, cfg.Validate()
 }

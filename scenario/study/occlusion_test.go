@@ -188,3 +188,48 @@ func TestOcclusionInTheTimeDomain(t *testing.T) {
 }
 
 func mountOf(cfg sim.Config) sensor.Mount { return cfg.Array.Sensors()[0].Mount() }
+
+// The albedo of a tilted sensor is integrated only in front of its face: a
+// +X sensor tilted 45° toward +Z, +Z at nadir, sees the Earth's disc (66°
+// radius) partly behind the +X face plane. Without the plane in the
+// integral, the reading is all of the cone's albedo or, when its mean
+// direction falls behind the face, none; with it, the part in front. So the
+// clipped reading is never above a kept unclipped one, is below it at some
+// samples, and keeps a part where the unclipped one was dropped whole.
+func TestTiltedSensorAlbedoClippedByItsFace(t *testing.T) {
+	s := occlusionScenario(t, occlusionCases["tilted-px-3u"])
+	s.Albedo = scenario.Albedo{Model: scenario.AlbedoUniform, Value: 0.3, Cells: 1000}
+	s.Attitude = scenario.Attitude{Law: scenario.Law{Name: scenario.LawNadir, PointAxis: r3.Vec{Z: 1}, AlignAxis: r3.Vec{X: 1}}}
+	run := func(clip bool) *sim.Series {
+		cfg, err := Config(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !clip {
+			cfg.MountNormals = nil
+		}
+		cfg.Duration, cfg.Step, cfg.SeriesStride = 6000, 20, 1
+		res, err := sim.Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return res.Nominal.Series
+	}
+	with, without := run(true), run(false)
+	less, kept := 0, 0
+	for k := range with.T {
+		a, b := with.Signals[k][0], without.Signals[k][0]
+		switch {
+		case b > 0 && a > b+1e-12:
+			t.Fatalf("t = %g s: %g with the face plane, %g without", with.T[k], a, b)
+		case b > 0 && a < b-1e-6:
+			less++
+		case b == 0 && a > 0:
+			kept++
+		}
+	}
+	t.Logf("of %d samples: clipped below the whole cone at %d, a part kept where the whole was dropped at %d", len(with.T), less, kept)
+	if less == 0 || kept == 0 {
+		t.Error("the face plane does not act on the tilted sensor's albedo")
+	}
+}

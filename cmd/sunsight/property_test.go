@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"testing"
@@ -146,6 +147,76 @@ func TestPropertyCheckAcceptsThenRunAccepts(t *testing.T) {
 					t.Errorf("check accepts, run exits %d: %s\n%s", run, runErr, f.YAML())
 				case check != 0 && run != check:
 					t.Errorf("check exits %d (%s), run exits %d (%s)\n%s", check, checkErr, run, runErr, f.YAML())
+				}
+			})
+		}
+	}
+}
+
+// The shadow model drives every output that depends on it: in the JSON
+// record the eclipse statistics are those of the eclipse list (count,
+// longest complete eclipse, total shadow, the headline's minutes), and the
+// sampled shadow time agrees with the listed one to within one step per
+// eclipse, under either shadow model.
+func TestPropertyEclipseTablesAgree(t *testing.T) {
+	for i := range 6 {
+		for _, shadow := range []string{"conical", "cylindrical"} {
+			f := propertyFile(t, 400+i)
+			f.Shadow = shadow
+			t.Run(fmt.Sprintf("case%d/%s", 400+i, shadow), func(t *testing.T) {
+				code, out, errs := runCLI("run", "-json", "-quiet", writeScenario(t, f))
+				if code != 0 && code != exitTargetFailed {
+					t.Fatalf("exit %d: %s\n%s", code, errs, f.YAML())
+				}
+				var rec struct {
+					Eclipses []struct {
+						Start float64 `json:"penumbra_start_s"`
+						End   float64 `json:"penumbra_end_s"`
+						Cut   bool    `json:"cut_by_span"`
+					} `json:"eclipses"`
+					Stats struct {
+						Count  int     `json:"eclipses"`
+						MaxS   float64 `json:"max_s"`
+						TotalS float64 `json:"total_s"`
+					} `json:"eclipse_stats"`
+					Headline struct {
+						Eclipses int     `json:"eclipses"`
+						MaxMin   float64 `json:"eclipse_max_min"`
+						Sunlit   float64 `json:"sunlit_fraction"`
+						Penumbra float64 `json:"penumbra_fraction"`
+					} `json:"headline"`
+					RunInfo struct {
+						DurationS float64 `json:"duration_s"`
+						StepS     float64 `json:"step_s"`
+						Steps     int     `json:"steps"`
+					} `json:"run"`
+				}
+				if err := json.Unmarshal([]byte(out), &rec); err != nil {
+					t.Fatal(err)
+				}
+				longest, total := 0.0, 0.0
+				for _, e := range rec.Eclipses {
+					if !e.Cut {
+						longest = max(longest, e.End-e.Start)
+					}
+					total += e.End - e.Start
+				}
+				h, n := rec.RunInfo.StepS, float64(len(rec.Eclipses))
+				sampled := (1 - rec.Headline.Sunlit) * float64(rec.RunInfo.Steps) * h
+				switch {
+				case rec.Stats.Count != len(rec.Eclipses) || rec.Headline.Eclipses != len(rec.Eclipses):
+					t.Errorf("%d eclipses listed, statistics count %d, headline %d", len(rec.Eclipses), rec.Stats.Count, rec.Headline.Eclipses)
+				case math.Abs(rec.Stats.MaxS-longest) > 1e-3 || math.Abs(rec.Headline.MaxMin*60-longest) > 1e-3:
+					t.Errorf("longest complete eclipse %.3f s listed, statistics %.3f s, headline %.4f min", longest, rec.Stats.MaxS, rec.Headline.MaxMin)
+				case math.Abs(rec.Stats.TotalS-total) > 1e-3:
+					t.Errorf("listed shadow %.3f s, statistics total %.3f s", total, rec.Stats.TotalS)
+				case math.Abs(sampled-total) > h*(n+1):
+					t.Errorf("%s: sampled shadow %.1f s, listed %.1f s (%d eclipses, step %.0f s)", shadow, sampled, total, len(rec.Eclipses), h)
+				case shadow == "cylindrical" && rec.Headline.Penumbra != 0:
+					t.Errorf("cylindrical shadow with penumbra fraction %g", rec.Headline.Penumbra)
+				}
+				if t.Failed() {
+					t.Log(string(f.YAML()))
 				}
 			})
 		}

@@ -7,6 +7,7 @@ import (
 	"io"
 	"math"
 	"path/filepath"
+	"strconv"
 	"strings"
 
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
@@ -93,11 +94,11 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintln(stdout, "\nrank  sensors  coverage  p95_deg  margin  set")
 	for i, c := range res.Alternatives {
-		fmt.Fprintf(stdout, "%4d  %7d  %8.4f  %7.3f  %6.3f  %s\n", i+1, len(c.Subset), c.Coverage, c.Score.P95Deg, c.Score.Margin, name(c))
+		fmt.Fprintf(stdout, "%4d  %7d  %8.4f  %7s  %6.3f  %s\n", i+1, len(c.Subset), c.Coverage, fixed(c.Score.P95Deg, 3), c.Score.Margin, name(c))
 	}
 	fmt.Fprintln(stdout, "\ntrade-off front (count vs coverage vs p95 error)")
 	for _, c := range res.Front {
-		fmt.Fprintf(stdout, "%7d  %8.4f  %7.3f  %-5v %s\n", len(c.Subset), c.Coverage, c.Score.P95Deg, c.Score.Meets, name(c))
+		fmt.Fprintf(stdout, "%7d  %8.4f  %7s  %-5v %s\n", len(c.Subset), c.Coverage, fixed(c.Score.P95Deg, 3), c.Score.Meets, name(c))
 	}
 	fmt.Fprintln(stdout, "\nanalysis aid: verify the chosen layout with a finer sky map and qualified flight analysis")
 	// No subset meeting the targets is a completed search whose answer is
@@ -149,4 +150,12 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "wrote %s\n", path)
 	return verdict
+}
+
+// fixed prints v with prec decimals, or the missing-value mark.
+func fixed(v float64, prec int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return study.Missing
+	}
+	return strconv.FormatFloat(v, 'f', prec, 64)
 }

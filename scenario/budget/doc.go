@@ -10,8 +10,8 @@
 //
 // A run is the scenario's Monte Carlo with each error source's stated 1σ
 // multiplied by a scale (0 = off): dark offset, gain mismatch, noise,
-// quantisation (on/off), misalignment, aperture offset (quadrant sensors),
-// digital-sensor accuracy and albedo (on/off). The figure of a run is, for
+// quantisation (on/off), misalignment, aperture offset and twist (quadrant
+// sensors), digital-sensor accuracy and albedo (on/off). The figure of a run is, for
 // the primary estimator over sunlit samples with a valid estimate, the mean
 // over units of each unit's p95 error (the p95 of a typical unit) and the
 // RMS pooled over units. The budget runs each source alone and all
@@ -24,7 +24,9 @@
 // their stated values, to 1 % of the bracket, then re-run at the returned
 // scale and at 1.1 × it. Every run draws the same standard-normal numbers
 // (common random numbers, seeded per unit by sim), so the figure is a
-// smooth function of the scale and the bisection converges.
+// smooth function of the scale and the bisection converges. A scale at
+// which some unit gives no valid sun vector at all (ErrNoValid: a quadrant
+// twisted or offset out of its linear range) counts as missing the target.
 //
 // # Assumptions
 //

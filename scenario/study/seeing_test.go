@@ -53,15 +53,19 @@ func TestDawnDuskSeeingIsRobustToRounding(t *testing.T) {
 	}
 	ref := run(r3.Rotation{})
 	t.Logf("seen by ≥1/2/3: %.4f %.4f %.4f", ref.SeenAtLeast[1], ref.SeenAtLeast[2], ref.SeenAtLeast[3])
+	worst := 0.0
+	defer func() { t.Logf("largest change of a share over six turns: %.4f points", 100*worst) }()
 	for _, axis := range []r3.Vec{{Y: 1}, {Z: 1}, {X: 1, Y: 1, Z: 1}} {
 		for _, a := range []float64{1e-9, -1e-9} {
 			u := run(r3.NewRotation(a, axis))
 			for k := 1; k <= 3; k++ {
+				worst = math.Max(worst, math.Abs(u.SeenAtLeast[k]-ref.SeenAtLeast[k]))
 				if d := math.Abs(u.SeenAtLeast[k] - ref.SeenAtLeast[k]); d > 1e-3 {
 					t.Errorf("turned %g rad about %v: seen by ≥ %d %.4f, unturned %.4f", a, axis, k, u.SeenAtLeast[k], ref.SeenAtLeast[k])
 				}
 			}
 			for i := range u.Sensors {
+				worst = math.Max(worst, math.Abs(u.Sensors[i].InViewFraction-ref.Sensors[i].InViewFraction))
 				if d := math.Abs(u.Sensors[i].InViewFraction - ref.Sensors[i].InViewFraction); d > 1e-3 {
 					t.Errorf("turned %g rad about %v: %s in view %.4f, unturned %.4f", a, axis, u.Sensors[i].Name, u.Sensors[i].InViewFraction, ref.Sensors[i].InViewFraction)
 				}

@@ -28,10 +28,11 @@
 //
 // # Accuracy
 //
-// Against Debian's python3-sgp4 (an implementation of the same published
-// code) over the paper's 33 verification element sets, every sample of
-// their test spans: worst 4 mm in position and 0.002 mm/s in velocity, and
-// the same failures (decay, eccentricity out of range) at the same times.
+// Against the paper's published verification output (tcppver.out, 666
+// states of its 33 element sets) and against Debian's python3-sgp4 (an
+// implementation of the same code) over every sample of the test spans:
+// worst 4 mm in position and 0.002 mm/s in velocity, and the same failures
+// (decay, eccentricity out of range) at the same times.
 // The model itself is good to about a kilometre at the element epoch,
 // growing by a few kilometres per day for LEO (Vallado et al. 2006 §I);
 // a TLE weeks old can be tens of kilometres off.

@@ -24,15 +24,6 @@ var sunModels = map[string]SunModelInfo{
 		New:    func() Sun { return LowPrecision{} }},
 }
 
-// SunModels lists the registered sun models, sorted by name.
-func SunModels() []SunModelInfo {
-	out := make([]SunModelInfo, 0, len(sunModels))
-	for _, n := range SunModelNames() {
-		out = append(out, sunModels[n])
-	}
-	return out
-}
-
 // SunModelNames returns the names SunByName accepts, sorted.
 func SunModelNames() []string {
 	names := make([]string, 0, len(sunModels))

@@ -1,7 +1,6 @@
 package illum
 
 import (
-	"fmt"
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -21,16 +20,6 @@ const (
 	// has no penumbra, so an eclipse's umbra times equal its shadow times.
 	Cylindrical
 )
-
-// String returns the model's name as the scenario file spells it.
-func (m ShadowModel) String() string {
-	for _, s := range shadows {
-		if s.Shadow == m {
-			return s.Name
-		}
-	}
-	return fmt.Sprintf("shadow(%d)", int(m))
-}
 
 // Eclipse is one passage through the Earth's shadow. Times are seconds
 // after the run's epoch. UmbraStart and UmbraEnd are NaN when the pass is

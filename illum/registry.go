@@ -22,9 +22,6 @@ var shadows = []ShadowInfo{
 		Source: "O. Montenbruck and E. Gill, Satellite Orbits, 2000, §3.4"},
 }
 
-// Shadows lists the registered shadow models.
-func Shadows() []ShadowInfo { return append([]ShadowInfo(nil), shadows...) }
-
 // ShadowNames lists the registered shadow model names.
 func ShadowNames() []string {
 	out := make([]string, len(shadows))

@@ -198,9 +198,6 @@ func (t *LocalTable) buildRow(m *Model, dst []Result, sensors []Sensor, i int) {
 // RadiusKm returns the orbit radius the table was built for.
 func (t *LocalTable) RadiusKm() float64 { return t.radiusKm }
 
-// Sensors returns the number of sensors in the table.
-func (t *LocalTable) Sensors() int { return t.sensors }
-
 // Irradiance writes into dst[i] the albedo seen by the table's sensor i for
 // the sun in direction sunLocal (local frame, +Z to nadir; need not be unit)
 // at distance sunDistKm. Result.Dir is in the local frame. It does not

@@ -216,16 +216,6 @@ func (k KindInfo) Param(key string) (Param, bool) {
 	return Param{}, false
 }
 
-// Offers reports whether the kind offers the named error source.
-func (k KindInfo) Offers(source string) (ErrorSource, bool) {
-	for _, s := range k.Sources {
-		if s.Name == source {
-			return s, true
-		}
-	}
-	return ErrorSource{}, false
-}
-
 // IsTwoAxis reports whether a sensor's kind measures a direction on its
 // own; an unregistered kind counts as a single-signal sensor.
 func IsTwoAxis(s Sensor) bool { return registry[s.Kind()].TwoAxis }

@@ -90,3 +90,13 @@ func TestCosineResponseTable(t *testing.T) {
 		t.Errorf("ideal cosine table %v: want none", inc)
 	}
 }
+
+// Every registered estimator answers to its registry name and states its
+// model and source.
+func TestEstimatorRegistryNames(t *testing.T) {
+	for _, e := range Estimators() {
+		if e.Estimator.Name() != e.Name || e.Model == "" || e.Source == "" {
+			t.Errorf("estimator entry %q: estimator says %q, model %q, source %q", e.Name, e.Estimator.Name(), e.Model, e.Source)
+		}
+	}
+}

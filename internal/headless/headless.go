@@ -158,13 +158,6 @@ func Eval[T any](b *Browser, expr string) (T, error) {
 	return chromedp.Run(ctx, chromedp.Evaluate[T](expr))
 }
 
-// Screenshot is a PNG of the whole page at the loaded width.
-func (b *Browser) Screenshot() ([]byte, error) {
-	ctx, cancel := b.timeout()
-	defer cancel()
-	return chromedp.Run(ctx, chromedp.FullScreenshot(100))
-}
-
 // Viewport is a PNG of the visible part of the page (the first screen).
 func (b *Browser) Viewport() ([]byte, error) {
 	ctx, cancel := b.timeout()

@@ -3,7 +3,7 @@
 // named Euler sequences (3-2-1, 3-1-3) and TRIAD.
 //
 // An attitude is an r3.Rotation A with A.Rotate(vECI) = v in body axes
-// (body ← ECI), as DEVELOPERS.md fixes. "a, then b" is Then(a, b).
+// (body ← ECI), as DEVELOPERS.md fixes.
 //
 // # Model
 //

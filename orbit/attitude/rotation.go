@@ -20,10 +20,6 @@ func then(a, b r3.Rotation) r3.Rotation {
 	return r3.Rotation(quat.Mul(quat.Number(b), quat.Number(a)))
 }
 
-// Then returns the rotation that applies a first and b second.
-// For frame changes: if a is B ← ECI and b is C ← B, Then(a, b) is C ← ECI.
-func Then(a, b r3.Rotation) r3.Rotation { return then(a, b) }
-
 // Inverse returns the inverse of a unit rotation (its conjugate).
 func Inverse(a r3.Rotation) r3.Rotation { return r3.Rotation(quat.Conj(quat.Number(a))) }
 

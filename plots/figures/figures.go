@@ -49,9 +49,6 @@ var catalogue = []Info{
 		From: "the run's gap list"},
 }
 
-// All lists the catalogue in report order.
-func All() []Info { return append([]Info(nil), catalogue...) }
-
 // Names lists the figure names in report order.
 func Names() []string {
 	out := make([]string, len(catalogue))

@@ -149,13 +149,6 @@ func (r *Runner) Sigma(src Source, scale float64) (float64, string) {
 	return v, ""
 }
 
-// Stated reports whether some sensor states a value for src (else scale 1
-// means the reference σ).
-func (r *Runner) Stated(src Source) bool { return r.stated[src] }
-
-// Units is the number of Monte Carlo units per run.
-func (r *Runner) Units() int { return r.units }
-
 // DurationS is the simulated span of each run; Shortened reports that it
 // is shorter than the scenario's.
 func (r *Runner) DurationS() float64 { return r.durationS }

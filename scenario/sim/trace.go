@@ -64,9 +64,6 @@ func NewTrace(ctx context.Context, cfg Config) (*Trace, error) {
 	return tr, nil
 }
 
-// Candidates is the number of sensors the trace was recorded for.
-func (tr *Trace) Candidates() int { return len(tr.sensors) }
-
 // Run scores the subset of candidates (indices into the trace's sensor
 // list) with the given estimators over units Monte Carlo units, as Run would
 // with only those sensors flown. The result's eclipses are the trace's.

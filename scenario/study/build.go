@@ -127,16 +127,6 @@ func NewPropagator(s *scenario.Scenario) (func() orbit.Propagator, error) {
 	return f, nil
 }
 
-// AttitudeLaw builds the scenario's attitude law.
-func AttitudeLaw(s *scenario.Scenario) (attitude.Law, error) {
-	return buildAttitude(s, s.Attitude, "attitude")
-}
-
-// ModeLaw builds the attitude law of a named mode.
-func ModeLaw(s *scenario.Scenario, m scenario.Mode) (attitude.Law, error) {
-	return buildAttitude(s, m.Attitude, "modes."+m.Name)
-}
-
 func buildAttitude(s *scenario.Scenario, a scenario.Attitude, path string) (attitude.Law, error) {
 	if a.Name == scenario.LawSchedule {
 		if a.InSunlight == nil || a.InEclipse == nil {

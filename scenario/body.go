@@ -672,6 +672,26 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 		}
 	}
 	out.SurviveOneFailure = t.SurviveOneFailure
+	if n := t.NMinus1; n != nil {
+		out.NMinus1.Set = true
+		if nSensors < 2 {
+			r.fail("targets.n_minus_1", "the single-failure study needs at least 2 sensors, the body has %d; add a sensor or remove the block", nSensors)
+		}
+		if n.MinValidFraction != nil {
+			out.NMinus1.MinValidFraction = *n.MinValidFraction
+			r.rangeCheck("targets.n_minus_1.min_valid_fraction", *n.MinValidFraction, 0, 1, true, "(0, 1]")
+		}
+		if n.MaxErrorP95Deg != nil {
+			r.rangeCheck("targets.n_minus_1.max_error_p95_deg", *n.MaxErrorP95Deg, 0, 180, true, "(0, 180] degrees")
+			out.NMinus1.MaxErrorP95Rad = *n.MaxErrorP95Deg * deg
+		}
+		if n.MaxGap != nil {
+			out.NMinus1.MaxGap = *n.MaxGap
+			if *n.MaxGap <= 0 {
+				r.fail("targets.n_minus_1.max_gap", "value %s is not positive; allowed a length of time > 0", *n.MaxGap)
+			}
+		}
+	}
 	return out
 }
 

@@ -144,12 +144,22 @@ type fileAlbedo struct {
 }
 
 type fileTargets struct {
-	MinValidFraction  *float64 `yaml:"min_valid_fraction,omitempty"`
-	MaxErrorP95Deg    *float64 `yaml:"max_error_p95_deg,omitempty"`
-	CoverageSensors   *int     `yaml:"coverage_sensors,omitempty"`
-	MinCoverage       *float64 `yaml:"min_coverage,omitempty"`
-	MaxGap            *Span    `yaml:"max_gap,omitempty"`
-	SurviveOneFailure bool     `yaml:"survive_one_failure"`
+	MinValidFraction  *float64     `yaml:"min_valid_fraction,omitempty"`
+	MaxErrorP95Deg    *float64     `yaml:"max_error_p95_deg,omitempty"`
+	CoverageSensors   *int         `yaml:"coverage_sensors,omitempty"`
+	MinCoverage       *float64     `yaml:"min_coverage,omitempty"`
+	MaxGap            *Span        `yaml:"max_gap,omitempty"`
+	SurviveOneFailure bool         `yaml:"survive_one_failure"`
+	NMinus1           *fileNMinus1 `yaml:"n_minus_1,omitempty"`
+}
+
+// fileNMinus1 asks for the single-failure study (each sensor failed in
+// turn, simulated over time) and states its targets, judged on the worst
+// single failure; an empty block runs the study without targets.
+type fileNMinus1 struct {
+	MinValidFraction *float64 `yaml:"min_valid_fraction,omitempty"`
+	MaxErrorP95Deg   *float64 `yaml:"max_error_p95_deg,omitempty"`
+	MaxGap           *Span    `yaml:"max_gap,omitempty"`
 }
 
 type fileValidity struct {

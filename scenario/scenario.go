@@ -248,6 +248,19 @@ type Targets struct {
 	MinCoverage       float64 // fraction of the sky seen by at least CoverageSensors sensors
 	MaxGap            Span    // longest sunlit interval without a valid sun vector
 	SurviveOneFailure bool    // targets must hold with any one sensor failed
+	// NMinus1 is the single-failure study and its targets (targets.n_minus_1).
+	NMinus1 NMinus1
+}
+
+// NMinus1 asks for the run to be simulated again with each sensor failed in
+// turn (Set) and states targets judged on the worst single failure: the
+// lowest valid share, the largest p95 error and the longest sunlit gap of
+// the primary estimator over the failed layouts (zero: no target).
+type NMinus1 struct {
+	Set              bool
+	MinValidFraction float64
+	MaxErrorP95Rad   float64
+	MaxGap           Span
 }
 
 // Validity says what counts as a trustworthy estimate: FalseSunBoundDeg is

@@ -204,6 +204,8 @@ type runRecord struct {
 	Targets       []study.TargetRecord `json:"targets"`
 	Verdict       verdictRecord        `json:"verdict"`
 	Modes         []modeRecord         `json:"modes,omitempty"`
+	// SingleFailure is the single-failure study (targets.n_minus_1).
+	SingleFailure *singleFailureRecord `json:"single_failure,omitempty"`
 	// Warnings are study.Warnings of the run (sun model span, TLE age, a
 	// run shorter than one orbit); TumbleDraws the drawn tumbles per unit.
 	Warnings    []string            `json:"warnings"`
@@ -333,6 +335,7 @@ func (o *runOutput) record() runRecord {
 	if len(o.modes) > 0 {
 		rec.Modes = o.modesJSON()
 	}
+	rec.SingleFailure = o.singleFailureJSON()
 	o.notesJSON(&rec)
 	return rec
 }
@@ -458,6 +461,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		}
 	}
 	o.writeModes(w)
+	o.writeSingleFailure(w)
 	if len(o.targets) > 0 {
 		fmt.Fprintf(w, "\nTargets: %s\n", study.Judge(o.allTargets()).Text())
 		for _, t := range o.targets {

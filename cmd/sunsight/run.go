@@ -182,6 +182,18 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	out := newRunOutput(s, &cfg, res, toolVersion())
 	printWarnings(stderr, out.warnings)
 	out.allUnits = f.allUnits
+	if s.Targets.NMinus1.Set {
+		sc := cfg
+		sc.Progress, sc.SeriesStride, sc.SunTrackPoints = nil, 0, 0
+		sf, err := study.RunSingleFailure(ctx, s, sc)
+		if err != nil {
+			if errors.Is(err, context.Canceled) {
+				return errors.New("interrupted: no output written")
+			}
+			return err
+		}
+		out.addSingleFailure(sf)
+	}
 	// Each mode runs on the same orbit, sensors and estimators, reported
 	// beside the primary attitude.
 	for _, m := range plan.Modes {

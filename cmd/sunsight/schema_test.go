@@ -110,6 +110,12 @@ func realRecords(t *testing.T) map[string][]byte {
 		}
 		out[filepath.Base(f)] = so.Bytes()
 	}
+	// The single-failure study (targets.n_minus_1) adds its own record.
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", writeSingleFailureFile(t), "--json", "--quiet"}, &so, &se); code != exitOK && code != exitTargetFailed {
+		t.Fatalf("single failure: exit %d: %s", code, se.String())
+	}
+	out["single-failure.yaml"] = so.Bytes()
 	return out
 }
 

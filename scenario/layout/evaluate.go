@@ -20,6 +20,9 @@ import (
 // sensor readings. A random attitude (tumble) uses the nominal draw for every
 // unit here.
 func Evaluator(ctx context.Context, s *scenario.Scenario) (EvaluateFunc, error) {
+	if s.Targets.NMinus1.Set {
+		return nil, fmt.Errorf("targets.n_minus_1: the layout search does not judge single failures; remove the block here and run the chosen layout with it")
+	}
 	atts := []scenario.Mode{{Name: "attitude", Attitude: s.Attitude}}
 	atts = append(atts, s.Modes...)
 	traces := make([]*sim.Trace, len(atts))

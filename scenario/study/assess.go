@@ -20,6 +20,18 @@ type Assessment struct {
 	CoverageErr error
 	Targets     []TargetCheck
 	Verdict     Verdict
+	// SingleFailure is the single-failure study (nil when the scenario asks
+	// for none); its n_minus_1 targets are in Targets.
+	SingleFailure *SingleFailure
+}
+
+// WithSingleFailure adds the single-failure study and its n_minus_1 targets
+// to the assessment and judges the verdict again.
+func (a Assessment) WithSingleFailure(s *scenario.Scenario, sf SingleFailure) Assessment {
+	a.SingleFailure = &sf
+	a.Targets = append(append([]TargetCheck(nil), a.Targets...), CheckSingleFailure(s, sf)...)
+	a.Verdict = Judge(a.Targets)
+	return a
 }
 
 // Assess computes the sky coverage of the run's sensors and judges the

@@ -22,6 +22,10 @@ const (
 	TargetCoverage          = "coverage"            // coverage_sensors + min_coverage
 	TargetCoverageOneFailed = "coverage-one-failed" // the same with survive_one_failure
 	TargetGap               = "gap"                 // max_gap
+	// The targets of n_minus_1, judged on the worst single failure.
+	TargetNMinus1Valid    = "n-minus-1-valid"     // n_minus_1.min_valid_fraction
+	TargetNMinus1ErrorP95 = "n-minus-1-error-p95" // n_minus_1.max_error_p95_deg
+	TargetNMinus1Gap      = "n-minus-1-gap"       // n_minus_1.max_gap
 )
 
 // TargetCheck is one requirement of the scenario's targets judged against a
@@ -138,6 +142,58 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 			Required: "≤ " + spanS(lim), Value: spanS(h.LongestGapS), Pass: h.LongestGapS <= lim,
 			Margin: (lim - h.LongestGapS) / lim,
 			Op:     OpAtMost, Limit: lim, Got: h.LongestGapS, Unit: UnitSeconds})
+	}
+	return out
+}
+
+// CheckSingleFailure judges the n_minus_1 targets on the single-failure
+// study: each on the worst row for its own figure (the lowest valid share,
+// the largest p95 error, the longest gap), naming the sensor whose failure
+// gives it. An undefined p95 (no valid estimate) fails its target.
+func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
+	t := s.Targets.NMinus1
+	if len(sf.Rows) == 0 {
+		return nil
+	}
+	est := sf.Rows[0].Headline.Estimator
+	pick := func(worse func(a, b FailedSensor) bool) FailedSensor {
+		w := sf.Rows[0]
+		for _, r := range sf.Rows[1:] {
+			if worse(r, w) {
+				w = r
+			}
+		}
+		return w
+	}
+	var out []TargetCheck
+	if t.MinValidFraction > 0 {
+		w := pick(func(a, b FailedSensor) bool { return a.Headline.ValidFraction < b.Headline.ValidFraction })
+		v := w.Headline.ValidFraction
+		out = append(out, TargetCheck{Key: TargetNMinus1Valid,
+			Label:    fmt.Sprintf("sunlit time with a valid sun vector, any one sensor failed (%s; worst: %s)", est, w.Sensor),
+			Required: fmt.Sprintf("≥ %.1f %%", 100*t.MinValidFraction), Value: fmt.Sprintf("%.1f %%", 100*v), Pass: v >= t.MinValidFraction,
+			Margin: v - t.MinValidFraction, Op: OpAtLeast, Limit: t.MinValidFraction, Got: v, Unit: UnitFraction})
+	}
+	if t.MaxErrorP95Rad > 0 {
+		w := pick(func(a, b FailedSensor) bool { return orInf(a.P95Deg()) > orInf(b.P95Deg()) })
+		lim := t.MaxErrorP95Rad * 180 / math.Pi
+		p95 := w.P95Deg()
+		c := TargetCheck{Key: TargetNMinus1ErrorP95,
+			Label:    fmt.Sprintf("p95 sun-vector error, any one sensor failed (%s; worst: %s)", est, w.Sensor),
+			Required: fmt.Sprintf("≤ %.2f°", lim), Value: Missing, Pass: p95 <= lim, Margin: math.Inf(-1),
+			Op: OpAtMost, Limit: lim, Got: p95, Unit: UnitDeg}
+		if !math.IsNaN(p95) {
+			c.Value, c.Margin = fmt.Sprintf("%.2f°", p95), (lim-p95)/lim
+		}
+		out = append(out, c)
+	}
+	if t.MaxGap > 0 {
+		w := pick(func(a, b FailedSensor) bool { return a.Headline.LongestGapS > b.Headline.LongestGapS })
+		lim, g := t.MaxGap.Seconds(), w.Headline.LongestGapS
+		out = append(out, TargetCheck{Key: TargetNMinus1Gap,
+			Label:    fmt.Sprintf("longest sunlit gap, any one sensor failed (%s; worst: %s)", est, w.Sensor),
+			Required: "≤ " + spanS(lim), Value: spanS(g), Pass: g <= lim, Margin: (lim - g) / lim,
+			Op: OpAtMost, Limit: lim, Got: g, Unit: UnitSeconds})
 	}
 	return out
 }

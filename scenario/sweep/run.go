@@ -50,6 +50,13 @@ func RunCase(ctx context.Context, s *scenario.Scenario, seed uint64) (Outcome, e
 	if a.CoverageErr != nil {
 		return Outcome{}, a.CoverageErr
 	}
+	if s.Targets.NMinus1.Set {
+		sf, err := study.RunSingleFailure(ctx, s, cfg)
+		if err != nil {
+			return Outcome{}, err
+		}
+		a = a.WithSingleFailure(s, sf)
+	}
 	return Outcome{Headline: a.Headline, Targets: a.Targets}, nil
 }
 

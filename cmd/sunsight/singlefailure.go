@@ -1,0 +1,68 @@
+package main
+
+import (
+	"fmt"
+	"io"
+
+	"codeberg.org/sunsight/sunsight/scenario/study"
+)
+
+// addSingleFailure adds the single-failure study (targets.n_minus_1) to the
+// output: its table, its JSON record and its targets, judged with the rest.
+func (o *runOutput) addSingleFailure(sf study.SingleFailure) {
+	o.assessed = o.assessed.WithSingleFailure(o.s, sf)
+	o.targets = o.assessed.Targets
+}
+
+// singleFailureRecord is the "single_failure" object of the JSON record.
+type singleFailureRecord struct {
+	Estimator   string               `json:"estimator"`
+	WorstSensor string               `json:"worst_sensor"`
+	Failed      []failedSensorRecord `json:"failed"`
+}
+
+type failedSensorRecord struct {
+	Sensor      string `json:"failed_sensor"`
+	Valid       num    `json:"valid_fraction"`
+	LongestGapS num    `json:"longest_gap_s"`
+	P95NoAlbedo num    `json:"p95_error_no_albedo_deg"`
+	P95Albedo   num    `json:"p95_error_albedo_deg"`
+}
+
+func (o *runOutput) singleFailureJSON() *singleFailureRecord {
+	sf := o.assessed.SingleFailure
+	if sf == nil || len(sf.Rows) == 0 {
+		return nil
+	}
+	r := &singleFailureRecord{Estimator: sf.Rows[0].Headline.Estimator, WorstSensor: sf.Rows[sf.Worst].Sensor, Failed: []failedSensorRecord{}}
+	for _, f := range sf.Rows {
+		h := f.Headline
+		r.Failed = append(r.Failed, failedSensorRecord{f.Sensor, num(h.ValidFraction), num(h.LongestGapS), num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg)})
+	}
+	return r
+}
+
+// writeSingleFailure prints the single-failure table: the unfailed run,
+// then each sensor failed in turn, the worst marked.
+func (o *runOutput) writeSingleFailure(w io.Writer) {
+	sf := o.assessed.SingleFailure
+	if sf == nil || len(sf.Rows) == 0 {
+		return
+	}
+	h := o.res.Headline()
+	fmt.Fprintf(w, "\nSingle failure over time (%s estimator, primary attitude; each sensor failed in turn)\n", h.Estimator)
+	fmt.Fprintf(w, "  %-20s %8s %9s %13s %11s\n", "failed sensor", "valid", "max gap", "p95 no albedo", "p95 albedo")
+	row := func(name string, v, gap, p0, p1 float64) {
+		fmt.Fprintf(w, "  %-20s %8s %7.0f s %13s %11s\n", name, pct(v), gap, deg(p0), deg(p1))
+	}
+	row("none", h.ValidFraction, h.LongestGapS, h.P95NoAlbedoDeg, h.P95AlbedoDeg)
+	for i, f := range sf.Rows {
+		name := f.Sensor
+		if i == sf.Worst {
+			name += " (worst)"
+		}
+		g := f.Headline
+		row(name, g.ValidFraction, g.LongestGapS, g.P95NoAlbedoDeg, g.P95AlbedoDeg)
+	}
+	fmt.Fprintf(w, "  (worst: lowest valid share, then largest p95, then longest gap; a failed sensor is removed from the layout)\n")
+}

@@ -1,0 +1,126 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// singleFailureFile is a demo scenario with the single-failure study: a
+// nadir-pointing cube of six cosine sensors with realistic errors.
+const singleFailureFile = `name: demo single failure
+duration: 2h
+step: 20s
+orbit: {altitude_km: 550, ltan: "10:30"}
+attitude: {law: nadir}
+estimators: [least-squares]
+albedo: {model: uniform, value: 0.3}
+body:
+  sensors:
+    - {name: css-px, kind: cosine, face: "+X", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
+    - {name: css-mx, kind: cosine, face: "-X", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
+    - {name: css-py, kind: cosine, face: "+Y", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
+    - {name: css-my, kind: cosine, face: "-Y", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
+    - {name: css-pz, kind: cosine, face: "+Z", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
+    - {name: css-mz, kind: cosine, face: "-Z", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
+targets:
+  n_minus_1: {min_valid_fraction: 0.99, max_error_p95_deg: 60, max_gap: 10h}
+`
+
+func writeSingleFailureFile(t *testing.T) string {
+	t.Helper()
+	p := filepath.Join(t.TempDir(), "single-failure.yaml")
+	if err := os.WriteFile(p, []byte(singleFailureFile), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+// targets.n_minus_1 runs the single-failure study: one row per sensor in
+// the summary and the JSON record, the worst named, its targets judged with
+// the others so the summary, the JSON verdict and the exit status agree (a
+// cube of six faces loses the directions its failed face saw: the valid
+// share target of 99 % fails).
+func TestSingleFailureInSummaryJSONAndExit(t *testing.T) {
+	p := writeSingleFailureFile(t)
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", p, "--quiet"}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("exit %d, want %d (n_minus_1 valid target missed): %s", code, exitTargetFailed, se.String())
+	}
+	sum := so.String()
+	for _, want := range []string{"Single failure over time", "css-mz", "(worst)", "FAIL sunlit time with a valid sun vector, any one sensor failed"} {
+		if !strings.Contains(sum, want) {
+			t.Errorf("summary lacks %q:\n%s", want, sum)
+		}
+	}
+	so.Reset()
+	if code := runMain([]string{"run", p, "--quiet", "--json"}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("--json exit %d, want %d", code, exitTargetFailed)
+	}
+	var rec struct {
+		SingleFailure struct {
+			Estimator   string `json:"estimator"`
+			WorstSensor string `json:"worst_sensor"`
+			Failed      []struct {
+				Sensor string   `json:"failed_sensor"`
+				Valid  *float64 `json:"valid_fraction"`
+			} `json:"failed"`
+		} `json:"single_failure"`
+		Targets []struct {
+			Key  string `json:"key"`
+			Pass bool   `json:"pass"`
+		} `json:"targets"`
+		Verdict struct {
+			Status string   `json:"status"`
+			Failed []string `json:"failed_targets"`
+		} `json:"verdict"`
+	}
+	if err := json.Unmarshal(so.Bytes(), &rec); err != nil {
+		t.Fatal(err)
+	}
+	sf := rec.SingleFailure
+	if sf.Estimator != "least-squares" || len(sf.Failed) != 6 || sf.WorstSensor == "" {
+		t.Fatalf("single_failure %+v: want least-squares, 6 rows, a worst sensor", sf)
+	}
+	worst := 2.0
+	for _, f := range sf.Failed {
+		if f.Valid != nil && *f.Valid < worst {
+			worst = *f.Valid
+		}
+	}
+	t.Logf("worst single failure %s: valid %.4f", sf.WorstSensor, worst)
+	keys := map[string]bool{}
+	for _, tg := range rec.Targets {
+		keys[tg.Key] = tg.Pass
+	}
+	if pass, ok := keys["n-minus-1-valid"]; !ok || pass {
+		t.Errorf("targets %+v: want n-minus-1-valid failed", rec.Targets)
+	}
+	if _, ok := keys["n-minus-1-error-p95"]; !ok {
+		t.Errorf("targets %+v: want n-minus-1-error-p95", rec.Targets)
+	}
+	if _, ok := keys["n-minus-1-gap"]; !ok {
+		t.Errorf("targets %+v: want n-minus-1-gap", rec.Targets)
+	}
+	if rec.Verdict.Status != "failed" || !strings.Contains(strings.Join(rec.Verdict.Failed, " "), "n-minus-1-valid") {
+		t.Errorf("verdict %+v: want failed naming n-minus-1-valid", rec.Verdict)
+	}
+}
+
+// Without targets.n_minus_1 there is no single-failure record.
+func TestNoSingleFailureWithoutTheKey(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "plain.yaml")
+	if err := os.WriteFile(p, []byte(singleFailureFile[:strings.Index(singleFailureFile, "targets:")]), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", p, "--quiet", "--json"}, &so, &se); code != exitOK {
+		t.Fatalf("exit %d: %s", code, se.String())
+	}
+	if strings.Contains(so.String(), "single_failure") {
+		t.Errorf("a run without targets.n_minus_1 writes a single_failure record")
+	}
+}

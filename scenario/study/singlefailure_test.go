@@ -1,0 +1,159 @@
+package study
+
+import (
+	"context"
+	"math"
+	"strings"
+	"testing"
+
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
+)
+
+// faces are the six cube faces of the single-failure layouts.
+var faces = []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"}
+
+// singleFailureScenario is a nadir-pointing cube of cosine sensors, one per
+// face, plus a twin (same mount, no errors) of each face in twinned; no
+// albedo, so every reading is exactly the cosine law and a duplicate sensor
+// adds no information.
+func singleFailureScenario(t *testing.T, twinned func(face string) bool, extra string) *scenario.Scenario {
+	t.Helper()
+	var b strings.Builder
+	b.WriteString("duration: 6h\nstep: 30s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n")
+	b.WriteString("estimators: [least-squares]\nalbedo: {model: none}\nbody:\n  sensors:\n")
+	for _, f := range faces {
+		b.WriteString("    - {name: \"css" + f + "\", kind: cosine, face: \"" + f + "\"}\n")
+		if twinned(f) {
+			b.WriteString("    - {name: \"twin" + f + "\", kind: cosine, face: \"" + f + "\"}\n")
+		}
+	}
+	b.WriteString(extra)
+	s, err := scenario.Parse([]byte(b.String()), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+func runSingleFailure(t *testing.T, s *scenario.Scenario) (sim.Headline, SingleFailure, Assessment) {
+	t.Helper()
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := sim.Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sf, err := RunSingleFailure(context.Background(), s, cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return res.Headline(), sf, Assess(s, cfg, res).WithSingleFailure(s, sf)
+}
+
+// Check (definition of redundancy): with a twin of every sensor on the same
+// mount and no errors, failing any one sensor leaves the same set of
+// directions measured by identical readings, so every failed layout gives
+// exactly the unfailed valid share and longest gap, and the unfailed p95
+// error to 1e-9°.
+func TestSingleFailureOfTwinnedLayoutChangesNothing(t *testing.T) {
+	s := singleFailureScenario(t, func(string) bool { return true }, "targets: {n_minus_1: {}}\n")
+	h, sf, _ := runSingleFailure(t, s)
+	if len(sf.Rows) != 12 {
+		t.Fatalf("%d rows, want one per sensor (12)", len(sf.Rows))
+	}
+	t.Logf("unfailed: valid %.6f, gap %.0f s, p95 %.3g°", h.ValidFraction, h.LongestGapS, h.P95NoAlbedoDeg)
+	if !(h.ValidFraction > 0.5) {
+		t.Fatalf("unfailed valid share %.3f: the check needs a layout that works", h.ValidFraction)
+	}
+	for _, r := range sf.Rows {
+		g := r.Headline
+		if g.ValidFraction != h.ValidFraction || g.LongestGapS != h.LongestGapS || math.Abs(g.P95NoAlbedoDeg-h.P95NoAlbedoDeg) > 1e-9 {
+			t.Errorf("%s failed: valid %.6f gap %.0f s p95 %.3g°, unfailed %.6f %.0f s %.3g°", r.Sensor,
+				g.ValidFraction, g.LongestGapS, g.P95NoAlbedoDeg, h.ValidFraction, h.LongestGapS, h.P95NoAlbedoDeg)
+		}
+	}
+}
+
+// Check (definition of a single point of failure): when only the +X face
+// lacks a twin, failing it leaves the directions where +X is lit with two
+// lit faces, too few for the least-squares fit; it is the worst failure, with
+// a lower valid share than the unfailed run, and every other failure changes
+// nothing. Its n_minus_1 target fails and names it, its verdict agrees.
+func TestSingleFailureNamesTheSensorWithoutTwin(t *testing.T) {
+	s := singleFailureScenario(t, func(f string) bool { return f != "+X" }, "targets: {n_minus_1: {min_valid_fraction: 0.999, max_gap: 1h}}\n")
+	h, sf, a := runSingleFailure(t, s)
+	w := sf.Rows[sf.Worst]
+	t.Logf("unfailed valid %.4f; worst %s failed: valid %.4f, gap %.0f s", h.ValidFraction, w.Sensor, w.Headline.ValidFraction, w.Headline.LongestGapS)
+	if w.Sensor != "css+X" {
+		t.Errorf("worst failure %s, want css+X", w.Sensor)
+	}
+	if !(w.Headline.ValidFraction < h.ValidFraction-0.01) {
+		t.Errorf("css+X failed: valid %.4f, want well below the unfailed %.4f", w.Headline.ValidFraction, h.ValidFraction)
+	}
+	for i, r := range sf.Rows {
+		if i != sf.Worst && r.Headline.ValidFraction != h.ValidFraction {
+			t.Errorf("%s failed: valid %.6f, want the unfailed %.6f (its twin remains)", r.Sensor, r.Headline.ValidFraction, h.ValidFraction)
+		}
+	}
+	c, ok := FindTarget(a.Targets, TargetNMinus1Valid)
+	if !ok || c.Pass || c.Got != w.Headline.ValidFraction || !strings.Contains(c.Label, "css+X") {
+		t.Errorf("n_minus_1 valid target %+v (found %v): want failed on %.4f naming css+X", c, ok, w.Headline.ValidFraction)
+	}
+	if g, ok := FindTarget(a.Targets, TargetNMinus1Gap); !ok || g.Got != w.Headline.LongestGapS {
+		t.Errorf("n_minus_1 gap target %+v (found %v): want the worst gap %.0f s", g, ok, w.Headline.LongestGapS)
+	}
+	if a.Verdict.Met() {
+		t.Errorf("verdict %q: want failed (the n_minus_1 valid target is missed)", a.Verdict.Text())
+	}
+}
+
+// The trace replay (shared geometry) gives the numbers of a full run of the
+// reduced sensor list, with realistic errors on (same seed, same draws of
+// the remaining sensors).
+func TestSingleFailureTraceMatchesFullRun(t *testing.T) {
+	s := singleFailureScenario(t, func(string) bool { return false }, "targets: {n_minus_1: {}}\n")
+	for i := range s.Body.Sensors {
+		s.Body.Sensors[i].Errors = scenario.SensorErrors{DarkOffset1Sigma: 0.005, Gain1Sigma: 0.02, Noise1Sigma: 0.003, MisalignmentRad1Sigma: 0.01}
+	}
+	s.Albedo = scenario.Albedo{Model: scenario.AlbedoUniform, Value: 0.3, Cells: 200}
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Units = 2
+	sf, err := RunSingleFailure(context.Background(), s, cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, i := range []int{0, 4} {
+		res, err := runWithout(context.Background(), s, cfg, i)
+		if err != nil {
+			t.Fatal(err)
+		}
+		got, want := sf.Rows[i].Headline, res.Headline()
+		t.Logf("%s failed: trace valid %.6f p95 %.4f°, full run %.6f %.4f°", sf.Rows[i].Sensor, got.ValidFraction, got.P95AlbedoDeg, want.ValidFraction, want.P95AlbedoDeg)
+		if got.ValidFraction != want.ValidFraction || got.LongestGapS != want.LongestGapS || math.Abs(got.P95AlbedoDeg-want.P95AlbedoDeg) > 1e-9 {
+			t.Errorf("%s failed: trace %+v, full run %+v", sf.Rows[i].Sensor, got, want)
+		}
+	}
+}
+
+// A single-failure study the layout cannot have, or a target out of range,
+// is refused naming the field.
+func TestSingleFailureBadInputRefused(t *testing.T) {
+	base := "orbit: {altitude_km: 550, ltan: \"10:30\"}\nbody:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\"}\n"
+	for _, c := range []struct{ text, field string }{
+		{base + "targets: {n_minus_1: {}}\n", "targets.n_minus_1"},
+		{base + "    - {name: b, kind: cosine, face: \"-X\"}\ntargets: {n_minus_1: {min_valid_fraction: 1.5}}\n", "targets.n_minus_1.min_valid_fraction"},
+		{base + "    - {name: b, kind: cosine, face: \"-X\"}\ntargets: {n_minus_1: {max_gap: -5m}}\n", "targets.n_minus_1.max_gap"},
+		{base + "    - {name: b, kind: cosine, face: \"-X\"}\ntargets: {n_minus_1: {max_error: 3}}\n", "max_error"},
+	} {
+		_, err := scenario.Parse([]byte(c.text), "")
+		if err == nil || !strings.Contains(err.Error(), c.field) {
+			t.Errorf("%q: error %v, want one naming %s", c.text, err, c.field)
+		}
+	}
+}

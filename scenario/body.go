@@ -574,22 +574,12 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 	return out
 }
 
-// defaultGates are the estimators' validity gates when the file sets none
-// (the engine's sensor.DefaultGate, repeated here because this package
-// imports no engine; a test keeps them equal): each estimator's own minimum
-// of sensors, half of full sun summed over a cosine fit's sensors (a 1 AU
-// sun on a box's lit faces sums to ≥ 1, albedo alone to ≲ 0.5), no residual
-// limit (common practice, no source).
-var defaultGates = map[string]Gate{
-	"least-squares":  {MinSensors: 3, MinTotalSignal: 0.5},
-	"opposite-pairs": {MinSensors: 6, MinTotalSignal: 0.5},
-	"two-axis":       {MinSensors: 1},
-	"combined":       {MinSensors: 1},
-}
-
 // DefaultGate returns the validity gate of an estimator when the file sets
-// none.
-func DefaultGate(estimator string) Gate { return defaultGates[estimator] }
+// none: the estimator registry's own (sensor.DefaultGate).
+func DefaultGate(estimator string) Gate {
+	g := sensor.DefaultGate(estimator)
+	return Gate{MinSensors: g.MinSensors, MinTotalSignal: g.MinSignal, MaxResidual: g.MaxResidual}
+}
 
 func (r *resolver) validity(v *fileValidity, ests []string) Validity {
 	out := Validity{FalseSunBoundDeg: setDefault(&v.FalseSunBoundDeg, defaultFalseSunBoundDeg), Gates: map[string]Gate{}}
@@ -609,7 +599,7 @@ func (r *resolver) validity(v *fileValidity, ests []string) Validity {
 	for _, name := range ests {
 		p := "validity.gates." + name
 		fg := v.Gates[name]
-		d := defaultGates[name]
+		d := DefaultGate(name)
 		if fg.MinSensors == nil {
 			n := d.MinSensors
 			fg.MinSensors = &n

@@ -152,7 +152,11 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	if f.maxMemMiB < 1 {
 		return usagef("--max-memory-mib %d: want a positive number of MiB", f.maxMemMiB)
 	}
-	if est := estimateMemoryMiB(cfg); est > float64(f.maxMemMiB) {
+	est := estimateMemoryMiB(cfg)
+	if s.Targets.NMinus1.Set {
+		est += float64(study.SingleFailureTraceBytes(&cfg)) / (1 << 20)
+	}
+	if est > float64(f.maxMemMiB) {
 		return usagef("the run would need about %.0f MiB (%d units × %d steps, series of %d rows), more than --max-memory-mib %d; lower --units, --duration or the step, thin the series with output.decimate, or raise --max-memory-mib",
 			est, cfg.Units, cfg.Steps(), seriesRows(cfg), f.maxMemMiB)
 	}

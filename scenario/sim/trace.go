@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math/rand/v2"
+	"unsafe"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
@@ -62,6 +63,16 @@ func NewTrace(ctx context.Context, cfg Config) (*Trace, error) {
 		tr.geom[k] = g.step(k, alb)
 	}
 	return tr, nil
+}
+
+// TraceBytes is the memory NewTrace(cfg) keeps: every step's geometry and,
+// with an albedo model, each candidate's albedo.
+func TraceBytes(cfg *Config) int64 {
+	per := int64(unsafe.Sizeof(stepGeom{}))
+	if cfg.NewAlbedo != nil && cfg.Array != nil {
+		per += int64(cfg.Array.Len()) * int64(unsafe.Sizeof(sensor.Albedo{}))
+	}
+	return int64(cfg.Steps()) * per
 }
 
 // Run scores the subset of candidates (indices into the trace's sensor

@@ -29,12 +29,29 @@ type SingleFailure struct {
 	Worst int
 }
 
+// maxTraceBytes bounds the recorded geometry of the single-failure study;
+// a longer run replays no trace but runs each failed layout in full.
+const maxTraceBytes = 256 << 20
+
+// SingleFailureTraceBytes is the memory RunSingleFailure keeps beside the
+// run (the recorded geometry; 0 when each failed layout is run in full).
+func SingleFailureTraceBytes(base *sim.Config) int64 {
+	if base.LawForUnit != nil {
+		return 0
+	}
+	if b := sim.TraceBytes(base); b <= maxTraceBytes {
+		return b
+	}
+	return 0
+}
+
 // RunSingleFailure simulates the scenario's primary attitude once per
 // sensor with that sensor failed, as base (the primary configuration, with
 // its units and workers) would run. Without a per-unit attitude draw the
 // geometry is recorded once (sim.Trace) and each failed layout costs only
 // its sensor readings; a tumble redraws the attitude per unit, so each
-// failed layout is then a full run of the reduced sensor list.
+// failed layout is then a full run of the reduced sensor list, as it is when
+// the geometry would take more than maxTraceBytes.
 func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config) (SingleFailure, error) {
 	sensors := s.Body.Sensors
 	if len(sensors) < 2 {
@@ -42,7 +59,7 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 	}
 	var sf SingleFailure
 	var tr *sim.Trace
-	if base.LawForUnit == nil {
+	if SingleFailureTraceBytes(&base) > 0 {
 		var err error
 		if tr, err = sim.NewTrace(ctx, base); err != nil {
 			return sf, fmt.Errorf("single-failure study: %w", err)

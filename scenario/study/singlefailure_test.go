@@ -18,9 +18,13 @@ var faces = []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"}
 // albedo, so every reading is exactly the cosine law and a duplicate sensor
 // adds no information.
 func singleFailureScenario(t *testing.T, twinned func(face string) bool, extra string) *scenario.Scenario {
+	return singleFailureScenarioIn(t, "{law: nadir}", twinned, extra)
+}
+
+func singleFailureScenarioIn(t *testing.T, attitude string, twinned func(face string) bool, extra string) *scenario.Scenario {
 	t.Helper()
 	var b strings.Builder
-	b.WriteString("duration: 6h\nstep: 30s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n")
+	b.WriteString("duration: 6h\nstep: 30s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: " + attitude + "\n")
 	b.WriteString("estimators: [least-squares]\nalbedo: {model: none}\nbody:\n  sensors:\n")
 	for _, f := range faces {
 		b.WriteString("    - {name: \"css" + f + "\", kind: cosine, face: \"" + f + "\"}\n")
@@ -154,6 +158,27 @@ func TestSingleFailureBadInputRefused(t *testing.T) {
 		_, err := scenario.Parse([]byte(c.text), "")
 		if err == nil || !strings.Contains(err.Error(), c.field) {
 			t.Errorf("%q: error %v, want one naming %s", c.text, err, c.field)
+		}
+	}
+}
+
+// A tumble draws its attitude per unit, so no trace is recorded: each failed
+// layout is a full run, and the twinned layout still gives the unfailed
+// numbers with any one sensor failed (definition of redundancy).
+func TestSingleFailureOfTumbleRunsInFull(t *testing.T) {
+	s := singleFailureScenarioIn(t, "{law: tumble, min_rate_deg_s: 1, max_rate_deg_s: 3}", func(string) bool { return true }, "targets: {n_minus_1: {}}\n")
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if cfg.LawForUnit == nil || SingleFailureTraceBytes(&cfg) != 0 {
+		t.Fatalf("a tumble: want a law per unit and no trace (trace bytes %d)", SingleFailureTraceBytes(&cfg))
+	}
+	h, sf, _ := runSingleFailure(t, s)
+	t.Logf("tumble unfailed: valid %.4f gap %.0f s", h.ValidFraction, h.LongestGapS)
+	for _, r := range sf.Rows {
+		if r.Headline.ValidFraction != h.ValidFraction || r.Headline.LongestGapS != h.LongestGapS {
+			t.Errorf("%s failed: valid %.6f gap %.0f s, unfailed %.6f %.0f s", r.Sensor, r.Headline.ValidFraction, r.Headline.LongestGapS, h.ValidFraction, h.LongestGapS)
 		}
 	}
 }

@@ -1,0 +1,49 @@
+// Package power computes the electrical power of body-fixed solar panels
+// from the same geometry the sun sensors see: the sun direction in body
+// axes, the direct solar irradiance at the spacecraft (already scaled by
+// the lit fraction of the solar disc from the shadow model) and, per panel,
+// whether the body hides the sun from it.
+//
+// # Model
+//
+// Each panel i is a flat plate with outward unit normal n̂ᵢ (body axes),
+// area Aᵢ (m²), cell efficiency ηᵢ and packing factor fᵢ (share of the
+// panel area covered by cells). With the sun unit vector ŝ in body axes and
+// the direct irradiance E = S(r)·ν, S(r) = S₀·(1 AU / r)², S₀ = 1361 W/m²
+// (ephem.SolarIrradiance1AU, Kopp & Lean 2011, GRL 38 L01706) and ν the lit
+// fraction of the solar disc, the instantaneous power is
+//
+//	P = Σᵢ E·Aᵢ·ηᵢ·fᵢ·max(0, n̂ᵢ·ŝ)·[sun not hidden from panel i]
+//
+// (Wertz & Larson, Space Mission Analysis and Design, 3rd ed., 1999,
+// §11.4, the cosine law of a flat array, from memory).
+//
+// # Assumptions
+//
+//   - Cells at a fixed efficiency: no temperature coefficient, no
+//     degradation, no angle-of-incidence loss beyond cos θ (cover-glass
+//     reflection), no string or converter losses. A temperature
+//     coefficient is not accepted as an input.
+//   - Earth albedo and Earth infrared on the panels are not counted (a
+//     lower bound on the power for panels that face the Earth).
+//   - Obstruction by the bus and the declared obstructions is judged at the
+//     panel's centre: a panel is wholly lit or wholly shaded (no partial
+//     shading of a panel, no panel shading another unless declared as an
+//     obstruction).
+//
+// # Accuracy
+//
+// Exact for the stated model (closed form); the orbit figures are sums on
+// the run's time grid (rectangle rule), whose error is of the order of one
+// step's share of an eclipse edge.
+//
+// # References
+//
+//   - G. Kopp and J. L. Lean, "A new, lower value of total solar
+//     irradiance", Geophys. Res. Lett. 38, L01706 (2011): S₀ = 1360.8 W/m².
+//   - A. Cauchy's surface-area formula: the projected area of a convex body
+//     averaged over all directions is a quarter of its surface area (used
+//     as a check, TestCauchyMeanProjectedArea).
+//   - J. R. Wertz and W. J. Larson (eds.), Space Mission Analysis and
+//     Design, 3rd ed., Microcosm 1999, ch. 11.4 (from memory).
+package power

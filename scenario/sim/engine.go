@@ -16,6 +16,7 @@ import (
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/illum/power"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
@@ -99,6 +100,10 @@ type Config struct {
 	// series; SunTrackPoints bounds the body-frame sun track kept for unit 0.
 	SeriesStride   int
 	SunTrackPoints int
+
+	// Panels, when set, are the solar panels whose power is followed over
+	// the run with the nominal attitude (Result.Power).
+	Panels *power.Array
 
 	// Progress, when not nil, is called from the unit-0 loop with the
 	// fraction done; it must be cheap.
@@ -204,6 +209,16 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 		res.Eclipses, res.EclipseStats = eclipses(&cfg)
 		close(eclDone)
 	}()
+	powDone := make(chan error, 1)
+	if cfg.Panels != nil {
+		go func() {
+			var err error
+			res.Power, err = powerPass(ctx, &cfg)
+			powDone <- err
+		}()
+	} else {
+		powDone <- nil
+	}
 
 	sets := 1 // geometries computed per step
 	if cfg.LawForUnit != nil {
@@ -274,11 +289,15 @@ feed:
 	close(next)
 	wg.Wait()
 	<-eclDone
+	powErr := <-powDone
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
 	if firstErr != nil {
 		return nil, firstErr
+	}
+	if powErr != nil {
+		return nil, powErr
 	}
 	unitRes := make([]*UnitResult, units)
 	for u := range units {

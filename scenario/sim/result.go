@@ -8,6 +8,7 @@ import (
 	"gonum.org/v1/gonum/stat"
 
 	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/power"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
@@ -29,6 +30,9 @@ type Result struct {
 	// albedo: the LVLH table for nadir pointing on a circular orbit, else
 	// the boresight tables) rather than the cell integral at every step.
 	AlbedoTable bool
+	// Power is the solar-array power over the run (nominal attitude); nil
+	// without panels.
+	Power *power.Summary
 
 	albedoBoresight bool // the table is the boresight one (tests)
 }

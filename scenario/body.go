@@ -31,6 +31,7 @@ func (r *resolver) body(b *fileBody) Body {
 	out.FormFactor, out.SizeM = r.outline(b)
 	r.half = r3.Scale(0.5, out.SizeM)
 	r.obstructed = len(b.Obstructions) > 0
+	r.hasPanels = len(b.Panels) > 0
 	if len(b.Sensors) == 0 {
 		r.fail("body.sensors", "value is an empty list; allowed at least one sensor")
 	}
@@ -52,6 +53,7 @@ func (r *resolver) body(b *fileBody) Body {
 		out.Layouts = append(out.Layouts, Layout{Name: l.Name, Sensors: r.sensors(p+".sensors", l.Sensors)})
 	}
 	out.Candidates = r.sensors("body.candidates", b.Candidates)
+	out.Panels = r.panels(b.Panels)
 	return out
 }
 
@@ -680,6 +682,15 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 			if *n.MaxGap <= 0 {
 				r.fail("targets.n_minus_1.max_gap", "value %s is not positive; allowed a length of time > 0", *n.MaxGap)
 			}
+		}
+	}
+	if t.MinOrbitAvgPowerW != nil {
+		out.MinOrbitAvgPowerW = *t.MinOrbitAvgPowerW
+		if !(out.MinOrbitAvgPowerW > 0) || math.IsInf(out.MinOrbitAvgPowerW, 0) {
+			r.fail("targets.min_orbit_average_power_w", "value %g is not positive; allowed a power > 0 W", out.MinOrbitAvgPowerW)
+		}
+		if !r.hasPanels {
+			r.fail("targets.min_orbit_average_power_w", "value is set but body.panels is empty; allowed only with solar panels listed under body.panels")
 		}
 	}
 	return out

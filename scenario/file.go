@@ -134,6 +134,7 @@ type fileBody struct {
 	Obstructions []fileObstruction `yaml:"obstructions,omitempty"`
 	Layouts      []fileLayout      `yaml:"layouts,omitempty"`
 	Candidates   []fileSensor      `yaml:"candidates,omitempty"`
+	Panels       []filePanel       `yaml:"panels,omitempty"`
 }
 
 type fileAlbedo struct {
@@ -151,6 +152,7 @@ type fileTargets struct {
 	MaxGap            *Span        `yaml:"max_gap,omitempty"`
 	SurviveOneFailure bool         `yaml:"survive_one_failure"`
 	NMinus1           *fileNMinus1 `yaml:"n_minus_1,omitempty"`
+	MinOrbitAvgPowerW *float64     `yaml:"min_orbit_average_power_w,omitempty"`
 }
 
 // fileNMinus1 asks for the single-failure study (each sensor failed in

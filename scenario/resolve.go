@@ -66,6 +66,7 @@ type resolver struct {
 	// sensors are resolved, which are placed on the outline.
 	half       r3.Vec
 	obstructed bool
+	hasPanels  bool // body.panels lists at least one panel
 }
 
 // fail records a problem at path, taking the line from the nearest key of the

@@ -221,6 +221,9 @@ type Body struct {
 	Obstructions []Obstruction
 	Layouts      []Layout
 	Candidates   []Sensor
+	// Panels are the solar panels whose power the run follows (none: no
+	// power figures).
+	Panels []Panel
 }
 
 // Albedo models.
@@ -249,7 +252,8 @@ type Targets struct {
 	MaxGap            Span    // longest sunlit interval without a valid sun vector
 	SurviveOneFailure bool    // targets must hold with any one sensor failed
 	// NMinus1 is the single-failure study and its targets (targets.n_minus_1).
-	NMinus1 NMinus1
+	NMinus1           NMinus1
+	MinOrbitAvgPowerW float64 // orbit-average solar-array power (W), needs body.panels
 }
 
 // NMinus1 asks for the run to be simulated again with each sensor failed in

@@ -201,6 +201,7 @@ type runRecord struct {
 	Units         []jsonUnit           `json:"units"`
 	AcrossUnits   []acrossRecord       `json:"across_units"`
 	SkyCoverage   *skyRecord           `json:"sky_coverage,omitempty"`
+	Power         *powerRecord         `json:"power,omitempty"`
 	Targets       []study.TargetRecord `json:"targets"`
 	Verdict       verdictRecord        `json:"verdict"`
 	Modes         []modeRecord         `json:"modes,omitempty"`
@@ -274,6 +275,17 @@ type skyRecord struct {
 	OneFailed3 num `json:"sky_seen_by_3_one_failed_fraction"`
 }
 
+// powerRecord is the solar-array power over the run (nominal attitude).
+type powerRecord struct {
+	MeanW           num `json:"orbit_average_power_w"`
+	PeakW           num `json:"peak_power_w"`
+	Orbits          int `json:"whole_orbits"`
+	OrbitMeanWh     num `json:"energy_per_orbit_mean_wh"`
+	OrbitWorstWh    num `json:"energy_per_orbit_worst_wh"`
+	LongestNoPowerS num `json:"longest_no_power_s"`
+	GapEnergyWh     num `json:"eclipse_energy_gap_wh"`
+}
+
 type verdictRecord struct {
 	Status        string   `json:"status"`
 	Targets       int      `json:"targets"`
@@ -331,6 +343,10 @@ func (o *runOutput) record() runRecord {
 		c := o.cov
 		rec.SkyCoverage = &skyRecord{c.Points, num(c.AtLeast[1]), num(c.AtLeast[2]), num(c.AtLeast[3]),
 			num(c.WorstOneFailed[1]), num(c.WorstOneFailed[2]), num(c.WorstOneFailed[3])}
+	}
+	if p := r.Power; p != nil {
+		rec.Power = &powerRecord{num(p.MeanW), num(p.PeakW), p.Orbits, num(p.OrbitMeanWh), num(p.OrbitWorstWh),
+			num(p.LongestNoPowerS), num(p.GapEnergyWh)}
 	}
 	if len(o.modes) > 0 {
 		rec.Modes = o.modesJSON()
@@ -460,6 +476,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 			fmt.Fprintf(w, "  %s: %s\n", q.Name(), sensor.ViewText(q))
 		}
 	}
+	o.writePower(w)
 	o.writeModes(w)
 	o.writeSingleFailure(w)
 	if len(o.targets) > 0 {
@@ -601,4 +618,25 @@ func (o *runOutput) writeCSV(dir string) error {
 		return err
 	}
 	return atomicfile.Write(filepath.Join(dir, "run.json"), b)
+}
+
+// writePower prints the solar-array power section (nothing without panels).
+func (o *runOutput) writePower(w io.Writer) {
+	p := o.res.Power
+	if p == nil {
+		return
+	}
+	var area float64
+	for _, pn := range o.s.Body.Panels {
+		area += pn.AreaM2
+	}
+	fmt.Fprintf(w, "\nSolar-array power (%d panels, %.4g m², %s attitude; no albedo on the panels)\n", len(o.s.Body.Panels), area, o.s.Attitude.Name)
+	fmt.Fprintf(w, "  orbit average %.2f W   peak %.2f W\n", p.MeanW, p.PeakW)
+	if p.Orbits > 0 {
+		fmt.Fprintf(w, "  energy per orbit: mean %.2f Wh, worst %.2f Wh (%d whole orbits)\n", p.OrbitMeanWh, p.OrbitWorstWh, p.Orbits)
+	} else {
+		fmt.Fprintf(w, "  energy per orbit: %s (the run holds no whole orbit)\n", study.Missing)
+	}
+	fmt.Fprintf(w, "  longest span without power %.1f min; a constant load of the orbit average draws %.2f Wh from the battery across it\n",
+		p.LongestNoPowerS/60, p.GapEnergyWh)
 }

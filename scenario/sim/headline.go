@@ -29,6 +29,9 @@ type Headline struct {
 	// UnitsP95Deg is the p95 error reached by 95 % of Monte Carlo units
 	// (NaN with a single unit).
 	UnitsP95Deg float64 `json:"units_p95_error_deg"`
+	// OrbitAvgPowerW is the time-average solar-array power over the run
+	// (nominal attitude; NaN without panels).
+	OrbitAvgPowerW float64 `json:"orbit_average_power_w"`
 }
 
 // Headline returns the run's headline figures.
@@ -39,7 +42,10 @@ func (r *Result) Headline() Headline {
 		Eclipses: r.EclipseStats.Count, EclipseMeanMin: r.EclipseStats.MeanS / 60, EclipseMaxMin: r.EclipseStats.MaxS / 60,
 		BetaMinDeg: u.BetaMinDeg, BetaMaxDeg: u.BetaMaxDeg,
 		Seen1: u.SeenAtLeast[1], Seen2: u.SeenAtLeast[2], Seen3: u.SeenAtLeast[3],
-		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction,
+		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction, OrbitAvgPowerW: math.NaN(),
+	}
+	if r.Power != nil {
+		h.OrbitAvgPowerW = r.Power.MeanW
 	}
 	if r.EclipseStats.Count == 0 {
 		h.EclipseMeanMin, h.EclipseMaxMin = 0, 0

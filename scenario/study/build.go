@@ -500,6 +500,10 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	if err != nil {
 		return cfg, err
 	}
+	panels, err := Panels(s)
+	if err != nil {
+		return cfg, err
+	}
 	// The mounting plane and the obstacles cut each sensor's direct sunlight
 	// and albedo in the time domain as they cut its view of the sky.
 	var blocked []func(r3.Vec) bool
@@ -513,6 +517,7 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), FalseSunBoundDeg: s.Validity.FalseSunBoundDeg, Gates: Gates(s, ests),
 		MountNormals: mountNormals(sensors),
+		Panels:       panels,
 	}
 	return cfg, cfg.Validate()
 }

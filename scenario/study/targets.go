@@ -22,6 +22,7 @@ const (
 	TargetCoverage          = "coverage"            // coverage_sensors + min_coverage
 	TargetCoverageOneFailed = "coverage-one-failed" // the same with survive_one_failure
 	TargetGap               = "gap"                 // max_gap
+	TargetPower             = "orbit-average-power" // min_orbit_average_power_w
 	// The targets of n_minus_1, judged on the worst single failure.
 	TargetNMinus1Valid    = "n-minus-1-valid"     // n_minus_1.min_valid_fraction
 	TargetNMinus1ErrorP95 = "n-minus-1-error-p95" // n_minus_1.max_error_p95_deg
@@ -40,7 +41,7 @@ type TargetCheck struct {
 	Pass     bool
 	Margin   float64
 	// The same in numbers: Got Op Limit (Op ">=" or "<="), both in Unit
-	// ("fraction", "deg" or "s"); Got is NaN when the figure is undefined.
+	// ("fraction", "deg", "s" or "W"); Got is NaN when the figure is undefined.
 	Op         string
 	Limit, Got float64
 	Unit       string
@@ -51,6 +52,7 @@ const (
 	UnitFraction = "fraction"
 	UnitDeg      = "deg"
 	UnitSeconds  = "s"
+	UnitWatts    = "W"
 )
 
 // TargetRecord is a judged target as every machine-readable output writes
@@ -142,6 +144,15 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 			Required: "≤ " + spanS(lim), Value: spanS(h.LongestGapS), Pass: h.LongestGapS <= lim,
 			Margin: (lim - h.LongestGapS) / lim,
 			Op:     OpAtMost, Limit: lim, Got: h.LongestGapS, Unit: UnitSeconds})
+	}
+	if lim := t.MinOrbitAvgPowerW; lim > 0 {
+		got := h.OrbitAvgPowerW
+		c := TargetCheck{Key: TargetPower, Label: "orbit-average solar-array power", Required: fmt.Sprintf("≥ %.2f W", lim),
+			Value: Missing, Pass: got >= lim, Margin: math.Inf(-1), Op: OpAtLeast, Limit: lim, Got: got, Unit: UnitWatts}
+		if !math.IsNaN(got) {
+			c.Value, c.Margin = fmt.Sprintf("%.2f W", got), (got-lim)/lim
+		}
+		out = append(out, c)
 	}
 	return out
 }

@@ -673,6 +673,10 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 			out.NMinus1.MinValidFraction = *n.MinValidFraction
 			r.rangeCheck("targets.n_minus_1.min_valid_fraction", *n.MinValidFraction, 0, 1, true, "(0, 1]")
 		}
+		out.NMinus1.Pairs = n.AlsoPairs
+		if n.AlsoPairs && nSensors < 3 {
+			r.fail("targets.n_minus_1.also_pairs", "failing pairs needs at least 3 sensors, the body has %d; remove also_pairs", nSensors)
+		}
 		if n.MaxErrorP95Deg != nil {
 			r.rangeCheck("targets.n_minus_1.max_error_p95_deg", *n.MaxErrorP95Deg, 0, 180, true, "(0, 180] degrees")
 			out.NMinus1.MaxErrorP95Rad = *n.MaxErrorP95Deg * deg

@@ -162,6 +162,7 @@ type fileNMinus1 struct {
 	MinValidFraction *float64 `yaml:"min_valid_fraction,omitempty"`
 	MaxErrorP95Deg   *float64 `yaml:"max_error_p95_deg,omitempty"`
 	MaxGap           *Span    `yaml:"max_gap,omitempty"`
+	AlsoPairs        bool     `yaml:"also_pairs"`
 }
 
 type fileValidity struct {

@@ -265,6 +265,9 @@ type NMinus1 struct {
 	MinValidFraction float64
 	MaxErrorP95Rad   float64
 	MaxGap           Span
+	// Pairs runs every pair of sensors failed together too (reported, not
+	// judged: the targets are single-failure targets).
+	Pairs bool
 }
 
 // Validity says what counts as a trustworthy estimate: FalseSunBoundDeg is

@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"sort"
 
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
@@ -19,6 +20,17 @@ type singleFailureRecord struct {
 	Estimator   string               `json:"estimator"`
 	WorstSensor string               `json:"worst_sensor"`
 	Failed      []failedSensorRecord `json:"failed"`
+	// WorstPair and FailedPairs are set with n_minus_1.also_pairs.
+	WorstPair   []string           `json:"worst_pair,omitempty"`
+	FailedPairs []failedPairRecord `json:"failed_pairs,omitempty"`
+}
+
+type failedPairRecord struct {
+	Sensors     []string `json:"failed_sensors"`
+	Valid       num      `json:"valid_fraction"`
+	LongestGapS num      `json:"longest_gap_s"`
+	P95NoAlbedo num      `json:"p95_error_no_albedo_deg"`
+	P95Albedo   num      `json:"p95_error_albedo_deg"`
 }
 
 type failedSensorRecord struct {
@@ -39,6 +51,13 @@ func (o *runOutput) singleFailureJSON() *singleFailureRecord {
 		h := f.Headline
 		r.Failed = append(r.Failed, failedSensorRecord{f.Sensor, num(h.ValidFraction), num(h.LongestGapS), num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg)})
 	}
+	if sf.WorstPair >= 0 {
+		r.WorstPair = sf.Pairs[sf.WorstPair].Failed
+		for _, f := range sf.Pairs {
+			h := f.Headline
+			r.FailedPairs = append(r.FailedPairs, failedPairRecord{f.Failed, num(h.ValidFraction), num(h.LongestGapS), num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg)})
+		}
+	}
 	return r
 }
 
@@ -51,9 +70,9 @@ func (o *runOutput) writeSingleFailure(w io.Writer) {
 	}
 	h := o.res.Headline()
 	fmt.Fprintf(w, "\nSingle failure over time (%s estimator, primary attitude; each sensor failed in turn)\n", h.Estimator)
-	fmt.Fprintf(w, "  %-20s %8s %9s %13s %11s\n", "failed sensor", "valid", "max gap", "p95 no albedo", "p95 albedo")
+	fmt.Fprintf(w, "  %-28s %8s %9s %13s %11s\n", "failed sensor", "valid", "max gap", "p95 no albedo", "p95 albedo")
 	row := func(name string, v, gap, p0, p1 float64) {
-		fmt.Fprintf(w, "  %-20s %8s %7.0f s %13s %11s\n", name, pct(v), gap, deg(p0), deg(p1))
+		fmt.Fprintf(w, "  %-28s %8s %7.0f s %13s %11s\n", name, pct(v), gap, deg(p0), deg(p1))
 	}
 	row("none", h.ValidFraction, h.LongestGapS, h.P95NoAlbedoDeg, h.P95AlbedoDeg)
 	for i, f := range sf.Rows {
@@ -64,5 +83,22 @@ func (o *runOutput) writeSingleFailure(w io.Writer) {
 		g := f.Headline
 		row(name, g.ValidFraction, g.LongestGapS, g.P95NoAlbedoDeg, g.P95AlbedoDeg)
 	}
+	if sf.WorstPair >= 0 {
+		// The pairs, worst first: the first few only (all in the JSON record).
+		order := make([]int, len(sf.Pairs))
+		for i := range order {
+			order[i] = i
+		}
+		sort.SliceStable(order, func(a, b int) bool { return study.WorseFailure(sf.Pairs[order[a]], sf.Pairs[order[b]]) })
+		n := min(len(order), maxPairRows)
+		fmt.Fprintf(w, "  pairs failed together, worst %d of %d:\n", n, len(order))
+		for _, i := range order[:n] {
+			g := sf.Pairs[i].Headline
+			row(sf.Pairs[i].Sensor, g.ValidFraction, g.LongestGapS, g.P95NoAlbedoDeg, g.P95AlbedoDeg)
+		}
+	}
 	fmt.Fprintf(w, "  (worst: lowest valid share, then largest p95, then longest gap; a failed sensor is removed from the layout)\n")
 }
+
+// maxPairRows bounds the pairs the summary prints.
+const maxPairRows = 5

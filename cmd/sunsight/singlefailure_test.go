@@ -27,7 +27,7 @@ body:
     - {name: css-pz, kind: cosine, face: "+Z", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
     - {name: css-mz, kind: cosine, face: "-Z", errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003}}
 targets:
-  n_minus_1: {min_valid_fraction: 0.99, max_error_p95_deg: 60, max_gap: 10h}
+  n_minus_1: {min_valid_fraction: 0.99, max_error_p95_deg: 60, max_gap: 10h, also_pairs: true}
 `
 
 func writeSingleFailureFile(t *testing.T) string {
@@ -51,7 +51,7 @@ func TestSingleFailureInSummaryJSONAndExit(t *testing.T) {
 		t.Fatalf("exit %d, want %d (n_minus_1 valid target missed): %s", code, exitTargetFailed, se.String())
 	}
 	sum := so.String()
-	for _, want := range []string{"Single failure over time", "css-mz", "(worst)", "FAIL sunlit time with a valid sun vector, any one sensor failed"} {
+	for _, want := range []string{"Single failure over time", "css-mz", "(worst)", "pairs failed together, worst 5 of 15", "FAIL sunlit time with a valid sun vector, any one sensor failed"} {
 		if !strings.Contains(sum, want) {
 			t.Errorf("summary lacks %q:\n%s", want, sum)
 		}
@@ -68,6 +68,10 @@ func TestSingleFailureInSummaryJSONAndExit(t *testing.T) {
 				Sensor string   `json:"failed_sensor"`
 				Valid  *float64 `json:"valid_fraction"`
 			} `json:"failed"`
+			WorstPair   []string `json:"worst_pair"`
+			FailedPairs []struct {
+				Sensors []string `json:"failed_sensors"`
+			} `json:"failed_pairs"`
 		} `json:"single_failure"`
 		Targets []struct {
 			Key  string `json:"key"`
@@ -84,6 +88,9 @@ func TestSingleFailureInSummaryJSONAndExit(t *testing.T) {
 	sf := rec.SingleFailure
 	if sf.Estimator != "least-squares" || len(sf.Failed) != 6 || sf.WorstSensor == "" {
 		t.Fatalf("single_failure %+v: want least-squares, 6 rows, a worst sensor", sf)
+	}
+	if len(sf.FailedPairs) != 15 || len(sf.WorstPair) != 2 || len(sf.FailedPairs[0].Sensors) != 2 {
+		t.Errorf("failed_pairs %d (want 15 = 6·5/2), worst_pair %v", len(sf.FailedPairs), sf.WorstPair)
 	}
 	worst := 2.0
 	for _, f := range sf.Failed {

@@ -4,15 +4,19 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"slices"
+	"strings"
 
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
-// FailedSensor is the run simulated again with one sensor failed (removed
-// from the layout): the headline figures of its primary estimator.
+// FailedSensor is the run simulated again with one sensor (or a pair)
+// failed, removed from the layout: the headline figures of its primary
+// estimator.
 type FailedSensor struct {
-	Sensor   string // the failed sensor's name
+	Sensor   string   // the failed sensor's name ("a + b" for a pair)
+	Failed   []string // the failed sensors' names
 	Headline sim.Headline
 }
 
@@ -21,12 +25,17 @@ type FailedSensor struct {
 func (f FailedSensor) P95Deg() float64 { return headlineP95(f.Headline) }
 
 // SingleFailure is the single-failure study of a run: one row per sensor,
-// in body.sensors order, and the worst of them.
+// in body.sensors order, and the worst of them; with n_minus_1.also_pairs
+// one row per pair of sensors too.
 type SingleFailure struct {
 	Rows []FailedSensor
 	// Worst indexes the worst single failure: the lowest valid share, then
 	// the largest p95 error, then the longest gap.
 	Worst int
+	// Pairs are the pairs failed together (i < j in body.sensors order),
+	// WorstPair the worst of them (-1 without pairs).
+	Pairs     []FailedSensor
+	WorstPair int
 }
 
 // maxTraceBytes bounds the recorded geometry of the single-failure study;
@@ -57,7 +66,7 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 	if len(sensors) < 2 {
 		return SingleFailure{}, fmt.Errorf("study: the single-failure study needs at least 2 sensors, the body has %d", len(sensors))
 	}
-	var sf SingleFailure
+	sf := SingleFailure{WorstPair: -1}
 	var tr *sim.Trace
 	if SingleFailureTraceBytes(&base) > 0 {
 		var err error
@@ -65,32 +74,63 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 			return sf, fmt.Errorf("single-failure study: %w", err)
 		}
 	}
-	for i := range sensors {
+	fail := func(failed ...int) (FailedSensor, error) {
+		f := FailedSensor{}
+		for _, i := range failed {
+			f.Failed = append(f.Failed, sensors[i].Name)
+		}
+		f.Sensor = strings.Join(f.Failed, " + ")
 		var res *sim.Result
 		var err error
 		if tr != nil {
-			subset := make([]int, 0, len(sensors)-1)
+			subset := make([]int, 0, len(sensors))
 			for j := range sensors {
-				if j != i {
+				if !slices.Contains(failed, j) {
 					subset = append(subset, j)
 				}
 			}
 			res, err = tr.Run(ctx, subset, base.Estimators, base.Units)
 		} else {
-			res, err = runWithout(ctx, s, base, i)
+			res, err = runWithout(ctx, s, base, failed...)
 		}
 		if err != nil {
-			return sf, fmt.Errorf("single-failure study, sensor %s failed: %w", sensors[i].Name, err)
+			return f, fmt.Errorf("single-failure study, %s failed: %w", f.Sensor, err)
 		}
-		sf.Rows = append(sf.Rows, FailedSensor{Sensor: sensors[i].Name, Headline: res.Headline()})
+		f.Headline = res.Headline()
+		return f, nil
+	}
+	for i := range sensors {
+		f, err := fail(i)
+		if err != nil {
+			return sf, err
+		}
+		sf.Rows = append(sf.Rows, f)
 	}
 	sf.Worst = worstFailure(sf.Rows)
+	if s.Targets.NMinus1.Pairs {
+		for i := range sensors {
+			for j := i + 1; j < len(sensors); j++ {
+				f, err := fail(i, j)
+				if err != nil {
+					return sf, err
+				}
+				sf.Pairs = append(sf.Pairs, f)
+			}
+		}
+		sf.WorstPair = worstFailure(sf.Pairs)
+	}
 	return sf, nil
 }
 
-// runWithout is a full run of the primary attitude without sensor i.
-func runWithout(ctx context.Context, s *scenario.Scenario, base sim.Config, i int) (*sim.Result, error) {
-	rest := append(append([]scenario.Sensor(nil), s.Body.Sensors[:i]...), s.Body.Sensors[i+1:]...)
+// runWithout is a full run of the primary attitude without the failed
+// sensors (indices into body.sensors).
+func runWithout(ctx context.Context, s *scenario.Scenario, base sim.Config, failed ...int) (*sim.Result, error) {
+	var rest []scenario.Sensor
+	for j, sn := range s.Body.Sensors {
+		if !slices.Contains(failed, j) {
+			rest = append(rest, sn)
+		}
+	}
 	cfg, err := ConfigFor(s, rest, s.Attitude)
 	if err != nil {
 		return nil, err
@@ -103,23 +143,27 @@ func runWithout(ctx context.Context, s *scenario.Scenario, base sim.Config, i in
 // worstFailure returns the index of the worst row: lowest valid share, then
 // largest p95 (an undefined p95 is the worst), then longest gap.
 func worstFailure(rows []FailedSensor) int {
-	worse := func(a, b FailedSensor) bool {
-		if a.Headline.ValidFraction != b.Headline.ValidFraction {
-			return a.Headline.ValidFraction < b.Headline.ValidFraction
-		}
-		pa, pb := orInf(a.P95Deg()), orInf(b.P95Deg())
-		if pa != pb {
-			return pa > pb
-		}
-		return a.Headline.LongestGapS > b.Headline.LongestGapS
-	}
 	w := 0
 	for i := range rows {
-		if worse(rows[i], rows[w]) {
+		if WorseFailure(rows[i], rows[w]) {
 			w = i
 		}
 	}
 	return w
+}
+
+// WorseFailure reports whether failure a is worse than b: a lower valid
+// share, then a larger p95 error (an undefined one is the worst), then a
+// longer gap.
+func WorseFailure(a, b FailedSensor) bool {
+	if a.Headline.ValidFraction != b.Headline.ValidFraction {
+		return a.Headline.ValidFraction < b.Headline.ValidFraction
+	}
+	pa, pb := orInf(a.P95Deg()), orInf(b.P95Deg())
+	if pa != pb {
+		return pa > pb
+	}
+	return a.Headline.LongestGapS > b.Headline.LongestGapS
 }
 
 func orInf(v float64) float64 {

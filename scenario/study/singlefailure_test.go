@@ -154,6 +154,7 @@ func TestSingleFailureBadInputRefused(t *testing.T) {
 		{base + "    - {name: b, kind: cosine, face: \"-X\"}\ntargets: {n_minus_1: {min_valid_fraction: 1.5}}\n", "targets.n_minus_1.min_valid_fraction"},
 		{base + "    - {name: b, kind: cosine, face: \"-X\"}\ntargets: {n_minus_1: {max_gap: -5m}}\n", "targets.n_minus_1.max_gap"},
 		{base + "    - {name: b, kind: cosine, face: \"-X\"}\ntargets: {n_minus_1: {max_error: 3}}\n", "max_error"},
+		{base + "    - {name: b, kind: cosine, face: \"-X\"}\ntargets: {n_minus_1: {also_pairs: true}}\n", "targets.n_minus_1.also_pairs"},
 	} {
 		_, err := scenario.Parse([]byte(c.text), "")
 		if err == nil || !strings.Contains(err.Error(), c.field) {
@@ -180,5 +181,34 @@ func TestSingleFailureOfTumbleRunsInFull(t *testing.T) {
 		if r.Headline.ValidFraction != h.ValidFraction || r.Headline.LongestGapS != h.LongestGapS {
 			t.Errorf("%s failed: valid %.6f gap %.0f s, unfailed %.6f %.0f s", r.Sensor, r.Headline.ValidFraction, r.Headline.LongestGapS, h.ValidFraction, h.LongestGapS)
 		}
+	}
+}
+
+// Check (definition of redundancy, pairs): in the twinned layout every pair
+// but a sensor and its own twin leaves each face measured, so it gives the
+// unfailed valid share; a face and its twin together never give more, and
+// the worst pair is a face and its twin, with a lower valid share.
+func TestPairFailureOfTwinnedLayoutNamesATwinPair(t *testing.T) {
+	s := singleFailureScenario(t, func(string) bool { return true }, "targets: {n_minus_1: {also_pairs: true}}\n")
+	h, sf, _ := runSingleFailure(t, s)
+	if len(sf.Pairs) != 66 || sf.WorstPair < 0 {
+		t.Fatalf("%d pairs (want 66 = 12·11/2), worst %d", len(sf.Pairs), sf.WorstPair)
+	}
+	w := sf.Pairs[sf.WorstPair]
+	t.Logf("unfailed valid %.4f; worst pair %s: valid %.4f", h.ValidFraction, w.Sensor, w.Headline.ValidFraction)
+	for _, p := range sf.Pairs {
+		twins := strings.TrimPrefix(p.Failed[0], "css") == strings.TrimPrefix(p.Failed[1], "twin")
+		switch {
+		case !twins && p.Headline.ValidFraction != h.ValidFraction:
+			t.Errorf("%s failed: valid %.6f, want the unfailed %.6f", p.Sensor, p.Headline.ValidFraction, h.ValidFraction)
+		case twins && p.Headline.ValidFraction > h.ValidFraction:
+			t.Errorf("%s failed (a face and its twin): valid %.6f, above the unfailed %.6f", p.Sensor, p.Headline.ValidFraction, h.ValidFraction)
+		}
+	}
+	if !(w.Headline.ValidFraction < h.ValidFraction) {
+		t.Errorf("worst pair %s: valid %.6f, want below the unfailed %.6f", w.Sensor, w.Headline.ValidFraction, h.ValidFraction)
+	}
+	if !strings.HasPrefix(w.Failed[0], "css") || strings.TrimPrefix(w.Failed[0], "css") != strings.TrimPrefix(w.Failed[1], "twin") {
+		t.Errorf("worst pair %s: want a face and its twin", w.Sensor)
 	}
 }

@@ -8,8 +8,8 @@ import "math"
 type Tracker struct {
 	step, period, duration float64
 	n                      int
-	sum, peak              float64
-	cur                    int // orbit index of the last sample
+	sum, peak              float64 // sum: energy (J)
+	cur                    int     // orbit index of the last sample
 	curJ                   float64
 	orbits                 int
 	orbitSumJ, worstJ      float64
@@ -23,8 +23,11 @@ func NewTracker(step, period, duration float64) *Tracker {
 	return &Tracker{step: step, period: period, duration: duration, worstJ: math.Inf(1)}
 }
 
-// Add records the power p (W) at time t (s); a sample stands for one step.
+// Add records the power p (W) at time t (s). A sample stands for one step,
+// the last one only up to the run's end (a sample at the end itself counts
+// for nothing), so the average is the energy over the duration.
 func (k *Tracker) Add(t, p float64) {
+	w := math.Max(0, math.Min(k.step, k.duration-t))
 	if k.period > 0 {
 		if o := int(math.Floor(t / k.period)); o != k.cur {
 			k.closeOrbit()
@@ -32,9 +35,9 @@ func (k *Tracker) Add(t, p float64) {
 		}
 	}
 	k.n++
-	k.sum += p
+	k.sum += p * w
 	k.peak = math.Max(k.peak, p)
-	k.curJ += p * k.step
+	k.curJ += p * w
 	switch {
 	case p <= 0 && !k.zero:
 		k.zero, k.zeroStart = true, t
@@ -76,8 +79,8 @@ func (k *Tracker) Finish() Summary {
 	}
 	s := Summary{MeanW: math.NaN(), OrbitMeanWh: math.NaN(), OrbitWorstWh: math.NaN(), Orbits: k.orbits,
 		PeakW: k.peak, LongestNoPowerS: k.longestZero}
-	if k.n > 0 {
-		s.MeanW = k.sum / float64(k.n)
+	if k.n > 0 && k.duration > 0 {
+		s.MeanW = k.sum / k.duration
 		s.GapEnergyWh = s.MeanW * k.longestZero / 3600
 	}
 	if k.orbits > 0 {

@@ -10,6 +10,7 @@ import (
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/power"
+	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
@@ -31,7 +32,8 @@ func TestPowerSunPointingClosedForm(t *testing.T) {
 		t.Fatal(err)
 	}
 	p := res.Power
-	// Independent sum: S₀(AU/r)²·lit per step.
+	// Independent sum: S₀(AU/r)²·lit per step, each sample standing for one
+	// step up to the run's end.
 	prop := cfg.NewPropagator()
 	jd0 := ephem.JulianDateTT(cfg.Epoch)
 	var sum float64
@@ -41,9 +43,9 @@ func TestPowerSunPointingClosedForm(t *testing.T) {
 		u, d := cfg.Sun.Position(jd0 + tt/86400)
 		lit, _ := illum.ShadowConical(prop.StateAt(tt).R, r3.Scale(d, u))
 		q := ephem.AUKm / d
-		sum += ephem.SolarIrradiance1AU * q * q * lit
+		sum += ephem.SolarIrradiance1AU * q * q * lit * math.Min(cfg.Step, cfg.Duration-tt)
 	}
-	want := a * eta * f * sum / float64(n)
+	want := a * eta * f * sum / cfg.Duration
 	if math.Abs(p.MeanW-want) > 1e-9*want {
 		t.Errorf("orbit-average power %.9f W, closed form %.9f W", p.MeanW, want)
 	}
@@ -54,5 +56,68 @@ func TestPowerSunPointingClosedForm(t *testing.T) {
 	}
 	if p.Orbits < 14 || !(p.OrbitWorstWh <= p.OrbitMeanWh) {
 		t.Errorf("%d orbits, worst %g Wh, mean %g Wh", p.Orbits, p.OrbitWorstWh, p.OrbitMeanWh)
+	}
+}
+
+// sunAt is a sun at 1 AU in a fixed ECI direction.
+type sunAt struct{ u r3.Vec }
+
+func (s sunAt) Position(float64) (r3.Vec, float64) { return s.u, ephem.AUKm }
+
+// Body-fixed panels in nadir pointing on a circular two-body orbit, sun
+// fixed at β above the orbit plane, cylindrical shadow. With u the orbit
+// angle from the subsolar point, the zenith (−Z) panel sees cos β·cos u on
+// the day side, so its orbit average is E·A·η·f·cos β/π; the along-track
+// (+X) panel sees −cos β·sin u for u in (π, 2π) less the shadow (π−α, π+α),
+// cos α = √(1 − R²/r²)/cos β, so its average is E·A·η·f·cos β·(1 + cos α)/(2π)
+// (closed forms, integrals of the cosine law over the orbit).
+func TestPowerNadirBodyPanelsClosedForm(t *testing.T) {
+	const a = orbit.RadiusEarthKm + 550
+	el := orbit.Elements{SemiMajorAxisKm: a, Inclination: 51.6 * math.Pi / 180, RAAN: 0.3}
+	s0 := orbit.NewTwoBody(el).StateAt(0)
+	p := r3.Unit(s0.R)
+	h := r3.Unit(r3.Cross(s0.R, s0.V))
+	period := orbit.Period(a)
+	for _, betaDeg := range []float64{0, 20, 55} {
+		beta := betaDeg * math.Pi / 180
+		cfg := referenceCase(t, 1, false)
+		cfg.NewPropagator = func() orbit.Propagator { return orbit.NewTwoBody(el) }
+		cfg.Sun = sunAt{r3.Add(r3.Scale(math.Cos(beta), p), r3.Scale(math.Sin(beta), h))}
+		cfg.Cylindrical = true
+		cfg.Step = period / 3600
+		cfg.Duration = 3 * period
+		const area, eta, f = 0.08, 0.3, 0.9
+		for _, c := range []struct {
+			name   string
+			normal r3.Vec
+			want   float64
+		}{
+			{"zenith", r3.Vec{Z: -1}, math.Cos(beta) / math.Pi},
+			{"along-track", r3.Vec{X: 1}, func() float64 {
+				ca := math.Sqrt(1-(illum.EarthRadiusKm/a)*(illum.EarthRadiusKm/a)) / math.Cos(beta)
+				if ca >= 1 {
+					ca = 1 // no eclipse: the whole half orbit is lit
+					return math.Cos(beta) * 2 / (2 * math.Pi)
+				}
+				return math.Cos(beta) * (1 + ca) / (2 * math.Pi)
+			}()},
+		} {
+			arr, err := power.NewArray(power.Panel{Name: c.name, Normal: c.normal, AreaM2: area, Efficiency: eta, PackingFactor: f})
+			if err != nil {
+				t.Fatal(err)
+			}
+			cfg.Panels = arr
+			res, err := Run(context.Background(), cfg)
+			if err != nil {
+				t.Fatal(err)
+			}
+			want := ephem.SolarIrradiance1AU * area * eta * f * c.want
+			got := res.Power.MeanW
+			if rel := (got - want) / want; math.Abs(rel) > 1e-3 {
+				t.Errorf("β %g°, %s panel: orbit average %.5f W, closed form %.5f W (relative %.2e)", betaDeg, c.name, got, want, rel)
+			} else {
+				t.Logf("β %g°, %s panel: orbit average %.5f W, closed form %.5f W (relative %.2e)", betaDeg, c.name, got, want, rel)
+			}
+		}
 	}
 }

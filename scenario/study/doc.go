@@ -15,9 +15,19 @@
 // a memory estimate fitted to measured peaks); Warnings flags a run outside
 // the sun model's stated span, a TLE more than MaxTLEAgeDays from the run
 // and a run shorter than one orbit. A TLE used at another epoch is carried
-// there with the secular J2 rates (MeanElements).
+// there with the secular J2 rates (MeanElements). RunSingleFailure
+// simulates the primary attitude again with each sensor (and, asked for,
+// each pair) removed from the layout, replaying the recorded geometry
+// (sim.Trace) when the attitude is not drawn per unit; CheckSingleFailure
+// judges the n_minus_1 targets on the worst failure for each figure.
 //
 // # Assumptions
+//
+// A failed sensor is removed (it reads nothing, the estimators never see
+// it); a sensor that fails stuck at a value is not modelled. The remaining
+// sensors' error draws and noise are drawn afresh for the reduced layout,
+// so failed runs compare with the unfailed one statistically, not draw by
+// draw.
 //
 // Sun-synchronous orbits take their inclination from the secular J2 condition
 // and their RAAN from the local time of the ascending node (see orbit).

@@ -2,10 +2,13 @@ package study
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
 	"strings"
+	"sync"
 
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -99,24 +102,50 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 		f.Headline = res.Headline()
 		return f, nil
 	}
+	// The failed layouts: each sensor, then (also_pairs) each pair.
+	var sets [][]int
 	for i := range sensors {
-		f, err := fail(i)
-		if err != nil {
-			return sf, err
-		}
-		sf.Rows = append(sf.Rows, f)
+		sets = append(sets, []int{i})
 	}
-	sf.Worst = worstFailure(sf.Rows)
 	if s.Targets.NMinus1.Pairs {
 		for i := range sensors {
 			for j := i + 1; j < len(sensors); j++ {
-				f, err := fail(i, j)
-				if err != nil {
-					return sf, err
-				}
-				sf.Pairs = append(sf.Pairs, f)
+				sets = append(sets, []int{i, j})
 			}
 		}
+	}
+	// A trace is read-only once recorded: its replays run in parallel. A
+	// full run is parallel inside, so those run one after the other.
+	workers := 1
+	if tr != nil {
+		workers = base.Workers
+		if workers <= 0 {
+			workers = runtime.GOMAXPROCS(0)
+		}
+	}
+	out := make([]FailedSensor, len(sets))
+	errs := make([]error, len(sets))
+	next := make(chan int)
+	var wg sync.WaitGroup
+	for range min(workers, len(sets)) {
+		wg.Go(func() {
+			for k := range next {
+				out[k], errs[k] = fail(sets[k]...)
+			}
+		})
+	}
+	for k := range sets {
+		next <- k
+	}
+	close(next)
+	wg.Wait()
+	if err := errors.Join(errs...); err != nil {
+		return sf, err
+	}
+	sf.Rows = out[:len(sensors)]
+	sf.Worst = worstFailure(sf.Rows)
+	if s.Targets.NMinus1.Pairs {
+		sf.Pairs = out[len(sensors):]
 		sf.WorstPair = worstFailure(sf.Pairs)
 	}
 	return sf, nil

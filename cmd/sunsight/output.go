@@ -597,6 +597,9 @@ func (o *runOutput) writeCSV(dir string) error {
 	if len(o.modes) > 0 {
 		files["modes.csv"] = o.modesCSV()
 	}
+	if rows := o.singleFailureCSV(); rows != nil {
+		files["single_failure.csv"] = rows
+	}
 	if d := o.drawsCSV(); d != nil {
 		files["tumble_draws.csv"] = d
 	}

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"sort"
+	"strconv"
 
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
@@ -102,3 +103,23 @@ func (o *runOutput) writeSingleFailure(w io.Writer) {
 
 // maxPairRows bounds the pairs the summary prints.
 const maxPairRows = 5
+
+// singleFailureCSV is single_failure.csv: one row per failed sensor, then
+// per failed pair, the worst of each marked (nil without the study).
+func (o *runOutput) singleFailureCSV() [][]string {
+	sf := o.assessed.SingleFailure
+	if sf == nil {
+		return nil
+	}
+	rows := [][]string{{"failed_sensor", "pair", "worst", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg"}}
+	add := func(fs []study.FailedSensor, worst int, pair bool) {
+		for i, f := range fs {
+			h := f.Headline
+			rows = append(rows, []string{f.Sensor, strconv.FormatBool(pair), strconv.FormatBool(i == worst), ff(h.ValidFraction, 6),
+				ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4)})
+		}
+	}
+	add(sf.Rows, sf.Worst, false)
+	add(sf.Pairs, sf.WorstPair, true)
+	return rows
+}

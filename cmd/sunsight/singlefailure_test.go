@@ -56,6 +56,23 @@ func TestSingleFailureInSummaryJSONAndExit(t *testing.T) {
 			t.Errorf("summary lacks %q:\n%s", want, sum)
 		}
 	}
+	dir := filepath.Join(t.TempDir(), "csv")
+	so.Reset()
+	if code := runMain([]string{"run", p, "--quiet", "--csv", dir}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("--csv exit %d, want %d: %s", code, exitTargetFailed, se.String())
+	}
+	if h := csvHeader(t, filepath.Join(dir, "single_failure.csv")); len(h) != 7 || h[0] != "failed_sensor" {
+		t.Errorf("single_failure.csv header %v", h)
+	}
+	dict, _ := os.ReadFile("../../docs/data-dictionary.md")
+	for _, c := range append(csvHeader(t, filepath.Join(dir, "single_failure.csv")), "single_failure.csv") {
+		if !strings.Contains(string(dict), "`"+c+"`") {
+			t.Errorf("%s is not in docs/data-dictionary.md", c)
+		}
+	}
+	if b, _ := os.ReadFile(filepath.Join(dir, "single_failure.csv")); strings.Count(string(b), "\n") != 1+6+15 {
+		t.Errorf("single_failure.csv has %d lines, want a header, 6 sensors and 15 pairs:\n%s", strings.Count(string(b), "\n"), b)
+	}
 	so.Reset()
 	if code := runMain([]string{"run", p, "--quiet", "--json"}, &so, &se); code != exitTargetFailed {
 		t.Fatalf("--json exit %d, want %d", code, exitTargetFailed)

@@ -379,6 +379,13 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 		judge(&f, study.TargetCoverageOneFailed)
 		rows = append(rows, f)
 	}
+	if pw := res.Power; pw != nil {
+		avg := row("Solar-array power, orbit average (nominal attitude)", num(pw.MeanW, 2), "W")
+		judge(&avg, study.TargetPower)
+		rows = append(rows, avg,
+			row("Energy per whole orbit, mean / worst", num(pw.OrbitMeanWh, 2)+" / "+num(pw.OrbitWorstWh, 2), "Wh"),
+			row("Longest span without power; orbit-average load drawn across it", num(pw.LongestNoPowerS/60, 1)+" min; "+num(pw.GapEnergyWh, 2), "min; Wh"))
+	}
 	return rows, checks, nil
 }
 

@@ -81,4 +81,11 @@ func writeDerived(w io.Writer, s *scenario.Scenario, d study.Derived) {
 	}
 	fmt.Fprintf(w, "#   %s at %s: %d steps × %d unit(s)%s = %d unit-steps; memory about %.0f MB without time series\n",
 		s.Duration, s.Step, d.Steps, d.Units, runs, int64(d.Steps)*int64(d.Units)*int64(d.Runs), float64(d.MemoryBytes)/(1<<20))
+	if d.FailedLayouts > 0 {
+		how := "each a full run (the attitude is drawn per unit, or the geometry is too long to keep)"
+		if d.FailedReplayed {
+			how = "replaying the primary attitude's recorded geometry"
+		}
+		fmt.Fprintf(w, "#   single-failure study (targets.n_minus_1): %d failed layouts, %s\n", d.FailedLayouts, how)
+	}
 }

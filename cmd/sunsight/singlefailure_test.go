@@ -148,3 +148,15 @@ func TestNoSingleFailureWithoutTheKey(t *testing.T) {
 		t.Errorf("a run without targets.n_minus_1 writes a single_failure record")
 	}
 }
+
+// check says what the single-failure study will run: 6 sensors and 15
+// pairs, replayed from the recorded geometry.
+func TestCheckShowsSingleFailureStudy(t *testing.T) {
+	var so, se bytes.Buffer
+	if code := runMain([]string{"check", writeSingleFailureFile(t)}, &so, &se); code != exitOK {
+		t.Fatalf("exit %d: %s", code, se.String())
+	}
+	if want := "single-failure study (targets.n_minus_1): 21 failed layouts, replaying"; !strings.Contains(so.String(), want) {
+		t.Errorf("check output lacks %q:\n%s", want, so.String())
+	}
+}

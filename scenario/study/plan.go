@@ -69,8 +69,14 @@ type Derived struct {
 	// Monte Carlo units and Runs the number of simulations run makes (the
 	// primary attitude and each mode).
 	Steps, Units, Runs int
-	// MemoryBytes is a rough estimate of run's peak memory (MemoryEstimate).
+	// MemoryBytes is a rough estimate of run's peak memory (MemoryEstimate,
+	// plus the recorded geometry of the single-failure study).
 	MemoryBytes int64
+	// FailedLayouts is the number of failed layouts the single-failure
+	// study runs (targets.n_minus_1; 0 without it), FailedReplayed whether
+	// they replay the recorded geometry (else each is a full run).
+	FailedLayouts  int
+	FailedReplayed bool
 }
 
 // betaSamples bounds the samples of the beta range.
@@ -110,6 +116,15 @@ func Derive(s *scenario.Scenario, p *Plan) (Derived, error) {
 		d.BetaMinDeg, d.BetaMaxDeg = math.Min(d.BetaMinDeg, β), math.Max(d.BetaMaxDeg, β)
 	}
 	d.MemoryBytes = MemoryEstimate(cfg, 0)
+	if nm := s.Targets.NMinus1; nm.Set {
+		n := len(s.Body.Sensors)
+		d.FailedLayouts = n
+		if nm.Pairs {
+			d.FailedLayouts += n * (n - 1) / 2
+		}
+		tb := SingleFailureTraceBytes(cfg)
+		d.FailedReplayed, d.MemoryBytes = tb > 0, d.MemoryBytes+tb
+	}
 	return d, nil
 }
 

@@ -76,7 +76,7 @@ func (r *resolver) panels(list []filePanel) []Panel {
 			r.fail(p+".efficiency", "value is missing; allowed the cell efficiency in (0, 1], for example 0.28")
 		} else {
 			pn.Efficiency = *f.Efficiency
-			r.rangeCheck(p+".efficiency", pn.Efficiency, 0, 1, true, "(0, 1]")
+			r.rangeCheck(p+".efficiency", pn.Efficiency, 0, 1, true, "(0, 1], a fraction (29.5 % is 0.295)")
 		}
 		pn.PackingFactor = setDefault(&f.PackingFactor, 1)
 		r.rangeCheck(p+".packing_factor", pn.PackingFactor, 0, 1, true, "(0, 1] (1 = the area is cell area)")
@@ -95,6 +95,11 @@ func (r *resolver) placePanel(p string, f *filePanel, pn *Panel) {
 	h := r.half
 	if f.PositionM != nil {
 		pn.PositionM = r.vec(p+".position_m", f.PositionM, r3.Vec{})
+		q := pn.PositionM
+		if h != (r3.Vec{}) && math.Abs(q.X) < h.X-surfaceTolM && math.Abs(q.Y) < h.Y-surfaceTolM && math.Abs(q.Z) < h.Z-surfaceTolM {
+			r.fail(p+".position_m", "value %v lies inside the bus outline (half extents %.4g, %.4g, %.4g m); allowed a point on a face or outside it, or leave position_m out to place the panel at its face centre",
+				f.PositionM, h.X, h.Y, h.Z)
+		}
 		return
 	}
 	switch {

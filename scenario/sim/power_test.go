@@ -121,3 +121,35 @@ func TestPowerNadirBodyPanelsClosedForm(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkReferenceDayPower runs one day at 10 s of the bench reference
+// case without albedo, without and with six body panels (the power pass
+// runs beside the sensor loop).
+func BenchmarkReferenceDayPower(b *testing.B) {
+	var panels []power.Panel
+	for _, n := range []r3.Vec{{X: 1}, {X: -1}, {Y: 1}, {Y: -1}, {Z: 1}, {Z: -1}} {
+		panels = append(panels, power.Panel{Name: "p", Normal: n, AreaM2: 0.08, Efficiency: 0.3, PackingFactor: 0.9})
+	}
+	arr, err := power.NewArray(panels...)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, with := range []bool{false, true} {
+		name := "sensors"
+		if with {
+			name = "sensors+panels"
+		}
+		b.Run(name, func(b *testing.B) {
+			cfg := referenceCase(b, 1, false)
+			cfg.Workers = 1
+			if with {
+				cfg.Panels = arr
+			}
+			for b.Loop() {
+				if _, err := Run(context.Background(), cfg); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}

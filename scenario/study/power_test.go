@@ -55,6 +55,7 @@ func TestPanelKeysRefused(t *testing.T) {
 		"\n    - {name: t, normal: [0, 0, 0], area_m2: 0.01, efficiency: 0.3}":                             "normal",
 		"\n    - {name: body-px, face: \"+Y\", area_m2: 0.01, efficiency: 0.3}":                            "name",
 		"\n    - {name: t, face: \"+Y\", area_m2: 0.01, efficiency: 0.3, packing_factor: 0}":               "packing_factor",
+		"\n    - {name: t, normal: [0, 0, -1], position_m: [0, 0, 0.1], area_m2: 0.01, efficiency: 0.3}":   "position_m",
 	} {
 		_, err := panelScenario(t, extra)
 		if err == nil || !strings.Contains(err.Error(), field) {

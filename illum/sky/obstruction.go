@@ -146,9 +146,10 @@ func (b Box) Blocks(o, d r3.Vec) bool {
 
 // Obstructed is a Viewer mounted at Position (body frame) on a surface of
 // outward normal Face, whose view is blocked by Obstacles. A direction at
-// or behind the mounting plane (d·Face ≤ 0) is never seen, whatever the
+// or behind the mounting plane (d·Face ≤ FacePlaneMargin) is never seen, whatever the
 // field of view: the sensor cannot look through the surface it sits on. A
-// zero Face means no mounting plane. Sun and albedo rays are treated as
+// zero Face means no mounting plane; Face and the directions are unit
+// vectors. Sun and albedo rays are treated as
 // parallel, so a direction is blocked when the ray from the mount position
 // meets a shape.
 type Obstructed struct {
@@ -158,10 +159,19 @@ type Obstructed struct {
 	Obstacles []Obstacle
 }
 
+// FacePlaneMargin is how far above its mounting plane (the sine of the
+// elevation, about 0.2″) a direction must be for a sensor to see it. Light
+// at grazing incidence on the surface a sensor sits on is not collected,
+// and the margin keeps a sun that an attitude law places exactly in that
+// plane (a sun-pointing law with the sun axis along a face) from being seen
+// or not by floating-point rounding: a 1e-9 rad turn of the attitude never
+// crosses it.
+const FacePlaneMargin = 1e-6
+
 // Hidden reports whether the mounting plane or an obstacle hides the body
 // direction d from the mount position (the field of view aside).
 func (o Obstructed) Hidden(d r3.Vec) bool {
-	if o.Face != (r3.Vec{}) && !(r3.Dot(d, o.Face) > 0) {
+	if o.Face != (r3.Vec{}) && !(r3.Dot(d, o.Face) > FacePlaneMargin) {
 		return true
 	}
 	for _, ob := range o.Obstacles {

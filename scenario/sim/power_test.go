@@ -10,6 +10,7 @@ import (
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/power"
+	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
@@ -151,5 +152,33 @@ func BenchmarkReferenceDayPower(b *testing.B) {
 				}
 			}
 		})
+	}
+}
+
+// The power pass's step (geometry, then every panel with its obstruction
+// test through the bus outline) allocates nothing.
+func TestPowerStepAllocatesNothing(t *testing.T) {
+	cfg := referenceCase(t, 1, false)
+	box := sky.Box{Half: r3.Vec{X: 0.113, Y: 0.05, Z: 0.183}}
+	o := sky.Obstructed{Position: r3.Vec{X: 0.3, Z: -0.183}, Face: r3.Vec{Z: -1}, Obstacles: []sky.Obstacle{box}}
+	arr, err := power.NewArray(power.Panel{Name: "wing", Normal: r3.Vec{Z: -1}, AreaM2: 0.08, Efficiency: 0.3, PackingFactor: 0.9, Hidden: o.Hidden},
+		power.Panel{Name: "side", Normal: r3.Vec{X: 1}, AreaM2: 0.08, Efficiency: 0.3, PackingFactor: 0.9})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Panels = arr
+	g, err := newGeometry(&cfg, cfg.Array, 0, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	tr := power.NewTracker(cfg.Step, 5700, cfg.Duration)
+	k := 0
+	g.step(0, nil)
+	if n := testing.AllocsPerRun(2000, func() {
+		sg := g.step(k%1000, nil)
+		tr.Add(sg.t, cfg.Panels.Power(sg.sunBody, sg.direct))
+		k++
+	}); n != 0 {
+		t.Errorf("%g allocations per power step", n)
 	}
 }

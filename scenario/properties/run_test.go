@@ -425,18 +425,24 @@ func checkFalseSun(c *runCase) (f failures) {
 	return f
 }
 
-// The umbra false-sun share of a unit is documented as the share of umbra
-// time in which albedo alone drives a sensor above its threshold: 0 with
-// albedo none. (The per-sensor and per-estimator umbra shares also count a
-// dark offset or noise above threshold and are checked for consistency in
+// The umbra false-sun share of a unit is the share of umbra time in which
+// some sensor reads "sun" without direct sun: with albedo none and no dark
+// offset or noise on any sensor nothing can, so it is 0. (With errors a dark
+// offset above threshold fires it, TestUmbraFalseSunWithoutAlbedo; the
+// per-sensor and per-estimator shares are checked for consistency in
 // checkFalseSun.)
 func checkUmbraFalseSunNoAlbedo(c *runCase) (f failures) {
 	if c.b.s.Albedo.Model != scenario.AlbedoNone {
 		return nil
 	}
+	for _, sc := range c.b.s.Body.Sensors {
+		if sc.Errors.DarkOffset1Sigma > 0 || sc.Errors.Noise1Sigma > 0 {
+			return nil
+		}
+	}
 	for _, u := range c.res.Units {
 		if v := u.FalseSunFraction; v != 0 && !(math.IsNaN(v) && u.UmbraFraction == 0) {
-			f.addf("unit %d: umbra false sun %g (albedo alone above threshold) with albedo none", u.Unit, v)
+			f.addf("unit %d: umbra false sun %g with albedo none and error-free sensors", u.Unit, v)
 		}
 	}
 	return f
@@ -444,7 +450,8 @@ func checkUmbraFalseSunNoAlbedo(c *runCase) (f failures) {
 
 // A constructed case for the umbra false-sun share with albedo none: cosine
 // sensors whose dark offset (1σ 0.03 of full sun) lies above their 1 %
-// threshold in some units read "sun" in the umbra.
+// threshold in some units read "sun" in the umbra; the same sensors without
+// errors never do.
 func TestUmbraFalseSunWithoutAlbedo(t *testing.T) {
 	f := randscenario.New(1, 0, randscenario.Options{})
 	h, inc, th := 500.0, 20.0, 0.01
@@ -463,5 +470,23 @@ func TestUmbraFalseSunWithoutAlbedo(t *testing.T) {
 	if res.Nominal.UmbraFraction == 0 {
 		t.Fatal("no umbra: the case does not test the claim")
 	}
+	// The dark offsets fire the measure (it is not an albedo-only one)...
+	fired := false
+	for _, u := range res.Units {
+		fired = fired || u.FalseSunFraction > 0
+	}
+	if !fired {
+		t.Error("dark offsets above threshold in the umbra gave no false sun in any unit")
+	}
+	// ...and without them it is exactly 0.
+	for i := range f.Body.Sensors {
+		f.Body.Sensors[i].Errors = nil
+	}
+	b, res = mustRun(t, f)
 	verdict(t, "albedo-none-umbra-false-sun-zero", checkUmbraFalseSunNoAlbedo(&runCase{t: t, b: b, res: res}))
+	for _, u := range res.Units {
+		if u.FalseSunFraction != 0 {
+			t.Errorf("unit %d: umbra false sun %g with error-free sensors and albedo none", u.Unit, u.FalseSunFraction)
+		}
+	}
 }

@@ -28,7 +28,6 @@ var knownFailures = map[string]string{
 	"key-has-effect digital errors.noise_1sigma":             "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
 	"key-has-effect digital adc_bits":                        "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
 	"key-has-effect digital full_scale":                      "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
-	"albedo-none-umbra-false-sun-zero":                       "issue 12 (the unit's umbra false-sun share, documented as albedo alone above threshold, also counts dark offsets and noise)",
 	// Left after the quadrant validity gate: a sun parked on the edge of the
 	// calibrated linear range for the whole run (an inertial attitude) flips
 	// validity on a 0.01° shift; any gate edge does that.

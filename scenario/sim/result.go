@@ -55,8 +55,10 @@ type UnitResult struct {
 	SeenAtLeast [4]float64
 	Sensors     []SensorStats
 	Estimators  []EstimatorStats
-	// FalseSunFraction is the fraction of umbra time during which albedo
-	// alone drives at least one sensor above its threshold.
+	// FalseSunFraction is the fraction of umbra time during which at least
+	// one sensor reads "sun" (a valid reading) although no direct sun reaches
+	// it: from a dark offset or noise, never from albedo for a spherical
+	// Earth without atmosphere (see the package doc).
 	FalseSunFraction float64
 	BetaMinDeg       float64
 	BetaMaxDeg       float64

@@ -466,7 +466,7 @@ func TestUmbraFalseSunWithoutAlbedo(t *testing.T) {
 	f.Albedo = randscenario.Albedo{Model: "none"}
 	f.MonteCarlo = &randscenario.MonteCarlo{Units: 4}
 	showOnFailure(t, f.YAML())
-	b, res := mustRun(t, f)
+	_, res := mustRun(t, f)
 	if res.Nominal.UmbraFraction == 0 {
 		t.Fatal("no umbra: the case does not test the claim")
 	}
@@ -482,7 +482,7 @@ func TestUmbraFalseSunWithoutAlbedo(t *testing.T) {
 	for i := range f.Body.Sensors {
 		f.Body.Sensors[i].Errors = nil
 	}
-	b, res = mustRun(t, f)
+	b, res := mustRun(t, f)
 	verdict(t, "albedo-none-umbra-false-sun-zero", checkUmbraFalseSunNoAlbedo(&runCase{t: t, b: b, res: res}))
 	for _, u := range res.Units {
 		if u.FalseSunFraction != 0 {

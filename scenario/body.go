@@ -158,15 +158,25 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	}
 	s.Threshold = setDefault(&f.Threshold, defaultThreshold)
 	r.rangeCheck(p+".threshold", s.Threshold, 0, 1, false, "[0, 1] (fraction of the full-sun reading)")
-	s.FullScale = setDefault(&f.FullScale, defaultFullScale)
-	r.rangeCheck(p+".full_scale", s.FullScale, 0, math.MaxFloat64, true, "a number > 0")
-	if f.ADCBits == nil {
-		v := defaultADCBits
-		f.ADCBits = &v
-	}
-	s.ADCBits = *f.ADCBits
-	if s.ADCBits < 0 || s.ADCBits > 32 {
-		r.fail(p+".adc_bits", "value %d is out of range; allowed [0, 32] (0 = no quantisation)", s.ADCBits)
+	if known && !hasSource(info, sensor.SourceQuantisation) {
+		// The kind has no converter model: its keys would be ignored.
+		for key, given := range map[string]bool{"full_scale": f.FullScale != nil, "adc_bits": f.ADCBits != nil} {
+			if given {
+				r.fail(p+"."+key, "value does not apply to kind %s (its model has no analogue-to-digital converter); remove %s", f.Kind, key)
+			}
+		}
+		s.FullScale, s.ADCBits = defaultFullScale, defaultADCBits
+	} else {
+		s.FullScale = setDefault(&f.FullScale, defaultFullScale)
+		r.rangeCheck(p+".full_scale", s.FullScale, 0, math.MaxFloat64, true, "a number > 0")
+		if f.ADCBits == nil {
+			v := defaultADCBits
+			f.ADCBits = &v
+		}
+		s.ADCBits = *f.ADCBits
+		if s.ADCBits < 0 || s.ADCBits > 32 {
+			r.fail(p+".adc_bits", "value %d is out of range; allowed [0, 32] (0 = no quantisation)", s.ADCBits)
+		}
 	}
 	if known {
 		s.Params = r.kindParams(p, info, f)
@@ -175,7 +185,34 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 		f.Errors = &fileErrors{}
 	}
 	s.Errors = r.errorsOf(p+".errors", f.Errors)
+	if known {
+		// An error the kind's model does not draw would be ignored: refuse it.
+		for _, c := range []struct {
+			key, source string
+			v           float64
+		}{
+			{"dark_offset_1sigma", sensor.SourceDarkOffset, f.Errors.DarkOffset1Sigma},
+			{"gain_1sigma", sensor.SourceGain, f.Errors.Gain1Sigma},
+			{"noise_1sigma", sensor.SourceNoise, f.Errors.Noise1Sigma},
+			{"misalignment_deg_1sigma", sensor.SourceMisalignment, f.Errors.MisalignmentDeg1Sigma},
+			{"aperture_offset_mm_1sigma", sensor.SourceApertureOffset, f.Errors.ApertureOffsetMM1Sigma},
+		} {
+			if c.v != 0 && !hasSource(info, c.source) {
+				r.fail(p+".errors."+c.key, "value does not apply to kind %s (its error model has no %s); remove it", f.Kind, c.source)
+			}
+		}
+	}
 	return s
+}
+
+// hasSource reports whether a sensor kind's error model draws the source.
+func hasSource(k sensor.KindInfo, source string) bool {
+	for _, s := range k.Sources {
+		if s.Name == source {
+			return true
+		}
+	}
+	return false
 }
 
 // formFactors are the outer dimensions (m, along body X, Y, Z) of the

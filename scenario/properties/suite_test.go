@@ -22,12 +22,6 @@ import (
 // with the issue and the drawn numbers; where it holds it passes as usual.
 // Remove an entry as soon as its fix lands.
 var knownFailures = map[string]string{
-	"key-has-effect cosine errors.aperture_offset_mm_1sigma": "issue 13 (keys used or refused: an aperture offset on a cosine sensor is accepted and ignored)",
-	"key-has-effect digital errors.dark_offset_1sigma":       "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
-	"key-has-effect digital errors.gain_1sigma":              "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
-	"key-has-effect digital errors.noise_1sigma":             "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
-	"key-has-effect digital adc_bits":                        "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
-	"key-has-effect digital full_scale":                      "issue 13 (keys used or refused: the digital sensor ignores dark offset, gain, noise, ADC and full scale)",
 	// Left after the quadrant validity gate: a sun parked on the edge of the
 	// calibrated linear range for the whole run (an inertial attitude) flips
 	// validity on a 0.01° shift; any gate edge does that.

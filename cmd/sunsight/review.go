@@ -13,11 +13,12 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/review"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
 // writeReview draws the design-review figures of a run and writes them as
 // files (plotsDir) and/or binds them into the HTML report.
-func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, plotsDir string, prov review.Provenance, force bool) error {
+func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *study.SingleFailure, report, plotsDir string, prov review.Provenance, force bool) error {
 	all, err := review.Figures(s, cfg, res)
 	if err != nil {
 		return fmt.Errorf("figures: %w", err)
@@ -41,6 +42,9 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, report, 
 		r, err := review.Report(s, cfg, res, figs, prov)
 		if err != nil {
 			return fmt.Errorf("report: %w", err)
+		}
+		if sf != nil {
+			review.AddSingleFailure(&r, s, cfg, res, *sf)
 		}
 		var buf bytes.Buffer
 		if err := plots.WriteReport(&buf, r); err != nil {

@@ -160,3 +160,23 @@ func TestCheckShowsSingleFailureStudy(t *testing.T) {
 		t.Errorf("check output lacks %q:\n%s", want, so.String())
 	}
 }
+
+// The report shows the single-failure table and its banner counts the
+// n_minus_1 targets, as the summary and the JSON verdict do.
+func TestReportShowsSingleFailure(t *testing.T) {
+	rep := filepath.Join(t.TempDir(), "r.html")
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", writeSingleFailureFile(t), "--quiet", "--report", rep}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("exit %d: %s", code, se.String())
+	}
+	b, err := os.ReadFile(rep)
+	if err != nil {
+		t.Fatal(err)
+	}
+	html := string(b)
+	for _, want := range []string{"Single failure over time", "(worst)", "(worst pair)", "targets failed"} {
+		if !strings.Contains(html, want) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+}

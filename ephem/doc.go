@@ -1,5 +1,6 @@
 // Package ephem converts UTC to the time scales sunsight needs and gives
-// the geocentric direction and distance of the sun in EME2000.
+// the geocentric direction and distance of the sun and of the Moon in
+// EME2000.
 //
 // # Model
 //
@@ -21,7 +22,15 @@
 //     github.com/soniakeys/meeus/v3 (solar.True2000, solar.Radius), rotated
 //     into EME2000 by the J2000 obliquity.
 //
-// Both models return the apparent direction (annual aberration included,
+// Moon: Moon.Position is Meeus 1998 ch. 47 (the principal terms of
+// ELP-2000/82) through github.com/soniakeys/meeus/v3/moonposition: λ, β
+// and Δ on the mean ecliptic and equinox of date, turned to the mean
+// equator of date by the mean obliquity (Meeus (22.2)) and precessed to
+// EME2000 like the sun. MoonPhaseAngle and MoonIlluminatedFraction are
+// Meeus ch. 48 ((48.2), (48.3), (48.1) through base.Illuminated) from
+// geocentric vectors; MoonRadiusKm is the IAU mean radius.
+//
+// Both sun models return the apparent direction (annual aberration included,
 // about 20.5″: the AA mean longitude carries it and Meeus gets
 // −20.4898″/R added), which is the direction a sun sensor on a spacecraft
 // near the Earth sees. The spacecraft's own orbital velocity adds up to
@@ -38,6 +47,9 @@
 //   - Geocentric sun: the parallax of a LEO spacecraft (≤ 8000 km / 1 AU
 //     ≈ 11″) is left to the caller, who has the spacecraft position.
 //   - The frame bias between ICRS/GCRS and EME2000 (≈ 0.02″) is ignored.
+//   - The Moon is geocentric: from a spacecraft at r its direction differs
+//     by up to asin(r/Δ) (about 1° in LEO, 6° at GEO); the caller subtracts
+//     the spacecraft position. Nutation (< 20″) is not applied.
 //
 // # Accuracy
 //
@@ -58,7 +70,12 @@
 //     Sun" (any recent year), from memory; also Vallado 2013 Algorithm 29.
 //   - J. Meeus, Astronomical Algorithms, 2nd ed., Willmann-Bell 1998:
 //     ch. 7 (Julian day), ch. 12 (sidereal time, eq. 12.4), ch. 21
-//     (precession, eq. 21.2–21.4), ch. 25 (solar coordinates).
+//     (precession, eq. 21.2–21.4), ch. 22 (obliquity, eq. 22.2), ch. 25
+//     (solar coordinates), ch. 47 (position of the Moon, Example 47.a),
+//     ch. 48 (illuminated fraction, Example 48.a).
+//   - B. A. Archinal et al., "Report of the IAU Working Group on
+//     Cartographic Coordinates and Rotational Elements: 2015", Celest.
+//     Mech. Dyn. Astr. 130:22 (2018) (mean lunar radius 1737.4 km).
 //   - D. A. Vallado, Fundamentals of Astrodynamics and Applications, 4th
 //     ed., Microcosm 2013: eqs. 3-40–3-47, Example 3-5, Example 5-1.
 //   - J. H. Lieske, T. Lederle, W. Fricke, B. Morando, "Expressions for
@@ -69,6 +86,6 @@
 //     GRL 38, L01706 (2011).
 //   - O. Montenbruck, E. Gill, Satellite Orbits, Springer 2000, §3.4
 //     (solar radius for shadows), from memory.
-//   - IAU SOFA / ERFA (pyerfa 2.0.0.1, Debian python3-erfa) as the
-//     reference library of the tests.
+//   - IAU SOFA / ERFA (pyerfa 2.0.0.1, Debian python3-erfa) and astropy
+//     5.2.1 (Debian python3-astropy) as the reference libraries of the tests.
 package ephem

@@ -1,0 +1,67 @@
+package ephem
+
+import (
+	"math"
+
+	"github.com/soniakeys/meeus/v3/base"
+	"github.com/soniakeys/meeus/v3/moonposition"
+	"github.com/soniakeys/meeus/v3/nutation"
+	"github.com/soniakeys/unit"
+	"gonum.org/v1/gonum/spatial/r3"
+)
+
+// MoonRadiusKm is the mean radius of the Moon (IAU WG on Cartographic
+// Coordinates and Rotational Elements, Archinal et al. 2018: 1737.4 km).
+const MoonRadiusKm = 1737.4
+
+// Moon is the lunar theory of Meeus, Astronomical Algorithms 2nd ed. 1998,
+// ch. 47 (the principal terms of ELP-2000/82, stated about 10″ in longitude
+// and 4″ in latitude) through github.com/soniakeys/meeus/v3/moonposition.
+// Position gives the geocentric Moon in EME2000: the longitude and latitude
+// on the mean ecliptic and equinox of date are turned into the mean equator
+// of date by the mean obliquity of date (Meeus (22.2), nutation.MeanObliquity)
+// and brought to J2000 by IAU 1976 precession. Nutation is not applied (the
+// frame is the mean one). It has the method set of Sun, so the step loop's
+// interpolation serves it as well. The zero value is ready to use.
+type Moon struct{}
+
+// MoonEclipticOfDate returns the geocentric longitude λ and latitude β (rad)
+// of the Moon on the mean ecliptic and equinox of the date and its distance
+// (km, centre to centre), at the TT Julian date jdTT (Meeus 1998 ch. 47;
+// TDB = TT).
+func MoonEclipticOfDate(jdTT float64) (λ, β, distKm float64) {
+	l, b, d := moonposition.Position(jdTT)
+	return l.Rad(), b.Rad(), d
+}
+
+// Position returns the unit vector from the Earth's centre to the Moon in
+// EME2000 and the distance in km.
+func (Moon) Position(jdTT float64) (r3.Vec, float64) {
+	λ, β, d := MoonEclipticOfDate(jdTT)
+	sε, cε := math.Sincos(nutation.MeanObliquity(jdTT).Rad())
+	sλ, cλ := math.Sincos(λ)
+	sβ, cβ := math.Sincos(β)
+	// Ecliptic → equator of date: a rotation by ε about the x axis.
+	x, y, z := cβ*cλ, cε*cβ*sλ-sε*sβ, sε*cβ*sλ+cε*sβ
+	P := precessionJ2000ToDate(CenturiesTT(jdTT))
+	x, y, z = P.mulTrans(x, y, z)
+	return r3.Vec{X: x, Y: y, Z: z}, d
+}
+
+// MoonPhaseAngle returns the phase angle i (rad) of the Moon, the angle at
+// the Moon between the sun and the Earth, from geocentric vectors to the
+// Moon and to the sun (any common unit): Meeus 1998 (48.2) and (48.3),
+// tan i = R·sin ψ / (Δ − R·cos ψ) with ψ the geocentric elongation.
+func MoonPhaseAngle(moon, sun r3.Vec) float64 {
+	Δ, R := math.Sqrt(r3.Norm2(moon)), math.Sqrt(r3.Norm2(sun))
+	cψ := r3.Dot(moon, sun) / (Δ * R)
+	sψ := math.Sqrt(r3.Norm2(r3.Cross(moon, sun))) / (Δ * R)
+	return math.Atan2(R*sψ, Δ-R*cψ)
+}
+
+// MoonIlluminatedFraction returns the illuminated fraction k of the Moon's
+// disc seen from the Earth, k = (1 + cos i)/2 (Meeus 1998 (48.1),
+// base.Illuminated), from geocentric vectors to the Moon and to the sun.
+func MoonIlluminatedFraction(moon, sun r3.Vec) float64 {
+	return base.Illuminated(unit.Angle(MoonPhaseAngle(moon, sun)))
+}

@@ -25,6 +25,12 @@
 //     kinematics q̇ = −½ (0, ω) ⊗ q (Wertz 1978 §16.1–16.2; Markley &
 //     Crassidis 2014 §3.3), integrated by classical RK4 at a step of
 //     0.005 rad of rotation, with restart checkpoints.
+//   - Detumble: a body whose rate decays as ω₀·e^(−t/τ) about a fixed body
+//     axis, the linear-regime behaviour of a B-dot detumbling controller
+//     (Stickler & Alfriend 1976; Avanzini & Giulietti 2012; from memory),
+//     chosen over a B-dot law with a dipole field because the tool has no
+//     geomagnetic field model and a stated time constant is what a
+//     controller analysis gives; it turns θ(t) = ω₀τ(1 − e^(−t/τ)).
 //   - Isotropic: an independent uniform random attitude at each time
 //     (Shoemake 1992), a pure function of (seed, t).
 //   - Schedule: one law in sunlight and one in eclipse. The loop passes the

@@ -21,12 +21,7 @@ import (
 // issue that fixes it. Where such an invariant fails, the case is skipped
 // with the issue and the drawn numbers; where it holds it passes as usual.
 // Remove an entry as soon as its fix lands.
-var knownFailures = map[string]string{
-	// Left after the quadrant validity gate: a sun parked on the edge of the
-	// calibrated linear range for the whole run (an inertial attitude) flips
-	// validity on a 0.01° shift; any gate edge does that.
-	"small-errors-continuous-quadrant": "issue 12 (sun parked on the edge of a quadrant validity gate)",
-}
+var knownFailures = map[string]string{}
 
 // envInt reads a whole-number environment variable.
 func envInt(t testing.TB, key string, def int) int {

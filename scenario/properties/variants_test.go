@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+	"time"
 
 	"gonum.org/v1/gonum/num/quat"
 	"gonum.org/v1/gonum/spatial/r3"
@@ -240,8 +241,16 @@ func smallErrors(kind string) func(c *runCase) failures {
 					f.addf("%d %s sensors, %s: %s %s %.4f, ideal %.4f", len(keep), kind, v.label, e0.Name, what, x1, x0)
 				}
 			}
-			cmp("valid without albedo", e0.ValidFractionNoAlbedo, e1.ValidFractionNoAlbedo)
-			cmp("valid not only because of albedo", e0.ValidFraction-e0.AlbedoOnlyFraction, e1.ValidFraction-e1.AlbedoOnlyFraction)
+			// Where the sun stays (almost) put in the body frame, a
+			// validity gate edge crossed during the run is crossed at a
+			// crawl: a shift of a few hundredths of a degree moves the
+			// crossing by a large share of the run. The share then
+			// depends on the offset with a steep but continuous slope;
+			// the invariant presumes the sun sweeps across the gates.
+			if !sunParked(c.b.file) {
+				cmp("valid without albedo", e0.ValidFractionNoAlbedo, e1.ValidFractionNoAlbedo)
+				cmp("valid not only because of albedo", e0.ValidFraction-e0.AlbedoOnlyFraction, e1.ValidFraction-e1.AlbedoOnlyFraction)
+			}
 			p95 := func(what string, s0, s1 sim.ErrorStats) {
 				// A p95 over fewer than 200 samples of a broad
 				// distribution moves by degrees from one sample more or
@@ -257,6 +266,31 @@ func smallErrors(kind string) func(c *runCase) failures {
 		}
 		return f
 	}
+}
+
+// sunParked reports whether the sun moves less than 2° in the body frame
+// over the whole run: an inertial attitude for less than about two days
+// (the sun moves 0.9856°/day in inertial space, Astronomical Almanac, from
+// memory), or sun pointing without a rate about the sun line (the sun is
+// fixed in the body by construction).
+func sunParked(f *randscenario.File) bool {
+	laws := []randscenario.Law{f.Attitude}
+	if f.Attitude.Law == "" && f.Attitude.InSunlight != nil {
+		laws = []randscenario.Law{*f.Attitude.InSunlight}
+	}
+	d, err := time.ParseDuration(f.Duration)
+	if err != nil {
+		return false
+	}
+	for _, l := range laws {
+		switch {
+		case l.Law == "inertial" && d.Hours()/24*0.9856 < 2:
+		case l.Law == "sun" && (l.RateDegS == nil || *l.RateDegS == 0):
+		default:
+			return false
+		}
+	}
+	return true
 }
 
 // idealCosine makes every cosine sensor ideal (no errors, no ADC, no

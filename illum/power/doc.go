@@ -39,6 +39,11 @@
 // edge: 4e-4 relative at 3600 steps per orbit for an along-track panel that
 // is lit at shadow exit, 3e-7 for a zenith panel (TestPowerNadirBodyPanelsClosedForm
 // in scenario/sim).
+// Against an independent numpy integration of body panels in nadir
+// pointing (ERFA sun, two-body orbit, its own conical shadow; three orbits,
+// seven panel normals, one period each) the orbit averages agree within
+// 1.9e-4 relative at a 1 s step with the Meeus sun
+// (TestPowerNadirPanelsAgainstNumpy in scenario/sim).
 //
 // # References
 //

@@ -101,6 +101,11 @@ type Config struct {
 	SeriesStride   int
 	SunTrackPoints int
 
+	// Filter, when set, runs the gyro-aided sun-direction filter beside
+	// the estimators (UnitResult.Filter). A filter runs forward from the
+	// epoch, so each unit then runs in one piece.
+	Filter *FilterConfig
+
 	// Panels, when set, are the solar panels whose power is followed over
 	// the run with the nominal attitude (Result.Power).
 	Panels *power.Array
@@ -150,6 +155,11 @@ func (c *Config) Validate() error {
 	case c.AlbedoResponse != nil && len(c.AlbedoResponse) != c.Array.Len():
 		return fmt.Errorf("sim: %d albedo responses for %d sensors", len(c.AlbedoResponse), c.Array.Len())
 	}
+	if c.Filter != nil {
+		if err := c.Filter.Validate(); err != nil {
+			return err
+		}
+	}
 	for _, g := range c.Gates {
 		if err := g.Validate(); err != nil {
 			return fmt.Errorf("sim: %w", err)
@@ -197,8 +207,9 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	}
 	steps := cfg.Steps()
 	chunk := chunkSteps
-	if _, numeric := cfg.NewPropagator().(orbit.Restarter); numeric {
-		// A numerical integration runs forward from the epoch: one piece.
+	if _, numeric := cfg.NewPropagator().(orbit.Restarter); numeric || cfg.Filter != nil {
+		// A numerical integration, or a filter, runs forward from the
+		// epoch: one piece.
 		chunk = steps
 	}
 	nChunks := (steps + chunk - 1) / chunk

@@ -62,8 +62,10 @@ type UnitResult struct {
 	FalseSunFraction float64
 	BetaMinDeg       float64
 	BetaMaxDeg       float64
-	Series           *Series  // unit 0 only, when asked for
-	SunTrack         []r3.Vec // body-frame sun directions in sunlight (unit 0)
+	// Filter holds the gyro-aided filter's figures; nil without one.
+	Filter   *FilterStats
+	Series   *Series  // unit 0 only, when asked for
+	SunTrack []r3.Vec // body-frame sun directions in sunlight (unit 0)
 	// NadirTrack is the body-frame nadir (unit 0) at the same stride as
 	// SunTrack, sunlit or not: where the Earth sits in body axes.
 	NadirTrack []r3.Vec
@@ -215,6 +217,10 @@ type unitAcc struct {
 	unit                      int
 	k0                        int // first step of the piece accumulated
 	names                     []string
+	// primary is the primary estimator's realistic gated estimate of the
+	// last step (the filter starts from it); filter the filter's figures.
+	primary sensor.Estimate
+	filter  *FilterStats
 }
 
 func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float64) *unitAcc {
@@ -352,6 +358,7 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		}
 		if j == 0 {
 			primaryValid = eAlb.Valid && sunlit
+			a.primary = eAlb
 		}
 	}
 	if a.trackStride > 0 && k%a.trackStride == 0 {
@@ -473,7 +480,7 @@ func (a *unitAcc) result() *UnitResult {
 		SunlitFraction: frac(a.sunlit, a.samples), PenumbraFraction: frac(a.pen, a.samples),
 		UmbraFraction: frac(a.umb, a.samples), FalseSunFraction: frac(a.falseSunAny, a.umb),
 		BetaMinDeg: degOf(math.Asin(a.betaMin)), BetaMaxDeg: degOf(math.Asin(a.betaMax)),
-		Series: a.series, SunTrack: a.track, NadirTrack: a.nadirTrack,
+		Series: a.series, SunTrack: a.track, NadirTrack: a.nadirTrack, Filter: a.filter,
 	}
 	for k := 1; k <= 3; k++ {
 		r.SeenAtLeast[k] = frac(a.seenAtLeast[k], a.sunlit)

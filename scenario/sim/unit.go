@@ -44,6 +44,7 @@ type stepGeom struct {
 	sunBody   r3.Vec
 	nadirBody r3.Vec
 	sinBeta   float64
+	body      bodyMatrix // the attitude (body ← ECI)
 }
 
 // geometry computes stepGeom and, with an albedo model, each sensor's albedo
@@ -171,7 +172,7 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 		M = attitudeRot(g.law.Attitude(t, st, sunU)).matrix()
 	}
 	sg := stepGeom{t: t, region: region, lit: lit, direct: solarIrradiance(sunD) * lit, sunBody: M.toBody(sunU),
-		nadirBody: M.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU)}
+		nadirBody: M.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU), body: M}
 	if g.alb == nil {
 		return sg
 	}
@@ -230,6 +231,7 @@ type reader struct {
 	acc             *unitAcc
 	unit            int
 	withAlbedo      bool
+	filt            *gyroFilter // nil without a filter
 }
 
 func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
@@ -247,6 +249,9 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 		} else {
 			r.sees = append(r.sees, s.SeesSun)
 		}
+	}
+	if cfg.Filter != nil {
+		r.filt = newGyroFilter(cfg, cfg.Array, u)
 	}
 	r.acc = newUnitAcc(cfg, arr, r.withAlbedo, u == 0, float64(k0)*cfg.Step)
 	r.acc.unit, r.acc.k0 = u, k0
@@ -289,6 +294,13 @@ func (r *reader) step(k int, g *stepGeom, albBody []sensor.Albedo) {
 		}
 	}
 	r.acc.step(k, g.t, g.region, g.lit, seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.arr, r.ests)
+	if r.filt != nil {
+		real := r.readNo
+		if r.withAlbedo {
+			real = r.readAlb
+		}
+		r.filt.step(g, real, r.acc.primary)
+	}
 }
 
 // runChunk simulates the steps [tk.k0, tk.k1) of units [tk.u0, tk.u1),
@@ -326,6 +338,9 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 	accs := make([]*unitAcc, len(readers))
 	for i, r := range readers {
 		r.acc.end(min(float64(tk.k1)*cfg.Step, cfg.Duration))
+		if r.filt != nil {
+			r.acc.filter = r.filt.result(min(float64(tk.k1)*cfg.Step, cfg.Duration))
+		}
 		accs[i] = r.acc
 	}
 	return accs, nil

@@ -1,0 +1,229 @@
+package sim
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sensor/filter"
+)
+
+// FilterConfig runs the gyro-aided sun-direction filter (illum/sensor/filter)
+// beside the point estimators, on the same realistic readings. The gyro
+// flown (the truth) and the gyro the filter assumes have the same stated
+// errors: Settings.ARW, BiasSigma and BiasTau.
+type FilterConfig struct {
+	Settings filter.Settings
+	// CosineSigma (normalised signal) is added in quadrature to the 1σ the
+	// filter gives a cosine reading beyond the sensor's own stated errors
+	// (noise, dark offset, gain, misalignment, quantisation): an allowance
+	// for albedo and for errors that last longer than a step.
+	CosineSigma float64
+	// HoldBoundDeg is the error (deg) up to which the filter's estimate
+	// counts as holding through a spell without a valid point estimate.
+	HoldBoundDeg float64
+}
+
+// Validate checks the configuration.
+func (c *FilterConfig) Validate() error {
+	if err := c.Settings.Validate(); err != nil {
+		return fmt.Errorf("sim: %w", err)
+	}
+	if !(c.CosineSigma >= 0) || math.IsInf(c.CosineSigma, 0) {
+		return fmt.Errorf("sim: filter cosine sigma %g: want a finite value ≥ 0", c.CosineSigma)
+	}
+	if c.Settings.StartSigma > c.Settings.MaxSigma {
+		return fmt.Errorf("sim: filter start sigma %g rad above its valid sigma %g rad: a start would never be valid", c.Settings.StartSigma, c.Settings.MaxSigma)
+	}
+	if !(c.HoldBoundDeg > 0 && c.HoldBoundDeg < 180) {
+		return fmt.Errorf("sim: filter hold bound %g°: want (0°, 180°)", c.HoldBoundDeg)
+	}
+	return nil
+}
+
+// FilterStats are the filter's figures for one unit. Unlike the point
+// estimators' (sunlit time), its shares and errors run over the whole run:
+// holding the sun through eclipse is what it is for.
+type FilterStats struct {
+	// ValidFraction is the share of all samples with a valid filter
+	// estimate; ValidShadowFraction that of the samples in eclipse
+	// (penumbra or umbra; NaN without any).
+	ValidFraction, ValidShadowFraction float64
+	// Err is the error to the true sun over every valid sample; ErrShadow
+	// over those in eclipse.
+	Err, ErrShadow ErrorStats
+	// HoldLastShadow is, for comparison, the error in eclipse of the last
+	// valid primary point estimate held as it was (body axes): what the
+	// point estimator alone gives through eclipse without a gyro.
+	HoldLastShadow ErrorStats
+	// Outages are the spells without a valid primary point estimate
+	// (sunlit or not) after the filter's first start; OutagesHeld those through which the filter stayed
+	// valid and within HoldBoundDeg of the sun. ShortestBreakS is the
+	// shortest time from an outage's start until the filter left the bound
+	// (NaN when every outage was held); LongestHeldS the longest outage
+	// held whole.
+	Outages, OutagesHeld         int
+	ShortestBreakS, LongestHeldS float64
+	// Starts counts the (re)starts of the filter from a point estimate.
+	Starts       int
+	HoldBoundDeg float64
+}
+
+// gyroFilter is one unit's filter, its gyro and its accumulator.
+type gyroFilter struct {
+	cfg      *FilterConfig
+	f        *filter.Filter
+	gyro     filter.Gyro
+	rng      *rand.Rand
+	cosine   []bool
+	sigma    []float64 // 1σ per reading: normalised signal (cosine) or rad
+	boresite []r3.Vec
+	prev     bodyMatrix
+	prevT    float64
+	started  bool // a step has been seen
+
+	// accumulator
+	samples, valid, shadow, validShadow int
+	mErr, mShadow, mHold                Moments
+	qErr, qShadow, qHold                *Quantiles
+	lastDir                             r3.Vec
+	haveLast                            bool
+	inOutage, broken                    bool
+	outStart                            float64
+	outages, held, starts               int
+	shortestBreak, longestHeld          float64
+}
+
+// newGyroFilter builds unit u's filter; its gyro draws come from their own
+// stream, so the readings' noise is the same with the filter on or off.
+func newGyroFilter(cfg *Config, nominal *sensor.Array, u int) *gyroFilter {
+	fc := cfg.Filter
+	f, err := filter.New(fc.Settings)
+	if err != nil {
+		panic(err) // Validate checked the settings
+	}
+	rng := rand.New(rand.NewPCG(cfg.Seed^0x6a09e667f3bcc908, uint64(u)))
+	g := &gyroFilter{cfg: fc, f: f, rng: rng, qErr: NewQuantiles(), qShadow: NewQuantiles(), qHold: NewQuantiles(),
+		gyro:          filter.NewGyro(fc.Settings.ARW, fc.Settings.BiasSigma, fc.Settings.BiasTau, rng),
+		shortestBreak: math.Inf(1)}
+	for _, s := range nominal.Sensors() {
+		g.boresite = append(g.boresite, s.Mount().Boresight())
+		c, isCos := s.(*sensor.Cosine)
+		g.cosine = append(g.cosine, isCos)
+		if isCos {
+			g.sigma = append(g.sigma, cosineSigma(c.Spec().Errors, fc.CosineSigma))
+		} else {
+			g.sigma = append(g.sigma, s.Sigma())
+		}
+	}
+	return g
+}
+
+// cosineSigma is the 1σ of one cosine reading (normalised signal): noise,
+// dark offset, gain and misalignment at full sun (sin δ ≈ δ), the
+// quantisation step over √12 (uniform), and the allowance, in quadrature,
+// never below 1e-4 (a floor against a zero variance).
+func cosineSigma(e sensor.Errors, extra float64) float64 {
+	v := e.NoiseSigma*e.NoiseSigma + e.DarkSigma*e.DarkSigma + e.GainSigma*e.GainSigma +
+		e.MisalignSigma*e.MisalignSigma + extra*extra
+	if e.ADCBits > 0 {
+		q := e.FullScale / float64(uint64(1)<<e.ADCBits)
+		v += q * q / 12
+	}
+	return math.Max(math.Sqrt(v), 1e-4)
+}
+
+// step advances the filter to step k and folds it in: gyro propagation
+// from the previous step, the valid realistic readings, a (re)start from
+// the primary point estimate prim when the filter is not valid. It
+// allocates nothing.
+func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estimate) {
+	if g.started {
+		dt := sg.t - g.prevT
+		g.f.Propagate(g.gyro.Measure(filter.DeltaAngle(g.prev, sg.body), dt, g.rng), dt)
+	}
+	g.prev, g.prevT, g.started = sg.body, sg.t, true
+	if !g.f.Valid() && prim.Valid {
+		g.f.Start(prim.Dir)
+		g.starts++
+	} else if g.f.Started() {
+		for i := range read {
+			r := &read[i]
+			if !r.Valid {
+				continue
+			}
+			if g.cosine[i] {
+				g.f.Cosine(g.boresite[i], r.Signal, g.sigma[i])
+			} else {
+				g.f.Direction(r.Dir, math.Max(g.sigma[i], r.Sigma))
+			}
+		}
+	}
+	g.samples++
+	shadow := sg.region != illum.Sunlit
+	if shadow {
+		g.shadow++
+	}
+	valid := g.f.Valid()
+	errDeg := math.Inf(1)
+	if valid {
+		errDeg = degOf(angleBetween(g.f.Sun(), sg.sunBody))
+		g.valid++
+		g.mErr.Add(errDeg)
+		g.qErr.Add(errDeg)
+		if shadow {
+			g.validShadow++
+			g.mShadow.Add(errDeg)
+			g.qShadow.Add(errDeg)
+		}
+	}
+	if prim.Valid {
+		g.lastDir, g.haveLast = prim.Dir, true
+	} else if shadow && g.haveLast {
+		d := degOf(angleBetween(g.lastDir, sg.sunBody))
+		g.mHold.Add(d)
+		g.qHold.Add(d)
+	}
+	// Outages of the primary point estimate.
+	switch {
+	case !prim.Valid && !g.inOutage && g.f.Started():
+		g.inOutage, g.broken, g.outStart = true, false, sg.t
+		g.outages++
+		fallthrough
+	case !prim.Valid && g.inOutage:
+		if !g.broken && !(errDeg <= g.cfg.HoldBoundDeg) {
+			g.broken = true
+			g.shortestBreak = math.Min(g.shortestBreak, sg.t-g.outStart)
+		}
+	case g.inOutage:
+		g.closeOutage(sg.t)
+	}
+}
+
+// closeOutage ends the running outage at t.
+func (g *gyroFilter) closeOutage(t float64) {
+	g.inOutage = false
+	if !g.broken {
+		g.held++
+		g.longestHeld = math.Max(g.longestHeld, t-g.outStart)
+	}
+}
+
+// result closes the run at tEnd and returns the figures.
+func (g *gyroFilter) result(tEnd float64) *FilterStats {
+	if g.inOutage {
+		g.closeOutage(tEnd)
+	}
+	s := &FilterStats{ValidFraction: frac(g.valid, g.samples), ValidShadowFraction: frac(g.validShadow, g.shadow),
+		Err: errorStats(&g.mErr, g.qErr), ErrShadow: errorStats(&g.mShadow, g.qShadow), HoldLastShadow: errorStats(&g.mHold, g.qHold),
+		Outages: g.outages, OutagesHeld: g.held, ShortestBreakS: g.shortestBreak, LongestHeldS: g.longestHeld,
+		Starts: g.starts, HoldBoundDeg: g.cfg.HoldBoundDeg}
+	if math.IsInf(s.ShortestBreakS, 1) {
+		s.ShortestBreakS = math.NaN()
+	}
+	return s
+}

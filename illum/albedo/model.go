@@ -285,7 +285,7 @@ func sumCells(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Re
 	x, y := toFrame(sn.X, ex, ey, ez), toFrame(sn.Y, ex, ey, ez)
 	p := toFrame(sn.Plane, ex, ey, ez)
 	var res Result
-	if math.Acos(max(-1, min(1, -n.Z))) >= geo.η+sn.HalfAngle+geo.halfWidth {
+	if missesDisc(n, sn.HalfAngle, geo) {
 		return res
 	}
 	var dx, dy, dz, count float64
@@ -312,74 +312,91 @@ func sumCells(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Re
 		dz += we * l.uz
 	}
 	if res.Irradiance > 0 {
-		res.Dir = vecmath.Unit(r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez)))
+		res.Dir = capToECI(dx, dy, dz, ex, ey, ez)
 	}
 	cosH := math.Cos(sn.HalfAngle)
 	res.Fill = min(1, count*geo.cellSolidAngle/(2*math.Pi*(1-cosH)))
 	return res
 }
 
-// sumSensor integrates the lit cells over one sensor's cone.
+// coneWeight is the weight a cone sensor gives a cell at cos θ = c from its
+// boresight. Cells within hw of the cone edge are cut by it: the sensor
+// weight is averaged over the cell, taking cos θ as uniform on [c − δ, c + δ],
+// δ = hw·sin θ (hw = half the angular cell size). Away from the edge the
+// weight is cos θ (cosine) or R(θ) at the centre. Every cell has the same
+// solid angle, so the filled solid angle is that times the cell count.
+type coneWeight struct {
+	cosH, hw, inner, outer float64
+	resp                   Response
+	cosine                 bool
+}
+
+func newConeWeight(sn *Sensor, hw float64) coneWeight {
+	cosH := math.Cos(sn.HalfAngle)
+	if sn.HalfAngle >= math.Pi/2 {
+		cosH = 0
+	}
+	return coneWeight{cosH: cosH, hw: hw, inner: cosH + hw, outer: cosH - hw, resp: sn.Response, cosine: sn.Response.IsCosine()}
+}
+
+// edge returns the weight f of a cell at c with outer < c and not (c ≥
+// inner on a cosine response), and the share frac of the cell inside the
+// cone; frac = 0 means the cell is out of view. The common case (a cosine
+// sensor, the cell wholly inside: f = c) is left to the caller's loop.
+func (k *coneWeight) edge(c float64) (f, frac float64) {
+	if c >= k.inner {
+		return k.resp.At(c), 1
+	}
+	δ := k.hw * math.Sqrt(max(0, 1-c*c))
+	lo, hi := max(k.cosH, c-δ), c+δ
+	switch {
+	case δ == 0 && c > k.cosH:
+		return k.resp.At(c), 1
+	case δ == 0 || lo >= hi:
+		return 0, 0
+	}
+	frac = (hi - lo) / (2 * δ)
+	if k.cosine {
+		return (hi*hi - lo*lo) / (4 * δ), frac // mean of c over [lo, hi] × frac
+	}
+	return frac * k.resp.At(0.5*(lo+hi)), frac
+}
+
+// missesDisc reports whether a cone of half-angle h about the cap-frame
+// boresight n misses the Earth's disc (angular radius η about nadir −z)
+// with a cell's margin: it then sees nothing.
+func missesDisc(n r3.Vec, h float64, geo *capGeometry) bool {
+	return math.Acos(max(-1, min(1, -n.Z))) >= geo.η+h+geo.halfWidth
+}
+
+// sumSensor integrates the lit cells over one sensor's cone: E = Σ L R(θ) ω
+// (Bhanderi & Bak 2005, from memory), with the cone weights of coneWeight.
 func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Result {
 	if sn.Cells != nil {
 		return sumCells(lit, sn, ex, ey, ez, geo)
 	}
 	n := toFrame(sn.Normal, ex, ey, ez)
 	p := toFrame(sn.Plane, ex, ey, ez)
-	cosH := math.Cos(sn.HalfAngle)
-	if sn.HalfAngle >= math.Pi/2 {
-		cosH = 0
-	}
 	var res Result
-	hw := geo.halfWidth
-	// A cone that misses the Earth's disc (angular radius η about nadir −z)
-	// sees nothing: skip the sum.
-	if math.Acos(max(-1, min(1, -n.Z))) >= geo.η+sn.HalfAngle+hw {
+	if missesDisc(n, sn.HalfAngle, geo) {
 		return res
 	}
-	// Cells within hw of the cone edge are cut by it: the sensor weight is
-	// averaged over the cell, taking cos θ as uniform on [c − δ, c + δ],
-	// δ = hw·sin θ (hw = half the angular cell size). Away from the edge the
-	// weight is cos θ (cosine) or R(θ) at the centre. Every cell has the same
-	// solid angle, so the filled solid angle is that times the cell count.
+	cw := newConeWeight(sn, geo.halfWidth)
 	var e, dx, dy, dz, count float64
-	inner, outer := cosH+hw, cosH-hw
-	cosine := sn.Response.IsCosine()
 	for k := range lit {
 		l := &lit[k]
 		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
-		if behind(p, l) {
+		if c <= cw.outer || behind(p, l) {
 			continue
 		}
-		var we float64
-		switch {
-		case c >= inner && cosine:
-			we = l.w * c // E = Σ L R(θ) ω with R = cos θ (Bhanderi & Bak 2005, from memory)
-			count++
-		case c <= outer:
-			continue
-		case c >= inner:
-			we = l.w * sn.Response.At(c)
-			count++
-		default:
-			δ := hw * math.Sqrt(max(0, 1-c*c))
-			lo, hi := max(cosH, c-δ), c+δ
-			switch {
-			case δ == 0 && c > cosH:
-				we = l.w * sn.Response.At(c)
-				count++
-			case δ == 0 || lo >= hi:
+		f, frac := c, 1.0
+		if !(cw.cosine && c >= cw.inner) {
+			if f, frac = cw.edge(c); frac == 0 {
 				continue
-			default:
-				frac := (hi - lo) / (2 * δ)
-				count += frac
-				if cosine {
-					we = l.w * (hi*hi - lo*lo) / (4 * δ) // mean of c over [lo, hi] × frac
-				} else {
-					we = l.w * frac * sn.Response.At(0.5*(lo+hi))
-				}
 			}
 		}
+		count += frac
+		we := l.w * f
 		e += we
 		dx += we * l.ux
 		dy += we * l.uy
@@ -387,11 +404,15 @@ func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) R
 	}
 	if e > 0 {
 		res.Irradiance = e
-		d := r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez))
-		res.Dir = vecmath.Unit(d)
+		res.Dir = capToECI(dx, dy, dz, ex, ey, ez)
 	}
-	res.Fill = min(1, count*geo.cellSolidAngle/(2*math.Pi*(1-cosH)))
+	res.Fill = min(1, count*geo.cellSolidAngle/(2*math.Pi*(1-cw.cosH)))
 	return res
+}
+
+// capToECI returns the unit vector along the cap-frame sum (dx, dy, dz).
+func capToECI(dx, dy, dz float64, ex, ey, ez r3.Vec) r3.Vec {
+	return vecmath.Unit(r3.Add(r3.Add(r3.Scale(dx, ex), r3.Scale(dy, ey)), r3.Scale(dz, ez)))
 }
 
 // ViewFactor returns the geometric view factor from a flat element with unit

@@ -62,3 +62,18 @@ func BenchmarkLocalTable(b *testing.B) {
 		}
 	})
 }
+
+// BenchmarkBoresightTableBuild: the build of one default boresight table
+// (60° cosine cone, one radius at 550 km), the fixed cost a run with albedo
+// and a non-nadir attitude pays before its first step.
+func BenchmarkBoresightTableBuild(b *testing.B) {
+	m, err := New(Config{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		if _, err := NewBoresightTable(m, []float64{EarthRadiusKm + 550}, math.Pi/3, Response{}, DefaultBoresightSunResDeg, DefaultBoresightStepDeg); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -42,10 +42,7 @@ type localAlbedo struct {
 
 // Boresight tables: the radius range they may span (at most
 // boresightMaxRadii radii boresightRadiusStepKm apart; the test of
-// illum/albedo measures the error between radii that far apart), and the
-// run length from which they pay for their build (about 1 s per radius and
-// kind of cone on this project's 2-core machine, against ~2.5 µs per sensor
-// and step for the integral).
+// illum/albedo measures the error between radii that far apart).
 const (
 	boresightRadiusStepKm = 25.0
 	boresightMaxRadii     = 4
@@ -59,9 +56,12 @@ const (
 const localTableMaxSensors = 8
 
 // boresightMinWork is the number of sensor integrals (steps × sets of
-// geometry × sensors) per table from which the boresight tables are built.
-// A variable so tests can use them on short runs.
-var boresightMinWork = 400_000
+// geometry × sensors) per table from which the boresight tables are built:
+// one radius and kind of cone builds in about 0.05 s of CPU
+// (BenchmarkBoresightTableBuild in illum/albedo), the time of some 20 000
+// sensor integrals at ~2.5 µs each (BenchmarkIrradianceSixSensors). A
+// variable so tests can use them on short runs.
+var boresightMinWork = 20_000
 
 // newAlbedoTable returns the table that serves the run, or nil (the loop
 // integrates every step). sets is the number of geometries the run

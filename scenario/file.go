@@ -15,6 +15,7 @@ type fileScenario struct {
 	Shadow     string         `yaml:"shadow"`
 	Attitude   fileAttitude   `yaml:"attitude"`
 	Modes      []fileMode     `yaml:"modes,omitempty"`
+	Timeline   *fileTimeline  `yaml:"timeline,omitempty"`
 	Body       fileBody       `yaml:"body"`
 	Estimators []string       `yaml:"estimators"`
 	Albedo     fileAlbedo     `yaml:"albedo"`
@@ -67,6 +68,7 @@ type fileLaw struct {
 	MinRateDegS    *float64  `yaml:"min_rate_deg_s,omitempty"`
 	InertiaKgM2    []float64 `yaml:"inertia_kg_m2,omitempty"`
 	File           string    `yaml:"file,omitempty"`
+	TimeConstant   *Span     `yaml:"time_constant,omitempty"`
 }
 
 type fileAttitude struct {
@@ -78,6 +80,31 @@ type fileAttitude struct {
 type fileMode struct {
 	Name         string `yaml:"name"`
 	fileAttitude `yaml:",inline"`
+}
+
+// fileTimeline is a mission timeline: phases flown in turn.
+type fileTimeline struct {
+	SlewRateDegS   *float64    `yaml:"slew_rate_deg_s,omitempty"`
+	SlewAccelDegS2 *float64    `yaml:"slew_accel_deg_s2,omitempty"`
+	Phases         []filePhase `yaml:"phases"`
+}
+
+type filePhase struct {
+	Name          string     `yaml:"name"`
+	Attitude      fileLaw    `yaml:"attitude"`
+	Slew          bool       `yaml:"slew"`
+	DuringEclipse string     `yaml:"during_eclipse"`
+	Until         *fileUntil `yaml:"until,omitempty"`
+}
+
+// fileUntil is a phase's end condition: exactly one of its keys
+// (sun_seen_sensors goes with sun_seen_for).
+type fileUntil struct {
+	Elapsed        *Span    `yaml:"elapsed,omitempty"`
+	RateBelowDegS  *float64 `yaml:"rate_below_deg_s,omitempty"`
+	SunSeenFor     *Span    `yaml:"sun_seen_for,omitempty"`
+	SunSeenSensors *int     `yaml:"sun_seen_sensors,omitempty"`
+	Eclipse        string   `yaml:"eclipse,omitempty"`
 }
 
 type fileErrors struct {

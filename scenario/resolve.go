@@ -163,7 +163,14 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 	r.choice("sun_model", &f.SunModel, defaultSunModel, ephem.SunModelNames())
 	r.choice("shadow", &f.Shadow, defaultShadow, illum.ShadowNames())
 	s.SunModel, s.Shadow = f.SunModel, f.Shadow
-	s.Attitude = r.attitude("attitude", &f.Attitude)
+	if f.Timeline != nil {
+		if _, given := r.nodes["attitude"]; given {
+			r.fail("attitude", "value is given with timeline; allowed one of them (the timeline's phases carry the attitude)")
+		}
+		s.Attitude = Attitude{Law: Law{Name: LawTimeline}}
+	} else {
+		s.Attitude = r.attitude("attitude", &f.Attitude)
+	}
 	names := map[string]bool{}
 	for i := range f.Modes {
 		m := &f.Modes[i]
@@ -177,6 +184,9 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 		s.Modes = append(s.Modes, Mode{Name: m.Name, Attitude: r.attitude(p, &m.fileAttitude)})
 	}
 	s.Body = r.body(&f.Body)
+	if f.Timeline != nil {
+		s.Timeline = r.timeline(f.Timeline, len(s.Body.Sensors))
+	}
 	s.Estimators = r.estimators(f, s.Body.Sensors)
 	s.Albedo = r.albedo(&f.Albedo)
 	s.Validity = r.validity(&f.Validity, s.Estimators)
@@ -450,7 +460,7 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 			r.fail(path+".file", "value is missing; allowed the path of an attitude history: a CCSDS AEM (KVN, .aem) or a table time_utc,qx,qy,qz,qw (.csv)")
 		}
 		out.File = r.path(l.File)
-	case LawTumble:
+	case LawTumble, attitude.NameDetumble:
 		m := setDefault(&l.MaxRateDegS, defaultMaxRate)
 		r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
 		lo := setDefault(&l.MinRateDegS, 0)
@@ -461,6 +471,15 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		out.MinRateRadS, out.MaxRateRadS = lo*deg, m*deg
 		if l.InertiaKgM2 != nil {
 			out.Inertia, out.HasInertia = r.inertia(path+".inertia_kg_m2", l.InertiaKgM2)
+		}
+		if l.Law == attitude.NameDetumble {
+			if l.TimeConstant == nil {
+				r.fail(path+".time_constant", "value is missing; allowed the e-folding time of the detumbling controller's rate, such as 40m")
+			} else if *l.TimeConstant <= 0 {
+				r.fail(path+".time_constant", "value %s is not positive; allowed a length of time > 0 such as 40m", *l.TimeConstant)
+			} else {
+				out.TimeConstantS = l.TimeConstant.Seconds()
+			}
 		}
 	}
 	if (l.Law == LawNadir || l.Law == LawSun) && r3.Norm(r3.Cross(out.PointAxis, out.AlignAxis)) < 1e-9 && r3.Norm(out.PointAxis) > 0 && r3.Norm(out.AlignAxis) > 0 {
@@ -473,6 +492,7 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		"spin_axis": l.SpinAxis != "", "rate_deg_s": l.RateDegS != nil, "max_rate_deg_s": l.MaxRateDegS != nil,
 		"min_rate_deg_s": l.MinRateDegS != nil, "inertia_kg_m2": l.InertiaKgM2 != nil,
 		"align_to": l.AlignTo != "", "align_inertial": l.AlignInertial != nil, "file": l.File != "",
+		"time_constant": l.TimeConstant != nil,
 	}
 	for _, k := range attitude.LawKeys() {
 		if given[k] && !slices.Contains(info.Keys, k) {

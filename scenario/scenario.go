@@ -14,16 +14,19 @@ import (
 // Scenario is a validated scenario file with every default filled in and every
 // value in the units of the code's boundary contract: radians, km, seconds.
 type Scenario struct {
-	Name       string
-	Epoch      time.Time // UTC start of the run
-	Duration   Span
-	Step       Span
-	Seed       int64 // every random draw of the run derives from it
-	Orbit      Orbit
-	SunModel   string // "low-precision" or "meeus"
-	Shadow     string // "conical" or "cylindrical"
-	Attitude   Attitude
-	Modes      []Mode // further named attitudes a run or layout search may evaluate
+	Name     string
+	Epoch    time.Time // UTC start of the run
+	Duration Span
+	Step     Span
+	Seed     int64 // every random draw of the run derives from it
+	Orbit    Orbit
+	SunModel string // "low-precision" or "meeus"
+	Shadow   string // "conical" or "cylindrical"
+	Attitude Attitude
+	Modes    []Mode // further named attitudes a run or layout search may evaluate
+	// Timeline, when Set, flies phases in turn; Attitude is then
+	// LawTimeline.
+	Timeline   Timeline
 	Body       Body
 	Estimators []string // "least-squares", "opposite-pairs", "two-axis", "combined"
 	Albedo     Albedo
@@ -125,6 +128,8 @@ type Law struct {
 	// spin at the drawn rate.
 	Inertia    [3][3]float64
 	HasInertia bool
+	// TimeConstantS is the detumble law's rate decay time constant.
+	TimeConstantS float64
 }
 
 // Sun-law alignment references.

@@ -52,6 +52,7 @@ func runCheck(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "# %s: valid (every model run uses was built)\n", file)
 	writeDerived(stdout, s, d)
+	writePlannedTimeline(stdout, plan)
 	fmt.Fprintln(stdout, "# where each sensor can see the sun:")
 	for _, sn := range plan.Primary.Array.Sensors() {
 		fmt.Fprintf(stdout, "#   %s: %s\n", sn.Name(), sensor.ViewText(sn))

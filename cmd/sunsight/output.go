@@ -46,6 +46,8 @@ type runOutput struct {
 	modes []modeOutput
 	// warnings are study.Warnings of the run (notes.go).
 	warnings []string
+	// phases are the per-phase figures of a timeline run (timeline.go).
+	phases *study.Phases
 }
 
 func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
@@ -207,6 +209,8 @@ type runRecord struct {
 	Modes         []modeRecord         `json:"modes,omitempty"`
 	// SingleFailure is the single-failure study (targets.n_minus_1).
 	SingleFailure *singleFailureRecord `json:"single_failure,omitempty"`
+	// Timeline is the mission timeline's phases with their own figures.
+	Timeline []phaseRecord `json:"timeline,omitempty"`
 	// Warnings are study.Warnings of the run (sun model span, TLE age, a
 	// run shorter than one orbit); TumbleDraws the drawn tumbles per unit.
 	Warnings    []string            `json:"warnings"`
@@ -352,6 +356,7 @@ func (o *runOutput) record() runRecord {
 		rec.Modes = o.modesJSON()
 	}
 	rec.SingleFailure = o.singleFailureJSON()
+	rec.Timeline = o.timelineJSON()
 	o.notesJSON(&rec)
 	return rec
 }
@@ -477,6 +482,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		}
 	}
 	o.writePower(w)
+	o.writeTimeline(w)
 	o.writeModes(w)
 	o.writeSingleFailure(w)
 	if len(o.targets) > 0 {
@@ -599,6 +605,9 @@ func (o *runOutput) writeCSV(dir string) error {
 	}
 	if rows := o.singleFailureCSV(); rows != nil {
 		files["single_failure.csv"] = rows
+	}
+	if rows := o.timelineCSV(); rows != nil {
+		files["timeline.csv"] = rows
 	}
 	if d := o.drawsCSV(); d != nil {
 		files["tumble_draws.csv"] = d

@@ -186,6 +186,18 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	out := newRunOutput(s, &cfg, res, toolVersion())
 	printWarnings(stderr, out.warnings)
 	out.allUnits = f.allUnits
+	if study.TimelineOf(cfg) != nil {
+		pc := cfg
+		pc.Progress, pc.SeriesStride, pc.SunTrackPoints = nil, 0, 0
+		ph, err := study.RunPhases(ctx, pc)
+		if err != nil {
+			if errors.Is(err, context.Canceled) {
+				return errors.New("interrupted: no output written")
+			}
+			return err
+		}
+		out.phases = &ph
+	}
 	if s.Targets.NMinus1.Set {
 		sc := cfg
 		sc.Progress, sc.SeriesStride, sc.SunTrackPoints = nil, 0, 0

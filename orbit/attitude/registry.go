@@ -14,6 +14,7 @@ const (
 	NameTumble    = "tumble"
 	NameIsotropic = "isotropic"
 	NameReplay    = "replay"
+	NameDetumble  = "detumble"
 	// NameSchedule is one law in sunlight and another in eclipse; it is
 	// written with in_sunlight and in_eclipse rather than with law.
 	NameSchedule = "schedule"
@@ -47,6 +48,9 @@ var laws = []LawInfo{
 	{Name: NameTumble, Model: "a seeded random start attitude, an initial rate of magnitude uniform in [min, max] about an isotropic axis; torque-free motion of a given inertia tensor (Euler's equations, RK4), else a fixed-axis spin",
 		Source: "K. Shoemake, Uniform random rotations, Graphics Gems III, 1992; Euler's equations: J. R. Wertz (ed.), Spacecraft Attitude Determination and Control, 1978, §16.1; F. L. Markley and J. L. Crassidis, Fundamentals of Spacecraft Attitude Determination and Control, 2014, §3.3 (all from memory)",
 		Keys:   []string{"min_rate_deg_s", "max_rate_deg_s", "inertia_kg_m2"}, Random: true},
+	{Name: NameDetumble, Model: "a seeded random start attitude and rate (as tumble), the rate decaying exponentially with a stated time constant about a fixed body axis (the linear regime of a B-dot controller); in a timeline after a tumble it starts from the tumble's attitude and rate",
+		Source: "closed form; exponential decay of B-dot detumbling: W. J. Stickler and K. T. Alfriend, J. Spacecraft 13(5), 1976; M. Avanzini and F. Giulietti, J. Guid. Control Dyn. 35(4), 2012 (both from memory)",
+		Keys:   []string{"min_rate_deg_s", "max_rate_deg_s", "time_constant"}, Random: true},
 	{Name: NameIsotropic, Model: "an independent uniform random attitude at each step",
 		Source: "K. Shoemake, Uniform random rotations, Graphics Gems III, 1992 (from memory)",
 		Random: true},

@@ -96,22 +96,13 @@ type Span struct {
 	SlewAngleRad float64
 }
 
-// Plan is a built timeline: the attitude law and its spans.
-type Plan struct {
-	Timeline *Timeline
-	Spans    []Span
-	// Reached is the number of phases the run reaches; later ones are
-	// never flown (an end condition not met before the run ended).
-	Reached int
-}
-
 // ErrRateBelow says a rate end condition was set on a law without a rate
 // decay.
 var ErrRateBelow = errors.New("timeline: the rate end condition needs a law whose rate decays (detumble)")
 
 // Build plans the phases over env with slews at lim. The spans tile
 // [0, env.DurationS] exactly and the timeline's segments likewise.
-func Build(phases []Phase, lim Limits, env Env) (*Plan, error) {
+func Build(phases []Phase, lim Limits, env Env) (*Timeline, error) {
 	if len(phases) == 0 {
 		return nil, errors.New("timeline: no phase")
 	}
@@ -119,7 +110,8 @@ func Build(phases []Phase, lim Limits, env Env) (*Plan, error) {
 		return nil, fmt.Errorf("timeline: duration %g s and step %g s: both must be positive", env.DurationS, env.StepS)
 	}
 	b := builder{env: env, lim: lim, tl: &Timeline{}}
-	p := &Plan{Timeline: b.tl}
+	p := b.tl
+	p.Phases = len(phases)
 	t := 0.0
 	var prevLaw attitude.Law
 	prevLawStart := 0.0
@@ -219,7 +211,7 @@ func (b *builder) slewTo(a0 r3.Rotation, law attitude.Law, lawStart, t float64) 
 		a, th := eigen(a0, target(t+T))
 		nt := b.lim.Duration(th)
 		if math.Abs(nt-T) < 1e-7 {
-			return a, th, T, nil
+			return a, th, nt, nil
 		}
 		T = nt
 	}

@@ -138,7 +138,7 @@ func TestBuildDeployment(t *testing.T) {
 		t.Errorf("safe phase ends at %g s, not at a shadow exit", safe.End)
 	}
 	// Science holds the shadow-entry attitude through every shadow pass.
-	tl := p.Timeline
+	tl := p
 	for _, sh := range env.Shadows {
 		if sh[0] <= p.Spans[len(p.Spans)-1].Start {
 			continue
@@ -214,7 +214,7 @@ func TestSpansTileTheRun(t *testing.T) {
 				t.Fatalf("case %d: span %d starts at %g, previous ends at %g", c, i, p.Spans[i].Start, p.Spans[i-1].End)
 			}
 		}
-		seg := p.Timeline.Segments
+		seg := p.Segments
 		if seg[0].Start != 0 || seg[len(seg)-1].End != D {
 			t.Fatalf("case %d: segments do not cover the run", c)
 		}

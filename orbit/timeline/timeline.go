@@ -39,9 +39,14 @@ type Segment struct {
 	Limits Limits
 }
 
-// Timeline is an attitude law made of segments that tile [0, duration].
+// Timeline is a planned mission timeline: an attitude law made of
+// segments that tile [0, duration], and the phase spans they belong to.
 type Timeline struct {
 	Segments []Segment
+	Spans    []Span
+	// Reached is the number of phases the run reaches, of Phases; later
+	// ones are never flown (an end condition not met before the run ended).
+	Reached, Phases int
 }
 
 // find returns the index of the segment containing t (the last one at or

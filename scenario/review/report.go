@@ -474,6 +474,10 @@ func ModelsAndSources(s *scenario.Scenario) []plots.Assumption {
 	for _, l := range lawsOf(s) {
 		add("Attitude: "+l.Name, l.Model, l.Source)
 	}
+	if s.Timeline.Set {
+		add("Attitude: timeline", "phases in turn, each ending after a time, at a rate bound, once the sun is held or at a shadow entry or exit; rest-to-rest eigen-axis slews with a bang–coast–bang profile",
+			"closed form; B. Wie, Space Vehicle Dynamics and Control, 2nd ed., AIAA 2008, §7.3 (from memory)")
+	}
 	if m, err := albedo.LookupModel(s.Albedo.Model); err == nil {
 		add("Albedo: "+m.Describe(s.Albedo.Value, s.Albedo.Cells), "", m.Source)
 	}
@@ -493,13 +497,19 @@ func ModelsAndSources(s *scenario.Scenario) []plots.Assumption {
 }
 
 // lawsOf lists the registry entries of the scenario's attitude laws (both
-// of a schedule).
+// of a schedule, each distinct law of a timeline's phases).
 func lawsOf(s *scenario.Scenario) []attitude.LawInfo {
 	var out []attitude.LawInfo
-	for _, l := range []*scenario.Law{&s.Attitude.Law, s.Attitude.InSunlight, s.Attitude.InEclipse} {
-		if l == nil {
+	laws := []*scenario.Law{&s.Attitude.Law, s.Attitude.InSunlight, s.Attitude.InEclipse}
+	for i := range s.Timeline.Phases {
+		laws = append(laws, &s.Timeline.Phases[i].Law)
+	}
+	seen := map[string]bool{}
+	for _, l := range laws {
+		if l == nil || seen[l.Name] {
 			continue
 		}
+		seen[l.Name] = true
 		if info, err := attitude.LookupLaw(l.Name); err == nil {
 			out = append(out, info)
 		}

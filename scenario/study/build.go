@@ -208,6 +208,9 @@ var lawBuilders = map[string]lawBuilder{
 	attitude.NameTumble: func(_ *scenario.Scenario, l scenario.Law, seed uint64, path string) (attitude.Law, error) {
 		return tumbleLaw(seed, l, path)
 	},
+	attitude.NameDetumble: func(_ *scenario.Scenario, l scenario.Law, seed uint64, _ string) (attitude.Law, error) {
+		return attitude.DrawDetumble(seed, l.MinRateRadS, l.MaxRateRadS, l.TimeConstantS), nil
+	},
 	attitude.NameIsotropic: func(_ *scenario.Scenario, _ scenario.Law, seed uint64, _ string) (attitude.Law, error) {
 		return attitude.Isotropic{Seed: seed}, nil
 	},
@@ -484,11 +487,16 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	if _, err := illum.LookupShadow(s.Shadow); err != nil {
 		return cfg, fmt.Errorf("shadow: %w", err)
 	}
-	law, err := buildAttitude(s, att, "attitude")
+	arr, viewers, resp, err := BuildSensors(s, sensors, "body.sensors")
 	if err != nil {
 		return cfg, err
 	}
-	arr, viewers, resp, err := BuildSensors(s, sensors, "body.sensors")
+	var law attitude.Law
+	if att.Name == scenario.LawTimeline {
+		law, err = buildTimeline(s, newProp, sun, viewers)
+	} else {
+		law, err = buildAttitude(s, att, "attitude")
+	}
 	if err != nil {
 		return cfg, err
 	}

@@ -1,0 +1,123 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"time"
+
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/study"
+)
+
+// phaseRecord is one entry of the "timeline" array of the JSON record: a
+// phase (or the slew into one) with its span and its own figures.
+type phaseRecord struct {
+	Name      string `json:"phase"`
+	Slew      bool   `json:"slew"`
+	StartUTC  string `json:"start_utc"`
+	StartS    num    `json:"start_s"`
+	DurationS num    `json:"duration_s"`
+	// EndMet says the phase's end condition was met; false when the run
+	// ended first or the phase has none.
+	EndMet       bool `json:"end_condition_met"`
+	SlewAngleDeg num  `json:"slew_angle_deg"`
+	Samples      int  `json:"samples"`
+	// The figures of the phase's samples (null with fewer than two).
+	Sunlit      num `json:"sunlit_fraction"`
+	Seen1       num `json:"seen_by_1_fraction"`
+	Seen2       num `json:"seen_by_2_fraction"`
+	Valid       num `json:"valid_fraction"`
+	LongestGapS num `json:"longest_gap_s"`
+	P95NoAlbedo num `json:"p95_error_no_albedo_deg"`
+	P95Albedo   num `json:"p95_error_albedo_deg"`
+}
+
+func (o *runOutput) timelineJSON() []phaseRecord {
+	if o.phases == nil {
+		return nil
+	}
+	out := []phaseRecord{}
+	for _, p := range o.phases.Phases {
+		r := phaseRecord{Name: p.Span.Name, Slew: p.Span.Slew, StartUTC: o.utc(p.Span.Start), StartS: num(p.Span.Start),
+			DurationS: num(p.Span.End - p.Span.Start), EndMet: p.Span.Met, SlewAngleDeg: num(p.Span.SlewAngleRad * 180 / math.Pi),
+			Samples: p.Samples}
+		h := p.Headline()
+		r.Sunlit, r.Seen1, r.Seen2, r.Valid, r.LongestGapS = num(h.SunlitFraction), num(h.Seen1), num(h.Seen2), num(h.ValidFraction), num(h.LongestGapS)
+		r.P95NoAlbedo, r.P95Albedo = num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg)
+		out = append(out, r)
+	}
+	return out
+}
+
+// writeTimeline prints the timeline's phases with their figures.
+func (o *runOutput) writeTimeline(w io.Writer) {
+	if o.phases == nil {
+		return
+	}
+	fmt.Fprintf(w, "\nMission timeline (%d of %d phases reached; each row is that stretch of the run alone)\n", o.phases.Reached, len(o.s.Timeline.Phases))
+	fmt.Fprintf(w, "  %-26s %-20s %9s %5s %8s %8s %8s %10s %9s\n", "phase", "start (UTC)", "duration", "ended", "sunlit", ">=1", "valid", "p95 error", "max gap")
+	var slews []string
+	for _, p := range o.phases.Phases {
+		h := p.Headline()
+		p95 := h.P95AlbedoDeg
+		if p95 != p95 {
+			p95 = h.P95NoAlbedoDeg
+		}
+		ended := "no"
+		switch {
+		case p.Span.Met:
+			ended = "yes"
+		case !p.Span.Slew && o.s.Timeline.Phases[p.Span.Phase].Until.Kind == scenario.UntilRunEnd:
+			ended = "-" // the last phase, without an end condition
+		}
+		name := p.Span.Name
+		if p.Span.Slew {
+			slews = append(slews, fmt.Sprintf("%s: %.1f° eigen-axis", name, p.Span.SlewAngleRad*180/math.Pi))
+		}
+		fmt.Fprintf(w, "  %-26s %-20s %9s %5s %8s %8s %8s %10s %7.0f s\n", name, o.utc(p.Span.Start)[:19], scenario.Span(time.Duration(math.Round(p.Span.End-p.Span.Start)*1e9)).String(), ended,
+			pct(h.SunlitFraction), pct(h.Seen1), pct(h.ValidFraction), deg(p95), h.LongestGapS)
+	}
+	for _, ph := range o.s.Timeline.Phases[o.phases.Reached:] {
+		fmt.Fprintf(w, "  %-26s not reached: an earlier end condition was not met before the run ended\n", ph.Name)
+	}
+	for _, sl := range slews {
+		fmt.Fprintf(w, "  %s\n", sl)
+	}
+	fmt.Fprintf(w, "  (ended: the phase's end condition was met, - none set; the whole-run figures above are the whole timeline)\n")
+}
+
+// timelineCSV is timeline.csv: one row per phase span (nil without a
+// timeline).
+func (o *runOutput) timelineCSV() [][]string {
+	if o.phases == nil {
+		return nil
+	}
+	rows := [][]string{{"phase", "slew", "start_utc", "start_s", "duration_s", "end_condition_met", "slew_angle_deg", "samples",
+		"sunlit_fraction", "seen_by_1_fraction", "seen_by_2_fraction", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg"}}
+	for _, p := range o.phases.Phases {
+		h := p.Headline()
+		rows = append(rows, []string{p.Span.Name, strconv.FormatBool(p.Span.Slew), o.utc(p.Span.Start), ff(p.Span.Start, 3), ff(p.Span.End-p.Span.Start, 3),
+			strconv.FormatBool(p.Span.Met), ff(p.Span.SlewAngleRad*180/math.Pi, 4), strconv.Itoa(p.Samples),
+			ff(h.SunlitFraction, 6), ff(h.Seen1, 6), ff(h.Seen2, 6), ff(h.ValidFraction, 6), ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4)})
+	}
+	return rows
+}
+
+// writePlannedTimeline prints the planned phase spans (check), as YAML
+// comments.
+func writePlannedTimeline(w io.Writer, plan *study.Plan) {
+	tl := study.TimelineOf(plan.Primary)
+	if tl == nil {
+		return
+	}
+	fmt.Fprintf(w, "# planned timeline (nominal geometry, the same for every unit): %d of %d phases reached\n", tl.Reached, tl.Phases)
+	for _, sp := range tl.Spans {
+		met := "end condition met"
+		if !sp.Met {
+			met = "runs to the end of the run"
+		}
+		fmt.Fprintf(w, "#   %-26s %10.1f s → %10.1f s  %s\n", sp.Name, sp.Start, sp.End, met)
+	}
+}

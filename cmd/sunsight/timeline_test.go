@@ -1,0 +1,96 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// timelineFile is a demo timeline (invented 6U): tumbling deployment,
+// detumble, a slew to sun pointing until the sun has been held 5 min, then
+// nadir science holding attitude in eclipse.
+const timelineFile = `name: demo timeline
+duration: 6h
+step: 20s
+orbit: {altitude_km: 525, ltan: "13:30"}
+timeline:
+  slew_rate_deg_s: 1.5
+  slew_accel_deg_s2: 0.05
+  phases:
+    - {name: deployment, attitude: {law: tumble, min_rate_deg_s: 6, max_rate_deg_s: 8}, until: {elapsed: 20m}}
+    - {name: detumble, attitude: {law: detumble, time_constant: 30m}, until: {rate_below_deg_s: 0.3}}
+    - {name: acquisition, attitude: {law: sun, point_axis: "-Z"}, slew: true, until: {sun_seen_for: 5m}}
+    - {name: science, attitude: {law: nadir}, slew: true, during_eclipse: hold}
+albedo: {model: uniform, value: 0.3}
+body:
+  sensors:
+    - {name: css-px, kind: cosine, face: "+X", errors: {dark_offset_1sigma: 0.005, noise_1sigma: 0.003}}
+    - {name: css-mx, kind: cosine, face: "-X", errors: {dark_offset_1sigma: 0.005, noise_1sigma: 0.003}}
+    - {name: css-py, kind: cosine, face: "+Y", errors: {dark_offset_1sigma: 0.005, noise_1sigma: 0.003}}
+    - {name: css-my, kind: cosine, face: "-Y", errors: {dark_offset_1sigma: 0.005, noise_1sigma: 0.003}}
+    - {name: css-pz, kind: cosine, face: "+Z", errors: {dark_offset_1sigma: 0.005, noise_1sigma: 0.003}}
+    - {name: css-mz, kind: cosine, face: "-Z", errors: {dark_offset_1sigma: 0.005, noise_1sigma: 0.003}}
+`
+
+// A timeline run prints its phases, writes timeline.csv and the record's
+// timeline array, whose samples add up to the run's and whose spans tile
+// the run; every CSV column is in the data dictionary.
+func TestTimelineInSummaryCSVAndJSON(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "timeline.yaml")
+	if err := os.WriteFile(p, []byte(timelineFile), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var so, se bytes.Buffer
+	dir := filepath.Join(t.TempDir(), "csv")
+	if code := runMain([]string{"run", p, "--quiet", "--csv", dir}, &so, &se); code != exitOK {
+		t.Fatalf("exit %d: %s", code, se.String())
+	}
+	for _, want := range []string{"Mission timeline (4 of 4 phases reached", "slew to acquisition", "detumble", "science", "attitude timeline"} {
+		if !strings.Contains(so.String(), want) {
+			t.Errorf("summary lacks %q:\n%s", want, so.String())
+		}
+	}
+	h := csvHeader(t, filepath.Join(dir, "timeline.csv"))
+	dict, _ := os.ReadFile("../../docs/data-dictionary.md")
+	for _, c := range append(h, "timeline.csv") {
+		if !strings.Contains(string(dict), "`"+c+"`") {
+			t.Errorf("%s is not in docs/data-dictionary.md", c)
+		}
+	}
+	so.Reset()
+	if code := runMain([]string{"run", p, "--quiet", "--json"}, &so, &se); code != exitOK {
+		t.Fatalf("--json exit %d: %s", code, se.String())
+	}
+	var rec struct {
+		Timeline []struct {
+			Phase     string   `json:"phase"`
+			Slew      bool     `json:"slew"`
+			StartS    float64  `json:"start_s"`
+			DurationS float64  `json:"duration_s"`
+			Samples   int      `json:"samples"`
+			Valid     *float64 `json:"valid_fraction"`
+		} `json:"timeline"`
+	}
+	if err := json.Unmarshal(so.Bytes(), &rec); err != nil {
+		t.Fatal(err)
+	}
+	if len(rec.Timeline) != 6 {
+		t.Fatalf("timeline has %d spans, want 4 phases and 2 slews: %+v", len(rec.Timeline), rec.Timeline)
+	}
+	n, end := 0, 0.0
+	for _, s := range rec.Timeline {
+		// The record keeps 10 significant digits (num).
+		if math.Abs(s.StartS-end) > 1e-3 {
+			t.Errorf("%s starts at %g s, the previous span ends at %g s", s.Phase, s.StartS, end)
+		}
+		end = s.StartS + s.DurationS
+		n += s.Samples
+	}
+	if math.Abs(end-6*3600) > 1e-3 || n != 6*3600/20+1 {
+		t.Errorf("spans end at %g s with %d samples; want 21600 s and %d", end, n, 6*3600/20+1)
+	}
+}

@@ -165,6 +165,32 @@ func demoSensitivity() Sensitivity {
 	return s
 }
 
+// demoPower is an invented power trace: three 95-minute orbits with a
+// 35-minute eclipse, and 30 orbit means drifting with the season.
+func demoPower() PowerView {
+	const period, eclipse = 5700.0, 2100.0
+	var f PowerView
+	for t := 0.0; t <= 3*period; t += 30 {
+		u := math.Mod(t, period)
+		w := 0.0
+		if u < period-eclipse {
+			w = 20 + 25*math.Sin(math.Pi*u/(period-eclipse))
+		}
+		f.T, f.W = append(f.T, t), append(f.W, w)
+	}
+	for k := range 3 {
+		s := float64(k)*period + period - eclipse
+		f.Umbra = append(f.Umbra, Interval{s + 8, s + eclipse - 8})
+		f.Penumbra = append(f.Penumbra, Interval{s, s + 8}, Interval{s + eclipse - 8, s + eclipse})
+	}
+	for k := range 30 {
+		f.OrbitW = append(f.OrbitW, 22+0.05*float64(k))
+	}
+	f.MeanW = 22.7
+	f.Target = &Target{Value: 20, Label: "≥ 20.0 W", Got: "22.7 W", Pass: true}
+	return f
+}
+
 type demoFigure struct {
 	name  string
 	chart func() (*Chart, error)
@@ -181,6 +207,7 @@ func demoFigures() []demoFigure {
 		{"sweep", func() (*Chart, error) { return demoSweep().Plot(c) }},
 		{"budget", func() (*Chart, error) { return demoBudget().Plot(c) }},
 		{"sensitivity", func() (*Chart, error) { return demoSensitivity().Plot(c) }},
+		{"power", func() (*Chart, error) { return demoPower().Plot(c) }},
 	}
 }
 

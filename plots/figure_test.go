@@ -443,3 +443,19 @@ func TestTickLabelsHaveNoRoundOff(t *testing.T) {
 		t.Errorf("tickLabel(35×0.005) = %q, want 0.175", got)
 	}
 }
+
+// A power figure refuses what it cannot draw truthfully: negative or
+// undefined power, samples and times that do not match.
+func TestPowerViewRefuses(t *testing.T) {
+	for name, f := range map[string]PowerView{
+		"one sample":      {T: []float64{0}, W: []float64{1}},
+		"lengths":         {T: []float64{0, 1}, W: []float64{1}},
+		"negative power":  {T: []float64{0, 1}, W: []float64{1, -1}},
+		"undefined power": {T: []float64{0, 1}, W: []float64{math.NaN(), 1}},
+		"orbit mean":      {T: []float64{0, 1}, W: []float64{1, 1}, OrbitW: []float64{math.Inf(1)}},
+	} {
+		if _, err := f.Plot(Caption{}); err == nil || !strings.Contains(err.Error(), "plots: power") {
+			t.Errorf("%s: error %v", name, err)
+		}
+	}
+}

@@ -746,12 +746,20 @@ func (r *resolver) output(o *fileOutput) Output {
 	if o.Decimate < 1 {
 		r.fail("output.decimate", "value %d is below 1; allowed a whole number ≥ 1 (keep every n-th step)", o.Decimate)
 	}
-	if o.Figures == nil {
-		o.Figures = figures.Names()
+	given := o.Figures != nil
+	if !given {
+		for _, f := range figures.Names() {
+			if f != figures.Power || r.hasPanels {
+				o.Figures = append(o.Figures, f)
+			}
+		}
 	}
 	for i, f := range o.Figures {
 		if names := figures.Names(); !oneOf(f, names) {
 			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q is unknown; allowed %s", f, strings.Join(names, ", "))
+		}
+		if given && f == figures.Power && !r.hasPanels {
+			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q needs solar panels but body.panels is empty; allowed with body.panels listed, or leave %q out", f, f)
 		}
 	}
 	return Output{Decimate: o.Decimate, Figures: append([]string(nil), o.Figures...)}

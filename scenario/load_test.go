@@ -161,6 +161,7 @@ func badInputs() []badInput {
 		{"quadrant key on cosine", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", gap_mm: 0.1}]\n", "does not apply to kind"},
 		{"grid without file", orbit + sensor + "albedo: {model: grid}\n", "albedo.grid_file"},
 		{"unknown figure", orbit + sensor + "output: {figures: [pie]}\n", "output.figures[0]"},
+		{"power figure without panels", orbit + sensor + "output: {figures: [sky, power]}\n", "output.figures[1]"},
 		{"decimate 0", orbit + sensor + "output: {decimate: 0}\n", "output.decimate"},
 		{"yaml syntax", "orbit: [\n", "not valid YAML"},
 		{"list for mapping", "orbit: [1, 2]\n" + sensor, "orbit (line 1, col 8): value a list is not a mapping"},

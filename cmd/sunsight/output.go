@@ -541,6 +541,13 @@ func (o *runOutput) writeCSV(dir string) error {
 	if s := u.Series; s != nil {
 		head := []string{"t_s", "utc", "region", "sun_disc_visible_fraction", "sensors_seeing_sun", "valid",
 			"error_no_albedo_deg", "error_albedo_deg", "beta_deg", "sun_body_az_deg", "sun_body_el_deg"}
+		pw := r.PowerSeries
+		if pw != nil && len(pw.W) != len(s.T) {
+			return fmt.Errorf("csv: the power series has %d samples, the time series %d", len(pw.W), len(s.T))
+		}
+		if pw != nil {
+			head = append(head, "array_power_w")
+		}
 		for _, n := range s.SensorName {
 			head = append(head, "signal_"+n)
 		}
@@ -549,6 +556,9 @@ func (o *runOutput) writeCSV(dir string) error {
 			row := []string{ff(t, 1), o.utc(t),
 				strings.ToLower(s.Region[i].String()), ff(s.Lit[i], 6), strconv.Itoa(s.Seen[i]), strconv.FormatBool(s.Valid[i]),
 				ff(s.ErrNoDeg[i], 4), ff(s.ErrAlbDeg[i], 4), ff(s.BetaDeg[i], 4), ff(s.SunBodyAz[i], 3), ff(s.SunBodyEl[i], 3)}
+			if pw != nil {
+				row = append(row, ff(pw.W[i], 4))
+			}
 			for _, v := range s.Signals[i] {
 				row = append(row, ff(v, 5))
 			}
@@ -611,6 +621,14 @@ func (o *runOutput) writeCSV(dir string) error {
 	}
 	if d := o.drawsCSV(); d != nil {
 		files["tumble_draws.csv"] = d
+	}
+	if p := r.Power; p != nil {
+		rows := [][]string{{"orbit", "orbit_start_s", "orbit_start_utc", "orbit_mean_power_w", "orbit_energy_wh"}}
+		for i, w := range p.PerOrbitW {
+			t0 := float64(i) * p.PeriodS
+			rows = append(rows, []string{strconv.Itoa(i + 1), ff(t0, 1), o.utc(t0), ff(w, 4), ff(w*p.PeriodS/3600, 4)})
+		}
+		files["power_orbits.csv"] = rows
 	}
 
 	for name, rows := range files {

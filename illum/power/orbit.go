@@ -13,6 +13,7 @@ type Tracker struct {
 	curJ                   float64
 	orbits                 int
 	orbitSumJ, worstJ      float64
+	perOrbitW              []float64
 	zero                   bool
 	zeroStart, longestZero float64
 }
@@ -20,7 +21,11 @@ type Tracker struct {
 // NewTracker starts a tracker for samples every step seconds over a run of
 // duration seconds on an orbit of period seconds.
 func NewTracker(step, period, duration float64) *Tracker {
-	return &Tracker{step: step, period: period, duration: duration, worstJ: math.Inf(1)}
+	k := &Tracker{step: step, period: period, duration: duration, worstJ: math.Inf(1)}
+	if period > 0 && duration > 0 {
+		k.perOrbitW = make([]float64, 0, int(duration/period)+1)
+	}
+	return k
 }
 
 // Add records the power p (W) at time t (s). A sample stands for one step,
@@ -51,6 +56,7 @@ func (k *Tracker) closeOrbit() {
 	k.orbits++
 	k.orbitSumJ += k.curJ
 	k.worstJ = math.Min(k.worstJ, k.curJ)
+	k.perOrbitW = append(k.perOrbitW, k.curJ/k.period)
 }
 
 // Summary is the power over a run.
@@ -62,6 +68,12 @@ type Summary struct {
 	// them (Wh), NaN when the run holds no whole orbit.
 	Orbits                    int
 	OrbitMeanWh, OrbitWorstWh float64
+	// PerOrbitW is the mean power of each whole orbit in turn (W): orbit i
+	// spans [i·T, (i+1)·T) from the epoch, T the osculating period at the
+	// epoch.
+	PerOrbitW []float64
+	// PeriodS is the orbit period T the orbits are cut by (s).
+	PeriodS float64
 	// LongestNoPowerS is the longest span with no power at all (s);
 	// GapEnergyWh is the energy a constant load of MeanW draws from the
 	// battery across it (Wh).
@@ -78,7 +90,7 @@ func (k *Tracker) Finish() Summary {
 		k.zero = false
 	}
 	s := Summary{MeanW: math.NaN(), OrbitMeanWh: math.NaN(), OrbitWorstWh: math.NaN(), Orbits: k.orbits,
-		PeakW: k.peak, LongestNoPowerS: k.longestZero}
+		PeakW: k.peak, LongestNoPowerS: k.longestZero, PerOrbitW: k.perOrbitW, PeriodS: k.period}
 	if k.n > 0 && k.duration > 0 {
 		s.MeanW = k.sum / k.duration
 		s.GapEnergyWh = s.MeanW * k.longestZero / 3600

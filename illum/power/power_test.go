@@ -152,6 +152,9 @@ func TestTrackerSquareWave(t *testing.T) {
 	if s.Orbits != 3 || math.Abs(s.OrbitMeanWh-10) > 1e-9 || math.Abs(s.OrbitWorstWh-10) > 1e-9 {
 		t.Errorf("orbits %d, mean %g Wh, worst %g Wh; want 3, 10, 10", s.Orbits, s.OrbitMeanWh, s.OrbitWorstWh)
 	}
+	if len(s.PerOrbitW) != 3 || math.Abs(s.PerOrbitW[1]-10*3600/period) > 1e-9 {
+		t.Errorf("per-orbit mean power %v W, want 3 orbits of %g W", s.PerOrbitW, 10*3600/period)
+	}
 	if s.PeakW != 10 || math.Abs(s.LongestNoPowerS-35*60) > 1e-9 {
 		t.Errorf("peak %g W, longest no-power %g s; want 10 W, 2100 s", s.PeakW, s.LongestNoPowerS)
 	}

@@ -27,6 +27,7 @@ const (
 	Year     = "year"
 	Error    = "error"
 	Gaps     = "gaps"
+	Power    = "power"
 )
 
 // Info is one catalogue entry.
@@ -47,6 +48,8 @@ var catalogue = []Info{
 		From: "the run's error quantiles"},
 	{Name: Gaps, Shows: "sunlit gaps without a valid sun vector",
 		From: "the run's gap list"},
+	{Name: Power, Shows: "solar-array power over the first orbits and the mean power of each whole orbit (only with body.panels)",
+		From: "the run's power pass over the nominal attitude (cosine law, shadow, panel obstruction)"},
 }
 
 // Names lists the figure names in report order.

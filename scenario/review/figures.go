@@ -133,6 +133,21 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 		}
 		out[len(out)-1].Tells = gapsTells(g)
 	}
+
+	pv, ok, err := powerView(cfg, res)
+	if err != nil {
+		return nil, fmt.Errorf("review: power figure: %w", err)
+	}
+	if ok {
+		pv.Target = tg.power
+		pc := cap
+		pc.Assumptions = "panels fixed to the body in the nominal attitude; cosine law, no albedo on the panels; " + pc.Assumptions
+		c, err = pv.Plot(pc)
+		if err := add(FigPower, "Solar-array power: the first orbits and the mean of each whole orbit", c, err); err != nil {
+			return nil, err
+		}
+		out[len(out)-1].Tells = powerTells(res, tg.power)
+	}
 	return out, nil
 }
 
@@ -200,6 +215,7 @@ type figureTargets struct {
 	errP95 *plots.Target // deg
 	valid  *plots.Target // fraction
 	gap    *plots.Target // s
+	power  *plots.Target // W
 }
 
 func targetsOf(s *scenario.Scenario, a study.Assessment) figureTargets {
@@ -215,6 +231,7 @@ func targetsOf(s *scenario.Scenario, a study.Assessment) figureTargets {
 	out.errP95 = mk(study.TargetErrorP95, degOf(s.Targets.MaxErrorP95Rad))
 	out.valid = mk(study.TargetValid, s.Targets.MinValidFraction)
 	out.gap = mk(study.TargetGap, s.Targets.MaxGap.Seconds())
+	out.power = mk(study.TargetPower, s.Targets.MinOrbitAvgPowerW)
 	return out
 }
 
@@ -384,27 +401,7 @@ func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 			tl.ErrAlbedoDeg = append(tl.ErrAlbedoDeg, ser.ErrAlbDeg[i])
 		}
 	}
-	end := tl.T[len(tl.T)-1]
-	clip := func(a, b float64) (plots.Interval, bool) {
-		a, b = math.Max(a, 0), math.Min(b, end)
-		return plots.Interval{Start: a, End: b}, b > a
-	}
-	for _, e := range res.Eclipses {
-		if e.PenumbralOnly() {
-			if iv, ok := clip(e.PenumbraStart, e.PenumbraEnd); ok {
-				tl.Penumbra = append(tl.Penumbra, iv)
-			}
-			continue
-		}
-		for _, p := range [][2]float64{{e.PenumbraStart, e.UmbraStart}, {e.UmbraEnd, e.PenumbraEnd}} {
-			if iv, ok := clip(p[0], p[1]); ok {
-				tl.Penumbra = append(tl.Penumbra, iv)
-			}
-		}
-		if iv, ok := clip(e.UmbraStart, e.UmbraEnd); ok {
-			tl.Umbra = append(tl.Umbra, iv)
-		}
-	}
+	tl.Umbra, tl.Penumbra = shadowSpans(res.Eclipses, tl.T[len(tl.T)-1])
 	return tl, nil
 }
 

@@ -224,7 +224,7 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	if cfg.Panels != nil {
 		go func() {
 			var err error
-			res.Power, err = powerPass(ctx, &cfg)
+			res.Power, res.PowerSeries, err = powerPass(ctx, &cfg)
 			powDone <- err
 		}()
 	} else {

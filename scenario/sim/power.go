@@ -9,23 +9,35 @@ import (
 // powerPass walks the whole grid once, in time order, with the nominal
 // (unit 0) attitude and the same orbit, sun, shadow and attitude code as
 // the sensor loop (geometry.step without albedo), and folds the array's
-// power into the orbit figures. It allocates nothing per step.
-func powerPass(ctx context.Context, cfg *Config) (*power.Summary, error) {
+// power into the orbit figures; with a time series it also keeps the power
+// at the series' samples. It allocates nothing per step.
+func powerPass(ctx context.Context, cfg *Config) (*power.Summary, *PowerSeries, error) {
 	c := *cfg
 	c.NewAlbedo, c.NewCorrection, c.LawForUnit = nil, nil, nil
 	g, err := newGeometry(&c, cfg.Array, 0, nil)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	steps := cfg.Steps()
+	var ser *PowerSeries
+	stride := cfg.SeriesStride
+	if stride > 0 {
+		n := (steps-1)/stride + 1
+		ser = &PowerSeries{T: make([]float64, 0, n), W: make([]float64, 0, n)}
+	}
 	tr := power.NewTracker(cfg.Step, orbitPeriod(cfg.NewPropagator().StateAt(0)), cfg.Duration)
 	for k := range steps {
 		if k&4095 == 0 && ctx.Err() != nil {
-			return nil, ctx.Err()
+			return nil, nil, ctx.Err()
 		}
 		sg := g.step(k, nil)
-		tr.Add(sg.t, cfg.Panels.Power(sg.sunBody, sg.direct))
+		p := cfg.Panels.Power(sg.sunBody, sg.direct)
+		tr.Add(sg.t, p)
+		if ser != nil && k%stride == 0 {
+			ser.T = append(ser.T, sg.t)
+			ser.W = append(ser.W, p)
+		}
 	}
 	s := tr.Finish()
-	return &s, nil
+	return &s, ser, nil
 }

@@ -182,3 +182,52 @@ func TestPowerStepAllocatesNothing(t *testing.T) {
 		t.Errorf("%g allocations per power step", n)
 	}
 }
+
+// The power series sits on the time series' samples, is zero in umbra
+// (property: no light, no power) and its per-orbit means add up to the
+// energy per orbit.
+func TestPowerSeriesOnTheSeriesSamples(t *testing.T) {
+	cfg := referenceCase(t, 0.5, false)
+	cfg.SeriesStride = 7
+	arr, err := power.NewArray(power.Panel{Name: "zenith", Normal: r3.Vec{Z: -1}, AreaM2: 0.08, Efficiency: 0.3, PackingFactor: 0.9},
+		power.Panel{Name: "side", Normal: r3.Vec{X: 1}, AreaM2: 0.03, Efficiency: 0.3, PackingFactor: 0.9})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Panels = arr
+	res, err := Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, p := res.Nominal.Series, res.PowerSeries
+	if p == nil || len(p.T) != len(s.T) || len(p.W) != len(s.T) {
+		t.Fatalf("power series %+v against %d series samples", p, len(s.T))
+	}
+	umbra := 0
+	for i := range s.T {
+		if p.T[i] != s.T[i] {
+			t.Fatalf("sample %d at %g s, series at %g s", i, p.T[i], s.T[i])
+		}
+		if s.Region[i] == illum.Umbra {
+			umbra++
+			if p.W[i] != 0 {
+				t.Errorf("umbra at %g s: %g W", s.T[i], p.W[i])
+			}
+		}
+	}
+	if umbra == 0 {
+		t.Fatal("no umbra sample: the check saw nothing")
+	}
+	sum := 0.0
+	for _, w := range res.Power.PerOrbitW {
+		sum += w
+	}
+	if n := len(res.Power.PerOrbitW); n != res.Power.Orbits || n == 0 ||
+		math.Abs(sum/float64(n)*res.Power.PeriodS/3600-res.Power.OrbitMeanWh) > 1e-9*res.Power.OrbitMeanWh {
+		t.Errorf("%d orbit means (sum %g W) against %d orbits of %g Wh", n, sum, res.Power.Orbits, res.Power.OrbitMeanWh)
+	}
+	cfg.SeriesStride = 0
+	if res, err = Run(context.Background(), cfg); err != nil || res.PowerSeries != nil {
+		t.Errorf("no series asked: power series %v, %v", res.PowerSeries, err)
+	}
+}

@@ -33,6 +33,10 @@ type Result struct {
 	// Power is the solar-array power over the run (nominal attitude); nil
 	// without panels.
 	Power *power.Summary
+	// PowerSeries is the array power at the time-series samples (every
+	// SeriesStride-th step, the times of Nominal.Series); nil without panels
+	// or without a series.
+	PowerSeries *PowerSeries
 
 	albedoBoresight bool // the table is the boresight one (tests)
 }
@@ -140,6 +144,12 @@ func (e *EstimatorStats) ErrorCDF(n int, withAlbedo bool) (x, f []float64) {
 		return nil, nil
 	}
 	return q.CDF(n)
+}
+
+// PowerSeries is the solar-array power sampled with the time series.
+type PowerSeries struct {
+	T []float64 // s since the epoch
+	W []float64 // array power (W)
 }
 
 // Series is a decimated time series of unit 0 for figures and CSV files.

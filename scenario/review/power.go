@@ -1,0 +1,93 @@
+package review
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
+)
+
+// FigPower is the solar-array power figure (runs with body.panels).
+const FigPower = "power"
+
+// powerView is the run's power over the timeline's first orbits (from the
+// run's power series, else from a re-run of those orbits with one) and the
+// mean power of every whole orbit; ok is false without panels.
+func powerView(cfg sim.Config, res *sim.Result) (plots.PowerView, bool, error) {
+	if res.Power == nil || cfg.Panels == nil {
+		return plots.PowerView{}, false, nil
+	}
+	span := math.Min(TimelineOrbits*periodOf(cfg), cfg.Duration)
+	ser := res.PowerSeries
+	if ser == nil || len(ser.T) < 2 || ser.T[1] > span/100 {
+		short := cfg
+		short.Duration = span
+		short.Units = 1
+		short.Progress = nil
+		short.SunTrackPoints = 0
+		// About 600 points over the span, never finer than the run's step.
+		short.SeriesStride = max(1, int(span/cfg.Step/600))
+		r, err := sim.Run(context.Background(), short)
+		if err != nil {
+			return plots.PowerView{}, false, fmt.Errorf("re-running the first orbits: %w", err)
+		}
+		if ser = r.PowerSeries; ser == nil {
+			return plots.PowerView{}, false, errors.New("re-running the first orbits kept no power series")
+		}
+	}
+	var v plots.PowerView
+	for i, t := range ser.T {
+		if t > span {
+			break
+		}
+		v.T, v.W = append(v.T, t), append(v.W, ser.W[i])
+	}
+	v.Umbra, v.Penumbra = shadowSpans(res.Eclipses, v.T[len(v.T)-1])
+	v.OrbitW = append([]float64(nil), res.Power.PerOrbitW...)
+	v.MeanW = res.Power.MeanW
+	return v, true, nil
+}
+
+// shadowSpans cuts the eclipses into umbra and penumbra spans within
+// [0, end] s.
+func shadowSpans(eclipses []illum.Eclipse, end float64) (umbra, penumbra []plots.Interval) {
+	clip := func(a, b float64) (plots.Interval, bool) {
+		a, b = math.Max(a, 0), math.Min(b, end)
+		return plots.Interval{Start: a, End: b}, b > a
+	}
+	for _, e := range eclipses {
+		if e.PenumbralOnly() {
+			if iv, ok := clip(e.PenumbraStart, e.PenumbraEnd); ok {
+				penumbra = append(penumbra, iv)
+			}
+			continue
+		}
+		for _, p := range [][2]float64{{e.PenumbraStart, e.UmbraStart}, {e.UmbraEnd, e.PenumbraEnd}} {
+			if iv, ok := clip(p[0], p[1]); ok {
+				penumbra = append(penumbra, iv)
+			}
+		}
+		if iv, ok := clip(e.UmbraStart, e.UmbraEnd); ok {
+			umbra = append(umbra, iv)
+		}
+	}
+	return umbra, penumbra
+}
+
+// powerTells is the power figure's message with the run's numbers.
+func powerTells(res *sim.Result, tg *plots.Target) string {
+	p := res.Power
+	t := fmt.Sprintf("The array delivers %.1f W on average over the run%s, up to %.1f W", p.MeanW, verdictText(tg), p.PeakW)
+	if len(p.PerOrbitW) > 0 {
+		lo := math.Inf(1)
+		for _, w := range p.PerOrbitW {
+			lo = math.Min(lo, w)
+		}
+		t += fmt.Sprintf("; the worst whole orbit averages %.1f W (%.1f Wh)", lo, p.OrbitWorstWh)
+	}
+	return t + fmt.Sprintf(". The longest span without power lasts %.0f min. Shaded: umbra (dark) and penumbra (light).", p.LongestNoPowerS/60)
+}

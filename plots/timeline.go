@@ -47,6 +47,9 @@ type Timeline struct {
 	// shown in the panel title.
 	ErrorTarget, ValidTarget *Target
 	ValidShare               float64
+	// Phases, when set, are the spans of a mission timeline: a band of
+	// named bars above the other panels, their boundaries marked in each.
+	Phases []PhaseSpan
 }
 
 // fastChanges is the number of changes of the sensor count over the shown
@@ -178,9 +181,22 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 
 	var panels []*plot.Plot
 	var rec []drawnSeries
+	var cuts []float64
+	if len(f.Phases) > 0 {
+		pp, c, err := phasePanel(f.Phases, div, t[0], t[len(t)-1])
+		if err != nil {
+			return nil, err
+		}
+		panels, cuts = append(panels, pp), c
+	}
+	first := len(panels) // the first data panel
+	cutStyle := draw.LineStyle{Color: colBlack, Width: 0.8, Dashes: []vg.Length{2, 2}}
 	addPanel := func(title, ylabel string) *plot.Plot {
 		p := newPlot(title, "", ylabel)
 		p.Add(bands{penumbra, colPenumbra}, bands{umbra, colUmbra})
+		for _, x := range cuts {
+			p.Add(vline{x, cutStyle})
+		}
 		p.X.Min, p.X.Max = t[0], t[len(t)-1]
 		p.X.Tick.Marker = niceTicks{}
 		panels = append(panels, p)
@@ -368,10 +384,10 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 			}
 		}
 	}
-	if len(panels) == 0 {
+	if len(panels) == first {
 		return nil, fmt.Errorf("plots: timeline: nothing to draw; fill SensorsSeeing, Valid or an error series")
 	}
-	top := panels[0]
+	top := panels[first]
 	if len(f.Umbra) > 0 {
 		top.Legend.Add("umbra", swatch{colUmbra})
 	}
@@ -386,6 +402,9 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 	h := DefaultHeight
 	if len(panels) > 2 {
 		h = 7.5 * vg.Inch
+	}
+	if len(panels) > 3 {
+		h = 9 * vg.Inch
 	}
 	return &Chart{Panels: panels, Caption: caption, Height: h, drawn: rec}, nil
 }

@@ -18,7 +18,7 @@ import (
 
 // writeReview draws the design-review figures of a run and writes them as
 // files (plotsDir) and/or binds them into the HTML report.
-func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *study.SingleFailure, report, plotsDir string, prov review.Provenance, force bool) error {
+func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *study.SingleFailure, ph *study.Phases, report, plotsDir string, prov review.Provenance, force bool) error {
 	all, err := review.Figures(s, cfg, res)
 	if err != nil {
 		return fmt.Errorf("figures: %w", err)
@@ -42,6 +42,9 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *stud
 		r, err := review.Report(s, cfg, res, figs, prov)
 		if err != nil {
 			return fmt.Errorf("report: %w", err)
+		}
+		if ph != nil {
+			review.AddPhases(&r, s, *ph)
 		}
 		if sf != nil {
 			review.AddSingleFailure(&r, s, cfg, res, *sf)

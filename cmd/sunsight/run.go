@@ -237,7 +237,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		if err != nil {
 			return err
 		}
-		if err := writeReview(s, cfg, res, out.assessed.SingleFailure, f.report, f.plotsDir, prov, f.force); err != nil {
+		if err := writeReview(s, cfg, res, out.assessed.SingleFailure, out.phases, f.report, f.plotsDir, prov, f.force); err != nil {
 			return err
 		}
 	}

@@ -94,3 +94,26 @@ func TestTimelineInSummaryCSVAndJSON(t *testing.T) {
 		t.Errorf("spans end at %g s with %d samples; want 21600 s and %d", end, n, 6*3600/20+1)
 	}
 }
+
+// The report of a timeline run has the phase table and the timeline
+// figure over the whole run with its phase band.
+func TestTimelineReport(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "timeline.yaml")
+	if err := os.WriteFile(p, []byte(timelineFile), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	rep := filepath.Join(t.TempDir(), "r.html")
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", p, "--quiet", "--report", rep}, &so, &se); code != exitOK {
+		t.Fatalf("exit %d: %s", code, se.String())
+	}
+	b, err := os.ReadFile(rep)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"Mission timeline: each phase on its own", "slew to acquisition (", ">Mission phases (slews grey)<", "Mission timeline over the whole run"} {
+		if !strings.Contains(string(b), want) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+}

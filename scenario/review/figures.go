@@ -47,6 +47,10 @@ const SkyCellDeg = 2.0
 // TimelineOrbits is the number of orbits the timeline shows.
 const TimelineOrbits = 3
 
+// missionPoints bounds the samples the timeline of a mission timeline
+// shows over the whole run.
+const missionPoints = 1200
+
 // cdfPoints is the number of points read from the error quantiles.
 const cdfPoints = 400
 
@@ -95,7 +99,11 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 	tl.ErrorTarget, tl.ValidTarget = tg.errP95, tg.valid
 	tl.ValidShare = res.Nominal.Estimators[0].ValidFraction
 	c, err = tl.Plot(cap)
-	if err := add(FigTimeline, fmt.Sprintf("Timeline of the first %d orbits: sensors seeing the sun, validity, error", TimelineOrbits), c, err); err != nil {
+	title := fmt.Sprintf("Timeline of the first %d orbits: sensors seeing the sun, validity, error", TimelineOrbits)
+	if len(tl.Phases) > 0 {
+		title = "Mission timeline over the whole run: phases, sensors seeing the sun, validity, error"
+	}
+	if err := add(FigTimeline, title, c, err); err != nil {
 		return nil, err
 	}
 	out[len(out)-1].Tells = timelineTells(tl, tg)
@@ -370,6 +378,10 @@ func periodOf(cfg sim.Config) float64 {
 
 func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 	span := math.Min(TimelineOrbits*periodOf(cfg), cfg.Duration)
+	mission := study.TimelineOf(cfg)
+	if mission != nil {
+		span = cfg.Duration // the whole mission timeline, with its phases
+	}
 	ser := res.Nominal.Series
 	if ser == nil || len(ser.T) < 2 {
 		short := cfg
@@ -389,9 +401,23 @@ func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 		}
 	}
 	var tl plots.Timeline
+	if mission != nil {
+		for _, sp := range mission.Spans {
+			tl.Phases = append(tl.Phases, plots.PhaseSpan{Name: sp.Name, Start: sp.Start, End: sp.End, Slew: sp.Slew})
+		}
+	}
+	// A whole mission is thinned to about missionPoints samples, so the
+	// figure stays small in the report (a shorter run keeps every one).
+	every := 1
+	if mission != nil {
+		every = max(1, len(ser.T)/missionPoints)
+	}
 	for i, t := range ser.T {
 		if t > span {
 			break
+		}
+		if i%every != 0 && i != len(ser.T)-1 {
+			continue
 		}
 		tl.T = append(tl.T, t)
 		tl.SensorsSeeing = append(tl.SensorsSeeing, ser.Seen[i])

@@ -1,0 +1,44 @@
+package review
+
+import (
+	"math"
+	"time"
+
+	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/study"
+)
+
+// AddPhases adds the mission timeline's table to a report built by Report:
+// each phase and slew with its span and its own figures.
+func AddPhases(r *plots.Report, s *scenario.Scenario, ph study.Phases) {
+	t := plots.Table{Title: "Mission timeline: each phase on its own",
+		Header: []string{"Phase", "Start (UTC)", "Duration", "Ended", "Sunlit (%)", "Seen ≥1 (% of sunlit)", "Valid (% of sunlit)", "Longest gap (s)", "p95 albedo (°)"},
+		Note: "Each span of the run's step grid simulated on its own (same models, seed and units); ended: the end condition was met " +
+			"before the run ended. The plan is made once on the nominal geometry, so every unit flies the same timeline."}
+	for _, p := range ph.Phases {
+		h := p.Headline()
+		ended := "no"
+		switch {
+		case p.Span.Met:
+			ended = "yes"
+		case !p.Span.Slew && s.Timeline.Phases[p.Span.Phase].Until.Kind == scenario.UntilRunEnd:
+			ended = "—"
+		}
+		name := p.Span.Name
+		if p.Span.Slew {
+			name += " (" + num(p.Span.SlewAngleRad*180/math.Pi, 1) + "°)"
+		}
+		p95 := h.P95AlbedoDeg
+		if math.IsNaN(p95) {
+			p95 = h.P95NoAlbedoDeg
+		}
+		start := s.Epoch.Add(time.Duration(math.Round(p.Span.Start)) * time.Second).Format("2006-01-02 15:04:05")
+		dur := scenario.Span(time.Duration(math.Round(p.Span.End-p.Span.Start)) * time.Second).String()
+		t.Rows = append(t.Rows, []string{name, start, dur, ended, pct(h.SunlitFraction), pct(h.Seen1), pct(h.ValidFraction), num(h.LongestGapS, 0), num(p95, 2)})
+	}
+	for _, p := range s.Timeline.Phases[ph.Reached:] {
+		t.Rows = append(t.Rows, []string{p.Name, "not reached", "", "", "", "", "", "", ""})
+	}
+	r.Tables = append(r.Tables, t)
+}

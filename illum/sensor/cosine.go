@@ -159,6 +159,24 @@ func (c *Cosine) readInto(r *Reading, sun r3.Vec, direct, albIrr float64, noise 
 	*r = Reading{Signal: v, Valid: v > 0 && v >= c.spec.Threshold, Saturated: sat}
 }
 
+// ReadPair reads the sensor without and with an albedo irradiance albIrr
+// (W/m²) on one noise draw: the readings two Reads would give from the same
+// state of the noise stream, which ReadPair leaves where one Read would.
+func (c *Cosine) ReadPair(noAlb, withAlb *Reading, sun r3.Vec, direct, albIrr float64, noise *rand.Rand) {
+	e := direct * c.response(r3.Dot(c.actual.Boresight(), sun))
+	g := 1 + c.unit.gain[0]
+	v0 := g*e/c.spec.RefIrradiance + c.unit.dark[0]
+	v1 := g*(e+albIrr)/c.spec.RefIrradiance + c.unit.dark[0]
+	if er := &c.spec.Errors; noise != nil && er.NoiseSigma > 0 {
+		n := er.NoiseSigma * noise.NormFloat64()
+		v0, v1 = v0+n, v1+n
+	}
+	v0, s0 := c.spec.Errors.digitise(v0)
+	v1, s1 := c.spec.Errors.digitise(v1)
+	*noAlb = Reading{Signal: v0, Valid: v0 > 0 && v0 >= c.spec.Threshold, Saturated: s0}
+	*withAlb = Reading{Signal: v1, Valid: v1 > 0 && v1 >= c.spec.Threshold, Saturated: s1}
+}
+
 // Draw implements Sensor.
 func (c *Cosine) Draw(rng *rand.Rand) Sensor {
 	u := *c

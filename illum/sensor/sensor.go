@@ -175,6 +175,11 @@ func (e Errors) convert(v float64, noise *rand.Rand) (out float64, saturated boo
 	if noise != nil && e.NoiseSigma > 0 {
 		v += e.NoiseSigma * noise.NormFloat64()
 	}
+	return e.digitise(v)
+}
+
+// digitise clips a noisy signal to [0, full scale] and quantises it.
+func (e Errors) digitise(v float64) (out float64, saturated bool) {
 	if v < 0 {
 		v = 0
 	}

@@ -120,6 +120,7 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 		drawSrc, _ := unitSeed(cfg.Seed, u)
 		ua := arr.Draw(rand.New(drawSrc))
 		r := newReader(&cfg, ua, u, 0)
+		vw := newViewer(&cfg, ua)
 		for k := range tr.geom {
 			if k&1023 == 0 && ctx.Err() != nil {
 				return nil, ctx.Err()
@@ -129,7 +130,7 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 					albSub[j] = tr.albedo[k][i]
 				}
 			}
-			r.step(k, &tr.geom[k], albSub)
+			r.step(k, &tr.geom[k], vw.at(&tr.geom[k], albSub))
 		}
 		r.acc.end(float64(len(tr.geom)) * cfg.Step)
 		r.acc.finish()

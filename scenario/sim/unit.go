@@ -215,17 +215,78 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 	return sg
 }
 
+// stepView is what every unit of a task sees alike at one step, from the
+// geometry and the nominal layout: which sensors the body blocks from the
+// sun, the albedo each sensor gets past the body, and which sensors see the
+// sun (coverage counts the nominal layout).
+type stepView struct {
+	sunBlocked []bool          // nil: nothing is ever blocked
+	albSeen    []sensor.Albedo // nil without albedo
+	sees       []bool
+	seen       int
+}
+
+// viewer fills the stepView of each step, once for all units of a task.
+type viewer struct {
+	blocked []func(r3.Vec) bool
+	sees    []func(r3.Vec) bool
+	v       stepView
+}
+
+func newViewer(cfg *Config, arr *sensor.Array) *viewer {
+	n := arr.Len()
+	w := &viewer{blocked: cfg.Blocked, v: stepView{sees: make([]bool, n)}}
+	if cfg.Blocked != nil {
+		w.v.sunBlocked = make([]bool, n)
+	}
+	if cfg.NewAlbedo != nil {
+		w.v.albSeen = make([]sensor.Albedo, n)
+	}
+	for i, s := range arr.Sensors() {
+		if cfg.Viewers != nil {
+			w.sees = append(w.sees, cfg.Viewers[i].Sees)
+		} else {
+			w.sees = append(w.sees, s.SeesSun)
+		}
+	}
+	return w
+}
+
+// at returns the view of a step whose geometry is g and whose albedo per
+// sensor is albBody (ignored without albedo). A sensor whose view of the sun
+// is blocked by the body gets no direct light; its albedo is dropped when
+// the mean arrival direction is blocked (a first approximation: a partly
+// blocked Earth is not split).
+func (w *viewer) at(g *stepGeom, albBody []sensor.Albedo) *stepView {
+	v := &w.v
+	for i := range v.sunBlocked {
+		v.sunBlocked[i] = w.blocked[i] != nil && w.blocked[i](g.sunBody)
+	}
+	for i := range v.albSeen {
+		v.albSeen[i] = albBody[i]
+		if w.blocked != nil && w.blocked[i] != nil && albBody[i].Irradiance > 0 && w.blocked[i](albBody[i].Dir) {
+			v.albSeen[i] = sensor.Albedo{}
+		}
+	}
+	v.seen = 0
+	sunlit := g.region == illum.Sunlit
+	for i, sees := range w.sees {
+		v.sees[i] = sunlit && sees(g.sunBody)
+		if v.sees[i] {
+			v.seen++
+		}
+	}
+	return v
+}
+
 // reader reads one unit's sensors on a step's geometry and folds the result
 // into its accumulator.
 type reader struct {
 	cfg             *Config
 	arr             *sensor.Array
 	ests            []sensor.Estimator
-	sees            []func(r3.Vec) bool
-	blocked         []func(r3.Vec) bool
-	sunBlocked      []bool
+	cosines         []*sensor.Cosine // every sensor, when all are cosine sensors
 	readNo, readAlb []sensor.Reading
-	albSeen         []sensor.Albedo
 	noiseSrc        *rand.PCG
 	noise           *rand.Rand
 	acc             *unitAcc
@@ -236,19 +297,17 @@ type reader struct {
 
 func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 	n := arr.Len()
-	r := &reader{cfg: cfg, arr: arr, ests: cfg.Estimators, blocked: cfg.Blocked, unit: u, withAlbedo: cfg.NewAlbedo != nil,
-		readNo: make([]sensor.Reading, n), readAlb: make([]sensor.Reading, n), albSeen: make([]sensor.Albedo, n)}
+	r := &reader{cfg: cfg, arr: arr, ests: cfg.Estimators, unit: u, withAlbedo: cfg.NewAlbedo != nil,
+		readNo: make([]sensor.Reading, n), readAlb: make([]sensor.Reading, n)}
 	r.noiseSrc = rand.NewPCG(0, 0)
 	r.noise = rand.New(r.noiseSrc)
-	if cfg.Blocked != nil {
-		r.sunBlocked = make([]bool, n)
-	}
-	for i, s := range arr.Sensors() {
-		if cfg.Viewers != nil {
-			r.sees = append(r.sees, cfg.Viewers[i].Sees)
-		} else {
-			r.sees = append(r.sees, s.SeesSun)
+	for _, s := range arr.Sensors() {
+		c, ok := s.(*sensor.Cosine)
+		if !ok {
+			r.cosines = nil
+			break
 		}
+		r.cosines = append(r.cosines, c)
 	}
 	if cfg.Filter != nil {
 		r.filt = newGyroFilter(cfg, cfg.Array, u)
@@ -258,42 +317,37 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 	return r
 }
 
-// step reads the sensors at step k. albBody holds each sensor's albedo
-// (ignored without an albedo model). It allocates nothing unless a time
-// series is kept.
-func (r *reader) step(k int, g *stepGeom, albBody []sensor.Albedo) {
+// step reads the sensors at step k on the step's geometry g and view v. It
+// allocates nothing unless a time series is kept.
+func (r *reader) step(k int, g *stepGeom, v *stepView) {
 	if k%noiseBlockSteps == 0 || k == r.acc.k0 {
 		seedNoise(r.noiseSrc, r.cfg.Seed, r.unit, k)
 	}
-	// Readings without albedo, then with it, on the same noise draws. A
-	// sensor whose view of the sun is blocked by the body gets no direct
-	// light; its albedo is dropped when the mean arrival direction is
-	// blocked (a first approximation: a partly blocked Earth is not split).
-	for i := range r.sunBlocked {
-		r.sunBlocked[i] = r.blocked[i] != nil && r.blocked[i](g.sunBody)
-	}
-	saved := *r.noiseSrc
-	readAll(r.readNo, r.arr, g.sunBody, g.direct, nil, r.noise, r.sunBlocked)
-	if r.withAlbedo {
-		for i := range r.albSeen {
-			r.albSeen[i] = albBody[i]
-			if r.blocked != nil && r.blocked[i] != nil && albBody[i].Irradiance > 0 && r.blocked[i](albBody[i].Dir) {
-				r.albSeen[i] = sensor.Albedo{}
+	// Readings without albedo, then with it, on the same noise draws: a
+	// cosine array reads both in one pass (Cosine.ReadPair), other kinds
+	// replay the noise stream.
+	if r.withAlbedo && r.cosines != nil {
+		for i, c := range r.cosines {
+			d := g.direct
+			if v.sunBlocked != nil && v.sunBlocked[i] {
+				d = 0
 			}
+			c.ReadPair(&r.readNo[i], &r.readAlb[i], g.sunBody, d, v.albSeen[i].Irradiance, r.noise)
 		}
-		*r.noiseSrc = saved
-		readAll(r.readAlb, r.arr, g.sunBody, g.direct, r.albSeen, r.noise, r.sunBlocked)
-	}
-	seen := 0
-	if g.region == illum.Sunlit {
-		for i, sees := range r.sees {
-			if sees(g.sunBody) {
-				seen++
-				r.acc.inView[i]++
-			}
+	} else {
+		saved := *r.noiseSrc
+		readAll(r.readNo, r.arr, g.sunBody, g.direct, nil, r.noise, v.sunBlocked)
+		if r.withAlbedo {
+			*r.noiseSrc = saved
+			readAll(r.readAlb, r.arr, g.sunBody, g.direct, v.albSeen, r.noise, v.sunBlocked)
 		}
 	}
-	r.acc.step(k, g.t, g.region, g.lit, seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.arr, r.ests)
+	for i, s := range v.sees {
+		if s {
+			r.acc.inView[i]++
+		}
+	}
+	r.acc.step(k, g.t, g.region, g.lit, v.seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.arr, r.ests)
 	if r.filt != nil {
 		real := r.readNo
 		if r.withAlbedo {
@@ -318,6 +372,7 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 		readers[i] = newReader(cfg, arrays[tk.u0+i], tk.u0+i, tk.k0)
 	}
 	albBody := make([]sensor.Albedo, arrays[tk.u0].Len())
+	vw := newViewer(cfg, arrays[tk.u0])
 	n := int64(len(readers))
 	for k := tk.k0; k < tk.k1; k++ {
 		if k&1023 == 0 && k > tk.k0 {
@@ -329,8 +384,9 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 			}
 		}
 		sg := g.step(k, albBody)
+		v := vw.at(&sg, albBody)
 		for _, r := range readers {
-			r.step(k, &sg, albBody)
+			r.step(k, &sg, v)
 		}
 	}
 	// The last sample stands for the time up to the run's end, not a whole

@@ -5,25 +5,26 @@ package scenario
 // them and converts them into the exported types of scenario.go.
 
 type fileScenario struct {
-	Name       string         `yaml:"name"`
-	Epoch      string         `yaml:"epoch"`
-	Duration   Span           `yaml:"duration"`
-	Step       Span           `yaml:"step"`
-	Seed       *int64         `yaml:"seed,omitempty"`
-	Orbit      fileOrbit      `yaml:"orbit"`
-	SunModel   string         `yaml:"sun_model"`
-	Shadow     string         `yaml:"shadow"`
-	Attitude   fileAttitude   `yaml:"attitude"`
-	Modes      []fileMode     `yaml:"modes,omitempty"`
-	Timeline   *fileTimeline  `yaml:"timeline,omitempty"`
-	Body       fileBody       `yaml:"body"`
-	Estimators []string       `yaml:"estimators"`
-	Albedo     fileAlbedo     `yaml:"albedo"`
-	Validity   fileValidity   `yaml:"validity"`
-	Targets    *fileTargets   `yaml:"targets,omitempty"`
-	MonteCarlo fileMonteCarlo `yaml:"monte_carlo"`
-	Budget     *fileBudget    `yaml:"budget,omitempty"`
-	Output     fileOutput     `yaml:"output"`
+	Name       string          `yaml:"name"`
+	Epoch      string          `yaml:"epoch"`
+	Duration   Span            `yaml:"duration"`
+	Step       Span            `yaml:"step"`
+	Seed       *int64          `yaml:"seed,omitempty"`
+	Orbit      fileOrbit       `yaml:"orbit"`
+	SunModel   string          `yaml:"sun_model"`
+	Shadow     string          `yaml:"shadow"`
+	Attitude   fileAttitude    `yaml:"attitude"`
+	Modes      []fileMode      `yaml:"modes,omitempty"`
+	Timeline   *fileTimeline   `yaml:"timeline,omitempty"`
+	Body       fileBody        `yaml:"body"`
+	Estimators []string        `yaml:"estimators"`
+	Albedo     fileAlbedo      `yaml:"albedo"`
+	Validity   fileValidity    `yaml:"validity"`
+	GyroFilter *fileGyroFilter `yaml:"gyro_filter,omitempty"`
+	Targets    *fileTargets    `yaml:"targets,omitempty"`
+	MonteCarlo fileMonteCarlo  `yaml:"monte_carlo"`
+	Budget     *fileBudget     `yaml:"budget,omitempty"`
+	Output     fileOutput      `yaml:"output"`
 }
 
 type fileOrbit struct {

@@ -190,6 +190,7 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 	s.Estimators = r.estimators(f, s.Body.Sensors)
 	s.Albedo = r.albedo(&f.Albedo)
 	s.Validity = r.validity(&f.Validity, s.Estimators)
+	s.GyroFilter = r.gyroFilter(f.GyroFilter)
 	s.Targets = r.targets(f.Targets, len(s.Body.Sensors))
 	if f.MonteCarlo.Units == 0 {
 		if _, given := r.nodes["monte_carlo.units"]; !given {

@@ -31,6 +31,7 @@ type Scenario struct {
 	Estimators []string // "least-squares", "opposite-pairs", "two-axis", "combined"
 	Albedo     Albedo
 	Validity   Validity
+	GyroFilter GyroFilter // the gyro-aided sun-direction filter, when Set
 	Targets    Targets
 	MonteCarlo MonteCarlo
 	Budget     Budget

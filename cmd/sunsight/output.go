@@ -161,6 +161,33 @@ type jsonUnit struct {
 	BetaMaxDeg num             `json:"beta_max_deg"`
 	Sensors    []jsonSensor    `json:"sensors"`
 	Estimators []jsonEstimator `json:"estimators"`
+	// GyroFilter is the gyro-aided filter's figures (gyro_filter block).
+	GyroFilter *jsonFilter `json:"gyro_filter,omitempty"`
+}
+
+// jsonFilter is sim.FilterStats: shares and errors over the whole run and
+// over eclipse, and the outages of the primary point estimate it held.
+type jsonFilter struct {
+	Valid          num     `json:"valid_fraction_of_run"`
+	ValidShadow    num     `json:"valid_fraction_of_shadow"`
+	Err            jsonErr `json:"error"`
+	ErrShadow      jsonErr `json:"error_in_shadow"`
+	HoldLastShadow jsonErr `json:"held_estimate_error_in_shadow"`
+	Outages        int     `json:"outages"`
+	OutagesHeld    int     `json:"outages_held"`
+	ShortestBreakS num     `json:"shortest_break_s"`
+	LongestHeldS   num     `json:"longest_held_s"`
+	Starts         int     `json:"starts"`
+	HoldBoundDeg   num     `json:"hold_bound_deg"`
+}
+
+func filterJSON(f *sim.FilterStats) *jsonFilter {
+	if f == nil {
+		return nil
+	}
+	return &jsonFilter{Valid: num(f.ValidFraction), ValidShadow: num(f.ValidShadowFraction), Err: errJSON(f.Err),
+		ErrShadow: errJSON(f.ErrShadow), HoldLastShadow: errJSON(f.HoldLastShadow), Outages: f.Outages, OutagesHeld: f.OutagesHeld,
+		ShortestBreakS: num(f.ShortestBreakS), LongestHeldS: num(f.LongestHeldS), Starts: f.Starts, HoldBoundDeg: num(f.HoldBoundDeg)}
 }
 
 type jsonEclipse struct {
@@ -174,7 +201,7 @@ type jsonEclipse struct {
 func unitJSON(u *sim.UnitResult) jsonUnit {
 	j := jsonUnit{Unit: u.Unit, Sunlit: num(u.SunlitFraction), Penumbra: num(u.PenumbraFraction), Umbra: num(u.UmbraFraction),
 		Seen1: num(u.SeenAtLeast[1]), Seen2: num(u.SeenAtLeast[2]), Seen3: num(u.SeenAtLeast[3]), FalseSun: num(u.FalseSunFraction),
-		BetaMinDeg: num(u.BetaMinDeg), BetaMaxDeg: num(u.BetaMaxDeg)}
+		BetaMinDeg: num(u.BetaMinDeg), BetaMaxDeg: num(u.BetaMaxDeg), GyroFilter: filterJSON(u.Filter)}
 	for _, s := range u.Sensors {
 		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.SaturatedFraction), num(s.FalseSunFraction),
 			num(s.AlbedoOnlyFraction), num(s.WrongFraction)})
@@ -450,6 +477,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		fmt.Fprintf(w, "  %-16s %8s %7.0f s %13s %11s %12s %9s %10s\n", e.Name, pct(e.ValidFraction), e.LongestGapS,
 			deg(e.ErrNoAlbedo.P95Deg), deg(e.ErrAlbedo.P95Deg), deg(e.AlbedoPart.P95Deg), deg(mx), pct(e.FalseSunFraction))
 	}
+	o.writeFilter(w)
 	fmt.Fprintf(w, "\nFalse suns (share of sunlit time; umbra: share of umbra time)\n")
 	fmt.Fprintf(w, "  %-16s %22s %22s %10s\n", "estimator", "valid only with albedo", fmt.Sprintf("valid, > %g° off", r.FalseSunBoundDeg), "umbra")
 	for _, e := range u.Estimators {
@@ -610,6 +638,9 @@ func (o *runOutput) writeCSV(dir string) error {
 	files["estimators.csv"] = est
 	files["sensors.csv"] = sens
 	files["gaps.csv"] = gaps
+	if rows := filterCSV(units); rows != nil {
+		files["gyro_filter.csv"] = rows
+	}
 	if len(o.modes) > 0 {
 		files["modes.csv"] = o.modesCSV()
 	}

@@ -113,6 +113,9 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 	cfg.Gates = gatesFor(tr.cfg, ests)
 	cfg.MountNormals = normals
 	cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
+	// Subsets are scored by their point estimators; the filter is the
+	// full run's.
+	cfg.Filter = nil
 	res := tr.result
 	res.Units = nil
 	albSub := make([]sensor.Albedo, len(subset))

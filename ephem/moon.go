@@ -3,10 +3,8 @@ package ephem
 import (
 	"math"
 
-	"github.com/soniakeys/meeus/v3/base"
 	"github.com/soniakeys/meeus/v3/moonposition"
 	"github.com/soniakeys/meeus/v3/nutation"
-	"github.com/soniakeys/unit"
 	"gonum.org/v1/gonum/spatial/r3"
 )
 
@@ -52,6 +50,7 @@ func (Moon) Position(jdTT float64) (r3.Vec, float64) {
 // the Moon between the sun and the Earth, from geocentric vectors to the
 // Moon and to the sun (any common unit): Meeus 1998 (48.2) and (48.3),
 // tan i = R·sin ψ / (Δ − R·cos ψ) with ψ the geocentric elongation.
+// base.Illuminated(i) is then (48.1).
 func MoonPhaseAngle(moon, sun r3.Vec) float64 {
 	Δ, R := math.Sqrt(r3.Norm2(moon)), math.Sqrt(r3.Norm2(sun))
 	cψ := r3.Dot(moon, sun) / (Δ * R)
@@ -60,8 +59,13 @@ func MoonPhaseAngle(moon, sun r3.Vec) float64 {
 }
 
 // MoonIlluminatedFraction returns the illuminated fraction k of the Moon's
-// disc seen from the Earth, k = (1 + cos i)/2 (Meeus 1998 (48.1),
-// base.Illuminated), from geocentric vectors to the Moon and to the sun.
+// disc seen from the Earth, k = (1 + cos i)/2 (Meeus 1998 (48.1)), from
+// geocentric vectors to the Moon and to the sun. cos i is taken straight
+// from the triangle Earth–Moon–sun, the angle at the Moon between the sun
+// (sun − moon) and the Earth (−moon), which is (48.3) without its
+// arctangent; the step loop calls it every step.
 func MoonIlluminatedFraction(moon, sun r3.Vec) float64 {
-	return base.Illuminated(unit.Angle(MoonPhaseAngle(moon, sun)))
+	toSun := r3.Sub(sun, moon)
+	cosI := -r3.Dot(toSun, moon) / math.Sqrt(r3.Norm2(toSun)*r3.Norm2(moon))
+	return (1 + cosI) / 2
 }

@@ -2,8 +2,11 @@ package ephem
 
 import (
 	"math"
+	"math/rand/v2"
 	"testing"
 
+	"github.com/soniakeys/meeus/v3/base"
+	"github.com/soniakeys/unit"
 	"gonum.org/v1/gonum/spatial/r3"
 )
 
@@ -98,6 +101,22 @@ func TestMoonIlluminatedFractionLimits(t *testing.T) {
 	} {
 		if k := MoonIlluminatedFraction(c.moon, sun); math.Abs(k-c.want) > 1e-12 {
 			t.Errorf("moon %v: k = %.15f, want %.15f", c.moon, k, c.want)
+		}
+	}
+}
+
+// The triangle form of k equals Meeus's (48.3) then (48.1) through
+// soniakeys/meeus base.Illuminated, for random Moon and sun positions.
+func TestMoonIlluminatedFractionIsMeeus48(t *testing.T) {
+	rng := rand.New(rand.NewPCG(48, 1))
+	for range 10000 {
+		v := func(d float64) r3.Vec {
+			return r3.Scale(d, r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()})
+		}
+		moon, sun := v(380000), v(AUKm)
+		want := base.Illuminated(unit.Angle(MoonPhaseAngle(moon, sun)))
+		if k := MoonIlluminatedFraction(moon, sun); math.Abs(k-want) > 1e-12 {
+			t.Fatalf("k = %.15f, (48.3)+(48.1) give %.15f", k, want)
 		}
 	}
 }

@@ -146,6 +146,11 @@ type jsonSensor struct {
 	// A cosine sensor gives no direction: its beyond-bound share is null.
 	AlbedoOnly  num `json:"valid_only_with_albedo_fraction_of_sunlit"`
 	BeyondBound num `json:"valid_beyond_false_sun_bound_fraction_of_sunlit"`
+	// Shares of all time; blinded is null for a sensor without a blinding
+	// rule that can act.
+	MoonInView     num `json:"moon_in_view_fraction"`
+	LitEarthInView num `json:"lit_earth_in_view_fraction"`
+	Blinded        num `json:"blinded_fraction"`
 }
 
 type jsonUnit struct {
@@ -204,7 +209,7 @@ func unitJSON(u *sim.UnitResult) jsonUnit {
 		BetaMinDeg: num(u.BetaMinDeg), BetaMaxDeg: num(u.BetaMaxDeg), GyroFilter: filterJSON(u.Filter)}
 	for _, s := range u.Sensors {
 		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.SaturatedFraction), num(s.FalseSunFraction),
-			num(s.AlbedoOnlyFraction), num(s.WrongFraction)})
+			num(s.AlbedoOnlyFraction), num(s.WrongFraction), num(s.MoonInViewFraction), num(s.LitEarthInViewFraction), num(s.BlindedFraction)})
 	}
 	for _, e := range u.Estimators {
 		j.Estimators = append(j.Estimators, jsonEstimator{Name: e.Name, Valid: num(e.ValidFraction), ValidNoAlbedo: num(e.ValidFractionNoAlbedo),
@@ -504,6 +509,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	}
 	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal; umbra lit: share of umbra time above threshold;\n")
 	fmt.Fprintf(w, "   albedo only: share of sunlit time valid only because of albedo; off: a two-axis direction that far from the sun)\n")
+	writeBodiesInView(w, u.Sensors)
 	for _, sn := range o.cfg.Array.Sensors() {
 		if q, ok := sn.(*sensor.Quadrant); ok {
 			fmt.Fprintf(w, "  %s: %s\n", q.Name(), sensor.ViewText(q))
@@ -613,7 +619,8 @@ func (o *runOutput) writeCSV(dir string) error {
 		"p95_albedo_part_deg", "false_sun_fraction_of_umbra",
 		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
 	sens := [][]string{{"unit", "sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra",
-		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
+		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit",
+		"moon_in_view_fraction", "lit_earth_in_view_fraction", "blinded_fraction"}}
 	gaps := [][]string{{"unit", "estimator", "gap_start_utc", "gap_start_s", "gap_end_s", "gap_s"}}
 	for _, un := range units {
 		ui := strconv.Itoa(un.Unit)
@@ -632,7 +639,7 @@ func (o *runOutput) writeCSV(dir string) error {
 		}
 		for _, s := range un.Sensors {
 			sens = append(sens, []string{ui, s.Name, ff(s.InViewFraction, 6), ff(s.PeakSignal, 5), ff(s.SaturatedFraction, 6), ff(s.FalseSunFraction, 6),
-				ff(s.AlbedoOnlyFraction, 6), ff(s.WrongFraction, 6)})
+				ff(s.AlbedoOnlyFraction, 6), ff(s.WrongFraction, 6), ff(s.MoonInViewFraction, 6), ff(s.LitEarthInViewFraction, 6), ff(s.BlindedFraction, 6)})
 		}
 	}
 	files["estimators.csv"] = est

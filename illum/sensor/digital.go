@@ -29,6 +29,26 @@ type DigitalSpec struct {
 	AlbedoThreshold float64
 	// MisalignSigma is the 1σ mounting error per axis (rad).
 	MisalignSigma float64
+	// Blind is the rule by which the Moon or the lit Earth in the field of
+	// view invalidates a reading (zero value: never).
+	Blind BlindRule
+}
+
+// BlindRule says when the Moon or the lit Earth inside a digital sensor's
+// field of view (the cone of HalfAngle about the boresight of the unit as
+// mounted) invalidates its reading. The reading is dropped, not biased: the
+// centroid model has no photometry of a Moon spot or of stray Earth light
+// on the detector, and a unit that cannot tell them from the sun is
+// assumed to flag the frame (common practice, no source).
+type BlindRule struct {
+	// Moon on: some of the Moon's disc inside the cone, not hidden by the
+	// Earth, with an illuminated fraction above MoonLitAbove ([0, 1)).
+	Moon         bool
+	MoonLitAbove float64
+	// Earth on: the sub-satellite point sunlit and the Earth's disc
+	// reaching more than EarthDepthAbove (rad, [0, π)) inside the cone.
+	Earth           bool
+	EarthDepthAbove float64
 }
 
 // Digital is a digital sun sensor.
@@ -60,6 +80,9 @@ func NewDigital(s DigitalSpec) (*Digital, error) {
 	}
 	if s.Sigma == 0 {
 		return nil, fmt.Errorf("sensor %q: sigma = 0: state the 1σ accuracy per axis (rad, > 0)", s.Name)
+	}
+	if b := s.Blind; b.Moon && !(b.MoonLitAbove >= 0 && b.MoonLitAbove < 1) || b.Earth && !(b.EarthDepthAbove >= 0 && b.EarthDepthAbove < math.Pi) {
+		return nil, fmt.Errorf("sensor %q: blinding thresholds: Moon lit fraction %g want [0, 1), Earth depth %g° want [0°, 180°)", s.Name, b.MoonLitAbove, b.EarthDepthAbove*180/math.Pi)
 	}
 	return &Digital{spec: s, tanMax: math.Tan(s.HalfAngle), cosMax: math.Cos(s.HalfAngle), actual: s.Mount}, nil
 }
@@ -150,6 +173,20 @@ func (d *Digital) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand)
 	return Reading{Signal: wSum / SolarConstant, Dir: d.spec.Mount.ToBody(dir), Valid: true}
 }
 
+// Blinding implements Blindable: the unit has a rule that can act.
+func (d *Digital) Blinding() bool { return d.spec.Blind.Moon || d.spec.Blind.Earth }
+
+// Blinded implements Blindable: the rule of Spec().Blind acts on the unit
+// as mounted (its drawn misalignment included).
+func (d *Digital) Blinded(b Bodies) bool {
+	r := d.spec.Blind
+	bore := d.actual.Boresight()
+	if r.Moon && b.MoonLit > r.MoonLitAbove && b.MoonInCone(NewCone(bore, d.HalfAngle()), r3.Vec{}) {
+		return true
+	}
+	return r.Earth && b.EarthLit && b.EarthDepth(bore, d.HalfAngle()) > r.EarthDepthAbove
+}
+
 // Draw implements Sensor.
 func (d *Digital) Draw(rng *rand.Rand) Sensor {
 	u := *d
@@ -166,6 +203,10 @@ func init() {
 		Params: []Param{
 			{Key: "accuracy_deg_1sigma", Doc: "stated accuracy per axis", Default: 0.5, Min: 0, Max: 90, Allowed: "[0, 90] degrees", Scale: math.Pi / 180},
 			{Key: "fov_shape", Type: Choice, Doc: "cone, or a square of half side half_angle_deg", Choices: []string{"cone", "square"}},
+			{Key: "moon_blind_lit_fraction", Doc: "the Moon inside the field of view invalidates the reading when its illuminated fraction is above this (1: never)",
+				Default: 1, Min: 0, Max: 1, Allowed: "[0, 1]; 1 turns the rule off"},
+			{Key: "lit_earth_blind_depth_deg", Doc: "the lit Earth reaching more than this far inside the field-of-view cone invalidates the reading (180: never)",
+				Default: 180, Min: 0, Max: 180, Allowed: "[0, 180] degrees; 180 turns the rule off", Scale: math.Pi / 180},
 		},
 		Sources: []ErrorSource{{Name: SourceMisalignment}, {Name: SourceDigitalNoise, Param: "accuracy_deg_1sigma"}},
 		Build:   buildDigital,
@@ -180,5 +221,7 @@ const digitalAlbedoRejection = 0.3
 func buildDigital(c Common, p Params) (Sensor, error) {
 	return NewDigital(DigitalSpec{Name: c.Name, Mount: c.Mount, HalfAngle: c.HalfAngle, Square: p.Text["fov_shape"] == "square",
 		Sigma: p.Num["accuracy_deg_1sigma"], MinIrradiance: c.Threshold * SolarConstant,
-		AlbedoThreshold: digitalAlbedoRejection * SolarConstant, MisalignSigma: c.Errors.MisalignSigma})
+		AlbedoThreshold: digitalAlbedoRejection * SolarConstant, MisalignSigma: c.Errors.MisalignSigma,
+		Blind: BlindRule{Moon: p.Num["moon_blind_lit_fraction"] < 1, MoonLitAbove: p.Num["moon_blind_lit_fraction"],
+			Earth: p.Num["lit_earth_blind_depth_deg"] < math.Pi-1e-12, EarthDepthAbove: p.Num["lit_earth_blind_depth_deg"]}})
 }

@@ -67,6 +67,20 @@
 // FOV), plus Gaussian noise of the stated σ on each axis angle. Albedo alone
 // above the threshold produces a false sun, as real detectors can.
 //
+// Blinding (Blindable, BlindRule): a digital sensor's reading is dropped —
+// invalid, not biased — while some of the Moon's disc is inside its cone
+// (half-angle + the Moon's angular radius from the boresight of the unit as
+// mounted, not hidden by the Earth) with an illuminated fraction above
+// moon_blind_lit_fraction, or while the sub-satellite point is sunlit and
+// the Earth's disc (angular radius asin(R/r)) reaches more than
+// lit_earth_blind_depth_deg inside the cone (depth = half-angle + asin(R/r)
+// − angle from the boresight to nadir). The defaults, 1 and 180°, can never
+// be exceeded: the rule is off until a file sets a threshold, and the
+// albedo centroid bias above stays the model of a sensor without one.
+// Bodies holds the Moon and Earth geometry of a step; MoonInCone and
+// LitEarthInCone are also the rules of the engine's Moon- and lit-Earth-in-
+// view shares.
+//
 // Seeing the sun (SeesSun): a sensor sees the sun where the nominal unit,
 // with its error model off and no albedo, gives a valid reading from direct
 // sun at 1361 W/m² — a cosine or digital signal at or above its threshold,
@@ -118,6 +132,15 @@
 //     misalignments, offsets, gains and aperture offsets appear as errors.
 //   - The digital sensor's noise is white per reading; no bias or
 //     calibration residual beyond the misalignment.
+//   - Blinding drops the reading instead of biasing it: the centroid model
+//     has no photometry of a Moon spot (the full Moon gives about 2.5e-6 of
+//     the sun's irradiance, magnitude −12.7 against −26.7, from memory) or of
+//     stray Earth light on the detector, and a unit that cannot tell them
+//     from the sun is assumed to flag the frame (common practice, no
+//     source). The thresholds are the user's statement of the unit's
+//     stray-light behaviour; no default is claimed for real hardware. The
+//     field of view of the rule is the cone of HalfAngle (a square field's
+//     circumscribed cone), the Earth a sphere without atmosphere.
 //
 // # Accuracy
 //

@@ -98,7 +98,10 @@ type Sensor struct {
 	GapMM             *float64  `yaml:"gap_mm,omitempty"`
 	AccuracyDeg1Sigma *float64  `yaml:"accuracy_deg_1sigma,omitempty"`
 	FOVShape          string    `yaml:"fov_shape,omitempty"`
-	Errors            *Errors   `yaml:"errors,omitempty"`
+	// The digital kind's blinding thresholds (nil: the defaults, off).
+	MoonBlindLitFraction  *float64 `yaml:"moon_blind_lit_fraction,omitempty"`
+	LitEarthBlindDepthDeg *float64 `yaml:"lit_earth_blind_depth_deg,omitempty"`
+	Errors                *Errors  `yaml:"errors,omitempty"`
 }
 
 // Obstruction is a body part in the way of the sensors.

@@ -16,7 +16,8 @@ func fingerprint(res *sim.Result) string {
 	for _, u := range res.Units {
 		fmt.Fprintf(&b, "unit %d: %v %v %v %v %v\n", u.Unit, u.SunlitFraction, u.PenumbraFraction, u.SeenAtLeast, u.FalseSunFraction, u.BetaMaxDeg)
 		for _, s := range u.Sensors {
-			fmt.Fprintf(&b, " %s %v %v %v %v %v\n", s.Name, s.InViewFraction, s.PeakSignal, s.SaturatedFraction, s.FalseSunFraction, s.AlbedoOnlyFraction)
+			fmt.Fprintf(&b, " %s %v %v %v %v %v %v %v\n", s.Name, s.InViewFraction, s.PeakSignal, s.SaturatedFraction, s.FalseSunFraction, s.AlbedoOnlyFraction,
+				s.MoonInViewFraction, s.LitEarthInViewFraction)
 		}
 		for _, e := range u.Estimators {
 			fmt.Fprintf(&b, " %s %v %v %v %v %v %v\n", e.Name, e.ValidFraction, e.ValidFractionNoAlbedo, e.ErrNoAlbedo, e.ErrAlbedo, e.AlbedoPart, e.WrongFraction)
@@ -123,6 +124,8 @@ func TestEveryAcceptedKeyHasAnEffect(t *testing.T) {
 		{"digital errors.noise_1sigma", sens("d", func(s *randscenario.Sensor) { s.Errors.Noise1Sigma = 0.01 })},
 		{"digital adc_bits", sens("d", func(s *randscenario.Sensor) { s.ADCBits = new(int); *s.ADCBits = 4 })},
 		{"digital full_scale", sens("d", func(s *randscenario.Sensor) { s.FullScale = f64(0.5) })},
+		{"digital moon_blind_lit_fraction", sens("d", func(s *randscenario.Sensor) { s.MoonBlindLitFraction = f64(0) })},
+		{"digital lit_earth_blind_depth_deg", sens("d", func(s *randscenario.Sensor) { s.LitEarthBlindDepthDeg = f64(10) })},
 	}
 	base := keyBase()
 	_, res := mustRun(t, base)

@@ -73,6 +73,20 @@
 // case through either table, TestBoresightTableRunMatchesIntegral for a
 // tumble: error statistics within 0.05°).
 //
+// The Moon and the Earth in view: every step takes the Moon (ephem.Moon,
+// interpolated like the sun, between knots 1800 s apart: within 2.9e-7 rad
+// and 48 m, TestMoonCacheMatchesEphemeris) less the spacecraft position, and counts per sensor (nominal mount)
+// the steps with some of the Moon's disc inside the cone (sensor.Bodies:
+// half-angle + Moon angular radius from the boresight), not wholly behind
+// the Earth's disc, in front of the mounting plane and clear of the body's
+// obstructions; and the steps with some of the Earth's disc inside the cone
+// (half-angle + asin(R/r)) and in front of the mounting plane while the
+// sub-satellite point is sunlit (r·ŝ > 0, the rule chosen for "lit Earth":
+// the Earth under the spacecraft is in daylight). A sensor with a blinding
+// rule (sensor.Blindable, the digital kind) has its readings dropped at the
+// steps the rule names, before the estimators see them; the sun coverage
+// shares stay geometric.
+//
 // # Assumptions
 //
 // Rigid body; attitude laws are kinematic (no dynamics or control error);

@@ -86,6 +86,18 @@ type SensorStats struct {
 	SaturatedFraction float64
 	// FalseSunFraction is the fraction of umbra time above threshold.
 	FalseSunFraction float64
+	// MoonInViewFraction is the fraction of all time with some of the
+	// Moon's disc inside the sensor's cone (half-angle + the Moon's angular
+	// radius from the boresight), not hidden by the Earth, in front of its
+	// mounting plane and clear of the body's obstructions.
+	// LitEarthInViewFraction is the fraction of all time with some of the
+	// Earth's disc inside the cone (half-angle + asin(R/r) from the
+	// boresight, in front of the mounting plane) while the sub-satellite
+	// point is sunlit. Both use the nominal mount.
+	MoonInViewFraction, LitEarthInViewFraction float64
+	// BlindedFraction is the fraction of all time the kind's blinding rule
+	// dropped the reading (NaN for a sensor without a rule that can act).
+	BlindedFraction float64
 	// AlbedoOnlyFraction is the fraction of sunlit time with a valid
 	// reading that would not be valid without albedo; WrongFraction, for a
 	// two-axis sensor, the fraction of sunlit time with a valid direction
@@ -210,6 +222,10 @@ type unitAcc struct {
 	samples, sunlit, pen, umb int
 	seenAtLeast               [4]int
 	inView                    []int
+	moonInView                []int
+	litEarthInView            []int
+	blinded                   []int
+	canBlind                  []bool
 	peak                      []float64
 	saturated                 []int
 	falseSunSensor            []int
@@ -236,12 +252,15 @@ type unitAcc struct {
 func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float64) *unitAcc {
 	n := arr.Len()
 	a := &unitAcc{cfg: cfg, albedo: withAlbedo, inView: make([]int, n), peak: make([]float64, n),
+		moonInView: make([]int, n), litEarthInView: make([]int, n), blinded: make([]int, n), canBlind: make([]bool, n),
 		saturated: make([]int, n), falseSunSensor: make([]int, n), est: make([]estAcc, len(cfg.Estimators)),
 		sensorAlbedoOnly: make([]int, n), sensorWrong: make([]int, n), twoAxis: make([]bool, n),
 		boundDeg: cfg.falseSunBoundDeg(), betaMin: math.Inf(1), betaMax: math.Inf(-1)}
 	for i, s := range arr.Sensors() {
 		a.names = append(a.names, s.Name())
 		a.twoAxis[i] = s.Kind() != sensor.KindCosine
+		b, ok := s.(sensor.Blindable)
+		a.canBlind[i] = ok && b.Blinding()
 	}
 	for i := range a.est {
 		a.est[i] = estAcc{gaps: NewSpells(t0), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
@@ -414,6 +433,9 @@ func (a *unitAcc) merge(b *unitAcc) {
 	}
 	for i := range a.inView {
 		a.inView[i] += b.inView[i]
+		a.moonInView[i] += b.moonInView[i]
+		a.litEarthInView[i] += b.litEarthInView[i]
+		a.blinded[i] += b.blinded[i]
 		a.peak[i] = math.Max(a.peak[i], b.peak[i])
 		a.saturated[i] += b.saturated[i]
 		a.falseSunSensor[i] += b.falseSunSensor[i]
@@ -499,7 +521,11 @@ func (a *unitAcc) result() *UnitResult {
 		r.Sensors = append(r.Sensors, SensorStats{Name: name, InViewFraction: frac(a.inView[i], a.sunlit),
 			PeakSignal: a.peak[i], SaturatedFraction: frac(a.saturated[i], a.samples),
 			FalseSunFraction: frac(a.falseSunSensor[i], a.umb), AlbedoOnlyFraction: frac(a.sensorAlbedoOnly[i], a.sunlit),
-			WrongFraction: math.NaN()})
+			MoonInViewFraction: frac(a.moonInView[i], a.samples), LitEarthInViewFraction: frac(a.litEarthInView[i], a.samples),
+			BlindedFraction: math.NaN(), WrongFraction: math.NaN()})
+		if a.canBlind[i] {
+			r.Sensors[i].BlindedFraction = frac(a.blinded[i], a.samples)
+		}
 		if a.twoAxis[i] {
 			r.Sensors[i].WrongFraction = frac(a.sensorWrong[i], a.sunlit)
 		}

@@ -47,3 +47,21 @@ func TestBodyMatrixMatchesQuaternion(t *testing.T) {
 		}
 	}
 }
+
+// The interpolated Moon stays within 1e-5 rad (2″) and 0.2 km of ephem.Moon
+// (closed-form bound in suncache.go: 3e-6 rad, 60 m).
+func TestMoonCacheMatchesEphemeris(t *testing.T) {
+	jd0 := 2461406.5
+	c := newMoonCache(jd0)
+	worstAng, worstD := 0.0, 0.0
+	for ts := 0.0; ts < 3*86400; ts += 37 {
+		u, d := c.at(ts)
+		u2, d2 := ephem.Moon{}.Position(jd0 + ts/86400)
+		worstAng = math.Max(worstAng, angleBetween(u, u2))
+		worstD = math.Max(worstD, math.Abs(d-d2))
+	}
+	if worstAng > 1e-5 || worstD > 0.2 {
+		t.Fatalf("worst %g rad, %g km", worstAng, worstD)
+	}
+	t.Logf("worst Moon interpolation error %.2g rad, %.2g km", worstAng, worstD)
+}

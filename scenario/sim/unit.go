@@ -44,7 +44,8 @@ type stepGeom struct {
 	sunBody   r3.Vec
 	nadirBody r3.Vec
 	sinBeta   float64
-	body      bodyMatrix // the attitude (body ← ECI)
+	body      bodyMatrix    // the attitude (body ← ECI)
+	bodies    sensor.Bodies // the Moon and the Earth as the spacecraft sees them
 }
 
 // geometry computes stepGeom and, with an albedo model, each sensor's albedo
@@ -52,7 +53,7 @@ type stepGeom struct {
 type geometry struct {
 	cfg             *Config
 	prop            orbit.Propagator
-	sun             *sunCache
+	sun, moon       *sunCache
 	law             attitude.Law
 	eclAware        attitude.EclipseAware
 	rows            attitude.RowsLaw
@@ -84,6 +85,7 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*ge
 	g := &geometry{cfg: cfg, prop: cfg.NewPropagator(), table: table.clone(),
 		jd0: ephem.JulianDateTT(cfg.Epoch), jdUT0: ephem.JulianDateUT1(cfg.Epoch)}
 	g.sun = newSunCache(cfg.Sun, g.jd0)
+	g.moon = newMoonCache(g.jd0)
 	g.law = cfg.Law
 	if cfg.LawForUnit != nil {
 		g.law = cfg.LawForUnit(u)
@@ -173,6 +175,7 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 	}
 	sg := stepGeom{t: t, region: region, lit: lit, direct: solarIrradiance(sunD) * lit, sunBody: M.toBody(sunU),
 		nadirBody: M.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU), body: M}
+	g.bodies(&sg, &M, st.R, sunU, sunD)
 	if g.alb == nil {
 		return sg
 	}
@@ -224,18 +227,26 @@ type stepView struct {
 	albSeen    []sensor.Albedo // nil without albedo
 	sees       []bool
 	seen       int
+	// moonIn, litEarthIn: the Moon, the lit Earth in each sensor's cone
+	// (sensor.Bodies.MoonInCone, LitEarthInCone; the Moon also clear of the
+	// body's obstructions).
+	moonIn, litEarthIn []bool
 }
 
 // viewer fills the stepView of each step, once for all units of a task.
 type viewer struct {
 	blocked []func(r3.Vec) bool
 	sees    []func(r3.Vec) bool
-	v       stepView
+	// The nominal cones and mounting-plane normals (zero: none).
+	cone []sensor.Cone
+	face []r3.Vec
+	v    stepView
 }
 
 func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 	n := arr.Len()
-	w := &viewer{blocked: cfg.Blocked, v: stepView{sees: make([]bool, n)}}
+	w := &viewer{blocked: cfg.Blocked, face: make([]r3.Vec, n),
+		v: stepView{sees: make([]bool, n), moonIn: make([]bool, n), litEarthIn: make([]bool, n)}}
 	if cfg.Blocked != nil {
 		w.v.sunBlocked = make([]bool, n)
 	}
@@ -247,6 +258,10 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 			w.sees = append(w.sees, cfg.Viewers[i].Sees)
 		} else {
 			w.sees = append(w.sees, s.SeesSun)
+		}
+		w.cone = append(w.cone, sensor.NewCone(s.Mount().Boresight(), s.HalfAngle()))
+		if cfg.MountNormals != nil {
+			w.face[i] = cfg.MountNormals[i]
 		}
 	}
 	return w
@@ -276,7 +291,35 @@ func (w *viewer) at(g *stepGeom, albBody []sensor.Albedo) *stepView {
 			v.seen++
 		}
 	}
+	b := &g.bodies
+	for i, c := range w.cone {
+		v.moonIn[i] = b.MoonInCone(c, w.face[i]) && (w.blocked == nil || w.blocked[i] == nil || !w.blocked[i](b.MoonDir))
+		v.litEarthIn[i] = b.LitEarthInCone(c, w.face[i])
+	}
 	return v
+}
+
+// bodies fills sg.bodies: the Moon from the spacecraft at r (its geocentric
+// position less r), hidden when its whole disc is behind the Earth's, lit by
+// Meeus's (48.1) from the Earth's centre; the Earth's angular radius and
+// whether the sub-satellite point is sunlit (r·ŝ > 0).
+func (g *geometry) bodies(sg *stepGeom, M *bodyMatrix, r, sunU r3.Vec, sunD float64) {
+	mU, mD := g.moon.at(sg.t)
+	geo := r3.Scale(mD, mU)
+	rel := r3.Sub(geo, r)
+	d, rn := vecmath.Norm(rel), vecmath.Norm(r)
+	b := &sg.bodies
+	b.MoonDir = M.toBody(r3.Scale(1/d, rel))
+	b.MoonSin = ephem.MoonRadiusKm / d
+	b.MoonCos = math.Sqrt(1 - b.MoonSin*b.MoonSin)
+	b.MoonLit = ephem.MoonIlluminatedFraction(geo, r3.Scale(sunD, sunU))
+	b.NadirDir = sg.nadirBody
+	b.EarthSin = min(1, illum.EarthRadiusKm/rn)
+	b.EarthCos = math.Sqrt(1 - b.EarthSin*b.EarthSin)
+	b.EarthLit = r3.Dot(r, sunU) > 0
+	// Wholly hidden: the angle from nadir to the Moon's centre is at most
+	// ρE − ρM, i.e. its cosine at least cos ρE·cos ρM + sin ρE·sin ρM.
+	b.MoonHidden = r3.Dot(b.MoonDir, b.NadirDir) >= b.EarthCos*b.MoonCos+b.EarthSin*b.MoonSin
 }
 
 // reader reads one unit's sensors on a step's geometry and folds the result
@@ -293,6 +336,9 @@ type reader struct {
 	unit            int
 	withAlbedo      bool
 	filt            *gyroFilter // nil without a filter
+	// The sensors with a blinding rule that can act.
+	blinders  []int
+	blindable []sensor.Blindable // blindable[j] is sensor blinders[j]
 }
 
 func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
@@ -308,6 +354,11 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 			break
 		}
 		r.cosines = append(r.cosines, c)
+	}
+	for i, s := range arr.Sensors() {
+		if b, ok := s.(sensor.Blindable); ok && b.Blinding() {
+			r.blinders, r.blindable = append(r.blinders, i), append(r.blindable, b)
+		}
 	}
 	if cfg.Filter != nil {
 		r.filt = newGyroFilter(cfg, cfg.Array, u)
@@ -342,6 +393,7 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 			readAll(r.readAlb, r.arr, g.sunBody, g.direct, v.albSeen, r.noise, v.sunBlocked)
 		}
 	}
+	r.bodiesInView(&g.bodies, v)
 	for i, s := range v.sees {
 		if s {
 			r.acc.inView[i]++
@@ -354,6 +406,26 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 			real = r.readAlb
 		}
 		r.filt.step(g, real, r.acc.primary)
+	}
+}
+
+// bodiesInView counts the steps with the Moon and with the lit Earth in each
+// sensor's cone (the view's nominal flags) and drops the readings of the
+// sensors their blinding rule invalidates (the unit as drawn).
+func (r *reader) bodiesInView(b *sensor.Bodies, v *stepView) {
+	for i := range v.moonIn {
+		if v.moonIn[i] {
+			r.acc.moonInView[i]++
+		}
+		if v.litEarthIn[i] {
+			r.acc.litEarthInView[i]++
+		}
+	}
+	for j, i := range r.blinders {
+		if r.blindable[j].Blinded(*b) {
+			r.readNo[i], r.readAlb[i] = sensor.Reading{}, sensor.Reading{}
+			r.acc.blinded[i]++
+		}
 	}
 }
 

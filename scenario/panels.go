@@ -14,6 +14,7 @@ type filePanel struct {
 	Face          string    `yaml:"face,omitempty"`
 	Normal        []float64 `yaml:"normal,omitempty"`
 	PositionM     []float64 `yaml:"position_m"`
+	SizeM         []float64 `yaml:"size_m,omitempty"`
 	AreaM2        *float64  `yaml:"area_m2"`
 	Efficiency    *float64  `yaml:"efficiency"`
 	PackingFactor *float64  `yaml:"packing_factor"`
@@ -23,13 +24,19 @@ type filePanel struct {
 // cell side, where its centre sits (body axes, m; the centre of its face on
 // the bus outline unless given), its area (m²), cell efficiency and packing
 // factor (share of the area covered by cells). The body and the
-// obstructions shade it as they shade a sensor at its centre.
+// obstructions shade it as they shade a sensor at its centre; with its side
+// lengths given (SizeM) it is a rectangle sampled at 8 × 8 points, shaded
+// in part, and it shades the other panels.
 type Panel struct {
-	Name          string
-	Face          string // "+X" …, empty when the normal was given
-	Normal        r3.Vec
-	PositionM     r3.Vec
-	AreaM2        float64
+	Name      string
+	Face      string // "+X" …, empty when the normal was given
+	Normal    r3.Vec
+	PositionM r3.Vec
+	AreaM2    float64
+	// SizeM is the side lengths (m) along the plate axes u and v
+	// (sky.PlateAxes: u the body axis least aligned with the normal, in the
+	// plane; v = normal × u); zero when not given.
+	SizeM         [2]float64
 	Efficiency    float64
 	PackingFactor float64
 }
@@ -64,8 +71,11 @@ func (r *resolver) panels(list []filePanel) []Panel {
 			}
 			pn.Normal = r3.Unit(n)
 		}
+		if f.SizeM != nil {
+			r.panelSize(p, f, &pn)
+		}
 		if f.AreaM2 == nil {
-			r.fail(p+".area_m2", "value is missing; allowed the panel area in m² (> 0)")
+			r.fail(p+".area_m2", "value is missing; allowed the panel area in m² (> 0), or size_m [u, v] in m")
 		} else {
 			pn.AreaM2 = *f.AreaM2
 			if !(pn.AreaM2 > 0) || math.IsInf(pn.AreaM2, 0) {
@@ -86,6 +96,29 @@ func (r *resolver) panels(list []filePanel) []Panel {
 		out = append(out, pn)
 	}
 	return out
+}
+
+// panelSize reads size_m: two side lengths > 0 (m); the area follows from
+// them when area_m2 is left out and must agree with them when given.
+func (r *resolver) panelSize(p string, f *filePanel, pn *Panel) {
+	if len(f.SizeM) != 2 {
+		r.fail(p+".size_m", "value has %d numbers; allowed two side lengths [u, v] in m", len(f.SizeM))
+		return
+	}
+	for k, v := range f.SizeM {
+		if !(v > 0) || math.IsInf(v, 0) || v > 100 {
+			r.fail(fmt.Sprintf("%s.size_m[%d]", p, k), "value %g is out of range; allowed a side length in (0, 100] m", v)
+			return
+		}
+	}
+	pn.SizeM = [2]float64{f.SizeM[0], f.SizeM[1]}
+	a := f.SizeM[0] * f.SizeM[1]
+	switch {
+	case f.AreaM2 == nil:
+		f.AreaM2 = &a
+	case math.Abs(*f.AreaM2-a) > 1e-6*a:
+		r.fail(p+".area_m2", "value %g differs from the size_m product %g m²; allowed one of them, or both agreeing", *f.AreaM2, a)
+	}
 }
 
 // placePanel sets a panel's centre: given, else the centre of its face or

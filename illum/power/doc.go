@@ -26,10 +26,13 @@
 //     coefficient is not accepted as an input.
 //   - Earth albedo and Earth infrared on the panels are not counted (a
 //     lower bound on the power for panels that face the Earth).
-//   - Obstruction by the bus and the declared obstructions is judged at the
-//     panel's centre: a panel is wholly lit or wholly shaded (no partial
-//     shading of a panel, no panel shading another unless declared as an
-//     obstruction).
+//   - Obstruction by the bus, the declared obstructions and the other
+//     panels is the panel's lit share, from the caller (scenario/study):
+//     a panel with its sides given is sampled at 8 × 8 equal cells
+//     (illum/sky Plate), one without them is judged at its centre (wholly
+//     lit or wholly shaded). Rays are parallel; the current of a partly
+//     shaded string is taken as proportional to its lit area (no bypass
+//     diode or series-string mismatch model).
 //
 // # Accuracy
 //

@@ -16,9 +16,10 @@ type Panel struct {
 	// AreaM2 is the panel area (m²), Efficiency the cell efficiency and
 	// PackingFactor the share of the area covered by cells, both in (0, 1].
 	AreaM2, Efficiency, PackingFactor float64
-	// Hidden, when set, says whether the body hides a body direction from
-	// the panel (its centre); nil means nothing is in the way.
-	Hidden func(dirBody r3.Vec) bool
+	// LitShare, when set, is the share of the panel the sun reaches from a
+	// body direction (0 where the body hides it all, 1 where nothing is in
+	// the way); nil means nothing is in the way.
+	LitShare func(dirBody r3.Vec) float64
 }
 
 // Validate checks the panel's numbers.
@@ -43,10 +44,13 @@ func (p *Panel) Power(sunBody r3.Vec, irradiance float64) float64 {
 	if c <= 0 || irradiance <= 0 {
 		return 0
 	}
-	if p.Hidden != nil && p.Hidden(sunBody) {
-		return 0
+	share := 1.0
+	if p.LitShare != nil {
+		if share = p.LitShare(sunBody); !(share > 0) {
+			return 0
+		}
 	}
-	return irradiance * p.AreaM2 * p.Efficiency * p.PackingFactor * c
+	return irradiance * p.AreaM2 * p.Efficiency * p.PackingFactor * c * share
 }
 
 // Array is the set of panels flown.

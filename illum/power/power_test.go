@@ -113,9 +113,14 @@ func TestPowerProperties(t *testing.T) {
 		if d := pe.Power(s, E) - math.Min(1, k*eta)/eta*base; math.Abs(d) > 1e-12*(1+base) {
 			t.Fatalf("efficiency ×%g: %g W, want %g W", k, pe.Power(s, E), k*base)
 		}
-		p.Hidden = func(r3.Vec) bool { return true }
+		p.LitShare = func(r3.Vec) float64 { return 0 }
 		if p.Power(s, E) != 0 {
 			t.Fatal("hidden panel gives power")
+		}
+		h := rng.Float64()
+		p.LitShare = func(r3.Vec) float64 { return h }
+		if d := p.Power(s, E) - h*base; math.Abs(d) > 1e-12*(1+base) {
+			t.Fatalf("lit share %g: %g W, want %g W", h, p.Power(s, E), h*base)
 		}
 	}
 }

@@ -24,6 +24,14 @@
 // behind that face; it hides more from a sensor standing off the bus (on a
 // boom or a deployed panel) or beside a protrusion.
 //
+// Plate is a flat surface (a solar panel) sampled at the centres of 8 × 8
+// equal cells (NewPlate, in-plane axes from PlateAxes): its LitShare is the
+// share of the points from which a direction is above the plate's plane and
+// meets no obstacle, the share of the plate the sun reaches. A plate under
+// a box that covers half of it is half lit with the sun overhead
+// (TestPlateHalfShadowedByBox; the shadow's moves with the sun's tilt follow
+// the closed-form interval to one sample column, 1/8).
+//
 // # Assumptions
 //
 // The sun (and each albedo ray) is at infinity: a direction is hidden when

@@ -186,3 +186,80 @@ func (o Obstructed) Hidden(d r3.Vec) bool {
 func (o Obstructed) Sees(d r3.Vec) bool {
 	return o.View.Sees(d) && !o.Hidden(d)
 }
+
+// Plate is a flat surface (a solar panel) sampled at points: the share of
+// its points from which a body direction is neither behind the plate's
+// plane nor blocked by an obstacle is the share of the plate the sun
+// reaches from there (parallel rays; the points stand for equal areas).
+type Plate struct {
+	Points    []r3.Vec
+	Face      r3.Vec // outward unit normal of the lit side
+	Obstacles []Obstacle
+}
+
+// PlateSamplesPerSide is the sample grid of NewPlate: 8 × 8 cell centres,
+// so a lit share is a multiple of 1/64.
+const PlateSamplesPerSide = 8
+
+// PlateAxes returns the in-plane axes of a plate of unit normal n: u is
+// the body axis (X, Y or Z, the first on a tie) least aligned with n,
+// projected into the plane and normalised, and v = n × u.
+func PlateAxes(n r3.Vec) (u, v r3.Vec) {
+	axes := [3]r3.Vec{{X: 1}, {Y: 1}, {Z: 1}}
+	best := 0
+	for i, a := range axes {
+		if math.Abs(r3.Dot(a, n)) < math.Abs(r3.Dot(axes[best], n))-1e-12 {
+			best = i
+		}
+	}
+	a := axes[best]
+	u = r3.Unit(r3.Sub(a, r3.Scale(r3.Dot(a, n), n)))
+	return u, r3.Cross(n, u)
+}
+
+// NewPlate samples the rectangle of side lengths sizeU × sizeV (m) centred
+// on centre with unit normal n (axes from PlateAxes) at the centres of a
+// PlateSamplesPerSide² grid of equal cells.
+func NewPlate(centre, n r3.Vec, sizeU, sizeV float64, obstacles []Obstacle) Plate {
+	u, v := PlateAxes(n)
+	const k = PlateSamplesPerSide
+	pts := make([]r3.Vec, 0, k*k)
+	for i := range k {
+		a := ((float64(i)+0.5)/k - 0.5) * sizeU
+		for j := range k {
+			b := ((float64(j)+0.5)/k - 0.5) * sizeV
+			pts = append(pts, r3.Add(centre, r3.Add(r3.Scale(a, u), r3.Scale(b, v))))
+		}
+	}
+	return Plate{Points: pts, Face: n, Obstacles: obstacles}
+}
+
+// PlateRectangle returns the outline of the plate NewPlate samples, as an
+// obstacle for other shapes.
+func PlateRectangle(centre, n r3.Vec, sizeU, sizeV float64) Rectangle {
+	u, v := PlateAxes(n)
+	return Rectangle{Centre: centre, HalfU: r3.Scale(sizeU/2, u), HalfV: r3.Scale(sizeV/2, v)}
+}
+
+// LitShare returns the share of the plate's points that see the body
+// direction d (unit vector); 0 at or behind the plate's plane. It
+// allocates nothing.
+func (p Plate) LitShare(d r3.Vec) float64 {
+	if len(p.Points) == 0 || !(r3.Dot(d, p.Face) > FacePlaneMargin) {
+		return 0
+	}
+	lit := 0
+	for _, q := range p.Points {
+		blocked := false
+		for _, ob := range p.Obstacles {
+			if ob.Blocks(q, d) {
+				blocked = true
+				break
+			}
+		}
+		if !blocked {
+			lit++
+		}
+	}
+	return float64(lit) / float64(len(p.Points))
+}

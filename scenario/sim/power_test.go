@@ -161,7 +161,7 @@ func TestPowerStepAllocatesNothing(t *testing.T) {
 	cfg := referenceCase(t, 1, false)
 	box := sky.Box{Half: r3.Vec{X: 0.113, Y: 0.05, Z: 0.183}}
 	o := sky.Obstructed{Position: r3.Vec{X: 0.3, Z: -0.183}, Face: r3.Vec{Z: -1}, Obstacles: []sky.Obstacle{box}}
-	arr, err := power.NewArray(power.Panel{Name: "wing", Normal: r3.Vec{Z: -1}, AreaM2: 0.08, Efficiency: 0.3, PackingFactor: 0.9, Hidden: o.Hidden},
+	arr, err := power.NewArray(power.Panel{Name: "wing", Normal: r3.Vec{Z: -1}, AreaM2: 0.08, Efficiency: 0.3, PackingFactor: 0.9, LitShare: sky.NewPlate(o.Position, o.Face, 0.3, 0.2, o.Obstacles).LitShare},
 		power.Panel{Name: "side", Normal: r3.Vec{X: 1}, AreaM2: 0.08, Efficiency: 0.3, PackingFactor: 0.9})
 	if err != nil {
 		t.Fatal(err)

@@ -56,6 +56,9 @@ func TestPanelKeysRefused(t *testing.T) {
 		"\n    - {name: body-px, face: \"+Y\", area_m2: 0.01, efficiency: 0.3}":                            "name",
 		"\n    - {name: t, face: \"+Y\", area_m2: 0.01, efficiency: 0.3, packing_factor: 0}":               "packing_factor",
 		"\n    - {name: t, normal: [0, 0, -1], position_m: [0, 0, 0.1], area_m2: 0.01, efficiency: 0.3}":   "position_m",
+		"\n    - {name: t, face: \"+Y\", size_m: [0.1], efficiency: 0.3}":                                  "size_m",
+		"\n    - {name: t, face: \"+Y\", size_m: [0.1, -0.2], efficiency: 0.3}":                            "size_m[1]",
+		"\n    - {name: t, face: \"+Y\", size_m: [0.1, 0.2], area_m2: 0.03, efficiency: 0.3}":              "area_m2",
 	} {
 		_, err := panelScenario(t, extra)
 		if err == nil || !strings.Contains(err.Error(), field) {
@@ -116,4 +119,123 @@ func TestPanelShadedByObstruction(t *testing.T) {
 	if shaded := arr.Power(r3.Unit(r3.Vec{X: 1, Z: 0.2}), 1361); !(open > 0) || shaded != 0 {
 		t.Errorf("open %g W, behind a plate %g W; want > 0 and 0", open, shaded)
 	}
+}
+
+// A 0.2 m square zenith panel beside the bus with a known box (a
+// body.obstructions rectangle with half extents) over its +X half: the sun
+// straight above lights half of it, so half the power; the same box beside
+// it casts no shadow.
+func TestPanelHalfShadowedByBox(t *testing.T) {
+	s := &scenario.Scenario{}
+	s.Body.SizeM = r3.Vec{X: 0.2263, Y: 0.1, Z: 0.366}
+	s.Body.Panels = []scenario.Panel{{Name: "wing", Normal: r3.Vec{Z: -1}, PositionM: r3.Vec{X: 0.3, Z: -0.183}, SizeM: [2]float64{0.2, 0.2},
+		AreaM2: 0.04, Efficiency: 0.3, PackingFactor: 1}}
+	sun := r3.Vec{Z: -1}
+	arr, err := Panels(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	open := arr.Power(sun, 1361)
+	if want := 1361 * 0.04 * 0.3; math.Abs(open-want) > 1e-9 {
+		t.Fatalf("open panel %g W, want %g W", open, want)
+	}
+	box := scenario.Obstruction{Name: "box", Shape: scenario.ShapeRectangle, CentreM: r3.Vec{X: 0.35, Z: -0.3}, HalfExtentsM: r3.Vec{X: 0.05, Y: 0.2, Z: 0.02}}
+	s.Body.Obstructions = []scenario.Obstruction{box}
+	if arr, err = Panels(s); err != nil {
+		t.Fatal(err)
+	}
+	if got := arr.Power(sun, 1361); math.Abs(got-open/2) > 1e-9 {
+		t.Errorf("box over half the panel: %g W, want half of %g W", got, open)
+	}
+	box.CentreM.Y = 0.35 // beside the panel (its y runs ±0.1 m)
+	s.Body.Obstructions = []scenario.Obstruction{box}
+	if arr, err = Panels(s); err != nil {
+		t.Fatal(err)
+	}
+	if got := arr.Power(sun, 1361); got != open {
+		t.Errorf("box beside the panel: %g W, want %g W", got, open)
+	}
+}
+
+// Panels shade each other: a wing deployed from the top edge of the +X
+// face, coplanar with the zenith face, hides part of the +X body panel from
+// a sun high over +X; given without its sides (size_m) the wing casts no
+// shadow, and the zenith panel never shades the wing.
+func TestPanelsShadeEachOther(t *testing.T) {
+	s := &scenario.Scenario{}
+	s.Body.SizeM = r3.Vec{X: 0.2263, Y: 0.1, Z: 0.366}
+	body := scenario.Panel{Name: "body-px", Normal: r3.Vec{X: 1}, PositionM: r3.Vec{X: 0.11315}, SizeM: [2]float64{0.1, 0.366},
+		AreaM2: 0.0366, Efficiency: 0.3, PackingFactor: 1}
+	wing := scenario.Panel{Name: "wing", Normal: r3.Vec{Z: -1}, PositionM: r3.Vec{X: 0.11315 + 0.183, Z: -0.183}, SizeM: [2]float64{0.366, 0.1},
+		AreaM2: 0.0366, Efficiency: 0.3, PackingFactor: 1}
+	sun := r3.Unit(r3.Vec{X: 1, Z: -1}) // 45° up from +X toward zenith
+	s.Body.Panels = []scenario.Panel{body, wing}
+	arr, err := Panels(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	alone := 1361 * 0.0366 * 0.3 * r3.Dot(sun, r3.Vec{X: 1})
+	got := arr.Panels[0].Power(sun, 1361)
+	// At 45° the wing (0.366 m out) shades the top 0.366 m of the face, the
+	// whole 0.366 m face: nothing of it is lit.
+	if got != 0 {
+		t.Errorf("body panel under the wing at 45°: %g W, want 0 W", got)
+	}
+	low := r3.Unit(r3.Vec{X: 1, Z: -0.5}) // 26.6° up: the wing shades the top 0.183 m, half the face
+	if got := arr.Panels[0].Power(low, 1361); math.Abs(got-0.5*1361*0.0366*0.3*r3.Dot(low, r3.Vec{X: 1})) > 1e-9 {
+		t.Errorf("body panel, sun 26.6° up: %g W, want half of %g W", got, 1361*0.0366*0.3*r3.Dot(low, r3.Vec{X: 1}))
+	}
+	if w := arr.Panels[1].Power(sun, 1361); math.Abs(w-1361*0.0366*0.3*r3.Dot(sun, r3.Vec{Z: -1})) > 1e-9 {
+		t.Errorf("wing: %g W, want it unshaded", w)
+	}
+	s.Body.Panels[1].SizeM = [2]float64{}
+	if arr, err = Panels(s); err != nil {
+		t.Fatal(err)
+	}
+	if got := arr.Panels[0].Power(sun, 1361); math.Abs(got-alone) > 1e-9 {
+		t.Errorf("wing without its sides: body panel %g W, want %g W unshaded", got, alone)
+	}
+}
+
+// size_m gives the area (the product of the sides) and makes a panel a
+// shading rectangle: the two wings of the example, given their sides,
+// shade the ±X body panels when the sun is high, and the run's power drops.
+func TestPanelSizeHasEffect(t *testing.T) {
+	run := func(wings string) (*scenario.Scenario, *sim.Result) {
+		data, err := os.ReadFile("../../examples/power-6u.yaml")
+		if err != nil {
+			t.Fatal(err)
+		}
+		txt := string(data)
+		i := strings.Index(txt, "    - {name: wing-px")
+		j := strings.Index(txt, "albedo:")
+		s, err := scenario.Parse([]byte(txt[:i]+wings+txt[j:]), "../../examples")
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Duration = scenario.Span(3 * 3600e9)
+		s.Albedo.Model = scenario.AlbedoNone
+		cfg, err := Config(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res, err := sim.Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return s, res
+	}
+	const centre = "    - {name: wing-px, normal: [0, 0, -1], position_m: [0.296, 0, -0.183], area_m2: 0.0828, efficiency: 0.295, packing_factor: 0.9}\n" +
+		"    - {name: wing-mx, normal: [0, 0, -1], position_m: [-0.296, 0, -0.183], area_m2: 0.0828, efficiency: 0.295, packing_factor: 0.9}\n"
+	const sized = "    - {name: wing-px, normal: [0, 0, -1], position_m: [0.296, 0, -0.183], size_m: [0.366, 0.226230], efficiency: 0.295, packing_factor: 0.9}\n" +
+		"    - {name: wing-mx, normal: [0, 0, -1], position_m: [-0.296, 0, -0.183], size_m: [0.366, 0.226230], efficiency: 0.295, packing_factor: 0.9}\n"
+	_, a := run(centre)
+	s, b := run(sized)
+	if w := s.Body.Panels[4]; w.SizeM != [2]float64{0.366, 0.22623} || math.Abs(w.AreaM2-0.366*0.22623) > 1e-12 {
+		t.Errorf("sized wing: %+v", w)
+	}
+	if !(b.Power.MeanW < a.Power.MeanW) {
+		t.Errorf("sized wings: %.4f W, centre-only wings %.4f W; want less (the wings shade the ±X body panels)", b.Power.MeanW, a.Power.MeanW)
+	}
+	t.Logf("orbit average: wings judged at their centre %.4f W, sampled wings shading the body panels %.4f W", a.Power.MeanW, b.Power.MeanW)
 }

@@ -10,7 +10,7 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
-// A panel's area is a sweepable key: the wing's share of the orbit-average
+// A panel's area is a sweepable key: the +X body panel's share of the orbit-average
 // power grows in proportion to its area (the model is linear in area), and
 // the power target is judged in each case.
 func TestPanelAreaSweeps(t *testing.T) {
@@ -18,7 +18,7 @@ func TestPanelAreaSweeps(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	a, err := ParseAxis("body.panels[4].area_m2=0.0001,0.0828,0.1656")
+	a, err := ParseAxis("body.panels[0].area_m2=0.0001,0.0828,0.1656")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -44,7 +44,7 @@ func TestPanelAreaSweeps(t *testing.T) {
 	// from 0.0001 to 0.0828 m² scaled by 0.0828/0.0827.
 	d1, d2 := got[1]-got[0], got[2]-got[1]
 	if !(d1 > 0) || math.Abs(d2-d1*0.0828/0.0827) > 1e-9*got[2] {
-		t.Errorf("orbit-average power over the wing area: %v W (steps %g, %g)", got, d1, d2)
+		t.Errorf("orbit-average power over the +X body panel area: %v W (steps %g, %g)", got, d1, d2)
 	}
-	t.Logf("orbit-average power for wing areas 0.0001, 0.0828, 0.1656 m²: %.4f, %.4f, %.4f W", got[0], got[1], got[2])
+	t.Logf("orbit-average power for +X body panel areas 0.0001, 0.0828, 0.1656 m²: %.4f, %.4f, %.4f W", got[0], got[1], got[2])
 }

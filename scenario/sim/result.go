@@ -359,11 +359,11 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 				if !eNo.Valid {
 					ea.albedoOnly++
 				}
-				if degOf(angleBetween(eAlb.Dir, sunBody)) > a.boundDeg {
+				d := degOf(angleBetween(eAlb.Dir, sunBody))
+				if d > a.boundDeg {
 					ea.wrong++
 				}
 				if a.albedo {
-					d := degOf(angleBetween(eAlb.Dir, sunBody))
 					ea.mAlb.Add(d)
 					ea.qAlb.Add(d)
 					if j == 0 {

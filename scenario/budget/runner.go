@@ -1,16 +1,17 @@
 package budget
 
 import (
-	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"fmt"
 	"math"
+	"sync"
 
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
 // DefaultMaxDurationS caps the budget's runs (6 h, about four low orbits):
@@ -77,6 +78,8 @@ type Runner struct {
 	unit      [NumSources]float64 // σ of scale 1 per source (largest stated, or reference)
 	stated    [NumSources]bool
 	present   [NumSources]bool
+	traceOnce sync.Once
+	trace     *sim.Trace // the geometry the cases share; nil: each runs in full
 }
 
 // NewRunner prepares the runs of s.
@@ -199,15 +202,10 @@ func (r *Runner) sensors(c Case) []scenario.Sensor {
 
 // Config builds the simulation of one case.
 func (r *Runner) Config(c Case) (sim.Config, error) {
-	cfg, err := study.ConfigFor(r.s, r.sensors(c), r.s.Attitude)
+	cfg, err := r.baseConfig(c)
 	if err != nil {
 		return cfg, err
 	}
-	cfg.Duration = r.durationS
-	cfg.Units = r.units
-	cfg.Workers = r.workers
-	cfg.SeriesStride = 0
-	cfg.SunTrackPoints = 0
 	if !(c.Scale[Albedo] > 0) {
 		cfg.NewAlbedo = nil
 	}
@@ -226,17 +224,64 @@ func (r *Runner) Config(c Case) (sim.Config, error) {
 	return cfg, cfg.Validate()
 }
 
-// Run implements RunFunc for the scenario.
+// baseConfig is the simulation of one case with the scenario's albedo and
+// no correction.
+func (r *Runner) baseConfig(c Case) (sim.Config, error) {
+	cfg, err := study.ConfigFor(r.s, r.sensors(c), r.s.Attitude)
+	if err != nil {
+		return cfg, err
+	}
+	cfg.Duration = r.durationS
+	cfg.Units = r.units
+	cfg.Workers = r.workers
+	cfg.SeriesStride = 0
+	cfg.SunTrackPoints = 0
+	return cfg, nil
+}
+
+// Run implements RunFunc for the scenario. The cases share one recorded
+// geometry (orbit, sun, shadow, attitude and albedo do not depend on the
+// error values), each case's sensors read on it, unless traceFor says the
+// case must run in full.
 func (r *Runner) Run(ctx context.Context, c Case) (Metric, error) {
 	cfg, err := r.Config(c)
 	if err != nil {
 		return Metric{}, err
 	}
-	res, err := sim.Run(ctx, cfg)
+	var res *sim.Result
+	if tr := r.traceFor(ctx, c, &cfg); tr != nil {
+		res, err = tr.RunArray(ctx, cfg.Array, cfg.NewAlbedo != nil, cfg.Units)
+	} else {
+		res, err = sim.Run(ctx, cfg)
+	}
 	if err != nil {
 		return Metric{}, err
 	}
 	return metricOf(res)
+}
+
+// maxTraceBytes bounds the geometry the cases share (sim.TraceBytes); a
+// longer span runs every case in full.
+const maxTraceBytes = 256 << 20
+
+// traceFor returns the geometry every case shares, recorded at the first
+// call, or nil when case c runs in full: an attitude drawn per unit (no
+// two units share a geometry), an albedo correction (the trace holds no
+// corrected albedo) or a span whose geometry exceeds maxTraceBytes. A
+// trace integrates the albedo at every step, as a run of the default 6 h
+// span does (its tables pay off only on longer runs).
+func (r *Runner) traceFor(ctx context.Context, c Case, cfg *sim.Config) *sim.Trace {
+	if c.Correction || cfg.LawForUnit != nil {
+		return nil
+	}
+	r.traceOnce.Do(func() {
+		base, err := r.baseConfig(c)
+		if err != nil || sim.TraceBytes(&base) > maxTraceBytes {
+			return
+		}
+		r.trace, _ = sim.NewTrace(ctx, base) // nil on error: the cases run in full
+	})
+	return r.trace
 }
 
 // metricOf takes the primary estimator's realistic error of every unit.

@@ -2,10 +2,12 @@ package budget
 
 import (
 	"context"
+	"fmt"
 	"math"
 	"testing"
 
 	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 func loadRunner(t *testing.T, edit func(*scenario.Scenario)) *Runner {
@@ -237,5 +239,39 @@ func TestStudyReport(t *testing.T) {
 		t.Error("units -1 accepted")
 	} else if _, ok := err.(*OptionError); !ok {
 		t.Errorf("units -1: %T, want *OptionError", err)
+	}
+}
+
+// The cases of a budget read their sensors on one recorded geometry; each
+// case's figures equal those of a full simulation of that case (with and
+// without albedo, with every source, on the calibrated values).
+func TestSharedGeometryEqualsFullRuns(t *testing.T) {
+	r := loadRunner(t, nil)
+	ctx := context.Background()
+	cal := All()
+	cal.Calibrated = true
+	for _, c := range []Case{All(), Only(Noise), Only(Albedo), Only(Misalignment), cal} {
+		got, err := r.Run(ctx, c)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if r.trace == nil {
+			t.Fatal("no shared geometry recorded")
+		}
+		cfg, err := r.Config(c)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res, err := sim.Run(ctx, cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, err := metricOf(res)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if fmt.Sprint(got) != fmt.Sprint(want) {
+			t.Fatalf("case %+v: shared geometry %v, full run %v", c, got, want)
+		}
 	}
 }

@@ -4,6 +4,9 @@ import (
 	"context"
 	"fmt"
 	"math/rand/v2"
+	"runtime"
+	"sync"
+	"sync/atomic"
 	"unsafe"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -112,32 +115,99 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 	cfg.Array, cfg.Viewers, cfg.Blocked, cfg.Estimators = arr, viewers, blocked, ests
 	cfg.Gates = gatesFor(tr.cfg, ests)
 	cfg.MountNormals = normals
+	return tr.replay(ctx, &cfg, subset, units, 1)
+}
+
+// RunArray replays the whole layout with another array of the same sensors
+// (the candidates in order, same kinds, mounts and fields of view, other
+// error models: a case of an error budget), as Run would with that array
+// flown. withAlbedo false replays without albedo. The units are shared out
+// over the trace's workers; each unit's numbers are its own, so the result
+// does not depend on their number.
+func (tr *Trace) RunArray(ctx context.Context, arr *sensor.Array, withAlbedo bool, units int) (*Result, error) {
+	if arr == nil || arr.Len() != len(tr.sensors) {
+		return nil, fmt.Errorf("sim: replay with another array: want the %d sensors of the trace", len(tr.sensors))
+	}
+	for i, s := range arr.Sensors() {
+		c := tr.sensors[i]
+		if s.Kind() != c.Kind() || s.Mount().Boresight() != c.Mount().Boresight() || s.HalfAngle() != c.HalfAngle() {
+			return nil, fmt.Errorf("sim: replay with another array: sensor %d (%s) differs from the trace's %s in kind, mount or field of view", i, s.Name(), c.Name())
+		}
+	}
+	if withAlbedo && tr.albedo == nil {
+		return nil, fmt.Errorf("sim: replay with albedo of a trace recorded without")
+	}
+	cfg := tr.cfg
+	cfg.Array = arr
+	if !withAlbedo {
+		cfg.NewAlbedo = nil
+	}
+	all := make([]int, arr.Len())
+	for i := range all {
+		all[i] = i
+	}
+	return tr.replay(ctx, &cfg, all, units, cfg.Workers)
+}
+
+// replay reads units Monte Carlo units of cfg.Array, whose sensor j is the
+// trace's candidate subset[j], over the recorded geometry, on up to workers
+// goroutines (≤ 0: GOMAXPROCS). A layout search replays many subsets at
+// once and asks for one each.
+func (tr *Trace) replay(ctx context.Context, cfg *Config, subset []int, units, workers int) (*Result, error) {
 	cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
 	// Subsets are scored by their point estimators; the filter is the
 	// full run's.
 	cfg.Filter = nil
 	res := tr.result
-	res.Units = nil
-	albSub := make([]sensor.Albedo, len(subset))
-	for u := range max(units, 1) {
-		drawSrc, _ := unitSeed(cfg.Seed, u)
-		ua := arr.Draw(rand.New(drawSrc))
-		r := newReader(&cfg, ua, u, 0)
-		vw := newViewer(&cfg, ua)
-		for k := range tr.geom {
-			if k&1023 == 0 && ctx.Err() != nil {
-				return nil, ctx.Err()
-			}
-			if tr.albedo != nil {
-				for j, i := range subset {
-					albSub[j] = tr.albedo[k][i]
+	units = max(units, 1)
+	res.Units = make([]*UnitResult, units)
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	errs := make([]error, units)
+	for range min(workers, units) {
+		wg.Go(func() {
+			albSub := make([]sensor.Albedo, len(subset))
+			for {
+				u := int(next.Add(1) - 1)
+				if u >= units {
+					return
 				}
+				drawSrc, _ := unitSeed(cfg.Seed, u)
+				ua := cfg.Array.Draw(rand.New(drawSrc))
+				r := newReader(cfg, ua, u, 0)
+				vw := newViewer(cfg, ua)
+				for k := range tr.geom {
+					if k&1023 == 0 && ctx.Err() != nil {
+						errs[u] = ctx.Err()
+						return
+					}
+					if tr.albedo != nil && cfg.NewAlbedo != nil {
+						for j, i := range subset {
+							albSub[j] = tr.albedo[k][i]
+						}
+					}
+					r.step(k, &tr.geom[k], vw.at(&tr.geom[k], albSub))
+				}
+				r.acc.end(float64(len(tr.geom)) * cfg.Step)
+				if r.filt != nil {
+					r.acc.filter = r.filt.result(float64(len(tr.geom)) * cfg.Step)
+				}
+				r.acc.finish()
+				res.Units[u] = r.acc.result()
 			}
-			r.step(k, &tr.geom[k], vw.at(&tr.geom[k], albSub))
+		})
+	}
+	wg.Wait()
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
 		}
-		r.acc.end(float64(len(tr.geom)) * cfg.Step)
-		r.acc.finish()
-		res.Units = append(res.Units, r.acc.result())
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, err
 	}
 	res.Nominal = res.Units[0]
 	res.AcrossUnits = acrossUnits(res.Units)

@@ -57,3 +57,41 @@ func TestTraceReplayEqualsFullRun(t *testing.T) {
 		t.Fatal("headlines differ")
 	}
 }
+
+// Replaying the whole layout with another error model (a budget case) gives
+// the figures of a full run with that array, with and without albedo, on one
+// and two workers; an array of other mounts is refused.
+func TestTraceRunArrayEqualsFullRun(t *testing.T) {
+	cfg := referenceCase(t, 0.5, true)
+	cfg.Units = 3
+	cfg.NoAlbedoTable = true // a trace integrates the albedo; so does the run compared
+	tr, err := NewTrace(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	noisy := noisyFaceArray(t, 60)
+	for _, withAlbedo := range []bool{true, false} {
+		full := cfg
+		full.Array = noisy
+		if !withAlbedo {
+			full.NewAlbedo = nil
+		}
+		want, err := Run(context.Background(), full)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, w := range []int{1, 2} {
+			tr.cfg.Workers = w
+			got, err := tr.RunArray(context.Background(), noisy, withAlbedo, cfg.Units)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if a, b := showUnits(got), showUnits(want); a != b {
+				t.Fatalf("albedo %v, %d workers: replay differs from the full run:\n%s\n%s", withAlbedo, w, a, b)
+			}
+		}
+	}
+	if _, err := tr.RunArray(context.Background(), noisyFaceArray(t, 70), true, 1); err == nil {
+		t.Fatal("an array with other fields of view was replayed")
+	}
+}

@@ -232,7 +232,11 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 		r.Figures = append(r.Figures, fig)
 	}
 	r.Assumptions = assumptions(s)
-	r.Tables = append(r.Tables, estimatorTable(res), sensorTable(s, cfg, res))
+	r.Tables = append(r.Tables, estimatorTable(res))
+	if ft, ok := filterTable(s, res); ok {
+		r.Tables = append(r.Tables, ft)
+	}
+	r.Tables = append(r.Tables, sensorTable(s, cfg, res))
 	r.Notes = append(r.Notes, Skipped(res)...)
 	for _, w := range study.Warnings(s, res) {
 		r.Notes = append(r.Notes, "Warning: "+w+".")
@@ -492,6 +496,9 @@ func ModelsAndSources(s *scenario.Scenario) []plots.Assumption {
 		if e, err := sensor.LookupEstimator(name); err == nil {
 			add("Estimator: "+e.Name, e.Model, e.Source)
 		}
+	}
+	if s.GyroFilter.Set {
+		add("Estimator: gyro-aided filter", filterModel, filterSource)
 	}
 	return out
 }

@@ -17,6 +17,19 @@
 // the same propagator, sun and shadow model (one code path for eclipses), so
 // a cylindrical run has cylindrical fractions, events and durations alike.
 //
+// With Config.Filter the gyro-aided filter of illum/sensor/filter runs
+// beside the estimators on the realistic readings (gyrofilter.go): the gyro
+// output of each step is the rotation between the attitudes at its ends
+// (filter.DeltaAngle) plus the gyro's bias and angle random walk, drawn from
+// a stream of their own; the filter restarts from the primary estimate when
+// it is not valid. Its shares and errors run over every sample, sunlit or
+// not, and the last valid primary estimate held in body axes through shadow
+// is kept beside it for comparison (TestFilterHoldsThroughEclipse: 3.7° p95
+// in eclipse against 168° held, tumbling at 1°/s with realistic errors).
+// A cosine reading's 1σ for the filter is the sensor's stated noise, dark
+// offset, gain and misalignment at full sun and its quantisation step/√12,
+// with FilterConfig.CosineSigma, in quadrature.
+//
 // "Sunlit" time means the full solar disc is visible; penumbra time is
 // counted apart. Coverage ("seen by ≥ k sensors") is taken on the true sun
 // direction; validity and errors use the estimators on the readings.

@@ -123,6 +123,11 @@ func newGyroFilter(cfg *Config, nominal *sensor.Array, u int) *gyroFilter {
 	return g
 }
 
+// minDirSigma is the least 1σ (rad) the filter gives a two-axis direction:
+// 0.001°, a floor against a zero variance from a sensor stated perfect
+// (common practice, no source).
+const minDirSigma = 1e-3 * math.Pi / 180
+
 // cosineSigma is the 1σ of one cosine reading (normalised signal): noise,
 // dark offset, gain and misalignment at full sun (sin δ ≈ δ), the
 // quantisation step over √12 (uniform), and the allowance, in quadrature,
@@ -159,7 +164,7 @@ func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estim
 			if g.cosine[i] {
 				g.f.Cosine(g.boresite[i], r.Signal, g.sigma[i])
 			} else {
-				g.f.Direction(r.Dir, math.Max(g.sigma[i], r.Sigma))
+				g.f.Direction(r.Dir, max(g.sigma[i], r.Sigma, minDirSigma))
 			}
 		}
 	}

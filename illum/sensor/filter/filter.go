@@ -114,53 +114,57 @@ func (f *Filter) Propagate(theta r3.Vec, dt float64) {
 	R := rotationMatrix(th)
 	s := mulVec(&R, f.s)
 	phi := math.Exp(-dt / f.set.BiasTau)
-	// Φ = [[R, C], [0, φI]] with C = −Δt[s⁺×].
-	var C [3][3]float64
+	// Φ = [[R, C], [0, φI]] with C = −Δt[s⁺×]; by blocks of P = [[S, X],
+	// [Xᵀ, B]]: A = R·S + C·Xᵀ, D = R·X + C·B, then ΦPΦᵀ = [[A·Rᵀ + D·Cᵀ,
+	// φD], [φDᵀ, φ²B]] (a quarter of the products of the full 6×6 form).
+	var C, S, X, B [3][3]float64
 	cx := cross(s)
 	for i := range 3 {
 		for j := range 3 {
 			C[i][j] = -dt * cx[i][j]
+			S[i][j] = f.p[i][j]
+			X[i][j] = f.p[i][3+j]
+			B[i][j] = f.p[3+i][3+j]
 		}
 	}
-	var phiM mat6
+	var A, D [3][3]float64
 	for i := range 3 {
 		for j := range 3 {
-			phiM[i][j] = R[i][j]
-			phiM[i][3+j] = C[i][j]
-		}
-		phiM[3+i][3+i] = phi
-	}
-	var tmp, out mat6
-	for i := range 6 {
-		for j := range 6 {
-			v := 0.0
-			for k := range 6 {
-				v += phiM[i][k] * f.p[k][j]
+			var a, d float64
+			for k := range 3 {
+				a += R[i][k]*S[k][j] + C[i][k]*X[j][k]
+				d += R[i][k]*X[k][j] + C[i][k]*B[k][j]
 			}
-			tmp[i][j] = v
+			A[i][j], D[i][j] = a, d
 		}
 	}
-	for i := range 6 {
-		for j := i; j < 6; j++ {
-			v := 0.0
-			for k := range 6 {
-				v += tmp[i][k] * phiM[j][k]
+	var out mat6
+	for i := range 3 {
+		for j := i; j < 3; j++ {
+			var v float64
+			for k := range 3 {
+				v += A[i][k]*R[j][k] + D[i][k]*C[j][k]
 			}
 			out[i][j], out[j][i] = v, v
+			out[3+i][3+j], out[3+j][3+i] = phi*phi*B[i][j], phi*phi*B[i][j]
+		}
+		for j := range 3 {
+			out[i][3+j], out[3+j][i] = phi*D[i][j], phi*D[i][j]
 		}
 	}
 	v2 := f.set.ARW * f.set.ARW * dt
 	l2 := f.set.LengthRate * f.set.LengthRate * dt
 	n2 := r3.Norm2(s)
-	u := r3.Unit(s)
+	sv, uv := [3]float64{s.X, s.Y, s.Z}, [3]float64{}
+	if n2 > 0 {
+		n := math.Sqrt(n2)
+		uv = [3]float64{s.X / n, s.Y / n, s.Z / n}
+	}
 	for i := range 3 {
 		for j := range 3 {
-			id := 0.0
-			if i == j {
-				id = 1
-			}
-			out[i][j] += v2*(n2*id-at(s, i)*at(s, j)) + l2*at(u, i)*at(u, j)
+			out[i][j] += -v2*sv[i]*sv[j] + l2*uv[i]*uv[j]
 		}
+		out[i][i] += v2 * n2
 		out[3+i][3+i] += f.set.BiasSigma * f.set.BiasSigma * (1 - phi*phi)
 	}
 	f.p = out
@@ -282,14 +286,9 @@ func (f *Filter) Valid() bool { return f.started && f.Sigma() <= f.set.MaxSigma 
 
 // quad3 is hᵀP_ss h.
 func quad3(p *mat6, h r3.Vec) float64 {
-	v := r3.Vec{X: h.X, Y: h.Y, Z: h.Z}
-	var out float64
-	for i := range 3 {
-		for j := range 3 {
-			out += at(v, i) * p[i][j] * at(v, j)
-		}
-	}
-	return out
+	return h.X*(p[0][0]*h.X+p[0][1]*h.Y+p[0][2]*h.Z) +
+		h.Y*(p[1][0]*h.X+p[1][1]*h.Y+p[1][2]*h.Z) +
+		h.Z*(p[2][0]*h.X+p[2][1]*h.Y+p[2][2]*h.Z)
 }
 
 func at(v r3.Vec, i int) float64 {

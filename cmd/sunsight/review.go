@@ -6,7 +6,6 @@ import (
 	"fmt"
 	"os"
 	"runtime/debug"
-	"slices"
 	"time"
 
 	"codeberg.org/sunsight/sunsight/plots"
@@ -19,16 +18,11 @@ import (
 // writeReview draws the design-review figures of a run and writes them as
 // files (plotsDir) and/or binds them into the HTML report.
 func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *study.SingleFailure, ph *study.Phases, report, plotsDir string, prov review.Provenance, force bool) error {
-	all, err := review.Figures(s, cfg, res)
+	// output.figures chooses the figures (all of them by default); only
+	// those are built.
+	figs, err := review.Figures(s, cfg, res, s.Output.Figures)
 	if err != nil {
 		return fmt.Errorf("figures: %w", err)
-	}
-	// output.figures chooses the figures (all of them by default).
-	var figs []review.Named
-	for _, f := range all {
-		if slices.Contains(s.Output.Figures, f.Name) {
-			figs = append(figs, f)
-		}
 	}
 	if plotsDir != "" {
 		err := writeOutputDir(plotsDir, force, func(dir string) error {

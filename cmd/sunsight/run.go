@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/review"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
@@ -136,18 +137,20 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		cfg.Units = f.units
 	}
 	cfg.Workers = f.workers
-	// A time series is kept only for the CSV files and figures. series.csv
-	// has every step unless output.decimate thins it (said on stderr); for
-	// figures alone at most maxSeriesRows rows are kept.
-	switch {
-	case f.csvDir != "":
+	// A time series is kept only for the CSV files: series.csv has every
+	// step unless output.decimate thins it (said on stderr). The figures ask
+	// the run for what they need (review.Request).
+	if f.csvDir != "" {
 		cfg.SeriesStride = max(1, s.Output.Decimate)
 		if cfg.SeriesStride > 1 {
 			fmt.Fprintf(stderr, "sunsight run: series.csv keeps every %d-th step (output.decimate: %d); remove the key for every step\n",
 				cfg.SeriesStride, cfg.SeriesStride)
 		}
-	case f.report != "" || f.plotsDir != "":
-		cfg.SeriesStride = max(1, s.Output.Decimate, cfg.Steps()/maxSeriesRows)
+	}
+	if f.report != "" || f.plotsDir != "" {
+		if err := review.Request(s, &cfg, s.Output.Figures); err != nil {
+			return usageError{fmt.Errorf("%s: %w", file, err)}
+		}
 	}
 	if f.maxMemMiB < 1 {
 		return usagef("--max-memory-mib %d: want a positive number of MiB", f.maxMemMiB)
@@ -159,9 +162,6 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	if est > float64(f.maxMemMiB) {
 		return usagef("the run would need about %.0f MiB (%d units × %d steps, series of %d rows), more than --max-memory-mib %d; lower --units, --duration or the step, thin the series with output.decimate, or raise --max-memory-mib",
 			est, cfg.Units, cfg.Steps(), seriesRows(cfg), f.maxMemMiB)
-	}
-	if f.report != "" || f.plotsDir != "" {
-		cfg.SunTrackPoints = 4000
 	}
 
 	ctx, stop := interruptContext()
@@ -187,8 +187,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	printWarnings(stderr, out.warnings)
 	out.allUnits = f.allUnits
 	if study.TimelineOf(cfg) != nil {
-		pc := cfg
-		pc.Progress, pc.SeriesStride, pc.SunTrackPoints = nil, 0, 0
+		pc := cfg.Lean()
 		ph, err := study.RunPhases(ctx, pc)
 		if err != nil {
 			if errors.Is(err, context.Canceled) {
@@ -199,8 +198,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		out.phases = &ph
 	}
 	if s.Targets.NMinus1.Set {
-		sc := cfg
-		sc.Progress, sc.SeriesStride, sc.SunTrackPoints = nil, 0, 0
+		sc := cfg.Lean()
 		sf, err := study.RunSingleFailure(ctx, s, sc)
 		if err != nil {
 			if errors.Is(err, context.Canceled) {
@@ -270,9 +268,6 @@ func verdictError(v study.Verdict) error {
 	return targetsFailed{v.Text()}
 }
 
-// maxSeriesRows bounds the time series kept for figures alone.
-const maxSeriesRows = 100000
-
 // ensureWritableDir creates dir if needed and checks a file can be made in it.
 func ensureWritableDir(dir string) error {
 	if dir == "" {
@@ -306,12 +301,17 @@ const (
 	memPerSeriesCell = 9
 )
 
-// seriesRows is the number of time-series rows the run keeps.
+// seriesRows is the number of time-series rows the run keeps (the series
+// and the figures' short one).
 func seriesRows(cfg sim.Config) int {
-	if cfg.SeriesStride <= 0 {
-		return 0
+	n := 0
+	if cfg.SeriesStride > 0 {
+		n += cfg.Steps()/cfg.SeriesStride + 1
 	}
-	return cfg.Steps()/cfg.SeriesStride + 1
+	if cfg.TimelineSpan > 0 && cfg.TimelineStride > 0 {
+		n += int(cfg.TimelineSpan/cfg.Step)/cfg.TimelineStride + 1
+	}
+	return n
 }
 
 // estimateMemoryMiB is the memory model above for a configuration.

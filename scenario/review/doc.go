@@ -6,18 +6,18 @@
 //
 // # Model
 //
-// Review computes little physics of its own; it reads the run's result and
-// calls the models of the other packages:
+// Review computes no physics of its own after the run: Request asks the run
+// (sim.Config) for what the named figures need, and Figures builds those
+// figures, and no other, from the result alone:
 //
 //   - sky map: sky.Map of the run's viewers on 2° cells, boresights from
-//     the sensor mounts, the sun track of the run;
-//   - timeline: the run's decimated series over the first three orbits
-//     (re-running those orbits with a series when the run kept none),
-//     eclipse spans from the run's eclipse search;
-//   - year view: illum.YearTable over 365 days from the epoch with a J2
-//     secular (j2-mean) propagator of the scenario's mean elements and the
-//     scenario's sun model, whatever propagator the run used, so the year
-//     stays fast;
+//     the sensor mounts, the sun and nadir track the run kept;
+//   - timeline: the short series the run kept over its first three orbits
+//     (sim.Config.TimelineSpan), eclipse spans from the run's eclipse search;
+//   - year view: the run's season table (sim.Config.Season: illum.YearTable
+//     over the epoch's calendar year with the run's sun and shadow models),
+//     on a J2 secular (j2-mean) propagator of the scenario's mean elements
+//     whatever propagator the run used, so the year stays fast;
 //   - coverage targets: sky.Coverage on the Fibonacci lattice of
 //     sky.DefaultPoints points.
 //

@@ -1,25 +1,24 @@
 package review
 
 import (
-	"codeberg.org/sunsight/sunsight/scenario/study"
-	"context"
 	"errors"
 	"fmt"
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"time"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
-	"codeberg.org/sunsight/sunsight/ephem"
-	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/plots/figures"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
 // Named is one figure of a run: Name is the file stem ("sky", "timeline",
@@ -32,13 +31,14 @@ type Named struct {
 	Tells string
 }
 
-// Figure names, in report order.
+// Figure names, in report order (the catalogue of package figures).
 const (
-	FigSky      = "sky"
-	FigTimeline = "timeline"
-	FigYear     = "year"
-	FigError    = "error"
-	FigGaps     = "gaps"
+	FigSky      = figures.Sky
+	FigTimeline = figures.Timeline
+	FigYear     = figures.Year
+	FigError    = figures.Error
+	FigGaps     = figures.Gaps
+	FigPower    = figures.Power
 )
 
 // SkyCellDeg is the cell size of the sky coverage map.
@@ -51,32 +51,127 @@ const TimelineOrbits = 3
 // shows over the whole run.
 const missionPoints = 1200
 
+// timelinePoints bounds the samples the timeline keeps: every step of three
+// orbits at 3 s steps and more, so a tumble's flicker is drawn as it was
+// sampled (never finer than the run's step).
+const timelinePoints = 6000
+
+// sunTrackPoints bounds the sun and nadir track the sky map shows.
+const sunTrackPoints = 4000
+
 // cdfPoints is the number of points read from the error quantiles.
 const cdfPoints = 400
 
-// Figures builds every figure of a run. cfg is the sim.Config the run used
-// (its Array/Viewers give the sky map and boresights). When the run kept no
-// series the timeline is computed by re-running the first orbits with a
-// series; a run with no gap has no gap figure (see Skipped).
-func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, error) {
+// Request sets on cfg what the named figures need from the run, so that
+// Figures later builds them from the result alone, without running the
+// engine or a model again: the sun and nadir track (sky), a short series
+// over the first TimelineOrbits orbits (timeline, and power with panels),
+// and the eclipse-season
+// table of the epoch's calendar year from a j2-mean orbit of the mean
+// elements (year). Call it before sim.Run.
+func Request(s *scenario.Scenario, cfg *sim.Config, names []string) error {
+	if err := checkNames(names); err != nil {
+		return err
+	}
+	if slices.Contains(names, FigSky) {
+		cfg.SunTrackPoints = sunTrackPoints
+	}
+	if slices.Contains(names, FigTimeline) || slices.Contains(names, FigPower) {
+		span := math.Min(TimelineOrbits*periodOf(*cfg), cfg.Duration)
+		cfg.TimelineSpan = span
+		cfg.TimelineStride = max(1, int(math.Ceil(span/cfg.Step/timelinePoints)))
+		if study.TimelineOf(*cfg) != nil {
+			// A mission timeline is shown whole, with its phases, thinned
+			// to about missionPoints samples so the figure stays small in
+			// the report.
+			cfg.TimelineSpan = cfg.Duration
+			cfg.TimelineStride = max(1, cfg.Steps()/missionPoints)
+		}
+	}
+	if slices.Contains(names, FigYear) {
+		el, err := study.MeanElements(s)
+		if err != nil {
+			return fmt.Errorf("review: year figure: %w", err)
+		}
+		jan1 := time.Date(s.Epoch.Year(), time.January, 1, 0, 0, 0, 0, time.UTC)
+		days := time.Date(s.Epoch.Year()+1, time.January, 1, 0, 0, 0, 0, time.UTC).Sub(jan1).Hours() / 24
+		cfg.Season = &sim.SeasonRequest{NewPropagator: func() orbit.Propagator { return orbit.NewJ2Mean(el) },
+			StartS: jan1.Sub(s.Epoch).Seconds(), Days: int(math.Round(days)), PeriodS: orbit.Period(el.SemiMajorAxisKm)}
+	}
+	return nil
+}
+
+// checkNames refuses a figure name the catalogue does not list.
+func checkNames(names []string) error {
+	for _, n := range names {
+		if !slices.Contains(figures.Names(), n) {
+			return fmt.Errorf("review: figure %q is not one of %s", n, strings.Join(figures.Names(), ", "))
+		}
+	}
+	return nil
+}
+
+// figureInput is what every figure builder reads: the run and its one
+// assessment.
+type figureInput struct {
+	s   *scenario.Scenario
+	cfg sim.Config
+	res *sim.Result
+	cap plots.Caption
+	a   study.Assessment
+	tg  figureTargets
+}
+
+// builder draws one figure; drawn is false when the run has nothing to show
+// in it (Skipped says why).
+type builder func(in *figureInput) (f Named, drawn bool, err error)
+
+// builders holds the builder of every catalogue figure
+// (TestEveryFigureHasABuilder).
+var builders = map[string]builder{
+	FigSky: skyFigure, FigTimeline: timelineFigure, FigYear: yearFigure, FigError: errorFigure, FigGaps: gapsFigure,
+	FigPower: powerFigure,
+}
+
+// Figures builds the named figures of a run, in report order, and no
+// other: cfg is the sim.Config the run used (its Array/Viewers give the sky
+// map and boresights) after Request with the same names, res its result.
+// Nothing is computed again: the timeline reads the run's short series, the
+// year view its season table. A run with no gap has no gap figure (see
+// Skipped).
+func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result, names []string) ([]Named, error) {
 	if err := checkInputs(s, cfg, res); err != nil {
 		return nil, err
 	}
-	cap := captionOf(s, cfg, res)
-	var out []Named
-	add := func(name, title string, c *plots.Chart, err error) error {
-		if err != nil {
-			return fmt.Errorf("review: %s figure: %w", name, err)
-		}
-		out = append(out, Named{Name: name, Title: title, Chart: c})
-		return nil
+	if err := checkNames(names); err != nil {
+		return nil, err
 	}
+	a := study.Assess(s, cfg, res)
+	in := &figureInput{s: s, cfg: cfg, res: res, cap: captionOf(s, cfg, res), a: a, tg: targetsOf(s, a)}
+	var out []Named
+	for _, name := range figures.Names() {
+		if !slices.Contains(names, name) {
+			continue
+		}
+		f, drawn, err := builders[name](in)
+		if err != nil {
+			return nil, fmt.Errorf("review: %s figure: %w", name, err)
+		}
+		if drawn {
+			f.Name = name
+			out = append(out, f)
+		}
+	}
+	return out, nil
+}
 
+func skyFigure(in *figureInput) (Named, bool, error) {
+	s, cfg, res := in.s, in.cfg, in.res
 	sm, err := skyMap(s, cfg, res)
 	if err != nil {
-		return nil, fmt.Errorf("review: sky figure: %w", err)
+		return Named{}, false, err
 	}
-	sc := cap
+	sc := in.cap
 	sc.Model = "Viewing convention: the body-frame sphere seen from outside, like a globe: +Z up, azimuth from +X toward +Y " +
 		"increasing to the right, −X on both side edges; equal areas look equal (Hammer projection). " + sc.Model
 	if n := len(res.Nominal.SunTrack); n > 0 && cfg.SunTrackPoints > 0 {
@@ -85,78 +180,59 @@ func Figures(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]Named, er
 			scenario.Span(every*1e9)) + sc.Assumptions
 	}
 	c, err := sm.Plot(sc)
-	if err := add(FigSky, "Sky coverage in body axes: sensors seeing each sun direction", c, err); err != nil {
-		return nil, err
-	}
-	a := study.Assess(s, cfg, res)
-	out[len(out)-1].Tells = skyTells(a, res, sm)
+	return Named{Title: "Sky coverage in body axes: sensors seeing each sun direction", Chart: c, Tells: skyTells(in.a, res, sm)}, true, err
+}
 
-	tl, err := timeline(cfg, res)
+func timelineFigure(in *figureInput) (Named, bool, error) {
+	tl, err := timeline(in.cfg, in.res)
 	if err != nil {
-		return nil, fmt.Errorf("review: timeline figure: %w", err)
+		return Named{}, false, err
 	}
-	tg := targetsOf(s, a)
-	tl.ErrorTarget, tl.ValidTarget = tg.errP95, tg.valid
-	tl.ValidShare = res.Nominal.Estimators[0].ValidFraction
-	c, err = tl.Plot(cap)
+	tl.ErrorTarget, tl.ValidTarget = in.tg.errP95, in.tg.valid
+	tl.ValidShare = in.res.Nominal.Estimators[0].ValidFraction
+	c, err := tl.Plot(in.cap)
 	title := fmt.Sprintf("Timeline of the first %d orbits: sensors seeing the sun, validity, error", TimelineOrbits)
 	if len(tl.Phases) > 0 {
 		title = "Mission timeline over the whole run: phases, sensors seeing the sun, validity, error"
 	}
-	if err := add(FigTimeline, title, c, err); err != nil {
-		return nil, err
-	}
-	out[len(out)-1].Tells = timelineTells(tl, tg)
+	return Named{Title: title, Chart: c, Tells: timelineTells(tl, in.tg)}, true, err
+}
 
-	yv, err := yearView(s)
+func yearFigure(in *figureInput) (Named, bool, error) {
+	s, res := in.s, in.res
+	yv, err := yearView(res)
 	if err != nil {
-		return nil, fmt.Errorf("review: year figure: %w", err)
+		return Named{}, false, err
 	}
 	yv.Year = s.Epoch.Year()
 	d0 := float64(s.Epoch.YearDay()) + float64(s.Epoch.Hour()*3600+s.Epoch.Minute()*60+s.Epoch.Second())/86400
 	yv.Run = plots.Interval{Start: d0, End: d0 + res.DurationS/86400}
-	yc := cap
+	yc := in.cap
 	yc.Model = fmt.Sprintf("calendar year %d; ", s.Epoch.Year()) + "j2-mean orbit from the mean elements (for speed), " + s.SunModel + " sun, " + s.Shadow + " shadow; one orbit examined per day"
 	yc.Assumptions = "no attitude or sensors involved; eclipse minutes of the first complete eclipse of the day"
-	c, err = yv.Plot(yc)
-	if err := add(FigYear, "Beta angle and eclipse minutes per orbit over one year", c, err); err != nil {
-		return nil, err
-	}
-	out[len(out)-1].Tells = yearTells(yv)
+	c, err := yv.Plot(yc)
+	return Named{Title: "Beta angle and eclipse minutes per orbit over one year", Chart: c, Tells: yearTells(yv)}, true, err
+}
 
-	if ed, ok := errorDist(res); ok {
-		ed.Target = tg.errP95
-		c, err = ed.Plot(cap)
-		if err := add(FigError, "Sun-vector error distribution of the primary estimator ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
-			return nil, err
-		}
-		out[len(out)-1].Tells = errorTells(&res.Nominal.Estimators[0], tg)
+func errorFigure(in *figureInput) (Named, bool, error) {
+	ed, ok := errorDist(in.res)
+	if !ok {
+		return Named{}, false, nil
 	}
+	ed.Target = in.tg.errP95
+	c, err := ed.Plot(in.cap)
+	e := &in.res.Nominal.Estimators[0]
+	return Named{Title: "Sun-vector error distribution of the primary estimator (" + e.Name + ")", Chart: c, Tells: errorTells(e, in.tg)}, true, err
+}
 
-	if g, ok := gaps(res); ok {
-		g.StepS, g.Target = res.StepS, tg.gap
-		c, err = g.Plot(cap)
-		if err := add(FigGaps, "Sunlit gaps without a valid sun vector ("+res.Nominal.Estimators[0].Name+")", c, err); err != nil {
-			return nil, err
-		}
-		out[len(out)-1].Tells = gapsTells(g)
+func gapsFigure(in *figureInput) (Named, bool, error) {
+	g, ok := gaps(in.res)
+	if !ok {
+		return Named{}, false, nil
 	}
-
-	pv, ok, err := powerView(cfg, res)
-	if err != nil {
-		return nil, fmt.Errorf("review: power figure: %w", err)
-	}
-	if ok {
-		pv.Target = tg.power
-		pc := cap
-		pc.Assumptions = "panels fixed to the body in the nominal attitude; cosine law, no albedo on the panels; " + pc.Assumptions
-		c, err = pv.Plot(pc)
-		if err := add(FigPower, "Solar-array power: the first orbits and the mean of each whole orbit", c, err); err != nil {
-			return nil, err
-		}
-		out[len(out)-1].Tells = powerTells(res, tg.power)
-	}
-	return out, nil
+	g.StepS, g.Target = in.res.StepS, in.tg.gap
+	c, err := g.Plot(in.cap)
+	return Named{Title: "Sunlit gaps without a valid sun vector (" + in.res.Nominal.Estimators[0].Name + ")", Chart: c, Tells: gapsTells(g)}, true, err
 }
 
 // verdictText is " — target ≤ 5.00°: FAIL" or "" without a target.
@@ -377,47 +453,21 @@ func periodOf(cfg sim.Config) float64 {
 }
 
 func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
-	span := math.Min(TimelineOrbits*periodOf(cfg), cfg.Duration)
 	mission := study.TimelineOf(cfg)
-	if mission != nil {
-		span = cfg.Duration // the whole mission timeline, with its phases
-	}
-	ser := res.Nominal.Series
+	ser := res.Nominal.Timeline
 	if ser == nil || len(ser.T) < 2 {
-		short := cfg
-		short.Duration = span
-		short.Units = 1
-		short.Progress = nil
-		short.SunTrackPoints = 0
-		// About 600 points over the span, never finer than the run's step.
-		short.SeriesStride = max(1, int(span/cfg.Step/600))
-		r, err := sim.Run(context.Background(), short)
-		if err != nil {
-			return plots.Timeline{}, fmt.Errorf("re-running the first orbits: %w", err)
-		}
-		ser = r.Nominal.Series
-		if ser == nil {
-			return plots.Timeline{}, errors.New("re-running the first orbits kept no series")
-		}
+		return plots.Timeline{}, errors.New("the run kept no timeline series (review.Request sets it before the run)")
 	}
+	span := cfg.TimelineSpan
 	var tl plots.Timeline
 	if mission != nil {
 		for _, sp := range mission.Spans {
 			tl.Phases = append(tl.Phases, plots.PhaseSpan{Name: sp.Name, Start: sp.Start, End: sp.End, Slew: sp.Slew})
 		}
 	}
-	// A whole mission is thinned to about missionPoints samples, so the
-	// figure stays small in the report (a shorter run keeps every one).
-	every := 1
-	if mission != nil {
-		every = max(1, len(ser.T)/missionPoints)
-	}
 	for i, t := range ser.T {
 		if t > span {
 			break
-		}
-		if i%every != 0 && i != len(ser.T)-1 {
-			continue
 		}
 		tl.T = append(tl.T, t)
 		tl.SensorsSeeing = append(tl.SensorsSeeing, ser.Seen[i])
@@ -431,43 +481,15 @@ func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 	return tl, nil
 }
 
-// YearTable returns days rows of beta angle and eclipse of the scenario's
-// orbit (j2-mean propagator of its mean elements, its sun and shadow models), one per day
-// from t0 seconds after the epoch (t0 may be negative).
-func YearTable(s *scenario.Scenario, t0 float64, days int) ([]illum.DayRow, error) {
-	el, err := study.MeanElements(s)
-	if err != nil {
-		return nil, err
-	}
-	sun, err := ephem.SunByName(s.SunModel)
-	if err != nil {
-		return nil, fmt.Errorf("sun_model: %w", err)
-	}
-	p := orbit.NewJ2Mean(el)
-	jd0 := ephem.JulianDateTT(s.Epoch)
-	g := func(t float64) (r3.Vec, r3.Vec) {
-		st := p.StateAt(t)
-		u, d := sun.Position(jd0 + t/86400)
-		return st.R, r3.Scale(d, u)
-	}
-	normal := func(t float64) r3.Vec {
-		st := p.StateAt(t)
-		return r3.Cross(st.R, st.V)
-	}
-	return illum.YearTable(study.ShadowModel(s), g, normal, t0, days, orbit.Period(el.SemiMajorAxisKm)), nil
-}
-
-// yearView covers the calendar year of the epoch (1 January to 31
-// December), so the axis reads as day of year whatever the epoch.
-func yearView(s *scenario.Scenario) (plots.YearView, error) {
-	jan1 := time.Date(s.Epoch.Year(), time.January, 1, 0, 0, 0, 0, time.UTC)
-	days := time.Date(s.Epoch.Year()+1, time.January, 1, 0, 0, 0, 0, time.UTC).Sub(jan1).Hours() / 24
-	rows, err := YearTable(s, jan1.Sub(s.Epoch).Seconds(), int(math.Round(days)))
-	if err != nil {
-		return plots.YearView{}, err
+// yearView is the run's season table: the epoch's calendar year (1 January
+// to 31 December, as Request asks for it), so the axis reads as day of year
+// whatever the epoch.
+func yearView(res *sim.Result) (plots.YearView, error) {
+	if len(res.Season) == 0 {
+		return plots.YearView{}, errors.New("the run kept no season table (review.Request sets it before the run)")
 	}
 	var y plots.YearView
-	for _, r := range rows {
+	for _, r := range res.Season {
 		y.Day = append(y.Day, float64(r.Day+1))
 		y.BetaDeg = append(y.BetaDeg, degOf(r.Beta))
 		y.EclipseMin = append(y.EclipseMin, r.ShadowS/60)

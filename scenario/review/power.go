@@ -1,7 +1,6 @@
 package review
 
 import (
-	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -11,34 +10,33 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
-// FigPower is the solar-array power figure (runs with body.panels).
-const FigPower = "power"
+// powerFigure is the solar-array power figure (runs with body.panels).
+func powerFigure(in *figureInput) (Named, bool, error) {
+	pv, ok, err := powerView(in.cfg, in.res)
+	if err != nil || !ok {
+		return Named{}, false, err
+	}
+	pv.Target = in.tg.power
+	pc := in.cap
+	pc.Assumptions = "panels fixed to the body in the nominal attitude; cosine law, no albedo on the panels; " + pc.Assumptions
+	c, err := pv.Plot(pc)
+	return Named{Title: "Solar-array power: the first orbits and the mean of each whole orbit", Chart: c, Tells: powerTells(in.res, in.tg.power)}, true, err
+}
 
-// powerView is the run's power over the timeline's first orbits (from the
-// run's power series, else from a re-run of those orbits with one) and the
-// mean power of every whole orbit; ok is false without panels.
+// powerView is the run's power over the timeline's first orbits (the short
+// power series the run kept) and the mean power of every whole orbit; ok is
+// false without panels.
 func powerView(cfg sim.Config, res *sim.Result) (plots.PowerView, bool, error) {
 	if res.Power == nil || cfg.Panels == nil {
 		return plots.PowerView{}, false, nil
 	}
-	span := math.Min(TimelineOrbits*periodOf(cfg), cfg.Duration)
-	ser := res.PowerSeries
-	if ser == nil || len(ser.T) < 2 || ser.T[1] > span/100 {
-		short := cfg
-		short.Duration = span
-		short.Units = 1
-		short.Progress = nil
-		short.SunTrackPoints = 0
-		// About 600 points over the span, never finer than the run's step.
-		short.SeriesStride = max(1, int(span/cfg.Step/600))
-		r, err := sim.Run(context.Background(), short)
-		if err != nil {
-			return plots.PowerView{}, false, fmt.Errorf("re-running the first orbits: %w", err)
-		}
-		if ser = r.PowerSeries; ser == nil {
-			return plots.PowerView{}, false, errors.New("re-running the first orbits kept no power series")
-		}
+	ser := res.PowerTimeline
+	if ser == nil || len(ser.T) < 2 {
+		return plots.PowerView{}, false, errors.New("the run kept no short power series (review.Request sets it before the run)")
 	}
+	// The first orbits, also when a mission timeline has the run keep its
+	// whole span.
+	span := math.Min(TimelineOrbits*periodOf(cfg), cfg.Duration)
 	var v plots.PowerView
 	for i, t := range ser.T {
 		if t > span {

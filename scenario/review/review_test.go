@@ -35,7 +35,9 @@ func shortRun(t *testing.T, name string, span time.Duration, units int) (*scenar
 		t.Fatal(err)
 	}
 	cfg.Units = units
-	cfg.SunTrackPoints = 2000
+	if err := Request(s, &cfg, s.Output.Figures); err != nil {
+		t.Fatal(err)
+	}
 	res, err := sim.Run(context.Background(), cfg)
 	if err != nil {
 		t.Fatal(err)
@@ -56,7 +58,7 @@ func rowByPrefix(t *testing.T, rows []plots.HeadlineRow, prefix string) plots.He
 
 func TestFiguresAndReportNadir(t *testing.T) {
 	s, cfg, res := shortRun(t, "nadir-6u-sso.yaml", 4*time.Hour, 3)
-	figs, err := Figures(s, cfg, res)
+	figs, err := Figures(s, cfg, res, s.Output.Figures)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -211,7 +213,7 @@ func TestTimelineWithoutSeries(t *testing.T) {
 
 func TestWritePlots(t *testing.T) {
 	s, cfg, res := shortRun(t, "nadir-6u-sso.yaml", 2*time.Hour, 1)
-	figs, err := Figures(s, cfg, res)
+	figs, err := Figures(s, cfg, res, s.Output.Figures)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -243,7 +245,7 @@ func TestRenderExamples(t *testing.T) {
 	}
 	for _, name := range []string{"nadir-6u-sso.yaml", "dawn-dusk-12u.yaml", "tumbling-3u.yaml"} {
 		s, cfg, res := shortRun(t, name, 24*time.Hour, 1)
-		figs, err := Figures(s, cfg, res)
+		figs, err := Figures(s, cfg, res, s.Output.Figures)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -30,6 +30,13 @@
 // offset, gain and misalignment at full sun and its quantisation step/√12,
 // with FilterConfig.CosineSigma, in quadrature.
 //
+// What the design review draws is kept by the run itself, when asked: a time
+// series of unit 0 (Config.SeriesStride), a short one over the first
+// seconds (Config.TimelineSpan), the body-frame sun and nadir track, and
+// the eclipse-season table of the orbit over any span of days
+// (Config.Season: illum.YearTable on the propagator the request gives, with
+// the run's sun and shadow models), so nothing is run twice.
+//
 // "Sunlit" time means the full solar disc is visible; penumbra time is
 // counted apart. Coverage ("seen by ≥ k sensors") is taken on the true sun
 // direction; validity and errors use the estimators on the readings.

@@ -100,6 +100,15 @@ type Config struct {
 	// series; SunTrackPoints bounds the body-frame sun track kept for unit 0.
 	SeriesStride   int
 	SunTrackPoints int
+	// TimelineSpan > 0 keeps, besides the series, a short series of unit 0
+	// over its first TimelineSpan seconds, one step in TimelineStride: what
+	// a timeline figure shows, so the review needs neither a full series
+	// nor a second run.
+	TimelineSpan   float64
+	TimelineStride int
+	// Season, when set, asks for the eclipse-season table of the orbit
+	// (Result.Season), with the run's sun and shadow models.
+	Season *SeasonRequest
 
 	// Filter, when set, runs the gyro-aided sun-direction filter beside
 	// the estimators (UnitResult.Filter). A filter runs forward from the
@@ -113,6 +122,15 @@ type Config struct {
 	// Progress, when not nil, is called from the unit-0 loop with the
 	// fraction done; it must be cheap.
 	Progress func(done float64)
+}
+
+// Lean returns a copy of c that keeps nothing for figures or files (no
+// series, sun track, short series or season table) and reports no
+// progress: the extra runs of a study (phases, single failures, replays),
+// whose figures come from the primary run.
+func (c Config) Lean() Config {
+	c.SeriesStride, c.SunTrackPoints, c.TimelineSpan, c.TimelineStride, c.Season, c.Progress = 0, 0, 0, 0, nil, nil
+	return c
 }
 
 // DefaultFalseSunBoundDeg is the default false-sun bound: 20°, well beyond
@@ -157,6 +175,14 @@ func (c *Config) Validate() error {
 	}
 	if c.Filter != nil {
 		if err := c.Filter.Validate(); err != nil {
+			return err
+		}
+	}
+	if c.TimelineSpan > 0 && c.TimelineStride < 1 {
+		return fmt.Errorf("sim: timeline stride %d: want ≥ 1 with a timeline span", c.TimelineStride)
+	}
+	if c.Season != nil {
+		if err := c.Season.validate(); err != nil {
 			return err
 		}
 	}
@@ -218,13 +244,16 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	eclDone := make(chan struct{})
 	go func() {
 		res.Eclipses, res.EclipseStats = eclipses(&cfg)
+		if cfg.Season != nil {
+			res.Season = season(&cfg)
+		}
 		close(eclDone)
 	}()
 	powDone := make(chan error, 1)
 	if cfg.Panels != nil {
 		go func() {
 			var err error
-			res.Power, res.PowerSeries, err = powerPass(ctx, &cfg)
+			res.Power, res.PowerSeries, res.PowerTimeline, err = powerPass(ctx, &cfg)
 			powDone <- err
 		}()
 	} else {

@@ -10,13 +10,13 @@ import (
 // (unit 0) attitude and the same orbit, sun, shadow and attitude code as
 // the sensor loop (geometry.step without albedo), and folds the array's
 // power into the orbit figures; with a time series it also keeps the power
-// at the series' samples. It allocates nothing per step.
-func powerPass(ctx context.Context, cfg *Config) (*power.Summary, *PowerSeries, error) {
+// at the series' samples, and with a timeline span at the short series'. It allocates nothing per step.
+func powerPass(ctx context.Context, cfg *Config) (*power.Summary, *PowerSeries, *PowerSeries, error) {
 	c := *cfg
 	c.NewAlbedo, c.NewCorrection, c.LawForUnit = nil, nil, nil
 	g, err := newGeometry(&c, cfg.Array, 0, nil)
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
 	steps := cfg.Steps()
 	var ser *PowerSeries
@@ -25,10 +25,15 @@ func powerPass(ctx context.Context, cfg *Config) (*power.Summary, *PowerSeries, 
 		n := (steps-1)/stride + 1
 		ser = &PowerSeries{T: make([]float64, 0, n), W: make([]float64, 0, n)}
 	}
+	var short *PowerSeries
+	if cfg.TimelineSpan > 0 {
+		n := int(cfg.TimelineSpan/cfg.Step)/cfg.TimelineStride + 1
+		short = &PowerSeries{T: make([]float64, 0, n), W: make([]float64, 0, n)}
+	}
 	tr := power.NewTracker(cfg.Step, orbitPeriod(cfg.NewPropagator().StateAt(0)), cfg.Duration)
 	for k := range steps {
 		if k&4095 == 0 && ctx.Err() != nil {
-			return nil, nil, ctx.Err()
+			return nil, nil, nil, ctx.Err()
 		}
 		sg := g.step(k, nil)
 		p := cfg.Panels.Power(sg.sunBody, sg.direct)
@@ -37,7 +42,11 @@ func powerPass(ctx context.Context, cfg *Config) (*power.Summary, *PowerSeries, 
 			ser.T = append(ser.T, sg.t)
 			ser.W = append(ser.W, p)
 		}
+		if short != nil && sg.t <= cfg.TimelineSpan && k%cfg.TimelineStride == 0 {
+			short.T = append(short.T, sg.t)
+			short.W = append(short.W, p)
+		}
 	}
 	s := tr.Finish()
-	return &s, ser, nil
+	return &s, ser, short, nil
 }

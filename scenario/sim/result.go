@@ -20,9 +20,12 @@ type Result struct {
 	DurationS    float64
 	Eclipses     []illum.Eclipse
 	EclipseStats illum.Stats
-	Nominal      *UnitResult   // unit 0
-	Units        []*UnitResult // all units, Units[0] == Nominal
-	AcrossUnits  []AcrossUnits // one per estimator; empty with one unit
+	// Season is the eclipse-season table asked for by Config.Season (nil
+	// otherwise).
+	Season      []illum.DayRow
+	Nominal     *UnitResult   // unit 0
+	Units       []*UnitResult // all units, Units[0] == Nominal
+	AcrossUnits []AcrossUnits // one per estimator; empty with one unit
 	// FalseSunBoundDeg is the error beyond which a valid estimate counts
 	// as a false sun (EstimatorStats.WrongFraction).
 	FalseSunBoundDeg float64
@@ -37,6 +40,9 @@ type Result struct {
 	// SeriesStride-th step, the times of Nominal.Series); nil without panels
 	// or without a series.
 	PowerSeries *PowerSeries
+	// PowerTimeline is the array power at the short series' samples
+	// (Nominal.Timeline); nil without panels or without a timeline span.
+	PowerTimeline *PowerSeries
 
 	albedoBoresight bool // the table is the boresight one (tests)
 }
@@ -67,8 +73,11 @@ type UnitResult struct {
 	BetaMinDeg       float64
 	BetaMaxDeg       float64
 	// Filter holds the gyro-aided filter's figures; nil without one.
-	Filter   *FilterStats
-	Series   *Series  // unit 0 only, when asked for
+	Filter *FilterStats
+	Series *Series // unit 0 only, when asked for
+	// Timeline is the short series of unit 0 over Config.TimelineSpan,
+	// when asked for.
+	Timeline *Series
 	SunTrack []r3.Vec // body-frame sun directions in sunlight (unit 0)
 	// NadirTrack is the body-frame nadir (unit 0) at the same stride as
 	// SunTrack, sunlit or not: where the Earth sits in body axes.
@@ -237,6 +246,7 @@ type unitAcc struct {
 	est                       []estAcc
 	betaMin, betaMax          float64 // extremes of sin β
 	series                    *Series
+	timeline                  *Series
 	track                     []r3.Vec
 	nadirTrack                []r3.Vec
 	trackStride               int
@@ -268,6 +278,9 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float
 	if first {
 		if cfg.SeriesStride > 0 {
 			a.series = &Series{SensorName: a.names}
+		}
+		if cfg.TimelineSpan > 0 && t0 <= cfg.TimelineSpan {
+			a.timeline = &Series{SensorName: a.names}
 		}
 		if cfg.SunTrackPoints > 0 {
 			a.trackStride = max(cfg.Steps()/cfg.SunTrackPoints, 1)
@@ -397,22 +410,47 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		a.nadirTrack = append(a.nadirTrack, nadirBody)
 	}
 	if s := a.series; s != nil && k%a.cfg.SeriesStride == 0 {
-		s.T = append(s.T, t)
-		s.Region = append(s.Region, region)
-		s.Lit = append(s.Lit, lit)
-		s.Seen = append(s.Seen, seen)
-		s.Valid = append(s.Valid, primaryValid)
-		s.ErrNoDeg = append(s.ErrNoDeg, errNoDeg)
-		s.ErrAlbDeg = append(s.ErrAlbDeg, errAlbDeg)
-		s.BetaDeg = append(s.BetaDeg, degOf(math.Asin(sinBeta)))
-		s.SunBodyAz = append(s.SunBodyAz, degOf(math.Atan2(sunBody.Y, sunBody.X)))
-		s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(math.Max(-1, math.Min(1, sunBody.Z)))))
-		sig := make([]float64, len(real))
-		for i := range real {
-			sig[i] = real[i].Signal
-		}
-		s.Signals = append(s.Signals, sig)
+		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, sinBeta, sunBody, real)
 	}
+	if s := a.timeline; s != nil && t <= a.cfg.TimelineSpan && k%a.cfg.TimelineStride == 0 {
+		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, sinBeta, sunBody, real)
+	}
+}
+
+// add appends one sample (it allocates: series are kept for figures and
+// files, not in the measured loop).
+func (s *Series) add(t float64, region illum.Region, lit float64, seen int, valid bool, errNoDeg, errAlbDeg, sinBeta float64,
+	sunBody r3.Vec, real []sensor.Reading) {
+	s.T = append(s.T, t)
+	s.Region = append(s.Region, region)
+	s.Lit = append(s.Lit, lit)
+	s.Seen = append(s.Seen, seen)
+	s.Valid = append(s.Valid, valid)
+	s.ErrNoDeg = append(s.ErrNoDeg, errNoDeg)
+	s.ErrAlbDeg = append(s.ErrAlbDeg, errAlbDeg)
+	s.BetaDeg = append(s.BetaDeg, degOf(math.Asin(sinBeta)))
+	s.SunBodyAz = append(s.SunBodyAz, degOf(math.Atan2(sunBody.Y, sunBody.X)))
+	s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(math.Max(-1, math.Min(1, sunBody.Z)))))
+	sig := make([]float64, len(real))
+	for i := range real {
+		sig[i] = real[i].Signal
+	}
+	s.Signals = append(s.Signals, sig)
+}
+
+// extend appends the samples of the next piece of the same series.
+func (s *Series) extend(t *Series) {
+	s.T = append(s.T, t.T...)
+	s.Region = append(s.Region, t.Region...)
+	s.Lit = append(s.Lit, t.Lit...)
+	s.Seen = append(s.Seen, t.Seen...)
+	s.Valid = append(s.Valid, t.Valid...)
+	s.ErrNoDeg = append(s.ErrNoDeg, t.ErrNoDeg...)
+	s.ErrAlbDeg = append(s.ErrAlbDeg, t.ErrAlbDeg...)
+	s.BetaDeg = append(s.BetaDeg, t.BetaDeg...)
+	s.SunBodyAz = append(s.SunBodyAz, t.SunBodyAz...)
+	s.SunBodyEl = append(s.SunBodyEl, t.SunBodyEl...)
+	s.Signals = append(s.Signals, t.Signals...)
 }
 
 // end closes the accumulator's piece of grid at tEnd.
@@ -463,18 +501,10 @@ func (a *unitAcc) merge(b *unitAcc) {
 		x.qFalse.Merge(y.qFalse)
 	}
 	if a.series != nil && b.series != nil {
-		s, t := a.series, b.series
-		s.T = append(s.T, t.T...)
-		s.Region = append(s.Region, t.Region...)
-		s.Lit = append(s.Lit, t.Lit...)
-		s.Seen = append(s.Seen, t.Seen...)
-		s.Valid = append(s.Valid, t.Valid...)
-		s.ErrNoDeg = append(s.ErrNoDeg, t.ErrNoDeg...)
-		s.ErrAlbDeg = append(s.ErrAlbDeg, t.ErrAlbDeg...)
-		s.BetaDeg = append(s.BetaDeg, t.BetaDeg...)
-		s.SunBodyAz = append(s.SunBodyAz, t.SunBodyAz...)
-		s.SunBodyEl = append(s.SunBodyEl, t.SunBodyEl...)
-		s.Signals = append(s.Signals, t.Signals...)
+		a.series.extend(b.series)
+	}
+	if a.timeline != nil && b.timeline != nil {
+		a.timeline.extend(b.timeline)
 	}
 	a.track = append(a.track, b.track...)
 	a.nadirTrack = append(a.nadirTrack, b.nadirTrack...)
@@ -512,7 +542,7 @@ func (a *unitAcc) result() *UnitResult {
 		SunlitFraction: frac(a.sunlit, a.samples), PenumbraFraction: frac(a.pen, a.samples),
 		UmbraFraction: frac(a.umb, a.samples), FalseSunFraction: frac(a.falseSunAny, a.umb),
 		BetaMinDeg: degOf(math.Asin(a.betaMin)), BetaMaxDeg: degOf(math.Asin(a.betaMax)),
-		Series: a.series, SunTrack: a.track, NadirTrack: a.nadirTrack, Filter: a.filter,
+		Series: a.series, Timeline: a.timeline, SunTrack: a.track, NadirTrack: a.nadirTrack, Filter: a.filter,
 	}
 	for k := 1; k <= 3; k++ {
 		r.SeenAtLeast[k] = frac(a.seenAtLeast[k], a.sunlit)

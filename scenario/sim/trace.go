@@ -154,7 +154,7 @@ func (tr *Trace) RunArray(ctx context.Context, arr *sensor.Array, withAlbedo boo
 // goroutines (≤ 0: GOMAXPROCS). A layout search replays many subsets at
 // once and asks for one each.
 func (tr *Trace) replay(ctx context.Context, cfg *Config, subset []int, units, workers int) (*Result, error) {
-	cfg.SeriesStride, cfg.SunTrackPoints = 0, 0
+	*cfg = cfg.Lean()
 	// Subsets are scored by their point estimators; the filter is the
 	// full run's.
 	cfg.Filter = nil

@@ -165,7 +165,7 @@ func runWithout(ctx context.Context, s *scenario.Scenario, base sim.Config, fail
 		return nil, err
 	}
 	cfg.Units, cfg.Workers, cfg.Seed = base.Units, base.Workers, base.Seed
-	cfg.SeriesStride, cfg.SunTrackPoints, cfg.Progress = 0, 0, nil
+	cfg = cfg.Lean()
 	return sim.Run(ctx, cfg)
 }
 

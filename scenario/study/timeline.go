@@ -152,7 +152,7 @@ func RunPhases(ctx context.Context, cfg sim.Config) (Phases, error) {
 			newProp := cfg.NewPropagator
 			c.NewPropagator = func() orbit.Propagator { return shifted{newProp(), t0} }
 			c.Law = shiftedLaw{tl, t0}
-			c.SeriesStride, c.SunTrackPoints, c.Progress = 0, 0, nil
+			c = c.Lean()
 			res, err := sim.Run(ctx, c)
 			if err != nil {
 				return out, fmt.Errorf("timeline phase %s: %w", sp.Name, err)

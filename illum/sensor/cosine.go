@@ -153,10 +153,27 @@ func (c *Cosine) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) 
 // readInto is Read writing into a caller's reading: the array's loop calls
 // it directly, without the interface call and the copy of a whole Reading.
 func (c *Cosine) readInto(r *Reading, sun r3.Vec, direct, albIrr float64, noise *rand.Rand) {
+	c.readIntoAt(r, sun, direct, albIrr, noise, 1, 0)
+}
+
+// readIntoAt is readInto with the temperature's gain factor and added dark
+// signal (Thermal.Factors).
+func (c *Cosine) readIntoAt(r *Reading, sun r3.Vec, direct, albIrr float64, noise *rand.Rand, gainT, darkT float64) {
 	e := direct*c.response(r3.Dot(c.actual.Boresight(), sun)) + albIrr
-	v := (1+c.unit.gain[0])*e/c.spec.RefIrradiance + c.unit.dark[0]
+	v := gainT*(1+c.unit.gain[0])*e/c.spec.RefIrradiance + c.unit.dark[0] + darkT
 	v, sat := c.spec.Errors.convert(v, noise)
 	*r = Reading{Signal: v, Valid: v > 0 && v >= c.spec.Threshold, Saturated: sat}
+}
+
+// ThermalModel implements Warm.
+func (c *Cosine) ThermalModel() Thermal { return c.spec.Errors.Thermal }
+
+// ReadAt implements Warm.
+func (c *Cosine) ReadAt(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand, tempC float64) Reading {
+	var r Reading
+	g, d := c.spec.Errors.Thermal.Factors(tempC)
+	c.readIntoAt(&r, sun, direct, alb.Irradiance, noise, g, d)
+	return r
 }
 
 // ReadPair reads the sensor without and with an albedo irradiance albIrr
@@ -190,10 +207,10 @@ func init() {
 		Kind: KindCosine, Doc: "coarse cosine photodiode: one signal proportional to the cosine of the incidence",
 		Source:       "Wertz (ed.), Spacecraft Attitude Determination and Control, Reidel 1978, ch. 6 (cosine detector; from memory)",
 		HalfAngleDeg: 90,
-		Params: []Param{{Key: "roll_off", Type: Table,
+		Params: append([]Param{{Key: "roll_off", Type: Table,
 			Doc: "measured response relative to the cosine law: [angle_deg, relative_response] rows",
 			Columns: [2]Column{{Name: "angle_deg", Min: 0, Max: 90, Increasing: true, Scale: math.Pi / 180},
-				{Name: "relative_response", Min: 0, Max: 2}}}},
+				{Name: "relative_response", Min: 0, Max: 2}}}}, thermalParams...),
 		Sources: []ErrorSource{{Name: SourceDarkOffset}, {Name: SourceGain}, {Name: SourceNoise},
 			{Name: SourceQuantisation}, {Name: SourceMisalignment}},
 		Build: buildCosine,
@@ -202,6 +219,7 @@ func init() {
 
 func buildCosine(c Common, p Params) (Sensor, error) {
 	spec := CosineSpec{Name: c.Name, Mount: c.Mount, HalfAngle: c.HalfAngle, Threshold: c.Threshold, Errors: c.Errors}
+	spec.Errors.Thermal = thermalFrom(p)
 	for _, rp := range p.Table["roll_off"] {
 		spec.RollOffAngle = append(spec.RollOffAngle, rp[0])
 		spec.RollOffRel = append(spec.RollOffRel, rp[1])

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
@@ -482,6 +483,20 @@ func (q *Quadrant) SeesSun(dir r3.Vec) bool {
 // proportions of the mean direction's lit areas (nothing when that
 // direction lights no cell). Then the validity gate (see decide).
 func (q *Quadrant) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand) Reading {
+	return q.readAt(sun, direct, alb, noise, 1, 0)
+}
+
+// ThermalModel implements Warm.
+func (q *Quadrant) ThermalModel() Thermal { return q.spec.Errors.Thermal }
+
+// ReadAt implements Warm: every cell takes the temperature's gain factor
+// and added dark signal.
+func (q *Quadrant) ReadAt(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand, tempC float64) Reading {
+	g, d := q.spec.Errors.Thermal.Factors(tempC)
+	return q.readAt(sun, direct, alb, noise, g, d)
+}
+
+func (q *Quadrant) readAt(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand, gainT, darkT float64) Reading {
 	var cells [4]float64
 	if d := q.actual.ToSensor(sun); d.Z > 0 && direct > 0 {
 		a := q.cellAreas(d, q.offX, q.offY)
@@ -506,7 +521,7 @@ func (q *Quadrant) Read(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand
 	}
 	var out Reading
 	for i := range cells {
-		v := (1+q.unit.gain[i])*cells[i]/q.spec.RefIrradiance + q.unit.dark[i]
+		v := gainT*(1+q.unit.gain[i])*cells[i]/q.spec.RefIrradiance + q.unit.dark[i] + darkT
 		v, sat := q.spec.Errors.convert(v, noise)
 		out.Cells[i] = v
 		out.Saturated = out.Saturated || sat
@@ -600,7 +615,7 @@ func init() {
 			// a cell at normal incidence (the usual proportion; common
 			// practice, no source).
 			{Key: "aperture_mm", Doc: "side of the square aperture; 0 means one cell side", Default: 0, Min: 0, Max: 100, Allowed: "[0, 100] mm (0: cell_size_mm)"},
-		}, quadrantGateParams...),
+		}, slices.Concat(quadrantGateParams, thermalParams)...),
 		Sources: quadrantSources,
 		Build:   buildQuadrant,
 	})
@@ -615,7 +630,7 @@ func init() {
 			// no source).
 			{Key: "wall_distance_mm", Doc: "distance d from the wall to the cells' inner edges; the dead zone is atan(d/H)",
 				Default: 0.577, Min: 0, Max: 100, Allowed: "[0, 100] mm"},
-		}, quadrantGateParams...),
+		}, slices.Concat(quadrantGateParams, thermalParams)...),
 		Sources: quadrantSources,
 		Build:   buildQuadrant,
 	})
@@ -626,6 +641,7 @@ func buildQuadrant(c Common, p Params) (Sensor, error) {
 		Threshold: c.Threshold, SignalMargin: p.Num["signal_margin"], ImbalanceMargin: p.Num["imbalance_margin"],
 		DeadZoneImbalance: p.Num["dead_zone_imbalance"], Sigma: p.Num["accuracy_deg_1sigma"],
 		OffsetSigma: c.OffsetSigma, TwistSigma: p.Num["twist_deg_1sigma"], Errors: c.Errors}
+	spec.Errors.Thermal = thermalFrom(p)
 	if p.Text["dead_zone"] == DeadZoneNoSun.String() {
 		spec.DeadZone = DeadZoneNoSun
 	}

@@ -131,6 +131,9 @@ type Errors struct {
 	ADCBits int
 	// FullScale is the saturation level (normalised); 0 means none.
 	FullScale float64
+	// Thermal is the temperature model (zero: none; the kind's temperature
+	// keys, not the errors block).
+	Thermal Thermal
 }
 
 func (e Errors) validate(name string) error {
@@ -142,6 +145,9 @@ func (e Errors) validate(name string) error {
 		if !(f.v >= 0) || math.IsInf(f.v, 0) {
 			return fmt.Errorf("sensor %q: errors.%s = %g: want a finite value ≥ 0", name, f.key, f.v)
 		}
+	}
+	if err := e.Thermal.validate(name); err != nil {
+		return err
 	}
 	if e.ADCBits < 0 || e.ADCBits > 32 {
 		return fmt.Errorf("sensor %q: errors.adc_bits = %d: want 0 (no ADC) to 32", name, e.ADCBits)

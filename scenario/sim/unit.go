@@ -339,6 +339,11 @@ type reader struct {
 	// The sensors with a blinding rule that can act.
 	blinders  []int
 	blindable []sensor.Blindable // blindable[j] is sensor blinders[j]
+	// warm[i] is sensor i when its temperature model changes its readings
+	// (nil otherwise; the slice is nil when no sensor has one); temps[i] is
+	// its temperature at the step (°C).
+	warm  []sensor.Warm
+	temps []float64
 }
 
 func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
@@ -354,6 +359,12 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 			break
 		}
 		r.cosines = append(r.cosines, c)
+	}
+	r.warm = warmSensors(arr)
+	if r.warm != nil {
+		// Readings at the sensors' temperatures go through ReadAt.
+		r.cosines = nil
+		r.temps = make([]float64, n)
 	}
 	for i, s := range arr.Sensors() {
 		if b, ok := s.(sensor.Blindable); ok && b.Blinding() {
@@ -384,6 +395,18 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 				d = 0
 			}
 			c.ReadPair(&r.readNo[i], &r.readAlb[i], g.sunBody, d, v.albSeen[i].Irradiance, r.noise)
+		}
+	} else if r.warm != nil {
+		for i, w := range r.warm {
+			if w != nil {
+				r.temps[i] = w.ThermalModel().Temperature(g.lit)
+			}
+		}
+		saved := *r.noiseSrc
+		readAllAt(r.readNo, r.warm, r.arr, g.sunBody, g.direct, nil, r.noise, v.sunBlocked, r.temps)
+		if r.withAlbedo {
+			*r.noiseSrc = saved
+			readAllAt(r.readAlb, r.warm, r.arr, g.sunBody, g.direct, v.albSeen, r.noise, v.sunBlocked, r.temps)
 		}
 	} else {
 		saved := *r.noiseSrc
@@ -489,6 +512,41 @@ func readAll(dst []sensor.Reading, arr *sensor.Array, sun r3.Vec, direct float64
 		var a sensor.Albedo
 		if alb != nil {
 			a = alb[i]
+		}
+		dst[i] = s.Read(sun, d, a, noise)
+	}
+}
+
+// warmSensors returns, per sensor, the ones whose temperature model changes
+// their readings (nil entries for the others); nil when none does.
+func warmSensors(arr *sensor.Array) []sensor.Warm {
+	var out []sensor.Warm
+	for i, s := range arr.Sensors() {
+		if w, ok := s.(sensor.Warm); ok && w.ThermalModel().On() {
+			if out == nil {
+				out = make([]sensor.Warm, arr.Len())
+			}
+			out[i] = w
+		}
+	}
+	return out
+}
+
+// readAllAt is readAll with the sensors of warm (non-nil entries) read at
+// their temperatures temps[i] (°C).
+func readAllAt(dst []sensor.Reading, warm []sensor.Warm, arr *sensor.Array, sun r3.Vec, direct float64, alb []sensor.Albedo, noise *rand.Rand, blocked []bool, temps []float64) {
+	for i, s := range arr.Sensors() {
+		d := direct
+		if blocked != nil && blocked[i] {
+			d = 0
+		}
+		var a sensor.Albedo
+		if alb != nil {
+			a = alb[i]
+		}
+		if w := warm[i]; w != nil {
+			dst[i] = w.ReadAt(sun, d, a, noise, temps[i])
+			continue
 		}
 		dst[i] = s.Read(sun, d, a, noise)
 	}

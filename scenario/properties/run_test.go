@@ -99,6 +99,8 @@ var runInvariants = []invariant{
 	{"seeing-is-signal", checkSeeingIsSignal},
 	{"never-behind-own-face", checkBehindFace},
 	{"never-through-bus", checkThroughBus},
+	{"filter-figures-consistent", checkFilterFigures},
+	{"filter-leaves-estimators", checkFilterLeavesEstimators},
 }
 
 // sunlit + penumbra + umbra = 1; cylindrical shadow ⇒ penumbra = 0.

@@ -60,10 +60,11 @@
 // # Accuracy
 //
 // With a perfect gyro and no readings the estimate follows the true
-// body-frame sun of a torque-free tumble to ≈ 1e-13 rad over an orbit
+// body-frame sun of a torque-free tumble to 5e-14 rad over an orbit
 // (TestPerfectGyroFollowsTumble, bound 1e-9). Covariance consistency:
 // the mean NEES over 100 Monte Carlo units lies in its 95 % chi-square
-// band (TestNEESWithinChiSquareBand).
+// band at 29 of 30 checkpoints tumbling at 3°/s with 1 s steps, and at 30
+// of 30 at 10°/s with 5 s steps, 50° a step (TestNEESWithinChiSquareBand).
 //
 // # References
 //

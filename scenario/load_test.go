@@ -147,6 +147,7 @@ func badInputs() []badInput {
 		{"timeline replay phase", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: replay, file: x.aem}}]}\n", "replays a whole run"},
 		{"timeline duplicate phase", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: sun}, until: {elapsed: 1h}}, {name: a, attitude: {law: nadir}}]}\n", "used twice"},
 		{"timeline hold word", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: sun}, during_eclipse: freeze}]}\n", "during_eclipse"},
+		{"nadir align_to orbit-normal", orbit + sensor + "attitude: {law: nadir, align_to: orbit-normal}\n", "allowed velocity, sun"},
 		{"detumble without time constant", orbit + sensor + "attitude: {law: detumble}\n", "attitude.time_constant"},
 		{"detumble key on tumble", orbit + sensor + "attitude: {law: tumble, time_constant: 10m}\n", "attitude.time_constant"},
 		{"unknown kind", orbit + "body:\n  sensors: [{name: a, kind: pinhole, face: \"+X\"}]\n", "kind"},

@@ -428,6 +428,8 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		out.RollRad = r.angle(path+".roll_offset_deg", setDefault(&l.RollOffsetDeg, 0), -180, 180)
 		out.PitchRad = r.angle(path+".pitch_offset_deg", setDefault(&l.PitchOffsetDeg, 0), -180, 180)
 		out.YawRad = r.angle(path+".yaw_offset_deg", setDefault(&l.YawOffsetDeg, 0), -180, 180)
+		r.choice(path+".align_to", &l.AlignTo, AlignVelocity, []string{AlignVelocity, AlignSun})
+		out.AlignTo = l.AlignTo
 	case LawSun:
 		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
 		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, "+X")

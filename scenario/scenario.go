@@ -138,6 +138,10 @@ const (
 	AlignOrbitNormal = "orbit-normal"
 	AlignNadir       = "nadir"
 	AlignInertial    = "inertial"
+	// AlignVelocity and AlignSun are the nadir law's references: the
+	// velocity (LVLH) or the sun (yaw steering).
+	AlignVelocity = "velocity"
+	AlignSun      = "sun"
 )
 
 // Attitude is the pointing of a run: a Law, or a schedule of two laws.

@@ -75,6 +75,7 @@ type Law struct {
 	SpinAxis       string    `yaml:"spin_axis,omitempty"`
 	RateDegS       *float64  `yaml:"rate_deg_s,omitempty"`
 	MaxRateDegS    *float64  `yaml:"max_rate_deg_s,omitempty"`
+	TimeConstant   string    `yaml:"time_constant,omitempty"`
 	InSunlight     *Law      `yaml:"in_sunlight,omitempty"`
 	InEclipse      *Law      `yaml:"in_eclipse,omitempty"`
 }
@@ -350,7 +351,7 @@ func Checksum(line string) int {
 
 // law draws an attitude law; schedule only at the top level.
 func (d drawer) law(top bool) Law {
-	names := []string{"nadir", "sun", "inertial", "spin", "tumble", "isotropic"}
+	names := []string{"nadir", "sun", "inertial", "spin", "tumble", "isotropic", "detumble"}
 	if top {
 		names = append(names, "schedule")
 	}
@@ -362,6 +363,9 @@ func (d drawer) law(top bool) Law {
 		l.AlignAxis = d.perpTo(l.PointAxis)
 		if d.p(0.3) {
 			l.RollOffsetDeg, l.PitchOffsetDeg, l.YawOffsetDeg = d.ptr(-30, 30, 2), d.ptr(-30, 30, 2), d.ptr(-30, 30, 2)
+		}
+		if d.p(0.3) {
+			l.AlignTo = "sun" // yaw steering
 		}
 	case "sun":
 		l.Law = name
@@ -390,6 +394,10 @@ func (d drawer) law(top bool) Law {
 		l.MaxRateDegS = d.ptr(0.5, 20, 2)
 	case "isotropic":
 		l.Law = name
+	case "detumble":
+		l.Law = name
+		l.MaxRateDegS = d.ptr(0.5, 20, 2)
+		l.TimeConstant = fmt.Sprintf("%dm", 5+d.r.IntN(120))
 	case "schedule":
 		sun := d.law(false)
 		ecl := d.law(false)

@@ -10,7 +10,9 @@
 // Laws (each a value type; the zero value of every axis field is the
 // default named below):
 //   - Nadir: LVLH pointing, +Z to nadir and +X toward velocity by default,
-//     optional fixed offset rotation.
+//     optional fixed offset rotation; with YawToSun the second axis is
+//     turned toward the sun instead (yaw steering: the sun stays in the
+//     plane of the two body axes, TRIAD with the sun as the second vector).
 //   - Sun: +Z to the sun, +X toward the orbit normal (or nadir, or an
 //     inertial direction), optional spin about the sun line.
 //   - Inertial: a fixed quaternion, or Euler angles in a named sequence.

@@ -184,11 +184,25 @@ type Nadir struct {
 	NadirAxis    r3.Vec      // body axis to nadir; default +Z
 	VelocityAxis r3.Vec      // body axis toward velocity; default +X
 	Offset       r3.Rotation // body ← nominal body; zero means none
+	// YawToSun steers yaw: VelocityAxis is turned toward the sun's
+	// projection on the plane perpendicular to nadir instead of the
+	// velocity, so the sun stays in the plane of the two axes (yaw steering
+	// of a nadir pointer; it flips by 180° where the sun crosses the
+	// zenith or nadir line, as flight yaw steering does).
+	YawToSun bool
+}
+
+// secondary is the ECI direction VelocityAxis is turned toward.
+func (n Nadir) secondary(s orbit.State, sunDir r3.Vec) r3.Vec {
+	if n.YawToSun {
+		return sunDir
+	}
+	return s.V
 }
 
 // Attitude implements Law.
-func (n Nadir) Attitude(_ float64, s orbit.State, _ r3.Vec) r3.Rotation {
-	q := alignAxes(n.NadirAxis, r3.Scale(-1, s.R), n.VelocityAxis, s.V)
+func (n Nadir) Attitude(_ float64, s orbit.State, sunDir r3.Vec) r3.Rotation {
+	q := alignAxes(n.NadirAxis, r3.Scale(-1, s.R), n.VelocityAxis, n.secondary(s, sunDir))
 	if n.Offset == (r3.Rotation{}) {
 		return q
 	}
@@ -198,7 +212,7 @@ func (n Nadir) Attitude(_ float64, s orbit.State, _ r3.Vec) r3.Rotation {
 // Rows implements RowsLaw: the matrix of Attitude, built from the axes.
 func (n Nadir) Rows(t float64, s orbit.State, sun r3.Vec) Rows {
 	if n.Offset == (r3.Rotation{}) {
-		if m, ok := alignRows(n.NadirAxis, r3.Scale(-1, s.R), n.VelocityAxis, s.V); ok {
+		if m, ok := alignRows(n.NadirAxis, r3.Scale(-1, s.R), n.VelocityAxis, n.secondary(s, sun)); ok {
 			return m
 		}
 	}

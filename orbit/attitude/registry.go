@@ -33,9 +33,9 @@ type LawInfo struct {
 }
 
 var laws = []LawInfo{
-	{Name: NameNadir, Model: "LVLH pointing with an optional fixed 3-2-1 offset",
+	{Name: NameNadir, Model: "LVLH pointing with an optional fixed 3-2-1 offset; align_to: sun steers yaw to keep the sun in the plane of the two axes",
 		Source: "TRIAD (H. D. Black, AIAA J. 2(7), 1964; from memory)",
-		Keys:   []string{"point_axis", "align_axis", "roll_offset_deg", "pitch_offset_deg", "yaw_offset_deg"}},
+		Keys:   []string{"point_axis", "align_axis", "roll_offset_deg", "pitch_offset_deg", "yaw_offset_deg", "align_to"}},
 	{Name: NameSun, Model: "a body axis to the sun, a second toward the orbit normal, nadir or an inertial direction, optional spin about the sun line",
 		Source: "TRIAD (H. D. Black, AIAA J. 2(7), 1964; from memory)",
 		Keys:   []string{"point_axis", "align_axis", "clock_deg", "align_to", "align_inertial", "rate_deg_s"}},

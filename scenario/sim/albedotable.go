@@ -158,7 +158,8 @@ func (l *localAlbedo) clone() *localAlbedo {
 // loop integrates every step).
 func buildLocalAlbedo(cfg *Config) *localAlbedo {
 	law, ok := cfg.Law.(attitude.Nadir)
-	if !ok || cfg.LawForUnit != nil || cfg.NewAlbedo == nil {
+	// A yaw-steered nadir law turns in the LVLH frame: not fixed in it.
+	if !ok || law.YawToSun || cfg.LawForUnit != nil || cfg.NewAlbedo == nil {
 		return nil
 	}
 	p := cfg.NewPropagator()

@@ -168,7 +168,7 @@ type lawBuilder func(s *scenario.Scenario, l scenario.Law, seed uint64, path str
 // (TestEveryLawHasABuilder).
 var lawBuilders = map[string]lawBuilder{
 	attitude.NameNadir: func(_ *scenario.Scenario, l scenario.Law, _ uint64, _ string) (attitude.Law, error) {
-		n := attitude.Nadir{NadirAxis: l.PointAxis, VelocityAxis: l.AlignAxis}
+		n := attitude.Nadir{NadirAxis: l.PointAxis, VelocityAxis: l.AlignAxis, YawToSun: l.AlignTo == scenario.AlignSun}
 		if l.RollRad != 0 || l.PitchRad != 0 || l.YawRad != 0 {
 			n.Offset = attitude.FromEuler(attitude.Seq321, l.YawRad, l.PitchRad, l.RollRad)
 		}

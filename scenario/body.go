@@ -577,7 +577,21 @@ func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 }
 
 func (r *resolver) albedo(a *fileAlbedo) Albedo {
-	r.choice("albedo.model", &a.Model, AlbedoUniform, albedo.ModelNames())
+	out := r.albedoModel("albedo", &a.fileAlbedoModel)
+	if a.Onboard != nil {
+		if out.Model == AlbedoNone {
+			r.fail("albedo.onboard", "an on-board correction needs albedo in the truth; allowed with albedo.model %s", strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.Reflectance != nil }), ", "))
+		}
+		ob := r.albedoModel("albedo.onboard", a.Onboard)
+		out.Onboard = &ob
+	}
+	return out
+}
+
+// albedoModel resolves one albedo model block at path (albedo, or the
+// on-board model albedo.onboard).
+func (r *resolver) albedoModel(path string, a *fileAlbedoModel) Albedo {
+	r.choice(path+".model", &a.Model, AlbedoUniform, albedo.ModelNames())
 	out := Albedo{Model: a.Model}
 	m, err := albedo.LookupModel(a.Model)
 	if err != nil {
@@ -585,13 +599,13 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 	}
 	if m.TakesValue {
 		out.Value = setDefault(&a.Value, m.DefaultValue)
-		r.rangeCheck("albedo.value", out.Value, 0, 1, false, "[0, 1]")
+		r.rangeCheck(path+".value", out.Value, 0, 1, false, "[0, 1]")
 	} else if a.Value != nil {
-		r.fail("albedo.value", "value does not apply to model %q; allowed with %s", a.Model, strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesValue }), " or "))
+		r.fail(path+".value", "value does not apply to model %q; allowed with %s", a.Model, strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesValue }), " or "))
 	}
 	if m.TakesGrid {
 		if a.GridFile == "" {
-			r.fail("albedo.grid_file", "value is missing; allowed the path of a reflectance grid (relative to the scenario file)")
+			r.fail(path+".grid_file", "value is missing; allowed the path of a reflectance grid (relative to the scenario file)")
 		} else {
 			out.GridFile = a.GridFile
 			if !filepath.IsAbs(out.GridFile) {
@@ -599,15 +613,15 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 			}
 		}
 	} else if a.GridFile != "" {
-		r.fail("albedo.grid_file", "value applies to model %s only; allowed model: %s with grid_file", strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesGrid }), ", "), strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesGrid }), ", "))
+		r.fail(path+".grid_file", "value applies to model %s only; allowed model: %s with grid_file", strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesGrid }), ", "), strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesGrid }), ", "))
 	}
 	if a.Cells == 0 {
-		if _, given := r.nodes["albedo.cells"]; !given {
+		if _, given := r.nodes[path+".cells"]; !given {
 			a.Cells = defaultCells
 		}
 	}
 	if a.Cells < 10 || a.Cells > 1_000_000 {
-		r.fail("albedo.cells", "value %d is out of range; allowed [10, 1000000]", a.Cells)
+		r.fail(path+".cells", "value %d is out of range; allowed [10, 1000000]", a.Cells)
 	}
 	out.Cells = a.Cells
 	return out

@@ -166,6 +166,14 @@ type fileBody struct {
 }
 
 type fileAlbedo struct {
+	fileAlbedoModel `yaml:",inline"`
+	// Onboard is the flight software's albedo model, whose prediction is
+	// subtracted from the cosine readings before a third, corrected run of
+	// the estimators (absent: no on-board correction).
+	Onboard *fileAlbedoModel `yaml:"onboard,omitempty"`
+}
+
+type fileAlbedoModel struct {
 	Model    string   `yaml:"model"`
 	Value    *float64 `yaml:"value,omitempty"`
 	GridFile string   `yaml:"grid_file,omitempty"`

@@ -1,6 +1,8 @@
 package scenario
 
 import (
+	"fmt"
+	"path/filepath"
 	"time"
 
 	"gonum.org/v1/gonum/num/quat"
@@ -250,6 +252,33 @@ type Albedo struct {
 	Value    float64 // uniform reflectance (also the zonal model's global mean)
 	GridFile string  // absolute path (resolved against Dir), grid model only
 	Cells    int     // number of equal-area cells of the visible cap
+	// Onboard is the flight software's albedo model (albedo.onboard): its
+	// prediction is subtracted from the cosine readings before the
+	// estimators run a third time; nil without one.
+	Onboard *Albedo
+}
+
+// Label names the albedo model and its settings in one phrase ("zonal,
+// global mean 0.30, 400 cells"), for summaries and reports.
+func (a Albedo) Label() string {
+	switch a.Model {
+	case AlbedoNone:
+		return "none"
+	case AlbedoUniform:
+		return fmt.Sprintf("uniform %.2f, %d cells", a.Value, a.Cells)
+	case AlbedoZonal:
+		return fmt.Sprintf("zonal, global mean %.2f, %d cells", a.Value, a.Cells)
+	case AlbedoGrid:
+		return fmt.Sprintf("grid %s, %d cells", filepath.Base(a.GridFile), a.Cells)
+	}
+	return a.Model
+}
+
+// SameModel reports whether b is the same albedo model as a, with the same
+// settings: an on-board correction by the truth's own model is perfect by
+// construction, up to the sensors' nonlinearities and gain errors.
+func (a Albedo) SameModel(b Albedo) bool {
+	return a.Model == b.Model && a.Value == b.Value && a.GridFile == b.GridFile && a.Cells == b.Cells
 }
 
 // Targets are the requirements a run is judged against; a zero value means

@@ -135,6 +135,26 @@ type jsonEstimator struct {
 	FalseSunFromNadir jsonErr `json:"false_sun_from_nadir"`
 	AlbedoOnly        num     `json:"valid_only_with_albedo_fraction_of_sunlit"`
 	BeyondBound       num     `json:"valid_beyond_false_sun_bound_fraction_of_sunlit"`
+	// Corrected is the estimator on the readings corrected by the on-board
+	// albedo model (albedo.onboard); absent without one.
+	Corrected *jsonCorrected `json:"onboard_corrected,omitempty"`
+}
+
+// jsonCorrected is sim.CorrectedStats: validity and error to the truth of
+// the corrected readings, and the albedo part the correction leaves.
+type jsonCorrected struct {
+	Valid    num     `json:"valid_fraction"`
+	Err      jsonErr `json:"error_onboard_corrected"`
+	Residual jsonErr `json:"residual_albedo_part"`
+}
+
+// onboardRecord states the on-board albedo model against the truth's, and
+// what the corrected figures mean (study.OnboardNote).
+type onboardRecord struct {
+	Truth     string `json:"truth_albedo_model"`
+	Onboard   string `json:"onboard_albedo_model"`
+	SameModel bool   `json:"same_model_as_truth"`
+	Note      string `json:"note"`
 }
 
 type jsonSensor struct {
@@ -216,6 +236,9 @@ func unitJSON(u *sim.UnitResult) jsonUnit {
 			Gaps: len(e.Gaps), LongestGapS: num(e.LongestGapS), LongestAtS: num(e.LongestAtS), ErrNoAlbedo: errJSON(e.ErrNoAlbedo),
 			ErrAlbedo: errJSON(e.ErrAlbedo), AlbedoPart: errJSON(e.AlbedoPart), FalseSun: num(e.FalseSunFraction),
 			FalseSunFromNadir: errJSON(e.FalseSunFromNadir), AlbedoOnly: num(e.AlbedoOnlyFraction), BeyondBound: num(e.WrongFraction)})
+		if k := e.Corrected; k != nil {
+			j.Estimators[len(j.Estimators)-1].Corrected = &jsonCorrected{num(k.ValidFraction), errJSON(k.Err), errJSON(k.ResidualPart)}
+		}
 	}
 	return j
 }
@@ -225,16 +248,18 @@ func unitJSON(u *sim.UnitResult) jsonUnit {
 // Schema docs/schema/run.schema.json is generated from these types and every
 // name is listed in docs/data-dictionary.md (both checked by tests).
 type runRecord struct {
-	SchemaVersion int                  `json:"schema_version"`
-	Tool          toolRecord           `json:"tool"`
-	Scenario      scenarioRecord       `json:"scenario"`
-	Run           runInfoRecord        `json:"run"`
-	Headline      headlineRecord       `json:"headline"`
-	EclipseStats  eclipseStatsRecord   `json:"eclipse_stats"`
-	Eclipses      []jsonEclipse        `json:"eclipses"`
-	Units         []jsonUnit           `json:"units"`
-	AcrossUnits   []acrossRecord       `json:"across_units"`
-	SkyCoverage   *skyRecord           `json:"sky_coverage,omitempty"`
+	SchemaVersion int                `json:"schema_version"`
+	Tool          toolRecord         `json:"tool"`
+	Scenario      scenarioRecord     `json:"scenario"`
+	Run           runInfoRecord      `json:"run"`
+	Headline      headlineRecord     `json:"headline"`
+	EclipseStats  eclipseStatsRecord `json:"eclipse_stats"`
+	Eclipses      []jsonEclipse      `json:"eclipses"`
+	Units         []jsonUnit         `json:"units"`
+	AcrossUnits   []acrossRecord     `json:"across_units"`
+	SkyCoverage   *skyRecord         `json:"sky_coverage,omitempty"`
+	// OnboardAlbedo is the on-board albedo model (albedo.onboard).
+	OnboardAlbedo *onboardRecord       `json:"onboard_albedo,omitempty"`
 	Power         *powerRecord         `json:"power,omitempty"`
 	Targets       []study.TargetRecord `json:"targets"`
 	Verdict       verdictRecord        `json:"verdict"`
@@ -380,6 +405,9 @@ func (o *runOutput) record() runRecord {
 		rec.SkyCoverage = &skyRecord{c.Points, num(c.AtLeast[1]), num(c.AtLeast[2]), num(c.AtLeast[3]),
 			num(c.WorstOneFailed[1]), num(c.WorstOneFailed[2]), num(c.WorstOneFailed[3])}
 	}
+	if ob := o.s.Albedo.Onboard; ob != nil {
+		rec.OnboardAlbedo = &onboardRecord{o.s.Albedo.Label(), ob.Label(), o.s.Albedo.SameModel(*ob), study.OnboardNote(o.s)}
+	}
 	if p := r.Power; p != nil {
 		rec.Power = &powerRecord{num(p.MeanW), num(p.PeakW), p.Orbits, num(p.OrbitMeanWh), num(p.OrbitWorstWh),
 			num(p.LongestNoPowerS), num(p.GapEnergyWh)}
@@ -483,6 +511,7 @@ func (o *runOutput) writeSummary(w io.Writer) {
 			deg(e.ErrNoAlbedo.P95Deg), deg(e.ErrAlbedo.P95Deg), deg(e.AlbedoPart.P95Deg), deg(mx), pct(e.FalseSunFraction))
 	}
 	o.writeFilter(w)
+	o.writeOnboard(w)
 	fmt.Fprintf(w, "\nFalse suns (share of sunlit time; umbra: share of umbra time)\n")
 	fmt.Fprintf(w, "  %-16s %22s %22s %10s\n", "estimator", "valid only with albedo", fmt.Sprintf("valid, > %g° off", r.FalseSunBoundDeg), "umbra")
 	for _, e := range u.Estimators {
@@ -530,6 +559,49 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		}
 	}
 	fmt.Fprintf(w, "\nAn analysis aid, not flight verification: flight hardware needs qualified verification.\n")
+}
+
+// writeOnboard prints the estimators on the readings corrected by the
+// on-board albedo model beside the uncorrected ones, and what they mean.
+func (o *runOutput) writeOnboard(w io.Writer) {
+	ob := o.s.Albedo.Onboard
+	if ob == nil {
+		return
+	}
+	fmt.Fprintf(w, "\nOn-board albedo correction (on-board %s; truth %s)\n", ob.Label(), o.s.Albedo.Label())
+	fmt.Fprintf(w, "  %-16s %8s %11s %10s %14s %12s %14s\n", "estimator", "valid", "valid corr.", "p95 albedo", "p95 corrected", "albedo part", "residual part")
+	for _, e := range o.res.Nominal.Estimators {
+		k := e.Corrected
+		if k == nil {
+			continue
+		}
+		fmt.Fprintf(w, "  %-16s %8s %11s %10s %14s %12s %14s\n", e.Name, pct(e.ValidFraction), pct(k.ValidFraction),
+			deg(e.ErrAlbedo.P95Deg), deg(k.Err.P95Deg), deg(e.AlbedoPart.P95Deg), deg(k.ResidualPart.P95Deg))
+	}
+	for _, line := range wrapText(study.OnboardNote(o.s), 100) {
+		fmt.Fprintf(w, "  %s\n", line)
+	}
+	fmt.Fprintf(w, "  (targets judge the uncorrected estimate; residual part: angle between the corrected estimate and the one without albedo)\n")
+}
+
+// wrapText breaks text into lines of at most width characters at spaces.
+func wrapText(text string, width int) []string {
+	var lines []string
+	line := ""
+	for _, word := range strings.Fields(text) {
+		if line != "" && len([]rune(line))+1+len([]rune(word)) > width {
+			lines = append(lines, line)
+			line = ""
+		}
+		if line != "" {
+			line += " "
+		}
+		line += word
+	}
+	if line != "" {
+		lines = append(lines, line)
+	}
+	return lines
 }
 
 func albedoLabel(s *scenario.Scenario) string {
@@ -617,7 +689,8 @@ func (o *runOutput) writeCSV(dir string) error {
 		"p95_error_no_albedo_deg", "p99_error_no_albedo_deg", "max_error_no_albedo_deg",
 		"mean_error_albedo_deg", "p50_error_albedo_deg", "p95_error_albedo_deg", "p99_error_albedo_deg", "max_error_albedo_deg",
 		"p95_albedo_part_deg", "false_sun_fraction_of_umbra",
-		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit"}}
+		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit",
+		"valid_fraction_onboard_corrected", "p95_error_onboard_corrected_deg", "max_error_onboard_corrected_deg", "p95_residual_albedo_part_deg"}}
 	sens := [][]string{{"unit", "sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra",
 		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit",
 		"moon_in_view_fraction", "lit_earth_in_view_fraction", "blinded_fraction"}}
@@ -629,6 +702,13 @@ func (o *runOutput) writeCSV(dir string) error {
 			est = append(est, []string{ui, e.Name, ff(e.ValidFraction, 6), ff(e.LongestGapS, 1), ff(a.MeanDeg, 4), ff(a.P50Deg, 4), ff(a.P95Deg, 4), ff(a.P99Deg, 4), ff(a.MaxDeg, 4),
 				ff(b.MeanDeg, 4), ff(b.P50Deg, 4), ff(b.P95Deg, 4), ff(b.P99Deg, 4), ff(b.MaxDeg, 4), ff(e.AlbedoPart.P95Deg, 4), ff(e.FalseSunFraction, 6),
 				ff(e.AlbedoOnlyFraction, 6), ff(e.WrongFraction, 6)})
+			// Empty without an on-board albedo model.
+			kv, kp, km, kr := math.NaN(), math.NaN(), math.NaN(), math.NaN()
+			if k := e.Corrected; k != nil {
+				kv, kp, km, kr = k.ValidFraction, k.Err.P95Deg, k.Err.MaxDeg, k.ResidualPart.P95Deg
+			}
+			row := &est[len(est)-1]
+			*row = append(*row, ff(kv, 6), ff(kp, 4), ff(km, 4), ff(kr, 4))
 			for k, g := range e.Gaps {
 				t0 := math.NaN()
 				if k < len(e.GapStartS) {

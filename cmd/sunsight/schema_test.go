@@ -116,6 +116,12 @@ func realRecords(t *testing.T) map[string][]byte {
 		t.Fatalf("single failure: exit %d: %s", code, se.String())
 	}
 	out["single-failure.yaml"] = so.Bytes()
+	// The on-board albedo correction (albedo.onboard) adds its own records.
+	var ob bytes.Buffer
+	if code := runMain([]string{"run", onboardFile(t, "{model: uniform, value: 0.3}"), "--json", "--quiet"}, &ob, &se); code != exitOK {
+		t.Fatalf("on-board albedo: exit %d: %s", code, se.String())
+	}
+	out["onboard.yaml"] = ob.Bytes()
 	return out
 }
 

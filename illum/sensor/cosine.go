@@ -194,6 +194,24 @@ func (c *Cosine) ReadPair(noAlb, withAlb *Reading, sun r3.Vec, direct, albIrr fl
 	*withAlb = Reading{Signal: v1, Valid: v1 > 0 && v1 >= c.spec.Threshold, Saturated: s1}
 }
 
+// SubtractAlbedo implements AlbedoSubtracter: the flight software's
+// correction of a reading by a predicted albedo irradiance p (W/m²), with the
+// nominal gain it knows, s' = s − p/S_ref. The result is clipped at zero, and
+// a remainder within the rounding of the subtraction (4 ulp of the reading)
+// is zero, so that a perfect prediction leaves no rounding residue that a
+// zero threshold would count as a sun. It is valid when the reading was and
+// s' still reaches the threshold; a saturated reading stays flagged.
+func (c *Cosine) SubtractAlbedo(r Reading, p Albedo) Reading {
+	v := r.Signal - p.Irradiance/c.spec.RefIrradiance
+	if v <= 4*epsilon*r.Signal {
+		v = 0
+	}
+	return Reading{Signal: v, Valid: r.Valid && v > 0 && v >= c.spec.Threshold, Saturated: r.Saturated}
+}
+
+// epsilon is the float64 machine epsilon, 2⁻⁵².
+const epsilon = 0x1p-52
+
 // Draw implements Sensor.
 func (c *Cosine) Draw(rng *rand.Rand) Sensor {
 	u := *c

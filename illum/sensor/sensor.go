@@ -50,6 +50,14 @@ type Albedo struct {
 	Cells      [4]float64
 }
 
+// AlbedoSubtracter is a sensor kind whose flight software can subtract a
+// predicted albedo from its reading before the estimators see it (the
+// cosine kind: one signal, linear in the irradiance). SubtractAlbedo
+// allocates nothing.
+type AlbedoSubtracter interface {
+	SubtractAlbedo(r Reading, predicted Albedo) Reading
+}
+
 // Reading is one sensor's output at one instant.
 type Reading struct {
 	// Signal is the normalised output: for a cosine sensor the quantised

@@ -139,6 +139,16 @@ type Albedo struct {
 	Value    *float64 `yaml:"value,omitempty"`
 	GridFile string   `yaml:"grid_file,omitempty"`
 	Cells    int      `yaml:"cells,omitempty"`
+	// Onboard is the on-board albedo model (never drawn: the tests set it).
+	Onboard *OnboardAlbedo `yaml:"onboard,omitempty"`
+}
+
+// OnboardAlbedo is the albedo.onboard block.
+type OnboardAlbedo struct {
+	Model    string   `yaml:"model"`
+	Value    *float64 `yaml:"value,omitempty"`
+	GridFile string   `yaml:"grid_file,omitempty"`
+	Cells    int      `yaml:"cells,omitempty"`
 }
 
 // MonteCarlo is the Monte Carlo block.

@@ -209,7 +209,13 @@ func (r *Runner) Config(c Case) (sim.Config, error) {
 	if !(c.Scale[Albedo] > 0) {
 		cfg.NewAlbedo = nil
 	}
-	if c.Correction && cfg.NewAlbedo != nil {
+	// The correction case uses the scenario's on-board model
+	// (albedo.onboard) through the engine's corrected readings; a scenario
+	// without one is corrected by a uniform model of the truth's value.
+	if !c.Correction || cfg.NewAlbedo == nil {
+		cfg.NewCorrection = nil
+	}
+	if c.Correction && cfg.NewAlbedo != nil && cfg.NewCorrection == nil {
 		a := r.s.Albedo.Value
 		acfg := albedo.Config{Reflectance: albedo.Uniform{Albedo: a}, Cells: r.s.Albedo.Cells,
 			AltitudeKm: r.s.Orbit.SemiMajorAxisKm - orbit.RadiusEarthKm}
@@ -292,6 +298,9 @@ func metricOf(res *sim.Result) (Metric, error) {
 		st := e.ErrNoAlbedo
 		if e.ErrAlbedo.N > 0 {
 			st = e.ErrAlbedo
+		}
+		if e.Corrected != nil {
+			st = e.Corrected.Err
 		}
 		if st.N == 0 {
 			return m, fmt.Errorf("budget: unit %d: %w from %s; the layout or attitude cannot give a budget", u.Unit, ErrNoValid, e.Name)

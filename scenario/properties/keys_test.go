@@ -21,6 +21,9 @@ func fingerprint(res *sim.Result) string {
 		}
 		for _, e := range u.Estimators {
 			fmt.Fprintf(&b, " %s %v %v %v %v %v %v\n", e.Name, e.ValidFraction, e.ValidFractionNoAlbedo, e.ErrNoAlbedo, e.ErrAlbedo, e.AlbedoPart, e.WrongFraction)
+			if k := e.Corrected; k != nil {
+				fmt.Fprintf(&b, "  corrected %v %v %v\n", k.ValidFraction, k.Err, k.ResidualPart)
+			}
 		}
 	}
 	return b.String()
@@ -146,6 +149,52 @@ func TestEveryAcceptedKeyHasAnEffect(t *testing.T) {
 			if fingerprint(r) == want {
 				showOnFailure(t, f.YAML())
 				verdict(t, "key-has-effect "+c.key, []string{fmt.Sprintf("%s accepted and changed no figure of the run", c.key)})
+			}
+		})
+	}
+}
+
+// Every key of the on-board albedo model (albedo.onboard) changes the
+// corrected figures or is refused, from a base whose truth is zonal and
+// whose on-board model is uniform; adding the block to a file without one
+// adds the corrected figures.
+func TestEveryOnboardKeyHasAnEffect(t *testing.T) {
+	f64 := func(v float64) *float64 { return &v }
+	base := keyBase()
+	base.Albedo = randscenario.Albedo{Model: "zonal", Cells: 300, Onboard: &randscenario.OnboardAlbedo{Model: "uniform", Value: f64(0.3), Cells: 300}}
+	cases := []struct {
+		key  string
+		edit func(a *randscenario.Albedo)
+	}{
+		{"albedo.onboard (removed)", func(a *randscenario.Albedo) { a.Onboard = nil }},
+		{"albedo.onboard.value", func(a *randscenario.Albedo) { a.Onboard.Value = f64(0.2) }},
+		{"albedo.onboard.cells", func(a *randscenario.Albedo) { a.Onboard.Cells = 150 }},
+		{"albedo.onboard.model zonal", func(a *randscenario.Albedo) { a.Onboard.Model, a.Onboard.Value = "zonal", nil }},
+		{"albedo.onboard.model none", func(a *randscenario.Albedo) { a.Onboard.Model, a.Onboard.Value = "none", nil }},
+		{"albedo.onboard.model grid, grid_file", func(a *randscenario.Albedo) {
+			a.Onboard.Model, a.Onboard.Value, a.Onboard.GridFile = "grid", nil, gridFile(t)
+		}},
+	}
+	_, res := mustRun(t, base)
+	want := fingerprint(res)
+	if !strings.Contains(want, "corrected") {
+		t.Fatal("the base with an on-board model has no corrected figures")
+	}
+	for _, c := range cases {
+		t.Run(c.key, func(t *testing.T) {
+			f := base.Clone()
+			c.edit(&f.Albedo)
+			b, err := build(f)
+			if err != nil {
+				t.Fatalf("refused: %v", err)
+			}
+			r, err := run(b.cfg)
+			if err != nil {
+				t.Fatalf("check accepted, run failed: %v", err)
+			}
+			if fingerprint(r) == want {
+				showOnFailure(t, f.YAML())
+				t.Errorf("%s accepted and changed no figure of the run", c.key)
 			}
 		})
 	}

@@ -63,6 +63,23 @@ const localTableMaxSensors = 8
 // variable so tests can use them on short runs.
 var boresightMinWork = 20_000
 
+// albedoTables are the tables of the truth's albedo model and of the
+// on-board model (nil where none serves).
+type albedoTables struct{ truth, onboard *localAlbedo }
+
+// newAlbedoTables returns the tables of the truth's model and, with an
+// on-board model, of that one: the same rules decide for both, so a
+// prediction by the truth's own model goes the truth's route.
+func newAlbedoTables(cfg *Config, steps, sets int) albedoTables {
+	t := albedoTables{truth: newAlbedoTable(cfg, steps, sets)}
+	if cfg.NewAlbedo != nil && cfg.NewCorrection != nil {
+		c := *cfg
+		c.NewAlbedo = cfg.NewCorrection
+		t.onboard = newAlbedoTable(&c, steps, sets)
+	}
+	return t
+}
+
 // newAlbedoTable returns the table that serves the run, or nil (the loop
 // integrates every step). sets is the number of geometries the run
 // computes per step (1 when the units share one attitude).

@@ -274,7 +274,7 @@ func TestDigitalBlindingRule(t *testing.T) {
 func TestBodiesStepAllocatesNothing(t *testing.T) {
 	cfg := bodiesCase(t, 550, attitude.Nadir{}, 3600,
 		digitalAt(t, "d", r3.Vec{Y: 1}, 40, sensor.BlindRule{Earth: true, Moon: true}), cosineAt(t, "c", r3.Vec{Z: 1}, 60))
-	g, err := newGeometry(&cfg, cfg.Array, 0, nil)
+	g, err := newGeometry(&cfg, cfg.Array, 0, albedoTables{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -283,8 +283,8 @@ func TestBodiesStepAllocatesNothing(t *testing.T) {
 	alb := make([]sensor.Albedo, cfg.Array.Len())
 	k := 0
 	if n := testing.AllocsPerRun(2000, func() {
-		sg := g.step(k%cfg.Steps(), alb)
-		r.bodiesInView(&sg.bodies, vw.at(&sg, alb))
+		sg := g.step(k%cfg.Steps(), alb, nil)
+		r.bodiesInView(&sg.bodies, vw.at(&sg, alb, nil))
 		k++
 	}); n != 0 {
 		t.Errorf("%v allocations per step", n)

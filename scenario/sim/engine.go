@@ -65,11 +65,14 @@ type Config struct {
 	// cone reaches behind that plane is clipped by it. Nil: no clipping.
 	MountNormals []r3.Vec
 
-	// NewCorrection, when set with NewAlbedo, is the albedo model the
-	// flight software would use to correct its cosine readings: the
-	// estimators then see readings whose albedo part is the truth minus
-	// this model's prediction (the "with albedo" figures become "with
-	// corrected albedo"). Two-axis sensors are not corrected.
+	// NewCorrection, when set with NewAlbedo, is the on-board albedo
+	// model: the flight software subtracts its prediction from the
+	// realistic readings of the sensors that take it (AlbedoSubtracter:
+	// the cosine kind) and the estimators run a third time on the result,
+	// beside the readings without albedo and with it (EstimatorStats.
+	// Corrected). The prediction is made on the true position, sun and
+	// attitude: the residual isolates the model's error from navigation
+	// errors. Two-axis sensors pass uncorrected.
 	NewCorrection func() (*albedo.Model, error)
 	// NoAlbedoTable turns off the precomputed albedo table that long
 	// nadir-pointing runs with a uniform albedo use instead of the cell
@@ -264,9 +267,9 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	if cfg.LawForUnit != nil {
 		sets = units
 	}
-	table := newAlbedoTable(&cfg, steps, sets)
-	res.AlbedoTable = table != nil
-	res.albedoBoresight = table != nil && table.bore != nil
+	tables := newAlbedoTables(&cfg, steps, sets)
+	res.AlbedoTable = tables.truth != nil
+	res.albedoBoresight = tables.truth != nil && tables.truth.bore != nil
 
 	// Each unit's errors are drawn once, before its chunks run.
 	arrays := make([]*sensor.Array, units)
@@ -301,7 +304,7 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	for range min(workers, nTasks) {
 		wg.Go(func() {
 			for tk := range next {
-				as, err := runChunk(ctx, &cfg, arrays, tk, &done, units*steps, table)
+				as, err := runChunk(ctx, &cfg, arrays, tk, &done, units*steps, tables)
 				mu.Lock()
 				if err != nil && firstErr == nil {
 					firstErr = err

@@ -33,7 +33,7 @@ func TestFilterStepAllocatesNothing(t *testing.T) {
 	cfg := referenceCase(t, 0.01, false)
 	cfg.Array = noisyFaceArray(t, 70)
 	cfg.Filter = filterConfig()
-	g, err := newGeometry(&cfg, cfg.Array, 0, nil)
+	g, err := newGeometry(&cfg, cfg.Array, 0, albedoTables{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -41,8 +41,8 @@ func TestFilterStepAllocatesNothing(t *testing.T) {
 	r := newReader(&cfg, cfg.Array, 0, 0)
 	k := 0
 	if n := testing.AllocsPerRun(50, func() {
-		sg := g.step(k, nil)
-		r.step(k, &sg, w.at(&sg, nil))
+		sg := g.step(k, nil, nil)
+		r.step(k, &sg, w.at(&sg, nil, nil))
 		k++
 	}); n != 0 {
 		t.Errorf("a step with the filter allocates %.1f times", n)

@@ -32,6 +32,11 @@ type Headline struct {
 	// OrbitAvgPowerW is the time-average solar-array power over the run
 	// (nominal attitude; NaN without panels).
 	OrbitAvgPowerW float64 `json:"orbit_average_power_w"`
+	// P95CorrectedDeg and P95ResidualPartDeg are the primary estimator's
+	// p95 error after the on-board albedo correction and the p95 albedo
+	// part it leaves (NaN without an on-board model).
+	P95CorrectedDeg    float64 `json:"p95_error_onboard_corrected_deg"`
+	P95ResidualPartDeg float64 `json:"p95_residual_albedo_part_deg"`
 }
 
 // Headline returns the run's headline figures.
@@ -43,6 +48,7 @@ func (r *Result) Headline() Headline {
 		BetaMinDeg: u.BetaMinDeg, BetaMaxDeg: u.BetaMaxDeg,
 		Seen1: u.SeenAtLeast[1], Seen2: u.SeenAtLeast[2], Seen3: u.SeenAtLeast[3],
 		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction, OrbitAvgPowerW: math.NaN(),
+		P95CorrectedDeg: math.NaN(), P95ResidualPartDeg: math.NaN(),
 	}
 	if r.Power != nil {
 		h.OrbitAvgPowerW = r.Power.MeanW
@@ -60,6 +66,9 @@ func (r *Result) Headline() Headline {
 	h.MaxErrorDeg = e.ErrNoAlbedo.MaxDeg
 	if e.ErrAlbedo.N > 0 {
 		h.MaxErrorDeg = e.ErrAlbedo.MaxDeg
+	}
+	if k := e.Corrected; k != nil {
+		h.P95CorrectedDeg, h.P95ResidualPartDeg = k.Err.P95Deg, k.ResidualPart.P95Deg
 	}
 	if len(r.AcrossUnits) > 0 {
 		h.UnitsP95Deg = r.AcrossUnits[0].P95OfUnitP95Deg

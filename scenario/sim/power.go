@@ -14,7 +14,7 @@ import (
 func powerPass(ctx context.Context, cfg *Config) (*power.Summary, *PowerSeries, *PowerSeries, error) {
 	c := *cfg
 	c.NewAlbedo, c.NewCorrection, c.LawForUnit = nil, nil, nil
-	g, err := newGeometry(&c, cfg.Array, 0, nil)
+	g, err := newGeometry(&c, cfg.Array, 0, albedoTables{})
 	if err != nil {
 		return nil, nil, nil, err
 	}
@@ -35,7 +35,7 @@ func powerPass(ctx context.Context, cfg *Config) (*power.Summary, *PowerSeries, 
 		if k&4095 == 0 && ctx.Err() != nil {
 			return nil, nil, nil, ctx.Err()
 		}
-		sg := g.step(k, nil)
+		sg := g.step(k, nil, nil)
 		p := cfg.Panels.Power(sg.sunBody, sg.direct)
 		tr.Add(sg.t, p)
 		if ser != nil && k%stride == 0 {

@@ -167,15 +167,15 @@ func TestPowerStepAllocatesNothing(t *testing.T) {
 		t.Fatal(err)
 	}
 	cfg.Panels = arr
-	g, err := newGeometry(&cfg, cfg.Array, 0, nil)
+	g, err := newGeometry(&cfg, cfg.Array, 0, albedoTables{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	tr := power.NewTracker(cfg.Step, 5700, cfg.Duration)
 	k := 0
-	g.step(0, nil)
+	g.step(0, nil, nil)
 	if n := testing.AllocsPerRun(2000, func() {
-		sg := g.step(k%1000, nil)
+		sg := g.step(k%1000, nil, nil)
 		tr.Add(sg.t, cfg.Panels.Power(sg.sunBody, sg.direct))
 		k++
 	}); n != 0 {

@@ -150,8 +150,29 @@ type EstimatorStats struct {
 	// fire in sunlight, where the umbra measure cannot for a spherical
 	// Earth (see the package doc).
 	AlbedoOnlyFraction, WrongFraction float64
+	// Corrected holds the figures of the readings after the on-board
+	// albedo model's prediction is subtracted (Config.NewCorrection); nil
+	// without an on-board model.
+	Corrected *CorrectedStats
 
 	errNo, errAlb *Quantiles // for CDF figures
+}
+
+// CorrectedStats are one estimator's figures on the readings corrected by
+// the on-board albedo model, against the same truth as the others.
+type CorrectedStats struct {
+	// ValidFraction is the fraction of sunlit time with a valid estimate
+	// from the corrected readings (a correction can push a sensor below its
+	// threshold or fail a gate).
+	ValidFraction float64
+	// Err is the error to the true sun direction over sunlit valid samples.
+	Err ErrorStats
+	// ResidualPart is the angle between the corrected estimate and the
+	// estimate without albedo, where both are valid: the albedo error the
+	// correction leaves (AlbedoPart is the same before correction). It is
+	// zero to rounding when the on-board model is the truth's own and the
+	// readings are linear (no ADC, no saturation): perfect by construction.
+	ResidualPart ErrorStats
 }
 
 // ErrorCDF returns up to n points of the error CDF (degrees, fraction),
@@ -221,13 +242,17 @@ type estAcc struct {
 	// Sunlit samples valid only with albedo, and valid with an error above
 	// the false-sun bound.
 	albedoOnly, wrong int
+	// The corrected readings (nil quantiles without an on-board model).
+	validCorr     int
+	mCorr, mResid Moments
+	qCorr, qResid *Quantiles
 }
 
 // unitAcc accumulates one unit's figures in constant memory (except the
 // gap list, bounded by the number of gaps, and the optional series).
 type unitAcc struct {
 	cfg                       *Config
-	albedo                    bool
+	albedo, corrected         bool
 	samples, sunlit, pen, umb int
 	seenAtLeast               [4]int
 	inView                    []int
@@ -259,9 +284,9 @@ type unitAcc struct {
 	filter  *FilterStats
 }
 
-func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float64) *unitAcc {
+func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first bool, t0 float64) *unitAcc {
 	n := arr.Len()
-	a := &unitAcc{cfg: cfg, albedo: withAlbedo, inView: make([]int, n), peak: make([]float64, n),
+	a := &unitAcc{cfg: cfg, albedo: withAlbedo, corrected: corrected, inView: make([]int, n), peak: make([]float64, n),
 		moonInView: make([]int, n), litEarthInView: make([]int, n), blinded: make([]int, n), canBlind: make([]bool, n),
 		saturated: make([]int, n), falseSunSensor: make([]int, n), est: make([]estAcc, len(cfg.Estimators)),
 		sensorAlbedoOnly: make([]int, n), sensorWrong: make([]int, n), twoAxis: make([]bool, n),
@@ -274,6 +299,9 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float
 	}
 	for i := range a.est {
 		a.est[i] = estAcc{gaps: NewSpells(t0), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
+		if corrected {
+			a.est[i].qCorr, a.est[i].qResid = NewQuantiles(), NewQuantiles()
+		}
 	}
 	if first {
 		if cfg.SeriesStride > 0 {
@@ -289,9 +317,10 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, first bool, t0 float
 	return a
 }
 
-// step folds one sample in. readAlb is ignored without an albedo model.
+// step folds one sample in. readAlb is ignored without an albedo model,
+// readCorr (the readings corrected on board) without an on-board model.
 func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen int, sunBody, nadirBody r3.Vec,
-	sinBeta float64, readNo, readAlb []sensor.Reading, arr *sensor.Array, ests []sensor.Estimator) {
+	sinBeta float64, readNo, readAlb, readCorr []sensor.Reading, arr *sensor.Array, ests []sensor.Estimator) {
 	a.samples++
 	sunlit := region == illum.Sunlit
 	switch region {
@@ -389,6 +418,9 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 					}
 				}
 			}
+			if a.corrected {
+				ea.corrected(gate.Apply(e.Estimate(arr, readCorr)), eNo, sunBody)
+			}
 		} else {
 			ea.gaps.Observe(t, false)
 			if region == illum.Umbra && eAlb.Valid {
@@ -453,6 +485,23 @@ func (s *Series) extend(t *Series) {
 	s.Signals = append(s.Signals, t.Signals...)
 }
 
+// corrected folds in a sunlit sample's estimate from the corrected
+// readings, beside the estimate without albedo eNo.
+func (ea *estAcc) corrected(eCorr, eNo sensor.Estimate, sunBody r3.Vec) {
+	if !eCorr.Valid {
+		return
+	}
+	ea.validCorr++
+	d := degOf(angleBetween(eCorr.Dir, sunBody))
+	ea.mCorr.Add(d)
+	ea.qCorr.Add(d)
+	if eNo.Valid {
+		p := degOf(angleBetween(eCorr.Dir, eNo.Dir))
+		ea.mResid.Add(p)
+		ea.qResid.Add(p)
+	}
+}
+
 // end closes the accumulator's piece of grid at tEnd.
 func (a *unitAcc) end(tEnd float64) {
 	for i := range a.est {
@@ -499,6 +548,13 @@ func (a *unitAcc) merge(b *unitAcc) {
 		x.wrong += y.wrong
 		x.mFalse.Merge(&y.mFalse)
 		x.qFalse.Merge(y.qFalse)
+		if a.corrected {
+			x.validCorr += y.validCorr
+			x.mCorr.Merge(&y.mCorr)
+			x.mResid.Merge(&y.mResid)
+			x.qCorr.Merge(y.qCorr)
+			x.qResid.Merge(y.qResid)
+		}
 	}
 	if a.series != nil && b.series != nil {
 		a.series.extend(b.series)
@@ -519,6 +575,10 @@ func (a *unitAcc) release() {
 		e.qAlb.release()
 		e.qPart.release()
 		e.qFalse.release()
+		if a.corrected {
+			e.qCorr.release()
+			e.qResid.release()
+		}
 	}
 }
 
@@ -571,6 +631,10 @@ func (a *unitAcc) result() *UnitResult {
 			AlbedoOnlyFraction: frac(ea.albedoOnly, a.sunlit), WrongFraction: frac(ea.wrong, a.sunlit)}
 		if !a.albedo {
 			es.errAlb = nil
+		}
+		if a.corrected {
+			es.Corrected = &CorrectedStats{ValidFraction: frac(ea.validCorr, a.sunlit),
+				Err: errorStats(&ea.mCorr, ea.qCorr), ResidualPart: errorStats(&ea.mResid, ea.qResid)}
 		}
 		r.Estimators = append(r.Estimators, es)
 	}

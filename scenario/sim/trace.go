@@ -24,6 +24,7 @@ type Trace struct {
 	cfg     Config // Array, Viewers, Blocked, AlbedoResponse: all candidates
 	geom    []stepGeom
 	albedo  [][]sensor.Albedo // [step][candidate]; nil without albedo
+	pred    [][]sensor.Albedo // the on-board model's prediction; nil without one
 	result  Result            // eclipses of the span
 	sensors []sensor.Sensor
 }
@@ -42,16 +43,15 @@ func NewTrace(ctx context.Context, cfg Config) (*Trace, error) {
 	tr := &Trace{cfg: cfg, geom: make([]stepGeom, steps), sensors: cfg.Array.Sensors()}
 	tr.result.Steps, tr.result.StepS, tr.result.DurationS = steps, cfg.Step, cfg.Duration
 	tr.result.Eclipses, tr.result.EclipseStats = eclipses(&cfg)
-	g, err := newGeometry(&cfg, cfg.Array, 0, nil)
+	g, err := newGeometry(&cfg, cfg.Array, 0, albedoTables{})
 	if err != nil {
 		return nil, err
 	}
 	n := cfg.Array.Len()
 	if cfg.NewAlbedo != nil {
-		tr.albedo = make([][]sensor.Albedo, steps)
-		flat := make([]sensor.Albedo, steps*n)
-		for k := range tr.albedo {
-			tr.albedo[k] = flat[k*n : (k+1)*n : (k+1)*n]
+		tr.albedo = perStep(steps, n)
+		if cfg.NewCorrection != nil {
+			tr.pred = perStep(steps, n)
 		}
 	}
 	scratch := make([]sensor.Albedo, n)
@@ -59,21 +59,38 @@ func NewTrace(ctx context.Context, cfg Config) (*Trace, error) {
 		if k&1023 == 0 && ctx.Err() != nil {
 			return nil, ctx.Err()
 		}
-		alb := scratch
+		alb, pred := scratch, scratch
 		if tr.albedo != nil {
 			alb = tr.albedo[k]
 		}
-		tr.geom[k] = g.step(k, alb)
+		if tr.pred != nil {
+			pred = tr.pred[k]
+		}
+		tr.geom[k] = g.step(k, alb, pred)
 	}
 	return tr, nil
 }
 
+// perStep returns steps rows of n albedo values over one backing array.
+func perStep(steps, n int) [][]sensor.Albedo {
+	rows := make([][]sensor.Albedo, steps)
+	flat := make([]sensor.Albedo, steps*n)
+	for k := range rows {
+		rows[k] = flat[k*n : (k+1)*n : (k+1)*n]
+	}
+	return rows
+}
+
 // TraceBytes is the memory NewTrace(cfg) keeps: every step's geometry and,
-// with an albedo model, each candidate's albedo.
+// with an albedo model, each candidate's albedo (and the on-board model's
+// prediction of it).
 func TraceBytes(cfg *Config) int64 {
 	per := int64(unsafe.Sizeof(stepGeom{}))
 	if cfg.NewAlbedo != nil && cfg.Array != nil {
 		per += int64(cfg.Array.Len()) * int64(unsafe.Sizeof(sensor.Albedo{}))
+		if cfg.NewCorrection != nil {
+			per += int64(cfg.Array.Len()) * int64(unsafe.Sizeof(sensor.Albedo{}))
+		}
 	}
 	return int64(cfg.Steps()) * per
 }
@@ -140,7 +157,7 @@ func (tr *Trace) RunArray(ctx context.Context, arr *sensor.Array, withAlbedo boo
 	cfg := tr.cfg
 	cfg.Array = arr
 	if !withAlbedo {
-		cfg.NewAlbedo = nil
+		cfg.NewAlbedo, cfg.NewCorrection = nil, nil
 	}
 	all := make([]int, arr.Len())
 	for i := range all {
@@ -170,6 +187,7 @@ func (tr *Trace) replay(ctx context.Context, cfg *Config, subset []int, units, w
 	for range min(workers, units) {
 		wg.Go(func() {
 			albSub := make([]sensor.Albedo, len(subset))
+			predSub := make([]sensor.Albedo, len(subset))
 			for {
 				u := int(next.Add(1) - 1)
 				if u >= units {
@@ -189,7 +207,12 @@ func (tr *Trace) replay(ctx context.Context, cfg *Config, subset []int, units, w
 							albSub[j] = tr.albedo[k][i]
 						}
 					}
-					r.step(k, &tr.geom[k], vw.at(&tr.geom[k], albSub))
+					if tr.pred != nil && cfg.NewCorrection != nil {
+						for j, i := range subset {
+							predSub[j] = tr.pred[k][i]
+						}
+					}
+					r.step(k, &tr.geom[k], vw.at(&tr.geom[k], albSub, predSub))
 				}
 				r.acc.end(float64(len(tr.geom)) * cfg.Step)
 				if r.filt != nil {

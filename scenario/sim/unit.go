@@ -60,10 +60,9 @@ type geometry struct {
 	states          []orbit.State // the block of steps [blk0, blk0+len)
 	blk0            int
 	alb, corr       *albedo.Model
-	table           *localAlbedo
+	table, corrTab  *localAlbedo
 	jd0, jdUT0      float64
 	boresights      []r3.Vec
-	cosine          []bool
 	albIn           []albedo.Sensor
 	albOut, corrOut []albedo.Result
 	// Sensors whose albedo runs through their own cell responses (quadrant
@@ -81,8 +80,8 @@ type geometry struct {
 	ownOut  []albedo.Result
 }
 
-func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*geometry, error) {
-	g := &geometry{cfg: cfg, prop: cfg.NewPropagator(), table: table.clone(),
+func newGeometry(cfg *Config, arr *sensor.Array, u int, tables albedoTables) (*geometry, error) {
+	g := &geometry{cfg: cfg, prop: cfg.NewPropagator(), table: tables.truth.clone(), corrTab: tables.onboard.clone(),
 		jd0: ephem.JulianDateTT(cfg.Epoch), jdUT0: ephem.JulianDateUT1(cfg.Epoch)}
 	g.sun = newSunCache(cfg.Sun, g.jd0)
 	g.moon = newMoonCache(g.jd0)
@@ -95,7 +94,6 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, table *localAlbedo) (*ge
 	n := arr.Len()
 	for _, s := range arr.Sensors() {
 		g.boresights = append(g.boresights, s.Mount().Boresight())
-		g.cosine = append(g.cosine, !sensor.IsTwoAxis(s))
 	}
 	if cfg.NewAlbedo != nil {
 		m, err := cfg.NewAlbedo()
@@ -157,8 +155,9 @@ func (g *geometry) state(k int) orbit.State {
 }
 
 // step computes step k; with an albedo model it fills albBody (one entry per
-// sensor). It allocates nothing.
-func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
+// sensor), and with an on-board model too predBody (that model's
+// prediction on the same sensors). It allocates nothing.
+func (g *geometry) step(k int, albBody, predBody []sensor.Albedo) stepGeom {
 	cfg := g.cfg
 	t := float64(k) * cfg.Step
 	st := g.state(k)
@@ -190,32 +189,47 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 		g.albIn[i].Plane = M.toECI(g.clipN[k])
 	}
 	gmst := ephem.GMST(g.jdUT0 + t/86400)
-	if g.table == nil || !g.table.irradiance(g.albOut, st, sunU, sunD, g.albIn) {
-		g.alb.Irradiance(g.albOut, st.R, sunU, sunD, gmst, jd, g.albIn)
-	} else if len(g.own) > 0 {
-		// The tables hold whole cones: the cell sensors and the cones cut
-		// by their mounting plane are integrated on their own.
-		for k, i := range g.own {
-			g.ownIn[k] = g.albIn[i]
-		}
-		g.alb.Irradiance(g.ownOut, st.R, sunU, sunD, gmst, jd, g.ownIn)
-		for k, i := range g.own {
-			g.albOut[i] = g.ownOut[k]
-		}
-	}
+	g.integrate(g.alb, g.table, g.albOut, st, sunU, sunD, gmst, jd)
+	toBody(albBody, g.albOut, &M)
 	if g.corr != nil {
-		g.corr.Irradiance(g.corrOut, st.R, sunU, sunD, gmst, jd, g.albIn)
-	}
-	for i := range g.albOut {
-		albBody[i] = sensor.Albedo{Irradiance: g.albOut[i].Irradiance, Cells: g.albOut[i].Cells}
-		if g.albOut[i].Irradiance > 0 {
-			albBody[i].Dir = M.toBody(g.albOut[i].Dir)
-		}
-		if g.corr != nil && g.cosine[i] {
-			albBody[i].Irradiance -= g.corrOut[i].Irradiance
-		}
+		// The on-board model's prediction, by the same route as the truth
+		// (a table when one serves it), so that the same model predicts
+		// the same numbers.
+		g.integrate(g.corr, g.corrTab, g.corrOut, st, sunU, sunD, gmst, jd)
+		toBody(predBody, g.corrOut, &M)
 	}
 	return sg
+}
+
+// integrate fills out with model m's albedo on the sensors, from table t
+// when it serves the step. The tables hold whole cones: the cell sensors and
+// the cones cut by their mounting plane are then integrated on their own.
+func (g *geometry) integrate(m *albedo.Model, t *localAlbedo, out []albedo.Result, st orbit.State, sunU r3.Vec, sunD, gmst, jd float64) {
+	if t == nil || !t.irradiance(out, st, sunU, sunD, g.albIn) {
+		m.Irradiance(out, st.R, sunU, sunD, gmst, jd, g.albIn)
+		return
+	}
+	if len(g.own) == 0 {
+		return
+	}
+	for k, i := range g.own {
+		g.ownIn[k] = g.albIn[i]
+	}
+	m.Irradiance(g.ownOut, st.R, sunU, sunD, gmst, jd, g.ownIn)
+	for k, i := range g.own {
+		out[i] = g.ownOut[k]
+	}
+}
+
+// toBody turns the albedo model's results (directions in ECI) into the
+// sensors' albedo in body axes.
+func toBody(dst []sensor.Albedo, res []albedo.Result, M *bodyMatrix) {
+	for i := range res {
+		dst[i] = sensor.Albedo{Irradiance: res[i].Irradiance, Cells: res[i].Cells}
+		if res[i].Irradiance > 0 {
+			dst[i].Dir = M.toBody(res[i].Dir)
+		}
+	}
 }
 
 // stepView is what every unit of a task sees alike at one step, from the
@@ -225,6 +239,7 @@ func (g *geometry) step(k int, albBody []sensor.Albedo) stepGeom {
 type stepView struct {
 	sunBlocked []bool          // nil: nothing is ever blocked
 	albSeen    []sensor.Albedo // nil without albedo
+	predSeen   []sensor.Albedo // the on-board prediction past the body; nil without one
 	sees       []bool
 	seen       int
 	// moonIn, litEarthIn: the Moon, the lit Earth in each sensor's cone
@@ -252,6 +267,9 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 	}
 	if cfg.NewAlbedo != nil {
 		w.v.albSeen = make([]sensor.Albedo, n)
+		if cfg.NewCorrection != nil {
+			w.v.predSeen = make([]sensor.Albedo, n)
+		}
 	}
 	for i, s := range arr.Sensors() {
 		if cfg.Viewers != nil {
@@ -268,21 +286,19 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 }
 
 // at returns the view of a step whose geometry is g and whose albedo per
-// sensor is albBody (ignored without albedo). A sensor whose view of the sun
-// is blocked by the body gets no direct light; its albedo is dropped when
-// the mean arrival direction is blocked (a first approximation: a partly
-// blocked Earth is not split).
-func (w *viewer) at(g *stepGeom, albBody []sensor.Albedo) *stepView {
+// sensor is albBody (ignored without albedo), predBody the on-board model's
+// prediction (ignored without one). A sensor whose view of the sun is
+// blocked by the body gets no direct light; its albedo is dropped when the
+// mean arrival direction is blocked (a first approximation: a partly
+// blocked Earth is not split). The prediction is blocked by the same rule:
+// the flight software knows its own spacecraft.
+func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 	v := &w.v
 	for i := range v.sunBlocked {
 		v.sunBlocked[i] = w.blocked[i] != nil && w.blocked[i](g.sunBody)
 	}
-	for i := range v.albSeen {
-		v.albSeen[i] = albBody[i]
-		if w.blocked != nil && w.blocked[i] != nil && albBody[i].Irradiance > 0 && w.blocked[i](albBody[i].Dir) {
-			v.albSeen[i] = sensor.Albedo{}
-		}
-	}
+	w.pastBody(v.albSeen, albBody)
+	w.pastBody(v.predSeen, predBody)
 	v.seen = 0
 	sunlit := g.region == illum.Sunlit
 	for i, sees := range w.sees {
@@ -322,6 +338,17 @@ func (g *geometry) bodies(sg *stepGeom, M *bodyMatrix, r, sunU r3.Vec, sunD floa
 	b.MoonHidden = r3.Dot(b.MoonDir, b.NadirDir) >= b.EarthCos*b.MoonCos+b.EarthSin*b.MoonSin
 }
 
+// pastBody copies each sensor's albedo into dst (nil: none to copy),
+// dropped where the body blocks its mean arrival direction.
+func (w *viewer) pastBody(dst, albBody []sensor.Albedo) {
+	for i := range dst {
+		dst[i] = albBody[i]
+		if w.blocked != nil && w.blocked[i] != nil && albBody[i].Irradiance > 0 && w.blocked[i](albBody[i].Dir) {
+			dst[i] = sensor.Albedo{}
+		}
+	}
+}
+
 // reader reads one unit's sensors on a step's geometry and folds the result
 // into its accumulator.
 type reader struct {
@@ -344,6 +371,11 @@ type reader struct {
 	// its temperature at the step (°C).
 	warm  []sensor.Warm
 	temps []float64
+	// With an on-board albedo model: the readings after its prediction is
+	// subtracted (readCorr) and each sensor's subtraction (nil: a kind the
+	// flight software does not correct, whose reading passes unchanged).
+	readCorr  []sensor.Reading
+	subtracts []sensor.AlbedoSubtracter
 }
 
 func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
@@ -371,10 +403,17 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 			r.blinders, r.blindable = append(r.blinders, i), append(r.blindable, b)
 		}
 	}
+	if r.withAlbedo && cfg.NewCorrection != nil {
+		r.readCorr = make([]sensor.Reading, n)
+		for _, s := range arr.Sensors() {
+			sub, _ := s.(sensor.AlbedoSubtracter)
+			r.subtracts = append(r.subtracts, sub)
+		}
+	}
 	if cfg.Filter != nil {
 		r.filt = newGyroFilter(cfg, cfg.Array, u)
 	}
-	r.acc = newUnitAcc(cfg, arr, r.withAlbedo, u == 0, float64(k0)*cfg.Step)
+	r.acc = newUnitAcc(cfg, arr, r.withAlbedo, r.readCorr != nil, u == 0, float64(k0)*cfg.Step)
 	r.acc.unit, r.acc.k0 = u, k0
 	return r
 }
@@ -417,12 +456,15 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 		}
 	}
 	r.bodiesInView(&g.bodies, v)
+	if r.readCorr != nil {
+		r.subtractPrediction(v.predSeen)
+	}
 	for i, s := range v.sees {
 		if s {
 			r.acc.inView[i]++
 		}
 	}
-	r.acc.step(k, g.t, g.region, g.lit, v.seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.arr, r.ests)
+	r.acc.step(k, g.t, g.region, g.lit, v.seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.readCorr, r.arr, r.ests)
 	if r.filt != nil {
 		real := r.readNo
 		if r.withAlbedo {
@@ -452,13 +494,26 @@ func (r *reader) bodiesInView(b *sensor.Bodies, v *stepView) {
 	}
 }
 
+// subtractPrediction forms the corrected readings: each correctable
+// sensor's realistic reading less the on-board prediction pred (past the
+// body). The other sensors' readings pass unchanged.
+func (r *reader) subtractPrediction(pred []sensor.Albedo) {
+	for i, sub := range r.subtracts {
+		if sub == nil {
+			r.readCorr[i] = r.readAlb[i]
+			continue
+		}
+		r.readCorr[i] = sub.SubtractAlbedo(r.readAlb[i], pred[i])
+	}
+}
+
 // runChunk simulates the steps [tk.k0, tk.k1) of units [tk.u0, tk.u1),
 // whose sensors (with their drawn errors) are arrays[u]: the geometry is
 // computed once per step (on the nominal mounts, with unit tk.u0's
 // attitude, the same for every unit of a task) and each unit's sensors are
 // read on it.
-func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task, done *atomic.Int64, total int, table *localAlbedo) ([]*unitAcc, error) {
-	g, err := newGeometry(cfg, arrays[tk.u0], tk.u0, table)
+func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task, done *atomic.Int64, total int, tables albedoTables) ([]*unitAcc, error) {
+	g, err := newGeometry(cfg, arrays[tk.u0], tk.u0, tables)
 	if err != nil {
 		return nil, err
 	}
@@ -467,6 +522,7 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 		readers[i] = newReader(cfg, arrays[tk.u0+i], tk.u0+i, tk.k0)
 	}
 	albBody := make([]sensor.Albedo, arrays[tk.u0].Len())
+	predBody := make([]sensor.Albedo, len(albBody))
 	vw := newViewer(cfg, arrays[tk.u0])
 	n := int64(len(readers))
 	for k := tk.k0; k < tk.k1; k++ {
@@ -478,8 +534,8 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 				cfg.Progress(float64(d) / float64(total))
 			}
 		}
-		sg := g.step(k, albBody)
-		v := vw.at(&sg, albBody)
+		sg := g.step(k, albBody, predBody)
+		v := vw.at(&sg, albBody, predBody)
 		for _, r := range readers {
 			r.step(k, &sg, v)
 		}

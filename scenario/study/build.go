@@ -401,26 +401,49 @@ func boxFaces(c, h r3.Vec) []sky.Obstacle {
 
 // AlbedoFactory returns the albedo model factory, nil for model "none".
 func AlbedoFactory(s *scenario.Scenario) (func() (*albedo.Model, error), error) {
-	m, err := albedo.LookupModel(s.Albedo.Model)
+	return albedoFactory(s, s.Albedo, "albedo")
+}
+
+// OnboardFactory returns the factory of the on-board albedo model
+// (albedo.onboard), nil without one. The on-board model "none" predicts no
+// albedo (a uniform reflectance of 0), so its corrected figures equal the
+// uncorrected ones and are still reported beside them.
+func OnboardFactory(s *scenario.Scenario) (func() (*albedo.Model, error), error) {
+	ob := s.Albedo.Onboard
+	if ob == nil {
+		return nil, nil
+	}
+	if ob.Model == scenario.AlbedoNone {
+		zero := *ob
+		zero.Model, zero.Value = scenario.AlbedoUniform, 0
+		return albedoFactory(s, zero, "albedo.onboard")
+	}
+	return albedoFactory(s, *ob, "albedo.onboard")
+}
+
+// albedoFactory returns the factory of the albedo model a (the file's block
+// at path), nil for model "none".
+func albedoFactory(s *scenario.Scenario, a scenario.Albedo, path string) (func() (*albedo.Model, error), error) {
+	m, err := albedo.LookupModel(a.Model)
 	if err != nil {
-		return nil, fmt.Errorf("albedo.model: %w", err)
+		return nil, fmt.Errorf("%s.model: %w", path, err)
 	}
 	if m.Reflectance == nil {
 		return nil, nil
 	}
-	refl, err := m.Reflectance(s.Albedo.Value, s.Albedo.GridFile)
+	refl, err := m.Reflectance(a.Value, a.GridFile)
 	if err != nil {
 		if m.TakesGrid {
-			return nil, fmt.Errorf("albedo.grid_file: %w", err)
+			return nil, fmt.Errorf("%s.grid_file: %w", path, err)
 		}
-		return nil, fmt.Errorf("albedo.value: %w", err)
+		return nil, fmt.Errorf("%s.value: %w", path, err)
 	}
-	cfg := albedo.Config{Reflectance: refl, Cells: s.Albedo.Cells, AltitudeKm: s.Orbit.SemiMajorAxisKm - orbit.RadiusEarthKm}
+	cfg := albedo.Config{Reflectance: refl, Cells: a.Cells, AltitudeKm: s.Orbit.SemiMajorAxisKm - orbit.RadiusEarthKm}
 	if s.Orbit.Eccentricity > 0 || s.Orbit.Kind == scenario.OrbitFile {
 		cfg.AltitudeKm = 0 // built at the first call and rebuilt as the radius changes
 	}
 	if _, err := albedo.New(cfg); err != nil {
-		return nil, fmt.Errorf("albedo: %w", err)
+		return nil, fmt.Errorf("%s: %w", path, err)
 	}
 	return func() (*albedo.Model, error) { return albedo.New(cfg) }, nil
 }
@@ -504,6 +527,10 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	if err != nil {
 		return cfg, err
 	}
+	onboard, err := OnboardFactory(s)
+	if err != nil {
+		return cfg, err
+	}
 	ests, err := EstimatorList(s, sensors)
 	if err != nil {
 		return cfg, err
@@ -522,7 +549,7 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	cfg = sim.Config{
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),
 		NewPropagator: newProp, Sun: sun, Cylindrical: ShadowModel(s) == illum.Cylindrical, Law: law, LawForUnit: lawForUnit(s, att),
-		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, AlbedoResponse: resp, Estimators: ests,
+		Array: arr, Viewers: viewers, Blocked: blocked, NewAlbedo: alb, NewCorrection: onboard, AlbedoResponse: resp, Estimators: ests,
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), FalseSunBoundDeg: s.Validity.FalseSunBoundDeg, Gates: Gates(s, ests),
 		MountNormals: mountNormals(sensors),
 		Panels:       panels,

@@ -3,6 +3,7 @@ package plots
 import (
 	"bytes"
 	_ "embed"
+	"errors"
 	"fmt"
 	"html/template"
 	"io"
@@ -123,10 +124,10 @@ func inlineSVG(b []byte) (template.HTML, error) {
 	b = xmlComment.ReplaceAll(b, nil)
 	b = bytes.TrimSpace(b)
 	if !bytes.HasPrefix(b, []byte("<svg")) || !bytes.HasSuffix(b, []byte("</svg>")) {
-		return "", fmt.Errorf("not an SVG document from Chart.SVG")
+		return "", errors.New("plots: not an SVG document from Chart.SVG")
 	}
 	if bytes.Contains(bytes.ToLower(b), []byte("<script")) {
-		return "", fmt.Errorf("SVG holds a script")
+		return "", errors.New("plots: the SVG holds a script")
 	}
 	return template.HTML(b), nil
 }

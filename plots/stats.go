@@ -1,6 +1,7 @@
 package plots
 
 import (
+	"errors"
 	"fmt"
 	"image/color"
 	"math"
@@ -149,7 +150,7 @@ func (s ErrSeries) cdf() (plotter.XYs, float64, error) {
 			}
 		}
 		if len(x) == 0 {
-			return nil, 0, fmt.Errorf("no finite samples")
+			return nil, 0, errors.New("plots: no finite error samples")
 		}
 		slices.Sort(x)
 		pts := make(plotter.XYs, len(x))
@@ -160,17 +161,17 @@ func (s ErrSeries) cdf() (plotter.XYs, float64, error) {
 	}
 	e, c := s.BinEdgesDeg, s.BinCounts
 	if len(e) != len(c)+1 || len(c) == 0 {
-		return nil, 0, fmt.Errorf("BinEdgesDeg needs one more entry than BinCounts (got %d and %d)", len(e), len(c))
+		return nil, 0, fmt.Errorf("plots: bin edges need one more entry than bin counts (got %d and %d)", len(e), len(c))
 	}
 	total := 0.0
 	for i, v := range c {
 		if !(v >= 0) || !(e[i+1] > e[i]) {
-			return nil, 0, fmt.Errorf("bin %d: counts must be ≥ 0 and edges increase", i)
+			return nil, 0, fmt.Errorf("plots: bin %d: counts must be ≥ 0 and edges increase", i)
 		}
 		total += v
 	}
 	if total == 0 {
-		return nil, 0, fmt.Errorf("all bins are empty")
+		return nil, 0, errors.New("plots: all bins are empty")
 	}
 	pts := plotter.XYs{{X: e[0], Y: 0}}
 	cum, p95 := 0.0, e[len(e)-1]

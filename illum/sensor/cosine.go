@@ -50,13 +50,13 @@ func NewCosine(s CosineSpec) (*Cosine, error) {
 		return nil, err
 	}
 	if !(s.HalfAngle > 0 && s.HalfAngle <= math.Pi/2) {
-		return nil, fmt.Errorf("sensor %q: half_angle = %g rad: want (0, 90°]", s.Name, s.HalfAngle)
+		return nil, fmt.Errorf("sensor: %q: half_angle = %g rad: want (0, 90°]", s.Name, s.HalfAngle)
 	}
 	if !(s.Threshold >= 0) || math.IsInf(s.Threshold, 0) {
-		return nil, fmt.Errorf("sensor %q: threshold = %g: want a finite value ≥ 0", s.Name, s.Threshold)
+		return nil, fmt.Errorf("sensor: %q: threshold = %g: want a finite value ≥ 0", s.Name, s.Threshold)
 	}
 	if !(s.RefIrradiance >= 0) || math.IsInf(s.RefIrradiance, 0) {
-		return nil, fmt.Errorf("sensor %q: ref_irradiance = %g: want W/m² > 0 (or 0 for the solar constant)", s.Name, s.RefIrradiance)
+		return nil, fmt.Errorf("sensor: %q: ref_irradiance = %g: want W/m² > 0 (or 0 for the solar constant)", s.Name, s.RefIrradiance)
 	}
 	if s.RefIrradiance == 0 {
 		s.RefIrradiance = SolarConstant
@@ -67,22 +67,22 @@ func NewCosine(s CosineSpec) (*Cosine, error) {
 	c := &Cosine{spec: s, cosHalf: math.Cos(s.HalfAngle), actual: s.Mount}
 	if len(s.RollOffAngle) > 0 || len(s.RollOffRel) > 0 {
 		if len(s.RollOffAngle) != len(s.RollOffRel) || len(s.RollOffAngle) < 2 {
-			return nil, fmt.Errorf("sensor %q: roll_off: want ≥ 2 (angle, relative response) pairs of equal length, got %d angles and %d values",
+			return nil, fmt.Errorf("sensor: %q: roll_off: want ≥ 2 (angle, relative response) pairs of equal length, got %d angles and %d values",
 				s.Name, len(s.RollOffAngle), len(s.RollOffRel))
 		}
 		for i, a := range s.RollOffAngle {
 			if i > 0 && !(a > s.RollOffAngle[i-1]) {
-				return nil, fmt.Errorf("sensor %q: roll_off angle %d (%g rad): want strictly increasing angles", s.Name, i, a)
+				return nil, fmt.Errorf("sensor: %q: roll_off angle %d (%g rad): want strictly increasing angles", s.Name, i, a)
 			}
 			if r := s.RollOffRel[i]; !(r >= 0) || math.IsInf(r, 0) {
-				return nil, fmt.Errorf("sensor %q: roll_off value %d (%g): want a finite relative response ≥ 0", s.Name, i, r)
+				return nil, fmt.Errorf("sensor: %q: roll_off value %d (%g): want a finite relative response ≥ 0", s.Name, i, r)
 			}
 		}
 		c.spec.RollOffAngle = slices.Clone(s.RollOffAngle)
 		c.spec.RollOffRel = slices.Clone(s.RollOffRel)
 		c.rolloff = new(interp.PiecewiseLinear)
 		if err := c.rolloff.Fit(c.spec.RollOffAngle, c.spec.RollOffRel); err != nil {
-			return nil, fmt.Errorf("sensor %q: roll_off: %v", s.Name, err)
+			return nil, fmt.Errorf("sensor: %q: roll_off: %v", s.Name, err)
 		}
 		c.lo, c.hi = s.RollOffAngle[0], s.RollOffAngle[len(s.RollOffAngle)-1]
 	}

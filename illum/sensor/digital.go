@@ -68,21 +68,21 @@ func NewDigital(s DigitalSpec) (*Digital, error) {
 		return nil, err
 	}
 	if !(s.HalfAngle > 0 && s.HalfAngle < math.Pi/2) {
-		return nil, fmt.Errorf("sensor %q: half-angle %g° is out of range; allowed (0°, 90°) for a digital sensor (its detector sits behind the aperture)", s.Name, s.HalfAngle*180/math.Pi)
+		return nil, fmt.Errorf("sensor: %q: half-angle %g° is out of range; allowed (0°, 90°) for a digital sensor (its detector sits behind the aperture)", s.Name, s.HalfAngle*180/math.Pi)
 	}
 	for _, f := range []struct {
 		key string
 		v   float64
 	}{{"sigma", s.Sigma}, {"min_irradiance", s.MinIrradiance}, {"albedo_threshold", s.AlbedoThreshold}, {"misalign_sigma", s.MisalignSigma}} {
 		if !(f.v >= 0) || math.IsInf(f.v, 0) {
-			return nil, fmt.Errorf("sensor %q: %s = %g: want a finite value ≥ 0", s.Name, f.key, f.v)
+			return nil, fmt.Errorf("sensor: %q: %s = %g: want a finite value ≥ 0", s.Name, f.key, f.v)
 		}
 	}
 	if s.Sigma == 0 {
-		return nil, fmt.Errorf("sensor %q: sigma = 0: state the 1σ accuracy per axis (rad, > 0)", s.Name)
+		return nil, fmt.Errorf("sensor: %q: sigma = 0: state the 1σ accuracy per axis (rad, > 0)", s.Name)
 	}
 	if b := s.Blind; b.Moon && !(b.MoonLitAbove >= 0 && b.MoonLitAbove < 1) || b.Earth && !(b.EarthDepthAbove >= 0 && b.EarthDepthAbove < math.Pi) {
-		return nil, fmt.Errorf("sensor %q: blinding thresholds: Moon lit fraction %g want [0, 1), Earth depth %g° want [0°, 180°)", s.Name, b.MoonLitAbove, b.EarthDepthAbove*180/math.Pi)
+		return nil, fmt.Errorf("sensor: %q: blinding thresholds: Moon lit fraction %g want [0, 1), Earth depth %g° want [0°, 180°)", s.Name, b.MoonLitAbove, b.EarthDepthAbove*180/math.Pi)
 	}
 	return &Digital{spec: s, tanMax: math.Tan(s.HalfAngle), cosMax: math.Cos(s.HalfAngle), actual: s.Mount}, nil
 }

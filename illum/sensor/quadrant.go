@@ -129,7 +129,7 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 	}
 	aperture := s.Geometry == GeometryAperture
 	if !aperture && s.Geometry != GeometryWall {
-		return nil, fmt.Errorf("sensor %q: geometry %d: want aperture or wall", s.Name, s.Geometry)
+		return nil, fmt.Errorf("sensor: %q: geometry %d: want aperture or wall", s.Name, s.Geometry)
 	}
 	for _, f := range []struct {
 		key string
@@ -146,18 +146,18 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 			if f.pos {
 				want = "> 0"
 			}
-			return nil, fmt.Errorf("sensor %q: %s = %g: want a finite value %s", s.Name, f.key, f.v, want)
+			return nil, fmt.Errorf("sensor: %q: %s = %g: want a finite value %s", s.Name, f.key, f.v, want)
 		}
 	}
 	if s.ImbalanceMargin >= 0.5 || s.DeadZoneImbalance >= 0.5 {
-		return nil, fmt.Errorf("sensor %q: imbalance_margin = %g, dead_zone_imbalance = %g: want [0, 0.5) (margins on an imbalance in [−1, 1])",
+		return nil, fmt.Errorf("sensor: %q: imbalance_margin = %g, dead_zone_imbalance = %g: want [0, 0.5) (margins on an imbalance in [−1, 1])",
 			s.Name, s.ImbalanceMargin, s.DeadZoneImbalance)
 	}
 	if s.DeadZone != DeadZoneStraightAbove && s.DeadZone != DeadZoneNoSun {
-		return nil, fmt.Errorf("sensor %q: dead zone reading %d: want straight-above or no-sun", s.Name, s.DeadZone)
+		return nil, fmt.Errorf("sensor: %q: dead zone reading %d: want straight-above or no-sun", s.Name, s.DeadZone)
 	}
 	if math.IsNaN(s.OffsetX) || math.IsNaN(s.OffsetY) || math.IsInf(s.OffsetX, 0) || math.IsInf(s.OffsetY, 0) {
-		return nil, fmt.Errorf("sensor %q: offset_x/offset_y: want finite lengths", s.Name)
+		return nil, fmt.Errorf("sensor: %q: offset_x/offset_y: want finite lengths", s.Name)
 	}
 	if s.RefIrradiance == 0 {
 		s.RefIrradiance = SolarConstant

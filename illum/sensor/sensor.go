@@ -151,17 +151,17 @@ func (e Errors) validate(name string) error {
 	}{{"misalign_sigma", e.MisalignSigma}, {"dark_sigma", e.DarkSigma}, {"gain_sigma", e.GainSigma},
 		{"noise_sigma", e.NoiseSigma}, {"full_scale", e.FullScale}} {
 		if !(f.v >= 0) || math.IsInf(f.v, 0) {
-			return fmt.Errorf("sensor %q: errors.%s = %g: want a finite value ≥ 0", name, f.key, f.v)
+			return fmt.Errorf("sensor: %q: errors.%s = %g: want a finite value ≥ 0", name, f.key, f.v)
 		}
 	}
 	if err := e.Thermal.validate(name); err != nil {
 		return err
 	}
 	if e.ADCBits < 0 || e.ADCBits > 32 {
-		return fmt.Errorf("sensor %q: errors.adc_bits = %d: want 0 (no ADC) to 32", name, e.ADCBits)
+		return fmt.Errorf("sensor: %q: errors.adc_bits = %d: want 0 (no ADC) to 32", name, e.ADCBits)
 	}
 	if e.ADCBits > 0 && e.FullScale == 0 {
-		return fmt.Errorf("sensor %q: errors.adc_bits = %d needs errors.full_scale > 0", name, e.ADCBits)
+		return fmt.Errorf("sensor: %q: errors.adc_bits = %d needs errors.full_scale > 0", name, e.ADCBits)
 	}
 	return nil
 }
@@ -264,7 +264,7 @@ func ViewText(s Sensor) string {
 
 func checkMount(name string, m Mount) error {
 	if !m.defined {
-		return fmt.Errorf("sensor %q: mount: not set; build it with FaceMount or VectorMount", name)
+		return fmt.Errorf("sensor: %q: mount: not set; build it with FaceMount or VectorMount", name)
 	}
 	return nil
 }

@@ -2,6 +2,7 @@ package layout
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
 	"strings"
@@ -21,7 +22,7 @@ import (
 // unit here.
 func Evaluator(ctx context.Context, s *scenario.Scenario) (EvaluateFunc, error) {
 	if s.Targets.NMinus1.Set {
-		return nil, fmt.Errorf("targets.n_minus_1: the layout search does not judge single failures; remove the block here and run the chosen layout with it")
+		return nil, errors.New("layout: targets.n_minus_1: the layout search does not judge single failures; remove the block here and run the chosen layout with it")
 	}
 	atts := []scenario.Mode{{Name: "attitude", Attitude: s.Attitude}}
 	atts = append(atts, s.Modes...)
@@ -30,11 +31,11 @@ func Evaluator(ctx context.Context, s *scenario.Scenario) (EvaluateFunc, error) 
 	for mi, m := range atts {
 		cfg, err := study.ConfigFor(s, s.Body.Candidates, m.Attitude)
 		if err != nil {
-			return nil, fmt.Errorf("mode %s: %w", m.Name, err)
+			return nil, fmt.Errorf("layout: mode %s: %w", m.Name, err)
 		}
 		cfg.LawForUnit = nil
 		if traces[mi], err = sim.NewTrace(ctx, cfg); err != nil {
-			return nil, fmt.Errorf("mode %s: %w", m.Name, err)
+			return nil, fmt.Errorf("layout: mode %s: %w", m.Name, err)
 		}
 		configs[mi] = cfg
 	}

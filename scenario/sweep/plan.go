@@ -61,7 +61,7 @@ func describeCase(axes []Axis, vals []string) string {
 func (p *Plan) build(vals []string) (*scenario.Scenario, error) {
 	var doc yaml.Node
 	if err := yaml.Unmarshal(p.base, &doc); err != nil || len(doc.Content) == 0 {
-		return nil, fmt.Errorf("scenario text could not be read again: %v", err)
+		return nil, fmt.Errorf("sweep: the scenario text could not be read again: %v", err)
 	}
 	root := doc.Content[0]
 	// The special keys replace whole subtrees, so apply them before the
@@ -73,13 +73,13 @@ func (p *Plan) build(vals []string) (*scenario.Scenario, error) {
 				continue
 			}
 			if err := set(root, a.Key, vals[k]); err != nil {
-				return nil, fmt.Errorf("--vary %s: %w", a.Key, err)
+				return nil, fmt.Errorf("sweep: --vary %s: %w", a.Key, err)
 			}
 		}
 	}
 	text, err := yaml.Marshal(&doc)
 	if err != nil {
-		return nil, fmt.Errorf("writing the edited scenario: %w", err)
+		return nil, fmt.Errorf("sweep: writing the edited scenario: %w", err)
 	}
 	return scenario.Parse(text, p.dir)
 }

@@ -95,8 +95,9 @@
 //
 // The Moon and the Earth in view: every step takes the Moon (ephem.Moon,
 // interpolated like the sun, between knots 1800 s apart: within 2.9e-7 rad
-// and 48 m, TestMoonCacheMatchesEphemeris) less the spacecraft position, and counts per sensor (nominal mount)
-// the steps with some of the Moon's disc inside the cone (sensor.Bodies:
+// and 48 m, TestCachesMatchTheirEphemerides) less the spacecraft position,
+// and counts per sensor (nominal mount, once per step for all units) the
+// steps with some of the Moon's disc inside the cone (sensor.Bodies:
 // half-angle + Moon angular radius from the boresight), not wholly behind
 // the Earth's disc, in front of the mounting plane and clear of the body's
 // obstructions; and the steps with some of the Earth's disc inside the cone

@@ -12,22 +12,38 @@ import (
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
-// The interpolated sun stays within 1e-8 rad and 10 m of the ephemeris it
-// interpolates (closed-form bound in suncache.go: 2e-9 rad, 5 m).
-func TestSunCacheMatchesEphemeris(t *testing.T) {
-	jd0 := 2461406.5
-	c := newSunCache(ephem.LowPrecision{}, jd0)
-	worstAng, worstD := 0.0, 0.0
+// worstInterpolation returns the worst direction (rad) and distance (km)
+// error of a cache against the ephemeris it interpolates, over three days.
+func worstInterpolation(c *sunCache, src ephem.Sun, jd0 float64) (ang, dist float64) {
 	for ts := 0.0; ts < 3*86400; ts += 37 {
 		u, d := c.at(ts)
-		u2, d2 := ephem.LowPrecision{}.Position(jd0 + ts/86400)
-		worstAng = math.Max(worstAng, angleBetween(u, u2))
-		worstD = math.Max(worstD, math.Abs(d-d2))
+		u2, d2 := src.Position(jd0 + ts/86400)
+		ang = math.Max(ang, angleBetween(u, u2))
+		dist = math.Max(dist, math.Abs(d-d2))
 	}
-	if worstAng > 1e-8 || worstD > 0.01 {
-		t.Fatalf("worst %g rad, %g km", worstAng, worstD)
+	return ang, dist
+}
+
+// The interpolated sun stays within 1e-8 rad and 10 m of the ephemeris it
+// interpolates (closed-form bound in suncache.go: 2e-9 rad, 5 m); the Moon
+// within 1e-5 rad (2″) and 0.2 km of ephem.Moon (bound: 3e-6 rad, 60 m).
+func TestCachesMatchTheirEphemerides(t *testing.T) {
+	jd0 := 2461406.5
+	for _, k := range []struct {
+		name          string
+		c             *sunCache
+		src           ephem.Sun
+		maxAng, maxKm float64
+	}{
+		{"sun", newSunCache(ephem.LowPrecision{}, jd0), ephem.LowPrecision{}, 1e-8, 0.01},
+		{"Moon", newMoonCache(jd0), ephem.Moon{}, 1e-5, 0.2},
+	} {
+		ang, d := worstInterpolation(k.c, k.src, jd0)
+		if ang > k.maxAng || d > k.maxKm {
+			t.Errorf("%s: worst %g rad, %g km", k.name, ang, d)
+		}
+		t.Logf("%s: worst interpolation error %.2g rad, %.2g km", k.name, ang, d)
 	}
-	t.Logf("worst interpolation error %.2g rad, %.2g km", worstAng, worstD)
 }
 
 // The attitude matrix rotates like the quaternion it comes from (gonum's
@@ -46,22 +62,4 @@ func TestBodyMatrixMatchesQuaternion(t *testing.T) {
 			t.Fatalf("toECI differs by %g", d)
 		}
 	}
-}
-
-// The interpolated Moon stays within 1e-5 rad (2″) and 0.2 km of ephem.Moon
-// (closed-form bound in suncache.go: 3e-6 rad, 60 m).
-func TestMoonCacheMatchesEphemeris(t *testing.T) {
-	jd0 := 2461406.5
-	c := newMoonCache(jd0)
-	worstAng, worstD := 0.0, 0.0
-	for ts := 0.0; ts < 3*86400; ts += 37 {
-		u, d := c.at(ts)
-		u2, d2 := ephem.Moon{}.Position(jd0 + ts/86400)
-		worstAng = math.Max(worstAng, angleBetween(u, u2))
-		worstD = math.Max(worstD, math.Abs(d-d2))
-	}
-	if worstAng > 1e-5 || worstD > 0.2 {
-		t.Fatalf("worst %g rad, %g km", worstAng, worstD)
-	}
-	t.Logf("worst Moon interpolation error %.2g rad, %.2g km", worstAng, worstD)
 }

@@ -4,7 +4,12 @@
 //
 // The core (Decompose, FindTolerance, Sensitivity) works over an injected
 // RunFunc, so it can be tested on closed-form budgets; Runner supplies the
-// RunFunc of a scenario through the seeded Monte Carlo of package sim.
+// RunFunc of a scenario through the seeded Monte Carlo of package sim. The
+// orbit, sun, shadow, attitude and albedo do not depend on the error values,
+// so the Runner records them once (sim.Trace) and reads each case's sensors
+// on them (sim.Trace.RunArray; equal to a full run of the case,
+// TestSharedGeometryEqualsFullRuns); a case with an albedo correction, an
+// attitude drawn per unit or a geometry over 256 MiB runs in full.
 //
 // # Model
 //

@@ -78,7 +78,15 @@
 // draws of the sensors' error models; when they share one attitude law
 // (Config.LawForUnit unset) the geometry of a step — orbit, sun, shadow,
 // attitude, albedo, on the nominal mounts — is computed once and every
-// unit's sensors are read on it.
+// unit's sensors are read on it; so are the parts of the reading that do
+// not depend on a unit's errors (the body's blocking of the sun and of the
+// albedo, coverage). A layout of cosine sensors reads each sensor without
+// and with albedo in one pass on one noise draw (sensor.Cosine.ReadPair,
+// equal bit for bit to two reads on the same noise). A Trace records the
+// geometry of every step for replays: a subset of the candidates (layout
+// search, single failure) or the whole layout with other error values
+// (Trace.RunArray: the cases of an error budget), units shared out over the
+// workers.
 //
 // Orbit states are filled by blocks of 1024 steps (Propagator.Fill; for
 // j2-mean a recurrence within 1e-7 km of the per-step StateAt over a year,

@@ -4,9 +4,13 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"sort"
 	"sync"
+	"sync/atomic"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 // DefaultTableResDeg is the default grid step of a LocalTable, degrees.
@@ -98,8 +102,8 @@ func (g *polarGrid) locate(θ float64) (int, float64) {
 // local frame (+Z to nadir), at orbit radius radiusKm, with a grid step of
 // resDeg degrees in (0, 10] (DefaultTableResDeg is 1°; the step is shrunk so
 // that it divides 180° and 360°). m gives the reflectance, which must be
-// Uniform, and the cell count; m itself is only read. The build runs the
-// cell integral of Model.Irradiance at every grid node, on up to
+// Uniform, and the cell count; m itself is only read. The build forms the
+// cell sum of Model.Irradiance at every grid node (see build), on up to
 // GOMAXPROCS goroutines; nodes where the sun lights no visible point are
 // zero without integration.
 func NewLocalTable(m *Model, radiusKm float64, sensors []Sensor, resDeg float64) (*LocalTable, error) {
@@ -141,56 +145,152 @@ func NewLocalTable(m *Model, radiusKm float64, sensors []Sensor, resDeg float64)
 
 	// The caller's sensors are copied: the build must not see later edits.
 	sn := append([]Sensor(nil), sensors...)
-	workers := max(1, min(runtime.GOMAXPROCS(0), t.polar.n+1))
-	models := make([]*Model, workers)
-	for w := range models {
-		mw, err := New(Config{Reflectance: u, Cells: m.n, AltitudeKm: radiusKm - EarthRadiusKm, RebuildKm: m.rebuildKm})
-		if err != nil {
-			return nil, err
-		}
-		models[w] = mw
+	mr, err := New(Config{Reflectance: u, Cells: m.n, AltitudeKm: radiusKm - EarthRadiusKm, RebuildKm: m.rebuildKm})
+	if err != nil {
+		return nil, err
 	}
+	t.build(mr, sn)
+	return t, nil
+}
+
+// coneCell is a cap cell inside a sensor's cone: its index, the cone weight
+// the sum gives it and the share of the cell inside the cone.
+type coneCell struct {
+	c       int32
+	f, frac float64
+}
+
+// build fills the table with the cell sum of Model.Irradiance at every
+// node, the spacecraft at −Z·r (nadir along +Z, so Result.Dir comes out in
+// the local frame). As in BoresightTable.buildRadius, along a column of
+// fixed sun azimuth φ a lit cell's weight is linear in (sin θ, cos θ) over
+// the run of polar nodes where it is lit: each sensor's cone weights are
+// formed once and each column's sums over θ are running sums fed where a
+// cell's run starts and ends (the nodes equal the integral to rounding,
+// TestLocalTableNodesAreTheIntegral). The columns are shared out over up to
+// GOMAXPROCS goroutines; nodes where the sun lights no visible point are
+// zero.
+func (t *LocalTable) build(m *Model, sensors []Sensor) {
+	rSat := r3.Vec{Z: -t.radiusKm}
+	geo := &m.geo
+	ex, ey, ez := capFrame(rSat, vecmath.Norm(rSat))
+	k := m.refl.(Uniform).Albedo * SolarIrradiance1AU
+	var rows []int
+	var sins, coss []float64
+	for i := 0; i <= t.polar.n; i++ {
+		sθ, cθ := math.Sincos(t.polar.angle(i))
+		if cθ >= t.darkZ {
+			continue // every visible point has the sun below its horizon: zeros
+		}
+		rows = append(rows, i)
+		sins, coss = append(sins, sθ), append(coss, cθ)
+	}
+	nr, ns := len(rows), len(sensors)
+	if nr == 0 {
+		return
+	}
+	// Each sensor's cells and cone weights, once.
+	cones := make([][]coneCell, ns)
+	fillScale := make([]float64, ns)
+	for s := range sensors {
+		sn := &sensors[s]
+		cw := newConeWeight(sn, geo.halfWidth)
+		fillScale[s] = geo.cellSolidAngle / (2 * math.Pi * (1 - cw.cosH))
+		n, p := toFrame(sn.Normal, ex, ey, ez), toFrame(sn.Plane, ex, ey, ez)
+		if missesDisc(n, sn.HalfAngle, geo) {
+			continue
+		}
+		for c := range geo.cells {
+			cl := &geo.cells[c]
+			cc := n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz
+			if cc <= cw.outer || behind(p, &litCell{ux: cl.ux, uy: cl.uy, uz: cl.uz}) {
+				continue
+			}
+			f, frac := cc, 1.0
+			if !(cw.cosine && cc >= cw.inner) {
+				if f, frac = cw.edge(cc); frac == 0 {
+					continue
+				}
+			}
+			cones[s] = append(cones[s], coneCell{c: int32(c), f: f, frac: frac})
+		}
+	}
+	bz := toFrame(r3.Vec{Z: 1}, ex, ey, ez)
+	nodeLen := ns * tableVals
+	// Per row: the changes of the sin θ and cos θ coefficients of E and of
+	// the cap-frame E·u, and of the lit share of the cone (9 values).
+	const coef = 2*boresightVals + 1
+	var next atomic.Int64
 	var wg sync.WaitGroup
-	for w := range workers {
+	for range max(1, runtime.GOMAXPROCS(0)) {
 		wg.Go(func() {
-			// Rows are dealt out in turn so that the dark rows (cheap) are
-			// shared evenly.
-			dst := make([]Result, ns)
-			for i := w; i <= t.polar.n; i += workers {
-				t.buildRow(models[w], dst, sn, i)
+			suns := make([]r3.Vec, nr)
+			first, end := make([]int32, len(geo.cells)), make([]int32, len(geo.cells))
+			ws, wc := make([]float64, len(geo.cells)), make([]float64, len(geo.cells))
+			steps := make([]float64, coef*(nr+1))
+			for {
+				j := int(next.Add(1) - 1)
+				if j >= t.nφ {
+					return
+				}
+				sφ, cφ := math.Sincos(float64(j) * t.dφ)
+				for q := range nr {
+					suns[q] = toFrame(r3.Vec{X: sins[q] * cφ, Y: sins[q] * sφ, Z: coss[q]}, ex, ey, ez)
+				}
+				az := toFrame(r3.Vec{X: cφ, Y: sφ}, ex, ey, ez)
+				// Each cell's lit run: N̂·ŝ is a sinusoid in θ over half a
+				// period, so it is lit on a prefix (N̂·ŝ > 0 at θ = 0) or a
+				// suffix of the rows, found by bisection on Irradiance's
+				// own test.
+				for c := range geo.cells {
+					cl := &geo.cells[c]
+					lit := func(q int) bool { s := suns[q]; return cl.px*s.X+cl.py*s.Y+cl.pz*s.Z > 0 }
+					pa, pb := cl.px*az.X+cl.py*az.Y+cl.pz*az.Z, cl.px*bz.X+cl.py*bz.Y+cl.pz*bz.Z
+					ws[c], wc[c] = k*cl.g*pa, k*cl.g*pb
+					if lit(0) {
+						first[c], end[c] = 0, int32(sort.Search(nr, func(q int) bool { return !lit(q) }))
+					} else {
+						first[c], end[c] = int32(sort.Search(nr, lit)), int32(nr)
+					}
+				}
+				for s, cone := range cones {
+					clear(steps)
+					for _, cc := range cone {
+						if first[cc.c] >= end[cc.c] {
+							continue
+						}
+						cl := &geo.cells[cc.c]
+						a, b := cc.f*ws[cc.c], cc.f*wc[cc.c]
+						v := [coef]float64{a, a * cl.ux, a * cl.uy, a * cl.uz, b, b * cl.ux, b * cl.uy, b * cl.uz, cc.frac}
+						on, off := steps[coef*int(first[cc.c]):][:coef], steps[coef*int(end[cc.c]):][:coef]
+						for x := range v {
+							on[x] += v[x]
+							off[x] -= v[x]
+						}
+					}
+					var run [coef]float64
+					for q, i := range rows {
+						for x := range run {
+							run[x] += steps[coef*q+x]
+						}
+						sθ, cθ := sins[q], coss[q]
+						out := t.vals[(i*t.nφ+j)*nodeLen+s*tableVals:][:tableVals]
+						out[4] = min(1, run[8]*fillScale[s])
+						if e := sθ*run[0] + cθ*run[4]; e > 0 {
+							d := capToECI(sθ*run[1]+cθ*run[5], sθ*run[2]+cθ*run[6], sθ*run[3]+cθ*run[7], ex, ey, ez)
+							out[0], out[1], out[2], out[3] = e, e*d.X, e*d.Y, e*d.Z
+						}
+					}
+				}
 			}
 		})
 	}
 	wg.Wait()
-	return t, nil
-}
-
-// buildRow fills polar row i. The integral runs in the local frame itself:
-// the spacecraft sits at −Z·r (nadir along +Z), so Result.Dir comes out in
-// the local frame.
-func (t *LocalTable) buildRow(m *Model, dst []Result, sensors []Sensor, i int) {
-	sθ, cθ := math.Sincos(t.polar.angle(i))
-	if cθ >= t.darkZ {
-		return // every visible point has the sun below its horizon: zeros
-	}
-	rSat := r3.Vec{Z: -t.radiusKm}
-	row := t.vals[i*t.nφ*t.sensors*tableVals : (i+1)*t.nφ*t.sensors*tableVals]
-	for j := range t.nφ {
-		node := row[j*t.sensors*tableVals : (j+1)*t.sensors*tableVals]
-		if (i == 0 || i == t.polar.n) && j > 0 {
-			copy(node, row[:t.sensors*tableVals]) // the poles: one direction
-			continue
-		}
-		sφ, cφ := math.Sincos(float64(j) * t.dφ)
-		sun := r3.Vec{X: sθ * cφ, Y: sθ * sφ, Z: cθ}
-		m.Irradiance(dst, rSat, sun, AUKm, 0, 0, sensors)
-		for k, r := range dst {
-			v := node[k*tableVals : (k+1)*tableVals]
-			v[0] = r.Irradiance
-			v[1] = r.Irradiance * r.Dir.X
-			v[2] = r.Irradiance * r.Dir.Y
-			v[3] = r.Irradiance * r.Dir.Z
-			v[4] = r.Fill
+	// The poles are one direction each: every azimuth takes node 0's values.
+	for _, i := range []int{0, t.polar.n} {
+		row := t.vals[i*t.nφ*nodeLen : (i+1)*t.nφ*nodeLen]
+		for j := 1; j < t.nφ; j++ {
+			copy(row[j*nodeLen:(j+1)*nodeLen], row[:nodeLen])
 		}
 	}
 }

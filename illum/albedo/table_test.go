@@ -387,3 +387,58 @@ func TestLocalTableRadiusDrift(t *testing.T) {
 		}
 	}
 }
+
+// Every node of a local table holds the cell integral of its own geometry
+// (closed form of the construction: spacecraft on −Z, the sun at the node's
+// polar and azimuth angles in the local frame), to rounding: the build may
+// reorder the work but not change the sum. Tilted sensors, a non-cosine
+// response and a mounting plane are among the sensors.
+func TestLocalTableNodesAreTheIntegral(t *testing.T) {
+	rKm := EarthRadiusKm + 480
+	m, err := New(Config{Cells: 600, AltitudeKm: 480})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tilt := r3.Unit(r3.Vec{X: 1, Z: 1})
+	sensors := []Sensor{
+		{Normal: r3.Vec{Z: 1}, HalfAngle: 60 * math.Pi / 180},
+		{Normal: r3.Vec{X: 1}, HalfAngle: 80 * math.Pi / 180, Response: rolloff(t)},
+		{Normal: tilt, HalfAngle: 70 * math.Pi / 180, Plane: r3.Vec{X: 1}},
+		{Normal: r3.Vec{Z: -1}, HalfAngle: 30 * math.Pi / 180}, // sees only sky
+	}
+	tab, err := NewLocalTable(m, rKm, sensors, 4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(8, 9))
+	want := make([]Result, len(sensors))
+	lit := 0
+	for range 200 {
+		i, j := rng.IntN(tab.polar.n+1), rng.IntN(tab.nφ)
+		sθ, cθ := math.Sincos(tab.polar.angle(i))
+		if i == 0 || i == tab.polar.n {
+			j = 0 // the poles hold node 0's values at every azimuth
+		}
+		sφ, cφ := math.Sincos(float64(j) * tab.dφ)
+		m.Irradiance(want, r3.Vec{Z: -rKm}, r3.Vec{X: sθ * cφ, Y: sθ * sφ, Z: cθ}, AUKm, 0, 0, sensors)
+		for k, w := range want {
+			if cθ >= tab.darkZ {
+				w = Result{}
+			}
+			v := tab.vals[((i*tab.nφ+j)*len(sensors)+k)*tableVals:][:tableVals]
+			exp := [tableVals]float64{w.Irradiance, w.Irradiance * w.Dir.X, w.Irradiance * w.Dir.Y, w.Irradiance * w.Dir.Z, w.Fill}
+			for c := range exp {
+				if d := math.Abs(v[c] - exp[c]); d > 1e-9*math.Abs(exp[c])+1e-12 {
+					t.Fatalf("node (%d, %d), sensor %d, value %d: table %.17g, integral %.17g", i, j, k, c, v[c], exp[c])
+				}
+			}
+			if w.Irradiance > 0 {
+				lit++
+			}
+		}
+	}
+	t.Logf("%d lit sensor nodes checked", lit)
+	if lit < 100 {
+		t.Fatalf("only %d lit sensor nodes checked", lit)
+	}
+}

@@ -160,7 +160,36 @@ func printBudget(w io.Writer, rep budget.Report, elapsed time.Duration) {
 	} else {
 		fmt.Fprintln(w, "\nNo tolerance target (give --tolerance-target, budget.tolerance_deg or targets.max_error_p95_deg).")
 	}
+	if c := rep.CalibrationRange; c != nil {
+		printCalibrationRange(w, c, rep.TargetDeg)
+	}
 	fmt.Fprintf(w, "\nComputed in %.1f s. An analysis aid: flight hardware needs qualified verification.\n", elapsed.Seconds())
+}
+
+// printCalibrationRange prints over what sensor temperatures the ground
+// calibration keeps the target.
+func printCalibrationRange(w io.Writer, c *budget.TemperatureRow, target float64) {
+	fmt.Fprintf(w, "\nCalibration temperature range for p95 ≤ %.3g° (every sensor with a dark signal or gain coefficient moved alike, sunlit and eclipse):\n", target)
+	if c.Infeasible {
+		fmt.Fprintf(w, "  none: the target is missed at the calibration temperature itself (p95 %.3f°)\n", c.AtLowDeg)
+		return
+	}
+	end := func(d float64, bounded bool) string {
+		s := fmt.Sprintf("%+.1f °C", d)
+		if c.CalibrationC != nil {
+			s = fmt.Sprintf("%.1f °C (%+.1f)", *c.CalibrationC+d, d)
+		}
+		if !bounded {
+			s = "beyond " + s
+		}
+		return s
+	}
+	from := "their calibration temperatures"
+	if c.CalibrationC != nil {
+		from = fmt.Sprintf("the calibration at %.1f °C", *c.CalibrationC)
+	}
+	fmt.Fprintf(w, "  from %s to %s around %s (p95 %.3f° and %.3f° at the ends; searched to 0.5 °C, ±%.0f °C at most)\n",
+		end(c.LowOffsetC, c.LowBounded), end(c.HighOffsetC, c.HighBounded), from, c.AtLowDeg, c.AtHighDeg, budget.MaxTemperatureOffsetC)
 }
 
 func budgetFigures(s *scenario.Scenario, rep budget.Report, tgt float64, dir string) error {

@@ -230,7 +230,7 @@ func init() {
 			Columns: [2]Column{{Name: "angle_deg", Min: 0, Max: 90, Increasing: true, Scale: math.Pi / 180},
 				{Name: "relative_response", Min: 0, Max: 2}}}}, thermalParams...),
 		Sources: []ErrorSource{{Name: SourceDarkOffset}, {Name: SourceGain}, {Name: SourceNoise},
-			{Name: SourceQuantisation}, {Name: SourceMisalignment}},
+			{Name: SourceQuantisation}, {Name: SourceMisalignment}, {Name: SourceTemperature}},
 		Build: buildCosine,
 	})
 }

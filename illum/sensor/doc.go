@@ -109,6 +109,18 @@
 // mean of two-axis directions; Combined adds the least-squares direction
 // with a stated coarse σ.
 //
+// Temperature (cosine and quadrant kinds, Thermal): the sensor sits at
+// temperature_sunlit_c in sunlight and temperature_eclipse_c in umbra,
+// linear in the lit share of the solar disc through the penumbra (no
+// thermal lag). Against its ground calibration at calibration_temperature_c
+// a reading takes the gain factor 1 + k·(T − Tcal) (gain_tempco_pct_per_c)
+// and the added dark signal D·(2^((T − Tcal)/T₂) − 1): the dark signal D at
+// the calibration (dark_signal_at_calibration), which the calibration
+// removes, doubles every T₂ = dark_doubling_c (10 °C: application-note rule
+// of thumb, common practice, no source); on every cell alike for a
+// quadrant. A model whose keys cannot act (temperatures off calibration
+// with no dark signal or coefficient, or the reverse) is refused.
+//
 // # Assumptions
 //
 //   - The albedo on a digital sensor is a point source in its mean arrival
@@ -145,7 +157,9 @@
 // # Accuracy
 //
 // The models are ideal geometry: no Fresnel loss unless given as roll-off,
-// no diffraction, no edge penumbra of the spot, no temperature effects.
+// no diffraction, no edge penumbra of the spot; temperature only as the
+// stated per-phase values, dark-signal doubling and gain coefficient (no
+// thermal lag, no per-cell dark-current spread).
 // Results are an analysis aid for choosing a layout, not a substitute for
 // calibrated unit data; flight hardware needs qualified verification.
 // The tests check the closed forms to 1e-12 rad, least squares on noiseless

@@ -101,6 +101,7 @@ const (
 	SourceApertureOffset = "aperture offset"
 	SourceDigitalNoise   = "digital accuracy"
 	SourceTwist          = "twist"
+	SourceTemperature    = "temperature"
 )
 
 // ErrorSource is one error source a kind offers the budget. Its 1σ is a

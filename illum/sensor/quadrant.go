@@ -599,7 +599,7 @@ var quadrantGateParams = []Param{
 // quadrantSources are the error sources both geometries offer the budget.
 var quadrantSources = []ErrorSource{{Name: SourceDarkOffset}, {Name: SourceGain}, {Name: SourceNoise},
 	{Name: SourceQuantisation}, {Name: SourceMisalignment}, {Name: SourceApertureOffset},
-	{Name: SourceTwist, Param: "twist_deg_1sigma"}}
+	{Name: SourceTwist, Param: "twist_deg_1sigma"}, {Name: SourceTemperature}}
 
 // The registry entries of the two quadrant geometries.
 func init() {

@@ -108,3 +108,24 @@ type Warm interface {
 	ThermalModel() Thermal
 	ReadAt(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand, tempC float64) Reading
 }
+
+// HasThermalCoefficient reports whether a sensor's resolved kind
+// parameters give its readings a temperature dependence (a dark signal or
+// a gain coefficient).
+func HasThermalCoefficient(p Params) bool {
+	return p.Num["dark_signal_at_calibration"] > 0 || p.Num["gain_tempco_pct_per_c"] != 0
+}
+
+// AtTemperatureOffset returns a copy of the parameters with the sunlit and
+// eclipse temperatures at the calibration temperature plus d (°C); at
+// d = 0 the coefficients are dropped as well, since a sensor at its
+// calibration temperature reads as calibrated (and the builder refuses
+// coefficients that cannot act). p is unchanged.
+func AtTemperatureOffset(p Params, d float64) Params {
+	t := p.Num["calibration_temperature_c"] + d
+	q := p.WithNumber("temperature_sunlit_c", t).WithNumber("temperature_eclipse_c", t)
+	if d == 0 {
+		q = q.WithNumber("dark_signal_at_calibration", 0).WithNumber("gain_tempco_pct_per_c", 0)
+	}
+	return q
+}

@@ -28,11 +28,12 @@ const (
 	DigitalNoise   // digital sensors' stated accuracy
 	Twist          // quadrant sensors' rotation about the boresight
 	Albedo
+	Temperature // the sensors' temperatures away from calibration (on/off)
 	NumSources
 )
 
 var sourceNames = [NumSources]string{"dark offset", "gain mismatch", "noise", "quantisation",
-	"misalignment", "aperture offset", "digital accuracy", "twist", "albedo"}
+	"misalignment", "aperture offset", "digital accuracy", "twist", "albedo", "temperature"}
 
 // String names the source as the tables print it.
 func (s Source) String() string {
@@ -43,8 +44,10 @@ func (s Source) String() string {
 }
 
 // Scalable reports whether the source has a 1σ a tolerance search can vary
-// (quantisation and albedo are switched on or off only).
-func (s Source) Scalable() bool { return s != Quantisation && s != Albedo && s >= 0 && s < NumSources }
+// (quantisation, albedo and temperature are switched on or off only).
+func (s Source) Scalable() bool {
+	return s != Quantisation && s != Albedo && s != Temperature && s >= 0 && s < NumSources
+}
 
 // Case is one Monte Carlo run of the budget: each source's stated value
 // multiplied by Scale (0 switches the source off; quantisation and albedo
@@ -57,6 +60,11 @@ type Case struct {
 	// Correction subtracts a uniform-albedo prediction from the cosine
 	// readings, as simple flight software would.
 	Correction bool
+	// AtTemperature puts every sensor with a temperature coefficient (dark
+	// signal or gain) at TempOffsetC from its calibration temperature, in
+	// sunlight and eclipse alike; the others are unchanged.
+	AtTemperature bool
+	TempOffsetC   float64
 }
 
 // Only returns the case with one source at its stated value and every other off.

@@ -25,6 +25,16 @@
 // percentile bootstrap over units (Efron & Tibshirani 1993, An Introduction
 // to the Bootstrap, ch. 13), resampling the same units in every run.
 //
+// Temperature is a term switched on or off: off, every sensor with a dark
+// signal or gain coefficient reads as at its calibration temperature. The
+// calibration range (FindTemperatureRange) moves every such sensor alike,
+// sunlit and eclipse, from its calibration temperature in 10 °C steps each
+// way up to ±100 °C and bisects the first step that misses the target to
+// 0.5 °C: the span of temperatures over which the ground calibration keeps
+// the p95 target. Since the readings depend on a dark signal D and the
+// offset ΔT only through D·(2^(ΔT/T₂) − 1), halving D moves the hot end to
+// where that product is the same (TestCalibrationRangeFollowsTheDoublingRule).
+//
 // A tolerance is found by bisection on one source's scale with the others at
 // their stated values, to 1 % of the bracket, then re-run at the returned
 // scale and at 1.1 × it. Every run draws the same standard-normal numbers

@@ -109,6 +109,9 @@ func NewRunner(s *scenario.Scenario, o Options) (*Runner, error) {
 			if src == Quantisation && sc.ADCBits > 0 {
 				r.stated[Quantisation] = true
 			}
+			if src == Temperature && sensor.HasThermalCoefficient(sc.Params) {
+				r.stated[Temperature] = true
+			}
 			r.unit[src] = max(r.unit[src], sigmaOf(sc, sc.Errors, src, es))
 		}
 	}
@@ -121,6 +124,34 @@ func NewRunner(s *scenario.Scenario, o Options) (*Runner, error) {
 	r.present[Albedo] = s.Albedo.Model != scenario.AlbedoNone && s.Albedo.Model != ""
 	r.stated[Albedo] = r.present[Albedo]
 	return r, nil
+}
+
+// Thermal reports whether some sensor's readings depend on its temperature
+// (the calibration range is then searched).
+func (r *Runner) Thermal() bool {
+	for _, sc := range r.s.Body.Sensors {
+		if sensor.HasThermalCoefficient(sc.Params) {
+			return true
+		}
+	}
+	return false
+}
+
+// CalibrationC returns the calibration temperature shared by every sensor
+// with a temperature coefficient, nil when they differ or there is none.
+func (r *Runner) CalibrationC() *float64 {
+	var out *float64
+	for _, sc := range r.s.Body.Sensors {
+		if !sensor.HasThermalCoefficient(sc.Params) {
+			continue
+		}
+		c := sc.Params.Num["calibration_temperature_c"]
+		if out != nil && *out != c {
+			return nil
+		}
+		out = &c
+	}
+	return out
 }
 
 // Sources returns the sources that apply to the layout and have a stated
@@ -187,6 +218,20 @@ func (r *Runner) sensors(c Case) []scenario.Sensor {
 		}
 		if !(c.Scale[Quantisation] > 0) {
 			sc.ADCBits = 0
+		}
+		switch {
+		case !sensor.HasThermalCoefficient(sc.Params):
+		case c.AtTemperature:
+			sc.Params = sensor.AtTemperatureOffset(sc.Params, c.TempOffsetC)
+		case !(c.Scale[Temperature] > 0):
+			sc.Params = sensor.AtTemperatureOffset(sc.Params, 0) // as calibrated
+		}
+		switch {
+		case !sensor.HasThermalCoefficient(sc.Params):
+		case c.AtTemperature:
+			sc.Params = sensor.AtTemperatureOffset(sc.Params, c.TempOffsetC)
+		case !(c.Scale[Temperature] > 0):
+			sc.Params = sensor.AtTemperatureOffset(sc.Params, 0) // as calibrated
 		}
 		info, _ := sensor.LookupKind(sc.Kind)
 		for _, es := range info.Sources {

@@ -40,6 +40,10 @@ type Report struct {
 	NoAlbedoP95   *float64       `json:"no_albedo_p95_deg,omitempty"`
 	TargetDeg     float64        `json:"tolerance_target_deg,omitempty"`
 	Tolerances    []ToleranceRow `json:"tolerances,omitempty"`
+	// CalibrationRange is how far the temperature-dependent sensors may
+	// move from their calibration temperature with the target kept (with a
+	// target and a sensor with a dark signal or gain coefficient).
+	CalibrationRange *TemperatureRow `json:"calibration_temperature_range,omitempty"`
 	// Curves are the sensitivity curves (StudyOptions.Curves), at
 	// SensitivityScales.
 	Curves []Curve `json:"-"`
@@ -67,6 +71,21 @@ type ToleranceRow struct {
 	FailsAbove bool    `json:"fails_at_1_1x"`
 	Infeasible bool    `json:"infeasible"`
 	Unbounded  bool    `json:"unbounded"`
+}
+
+// TemperatureRow is the calibration range of the report (offsets from each
+// sensor's calibration temperature, °C).
+type TemperatureRow struct {
+	LowOffsetC  float64 `json:"low_offset_c"`
+	HighOffsetC float64 `json:"high_offset_c"`
+	LowBounded  bool    `json:"low_bounded"`
+	HighBounded bool    `json:"high_bounded"`
+	Infeasible  bool    `json:"infeasible"`
+	AtLowDeg    float64 `json:"p95_at_low_deg"`
+	AtHighDeg   float64 `json:"p95_at_high_deg"`
+	// CalibrationC is the calibration temperature when every such sensor
+	// states the same one, else null.
+	CalibrationC *float64 `json:"calibration_temperature_c"`
 }
 
 // Missed reports that a tolerance target is set and the all-together p95
@@ -162,6 +181,14 @@ func Study(ctx context.Context, s *scenario.Scenario, o StudyOptions) (Report, e
 			rep.Tolerances = append(rep.Tolerances, ToleranceRow{Source: src.String(), Scale: t.Scale, Sigma: sig, Unit: unit,
 				AtDeg: t.AtScaleDeg, At110Deg: t.At110Deg, Meets: t.Meets, FailsAbove: t.FailsAbove, Infeasible: t.Infeasible, Unbounded: t.Unbounded})
 		}
+	}
+	if tgt > 0 && r.Thermal() {
+		t, err := FindTemperatureRange(ctx, r.Run, all, tgt, Metric.P95Deg)
+		if err != nil {
+			return Report{}, err
+		}
+		rep.CalibrationRange = &TemperatureRow{LowOffsetC: t.LowC, HighOffsetC: t.HighC, LowBounded: t.LowBounded, HighBounded: t.HighBounded,
+			Infeasible: t.Infeasible, AtLowDeg: t.AtLowDeg, AtHighDeg: t.AtHighDeg, CalibrationC: r.CalibrationC()}
 	}
 	if o.Curves {
 		for _, src := range sources {

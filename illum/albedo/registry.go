@@ -31,6 +31,8 @@ type ModelInfo struct {
 	Reflectance func(value float64, gridFile string) (Reflectance, error)
 	// Describe says in one line what the model is, with its settings.
 	Describe func(value float64, cells int) string
+	// Brief says it in a few words, for a figure caption.
+	Brief func(value float64) string
 }
 
 // defaultUniformAlbedo is the global mean Bond albedo ≈ 0.29–0.31 (from
@@ -39,13 +41,15 @@ const defaultUniformAlbedo = 0.30
 
 var models = []ModelInfo{
 	{Name: NameNone, Source: "Earth reflection left out: coarse-sensor errors are underestimated",
-		Describe: func(float64, int) string { return "none" }},
+		Describe: func(float64, int) string { return "none" },
+		Brief:    func(float64) string { return "no albedo" }},
 	{Name: NameUniform, TakesValue: true, DefaultValue: defaultUniformAlbedo,
 		Source:      "cell integration of the sunlit, visible cap after D. D. V. Bhanderi and T. Bak, Modeling Earth albedo for satellites in Earth orbit, AIAA GNC 2005; reflectance 0.30 from ECSS-E-ST-10-04C",
 		Reflectance: func(v float64, _ string) (Reflectance, error) { return Uniform{Albedo: v}, nil },
 		Describe: func(v float64, cells int) string {
 			return fmt.Sprintf("uniform Lambertian Earth, reflectance %.2f, %d cells", v, cells)
-		}},
+		},
+		Brief: func(v float64) string { return fmt.Sprintf("albedo uniform %.2f", v) }},
 	{Name: NameZonal, TakesValue: true, DefaultValue: KnockeZonal().A0,
 		Source: "latitude model after R. Knocke, J. Ries and B. Tapley, AIAA 88-4292, 1988; cell integration after Bhanderi and Bak, AIAA GNC 2005",
 		// albedo.value is the profile's global mean: scale it (the
@@ -56,11 +60,13 @@ var models = []ModelInfo{
 		},
 		Describe: func(v float64, cells int) string {
 			return fmt.Sprintf("zonal reflectance scaled to a global mean of %.2f, %d cells", v, cells)
-		}},
+		},
+		Brief: func(v float64) string { return fmt.Sprintf("albedo zonal (global mean %.2f)", v) }},
 	{Name: NameGrid, TakesGrid: true,
 		Source:      "cell integration after Bhanderi and Bak, AIAA GNC 2005; grid values as supplied by the user",
 		Reflectance: readGrid,
-		Describe:    func(float64, int) string { return "reflectance grid from a file" }},
+		Describe:    func(float64, int) string { return "reflectance grid from a file" },
+		Brief:       func(float64) string { return "albedo from a reflectance grid" }},
 }
 
 func readGrid(_ float64, path string) (Reflectance, error) {

@@ -74,16 +74,13 @@ func attitudeText(a scenario.Attitude) string {
 	return lawText(a.Law)
 }
 
+// albedoText is the albedo model in a few words, from its registry entry.
 func albedoText(s *scenario.Scenario) string {
-	switch s.Albedo.Model {
-	case scenario.AlbedoUniform:
-		return fmt.Sprintf("albedo uniform %.2f", s.Albedo.Value)
-	case scenario.AlbedoZonal:
-		return fmt.Sprintf("albedo zonal (global mean %.2f)", s.Albedo.Value)
-	case scenario.AlbedoGrid:
-		return "albedo from a reflectance grid"
+	m, err := albedo.LookupModel(s.Albedo.Model)
+	if err != nil {
+		return s.Albedo.Model
 	}
-	return "no albedo"
+	return m.Brief(s.Albedo.Value)
 }
 
 func hasErrorModels(s *scenario.Scenario) bool {

@@ -1,5 +1,7 @@
 package scenario
 
+import "reflect"
+
 // The file* types mirror the YAML keys one to one. Load decodes into them,
 // fills the defaults in place (so that Record can print every default), checks
 // them and converts them into the exported types of scenario.go.
@@ -13,7 +15,7 @@ type fileScenario struct {
 	Orbit      fileOrbit       `yaml:"orbit"`
 	SunModel   string          `yaml:"sun_model"`
 	Shadow     string          `yaml:"shadow"`
-	Attitude   fileAttitude    `yaml:"attitude"`
+	Attitude   fileAttitude    `yaml:"attitude,omitempty"`
 	Modes      []fileMode      `yaml:"modes,omitempty"`
 	Timeline   *fileTimeline   `yaml:"timeline,omitempty"`
 	Body       fileBody        `yaml:"body"`
@@ -77,6 +79,10 @@ type fileAttitude struct {
 	InSunlight *fileLaw `yaml:"in_sunlight,omitempty"`
 	InEclipse  *fileLaw `yaml:"in_eclipse,omitempty"`
 }
+
+// IsZero reports an attitude with no key given (a timeline scenario's), so
+// the record leaves the attitude out (the YAML encoder's omitempty).
+func (a fileAttitude) IsZero() bool { return reflect.ValueOf(a).IsZero() }
 
 type fileMode struct {
 	Name         string `yaml:"name"`

@@ -33,7 +33,7 @@ func TestExamplesLoadAndMatchTemplates(t *testing.T) {
 			t.Errorf("%s: record is not a fixed point", name)
 		}
 	}
-	if len(ExampleNames()) != 6 {
+	if len(ExampleNames()) != 7 {
 		t.Errorf("examples: %v", ExampleNames())
 	}
 }

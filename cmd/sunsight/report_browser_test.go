@@ -42,7 +42,7 @@ func TestExampleReportsInBrowser(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer b.Close()
-	for _, name := range []string{"nadir-6u-sso", "dawn-dusk-12u", "tumbling-3u"} {
+	for _, name := range []string{"nadir-6u-sso", "dawn-dusk-12u", "tumbling-3u", "mission-6u"} {
 		t.Run(name, func(t *testing.T) {
 			report := filepath.Join(dir, name+".html")
 			var out, errb bytes.Buffer

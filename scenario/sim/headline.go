@@ -37,6 +37,11 @@ type Headline struct {
 	// part it leaves (NaN without an on-board model).
 	P95CorrectedDeg    float64 `json:"p95_error_onboard_corrected_deg"`
 	P95ResidualPartDeg float64 `json:"p95_residual_albedo_part_deg"`
+	// FilterValidFraction and FilterP95ShadowDeg are the gyro-aided
+	// filter's valid share of the run and p95 error in eclipse (NaN
+	// without a filter).
+	FilterValidFraction float64 `json:"filter_valid_fraction_of_run"`
+	FilterP95ShadowDeg  float64 `json:"filter_p95_error_in_shadow_deg"`
 }
 
 // Headline returns the run's headline figures.
@@ -49,6 +54,10 @@ func (r *Result) Headline() Headline {
 		Seen1: u.SeenAtLeast[1], Seen2: u.SeenAtLeast[2], Seen3: u.SeenAtLeast[3],
 		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction, OrbitAvgPowerW: math.NaN(),
 		P95CorrectedDeg: math.NaN(), P95ResidualPartDeg: math.NaN(),
+		FilterValidFraction: math.NaN(), FilterP95ShadowDeg: math.NaN(),
+	}
+	if f := u.Filter; f != nil {
+		h.FilterValidFraction, h.FilterP95ShadowDeg = f.ValidFraction, f.ErrShadow.P95Deg
 	}
 	if r.Power != nil {
 		h.OrbitAvgPowerW = r.Power.MeanW

@@ -52,18 +52,19 @@ func (c Cone) reaches(d r3.Vec, sρ, cρ float64) bool {
 	return r3.Dot(c.Axis, d) > c.Cos*cρ-c.Sin*sρ
 }
 
-// inFront reports whether a disc of angular radius ρ (sine sρ) about the
-// unit direction d reaches in front of the plane of outward normal n (n
-// zero: no plane): the angle from n to d is below 90° + ρ, i.e. n·d > −sin ρ.
+// inFront reports whether a disc of angular radius ρ > 0 (sine sρ) about
+// the unit direction d reaches in front of the plane of outward normal n:
+// the angle from n to d is below 90° + ρ, i.e. n·d > −sin ρ. A zero n (no
+// plane) gives 0 > −sin ρ, true.
 func inFront(d, n r3.Vec, sρ float64) bool {
-	return n == (r3.Vec{}) || r3.Dot(d, n) > -sρ
+	return r3.Dot(d, n) > -sρ
 }
 
 // MoonInCone reports whether some of the Moon's disc is inside the cone,
 // not hidden by the Earth and in front of the mounting plane of outward
 // normal face (zero: none).
 func (b *Bodies) MoonInCone(c Cone, face r3.Vec) bool {
-	return !b.MoonHidden && c.reaches(b.MoonDir, b.MoonSin, b.MoonCos) && inFront(b.MoonDir, face, b.MoonSin)
+	return !b.MoonHidden && c.reaches(b.MoonDir, b.MoonSin, b.MoonCos) && r3.Dot(b.MoonDir, face) > -b.MoonSin
 }
 
 // LitEarthInCone reports whether some of the Earth's disc is inside the

@@ -101,6 +101,7 @@ var runInvariants = []invariant{
 	{"never-through-bus", checkThroughBus},
 	{"filter-figures-consistent", checkFilterFigures},
 	{"filter-leaves-estimators", checkFilterLeavesEstimators},
+	{"power-zero-in-umbra-linear-in-area-and-efficiency", checkPowerUmbraAndLinear},
 }
 
 // sunlit + penumbra + umbra = 1; cylindrical shadow ⇒ penumbra = 0.

@@ -134,7 +134,7 @@ func printBudget(w io.Writer, rep budget.Report, elapsed time.Duration) {
 			fmt.Fprintf(w, "  calibrated residuals (budget)     %.3f°\n", *rep.CalibratedP95)
 		}
 		if rep.CorrectedP95 != nil {
-			fmt.Fprintf(w, "  uniform albedo correction         %.3f°\n", *rep.CorrectedP95)
+			fmt.Fprintf(w, "  albedo corrected on board         %.3f°   (%s)\n", *rep.CorrectedP95, rep.CorrectionModel)
 			fmt.Fprintf(w, "  no albedo at all (floor)          %.3f°\n", *rep.NoAlbedoP95)
 		}
 	}

@@ -2,6 +2,7 @@ package budget
 
 import (
 	"context"
+	"fmt"
 	"math"
 
 	"codeberg.org/sunsight/sunsight/scenario"
@@ -37,6 +38,9 @@ type Report struct {
 	GapRMSCIDeg   [2]float64     `json:"all_minus_rss_rms_ci95_deg"`
 	CalibratedP95 *float64       `json:"calibrated_p95_deg,omitempty"`
 	CorrectedP95  *float64       `json:"albedo_corrected_p95_deg,omitempty"`
+	// CorrectionModel names the on-board albedo model of CorrectedP95 and
+	// says when it is the truth's own (CorrectionModelText).
+	CorrectionModel string `json:"albedo_correction_model,omitempty"`
 	NoAlbedoP95   *float64       `json:"no_albedo_p95_deg,omitempty"`
 	TargetDeg     float64        `json:"tolerance_target_deg,omitempty"`
 	Tolerances    []ToleranceRow `json:"tolerances,omitempty"`
@@ -162,6 +166,7 @@ func Study(ctx context.Context, s *scenario.Scenario, o StudyOptions) (Report, e
 		if rep.CorrectedP95, err = p95(c); err != nil {
 			return Report{}, err
 		}
+		rep.CorrectionModel = CorrectionModelText(s)
 		c = all
 		c.Scale[Albedo] = 0
 		if rep.NoAlbedoP95, err = p95(c); err != nil {
@@ -203,4 +208,24 @@ func Study(ctx context.Context, s *scenario.Scenario, o StudyOptions) (Report, e
 		}
 	}
 	return rep, nil
+}
+
+// CorrectionModelText names the on-board model of the budget's albedo
+// correction: the scenario's albedo.onboard, else a uniform model of the
+// truth's value. It says when that is the truth's own model, whose
+// correction is perfect by construction but for the sensors' gain
+// mismatch and ADC rounding.
+func CorrectionModelText(s *scenario.Scenario) string {
+	ob := scenario.Albedo{Model: scenario.AlbedoUniform, Value: s.Albedo.Value, Cells: s.Albedo.Cells}
+	text := "uniform %.2f (no albedo.onboard given)"
+	if s.Albedo.Onboard != nil {
+		ob, text = *s.Albedo.Onboard, "on-board %s"
+		text = fmt.Sprintf(text, ob.Label())
+	} else {
+		text = fmt.Sprintf(text, ob.Value)
+	}
+	if s.Albedo.SameModel(ob) {
+		text += ", the truth's own model: perfect by construction but for gain mismatch and ADC rounding"
+	}
+	return text
 }

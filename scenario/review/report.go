@@ -230,6 +230,9 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 	}
 	r.Assumptions = assumptions(s)
 	r.Tables = append(r.Tables, estimatorTable(res))
+	if ot, ok := onboardTable(s, res); ok {
+		r.Tables = append(r.Tables, ot)
+	}
 	if ft, ok := filterTable(s, res); ok {
 		r.Tables = append(r.Tables, ft)
 	}
@@ -482,6 +485,11 @@ func ModelsAndSources(s *scenario.Scenario) []plots.Assumption {
 	}
 	if m, err := albedo.LookupModel(s.Albedo.Model); err == nil {
 		add("Albedo: "+m.Describe(s.Albedo.Value, s.Albedo.Cells), "", m.Source)
+	}
+	if ob := s.Albedo.Onboard; ob != nil {
+		if m, err := albedo.LookupModel(ob.Model); err == nil {
+			add("Albedo on board: "+m.Describe(ob.Value, ob.Cells), onboardModel, m.Source)
+		}
 	}
 	seen := map[string]bool{}
 	for _, sn := range s.Body.Sensors {

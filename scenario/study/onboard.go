@@ -17,13 +17,13 @@ func OnboardNote(s *scenario.Scenario) string {
 	var text string
 	switch {
 	case ob.Model == scenario.AlbedoNone:
-		text = "on-board model none: nothing is subtracted, so the corrected figures equal the uncorrected ones."
+		text = "On-board model none: nothing is subtracted, so the corrected figures equal the uncorrected ones."
 	case s.Albedo.SameModel(*ob):
 		text = "the on-board model is the truth's own model (" + ob.Label() + "): the correction is perfect by construction. " +
 			"What it leaves comes only from the sensors (gain mismatch, ADC rounding, saturation, thresholds), " +
 			"not from a model error; a flight model never matches the real Earth this well."
 	default:
-		text = "on-board " + ob.Label() + " against the truth's " + s.Albedo.Label() + ": the residual is the error this on-board model leaves " +
+		text = "On-board " + ob.Label() + " against the truth's " + s.Albedo.Label() + ": the residual is the error this on-board model leaves " +
 			"when the Earth reflects as the truth's model says; the truth is a model too."
 	}
 	text += " The prediction uses the true position and attitude (no navigation error); the cosine sensors are corrected"

@@ -1,0 +1,55 @@
+package review
+
+import (
+	"context"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
+	"codeberg.org/sunsight/sunsight/scenario/study"
+)
+
+// The report carries the on-board correction's table, with the run's own
+// residual and the plain statement of what it means, and its models row,
+// when the scenario has an on-board albedo model; neither without one.
+func TestReportShowsTheOnboardCorrection(t *testing.T) {
+	s, err := scenario.Load(filepath.Join("..", "..", "examples", "nadir-6u-sso.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Duration = scenario.Span(2 * time.Hour)
+	if _, ok := onboardTable(s, nil); ok {
+		t.Error("an on-board table without albedo.onboard")
+	}
+	ob := s.Albedo
+	s.Albedo.Onboard = &ob // the truth's own model
+	cfg, err := study.Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := sim.Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ot, ok := onboardTable(s, res)
+	if !ok || len(ot.Rows) != len(s.Estimators) {
+		t.Fatalf("on-board table %v rows for %d estimators", ot.Rows, len(s.Estimators))
+	}
+	want := num(res.Nominal.Estimators[0].Corrected.ResidualPart.P95Deg, 2)
+	if ot.Rows[0][6] != want {
+		t.Errorf("residual of the primary %q, want %s", ot.Rows[0][6], want)
+	}
+	if !strings.Contains(ot.Note, "perfect by construction") || !strings.Contains(ot.Note, "two-axis sensors pass uncorrected") {
+		t.Errorf("note %q", ot.Note)
+	}
+	found := false
+	for _, a := range ModelsAndSources(s) {
+		found = found || strings.HasPrefix(a.Model, "Albedo on board")
+	}
+	if !found {
+		t.Error("no on-board albedo row in the models table")
+	}
+}

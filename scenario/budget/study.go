@@ -24,26 +24,26 @@ type StudyOptions struct {
 // Report is a budget study: the terms of each source alone and all
 // together, what calibration and albedo correction buy, and the tolerances.
 type Report struct {
-	SchemaVersion int            `json:"schema_version"`
-	Scenario      string         `json:"scenario"`
-	DurationS     float64        `json:"duration_s"`
-	Shortened     bool           `json:"shortened"`
-	Units         int            `json:"units"`
-	Terms         []TermRow      `json:"terms"`
-	AllP95Deg     float64        `json:"all_p95_deg"`
-	AllRMSDeg     float64        `json:"all_rms_deg"`
-	RSSP95Deg     float64        `json:"rss_p95_deg"`
-	RSSRMSDeg     float64        `json:"rss_rms_deg"`
-	GapP95CIDeg   [2]float64     `json:"all_minus_rss_p95_ci95_deg"`
-	GapRMSCIDeg   [2]float64     `json:"all_minus_rss_rms_ci95_deg"`
-	CalibratedP95 *float64       `json:"calibrated_p95_deg,omitempty"`
-	CorrectedP95  *float64       `json:"albedo_corrected_p95_deg,omitempty"`
+	SchemaVersion int        `json:"schema_version"`
+	Scenario      string     `json:"scenario"`
+	DurationS     float64    `json:"duration_s"`
+	Shortened     bool       `json:"shortened"`
+	Units         int        `json:"units"`
+	Terms         []TermRow  `json:"terms"`
+	AllP95Deg     float64    `json:"all_p95_deg"`
+	AllRMSDeg     float64    `json:"all_rms_deg"`
+	RSSP95Deg     float64    `json:"rss_p95_deg"`
+	RSSRMSDeg     float64    `json:"rss_rms_deg"`
+	GapP95CIDeg   [2]float64 `json:"all_minus_rss_p95_ci95_deg"`
+	GapRMSCIDeg   [2]float64 `json:"all_minus_rss_rms_ci95_deg"`
+	CalibratedP95 *float64   `json:"calibrated_p95_deg,omitempty"`
+	CorrectedP95  *float64   `json:"albedo_corrected_p95_deg,omitempty"`
 	// CorrectionModel names the on-board albedo model of CorrectedP95 and
 	// says when it is the truth's own (CorrectionModelText).
-	CorrectionModel string `json:"albedo_correction_model,omitempty"`
-	NoAlbedoP95   *float64       `json:"no_albedo_p95_deg,omitempty"`
-	TargetDeg     float64        `json:"tolerance_target_deg,omitempty"`
-	Tolerances    []ToleranceRow `json:"tolerances,omitempty"`
+	CorrectionModel string         `json:"albedo_correction_model,omitempty"`
+	NoAlbedoP95     *float64       `json:"no_albedo_p95_deg,omitempty"`
+	TargetDeg       float64        `json:"tolerance_target_deg,omitempty"`
+	Tolerances      []ToleranceRow `json:"tolerances,omitempty"`
 	// CalibrationRange is how far the temperature-dependent sensors may
 	// move from their calibration temperature with the target kept (with a
 	// target and a sensor with a dark signal or gain coefficient).

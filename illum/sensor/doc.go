@@ -91,6 +91,16 @@
 // count the same directions; the ±3.4 % seasonal change of the solar
 // irradiance would move a cosine sensor's 5 % threshold edge by ±0.1°.
 //
+// On-board albedo correction (AlbedoSubtracter, the cosine kind): the flight
+// software subtracts a predicted albedo irradiance E from a reading with the
+// nominal gain, s' = s − E/S_ref (Cosine.SubtractAlbedo), clipped at 0 (a
+// remainder within 4 ulp of s is 0: a perfect prediction leaves no rounding
+// residue a zero threshold would count), valid when s was and s' reaches
+// the threshold. With no gain mismatch and no ADC it returns the reading
+// without albedo (closed form, TestCosineSubtractAlbedoUndoesTheAlbedo);
+// with an ADC the two differ by at most one step
+// (TestCosineSubtractAlbedoWithQuantisation).
+//
 // Validity gate (Gate): every estimate counts as available only when the
 // estimator found one, it uses at least MinSensors sensors, their signals
 // sum to at least MinSignal, and its fit Residual is at most MaxResidual.

@@ -55,8 +55,14 @@
 //     in a percentile, and the estimator's validity threshold clips. Only the
 //     RMS of independent errors linear in their sources adds in RSS (closed
 //     form); the output shows both.
-//   - The albedo correction subtracts a uniform-reflectance prediction from
-//     cosine readings only; two-axis sensors are not corrected.
+//   - The albedo correction subtracts the prediction of the scenario's
+//     on-board model (albedo.onboard; without one, a uniform model of the
+//     truth's value) from the cosine readings in signal units with the
+//     nominal gain, through the engine's corrected readings
+//     (sim.Config.NewCorrection); two-axis sensors are not corrected. When
+//     that model is the truth's own, the correction is perfect by
+//     construction but for gain mismatch and ADC rounding, and the budget
+//     says so.
 //
 // # Accuracy
 //

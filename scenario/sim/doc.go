@@ -116,6 +116,23 @@
 // steps the rule names, before the estimators see them; the sun coverage
 // shares stay geometric.
 //
+// On-board albedo correction (Config.NewCorrection, the scenario's
+// albedo.onboard): a second albedo model, the flight software's, is
+// evaluated on the same step, sensors and route (a table when one serves
+// it), blocked by the body by the same rule as the truth's; each cosine
+// sensor's realistic reading has its prediction subtracted in signal units
+// with the nominal gain (sensor.AlbedoSubtracter: s − E/S_ref, clipped at
+// 0, the threshold applied again) and the estimators run a third time on
+// the result (EstimatorStats.Corrected: validity, error to the true sun,
+// and the angle to the estimate without albedo — the albedo part the
+// correction leaves). Two-axis sensors pass uncorrected. The prediction
+// uses the true position and attitude, so the residual is the model's
+// error and the sensors' own (gain mismatch, ADC rounding, saturation,
+// thresholds), not a navigation error. With the truth's own model and
+// linear readings the residual is zero to rounding (≤ 1e-6°,
+// study.TestOnboardSameModelRemovesAlbedoPart): perfect by construction,
+// which the outputs say.
+//
 // # Assumptions
 //
 // Rigid body; attitude laws are kinematic (no dynamics or control error);

@@ -1,7 +1,6 @@
 package study
 
 import (
-	"context"
 	"fmt"
 	"strings"
 	"testing"
@@ -32,19 +31,7 @@ estimators: [least-squares]
 
 func filterRun(t *testing.T, block string) *sim.FilterStats {
 	t.Helper()
-	s, err := scenario.Parse([]byte(gyroBase+block), ".")
-	if err != nil {
-		t.Fatal(err)
-	}
-	cfg, err := Config(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	res, err := sim.Run(context.Background(), cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return res.Nominal.Filter
+	return runText(t, gyroBase+block).Nominal.Filter
 }
 
 // Every key of the gyro_filter block changes the filter's figures; without

@@ -86,14 +86,14 @@ func (f *Filter) Start(dir r3.Vec) {
 	f.s, f.b = d, r3.Vec{}
 	f.p = mat6{}
 	a, l := f.set.StartSigma*f.set.StartSigma, f.set.StartLengthSigma*f.set.StartLengthSigma
-	dd := outer(d, d)
+	dv := vec(d)
 	for i := range 3 {
 		for j := range 3 {
 			id := 0.0
 			if i == j {
 				id = 1
 			}
-			f.p[i][j] = a*(id-dd[i][j]) + l*dd[i][j]
+			f.p[i][j] = a*(id-dv[i]*dv[j]) + l*dv[i]*dv[j]
 		}
 		f.p[3+i][3+i] = f.set.BiasSigma * f.set.BiasSigma
 	}
@@ -155,7 +155,7 @@ func (f *Filter) Propagate(theta r3.Vec, dt float64) {
 	v2 := f.set.ARW * f.set.ARW * dt
 	l2 := f.set.LengthRate * f.set.LengthRate * dt
 	n2 := r3.Norm2(s)
-	sv, uv := [3]float64{s.X, s.Y, s.Z}, [3]float64{}
+	sv, uv := vec(s), [3]float64{}
 	if n2 > 0 {
 		n := math.Sqrt(n2)
 		uv = [3]float64{s.X / n, s.Y / n, s.Z / n}
@@ -291,25 +291,8 @@ func quad3(p *mat6, h r3.Vec) float64 {
 		h.Z*(p[2][0]*h.X+p[2][1]*h.Y+p[2][2]*h.Z)
 }
 
-func at(v r3.Vec, i int) float64 {
-	switch i {
-	case 0:
-		return v.X
-	case 1:
-		return v.Y
-	}
-	return v.Z
-}
-
-func outer(a, b r3.Vec) [3][3]float64 {
-	var m [3][3]float64
-	for i := range 3 {
-		for j := range 3 {
-			m[i][j] = at(a, i) * at(b, j)
-		}
-	}
-	return m
-}
+// vec is v as an array, for index loops.
+func vec(v r3.Vec) [3]float64 { return [3]float64{v.X, v.Y, v.Z} }
 
 // cross is the matrix [v×] with [v×]w = v × w.
 func cross(v r3.Vec) [3][3]float64 {

@@ -79,7 +79,7 @@ func TestDeltaAngleInvertsARotation(t *testing.T) {
 			var row r3.Vec
 			for j := range 3 {
 				e := [3]r3.Vec{{X: 1}, {Y: 1}, {Z: 1}}[j]
-				row = r3.Add(row, r3.Scale(at(turn.Rotate(e), i), a[j]))
+				row = r3.Add(row, r3.Scale(vec(turn.Rotate(e))[i], a[j]))
 			}
 			b[i] = row
 		}

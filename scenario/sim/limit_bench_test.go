@@ -148,12 +148,34 @@ func BenchmarkStages(b *testing.B) {
 		report(b)
 	})
 	sunBody := make([]r3.Vec, steps)
+	rows := make([]bodyMatrix, steps)
 	law := cfg.Law.(attitude.RowsLaw)
 	b.Run("attitude", func(b *testing.B) {
 		for b.Loop() {
 			for k := range states {
-				M := bodyMatrix(law.Rows(float64(k)*cfg.Step, states[k], sunU[k]))
-				sunBody[k] = M.toBody(sunU[k])
+				rows[k] = bodyMatrix(law.Rows(float64(k)*cfg.Step, states[k], sunU[k]))
+				sunBody[k] = rows[k].toBody(sunU[k])
+			}
+		}
+		report(b)
+	})
+	// The Moon and the Earth: the Moon from the spacecraft, its and the
+	// lit Earth's place in each sensor's cone.
+	b.Run("moon-earth", func(b *testing.B) {
+		g, err := newGeometry(&cfg, cfg.Array, 0, albedoTables{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		vw := newViewer(&cfg, cfg.Array)
+		for b.Loop() {
+			g.moon = newMoonCache(jd0)
+			for k := range states {
+				sg := stepGeom{t: float64(k) * cfg.Step, nadirBody: rows[k].toBody(r3.Scale(-1/r3.Norm(states[k].R), states[k].R))}
+				g.bodies(&sg, &rows[k], states[k].R, sunU[k], sunD[k])
+				for i, c := range vw.cone {
+					vw.v.moonIn[i] = sg.bodies.MoonInCone(c, vw.face[i])
+					vw.v.litEarthIn[i] = sg.bodies.LitEarthInCone(c, vw.face[i])
+				}
 			}
 		}
 		report(b)

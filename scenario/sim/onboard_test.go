@@ -80,3 +80,38 @@ func BenchmarkOnboardCorrection(b *testing.B) {
 		})
 	}
 }
+
+// An on-board model equal to the truth's goes the truth's route: with the
+// albedo tables in use (the LVLH table of a nadir run, the boresight tables
+// of a spinning one), the prediction is read from a table built the same
+// way, so the correction of linear, error-free readings still removes the
+// albedo part to rounding.
+func TestOnboardSameModelThroughTheTables(t *testing.T) {
+	defer func(n, w int) { albedoTableMinSteps, boresightMinWork = n, w }(albedoTableMinSteps, boresightMinWork)
+	albedoTableMinSteps, boresightMinWork = 0, 0
+	for _, c := range []struct {
+		name     string
+		law      attitude.Law
+		boresite bool
+	}{{"nadir, LVLH table", attitude.Nadir{}, false}, {"spin, boresight tables", attitude.Spin{Axis: r3.Unit(r3.Vec{X: 1, Y: 1, Z: 1}), BodyAxis: r3.Unit(r3.Vec{X: 1, Y: 2, Z: 3}), Rate: 0.01}, true}} {
+		cfg := onboardCase(t, 3*3600, false)
+		cfg.Law = c.law
+		cfg.NewCorrection = cfg.NewAlbedo
+		res, err := Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !res.AlbedoTable || res.albedoBoresight != c.boresite {
+			t.Fatalf("%s: table %v, boresight %v", c.name, res.AlbedoTable, res.albedoBoresight)
+		}
+		e := res.Nominal.Estimators[0]
+		k := e.Corrected
+		t.Logf("%s: albedo part p95 %.3f°, residual max %.2g° over %d samples", c.name, e.AlbedoPart.P95Deg, k.ResidualPart.MaxDeg, k.ResidualPart.N)
+		if !(e.AlbedoPart.P95Deg > 1) || k.ResidualPart.N == 0 || k.ResidualPart.MaxDeg > 1e-6 {
+			t.Errorf("%s: albedo part p95 %.3f°, residual max %.3g° over %d samples: want ≤ 1e-6°", c.name, e.AlbedoPart.P95Deg, k.ResidualPart.MaxDeg, k.ResidualPart.N)
+		}
+		if k.ValidFraction != e.ValidFractionNoAlbedo {
+			t.Errorf("%s: valid %.6f corrected, %.6f without albedo", c.name, k.ValidFraction, e.ValidFractionNoAlbedo)
+		}
+	}
+}

@@ -585,6 +585,15 @@ func (r *resolver) albedo(a *fileAlbedo) Albedo {
 		ob := r.albedoModel("albedo.onboard", a.Onboard)
 		out.Onboard = &ob
 	}
+	if a.OnPanels {
+		switch {
+		case out.Model == AlbedoNone:
+			r.fail("albedo.on_panels", "albedo on the panels needs an albedo model; allowed with albedo.model other than %s", AlbedoNone)
+		case !r.hasPanels:
+			r.fail("albedo.on_panels", "value is set but body.panels is empty; allowed only with solar panels listed under body.panels")
+		}
+		out.OnPanels = true
+	}
 	return out
 }
 

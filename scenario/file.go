@@ -177,6 +177,8 @@ type fileAlbedo struct {
 	// subtracted from the cosine readings before a third, corrected run of
 	// the estimators (absent: no on-board correction).
 	Onboard *fileAlbedoModel `yaml:"onboard,omitempty"`
+	// OnPanels adds the albedo on each solar panel to its power.
+	OnPanels bool `yaml:"on_panels,omitempty"`
 }
 
 type fileAlbedoModel struct {

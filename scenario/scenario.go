@@ -256,6 +256,9 @@ type Albedo struct {
 	// prediction is subtracted from the cosine readings before the
 	// estimators run a third time; nil without one.
 	Onboard *Albedo
+	// OnPanels adds the Earth albedo on each panel's front hemisphere to the
+	// solar-array power (albedo.on_panels; the truth model only).
+	OnPanels bool
 }
 
 // Label names the albedo model and its settings in one phrase ("zonal,

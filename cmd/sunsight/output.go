@@ -778,7 +778,11 @@ func (o *runOutput) writePower(w io.Writer) {
 	for _, pn := range o.s.Body.Panels {
 		area += pn.AreaM2
 	}
-	fmt.Fprintf(w, "\nSolar-array power (%d panels, %.4g m², %s attitude; no albedo on the panels)\n", len(o.s.Body.Panels), area, o.s.Attitude.Name)
+	alb := "no albedo on the panels"
+	if o.s.Albedo.OnPanels {
+		alb = "with albedo on the panels"
+	}
+	fmt.Fprintf(w, "\nSolar-array power (%d panels, %.4g m², %s attitude; %s)\n", len(o.s.Body.Panels), area, o.s.Attitude.Name, alb)
 	fmt.Fprintf(w, "  orbit average %.2f W   peak %.2f W\n", p.MeanW, p.PeakW)
 	if p.Orbits > 0 {
 		fmt.Fprintf(w, "  energy per orbit: mean %.2f Wh, worst %.2f Wh (%d whole orbits)\n", p.OrbitMeanWh, p.OrbitWorstWh, p.Orbits)

@@ -24,8 +24,10 @@
 //     degradation, no angle-of-incidence loss beyond cos θ (cover-glass
 //     reflection), no string or converter losses. A temperature
 //     coefficient is not accepted as an input.
-//   - Earth albedo and Earth infrared on the panels are not counted (a
-//     lower bound on the power for panels that face the Earth).
+//   - Earth infrared on the panels is not counted; Earth albedo is counted
+//     only when asked (AlbedoPower: A·η·f times the albedo irradiance on
+//     the panel's plane, which the engine takes from the albedo model on a
+//     90° cosine view of the panel normal, not shaded by the body).
 //   - Obstruction by the bus, the declared obstructions and the other
 //     panels is the panel's lit share, from the caller (scenario/study):
 //     a panel with its sides given is sampled at 8 × 8 equal cells

@@ -79,3 +79,17 @@ func (a *Array) Power(sunBody r3.Vec, irradiance float64) float64 {
 	}
 	return sum
 }
+
+// AlbedoPower returns the power (W) the Earth's reflected light gives the
+// array: irradiance[i] is the albedo irradiance on panel i's plane (W/m²,
+// cosine response over its front hemisphere). It allocates nothing.
+func (a *Array) AlbedoPower(irradiance []float64) float64 {
+	var sum float64
+	for i := range a.Panels {
+		if e := irradiance[i]; e > 0 {
+			p := &a.Panels[i]
+			sum += e * p.AreaM2 * p.Efficiency * p.PackingFactor
+		}
+	}
+	return sum
+}

@@ -18,7 +18,11 @@ func powerFigure(in *figureInput) (Named, bool, error) {
 	}
 	pv.Target = in.tg.power
 	pc := in.cap
-	pc.Assumptions = "panels fixed to the body in the nominal attitude; cosine law, no albedo on the panels; " + pc.Assumptions
+	alb := "no albedo on the panels"
+	if in.cfg.PanelAlbedo && in.cfg.NewAlbedo != nil {
+		alb = "albedo on each panel's front hemisphere (not shaded by the body)"
+	}
+	pc.Assumptions = "panels fixed to the body in the nominal attitude; cosine law, " + alb + "; " + pc.Assumptions
 	c, err := pv.Plot(pc)
 	return Named{Title: "Solar-array power: the first orbits and the mean of each whole orbit", Chart: c, Tells: powerTells(in.res, in.tg.power)}, true, err
 }

@@ -121,6 +121,10 @@ type Config struct {
 	// Panels, when set, are the solar panels whose power is followed over
 	// the run with the nominal attitude (Result.Power).
 	Panels *power.Array
+	// PanelAlbedo adds to the panels' power the Earth albedo on each panel's
+	// front hemisphere (the run's albedo model, cosine response); false: the
+	// direct sun only.
+	PanelAlbedo bool
 
 	// Progress, when not nil, is called from the unit-0 loop with the
 	// fraction done; it must be cheap.

@@ -9,6 +9,7 @@ import (
 
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/power"
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/orbit"
@@ -230,4 +231,62 @@ func TestPowerSeriesOnTheSeriesSamples(t *testing.T) {
 	if res, err = Run(context.Background(), cfg); err != nil || res.PowerSeries != nil {
 		t.Errorf("no series asked: power series %v, %v", res.PowerSeries, err)
 	}
+}
+
+// Albedo on the panels: a nadir-facing panel in nadir pointing sees the
+// sun only near the terminator, so with albedo.on_panels its power is
+// mostly the Earth's reflected light. The added power equals A·η·f times
+// the albedo model's irradiance on a 90° cosine view of the panel's normal
+// (the same integral the sensors use, checked against numpy in
+// illum/albedo), and never exceeds A·η·f·ρ·S(r)·(R/r)², the irradiance
+// under a fully lit Lambertian Earth filling the nadir hemisphere (closed
+// form); without the key the sum is the direct sun only.
+func TestPanelAlbedoPower(t *testing.T) {
+	cfg := referenceCase(t, 0.25, true)
+	cfg.SeriesStride = 1
+	const area, eta, f = 0.08, 0.3, 0.9
+	arr, err := power.NewArray(power.Panel{Name: "nadir", Normal: r3.Vec{Z: 1}, AreaM2: area, Efficiency: eta, PackingFactor: f})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Panels = arr
+	direct, err := Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.PanelAlbedo = true
+	withAlb, err := Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(withAlb.Power.MeanW > direct.Power.MeanW+0.1) {
+		t.Fatalf("nadir panel: %.4f W with albedo, %.4f W without", withAlb.Power.MeanW, direct.Power.MeanW)
+	}
+	// Independent sum of the albedo model on the panel's view.
+	m, err := cfg.NewAlbedo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	prop := cfg.NewPropagator()
+	jd0, jdUT0 := ephem.JulianDateTT(cfg.Epoch), ephem.JulianDateUT1(cfg.Epoch)
+	out := make([]albedo.Result, 1)
+	r := orbit.RadiusEarthKm + 550
+	bound := area * eta * f * 0.3 * ephem.SolarIrradiance1AU * 1.04 * (illum.EarthRadiusKm / r) * (illum.EarthRadiusKm / r)
+	worst := 0.0
+	for i, tt := range withAlb.PowerSeries.T {
+		st := prop.StateAt(tt)
+		u, d := cfg.Sun.Position(jd0 + tt/86400)
+		m.Irradiance(out, st.R, u, d, ephem.GMST(jdUT0+tt/86400), jd0+tt/86400, []albedo.Sensor{{Normal: r3.Scale(-1/r3.Norm(st.R), st.R), HalfAngle: math.Pi / 2}})
+		got := withAlb.PowerSeries.W[i] - direct.PowerSeries.W[i]
+		want := area * eta * f * out[0].Irradiance
+		worst = math.Max(worst, math.Abs(got-want))
+		if got > bound {
+			t.Fatalf("t %.0f s: albedo power %.4f W above the full-disc bound %.4f W", tt, got, bound)
+		}
+	}
+	if worst > 1e-3*bound {
+		t.Errorf("albedo power against the model's irradiance on the panel: worst difference %.3g W (bound %.3g W)", worst, bound)
+	}
+	t.Logf("nadir panel: %.4f W direct only, %.4f W with albedo; worst difference from the model's irradiance %.2g W; bound %.3f W",
+		direct.Power.MeanW, withAlb.Power.MeanW, worst, bound)
 }

@@ -553,6 +553,7 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 		Seed: uint64(s.Seed), Units: max(s.MonteCarlo.Units, 1), FalseSunBoundDeg: s.Validity.FalseSunBoundDeg, Gates: Gates(s, ests),
 		MountNormals: mountNormals(sensors),
 		Panels:       panels,
+		PanelAlbedo:  s.Albedo.OnPanels,
 		Filter:       FilterConfig(s),
 	}
 	return cfg, cfg.Validate()

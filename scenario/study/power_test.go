@@ -239,3 +239,50 @@ func TestPanelSizeHasEffect(t *testing.T) {
 	}
 	t.Logf("orbit average: wings judged at their centre %.4f W, sampled wings shading the body panels %.4f W", a.Power.MeanW, b.Power.MeanW)
 }
+
+// albedo.on_panels reaches the power: the demo's Earth-facing body panels
+// gain the reflected light; refused without an albedo model or panels.
+func TestAlbedoOnPanelsKey(t *testing.T) {
+	data, err := os.ReadFile("../../examples/power-6u.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	run := func(txt string) *sim.Result {
+		s, err := scenario.Parse([]byte(txt), "../../examples")
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.Duration = scenario.Span(3 * 3600e9)
+		cfg, err := Config(s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res, err := sim.Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return res
+	}
+	txt := string(data)
+	on := strings.Replace(txt, "  value: 0.30\n", "  value: 0.30\n  on_panels: true\n", 1)
+	if on == txt {
+		t.Fatal("the example's albedo block changed: the test cannot add the key")
+	}
+	a, b := run(txt), run(on)
+	if !(b.Power.MeanW > a.Power.MeanW) {
+		t.Errorf("albedo on the panels: %.4f W, without %.4f W; want more", b.Power.MeanW, a.Power.MeanW)
+	}
+	t.Logf("orbit average %.4f W direct only, %.4f W with albedo on the panels", a.Power.MeanW, b.Power.MeanW)
+	for name, txt := range map[string]string{
+		"no albedo model": strings.Replace(on, "  model: uniform\n", "  model: none\n", 1),
+		"no panels": func() string {
+			i, j := strings.Index(on, "  panels:"), strings.Index(on, "albedo:")
+			k := strings.Index(on, "targets:")
+			return on[:i] + on[j:k]
+		}(),
+	} {
+		if _, err := scenario.Parse([]byte(txt), "../../examples"); err == nil || !strings.Contains(err.Error(), "albedo.on_panels") {
+			t.Errorf("%s: error %v, want one naming albedo.on_panels", name, err)
+		}
+	}
+}

@@ -2,6 +2,7 @@ package scenario
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"path/filepath"
 	"slices"
@@ -42,7 +43,6 @@ const (
 	defaultThreshold     = 0.05
 	defaultFullScale     = 1.5 // × normal sun at 1 AU: room for perihelion (+3.4 %), albedo (≈ +0.3) and gain spread (common practice, no source)
 	defaultADCBits       = 12
-	defaultMaxRate       = 10.0 // deg/s: a typical post-deployment tip-off bound
 	// defaultFalseSunBoundDeg: a valid estimate this far from the sun points
 	// the spacecraft at the wrong thing, well beyond the few degrees of
 	// albedo bias of a coarse sensor (the engine's default; common practice,
@@ -421,20 +421,42 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		return Law{}
 	}
 	out := Law{Name: l.Law, Orientation: quat.Number{Real: 1}}
-	switch l.Law {
-	case LawNadir:
-		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
-		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, "+X")
-		out.RollRad = r.angle(path+".roll_offset_deg", setDefault(&l.RollOffsetDeg, 0), -180, 180)
-		out.PitchRad = r.angle(path+".pitch_offset_deg", setDefault(&l.PitchOffsetDeg, 0), -180, 180)
-		out.YawRad = r.angle(path+".yaw_offset_deg", setDefault(&l.YawOffsetDeg, 0), -180, 180)
-		r.choice(path+".align_to", &l.AlignTo, AlignVelocity, []string{AlignVelocity, AlignSun})
+	resolve, ok := lawResolvers[l.Law]
+	if !ok {
+		r.fail(path+".law", "value %q has no reader of its keys; allowed %s", l.Law, strings.Join(slices.Sorted(maps.Keys(lawResolvers)), ", "))
+		return Law{}
+	}
+	resolve(r, path, l, info, &out)
+	if (l.Law == LawNadir || l.Law == LawSun) && r3.Norm(r3.Cross(out.PointAxis, out.AlignAxis)) < 1e-9 && r3.Norm(out.PointAxis) > 0 && r3.Norm(out.AlignAxis) > 0 {
+		r.fail(path+".align_axis", "value %q is parallel to point_axis %q, so it fixes no rotation about the pointed axis; allowed a body axis perpendicular to point_axis (for example +X with point_axis +Z)", l.AlignAxis, l.PointAxis)
+	}
+	given := l.given()
+	for _, k := range attitude.LawKeys() {
+		if given[k] && !slices.Contains(info.Keys, k) {
+			r.fail(path+"."+k, "value does not apply to law %q; allowed only that law's keys", l.Law)
+		}
+	}
+	return out
+}
+
+// lawResolvers read each registered law's keys from the file, with the
+// defaults and choices of its registry entry (attitude.LawInfo): one entry
+// per law (TestEveryLawHasAReader).
+var lawResolvers = map[string]func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law){
+	attitude.NameNadir: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
+		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, info.Word("point_axis"))
+		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, info.Word("align_axis"))
+		out.RollRad = r.angle(path+".roll_offset_deg", setDefault(&l.RollOffsetDeg, info.Number("roll_offset_deg")), -180, 180)
+		out.PitchRad = r.angle(path+".pitch_offset_deg", setDefault(&l.PitchOffsetDeg, info.Number("pitch_offset_deg")), -180, 180)
+		out.YawRad = r.angle(path+".yaw_offset_deg", setDefault(&l.YawOffsetDeg, info.Number("yaw_offset_deg")), -180, 180)
+		r.choice(path+".align_to", &l.AlignTo, info.Word("align_to"), info.Choices["align_to"])
 		out.AlignTo = l.AlignTo
-	case LawSun:
-		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, "+Z")
-		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, "+X")
-		out.ClockRad = r.angle(path+".clock_deg", setDefault(&l.ClockDeg, 0), -360, 360)
-		r.choice(path+".align_to", &l.AlignTo, AlignOrbitNormal, []string{AlignOrbitNormal, AlignNadir, AlignInertial})
+	},
+	attitude.NameSun: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
+		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, info.Word("point_axis"))
+		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, info.Word("align_axis"))
+		out.ClockRad = r.angle(path+".clock_deg", setDefault(&l.ClockDeg, info.Number("clock_deg")), -360, 360)
+		r.choice(path+".align_to", &l.AlignTo, info.Word("align_to"), info.Choices["align_to"])
 		out.AlignTo = l.AlignTo
 		if l.AlignTo == AlignInertial {
 			v := r.vec(path+".align_inertial", l.AlignInertial, r3.Vec{})
@@ -447,48 +469,60 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		if l.AlignTo != AlignInertial && l.AlignInertial != nil {
 			r.fail(path+".align_inertial", "value applies with align_to: inertial only; allowed align_to: inertial with align_inertial, or no align_inertial")
 		}
-		rate := setDefault(&l.RateDegS, 0)
+		rate := setDefault(&l.RateDegS, info.Number("rate_deg_s"))
 		r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s (spin about the sun line)")
 		out.RateRadS = rate * deg
-	case LawInertial, LawSpin:
-		r.orientation(path, l, &out)
-		if l.Law == LawSpin {
-			out.SpinAxis = r.axis(path+".spin_axis", &l.SpinAxis, "+Z")
-			rate := setDefault(&l.RateDegS, 1)
-			r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s")
-			out.RateRadS = rate * deg
-		}
-	case attitude.NameReplay:
+	},
+	attitude.NameInertial: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
+		r.orientation(path, l, info, out)
+	},
+	attitude.NameSpin: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
+		r.orientation(path, l, info, out)
+		out.SpinAxis = r.axis(path+".spin_axis", &l.SpinAxis, info.Word("spin_axis"))
+		rate := setDefault(&l.RateDegS, info.Number("rate_deg_s"))
+		r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s")
+		out.RateRadS = rate * deg
+	},
+	attitude.NameReplay: func(r *resolver, path string, l *fileLaw, _ attitude.LawInfo, out *Law) {
 		if l.File == "" {
 			r.fail(path+".file", "value is missing; allowed the path of an attitude history: a CCSDS AEM (KVN, .aem) or a table time_utc,qx,qy,qz,qw (.csv)")
 		}
 		out.File = r.path(l.File)
-	case LawTumble, attitude.NameDetumble:
-		m := setDefault(&l.MaxRateDegS, defaultMaxRate)
-		r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
-		lo := setDefault(&l.MinRateDegS, 0)
-		r.rangeCheck(path+".min_rate_deg_s", lo, 0, 360, false, "[0, 360] deg/s")
-		if lo > m {
-			r.fail(path+".min_rate_deg_s", "value %g is above max_rate_deg_s %g; allowed min_rate_deg_s ≤ max_rate_deg_s (equal values fix the rate)", lo, m)
+	},
+	attitude.NameTumble: (*resolver).rates,
+	attitude.NameDetumble: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
+		r.rates(path, l, info, out)
+		if l.TimeConstant == nil {
+			r.fail(path+".time_constant", "value is missing; allowed the e-folding time of the detumbling controller's rate, such as 40m")
+		} else if *l.TimeConstant <= 0 {
+			r.fail(path+".time_constant", "value %s is not positive; allowed a length of time > 0 such as 40m", *l.TimeConstant)
+		} else {
+			out.TimeConstantS = l.TimeConstant.Seconds()
 		}
-		out.MinRateRadS, out.MaxRateRadS = lo*deg, m*deg
-		if l.InertiaKgM2 != nil {
-			out.Inertia, out.HasInertia = r.inertia(path+".inertia_kg_m2", l.InertiaKgM2)
-		}
-		if l.Law == attitude.NameDetumble {
-			if l.TimeConstant == nil {
-				r.fail(path+".time_constant", "value is missing; allowed the e-folding time of the detumbling controller's rate, such as 40m")
-			} else if *l.TimeConstant <= 0 {
-				r.fail(path+".time_constant", "value %s is not positive; allowed a length of time > 0 such as 40m", *l.TimeConstant)
-			} else {
-				out.TimeConstantS = l.TimeConstant.Seconds()
-			}
-		}
+	},
+	attitude.NameIsotropic: func(*resolver, string, *fileLaw, attitude.LawInfo, *Law) {},
+}
+
+// rates reads the initial-rate bounds of a tumble (and a detumble) and its
+// inertia tensor.
+func (r *resolver) rates(path string, l *fileLaw, info attitude.LawInfo, out *Law) {
+	m := setDefault(&l.MaxRateDegS, info.Number("max_rate_deg_s"))
+	r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
+	lo := setDefault(&l.MinRateDegS, info.Number("min_rate_deg_s"))
+	r.rangeCheck(path+".min_rate_deg_s", lo, 0, 360, false, "[0, 360] deg/s")
+	if lo > m {
+		r.fail(path+".min_rate_deg_s", "value %g is above max_rate_deg_s %g; allowed min_rate_deg_s ≤ max_rate_deg_s (equal values fix the rate)", lo, m)
 	}
-	if (l.Law == LawNadir || l.Law == LawSun) && r3.Norm(r3.Cross(out.PointAxis, out.AlignAxis)) < 1e-9 && r3.Norm(out.PointAxis) > 0 && r3.Norm(out.AlignAxis) > 0 {
-		r.fail(path+".align_axis", "value %q is parallel to point_axis %q, so it fixes no rotation about the pointed axis; allowed a body axis perpendicular to point_axis (for example +X with point_axis +Z)", l.AlignAxis, l.PointAxis)
+	out.MinRateRadS, out.MaxRateRadS = lo*deg, m*deg
+	if l.InertiaKgM2 != nil {
+		out.Inertia, out.HasInertia = r.inertia(path+".inertia_kg_m2", l.InertiaKgM2)
 	}
-	given := map[string]bool{
+}
+
+// given says which law keys the file sets, by key (every key of
+// attitude.LawKeys, TestFileLawKnowsEveryLawKey).
+func (l *fileLaw) given() map[string]bool {
+	return map[string]bool{
 		"point_axis": l.PointAxis != "", "align_axis": l.AlignAxis != "", "roll_offset_deg": l.RollOffsetDeg != nil,
 		"pitch_offset_deg": l.PitchOffsetDeg != nil, "yaw_offset_deg": l.YawOffsetDeg != nil, "clock_deg": l.ClockDeg != nil,
 		"quaternion": l.Quaternion != nil, "euler_deg": l.EulerDeg != nil, "euler_sequence": l.EulerSequence != "",
@@ -497,12 +531,6 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 		"align_to": l.AlignTo != "", "align_inertial": l.AlignInertial != nil, "file": l.File != "",
 		"time_constant": l.TimeConstant != nil,
 	}
-	for _, k := range attitude.LawKeys() {
-		if given[k] && !slices.Contains(info.Keys, k) {
-			r.fail(path+"."+k, "value does not apply to law %q; allowed only that law's keys", l.Law)
-		}
-	}
-	return out
 }
 
 // inertia reads an inertia tensor given as [Ixx, Iyy, Izz] (principal axes
@@ -530,7 +558,7 @@ func (r *resolver) inertia(path string, v []float64) ([3][3]float64, bool) {
 	return J, true
 }
 
-func (r *resolver) orientation(path string, l *fileLaw, out *Law) {
+func (r *resolver) orientation(path string, l *fileLaw, info attitude.LawInfo, out *Law) {
 	switch {
 	case l.Quaternion != nil && l.EulerDeg != nil:
 		r.fail(path+".euler_deg", "value is given together with quaternion; allowed one of them")
@@ -553,7 +581,7 @@ func (r *resolver) orientation(path string, l *fileLaw, out *Law) {
 			return
 		}
 		if l.EulerSequence == "" {
-			l.EulerSequence = "321"
+			l.EulerSequence = info.Word("euler_sequence")
 		}
 		if !oneOf(l.EulerSequence, eulerSeqs) {
 			r.fail(path+".euler_sequence", "value %q is unknown; allowed %s", l.EulerSequence, strings.Join(eulerSeqs, ", "))

@@ -102,6 +102,32 @@ var runInvariants = []invariant{
 	{"filter-figures-consistent", checkFilterFigures},
 	{"filter-leaves-estimators", checkFilterLeavesEstimators},
 	{"power-zero-in-umbra-linear-in-area-and-efficiency", checkPowerUmbraAndLinear},
+	{"lit-earth-only-over-the-day-side", checkLitEarthDaySide},
+}
+
+// The lit Earth is in view only while the sub-satellite point is sunlit
+// (r·ŝ > 0), and every shadow lies on the night side (r·ŝ < 0 above 100 km:
+// the penumbra cone is wider than the Earth by less than 0.1 km at the
+// terminator plane, closed form), so each sensor's lit-Earth share is at
+// most the sunlit share; every Moon, lit-Earth and blinded share is a
+// fraction in [0, 1].
+func checkLitEarthDaySide(c *runCase) (f failures) {
+	for _, u := range c.res.Units {
+		for _, s := range u.Sensors {
+			if s.LitEarthInViewFraction > u.SunlitFraction+eps {
+				f.addf("unit %d, %s: lit Earth in view %.6f > sunlit %.6f", u.Unit, s.Name, s.LitEarthInViewFraction, u.SunlitFraction)
+			}
+			for _, v := range []float64{s.MoonInViewFraction, s.LitEarthInViewFraction} {
+				if !(v >= 0 && v <= 1) {
+					f.addf("unit %d, %s: Moon or lit-Earth share %v outside [0, 1]", u.Unit, s.Name, v)
+				}
+			}
+			if b := s.BlindedFraction; !math.IsNaN(b) && !(b >= 0 && b <= 1) {
+				f.addf("unit %d, %s: blinded share %v outside [0, 1]", u.Unit, s.Name, b)
+			}
+		}
+	}
+	return f
 }
 
 // sunlit + penumbra + umbra = 1; cylindrical shadow ⇒ penumbra = 0.

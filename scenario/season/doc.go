@@ -15,7 +15,7 @@
 // The eclipse distribution follows the scenario's own propagator, sun and
 // shadow over the whole span: the event search of the run (60 s sampling,
 // events to 1 ms), orbits from one orbit noon (the point nearest the sun,
-// v·ŝ = 0 going negative, to 0.01 s) to the next, so that an eclipse, centred
+// v·ŝ = 0 going negative, placed by linear interpolation) to the next, so that an eclipse, centred
 // half an orbit away, never straddles two; each orbit's shadow time is the
 // penumbra entry to exit of its eclipses. It gives the share of orbits
 // without eclipse, the share with more shadow than a stated duration and a

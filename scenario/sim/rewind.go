@@ -62,3 +62,7 @@ func (c *checkpointed) Fill(dst []orbit.State, t0, dt float64) {
 		dst[k] = c.StateAt(t0 + float64(k)*dt)
 	}
 }
+
+// Rewindable is rewindable for callers outside the engine that ask for
+// states a little back in time (an event search, a planner).
+func Rewindable(newProp func() orbit.Propagator) orbit.Propagator { return rewindable(newProp) }

@@ -53,7 +53,7 @@ func buildTimeline(s *scenario.Scenario, newProp func() orbit.Propagator, sun ep
 		phases = append(phases, p)
 	}
 	D, step := s.Duration.Seconds(), s.Step.Seconds()
-	prop := newProp()
+	prop := sim.Rewindable(newProp) // the event search refines back in time
 	jd0 := ephem.JulianDateTT(s.Epoch)
 	sunAt := func(t float64) r3.Vec { u, _ := sun.Position(jd0 + t/86400); return u }
 	g := func(t float64) (r3.Vec, r3.Vec) {
@@ -74,8 +74,8 @@ func buildTimeline(s *scenario.Scenario, newProp func() orbit.Propagator, sun ep
 		return n
 	}
 	// The planner asks for states out of order (slew targets ahead of the
-	// scan): a second propagator keeps each one's requests increasing.
-	plan := newProp()
+	// scan, holds back at shadow entry).
+	plan := sim.Rewindable(newProp)
 	env := timeline.Env{DurationS: D, StepS: step, State: plan.StateAt, Sun: sunAt, Shadows: shadows, Seen: seen}
 	p, err := timeline.Build(phases, timeline.Limits{RateRadS: tl.SlewRateRadS, AccelRadS2: tl.SlewAccelRadS2}, env)
 	if err != nil {

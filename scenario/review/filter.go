@@ -13,7 +13,7 @@ import (
 // filterModel and filterSource are the models-table row of the
 // gyro-aided filter.
 const (
-	filterModel  = "Gyro-aided filter: extended Kalman filter of the body-frame sun vector and the gyro bias (estimated), propagated with the rate gyro, updated with every valid cosine and two-axis reading"
+	filterModel  = "extended Kalman filter of the body-frame sun vector and the gyro bias (estimated), propagated with the rate gyro, updated with every valid cosine and two-axis reading"
 	filterSource = "cosine measurement model: O'Keefe & Schaub, J. Astronaut. Sci. 61(1), 2014; EKF and gyro model (angle random walk, Gauss–Markov bias): Crassidis & Junkins, Optimal Estimation of Dynamic Systems, 2nd ed., 2012, ch. 3 and 7 (both from memory)"
 )
 
@@ -32,7 +32,9 @@ func filterTable(s *scenario.Scenario, res *sim.Result) (plots.Table, bool) {
 		Note: fmt.Sprintf("Gyro %.2f°/√h angle random walk and %.1f°/h bias instability (1σ, drifting over %.0f s), the bias estimated; "+
 			"valid while the filter's own 1σ is within %.1f°, restarted from the primary point estimate when not. "+
 			"Its readings are taken as independent from step to step: dark offsets, gain errors, misalignment and albedo that last "+
-			"are not in its model, so its own 1σ is optimistic; the errors here are against the true sun.",
+			"are not in its model, so its own 1σ is optimistic; the errors here are against the true sun. "+
+			"The held point estimate is exact where the attitude law keeps the sun still in body axes (sun or inertial pointing); "+
+			"in flight that attitude would itself be held with the same gyro.",
 			g.ARW*toDeg*60, g.BiasSigma*toDeg*3600, g.BiasTauS, g.ValidSigma*toDeg)}
 	brk := "every one held"
 	if !math.IsNaN(f.ShortestBreakS) {

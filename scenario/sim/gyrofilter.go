@@ -10,6 +10,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sensor/filter"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 // FilterConfig runs the gyro-aided sun-direction filter (illum/sensor/filter)
@@ -71,7 +72,15 @@ type FilterStats struct {
 	// Starts counts the (re)starts of the filter from a point estimate.
 	Starts       int
 	HoldBoundDeg float64
+	// MaxStepTurnDeg is the largest body rotation over one step (deg):
+	// the filter's linearisation is checked up to 50° a step.
+	MaxStepTurnDeg float64
 }
+
+// MaxCheckedStepTurnDeg is the largest body turn per step at which the
+// filter's covariance was checked consistent (the NEES test of
+// illum/sensor/filter at 10°/s and 5 s steps).
+const MaxCheckedStepTurnDeg = 50.0
 
 // gyroFilter is one unit's filter, its gyro and its accumulator.
 type gyroFilter struct {
@@ -96,6 +105,7 @@ type gyroFilter struct {
 	outStart                            float64
 	outages, held, starts               int
 	shortestBreak, longestHeld          float64
+	maxTurn                             float64 // rad
 }
 
 // newGyroFilter builds unit u's filter; its gyro draws come from their own
@@ -149,7 +159,9 @@ func cosineSigma(e sensor.Errors, extra float64) float64 {
 func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estimate) {
 	if g.started {
 		dt := sg.t - g.prevT
-		g.f.Propagate(g.gyro.Measure(filter.DeltaAngle(g.prev, sg.body), dt, g.rng), dt)
+		th := filter.DeltaAngle(g.prev, sg.body)
+		g.maxTurn = math.Max(g.maxTurn, vecmath.Norm(th))
+		g.f.Propagate(g.gyro.Measure(th, dt, g.rng), dt)
 	}
 	g.prev, g.prevT, g.started = sg.body, sg.t, true
 	if !g.f.Valid() && prim.Valid {
@@ -226,7 +238,7 @@ func (g *gyroFilter) result(tEnd float64) *FilterStats {
 	s := &FilterStats{ValidFraction: frac(g.valid, g.samples), ValidShadowFraction: frac(g.validShadow, g.shadow),
 		Err: errorStats(&g.mErr, g.qErr), ErrShadow: errorStats(&g.mShadow, g.qShadow), HoldLastShadow: errorStats(&g.mHold, g.qHold),
 		Outages: g.outages, OutagesHeld: g.held, ShortestBreakS: g.shortestBreak, LongestHeldS: g.longestHeld,
-		Starts: g.starts, HoldBoundDeg: g.cfg.HoldBoundDeg}
+		Starts: g.starts, HoldBoundDeg: g.cfg.HoldBoundDeg, MaxStepTurnDeg: degOf(g.maxTurn)}
 	if math.IsInf(s.ShortestBreakS, 1) {
 		s.ShortestBreakS = math.NaN()
 	}

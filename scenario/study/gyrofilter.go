@@ -1,6 +1,8 @@
 package study
 
 import (
+	"fmt"
+
 	"codeberg.org/sunsight/sunsight/illum/sensor/filter"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -29,4 +31,23 @@ func FilterConfig(s *scenario.Scenario) *sim.FilterConfig {
 			StartSigma: g.StartSigma, StartLengthSigma: startLengthSigma, MaxSigma: g.ValidSigma, Gate: g.Gate},
 		CosineSigma: g.CosineSigma, HoldBoundDeg: g.HoldBoundDeg,
 	}
+}
+
+// filterWarnings says when the body turned further in one step than the
+// filter's covariance was checked at (any unit).
+func filterWarnings(res *sim.Result) []string {
+	if res == nil {
+		return nil
+	}
+	worst := 0.0
+	for _, u := range res.Units {
+		if u.Filter != nil {
+			worst = max(worst, u.Filter.MaxStepTurnDeg)
+		}
+	}
+	if worst <= sim.MaxCheckedStepTurnDeg {
+		return nil
+	}
+	return []string{fmt.Sprintf("the body turns up to %.0f° in one step, beyond the %.0f° a step at which the gyro-aided filter's covariance was checked: its figures may be optimistic; shorten the step",
+		worst, sim.MaxCheckedStepTurnDeg)}
 }

@@ -71,3 +71,20 @@ func TestGyroFilterRefusesBadValues(t *testing.T) {
 		}
 	}
 }
+
+// A tumble of 8°/s at 10 s steps (80° a step) is beyond what the filter's
+// covariance was checked at: the run warns; 1–2°/s does not.
+func TestFilterWarnsOfLargeTurnsPerStep(t *testing.T) {
+	s, err := scenario.Parse([]byte(gyroBase+"gyro_filter: {}\n"), ".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if w := filterWarnings(runText(t, gyroBase+"gyro_filter: {}\n")); len(w) != 0 {
+		t.Errorf("warned at 20° a step: %v", w)
+	}
+	fast := strings.Replace(gyroBase, "min_rate_deg_s: 1, max_rate_deg_s: 2", "min_rate_deg_s: 8, max_rate_deg_s: 8", 1)
+	w := Warnings(s, runText(t, fast+"gyro_filter: {}\n"))
+	if len(w) == 0 || !strings.Contains(w[len(w)-1], "80° in one step") {
+		t.Errorf("no warning of 80° a step: %v", w)
+	}
+}

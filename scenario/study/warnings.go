@@ -50,5 +50,5 @@ func Warnings(s *scenario.Scenario, res *sim.Result) []string {
 			out = append(out, msg)
 		}
 	}
-	return out
+	return append(out, filterWarnings(res)...)
 }

@@ -330,6 +330,7 @@ func (r *Runner) traceFor(ctx context.Context, c Case, cfg *sim.Config) *sim.Tra
 		if err != nil || sim.TraceBytes(&base) > maxTraceBytes {
 			return
 		}
+		base.NewCorrection = nil             // as Config leaves every case without a correction
 		r.trace, _ = sim.NewTrace(ctx, base) // nil on error: the cases run in full
 	})
 	return r.trace

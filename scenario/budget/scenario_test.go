@@ -271,7 +271,18 @@ func TestStudyReport(t *testing.T) {
 // case's figures equal those of a full simulation of that case (with and
 // without albedo, with every source, on the calibrated values).
 func TestSharedGeometryEqualsFullRuns(t *testing.T) {
-	r := loadRunner(t, nil)
+	for _, onboard := range []bool{false, true} {
+		r := loadRunner(t, func(s *scenario.Scenario) {
+			if onboard { // the scenario's on-board model acts only in correction cases
+				s.Albedo.Onboard = &scenario.Albedo{Model: "uniform", Value: 0.25, Cells: s.Albedo.Cells}
+			}
+		})
+		checkSharedGeometry(t, r)
+	}
+}
+
+func checkSharedGeometry(t *testing.T, r *Runner) {
+	t.Helper()
 	ctx := context.Background()
 	cal := All()
 	cal.Calibrated = true

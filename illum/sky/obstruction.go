@@ -231,7 +231,47 @@ func NewPlate(centre, n r3.Vec, sizeU, sizeV float64, obstacles []Obstacle) Plat
 			pts = append(pts, r3.Add(centre, r3.Add(r3.Scale(a, u), r3.Scale(b, v))))
 		}
 	}
-	return Plate{Points: pts, Face: n, Obstacles: obstacles}
+	// An obstacle wholly at or behind the plate's plane cannot block a ray
+	// that leaves the plate's front (d·n > 0): leave it out.
+	var front []Obstacle
+	for _, ob := range obstacles {
+		if !behindPlane(ob, centre, n) {
+			front = append(front, ob)
+		}
+	}
+	return Plate{Points: pts, Face: n, Obstacles: front}
+}
+
+// behindPlane reports whether an obstacle lies wholly at or behind the
+// plane through p of normal n (its corners, or its axis ends less its
+// radius, have (x − p)·n ≤ 1e-12); false for a shape it does not know.
+func behindPlane(ob Obstacle, p, n r3.Vec) bool {
+	below := func(x r3.Vec, r float64) bool { return r3.Dot(r3.Sub(x, p), n)+r <= 1e-12 }
+	switch o := ob.(type) {
+	case Box:
+		for _, sx := range []float64{-1, 1} {
+			for _, sy := range []float64{-1, 1} {
+				for _, sz := range []float64{-1, 1} {
+					if !below(r3.Add(o.Centre, r3.Vec{X: sx * o.Half.X, Y: sy * o.Half.Y, Z: sz * o.Half.Z}), 0) {
+						return false
+					}
+				}
+			}
+		}
+		return true
+	case Rectangle:
+		for _, a := range []float64{-1, 1} {
+			for _, b := range []float64{-1, 1} {
+				if !below(r3.Add(o.Centre, r3.Add(r3.Scale(a, o.HalfU), r3.Scale(b, o.HalfV))), 0) {
+					return false
+				}
+			}
+		}
+		return true
+	case Cylinder:
+		return below(o.A, o.Radius) && below(o.B, o.Radius)
+	}
+	return false
 }
 
 // PlateRectangle returns the outline of the plate NewPlate samples, as an

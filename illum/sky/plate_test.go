@@ -82,3 +82,26 @@ func TestPlateProperties(t *testing.T) {
 		t.Errorf("%g allocations per share", n)
 	}
 }
+
+// Obstacles wholly behind the plate's plane are left out (they cannot
+// block a ray leaving its front) and the shares do not change: the bus box
+// under a face panel, a coplanar neighbour, a rod behind; a box in front
+// stays.
+func TestPlateDropsObstaclesBehind(t *testing.T) {
+	bus := Box{Half: r3.Vec{X: 0.1, Y: 0.05, Z: 0.2}}
+	behind := []Obstacle{bus, Rectangle{Centre: r3.Vec{X: 0.1, Y: 0.3}, HalfU: r3.Vec{Y: 0.1}, HalfV: r3.Vec{Z: 0.1}},
+		Cylinder{A: r3.Vec{X: -0.1}, B: r3.Vec{X: 0.05, Y: 0.3}, Radius: 0.01}}
+	front := Box{Centre: r3.Vec{X: 0.3}, Half: r3.Vec{X: 0.05, Y: 0.05, Z: 0.05}}
+	p := NewPlate(r3.Vec{X: 0.1}, r3.Vec{X: 1}, 0.1, 0.4, append(behind, front))
+	if len(p.Obstacles) != 1 || p.Obstacles[0] != Obstacle(front) {
+		t.Fatalf("kept %v, want only the box in front", p.Obstacles)
+	}
+	full := Plate{Points: p.Points, Face: p.Face, Obstacles: append(behind, front)}
+	for i := range 500 {
+		a, b := 0.37*float64(i), 0.11*float64(i)
+		d := r3.Vec{X: math.Cos(a) * math.Cos(b), Y: math.Sin(a) * math.Cos(b), Z: math.Sin(b)}
+		if p.LitShare(d) != full.LitShare(d) {
+			t.Fatalf("direction %v: share %g with the obstacles left out, %g with all", d, p.LitShare(d), full.LitShare(d))
+		}
+	}
+}

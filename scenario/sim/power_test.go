@@ -125,8 +125,9 @@ func TestPowerNadirBodyPanelsClosedForm(t *testing.T) {
 }
 
 // BenchmarkReferenceDayPower runs one day at 10 s of the bench reference
-// case without albedo, without and with six body panels (the power pass
-// runs beside the sensor loop).
+// case without albedo, without and with six body panels judged at their
+// centres and sampled over their areas (the power pass runs beside the
+// sensor loop).
 func BenchmarkReferenceDayPower(b *testing.B) {
 	var panels []power.Panel
 	for _, n := range []r3.Vec{{X: 1}, {X: -1}, {Y: 1}, {Y: -1}, {Z: 1}, {Z: -1}} {
@@ -136,17 +137,31 @@ func BenchmarkReferenceDayPower(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	for _, with := range []bool{false, true} {
+	// The same six panels sampled over their area (8 × 8 points each) and
+	// shaded by the 6U outline.
+	box := []sky.Obstacle{sky.Box{Half: r3.Vec{X: 0.1132, Y: 0.05, Z: 0.183}}}
+	var sized []power.Panel
+	for _, p := range panels {
+		c := r3.Vec{X: p.Normal.X * 0.1132, Y: p.Normal.Y * 0.05, Z: p.Normal.Z * 0.183}
+		p.LitShare = sky.NewPlate(c, p.Normal, 0.1, 0.2, box).LitShare
+		sized = append(sized, p)
+	}
+	sampled, err := power.NewArray(sized...)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, with := range []*power.Array{nil, arr, sampled} {
 		name := "sensors"
-		if with {
+		switch with {
+		case arr:
 			name = "sensors+panels"
+		case sampled:
+			name = "sensors+sampled-panels"
 		}
 		b.Run(name, func(b *testing.B) {
 			cfg := referenceCase(b, 1, false)
 			cfg.Workers = 1
-			if with {
-				cfg.Panels = arr
-			}
+			cfg.Panels = with
 			for b.Loop() {
 				if _, err := Run(context.Background(), cfg); err != nil {
 					b.Fatal(err)

@@ -319,17 +319,18 @@ func targetsOf(s *scenario.Scenario, a study.Assessment) figureTargets {
 	return out
 }
 
-// Skipped says which figures a run leaves out and why, for the report.
-func Skipped(res *sim.Result) []string {
+// Skipped says which of the named figures a run leaves out and why, for the
+// report (a figure not asked for needs no note).
+func Skipped(res *sim.Result, names []string) []string {
 	var out []string
 	if res == nil || res.Nominal == nil || len(res.Nominal.Estimators) == 0 {
 		return nil
 	}
 	e := &res.Nominal.Estimators[0]
-	if _, ok := errorDist(res); !ok {
+	if _, ok := errorDist(res); !ok && slices.Contains(names, FigError) {
 		out = append(out, fmt.Sprintf("No error distribution: the primary estimator %s formed no valid sun vector in sunlight.", e.Name))
 	}
-	if _, ok := gaps(res); !ok {
+	if _, ok := gaps(res); !ok && slices.Contains(names, FigGaps) {
 		out = append(out, fmt.Sprintf("No gap figure: the primary estimator %s had a valid sun vector throughout the sunlit time.", e.Name))
 	}
 	return out

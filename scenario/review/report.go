@@ -237,7 +237,7 @@ func Report(s *scenario.Scenario, cfg sim.Config, res *sim.Result, figs []Named,
 		r.Tables = append(r.Tables, ft)
 	}
 	r.Tables = append(r.Tables, sensorTable(s, cfg, res), bodiesTable(res))
-	r.Notes = append(r.Notes, Skipped(res)...)
+	r.Notes = append(r.Notes, Skipped(res, s.Output.Figures)...)
 	for _, w := range study.Warnings(s, res) {
 		r.Notes = append(r.Notes, "Warning: "+w+".")
 	}

@@ -159,3 +159,18 @@ func TestEveryFigureHasABuilder(t *testing.T) {
 		t.Errorf("%d builders for %d catalogue figures", len(builders), len(figures.Names()))
 	}
 }
+
+// The report notes a figure left out only when it was asked for: a run
+// without a valid estimate or a gap has no error and no gap figure.
+func TestSkippedNotesOnlyRequestedFigures(t *testing.T) {
+	res := &sim.Result{Nominal: &sim.UnitResult{Estimators: []sim.EstimatorStats{{Name: "least-squares"}}}}
+	if n := Skipped(res, figures.Names()); len(n) != 2 {
+		t.Errorf("all figures asked for: notes %q, want the error and gap notes", n)
+	}
+	if n := Skipped(res, []string{FigSky, FigTimeline}); len(n) != 0 {
+		t.Errorf("neither error nor gaps asked for: notes %q", n)
+	}
+	if n := Skipped(res, []string{FigGaps}); len(n) != 1 || !strings.Contains(n[0], "gap") {
+		t.Errorf("gaps asked for: notes %q", n)
+	}
+}

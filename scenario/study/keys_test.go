@@ -1,13 +1,11 @@
 package study
 
 import (
-	"context"
 	"math"
 	"testing"
 
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/scenario"
-	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // The scenario's default zonal mean is the published profile's own a₀, so
@@ -37,14 +35,7 @@ func TestZonalValueScalesTheProfile(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		cfg, err := Config(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		res, err := sim.Run(context.Background(), cfg)
-		if err != nil {
-			t.Fatal(err)
-		}
+		res := runScenario(t, s)
 		return res.Nominal.Estimators[0].AlbedoPart.P95Deg
 	}
 	low, def, high := part(", value: 0.1"), part(""), part(", value: 0.5")

@@ -1,7 +1,6 @@
 package study
 
 import (
-	"context"
 	"math"
 	"strings"
 	"testing"
@@ -34,15 +33,7 @@ body:
 	if err != nil {
 		t.Fatal(err)
 	}
-	cfg, err := Config(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	res, err := sim.Run(context.Background(), cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return res
+	return runScenario(t, s)
 }
 
 // The on-board model equal to the truth's removes the albedo part of the

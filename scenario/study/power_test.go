@@ -1,7 +1,6 @@
 package study
 
 import (
-	"context"
 	"math"
 	"os"
 	"strings"
@@ -82,15 +81,7 @@ func TestPanelKeysHaveEffect(t *testing.T) {
 		}
 		s.Duration = scenario.Span(6 * 3600e9)
 		s.Albedo.Model = scenario.AlbedoNone
-		cfg, err := Config(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		res, err := sim.Run(context.Background(), cfg)
-		if err != nil {
-			t.Fatal(err)
-		}
-		return res
+		return runScenario(t, s)
 	}
 	base := run("")
 	more := run("\n    - {name: extra, normal: [0, 0, -1], position_m: [0.6, 0, -0.183], area_m2: 0.0828, efficiency: 0.295, packing_factor: 0.9}")
@@ -215,14 +206,7 @@ func TestPanelSizeHasEffect(t *testing.T) {
 		}
 		s.Duration = scenario.Span(3 * 3600e9)
 		s.Albedo.Model = scenario.AlbedoNone
-		cfg, err := Config(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		res, err := sim.Run(context.Background(), cfg)
-		if err != nil {
-			t.Fatal(err)
-		}
+		res := runScenario(t, s)
 		return s, res
 	}
 	const centre = "    - {name: wing-px, normal: [0, 0, -1], position_m: [0.296, 0, -0.183], area_m2: 0.0828, efficiency: 0.295, packing_factor: 0.9}\n" +
@@ -253,15 +237,7 @@ func TestAlbedoOnPanelsKey(t *testing.T) {
 			t.Fatal(err)
 		}
 		s.Duration = scenario.Span(3 * 3600e9)
-		cfg, err := Config(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		res, err := sim.Run(context.Background(), cfg)
-		if err != nil {
-			t.Fatal(err)
-		}
-		return res
+		return runScenario(t, s)
 	}
 	txt := string(data)
 	on := strings.Replace(txt, "  value: 0.30\n", "  value: 0.30\n  on_panels: true\n", 1)

@@ -15,6 +15,12 @@ func runText(t *testing.T, text string) *sim.Result {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return runScenario(t, s)
+}
+
+// runScenario builds a parsed scenario as run does and runs it.
+func runScenario(t *testing.T, s *scenario.Scenario) *sim.Result {
+	t.Helper()
 	cfg, err := Config(s)
 	if err != nil {
 		t.Fatal(err)

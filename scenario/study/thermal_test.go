@@ -1,7 +1,6 @@
 package study
 
 import (
-	"context"
 	"math"
 	"os"
 	"strings"
@@ -26,15 +25,7 @@ func thermalRun(t *testing.T, keys string) *sim.Result {
 	}
 	s.Duration = scenario.Span(6 * 3600e9)
 	s.Albedo.Model = scenario.AlbedoNone
-	cfg, err := Config(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	res, err := sim.Run(context.Background(), cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return res
+	return runScenario(t, s)
 }
 
 // The temperature keys reach the readings: a dark signal calibrated at
@@ -66,14 +57,7 @@ func TestTemperatureReachesTheReadings(t *testing.T) {
 	}
 	s.Duration = scenario.Span(6 * 3600e9)
 	s.Albedo.Model = scenario.AlbedoNone
-	cfg, err := Config(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	res, err := sim.Run(context.Background(), cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	res := runScenario(t, s)
 	if h := p95(res); !(math.Abs(h-b) > 0.05) {
 		t.Errorf("+X sensor alone at 80 °C with +0.2 %%/°C: p95 %.4f°, calibrated %.4f°; want a change", h, b)
 	}

@@ -1,7 +1,6 @@
 package study
 
 import (
-	"context"
 	"math"
 	"strings"
 	"testing"
@@ -70,15 +69,7 @@ func TestTumbleInertiaIsUsed(t *testing.T) {
 	run := func(extra string) *sim.Result {
 		t.Helper()
 		s := parse(t, tumbleBase+"attitude: {law: tumble, min_rate_deg_s: 5, max_rate_deg_s: 10"+extra+"}\n")
-		cfg, err := Config(s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		res, err := sim.Run(context.Background(), cfg)
-		if err != nil {
-			t.Fatal(err)
-		}
-		return res
+		return runScenario(t, s)
 	}
 	fixed := run("")
 	free := run(", inertia_kg_m2: [0.03, 0.032, 0.008, 0.001, -0.0005, 0.0008]")

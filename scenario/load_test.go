@@ -146,6 +146,8 @@ func badInputs() []badInput {
 		{"timeline eclipse word", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: sun}, until: {eclipse: start}}, {name: b, attitude: {law: nadir}}]}\n", "allowed entry, exit"},
 		{"timeline replay phase", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: replay, file: x.aem}}]}\n", "replays a whole run"},
 		{"timeline duplicate phase", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: sun}, until: {elapsed: 1h}}, {name: a, attitude: {law: nadir}}]}\n", "used twice"},
+		{"timeline hold without limits", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: nadir}, during_eclipse: hold}]}\n", "no slew_rate_deg_s"},
+		{"timeline hold on a tumble", orbit + sensor + "timeline: {slew_rate_deg_s: 1, slew_accel_deg_s2: 0.1, phases: [{name: a, attitude: {law: tumble}, during_eclipse: hold}]}\n", "timeline.phases[0].during_eclipse"},
 		{"timeline hold word", orbit + sensor + "timeline: {phases: [{name: a, attitude: {law: sun}, during_eclipse: freeze}]}\n", "during_eclipse"},
 		{"nadir align_to orbit-normal", orbit + sensor + "attitude: {law: nadir, align_to: orbit-normal}\n", "allowed velocity, sun"},
 		{"detumble without time constant", orbit + sensor + "attitude: {law: detumble}\n", "attitude.time_constant"},

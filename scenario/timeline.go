@@ -85,6 +85,13 @@ func (r *resolver) timeline(f *fileTimeline, sensors int) Timeline {
 		}
 		r.choice(p+".during_eclipse", &fp.DuringEclipse, EclipseFly, []string{EclipseFly, EclipseHold})
 		ph.HoldInEclipse = fp.DuringEclipse == EclipseHold
+		if ph.HoldInEclipse {
+			// The hold ends with a slew back onto the law.
+			slews = true
+			if oneOf(fp.Attitude.Law, noSlewLaws) {
+				r.fail(p+".during_eclipse", "value hold must slew back onto law %q after the shadow, whose attitude turns faster than a slew can follow; allowed hold with nadir, sun, inertial or spin, or fly", fp.Attitude.Law)
+			}
+		}
 		if fp.Slew {
 			slews = true
 			switch {
@@ -100,14 +107,14 @@ func (r *resolver) timeline(f *fileTimeline, sensors int) Timeline {
 	switch {
 	case slews:
 		if f.SlewRateDegS == nil || f.SlewAccelDegS2 == nil {
-			r.fail("timeline", "value has phases with slew but no slew_rate_deg_s and slew_accel_deg_s2; allowed both limits, such as slew_rate_deg_s: 2 and slew_accel_deg_s2: 0.2")
+			r.fail("timeline", "value has phases with slew or during_eclipse: hold (which slews back after the shadow) but no slew_rate_deg_s and slew_accel_deg_s2; allowed both limits, such as slew_rate_deg_s: 2 and slew_accel_deg_s2: 0.2")
 			break
 		}
 		r.rangeCheck("timeline.slew_rate_deg_s", *f.SlewRateDegS, 0, 90, true, "(0, 90] deg/s")
 		r.rangeCheck("timeline.slew_accel_deg_s2", *f.SlewAccelDegS2, 0, 90, true, "(0, 90] deg/s²")
 		tl.SlewRateRadS, tl.SlewAccelRadS2 = *f.SlewRateDegS*deg, *f.SlewAccelDegS2*deg
 	case f.SlewRateDegS != nil || f.SlewAccelDegS2 != nil:
-		r.fail("timeline", "value has slew limits but no phase with slew: true; allowed the limits with at least one slewing phase, or no limits")
+		r.fail("timeline", "value has slew limits but no phase with slew: true or during_eclipse: hold; allowed the limits with at least one slewing or holding phase, or no limits")
 	}
 	return tl
 }

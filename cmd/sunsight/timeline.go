@@ -23,7 +23,11 @@ type phaseRecord struct {
 	// ended first or the phase has none.
 	EndMet       bool `json:"end_condition_met"`
 	SlewAngleDeg num  `json:"slew_angle_deg"`
-	Samples      int  `json:"samples"`
+	// The slews back onto the phase's law after its held shadow passes.
+	ReturnSlews        int `json:"return_slews"`
+	ReturnSlewMaxDeg   num `json:"return_slew_max_deg"`
+	ReturnSlewLongestS num `json:"return_slew_longest_s"`
+	Samples            int `json:"samples"`
 	// The figures of the phase's samples (null with fewer than two).
 	Sunlit      num `json:"sunlit_fraction"`
 	Seen1       num `json:"seen_by_1_fraction"`
@@ -42,6 +46,7 @@ func (o *runOutput) timelineJSON() []phaseRecord {
 	for _, p := range o.phases.Phases {
 		r := phaseRecord{Name: p.Span.Name, Slew: p.Span.Slew, StartUTC: o.utc(p.Span.Start), StartS: num(p.Span.Start),
 			DurationS: num(p.Span.End - p.Span.Start), EndMet: p.Span.Met, SlewAngleDeg: num(p.Span.SlewAngleRad * 180 / math.Pi),
+			ReturnSlews: p.Span.ReturnSlews, ReturnSlewMaxDeg: num(p.Span.ReturnSlewMaxRad * 180 / math.Pi), ReturnSlewLongestS: num(p.Span.ReturnSlewMaxS),
 			Samples: p.Samples}
 		h := p.Headline()
 		r.Sunlit, r.Seen1, r.Seen2, r.Valid, r.LongestGapS = num(h.SunlitFraction), num(h.Seen1), num(h.Seen2), num(h.ValidFraction), num(h.LongestGapS)
@@ -76,6 +81,10 @@ func (o *runOutput) writeTimeline(w io.Writer) {
 		if p.Span.Slew {
 			slews = append(slews, fmt.Sprintf("%s: %.1f° eigen-axis", name, p.Span.SlewAngleRad*180/math.Pi))
 		}
+		if n := p.Span.ReturnSlews; n > 0 {
+			slews = append(slews, fmt.Sprintf("%s: %d slew(s) back onto the law after held shadow passes, up to %.1f° and %.0f s", name, n,
+				p.Span.ReturnSlewMaxRad*180/math.Pi, p.Span.ReturnSlewMaxS))
+		}
 		fmt.Fprintf(w, "  %-26s %-20s %9s %5s %8s %8s %8s %10s %7.0f s\n", name, o.utc(p.Span.Start)[:19], scenario.Span(time.Duration(math.Round(p.Span.End-p.Span.Start)*1e9)).String(), ended,
 			pct(h.SunlitFraction), pct(h.Seen1), pct(h.ValidFraction), deg(p95), h.LongestGapS)
 	}
@@ -94,12 +103,14 @@ func (o *runOutput) timelineCSV() [][]string {
 	if o.phases == nil {
 		return nil
 	}
-	rows := [][]string{{"phase", "slew", "start_utc", "start_s", "duration_s", "end_condition_met", "slew_angle_deg", "samples",
+	rows := [][]string{{"phase", "slew", "start_utc", "start_s", "duration_s", "end_condition_met", "slew_angle_deg",
+		"return_slews", "return_slew_max_deg", "return_slew_longest_s", "samples",
 		"sunlit_fraction", "seen_by_1_fraction", "seen_by_2_fraction", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg"}}
 	for _, p := range o.phases.Phases {
 		h := p.Headline()
 		rows = append(rows, []string{p.Span.Name, strconv.FormatBool(p.Span.Slew), o.utc(p.Span.Start), ff(p.Span.Start, 3), ff(p.Span.End-p.Span.Start, 3),
-			strconv.FormatBool(p.Span.Met), ff(p.Span.SlewAngleRad*180/math.Pi, 4), strconv.Itoa(p.Samples),
+			strconv.FormatBool(p.Span.Met), ff(p.Span.SlewAngleRad*180/math.Pi, 4),
+			strconv.Itoa(p.Span.ReturnSlews), ff(p.Span.ReturnSlewMaxRad*180/math.Pi, 4), ff(p.Span.ReturnSlewMaxS, 3), strconv.Itoa(p.Samples),
 			ff(h.SunlitFraction, 6), ff(h.Seen1, 6), ff(h.Seen2, 6), ff(h.ValidFraction, 6), ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4)})
 	}
 	return rows

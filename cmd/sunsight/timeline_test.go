@@ -49,7 +49,8 @@ func TestTimelineInSummaryCSVAndJSON(t *testing.T) {
 	if code := runMain([]string{"run", p, "--quiet", "--csv", dir}, &so, &se); code != exitOK {
 		t.Fatalf("exit %d: %s", code, se.String())
 	}
-	for _, want := range []string{"Mission timeline (4 of 4 phases reached", "slew to acquisition", "detumble", "science", "attitude timeline"} {
+	for _, want := range []string{"Mission timeline (4 of 4 phases reached", "slew to acquisition", "detumble", "science", "attitude timeline",
+		"science: 3 slew(s) back onto the law after held shadow passes"} {
 		if !strings.Contains(so.String(), want) {
 			t.Errorf("summary lacks %q:\n%s", want, so.String())
 		}
@@ -73,6 +74,8 @@ func TestTimelineInSummaryCSVAndJSON(t *testing.T) {
 			DurationS float64  `json:"duration_s"`
 			Samples   int      `json:"samples"`
 			Valid     *float64 `json:"valid_fraction"`
+			Returns   int      `json:"return_slews"`
+			ReturnS   float64  `json:"return_slew_longest_s"`
 		} `json:"timeline"`
 	}
 	if err := json.Unmarshal(so.Bytes(), &rec); err != nil {
@@ -89,6 +92,11 @@ func TestTimelineInSummaryCSVAndJSON(t *testing.T) {
 		}
 		end = s.StartS + s.DurationS
 		n += s.Samples
+		// Science holds nadir through each shadow pass and slews back:
+		// a few minutes at 1.5°/s, 0.05°/s² for about 130°.
+		if want := s.Phase == "science"; want != (s.Returns > 0) || (want && !(s.ReturnS > 60 && s.ReturnS < 200)) {
+			t.Errorf("%s: %d return slews, longest %g s", s.Phase, s.Returns, s.ReturnS)
+		}
 	}
 	if math.Abs(end-6*3600) > 1e-3 || n != 6*3600/20+1 {
 		t.Errorf("spans end at %g s with %d samples; want 21600 s and %d", end, n, 6*3600/20+1)
@@ -111,7 +119,7 @@ func TestTimelineReport(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{"Mission timeline: each phase on its own", "slew to acquisition (", ">Mission phases (slews grey)<", "Mission timeline over the whole run"} {
+	for _, want := range []string{"Mission timeline: each phase on its own", "slew to acquisition (", "slews back after held shadows, up to", ">Mission phases (slews grey)<", "Mission timeline over the whole run"} {
 		if !strings.Contains(string(b), want) {
 			t.Errorf("report lacks %q", want)
 		}

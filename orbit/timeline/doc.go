@@ -13,7 +13,12 @@
 // the caller gives, penumbra included). The last phase lasts to the end of
 // the run; a phase whose condition is not met before the run ends is cut
 // there and the later phases are not reached. A phase may hold the
-// attitude it had at shadow entry until shadow exit.
+// attitude it had at shadow entry until shadow exit; it then returns to its
+// law by a rest-to-rest eigen-axis slew within the same limits, found as a
+// slew into a phase is (for nadir, about the angle the law turned during the
+// shadow and the slew). A return slew still under way at the phase's end
+// hands over to the next phase there; a shadow entered during one is held
+// from the slew's end.
 //
 // A slew is a rest-to-rest rotation about a fixed eigen-axis with a
 // bang–coast–bang angle profile: accelerate at α to the rate limit ω,

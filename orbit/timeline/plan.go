@@ -50,7 +50,8 @@ type Phase struct {
 	// rate the previous phase left (a detumble following a tumble).
 	Continue func(q r3.Rotation, rate r3.Vec) attitude.Law
 	End      End
-	// HoldInEclipse keeps the attitude of shadow entry until shadow exit.
+	// HoldInEclipse keeps the attitude of shadow entry until shadow exit,
+	// then returns to the law by an eigen-axis slew within the limits.
 	HoldInEclipse bool
 	// Slew turns the spacecraft from the previous phase's last attitude
 	// onto this phase's law by an eigen-axis slew within the limits.
@@ -94,6 +95,11 @@ type Span struct {
 	Met bool
 	// SlewAngleRad is the eigen-axis angle of a slew.
 	SlewAngleRad float64
+	// ReturnSlews counts the slews back onto the phase's law after its
+	// held shadow passes; ReturnSlewMaxRad and ReturnSlewMaxS are the
+	// largest angle and the longest time among them.
+	ReturnSlews                      int
+	ReturnSlewMaxRad, ReturnSlewMaxS float64
 }
 
 // ErrRateBelow says a rate end condition was set on a law without a rate
@@ -158,17 +164,17 @@ func Build(phases []Phase, lim Limits, env Env) (*Timeline, error) {
 		if ph.End.Kind == EndRunEnd {
 			met = false
 		}
-		b.fly(len(p.Spans), law, start, t, end, ph.HoldInEclipse)
+		if i == len(phases)-1 {
+			// The last phase's law carries on to the end of the run
+			// after its end condition is met.
+			end = env.DurationS
+		}
 		p.Spans = append(p.Spans, Span{Name: ph.Name, Phase: i, Start: t, End: end, Met: met})
+		if err := b.fly(len(p.Spans)-1, law, start, t, end, ph.HoldInEclipse); err != nil {
+			return nil, fmt.Errorf("phase %d (%s): %w", i, ph.Name, err)
+		}
 		t = end
 		prevLaw, prevLawStart = law, start
-	}
-	if t < env.DurationS {
-		// Every phase ended before the run: the last one's attitude law
-		// carries on to the end.
-		last := &p.Spans[len(p.Spans)-1]
-		b.fly(len(p.Spans)-1, prevLaw, prevLawStart, t, env.DurationS, phases[last.Phase].HoldInEclipse)
-		last.End = env.DurationS
 	}
 	return p, nil
 }
@@ -284,12 +290,15 @@ func (b *builder) sunSeen(ph Phase, law attitude.Law, lawStart, t float64) (floa
 }
 
 // fly adds the segments of a phase flown from t to end: its law, held at
-// the shadow-entry attitude through each shadow pass when hold is set.
-func (b *builder) fly(span int, law attitude.Law, lawStart, t, end float64, hold bool) {
+// the shadow-entry attitude through each shadow pass when hold is set and
+// then slewed back onto the law (rest to rest, within the limits; cut at
+// end). A shadow entered during a return slew is held from the slew's end.
+func (b *builder) fly(span int, law attitude.Law, lawStart, t, end float64, hold bool) error {
 	if !hold {
 		b.add(Segment{Start: t, End: end, Phase: span, Kind: Fly, Law: law, LawStart: lawStart})
-		return
+		return nil
 	}
+	sp := &b.tl.Spans[span]
 	for _, s := range b.env.Shadows {
 		if s[1] <= t || s[0] >= end {
 			continue
@@ -299,6 +308,22 @@ func (b *builder) fly(span int, law attitude.Law, lawStart, t, end float64, hold
 		q := law.Attitude(h0-lawStart, b.env.State(h0), b.env.Sun(h0))
 		b.add(Segment{Start: h0, End: h1, Phase: span, Kind: Hold, Q: q})
 		t = h1
+		if h1 >= end {
+			break
+		}
+		axis, θ, T, err := b.slewTo(q, law, lawStart, h1)
+		if err != nil {
+			return fmt.Errorf("return slew after the shadow pass ending at %.1f s: %w", h1, err)
+		}
+		if θ <= 1e-9 {
+			continue
+		}
+		t = math.Min(h1+T, end)
+		b.add(Segment{Start: h1, End: t, Phase: span, Kind: Slew, Q: q, Axis: axis, Angle: θ, Limits: b.lim})
+		sp.ReturnSlews++
+		sp.ReturnSlewMaxRad = math.Max(sp.ReturnSlewMaxRad, θ)
+		sp.ReturnSlewMaxS = math.Max(sp.ReturnSlewMaxS, t-h1)
 	}
 	b.add(Segment{Start: t, End: end, Phase: span, Kind: Fly, Law: law, LawStart: lawStart})
+	return nil
 }

@@ -2,6 +2,7 @@ package review
 
 import (
 	"math"
+	"strconv"
 	"time"
 
 	"codeberg.org/sunsight/sunsight/plots"
@@ -28,6 +29,10 @@ func AddPhases(r *plots.Report, s *scenario.Scenario, ph study.Phases) {
 		name := p.Span.Name
 		if p.Span.Slew {
 			name += " (" + num(p.Span.SlewAngleRad*180/math.Pi, 1) + "°)"
+		}
+		if n := p.Span.ReturnSlews; n > 0 {
+			name += " (" + strconv.Itoa(n) + " slews back after held shadows, up to " + num(p.Span.ReturnSlewMaxRad*180/math.Pi, 1) +
+				"° in " + num(p.Span.ReturnSlewMaxS, 0) + " s)"
 		}
 		p95 := h.P95AlbedoDeg
 		if math.IsNaN(p95) {

@@ -52,18 +52,8 @@ func (f PowerView) Plot(caption Caption) (*Chart, error) {
 	if err := f.validate(); err != nil {
 		return nil, err
 	}
-	div, unit := timeScale(f.T[len(f.T)-1] - f.T[0])
-	t := make([]float64, len(f.T))
-	for i, v := range f.T {
-		t[i] = v / div
-	}
-	scale := func(s []Interval) []Interval {
-		out := make([]Interval, len(s))
-		for i, v := range s {
-			out[i] = Interval{v.Start / div, v.End / div}
-		}
-		return out
-	}
+	t, div, unit := scaledTimes(f.T)
+	scale := func(s []Interval) []Interval { return scaleIntervals(s, div) }
 	var rec []drawnSeries
 	top := newPlot("Solar-array power over the first orbits", fmt.Sprintf("time since epoch (%s)", unit), "power (W)")
 	top.Add(bands{scale(f.Penumbra), colPenumbra}, bands{scale(f.Umbra), colUmbra})

@@ -150,6 +150,26 @@ func (f Timeline) validate() error {
 }
 
 // timeScale picks minutes for spans up to 12 h, hours beyond.
+// scaledTimes divides the sample times (s) by the unit timeScale picks for
+// their span.
+func scaledTimes(T []float64) (t []float64, div float64, unit string) {
+	div, unit = timeScale(T[len(T)-1] - T[0])
+	t = make([]float64, len(T))
+	for i, v := range T {
+		t[i] = v / div
+	}
+	return t, div, unit
+}
+
+// scaleIntervals divides each interval's ends by div.
+func scaleIntervals(s []Interval, div float64) []Interval {
+	out := make([]Interval, len(s))
+	for i, v := range s {
+		out[i] = Interval{v.Start / div, v.End / div}
+	}
+	return out
+}
+
 func timeScale(span float64) (div float64, unit string) {
 	if span <= 12*3600 {
 		return 60, "min"
@@ -164,19 +184,8 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 	if err := f.validate(); err != nil {
 		return nil, err
 	}
-	div, unit := timeScale(f.T[len(f.T)-1] - f.T[0])
-	t := make([]float64, len(f.T))
-	for i, v := range f.T {
-		t[i] = v / div
-	}
-	scaleSpans := func(s []Interval) []Interval {
-		out := make([]Interval, len(s))
-		for i, v := range s {
-			out[i] = Interval{v.Start / div, v.End / div}
-		}
-		return out
-	}
-	umbra, penumbra := scaleSpans(f.Umbra), scaleSpans(f.Penumbra)
+	t, div, unit := scaledTimes(f.T)
+	umbra, penumbra := scaleIntervals(f.Umbra, div), scaleIntervals(f.Penumbra, div)
 	xlabel := fmt.Sprintf("time since epoch (%s)", unit)
 
 	var panels []*plot.Plot

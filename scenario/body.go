@@ -691,9 +691,16 @@ func albedoModelsWith(has func(albedo.ModelInfo) bool) []string {
 }
 
 func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
-	var out Targets
+	out := Targets{Judge: JudgeUncorrected}
 	if t == nil {
 		return out
+	}
+	switch t.Judge {
+	case "":
+	case JudgeUncorrected, JudgeOnboardCorrected:
+		out.Judge = t.Judge
+	default:
+		r.fail("targets.judge", "value %q is unknown; allowed %s, %s", t.Judge, JudgeUncorrected, JudgeOnboardCorrected)
 	}
 	if t.MinValidFraction != nil {
 		out.MinValidFraction = *t.MinValidFraction

@@ -197,6 +197,9 @@ type fileTargets struct {
 	SurviveOneFailure bool         `yaml:"survive_one_failure"`
 	NMinus1           *fileNMinus1 `yaml:"n_minus_1,omitempty"`
 	MinOrbitAvgPowerW *float64     `yaml:"min_orbit_average_power_w,omitempty"`
+	// Judge names the estimate the sun-vector targets judge: uncorrected
+	// (default) or onboard-corrected (needs albedo.onboard).
+	Judge string `yaml:"judge,omitempty"`
 }
 
 // fileNMinus1 asks for the single-failure study (each sensor failed in

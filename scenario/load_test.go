@@ -168,6 +168,8 @@ func badInputs() []badInput {
 		{"onboard value 2", orbit + sensor + "albedo: {onboard: {value: 2}}\n", "albedo.onboard.value"},
 		{"onboard grid without file", orbit + sensor + "albedo: {onboard: {model: grid}}\n", "albedo.onboard.grid_file"},
 		{"onboard cells 5", orbit + sensor + "albedo: {onboard: {cells: 5}}\n", "albedo.onboard.cells"},
+		{"judge corrected without onboard", orbit + sensor + "albedo: {model: zonal}\ntargets: {max_error_p95_deg: 3, judge: onboard-corrected}\n", "targets.judge (line 5, col 40): value \"onboard-corrected\" needs an on-board albedo model; allowed only with albedo.onboard set"},
+		{"judge unknown", orbit + sensor + "albedo: {model: zonal, onboard: {model: zonal}}\ntargets: {judge: corrected}\n", "targets.judge (line 5, col 18): value \"corrected\" is unknown; allowed uncorrected, onboard-corrected"},
 		{"onboard unknown model", orbit + sensor + "albedo: {onboard: {model: cloudy}}\n", "albedo.onboard.model"},
 		{"onboard unknown key", orbit + sensor + "albedo: {onboard: {model: uniform, gain: 1}}\n", "key \"gain\" is unknown"},
 		{"unknown figure", orbit + sensor + "output: {figures: [pie]}\n", "output.figures[0]"},

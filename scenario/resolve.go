@@ -192,6 +192,9 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 	s.Validity = r.validity(&f.Validity, s.Estimators)
 	s.GyroFilter = r.gyroFilter(f.GyroFilter)
 	s.Targets = r.targets(f.Targets, len(s.Body.Sensors))
+	if s.Targets.Judge == JudgeOnboardCorrected && s.Albedo.Onboard == nil {
+		r.fail("targets.judge", "value %q needs an on-board albedo model; allowed only with albedo.onboard set: add it or set judge: %s", JudgeOnboardCorrected, JudgeUncorrected)
+	}
 	if f.MonteCarlo.Units == 0 {
 		if _, given := r.nodes["monte_carlo.units"]; !given {
 			f.MonteCarlo.Units = defaultUnits

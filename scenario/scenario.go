@@ -296,7 +296,18 @@ type Targets struct {
 	// NMinus1 is the single-failure study and its targets (targets.n_minus_1).
 	NMinus1           NMinus1
 	MinOrbitAvgPowerW float64 // orbit-average solar-array power (W), needs body.panels
+	// Judge is the estimate the valid-share, p95-error and gap targets
+	// (and those of n_minus_1) judge: JudgeUncorrected (the default) or
+	// JudgeOnboardCorrected, the estimate from the readings after the
+	// on-board albedo correction (needs albedo.onboard).
+	Judge string
 }
+
+// The estimates targets.judge can name.
+const (
+	JudgeUncorrected      = "uncorrected"
+	JudgeOnboardCorrected = "onboard-corrected"
+)
 
 // NMinus1 asks for the run to be simulated again with each sensor failed in
 // turn (Set) and states targets judged on the worst single failure: the

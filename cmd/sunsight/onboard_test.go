@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -59,7 +60,7 @@ func TestOnboardCorrectionInEveryOutput(t *testing.T) {
 			t.Fatalf("%s: exit %d: %s", c.onboard, code, se.String())
 		}
 		sum := strings.Join(strings.Fields(so.String()), " ") // the note is wrapped
-		for _, want := range []string{"On-board albedo correction", "residual part", c.says, "targets judge the uncorrected estimate"} {
+		for _, want := range []string{"On-board albedo correction", "residual part", c.says, "Targets judge the uncorrected estimate"} {
 			if !strings.Contains(sum, want) {
 				t.Errorf("%s: summary lacks %q:\n%s", c.onboard, want, sum)
 			}
@@ -133,4 +134,53 @@ func TestOnboardCorrectionInEveryOutput(t *testing.T) {
 func roundTo(v float64, prec int) float64 {
 	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'f', prec, 64), 64)
 	return r
+}
+
+// targets.judge moves the target judge to the on-board corrected estimate:
+// a p95 target of 3° fails on the uncorrected estimate (albedo part about
+// 27° on this layout) and passes judged on the same-model corrected one,
+// and the exit status follows (3, then 0); the labels say which estimate.
+func TestTargetsJudgeOnboardCorrected(t *testing.T) {
+	p := onboardFile(t, "{model: zonal, cells: 400}\ntargets: {max_error_p95_deg: 3}")
+	var so, se bytes.Buffer
+	if code := runMain([]string{"run", p, "--quiet"}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("uncorrected: exit %d, want %d: %s", code, exitTargetFailed, se.String())
+	}
+	p = onboardFile(t, "{model: zonal, cells: 400}\ntargets: {max_error_p95_deg: 3, judge: onboard-corrected}")
+	so.Reset()
+	if code := runMain([]string{"run", p, "--quiet"}, &so, &se); code != exitOK {
+		t.Fatalf("onboard-corrected: exit %d, want %d: %s", code, exitOK, se.String())
+	}
+	sum := strings.Join(strings.Fields(so.String()), " ")
+	for _, want := range []string{"pass p95 sun-vector error (least-squares, on-board corrected)", "Targets judge the on-board corrected estimate"} {
+		if !strings.Contains(sum, want) {
+			t.Errorf("summary lacks %q:\n%s", want, sum)
+		}
+	}
+	so.Reset()
+	if code := runMain([]string{"run", p, "--quiet", "--json"}, &so, &se); code != exitOK {
+		t.Fatalf("exit %d: %s", code, se.String())
+	}
+	var rec struct {
+		Headline struct {
+			P95 *float64 `json:"p95_error_onboard_corrected_deg"`
+		} `json:"headline"`
+		Targets []struct {
+			Value *float64 `json:"value"`
+			Pass  bool     `json:"pass"`
+		} `json:"targets"`
+	}
+	if err := json.Unmarshal(so.Bytes(), &rec); err != nil {
+		t.Fatal(err)
+	}
+	if len(rec.Targets) != 1 || !rec.Targets[0].Pass || rec.Targets[0].Value == nil || rec.Headline.P95 == nil || math.Abs(*rec.Targets[0].Value-*rec.Headline.P95) > 1e-3 {
+		t.Errorf("targets %+v, corrected p95 %v", rec.Targets, rec.Headline.P95)
+	}
+	p = filepath.Join(t.TempDir(), "bare.yaml")
+	text, _ := os.ReadFile(onboardFile(t, "{model: zonal, cells: 400}\ntargets: {max_error_p95_deg: 3, judge: onboard-corrected}"))
+	os.WriteFile(p, []byte(strings.Replace(string(text), "  onboard: {model: zonal, cells: 400}\n", "", 1)), 0o644)
+	se.Reset()
+	if code := runMain([]string{"check", p}, &so, &se); code != exitUsage || !strings.Contains(se.String(), "targets.judge") {
+		t.Errorf("judge without albedo.onboard: exit %d: %s", code, se.String())
+	}
 }

@@ -581,7 +581,7 @@ func (o *runOutput) writeOnboard(w io.Writer) {
 	for _, line := range wrapText(study.OnboardNote(o.s), 100) {
 		fmt.Fprintf(w, "  %s\n", line)
 	}
-	fmt.Fprintf(w, "  (targets judge the uncorrected estimate; residual part: angle between the corrected estimate and the one without albedo)\n")
+	fmt.Fprintf(w, "  (residual part: angle between the corrected estimate and the one without albedo)\n")
 }
 
 // wrapText breaks text into lines of at most width characters at spaces.

@@ -22,7 +22,7 @@ func onboardTable(s *scenario.Scenario, res *sim.Result) (plots.Table, bool) {
 	t := plots.Table{Title: "On-board albedo correction (on-board " + ob.Label() + "; truth " + s.Albedo.Label() + ")",
 		Header: []string{"estimator", "valid (% of sunlit)", "valid corrected (% of sunlit)", "p95 with albedo (deg)",
 			"p95 corrected (deg)", "albedo part p95 (deg)", "residual albedo part p95 (deg)"},
-		Note: study.OnboardNote(s) + " Targets judge the uncorrected estimate. Residual albedo part: the angle between the corrected estimate and the estimate without albedo."}
+		Note: study.OnboardNote(s) + " Residual albedo part: the angle between the corrected estimate and the estimate without albedo."}
 	for _, e := range res.Nominal.Estimators {
 		k := e.Corrected
 		if k == nil {

@@ -37,6 +37,11 @@ type Headline struct {
 	// part it leaves (NaN without an on-board model).
 	P95CorrectedDeg    float64 `json:"p95_error_onboard_corrected_deg"`
 	P95ResidualPartDeg float64 `json:"p95_residual_albedo_part_deg"`
+	// ValidFractionCorrected and LongestGapCorrectedS are its valid share
+	// of sunlit time and longest sunlit gap on the corrected readings (NaN
+	// without an on-board model).
+	ValidFractionCorrected float64 `json:"valid_fraction_onboard_corrected"`
+	LongestGapCorrectedS   float64 `json:"longest_gap_onboard_corrected_s"`
 	// FilterValidFraction and FilterP95ShadowDeg are the gyro-aided
 	// filter's valid share of the run and p95 error in eclipse (NaN
 	// without a filter).
@@ -53,7 +58,7 @@ func (r *Result) Headline() Headline {
 		BetaMinDeg: u.BetaMinDeg, BetaMaxDeg: u.BetaMaxDeg,
 		Seen1: u.SeenAtLeast[1], Seen2: u.SeenAtLeast[2], Seen3: u.SeenAtLeast[3],
 		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction, OrbitAvgPowerW: math.NaN(),
-		P95CorrectedDeg: math.NaN(), P95ResidualPartDeg: math.NaN(),
+		P95CorrectedDeg: math.NaN(), P95ResidualPartDeg: math.NaN(), ValidFractionCorrected: math.NaN(), LongestGapCorrectedS: math.NaN(),
 		FilterValidFraction: math.NaN(), FilterP95ShadowDeg: math.NaN(),
 	}
 	if f := u.Filter; f != nil {
@@ -78,6 +83,7 @@ func (r *Result) Headline() Headline {
 	}
 	if k := e.Corrected; k != nil {
 		h.P95CorrectedDeg, h.P95ResidualPartDeg = k.Err.P95Deg, k.ResidualPart.P95Deg
+		h.ValidFractionCorrected, h.LongestGapCorrectedS = k.ValidFraction, k.LongestGapS
 	}
 	if len(r.AcrossUnits) > 0 {
 		h.UnitsP95Deg = r.AcrossUnits[0].P95OfUnitP95Deg

@@ -165,6 +165,9 @@ type CorrectedStats struct {
 	// from the corrected readings (a correction can push a sensor below its
 	// threshold or fail a gate).
 	ValidFraction float64
+	// LongestGapS is the longest sunlit interval without a valid estimate
+	// from the corrected readings (s).
+	LongestGapS float64
 	// Err is the error to the true sun direction over sunlit valid samples.
 	Err ErrorStats
 	// ResidualPart is the angle between the corrected estimate and the
@@ -244,6 +247,7 @@ type estAcc struct {
 	albedoOnly, wrong int
 	// The corrected readings (nil quantiles without an on-board model).
 	validCorr     int
+	gapsCorr      *Spells
 	mCorr, mResid Moments
 	qCorr, qResid *Quantiles
 }
@@ -301,6 +305,7 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first boo
 		a.est[i] = estAcc{gaps: NewSpells(t0), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
 		if corrected {
 			a.est[i].qCorr, a.est[i].qResid = NewQuantiles(), NewQuantiles()
+			a.est[i].gapsCorr = NewSpells(t0)
 		}
 	}
 	if first {
@@ -419,10 +424,13 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 				}
 			}
 			if a.corrected {
-				ea.corrected(gate.Apply(e.Estimate(arr, readCorr)), eNo, sunBody)
+				ea.corrected(t, gate.Apply(e.Estimate(arr, readCorr)), eNo, sunBody)
 			}
 		} else {
 			ea.gaps.Observe(t, false)
+			if a.corrected {
+				ea.gapsCorr.Observe(t, false)
+			}
 			if region == illum.Umbra && eAlb.Valid {
 				ea.falseSun++
 				d := degOf(angleBetween(eAlb.Dir, nadirBody))
@@ -487,7 +495,8 @@ func (s *Series) extend(t *Series) {
 
 // corrected folds in a sunlit sample's estimate from the corrected
 // readings, beside the estimate without albedo eNo.
-func (ea *estAcc) corrected(eCorr, eNo sensor.Estimate, sunBody r3.Vec) {
+func (ea *estAcc) corrected(t float64, eCorr, eNo sensor.Estimate, sunBody r3.Vec) {
+	ea.gapsCorr.Observe(t, !eCorr.Valid)
 	if !eCorr.Valid {
 		return
 	}
@@ -506,6 +515,9 @@ func (ea *estAcc) corrected(eCorr, eNo sensor.Estimate, sunBody r3.Vec) {
 func (a *unitAcc) end(tEnd float64) {
 	for i := range a.est {
 		a.est[i].gaps.End(tEnd)
+		if a.corrected {
+			a.est[i].gapsCorr.End(tEnd)
+		}
 	}
 }
 
@@ -550,6 +562,7 @@ func (a *unitAcc) merge(b *unitAcc) {
 		x.qFalse.Merge(y.qFalse)
 		if a.corrected {
 			x.validCorr += y.validCorr
+			x.gapsCorr.Merge(y.gapsCorr)
 			x.mCorr.Merge(&y.mCorr)
 			x.mResid.Merge(&y.mResid)
 			x.qCorr.Merge(y.qCorr)
@@ -586,6 +599,9 @@ func (a *unitAcc) release() {
 func (a *unitAcc) finish() {
 	for i := range a.est {
 		a.est[i].gaps.Finish()
+		if a.corrected {
+			a.est[i].gapsCorr.Finish()
+		}
 	}
 }
 
@@ -633,7 +649,7 @@ func (a *unitAcc) result() *UnitResult {
 			es.errAlb = nil
 		}
 		if a.corrected {
-			es.Corrected = &CorrectedStats{ValidFraction: frac(ea.validCorr, a.sunlit),
+			es.Corrected = &CorrectedStats{ValidFraction: frac(ea.validCorr, a.sunlit), LongestGapS: ea.gapsCorr.Longest,
 				Err: errorStats(&ea.mCorr, ea.qCorr), ResidualPart: errorStats(&ea.mResid, ea.qResid)}
 		}
 		r.Estimators = append(r.Estimators, es)

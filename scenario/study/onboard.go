@@ -8,7 +8,8 @@ import (
 // OnboardNote says in plain words what the corrected figures of a run with
 // an on-board albedo model (albedo.onboard) mean, for the summary, the JSON
 // record and the report; "" without one. A correction by the truth's own
-// model is perfect by construction and the note says so.
+// model is perfect by construction and the note says so. It ends saying
+// which estimate the targets judge (targets.judge).
 func OnboardNote(s *scenario.Scenario) string {
 	ob := s.Albedo.Onboard
 	if ob == nil {
@@ -30,7 +31,11 @@ func OnboardNote(s *scenario.Scenario) string {
 	if twoAxisIn(s.Body.Sensors) {
 		text += ", the two-axis sensors pass uncorrected"
 	}
-	return text + "."
+	text += ". "
+	if s.Targets.Judge == scenario.JudgeOnboardCorrected {
+		return text + "Targets judge the on-board corrected estimate (targets.judge: " + scenario.JudgeOnboardCorrected + ")."
+	}
+	return text + "Targets judge the uncorrected estimate (targets.judge: " + scenario.JudgeUncorrected + ")."
 }
 
 // twoAxisIn reports whether a layout has a two-axis sensor.

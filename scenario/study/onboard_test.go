@@ -116,12 +116,13 @@ func TestOnboardUniformAgainstZonalLeavesResidual(t *testing.T) {
 }
 
 // The on-board model "none" predicts no albedo: the corrected figures are
-// the uncorrected ones, still reported.
+// the uncorrected ones (identity: nothing is subtracted), gaps included,
+// still reported.
 func TestOnboardNoneChangesNothing(t *testing.T) {
 	res := onboardCase(t, "albedo: {model: zonal, cells: 400, onboard: {model: none}}\n", "")
 	e := res.Nominal.Estimators[0]
 	k := e.Corrected
-	if k == nil || k.ValidFraction != e.ValidFraction || k.Err != e.ErrAlbedo {
+	if k == nil || k.ValidFraction != e.ValidFraction || k.Err != e.ErrAlbedo || k.LongestGapS != e.LongestGapS {
 		t.Errorf("on-board none: corrected %+v, uncorrected valid %.6f, error %+v", k, e.ValidFraction, e.ErrAlbedo)
 	}
 }

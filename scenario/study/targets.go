@@ -112,18 +112,15 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 		}
 		return fmt.Sprintf("%.1f %%", 100*f)
 	}
+	j := judgedFigures(s, h)
 	if t.MinValidFraction > 0 {
-		out = append(out, TargetCheck{Key: TargetValid, Label: "sunlit time with a valid sun vector (" + h.Estimator + ")",
-			Required: "≥ " + pct(t.MinValidFraction), Value: pct(h.ValidFraction), Pass: h.ValidFraction >= t.MinValidFraction,
-			Margin: h.ValidFraction - t.MinValidFraction,
-			Op:     OpAtLeast, Limit: t.MinValidFraction, Got: h.ValidFraction, Unit: UnitFraction})
+		out = append(out, TargetCheck{Key: TargetValid, Label: "sunlit time with a valid sun vector (" + j.what + ")",
+			Required: "≥ " + pct(t.MinValidFraction), Value: pct(j.valid), Pass: j.valid >= t.MinValidFraction,
+			Margin: j.valid - t.MinValidFraction,
+			Op:     OpAtLeast, Limit: t.MinValidFraction, Got: j.valid, Unit: UnitFraction})
 	}
 	if t.MaxErrorP95Rad > 0 {
-		p95 := h.P95NoAlbedoDeg
-		if !math.IsNaN(h.P95AlbedoDeg) {
-			p95 = h.P95AlbedoDeg
-		}
-		out = append(out, checkErrorP95(s, "p95 sun-vector error ("+h.Estimator+")", p95))
+		out = append(out, checkErrorP95(s, "p95 sun-vector error ("+j.what+")", j.p95))
 	}
 	if t.MinCoverage > 0 && t.CoverageSensors > 0 {
 		k := min(t.CoverageSensors, sky.MaxLevel)
@@ -140,10 +137,14 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 	}
 	if t.MaxGap > 0 {
 		lim := t.MaxGap.Seconds()
-		out = append(out, TargetCheck{Key: TargetGap, Label: "longest sunlit gap without a valid sun vector",
-			Required: "≤ " + spanS(lim), Value: spanS(h.LongestGapS), Pass: h.LongestGapS <= lim,
-			Margin: (lim - h.LongestGapS) / lim,
-			Op:     OpAtMost, Limit: lim, Got: h.LongestGapS, Unit: UnitSeconds})
+		label := "longest sunlit gap without a valid sun vector"
+		if j.corrected {
+			label += " (" + j.what + ")"
+		}
+		out = append(out, TargetCheck{Key: TargetGap, Label: label,
+			Required: "≤ " + spanS(lim), Value: spanS(j.gap), Pass: j.gap <= lim,
+			Margin: (lim - j.gap) / lim,
+			Op:     OpAtMost, Limit: lim, Got: j.gap, Unit: UnitSeconds})
 	}
 	if lim := t.MinOrbitAvgPowerW; lim > 0 {
 		got := h.OrbitAvgPowerW
@@ -166,29 +167,29 @@ func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
 	if len(sf.Rows) == 0 {
 		return nil
 	}
-	est := sf.Rows[0].Headline.Estimator
-	pick := func(worse func(a, b FailedSensor) bool) FailedSensor {
-		w := sf.Rows[0]
+	est := judgedFigures(s, sf.Rows[0].Headline).what
+	pick := func(worse func(a, b judged) bool) (FailedSensor, judged) {
+		w, wj := sf.Rows[0], judgedFigures(s, sf.Rows[0].Headline)
 		for _, r := range sf.Rows[1:] {
-			if worse(r, w) {
-				w = r
+			if rj := judgedFigures(s, r.Headline); worse(rj, wj) {
+				w, wj = r, rj
 			}
 		}
-		return w
+		return w, wj
 	}
 	var out []TargetCheck
 	if t.MinValidFraction > 0 {
-		w := pick(func(a, b FailedSensor) bool { return a.Headline.ValidFraction < b.Headline.ValidFraction })
-		v := w.Headline.ValidFraction
+		w, wj := pick(func(a, b judged) bool { return a.valid < b.valid })
+		v := wj.valid
 		out = append(out, TargetCheck{Key: TargetNMinus1Valid,
 			Label:    fmt.Sprintf("sunlit time with a valid sun vector, any one sensor failed (%s; worst: %s)", est, w.Sensor),
 			Required: fmt.Sprintf("≥ %.1f %%", 100*t.MinValidFraction), Value: fmt.Sprintf("%.1f %%", 100*v), Pass: v >= t.MinValidFraction,
 			Margin: v - t.MinValidFraction, Op: OpAtLeast, Limit: t.MinValidFraction, Got: v, Unit: UnitFraction})
 	}
 	if t.MaxErrorP95Rad > 0 {
-		w := pick(func(a, b FailedSensor) bool { return orInf(a.P95Deg()) > orInf(b.P95Deg()) })
+		w, wj := pick(func(a, b judged) bool { return orInf(a.p95) > orInf(b.p95) })
 		lim := t.MaxErrorP95Rad * 180 / math.Pi
-		p95 := w.P95Deg()
+		p95 := wj.p95
 		c := TargetCheck{Key: TargetNMinus1ErrorP95,
 			Label:    fmt.Sprintf("p95 sun-vector error, any one sensor failed (%s; worst: %s)", est, w.Sensor),
 			Required: fmt.Sprintf("≤ %.2f°", lim), Value: Missing, Pass: p95 <= lim, Margin: math.Inf(-1),
@@ -199,14 +200,33 @@ func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
 		out = append(out, c)
 	}
 	if t.MaxGap > 0 {
-		w := pick(func(a, b FailedSensor) bool { return a.Headline.LongestGapS > b.Headline.LongestGapS })
-		lim, g := t.MaxGap.Seconds(), w.Headline.LongestGapS
+		w, wj := pick(func(a, b judged) bool { return a.gap > b.gap })
+		lim, g := t.MaxGap.Seconds(), wj.gap
 		out = append(out, TargetCheck{Key: TargetNMinus1Gap,
 			Label:    fmt.Sprintf("longest sunlit gap, any one sensor failed (%s; worst: %s)", est, w.Sensor),
 			Required: "≤ " + spanS(lim), Value: spanS(g), Pass: g <= lim, Margin: (lim - g) / lim,
 			Op: OpAtMost, Limit: lim, Got: g, Unit: UnitSeconds})
 	}
 	return out
+}
+
+// judged are the figures of a run's primary estimator that the valid-share,
+// p95-error and gap targets judge, as targets.judge says: the uncorrected
+// estimate (p95 with albedo when an albedo model is set), or the estimate
+// from the readings after the on-board albedo correction. what names the
+// estimate in the target labels.
+type judged struct {
+	valid, p95, gap float64
+	what            string
+	corrected       bool
+}
+
+func judgedFigures(s *scenario.Scenario, h sim.Headline) judged {
+	if s.Targets.Judge == scenario.JudgeOnboardCorrected {
+		return judged{valid: h.ValidFractionCorrected, p95: h.P95CorrectedDeg, gap: h.LongestGapCorrectedS,
+			what: h.Estimator + ", on-board corrected", corrected: true}
+	}
+	return judged{valid: h.ValidFraction, p95: headlineP95(h), gap: h.LongestGapS, what: h.Estimator}
 }
 
 // checkErrorP95 judges a p95 error (degrees) against max_error_p95_deg.

@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -182,5 +183,101 @@ func TestTargetsJudgeOnboardCorrected(t *testing.T) {
 	se.Reset()
 	if code := runMain([]string{"check", p}, &so, &se); code != exitUsage || !strings.Contains(se.String(), "targets.judge") {
 		t.Errorf("judge without albedo.onboard: exit %d: %s", code, se.String())
+	}
+}
+
+// With targets.judge: onboard-corrected the single-failure study is judged
+// on the corrected estimate in every output, with realistic sensor errors
+// on. On this layout the corrected readings lose the albedo that kept a
+// sensor above its threshold, so the corrected gaps with one sensor failed
+// are longer than the uncorrected ones (about 3660 s against 870 s with
+// css-py failed): a 30 min n_minus_1 gap target passes judged uncorrected
+// and fails judged corrected. The summary table, the JSON record, the
+// single_failure.csv table, the report's verdict banner and the exit status
+// all say the same.
+func TestSingleFailureJudgedCorrectedInEveryOutput(t *testing.T) {
+	errs := `, errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003, misalignment_deg_1sigma: 1}`
+	text, err := os.ReadFile(onboardFile(t, "{model: zonal, cells: 400}"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	base := strings.ReplaceAll(string(text), `kind: cosine, face: "`, `kind: cosine`+errs+`, face: "`)
+	write := func(targets string) string {
+		p := filepath.Join(t.TempDir(), "sf.yaml")
+		if err := os.WriteFile(p, []byte(base+targets), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return p
+	}
+	var so, se bytes.Buffer
+	raw := write("targets: {n_minus_1: {max_gap: 30m}}\n")
+	if code := runMain([]string{"run", raw, "--quiet"}, &so, &se); code != exitOK {
+		t.Fatalf("judged uncorrected: exit %d, want %d: %s%s", code, exitOK, so.String(), se.String())
+	}
+	corr := write("targets: {judge: onboard-corrected, n_minus_1: {max_gap: 30m}}\n")
+	dir := filepath.Join(t.TempDir(), "out")
+	report := filepath.Join(t.TempDir(), "r.html")
+	so.Reset()
+	if code := runMain([]string{"run", corr, "--quiet", "--csv", dir, "--report", report}, &so, &se); code != exitTargetFailed {
+		t.Fatalf("judged corrected: exit %d, want %d: %s%s", code, exitTargetFailed, so.String(), se.String())
+	}
+	sum := so.String()
+	for _, want := range []string{"valid corr  gap corr  p95 corr", "on the on-board corrected estimate the targets judge",
+		"FAIL longest sunlit gap, any one sensor failed (least-squares, on-board corrected; worst: css-py)"} {
+		if !strings.Contains(sum, want) {
+			t.Errorf("summary lacks %q:\n%s", want, sum)
+		}
+	}
+	so.Reset()
+	runMain([]string{"run", corr, "--quiet", "--json"}, &so, &se)
+	var rec struct {
+		Verdict struct {
+			Status, Judge string
+		} `json:"verdict"`
+		Targets []struct {
+			Key   string   `json:"key"`
+			Value *float64 `json:"value"`
+		} `json:"targets"`
+		SingleFailure struct {
+			WorstSensor string `json:"worst_sensor"`
+			Failed      []struct {
+				Sensor string   `json:"failed_sensor"`
+				Gap    *float64 `json:"longest_gap_onboard_corrected_s"`
+				RawGap *float64 `json:"longest_gap_s"`
+			} `json:"failed"`
+		} `json:"single_failure"`
+	}
+	if err := json.Unmarshal(so.Bytes(), &rec); err != nil {
+		t.Fatal(err)
+	}
+	longest, rawLongest := 0.0, 0.0
+	for _, f := range rec.SingleFailure.Failed {
+		if f.Gap == nil || f.RawGap == nil {
+			t.Fatalf("%s failed: corrected gap %v, gap %v", f.Sensor, f.Gap, f.RawGap)
+		}
+		longest, rawLongest = math.Max(longest, *f.Gap), math.Max(rawLongest, *f.RawGap)
+	}
+	t.Logf("longest gap with one sensor failed: %.0f s corrected, %.0f s uncorrected; worst %s", longest, rawLongest, rec.SingleFailure.WorstSensor)
+	if rec.Verdict.Status != "failed" || rec.Verdict.Judge != "onboard-corrected" || len(rec.Targets) != 1 ||
+		rec.Targets[0].Value == nil || *rec.Targets[0].Value != longest || !(rawLongest <= 1800 && longest > 1800) {
+		t.Errorf("verdict %+v, targets %+v: want failed on the longest corrected gap %.0f s (uncorrected %.0f s)", rec.Verdict, rec.Targets, longest, rawLongest)
+	}
+	f, err := os.Open(filepath.Join(dir, "single_failure.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	rows, err := csv.NewReader(f).ReadAll()
+	if err != nil || len(rows) < 2 || !slices.Contains(rows[0], "longest_gap_onboard_corrected_s") {
+		t.Errorf("single_failure.csv header %v (%v)", rows[0], err)
+	}
+	html, err := os.ReadFile(report)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{`data-status="failed"`, "Longest gap corrected (s)", "on the least-squares, on-board corrected estimate the targets judge"} {
+		if !strings.Contains(string(html), want) {
+			t.Errorf("report lacks %q", want)
+		}
 	}
 }

@@ -353,6 +353,8 @@ type verdictRecord struct {
 	Failed        int      `json:"failed"`
 	FailedTargets []string `json:"failed_targets"`
 	Text          string   `json:"text"`
+	// Judge is the estimate the sun-vector targets judge (targets.judge).
+	Judge string `json:"judge"`
 }
 
 type modeRecord struct {
@@ -398,7 +400,7 @@ func (o *runOutput) record() runRecord {
 		Units:       units,
 		AcrossUnits: across,
 		Targets:     study.Records(o.targets),
-		Verdict:     verdictRecord{v.Status(), v.Total, v.Failed, append([]string{}, v.FailedKeys...), v.Text()},
+		Verdict:     verdictRecord{v.Status(), v.Total, v.Failed, append([]string{}, v.FailedKeys...), v.Text(), o.s.Targets.Judge},
 	}
 	if o.covErr == nil {
 		c := o.cov

@@ -130,7 +130,11 @@ func writeSeason(w io.Writer, s *scenario.Scenario, r *season.Result) {
 	fmt.Fprintf(w, "sunsight season: %s\n", s.Name)
 	fmt.Fprintf(w, "  %d cases of %s over %s from %s (%d coarse, the rest refined around each worst)\n", len(r.Cases),
 		scenario.Span(time.Duration(o.CaseS)*time.Second), scenario.Span(time.Duration(o.SpanS)*time.Second), s.Epoch.Format(time.RFC3339), o.Cases)
-	fmt.Fprintf(w, "\nWorst epochs (each case's own figures; primary estimator)\n")
+	what := "primary estimator"
+	if len(r.Cases) > 0 {
+		what = r.Cases[0].Judged.What + " estimate, as the targets judge it"
+	}
+	fmt.Fprintf(w, "\nWorst epochs (each case's own figures; %s)\n", what)
 	fmt.Fprintf(w, "  %-20s %-22s %8s %10s %9s %15s %8s\n", "criterion", "case start (UTC)", "valid", "p95 error", "max gap", "longest eclipse", "targets")
 	for _, wc := range r.Worst {
 		if wc.Case < 0 {
@@ -143,8 +147,8 @@ func writeSeason(w io.Writer, s *scenario.Scenario, r *season.Result) {
 		if n > 0 {
 			tg = fmt.Sprintf("%d/%d", met, n)
 		}
-		fmt.Fprintf(w, "  %-20s %-22s %8s %10s %7.0f s %11.2f min %8s\n", wc.Criterion, c.Epoch.Format(time.RFC3339), pct(c.Headline.ValidFraction),
-			deg(c.P95Deg()), c.Headline.LongestGapS, c.Headline.EclipseMaxMin, tg)
+		fmt.Fprintf(w, "  %-20s %-22s %8s %10s %7.0f s %11.2f min %8s\n", wc.Criterion, c.Epoch.Format(time.RFC3339), pct(c.Judged.ValidFraction),
+			deg(c.Judged.P95Deg), c.Judged.LongestGapS, c.Headline.EclipseMaxMin, tg)
 	}
 	d := r.Eclipse
 	fmt.Fprintf(w, "\nEclipses over the span (%d orbits, orbit noon to orbit noon; shadow = penumbra entry to exit)\n", d.Orbits)
@@ -233,8 +237,8 @@ func seasonJSON(s *scenario.Scenario, r *season.Result) seasonRecord {
 	rec := seasonRecord{Scenario: s.Name, SpanS: num(r.Options.SpanS), CaseDurationS: num(r.Options.CaseS), Cases: []seasonCaseRecord{}}
 	for _, c := range r.Cases {
 		met, n := targetsMet(c.Targets)
-		rec.Cases = append(rec.Cases, seasonCaseRecord{c.Epoch.Format(time.RFC3339), num(c.OffsetS), c.Refined, num(c.Headline.ValidFraction),
-			num(c.P95Deg()), num(c.Headline.LongestGapS), num(c.Headline.EclipseMaxMin), met, n})
+		rec.Cases = append(rec.Cases, seasonCaseRecord{c.Epoch.Format(time.RFC3339), num(c.OffsetS), c.Refined, num(c.Judged.ValidFraction),
+			num(c.Judged.P95Deg), num(c.Judged.LongestGapS), num(c.Headline.EclipseMaxMin), met, n})
 	}
 	for _, w := range r.Worst {
 		wr := seasonWorstRecord{Criterion: w.Criterion, Case: w.Case}
@@ -255,8 +259,8 @@ func seasonJSON(s *scenario.Scenario, r *season.Result) seasonRecord {
 func seasonCSV(r *season.Result, dir string) error {
 	cases := [][]string{{"start_utc", "offset_s", "refined", "valid_fraction", "p95_error_deg", "longest_gap_s", "eclipse_max_min"}}
 	for _, c := range r.Cases {
-		cases = append(cases, []string{c.Epoch.Format(time.RFC3339), ff(c.OffsetS, 0), strconv.FormatBool(c.Refined), ff(c.Headline.ValidFraction, 6),
-			ff(c.P95Deg(), 4), ff(c.Headline.LongestGapS, 1), ff(c.Headline.EclipseMaxMin, 3)})
+		cases = append(cases, []string{c.Epoch.Format(time.RFC3339), ff(c.OffsetS, 0), strconv.FormatBool(c.Refined), ff(c.Judged.ValidFraction, 6),
+			ff(c.Judged.P95Deg, 4), ff(c.Judged.LongestGapS, 1), ff(c.Headline.EclipseMaxMin, 3)})
 	}
 	months := [][]string{{"month", "orbits", "orbits_without_eclipse", "orbits_above_stated", "longest_shadow_s", "bin_start_min", "bin_end_min", "orbits_in_bin"}}
 	for _, m := range r.Eclipse.Months {
@@ -284,8 +288,8 @@ func seasonFigures(s *scenario.Scenario, r *season.Result, dir string) error {
 	sc := plots.SeasonScan{WorstValid: -1, WorstP95: -1, WorstEclipse: -1}
 	for _, c := range r.Cases {
 		sc.Day = append(sc.Day, c.OffsetS/86400)
-		sc.ValidPct = append(sc.ValidPct, 100*c.Headline.ValidFraction)
-		sc.P95Deg = append(sc.P95Deg, c.P95Deg())
+		sc.ValidPct = append(sc.ValidPct, 100*c.Judged.ValidFraction)
+		sc.P95Deg = append(sc.P95Deg, c.Judged.P95Deg)
 		sc.EclipseMin = append(sc.EclipseMin, c.Headline.EclipseMaxMin)
 		sc.Refined = append(sc.Refined, c.Refined)
 	}

@@ -6,6 +6,8 @@ import (
 	"sort"
 	"strconv"
 
+	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
@@ -27,19 +29,30 @@ type singleFailureRecord struct {
 }
 
 type failedPairRecord struct {
-	Sensors     []string `json:"failed_sensors"`
-	Valid       num      `json:"valid_fraction"`
-	LongestGapS num      `json:"longest_gap_s"`
-	P95NoAlbedo num      `json:"p95_error_no_albedo_deg"`
-	P95Albedo   num      `json:"p95_error_albedo_deg"`
+	Sensors []string `json:"failed_sensors"`
+	failedFigures
 }
 
 type failedSensorRecord struct {
-	Sensor      string `json:"failed_sensor"`
-	Valid       num    `json:"valid_fraction"`
-	LongestGapS num    `json:"longest_gap_s"`
-	P95NoAlbedo num    `json:"p95_error_no_albedo_deg"`
-	P95Albedo   num    `json:"p95_error_albedo_deg"`
+	Sensor string `json:"failed_sensor"`
+	failedFigures
+}
+
+// failedFigures are a failed layout's figures: uncorrected, then after the
+// on-board albedo correction (null without albedo.onboard).
+type failedFigures struct {
+	Valid          num `json:"valid_fraction"`
+	LongestGapS    num `json:"longest_gap_s"`
+	P95NoAlbedo    num `json:"p95_error_no_albedo_deg"`
+	P95Albedo      num `json:"p95_error_albedo_deg"`
+	ValidCorrected num `json:"valid_fraction_onboard_corrected"`
+	GapCorrectedS  num `json:"longest_gap_onboard_corrected_s"`
+	P95Corrected   num `json:"p95_error_onboard_corrected_deg"`
+}
+
+func figuresOf(h sim.Headline) failedFigures {
+	return failedFigures{num(h.ValidFraction), num(h.LongestGapS), num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg),
+		num(h.ValidFractionCorrected), num(h.LongestGapCorrectedS), num(h.P95CorrectedDeg)}
 }
 
 func (o *runOutput) singleFailureJSON() *singleFailureRecord {
@@ -49,40 +62,47 @@ func (o *runOutput) singleFailureJSON() *singleFailureRecord {
 	}
 	r := &singleFailureRecord{Estimator: sf.Rows[0].Headline.Estimator, WorstSensor: sf.Rows[sf.Worst].Sensor, Failed: []failedSensorRecord{}}
 	for _, f := range sf.Rows {
-		h := f.Headline
-		r.Failed = append(r.Failed, failedSensorRecord{f.Sensor, num(h.ValidFraction), num(h.LongestGapS), num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg)})
+		r.Failed = append(r.Failed, failedSensorRecord{f.Sensor, figuresOf(f.Headline)})
 	}
 	if sf.WorstPair >= 0 {
 		r.WorstPair = sf.Pairs[sf.WorstPair].Failed
 		for _, f := range sf.Pairs {
-			h := f.Headline
-			r.FailedPairs = append(r.FailedPairs, failedPairRecord{f.Failed, num(h.ValidFraction), num(h.LongestGapS), num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg)})
+			r.FailedPairs = append(r.FailedPairs, failedPairRecord{f.Failed, figuresOf(f.Headline)})
 		}
 	}
 	return r
 }
 
 // writeSingleFailure prints the single-failure table: the unfailed run,
-// then each sensor failed in turn, the worst marked.
+// then each sensor failed in turn, the worst marked; with an on-board
+// albedo model the corrected figures too.
 func (o *runOutput) writeSingleFailure(w io.Writer) {
 	sf := o.assessed.SingleFailure
 	if sf == nil || len(sf.Rows) == 0 {
 		return
 	}
 	h := o.res.Headline()
+	corr := o.s.Albedo.Onboard != nil
 	fmt.Fprintf(w, "\nSingle failure over time (%s estimator, primary attitude; each sensor failed in turn)\n", h.Estimator)
-	fmt.Fprintf(w, "  %-28s %8s %9s %13s %11s\n", "failed sensor", "valid", "max gap", "p95 no albedo", "p95 albedo")
-	row := func(name string, v, gap, p0, p1 float64) {
-		fmt.Fprintf(w, "  %-28s %8s %7.0f s %13s %11s\n", name, pct(v), gap, deg(p0), deg(p1))
+	fmt.Fprintf(w, "  %-28s %8s %9s %13s %11s", "failed sensor", "valid", "max gap", "p95 no albedo", "p95 albedo")
+	if corr {
+		fmt.Fprintf(w, " %10s %9s %9s", "valid corr", "gap corr", "p95 corr")
 	}
-	row("none", h.ValidFraction, h.LongestGapS, h.P95NoAlbedoDeg, h.P95AlbedoDeg)
+	fmt.Fprintln(w)
+	row := func(name string, g sim.Headline) {
+		fmt.Fprintf(w, "  %-28s %8s %7.0f s %13s %11s", name, pct(g.ValidFraction), g.LongestGapS, deg(g.P95NoAlbedoDeg), deg(g.P95AlbedoDeg))
+		if corr {
+			fmt.Fprintf(w, " %10s %7.0f s %9s", pct(g.ValidFractionCorrected), g.LongestGapCorrectedS, deg(g.P95CorrectedDeg))
+		}
+		fmt.Fprintln(w)
+	}
+	row("none", h)
 	for i, f := range sf.Rows {
 		name := f.Sensor
 		if i == sf.Worst {
 			name += " (worst)"
 		}
-		g := f.Headline
-		row(name, g.ValidFraction, g.LongestGapS, g.P95NoAlbedoDeg, g.P95AlbedoDeg)
+		row(name, f.Headline)
 	}
 	if sf.WorstPair >= 0 {
 		// The pairs, worst first: the first few only (all in the JSON record).
@@ -90,15 +110,27 @@ func (o *runOutput) writeSingleFailure(w io.Writer) {
 		for i := range order {
 			order[i] = i
 		}
-		sort.SliceStable(order, func(a, b int) bool { return study.WorseFailure(sf.Pairs[order[a]], sf.Pairs[order[b]]) })
+		sort.SliceStable(order, func(a, b int) bool { return study.WorseFailure(o.s, sf.Pairs[order[a]], sf.Pairs[order[b]]) })
 		n := min(len(order), maxPairRows)
 		fmt.Fprintf(w, "  pairs failed together, worst %d of %d:\n", n, len(order))
 		for _, i := range order[:n] {
-			g := sf.Pairs[i].Headline
-			row(sf.Pairs[i].Sensor, g.ValidFraction, g.LongestGapS, g.P95NoAlbedoDeg, g.P95AlbedoDeg)
+			row(sf.Pairs[i].Sensor, sf.Pairs[i].Headline)
 		}
 	}
-	fmt.Fprintf(w, "  (worst: lowest valid share, then largest p95, then longest gap; a failed sensor is removed from the layout)\n")
+	fmt.Fprintf(w, "  (worst: lowest valid share, then largest p95, then longest gap, on the %s estimate the targets judge;\n", judgeWord(o.s))
+	if corr {
+		fmt.Fprintf(w, "   a failed sensor is removed from the layout; corr: after the on-board albedo correction)\n")
+	} else {
+		fmt.Fprintf(w, "   a failed sensor is removed from the layout)\n")
+	}
+}
+
+// judgeWord names the estimate the targets judge, for table notes.
+func judgeWord(s *scenario.Scenario) string {
+	if s.Targets.Judge == scenario.JudgeOnboardCorrected {
+		return "on-board corrected"
+	}
+	return "uncorrected"
 }
 
 // maxPairRows bounds the pairs the summary prints.
@@ -111,12 +143,14 @@ func (o *runOutput) singleFailureCSV() [][]string {
 	if sf == nil {
 		return nil
 	}
-	rows := [][]string{{"failed_sensor", "pair", "worst", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg"}}
+	rows := [][]string{{"failed_sensor", "pair", "worst", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg",
+		"valid_fraction_onboard_corrected", "longest_gap_onboard_corrected_s", "p95_error_onboard_corrected_deg"}}
 	add := func(fs []study.FailedSensor, worst int, pair bool) {
 		for i, f := range fs {
 			h := f.Headline
 			rows = append(rows, []string{f.Sensor, strconv.FormatBool(pair), strconv.FormatBool(i == worst), ff(h.ValidFraction, 6),
-				ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4)})
+				ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4),
+				ff(h.ValidFractionCorrected, 6), ff(h.LongestGapCorrectedS, 1), ff(h.P95CorrectedDeg, 4)})
 		}
 	}
 	add(sf.Rows, sf.Worst, false)

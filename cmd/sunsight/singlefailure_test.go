@@ -61,7 +61,7 @@ func TestSingleFailureInSummaryJSONAndExit(t *testing.T) {
 	if code := runMain([]string{"run", p, "--quiet", "--csv", dir}, &so, &se); code != exitTargetFailed {
 		t.Fatalf("--csv exit %d, want %d: %s", code, exitTargetFailed, se.String())
 	}
-	if h := csvHeader(t, filepath.Join(dir, "single_failure.csv")); len(h) != 7 || h[0] != "failed_sensor" {
+	if h := csvHeader(t, filepath.Join(dir, "single_failure.csv")); len(h) != 10 || h[0] != "failed_sensor" {
 		t.Errorf("single_failure.csv header %v", h)
 	}
 	dict, _ := os.ReadFile("../../docs/data-dictionary.md")

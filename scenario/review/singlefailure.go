@@ -14,11 +14,21 @@ func AddSingleFailure(r *plots.Report, s *scenario.Scenario, cfg sim.Config, res
 	a := study.Assess(s, cfg, res).WithSingleFailure(s, sf)
 	r.Verdict = verdictOf(a.Targets)
 	h := res.Headline()
+	corr := s.Albedo.Onboard != nil
 	t := plots.Table{Title: "Single failure over time (" + h.Estimator + ", primary attitude)",
 		Header: []string{"Failed sensor", "Valid (% of sunlit)", "Longest gap (s)", "p95 no albedo (°)", "p95 albedo (°)"},
-		Note:   "Each sensor removed in turn and the run simulated again; worst: lowest valid share, then largest p95, then longest gap."}
+		Note: "Each sensor removed in turn and the run simulated again; worst: lowest valid share, then largest p95, then longest gap, on the " +
+			study.JudgedFigures(s, h).What + " estimate the targets judge."}
+	if corr {
+		t.Header = append(t.Header, "Valid corrected (% of sunlit)", "Longest gap corrected (s)", "p95 corrected (°)")
+		t.Note += " Corrected: after the on-board albedo correction."
+	}
 	row := func(name string, g sim.Headline) []string {
-		return []string{name, pct(g.ValidFraction), num(g.LongestGapS, 0), num(g.P95NoAlbedoDeg, 2), num(g.P95AlbedoDeg, 2)}
+		r := []string{name, pct(g.ValidFraction), num(g.LongestGapS, 0), num(g.P95NoAlbedoDeg, 2), num(g.P95AlbedoDeg, 2)}
+		if corr {
+			r = append(r, pct(g.ValidFractionCorrected), num(g.LongestGapCorrectedS, 0), num(g.P95CorrectedDeg, 2))
+		}
+		return r
 	}
 	t.Rows = append(t.Rows, row("none", h))
 	for i, f := range sf.Rows {

@@ -59,14 +59,11 @@ type Case struct {
 	Epoch   time.Time
 	Refined bool
 	sweep.Outcome
-}
-
-// P95Deg is the case's p95 error: with albedo when modelled.
-func (c Case) P95Deg() float64 {
-	if !math.IsNaN(c.Headline.P95AlbedoDeg) {
-		return c.Headline.P95AlbedoDeg
-	}
-	return c.Headline.P95NoAlbedoDeg
+	// Judged are the case's figures the targets judge (targets.judge):
+	// its valid share, p95 error (with albedo when modelled) and longest
+	// gap, uncorrected or after the on-board albedo correction. The worst
+	// cases are ranked on them.
+	Judged study.Judged
 }
 
 // Criteria of the worst season.
@@ -95,9 +92,9 @@ type Result struct {
 func worse(criterion string, a, b Case) bool {
 	switch criterion {
 	case WorstValid:
-		return a.Headline.ValidFraction < b.Headline.ValidFraction
+		return a.Judged.ValidFraction < b.Judged.ValidFraction
 	case WorstP95:
-		return a.P95Deg() > b.P95Deg() || math.IsNaN(b.P95Deg()) && !math.IsNaN(a.P95Deg())
+		return a.Judged.P95Deg > b.Judged.P95Deg || math.IsNaN(b.Judged.P95Deg) && !math.IsNaN(a.Judged.P95Deg)
 	}
 	return a.Headline.EclipseMaxMin > b.Headline.EclipseMaxMin
 }
@@ -105,7 +102,7 @@ func worse(criterion string, a, b Case) bool {
 func worstOf(criterion string, cases []Case) int {
 	w := -1
 	for i, c := range cases {
-		if criterion == WorstP95 && math.IsNaN(c.P95Deg()) {
+		if criterion == WorstP95 && math.IsNaN(c.Judged.P95Deg) {
 			continue
 		}
 		if w < 0 || worse(criterion, c, cases[w]) {
@@ -183,7 +180,7 @@ func Run(ctx context.Context, s *scenario.Scenario, opt Options, progress func(d
 		if err != nil {
 			return fmt.Errorf("season: case at %s: %w", cs.Epoch.Format(time.RFC3339), err)
 		}
-		r.Cases = append(r.Cases, Case{OffsetS: off, Epoch: cs.Epoch, Refined: refined, Outcome: out})
+		r.Cases = append(r.Cases, Case{OffsetS: off, Epoch: cs.Epoch, Refined: refined, Outcome: out, Judged: study.JudgedFigures(cs, out.Headline)})
 		if progress != nil {
 			progress(len(r.Cases), total)
 		}

@@ -1,6 +1,7 @@
 package study
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -14,6 +15,19 @@ import (
 // block and sensor errors, over six hours.
 func onboardCase(t *testing.T, albedoBlock, errors string) *sim.Result {
 	t.Helper()
+	return runScenario(t, onboardScenario(t, albedoBlock, errors))
+}
+
+// onboardScenario is onboardCase's scenario, the albedo block followed by
+// any further top-level keys (targets).
+func onboardScenario(t *testing.T, albedoBlock, errors string) *scenario.Scenario {
+	return onboardScenarioOf(t, albedoBlock, errors, []string{""})
+}
+
+// onboardScenarioOf is onboardScenario with one sensor per face and name
+// suffix (two suffixes give two sensors on each face).
+func onboardScenarioOf(t *testing.T, albedoBlock, errors string, suffixes []string) *scenario.Scenario {
+	t.Helper()
 	var b strings.Builder
 	b.WriteString(`epoch: "2026-03-20T00:00:00Z"
 duration: 6h
@@ -26,14 +40,16 @@ body:
   sensors:
 `)
 	for _, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"} {
-		b.WriteString(`    - {name: "css` + f + `", kind: cosine, face: "` + f + `"` + errors + "}\n")
+		for _, x := range suffixes {
+			b.WriteString(`    - {name: "css` + f + x + `", kind: cosine, face: "` + f + `"` + errors + "}\n")
+		}
 	}
 	b.WriteString(albedoBlock)
 	s, err := scenario.Parse([]byte(b.String()), "")
 	if err != nil {
 		t.Fatal(err)
 	}
-	return runScenario(t, s)
+	return s
 }
 
 // The on-board model equal to the truth's removes the albedo part of the
@@ -124,5 +140,65 @@ func TestOnboardNoneChangesNothing(t *testing.T) {
 	k := e.Corrected
 	if k == nil || k.ValidFraction != e.ValidFraction || k.Err != e.ErrAlbedo || k.LongestGapS != e.LongestGapS {
 		t.Errorf("on-board none: corrected %+v, uncorrected valid %.6f, error %+v", k, e.ValidFraction, e.ErrAlbedo)
+	}
+}
+
+// targets.judge: onboard-corrected moves the single-failure targets
+// (n_minus_1) to the corrected estimate, with realistic sensor errors on so
+// the correction is not perfect, on two sensors per face (each with its own
+// error draws) so every failed layout keeps a defined p95. By definition of the n_minus_1 targets the
+// p95 target's value is the largest corrected p95 over the failed layouts,
+// the valid-share target's the lowest corrected valid share, the gap
+// target's the longest corrected gap, and the worst failure the one with the
+// lowest corrected valid share (ties: largest corrected p95). A p95 limit
+// between the worst corrected and the worst uncorrected p95 fails judged
+// uncorrected and passes judged corrected, and the verdict follows.
+func TestSingleFailureJudgedOnboardCorrected(t *testing.T) {
+	errs := `, adc_bits: 10, errors: {dark_offset_1sigma: 0.005, gain_1sigma: 0.02, noise_1sigma: 0.003, misalignment_deg_1sigma: 1}`
+	albedo := "albedo: {model: zonal, value: 0.3, cells: 400, onboard: {model: zonal, value: 0.3, cells: 400}}\n"
+	run := func(targets string) (SingleFailure, Assessment) {
+		s := onboardScenarioOf(t, albedo+targets, errs, []string{"a", "b"})
+		_, sf, a := runSingleFailure(t, s)
+		return sf, a
+	}
+	// First, the figures with a loose limit, to place the test limit.
+	sf, _ := run("targets: {judge: onboard-corrected, n_minus_1: {max_error_p95_deg: 90, min_valid_fraction: 0.01, max_gap: 10h}}\n")
+	worstCorr, worstRaw, lowValid, longGap := 0.0, 0.0, 1.0, 0.0
+	w := 0
+	for i, r := range sf.Rows {
+		h := r.Headline
+		t.Logf("%s failed: valid %.4f (corrected %.4f), gap %.0f s (corrected %.0f s), p95 %.3f° (corrected %.3f°)", r.Sensor,
+			h.ValidFraction, h.ValidFractionCorrected, h.LongestGapS, h.LongestGapCorrectedS, h.P95AlbedoDeg, h.P95CorrectedDeg)
+		worstCorr, worstRaw = math.Max(worstCorr, h.P95CorrectedDeg), math.Max(worstRaw, h.P95AlbedoDeg)
+		lowValid, longGap = math.Min(lowValid, h.ValidFractionCorrected), math.Max(longGap, h.LongestGapCorrectedS)
+		b := sf.Rows[w].Headline
+		if h.ValidFractionCorrected < b.ValidFractionCorrected || h.ValidFractionCorrected == b.ValidFractionCorrected && h.P95CorrectedDeg > b.P95CorrectedDeg {
+			w = i
+		}
+	}
+	if sf.Worst != w {
+		t.Errorf("worst failure %s, want %s (lowest corrected valid share)", sf.Rows[sf.Worst].Sensor, sf.Rows[w].Sensor)
+	}
+	if !(worstCorr < 0.8*worstRaw) {
+		t.Fatalf("worst p95 corrected %.3f°, uncorrected %.3f°: the case needs a correction that matters", worstCorr, worstRaw)
+	}
+	lim := (worstCorr + worstRaw) / 2
+	targets := fmt.Sprintf("n_minus_1: {max_error_p95_deg: %g, min_valid_fraction: 0.01, max_gap: 10h}", lim)
+	_, aCorr := run("targets: {judge: onboard-corrected, " + targets + "}\n")
+	_, aRaw := run("targets: {" + targets + "}\n")
+	for key, want := range map[string]float64{TargetNMinus1ErrorP95: worstCorr, TargetNMinus1Valid: lowValid, TargetNMinus1Gap: longGap} {
+		c, ok := FindTarget(aCorr.Targets, key)
+		if !ok || c.Got != want || !strings.Contains(c.Label, "on-board corrected") {
+			t.Errorf("%s judged corrected: %+v (found %v), want the worst corrected figure %g", key, c, ok, want)
+		}
+	}
+	c, _ := FindTarget(aCorr.Targets, TargetNMinus1ErrorP95)
+	r, _ := FindTarget(aRaw.Targets, TargetNMinus1ErrorP95)
+	t.Logf("limit %.3f°: corrected %.3f° pass %v, uncorrected %.3f° pass %v", lim, c.Got, c.Pass, r.Got, r.Pass)
+	if !c.Pass || r.Pass || r.Got != worstRaw {
+		t.Errorf("p95 limit %.3f°: corrected %+v, uncorrected %+v: want pass on %.3f°, fail on %.3f°", lim, c, r, worstCorr, worstRaw)
+	}
+	if !aCorr.Verdict.Met() || aRaw.Verdict.Met() {
+		t.Errorf("verdicts: corrected %q, uncorrected %q", aCorr.Verdict.Text(), aRaw.Verdict.Text())
 	}
 }

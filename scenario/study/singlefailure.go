@@ -23,17 +23,14 @@ type FailedSensor struct {
 	Headline sim.Headline
 }
 
-// P95Deg is the failed run's p95 error as the targets judge it: with albedo
-// when an albedo model is set, else without.
-func (f FailedSensor) P95Deg() float64 { return headlineP95(f.Headline) }
-
 // SingleFailure is the single-failure study of a run: one row per sensor,
 // in body.sensors order, and the worst of them; with n_minus_1.also_pairs
 // one row per pair of sensors too.
 type SingleFailure struct {
 	Rows []FailedSensor
 	// Worst indexes the worst single failure: the lowest valid share, then
-	// the largest p95 error, then the longest gap.
+	// the largest p95 error, then the longest gap, on the figures the
+	// targets judge (targets.judge).
 	Worst int
 	// Pairs are the pairs failed together (i < j in body.sensors order),
 	// WorstPair the worst of them (-1 without pairs).
@@ -143,10 +140,10 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 		return sf, err
 	}
 	sf.Rows = out[:len(sensors)]
-	sf.Worst = worstFailure(sf.Rows)
+	sf.Worst = worstFailure(s, sf.Rows)
 	if s.Targets.NMinus1.Pairs {
 		sf.Pairs = out[len(sensors):]
-		sf.WorstPair = worstFailure(sf.Pairs)
+		sf.WorstPair = worstFailure(s, sf.Pairs)
 	}
 	return sf, nil
 }
@@ -169,30 +166,31 @@ func runWithout(ctx context.Context, s *scenario.Scenario, base sim.Config, fail
 	return sim.Run(ctx, cfg)
 }
 
-// worstFailure returns the index of the worst row: lowest valid share, then
-// largest p95 (an undefined p95 is the worst), then longest gap.
-func worstFailure(rows []FailedSensor) int {
+// worstFailure returns the index of the worst row (WorseFailure).
+func worstFailure(s *scenario.Scenario, rows []FailedSensor) int {
 	w := 0
 	for i := range rows {
-		if WorseFailure(rows[i], rows[w]) {
+		if WorseFailure(s, rows[i], rows[w]) {
 			w = i
 		}
 	}
 	return w
 }
 
-// WorseFailure reports whether failure a is worse than b: a lower valid
-// share, then a larger p95 error (an undefined one is the worst), then a
-// longer gap.
-func WorseFailure(a, b FailedSensor) bool {
-	if a.Headline.ValidFraction != b.Headline.ValidFraction {
-		return a.Headline.ValidFraction < b.Headline.ValidFraction
+// WorseFailure reports whether failure a is worse than b on the figures
+// the targets of s judge (targets.judge: uncorrected or on-board
+// corrected): a lower valid share, then a larger p95 error (an undefined
+// one is the worst), then a longer gap.
+func WorseFailure(s *scenario.Scenario, a, b FailedSensor) bool {
+	ja, jb := JudgedFigures(s, a.Headline), JudgedFigures(s, b.Headline)
+	if ja.ValidFraction != jb.ValidFraction {
+		return ja.ValidFraction < jb.ValidFraction
 	}
-	pa, pb := orInf(a.P95Deg()), orInf(b.P95Deg())
+	pa, pb := orInf(ja.P95Deg), orInf(jb.P95Deg)
 	if pa != pb {
 		return pa > pb
 	}
-	return a.Headline.LongestGapS > b.Headline.LongestGapS
+	return ja.LongestGapS > jb.LongestGapS
 }
 
 func orInf(v float64) float64 {

@@ -112,15 +112,15 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 		}
 		return fmt.Sprintf("%.1f %%", 100*f)
 	}
-	j := judgedFigures(s, h)
+	j := JudgedFigures(s, h)
 	if t.MinValidFraction > 0 {
-		out = append(out, TargetCheck{Key: TargetValid, Label: "sunlit time with a valid sun vector (" + j.what + ")",
-			Required: "≥ " + pct(t.MinValidFraction), Value: pct(j.valid), Pass: j.valid >= t.MinValidFraction,
-			Margin: j.valid - t.MinValidFraction,
-			Op:     OpAtLeast, Limit: t.MinValidFraction, Got: j.valid, Unit: UnitFraction})
+		out = append(out, TargetCheck{Key: TargetValid, Label: "sunlit time with a valid sun vector (" + j.What + ")",
+			Required: "≥ " + pct(t.MinValidFraction), Value: pct(j.ValidFraction), Pass: j.ValidFraction >= t.MinValidFraction,
+			Margin: j.ValidFraction - t.MinValidFraction,
+			Op:     OpAtLeast, Limit: t.MinValidFraction, Got: j.ValidFraction, Unit: UnitFraction})
 	}
 	if t.MaxErrorP95Rad > 0 {
-		out = append(out, checkErrorP95(s, "p95 sun-vector error ("+j.what+")", j.p95))
+		out = append(out, checkErrorP95(s, "p95 sun-vector error ("+j.What+")", j.P95Deg))
 	}
 	if t.MinCoverage > 0 && t.CoverageSensors > 0 {
 		k := min(t.CoverageSensors, sky.MaxLevel)
@@ -138,13 +138,13 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 	if t.MaxGap > 0 {
 		lim := t.MaxGap.Seconds()
 		label := "longest sunlit gap without a valid sun vector"
-		if j.corrected {
-			label += " (" + j.what + ")"
+		if j.Corrected {
+			label += " (" + j.What + ")"
 		}
 		out = append(out, TargetCheck{Key: TargetGap, Label: label,
-			Required: "≤ " + spanS(lim), Value: spanS(j.gap), Pass: j.gap <= lim,
-			Margin: (lim - j.gap) / lim,
-			Op:     OpAtMost, Limit: lim, Got: j.gap, Unit: UnitSeconds})
+			Required: "≤ " + spanS(lim), Value: spanS(j.LongestGapS), Pass: j.LongestGapS <= lim,
+			Margin: (lim - j.LongestGapS) / lim,
+			Op:     OpAtMost, Limit: lim, Got: j.LongestGapS, Unit: UnitSeconds})
 	}
 	if lim := t.MinOrbitAvgPowerW; lim > 0 {
 		got := h.OrbitAvgPowerW
@@ -167,11 +167,11 @@ func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
 	if len(sf.Rows) == 0 {
 		return nil
 	}
-	est := judgedFigures(s, sf.Rows[0].Headline).what
-	pick := func(worse func(a, b judged) bool) (FailedSensor, judged) {
-		w, wj := sf.Rows[0], judgedFigures(s, sf.Rows[0].Headline)
+	est := JudgedFigures(s, sf.Rows[0].Headline).What
+	pick := func(worse func(a, b Judged) bool) (FailedSensor, Judged) {
+		w, wj := sf.Rows[0], JudgedFigures(s, sf.Rows[0].Headline)
 		for _, r := range sf.Rows[1:] {
-			if rj := judgedFigures(s, r.Headline); worse(rj, wj) {
+			if rj := JudgedFigures(s, r.Headline); worse(rj, wj) {
 				w, wj = r, rj
 			}
 		}
@@ -179,17 +179,17 @@ func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
 	}
 	var out []TargetCheck
 	if t.MinValidFraction > 0 {
-		w, wj := pick(func(a, b judged) bool { return a.valid < b.valid })
-		v := wj.valid
+		w, wj := pick(func(a, b Judged) bool { return a.ValidFraction < b.ValidFraction })
+		v := wj.ValidFraction
 		out = append(out, TargetCheck{Key: TargetNMinus1Valid,
 			Label:    fmt.Sprintf("sunlit time with a valid sun vector, any one sensor failed (%s; worst: %s)", est, w.Sensor),
 			Required: fmt.Sprintf("≥ %.1f %%", 100*t.MinValidFraction), Value: fmt.Sprintf("%.1f %%", 100*v), Pass: v >= t.MinValidFraction,
 			Margin: v - t.MinValidFraction, Op: OpAtLeast, Limit: t.MinValidFraction, Got: v, Unit: UnitFraction})
 	}
 	if t.MaxErrorP95Rad > 0 {
-		w, wj := pick(func(a, b judged) bool { return orInf(a.p95) > orInf(b.p95) })
+		w, wj := pick(func(a, b Judged) bool { return orInf(a.P95Deg) > orInf(b.P95Deg) })
 		lim := t.MaxErrorP95Rad * 180 / math.Pi
-		p95 := wj.p95
+		p95 := wj.P95Deg
 		c := TargetCheck{Key: TargetNMinus1ErrorP95,
 			Label:    fmt.Sprintf("p95 sun-vector error, any one sensor failed (%s; worst: %s)", est, w.Sensor),
 			Required: fmt.Sprintf("≤ %.2f°", lim), Value: Missing, Pass: p95 <= lim, Margin: math.Inf(-1),
@@ -200,8 +200,8 @@ func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
 		out = append(out, c)
 	}
 	if t.MaxGap > 0 {
-		w, wj := pick(func(a, b judged) bool { return a.gap > b.gap })
-		lim, g := t.MaxGap.Seconds(), wj.gap
+		w, wj := pick(func(a, b Judged) bool { return a.LongestGapS > b.LongestGapS })
+		lim, g := t.MaxGap.Seconds(), wj.LongestGapS
 		out = append(out, TargetCheck{Key: TargetNMinus1Gap,
 			Label:    fmt.Sprintf("longest sunlit gap, any one sensor failed (%s; worst: %s)", est, w.Sensor),
 			Required: "≤ " + spanS(lim), Value: spanS(g), Pass: g <= lim, Margin: (lim - g) / lim,
@@ -210,23 +210,24 @@ func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
 	return out
 }
 
-// judged are the figures of a run's primary estimator that the valid-share,
-// p95-error and gap targets judge, as targets.judge says: the uncorrected
-// estimate (p95 with albedo when an albedo model is set), or the estimate
-// from the readings after the on-board albedo correction. what names the
-// estimate in the target labels.
-type judged struct {
-	valid, p95, gap float64
-	what            string
-	corrected       bool
+// Judged are the figures of a run's primary estimator that the
+// valid-share, p95-error and gap targets judge, as targets.judge says: the
+// uncorrected estimate (p95 with albedo when an albedo model is set), or
+// the estimate from the readings after the on-board albedo correction.
+// What names the estimate in target labels and tables.
+type Judged struct {
+	ValidFraction, P95Deg, LongestGapS float64
+	What                               string
+	Corrected                          bool
 }
 
-func judgedFigures(s *scenario.Scenario, h sim.Headline) judged {
+// JudgedFigures returns the figures of h the targets of s judge.
+func JudgedFigures(s *scenario.Scenario, h sim.Headline) Judged {
 	if s.Targets.Judge == scenario.JudgeOnboardCorrected {
-		return judged{valid: h.ValidFractionCorrected, p95: h.P95CorrectedDeg, gap: h.LongestGapCorrectedS,
-			what: h.Estimator + ", on-board corrected", corrected: true}
+		return Judged{ValidFraction: h.ValidFractionCorrected, P95Deg: h.P95CorrectedDeg, LongestGapS: h.LongestGapCorrectedS,
+			What: h.Estimator + ", on-board corrected", Corrected: true}
 	}
-	return judged{valid: h.ValidFraction, p95: headlineP95(h), gap: h.LongestGapS, what: h.Estimator}
+	return Judged{ValidFraction: h.ValidFraction, P95Deg: headlineP95(h), LongestGapS: h.LongestGapS, What: h.Estimator}
 }
 
 // checkErrorP95 judges a p95 error (degrees) against max_error_p95_deg.

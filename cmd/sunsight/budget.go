@@ -86,7 +86,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	// A tolerance target the all-together error misses: exit status 3.
 	var verdict error
 	if rep.Missed() {
-		verdict = targetsFailed{fmt.Sprintf("p95 error with every source as stated %.3f° exceeds the tolerance target %.3g°", rep.AllP95Deg, tgt)}
+		verdict = targetsFailed{what: fmt.Sprintf("p95 error with every source as stated %.3f° exceeds the tolerance target %.3g°", rep.AllP95Deg, tgt)}
 	}
 	if *asJSON {
 		enc := json.NewEncoder(stdout)

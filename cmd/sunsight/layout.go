@@ -105,7 +105,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	// "none": exit status 3, after the table and layout.json are written.
 	var verdict error
 	if res.Best == nil {
-		verdict = targetsFailed{"no subset of body.candidates meets every target"}
+		verdict = targetsFailed{what: "no subset of body.candidates meets every target"}
 	}
 	if *out == "" {
 		return verdict

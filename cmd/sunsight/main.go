@@ -65,8 +65,13 @@ func (u usageError) Unwrap() error { return u.err }
 func usagef(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
 
 // targetsFailed is returned by a command that ran to the end and printed its
-// results, but whose stated targets were not met (exit status 3).
-type targetsFailed struct{ what string }
+// results, but whose stated targets were not met (exit status 3). shown
+// says the verdict naming what failed is already the last line on stdout,
+// so standard error only explains the exit status.
+type targetsFailed struct {
+	what  string
+	shown bool
+}
 
 func (t targetsFailed) Error() string { return t.what }
 
@@ -121,6 +126,9 @@ func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
 	switch {
 	case err == nil, errors.Is(err, errHelpShown):
 		return exitOK
+	case errors.As(err, &tf) && tf.shown:
+		fmt.Fprintf(stderr, "sunsight %s: exit status %d: a target failed (the verdict line names it)\n", c.name, exitTargetFailed)
+		return exitTargetFailed
 	case errors.As(err, &tf):
 		fmt.Fprintf(stderr, "sunsight %s: %v\n", c.name, err)
 		return exitTargetFailed

@@ -13,6 +13,7 @@ import (
 	"strconv"
 	"strings"
 	"time"
+	"unicode/utf8"
 
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/illum/sky"
@@ -461,7 +462,6 @@ func deg(f float64) string {
 func (o *runOutput) writeSummary(w io.Writer) {
 	s, r, u := o.s, o.res, o.res.Nominal
 	fmt.Fprintf(w, "sunsight run: %s\n", s.Name)
-	fmt.Fprintf(w, "  verdict: %s\n", study.Judge(o.allTargets()).Text())
 	fmt.Fprintf(w, "  %s for %s at %s steps (%d samples), seed %d, %d unit(s)\n", s.Epoch.Format(time.RFC3339), s.Duration, s.Step, r.Steps, s.Seed, len(r.Units))
 	a, e := s.Orbit.SemiMajorAxisKm, s.Orbit.Eccentricity
 	if el, err := study.MeanElements(s); err == nil {
@@ -551,13 +551,17 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	o.writeModes(w)
 	o.writeSingleFailure(w)
 	if len(o.targets) > 0 {
-		fmt.Fprintf(w, "\nTargets: %s\n", study.Judge(o.allTargets()).Text())
+		fmt.Fprintf(w, "\nTargets (the verdict is the last line)\n")
+		width := 0
+		for _, t := range o.targets {
+			width = max(width, utf8.RuneCountInString(t.Label))
+		}
 		for _, t := range o.targets {
 			verdict := "FAIL"
 			if t.Pass {
 				verdict = "pass"
 			}
-			fmt.Fprintf(w, "  %-4s %-44s required %-10s got %s\n", verdict, t.Label, t.Required, t.Value)
+			fmt.Fprintf(w, "  %-4s %-*s required %-10s got %s\n", verdict, width, t.Label, t.Required, t.Value)
 		}
 	}
 	fmt.Fprintf(w, "\nAn analysis aid, not flight verification: flight hardware needs qualified verification.\n")

@@ -257,7 +257,10 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		fmt.Fprintf(stdout, "\nwritten: %s\n", strings.Join(written, ", "))
 	}
 	fmt.Fprintf(stdout, "\nverdict: %s\n", verdict.Text())
-	return verdictError(verdict)
+	if !verdict.Met() {
+		return targetsFailed{verdict.Text(), true}
+	}
+	return nil
 }
 
 // verdictError is the error of a run whose targets are not all met (exit 3).
@@ -265,7 +268,7 @@ func verdictError(v study.Verdict) error {
 	if v.Met() {
 		return nil
 	}
-	return targetsFailed{v.Text()}
+	return targetsFailed{what: v.Text()}
 }
 
 // ensureWritableDir creates dir if needed and checks a file can be made in it.

@@ -123,9 +123,9 @@ func TestRunPlotsHonoursOutputFigures(t *testing.T) {
 // study.Judge from the target checks.
 func TestRunVerdictSummaryMatchesJSON(t *testing.T) {
 	args := []string{"run", "-quiet", "-duration", "3h", "../../examples/nadir-6u-sso.yaml"}
-	var sum, js, errb bytes.Buffer
+	var sum, js, errb, errj bytes.Buffer
 	runMain(args, &sum, &errb)
-	runMain(append([]string{"run", "-json"}, args[1:]...), &js, &errb)
+	runMain(append([]string{"run", "-json"}, args[1:]...), &js, &errj)
 	var rec struct {
 		Verdict struct {
 			Status  string   `json:"status"`
@@ -136,13 +136,22 @@ func TestRunVerdictSummaryMatchesJSON(t *testing.T) {
 		} `json:"verdict"`
 	}
 	if err := json.Unmarshal(js.Bytes(), &rec); err != nil {
-		t.Fatalf("JSON does not parse: %v (%s)", err, errb.String())
+		t.Fatalf("JSON does not parse: %v (%s)", err, errj.String())
 	}
 	v := rec.Verdict
 	if v.Targets != 4 || v.Status == "" || v.Text == "" || len(v.Keys) != v.Failed {
 		t.Fatalf("verdict %+v", v)
 	}
-	if !strings.Contains(sum.String(), "verdict: "+v.Text+"\n") || !strings.Contains(sum.String(), "Targets: "+v.Text+"\n") {
-		t.Errorf("summary lacks the JSON verdict %q:\n%s", v.Text, sum.String())
+	if !strings.HasSuffix(sum.String(), "\nverdict: "+v.Text+"\n") {
+		t.Errorf("summary does not end with the JSON verdict %q:\n%s", v.Text, sum.String())
+	}
+	// Said once: the verdict text appears on one line of the summary only
+	// (a failed target's label also appears in its own table row).
+	if n := strings.Count(sum.String(), v.Text); n != 1 {
+		t.Errorf("the verdict %q appears %d times in the summary, want once:\n%s", v.Text, n, sum.String())
+	}
+	// Standard error does not repeat it; it explains the exit status.
+	if v.Status == "failed" && (strings.Contains(errb.String(), v.Text) || !strings.Contains(errb.String(), "exit status 3")) {
+		t.Errorf("stderr %q: want the exit status explained, not the verdict repeated", errb.String())
 	}
 }

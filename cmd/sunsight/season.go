@@ -118,7 +118,7 @@ func seasonVerdict(r *season.Result) error {
 		}
 		for _, t := range r.Cases[w.Case].Targets {
 			if !t.Pass {
-				return targetsFailed{fmt.Sprintf("%s at the %s epoch %s", t.Label, w.Criterion, r.Cases[w.Case].Epoch.Format(time.RFC3339))}
+				return targetsFailed{what: fmt.Sprintf("%s at the %s epoch %s", t.Label, w.Criterion, r.Cases[w.Case].Epoch.Format(time.RFC3339))}
 			}
 		}
 	}

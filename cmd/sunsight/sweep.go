@@ -132,7 +132,7 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 	}
 	if failed > 0 {
 		fmt.Fprintf(stdout, "verdict: %d of %d cases miss a target (see the target_*_pass columns of sweep.csv)\n", failed, len(cases))
-		return targetsFailed{fmt.Sprintf("%d of %d cases miss a target", failed, len(cases))}
+		return targetsFailed{what: fmt.Sprintf("%d of %d cases miss a target", failed, len(cases))}
 	}
 	fmt.Fprintf(stdout, "verdict: every target met in all %d cases\n", len(cases))
 	return nil

@@ -392,13 +392,14 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		}
 		if sunlit {
 			ea.gaps.Observe(t, !eAlb.Valid)
+			dNo := math.NaN()
 			if eNo.Valid {
 				ea.validNo++
-				d := degOf(angleBetween(eNo.Dir, sunBody))
-				ea.mNo.Add(d)
-				ea.qNo.Add(d)
+				dNo = degOf(angleBetween(eNo.Dir, sunBody))
+				ea.mNo.Add(dNo)
+				ea.qNo.Add(dNo)
 				if j == 0 {
-					errNoDeg = d
+					errNoDeg = dNo
 				}
 			}
 			if eAlb.Valid {
@@ -406,7 +407,10 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 				if !eNo.Valid {
 					ea.albedoOnly++
 				}
-				d := degOf(angleBetween(eAlb.Dir, sunBody))
+				d := dNo // without albedo the two estimates are one
+				if a.albedo {
+					d = degOf(angleBetween(eAlb.Dir, sunBody))
+				}
 				if d > a.boundDeg {
 					ea.wrong++
 				}

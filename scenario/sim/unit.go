@@ -158,25 +158,34 @@ func (g *geometry) state(k int) orbit.State {
 // sensor), and with an on-board model too predBody (that model's
 // prediction on the same sensors). It allocates nothing.
 func (g *geometry) step(k int, albBody, predBody []sensor.Albedo) stepGeom {
+	var sg stepGeom
+	g.fill(&sg, k, albBody, predBody)
+	return sg
+}
+
+// fill is step writing into sg, which the step loop reuses.
+func (g *geometry) fill(sg *stepGeom, k int, albBody, predBody []sensor.Albedo) {
 	cfg := g.cfg
 	t := float64(k) * cfg.Step
 	st := g.state(k)
 	sunU, sunD := g.sun.at(t)
 	lit, region := shadow(cfg.Cylindrical, st.R, sunU, sunD)
-	var M bodyMatrix
+	M := &sg.body
 	switch {
 	case g.eclAware != nil:
-		M = attitudeRot(g.eclAware.AttitudeInEclipse(t, st, sunU, region != illum.Sunlit)).matrix()
+		*M = attitudeRot(g.eclAware.AttitudeInEclipse(t, st, sunU, region != illum.Sunlit)).matrix()
 	case g.rows != nil:
-		M = bodyMatrix(g.rows.Rows(t, st, sunU)) // built directly, no quaternion
+		*M = bodyMatrix(g.rows.Rows(t, st, sunU)) // built directly, no quaternion
 	default:
-		M = attitudeRot(g.law.Attitude(t, st, sunU)).matrix()
+		*M = attitudeRot(g.law.Attitude(t, st, sunU)).matrix()
 	}
-	sg := stepGeom{t: t, region: region, lit: lit, direct: solarIrradiance(sunD) * lit, sunBody: M.toBody(sunU),
-		nadirBody: M.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R)), sinBeta: illum.SinBetaAngle(st.R, st.V, sunU), body: M}
-	g.bodies(&sg, &M, st.R, sunU, sunD)
+	sg.t, sg.region, sg.lit, sg.direct = t, region, lit, solarIrradiance(sunD)*lit
+	sg.sunBody = M.toBody(sunU)
+	sg.nadirBody = M.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R))
+	sg.sinBeta = illum.SinBetaAngle(st.R, st.V, sunU)
+	g.bodies(sg, M, st.R, sunU, sunD)
 	if g.alb == nil {
-		return sg
+		return
 	}
 	jd := g.jd0 + t/86400
 	for i, b := range g.boresights {
@@ -190,15 +199,14 @@ func (g *geometry) step(k int, albBody, predBody []sensor.Albedo) stepGeom {
 	}
 	gmst := ephem.GMST(g.jdUT0 + t/86400)
 	g.integrate(g.alb, g.table, g.albOut, st, sunU, sunD, gmst, jd)
-	toBody(albBody, g.albOut, &M)
+	toBody(albBody, g.albOut, M)
 	if g.corr != nil {
 		// The on-board model's prediction, by the same route as the truth
 		// (a table when one serves it), so that the same model predicts
 		// the same numbers.
 		g.integrate(g.corr, g.corrTab, g.corrOut, st, sunU, sunD, gmst, jd)
-		toBody(predBody, g.corrOut, &M)
+		toBody(predBody, g.corrOut, M)
 	}
-	return sg
 }
 
 // integrate fills out with model m's albedo on the sensors, from table t
@@ -255,7 +263,11 @@ type viewer struct {
 	// The nominal cones and mounting-plane normals (zero: none).
 	cone []sensor.Cone
 	face []r3.Vec
-	v    stepView
+	// outside[i]: below this cosine from the nominal boresight sensor i
+	// cannot see the sun (a cosine sensor's cone, less a margin far above
+	// rounding), so its viewer need not be asked; −2 for the other kinds.
+	outside []float64
+	v       stepView
 }
 
 func newViewer(cfg *Config, arr *sensor.Array) *viewer {
@@ -278,6 +290,11 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 			w.sees = append(w.sees, s.SeesSun)
 		}
 		w.cone = append(w.cone, sensor.NewCone(s.Mount().Boresight(), s.HalfAngle()))
+		cut := -2.0
+		if _, ok := s.(*sensor.Cosine); ok {
+			cut = math.Cos(s.HalfAngle()) - 1e-9
+		}
+		w.outside = append(w.outside, cut)
 		if cfg.MountNormals != nil {
 			w.face[i] = cfg.MountNormals[i]
 		}
@@ -302,7 +319,7 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 	v.seen = 0
 	sunlit := g.region == illum.Sunlit
 	for i, sees := range w.sees {
-		v.sees[i] = sunlit && sees(g.sunBody)
+		v.sees[i] = sunlit && r3.Dot(w.cone[i].Axis, g.sunBody) >= w.outside[i] && sees(g.sunBody)
 		if v.sees[i] {
 			v.seen++
 		}
@@ -355,7 +372,7 @@ type reader struct {
 	cfg             *Config
 	arr             *sensor.Array
 	ests            []sensor.Estimator
-	cosines         []*sensor.Cosine // every sensor, when all are cosine sensors
+	bank            *sensor.CosineBank // every sensor, when all are cosine sensors without a temperature model
 	readNo, readAlb []sensor.Reading
 	noiseSrc        *rand.PCG
 	noise           *rand.Rand
@@ -384,19 +401,12 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 		readNo: make([]sensor.Reading, n), readAlb: make([]sensor.Reading, n)}
 	r.noiseSrc = rand.NewPCG(0, 0)
 	r.noise = rand.New(r.noiseSrc)
-	for _, s := range arr.Sensors() {
-		c, ok := s.(*sensor.Cosine)
-		if !ok {
-			r.cosines = nil
-			break
-		}
-		r.cosines = append(r.cosines, c)
-	}
 	r.warm = warmSensors(arr)
 	if r.warm != nil {
 		// Readings at the sensors' temperatures go through ReadAt.
-		r.cosines = nil
 		r.temps = make([]float64, n)
+	} else if cs := allCosines(arr); cs != nil {
+		r.bank = sensor.NewCosineBank(cs)
 	}
 	for i, s := range arr.Sensors() {
 		if b, ok := s.(sensor.Blindable); ok && b.Blinding() {
@@ -427,13 +437,11 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 	// Readings without albedo, then with it, on the same noise draws: a
 	// cosine array reads both in one pass (Cosine.ReadPair), other kinds
 	// replay the noise stream.
-	if r.withAlbedo && r.cosines != nil {
-		for i, c := range r.cosines {
-			d := g.direct
-			if v.sunBlocked != nil && v.sunBlocked[i] {
-				d = 0
-			}
-			c.ReadPair(&r.readNo[i], &r.readAlb[i], g.sunBody, d, v.albSeen[i].Irradiance, r.noise)
+	if r.bank != nil {
+		if r.withAlbedo {
+			r.bank.ReadPair(r.readNo, r.readAlb, g.sunBody, g.direct, v.albSeen, v.sunBlocked, r.noise)
+		} else {
+			r.bank.Read(r.readNo, g.sunBody, g.direct, v.sunBlocked, r.noise)
 		}
 	} else if r.warm != nil {
 		for i, w := range r.warm {
@@ -525,6 +533,7 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 	predBody := make([]sensor.Albedo, len(albBody))
 	vw := newViewer(cfg, arrays[tk.u0])
 	n := int64(len(readers))
+	var sg stepGeom
 	for k := tk.k0; k < tk.k1; k++ {
 		if k&1023 == 0 && k > tk.k0 {
 			if ctx.Err() != nil {
@@ -534,7 +543,7 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 				cfg.Progress(float64(d) / float64(total))
 			}
 		}
-		sg := g.step(k, albBody, predBody)
+		g.fill(&sg, k, albBody, predBody)
 		v := vw.at(&sg, albBody, predBody)
 		for _, r := range readers {
 			r.step(k, &sg, v)
@@ -571,6 +580,20 @@ func readAll(dst []sensor.Reading, arr *sensor.Array, sun r3.Vec, direct float64
 		}
 		dst[i] = s.Read(sun, d, a, noise)
 	}
+}
+
+// allCosines returns the sensors of arr when all are cosine sensors, nil
+// otherwise.
+func allCosines(arr *sensor.Array) []*sensor.Cosine {
+	var cs []*sensor.Cosine
+	for _, s := range arr.Sensors() {
+		c, ok := s.(*sensor.Cosine)
+		if !ok {
+			return nil
+		}
+		cs = append(cs, c)
+	}
+	return cs
 }
 
 // warmSensors returns, per sensor, the ones whose temperature model changes

@@ -211,12 +211,43 @@ func (n Nadir) Attitude(_ float64, s orbit.State, sunDir r3.Vec) r3.Rotation {
 
 // Rows implements RowsLaw: the matrix of Attitude, built from the axes.
 func (n Nadir) Rows(t float64, s orbit.State, sun r3.Vec) Rows {
+	if n.Offset == (r3.Rotation{}) && !n.YawToSun && isAxis(n.NadirAxis, unitZ) && isAxis(n.VelocityAxis, unitX) {
+		if m, ok := nadirRows(s.R, s.V); ok {
+			return m
+		}
+	}
 	if n.Offset == (r3.Rotation{}) {
 		if m, ok := alignRows(n.NadirAxis, r3.Scale(-1, s.R), n.VelocityAxis, n.secondary(s, sun)); ok {
 			return m
 		}
 	}
 	return RowsOf(n.Attitude(t, s, sun))
+}
+
+// isAxis reports whether a body axis is def or zero (the default).
+func isAxis(v, def r3.Vec) bool { return v == (r3.Vec{}) || v == def }
+
+// nadirRows is alignRows(+Z, −r, +X, v) written out for the default axes:
+// the same operations in the same order (so the same numbers,
+// TestNadirRowsWrittenOut), without the calls and the copies of the
+// general path, which cost as much as the arithmetic.
+func nadirRows(r, v r3.Vec) (Rows, bool) {
+	px, py, pz := -1*r.X, -1*r.Y, -1*r.Z
+	p2 := px*px + py*py + pz*pz
+	if p2 == 0 {
+		return Rows{}, false
+	}
+	f := 1 / math.Sqrt(p2)
+	t1 := r3.Vec{X: f * px, Y: f * py, Z: f * pz}
+	c := r3.Vec{X: t1.Y*v.Z - t1.Z*v.Y, Y: t1.Z*v.X - t1.X*v.Z, Z: t1.X*v.Y - t1.Y*v.X}
+	c2 := c.X*c.X + c.Y*c.Y + c.Z*c.Z
+	if !(c2 > 2e-24*(v.X*v.X+v.Y*v.Y+v.Z*v.Z)) {
+		return Rows{}, false
+	}
+	g := 1 / math.Sqrt(c2)
+	t2 := r3.Vec{X: g * c.X, Y: g * c.Y, Z: g * c.Z}
+	t3 := r3.Vec{X: t1.Y*t2.Z - t1.Z*t2.Y, Y: t1.Z*t2.X - t1.X*t2.Z, Z: t1.X*t2.Y - t1.Y*t2.X}
+	return Rows{{X: -1 * t3.X, Y: -1 * t3.Y, Z: -1 * t3.Z}, t2, t1}, true
 }
 
 // SunReference names the direction the secondary axis of Sun pointing is

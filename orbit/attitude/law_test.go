@@ -284,3 +284,28 @@ func TestNadirRowsMatchAttitude(t *testing.T) {
 		}
 	}
 }
+
+// The written-out nadir matrix is, bit for bit, the general path's
+// (alignRows of the default axes) on random orbits from 200 km to GEO,
+// retrograde and equatorial ones included (closed form: the same
+// operations in the same order).
+func TestNadirRowsWrittenOut(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	for k := range 20000 {
+		r := r3.Scale(6578+rng.Float64()*40000, r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()}))
+		v := r3.Scale(1+rng.Float64()*7, r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()}))
+		if k%1000 == 0 {
+			v = r3.Scale(2, r) // degenerate: velocity along the radius
+		}
+		got, okGot := nadirRows(r, v)
+		want, okWant := alignRows(unitZ, r3.Scale(-1, r), unitX, v)
+		if got != want || okGot != okWant {
+			t.Fatalf("r %v v %v: written out %v (%v), general %v (%v)", r, v, got, okGot, want, okWant)
+		}
+		for _, n := range []Nadir{{}, {NadirAxis: unitZ, VelocityAxis: unitX}} {
+			if okWant && n.Rows(0, orbit.State{R: r, V: v}, r3.Vec{X: 1}) != want {
+				t.Fatalf("Nadir%+v.Rows differs from the general path", n)
+			}
+		}
+	}
+}

@@ -290,3 +290,55 @@ func TestBodiesStepAllocatesNothing(t *testing.T) {
 		t.Errorf("%v allocations per step", n)
 	}
 }
+
+// The viewer's Moon and lit-Earth flags are sensor.Bodies.MoonInCone and
+// LitEarthInCone, which it writes out over the sensors: the same flags on
+// random bodies (near-edge cases included by drawing the angular radii up
+// to 60°) and cones from 5° to 90°, with and without mounting planes.
+func TestViewerBodiesFlagsAreTheRules(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	unit := func() r3.Vec {
+		return r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()})
+	}
+	var ss []sensor.Sensor
+	for i := range 8 {
+		ss = append(ss, cosineAt(t, fmt.Sprintf("c%d", i), unit(), 5+float64(i)*12))
+	}
+	arr, err := sensor.NewArray(ss...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg := Config{Array: arr}
+	faces := make([]r3.Vec, arr.Len())
+	for i := range faces {
+		if i%2 == 0 {
+			faces[i] = unit()
+		}
+	}
+	cfg.MountNormals = faces
+	vw := newViewer(&cfg, arr)
+	var in, lit int
+	for range 20000 {
+		var g stepGeom
+		b := &g.bodies
+		b.MoonDir, b.NadirDir = unit(), unit()
+		b.MoonSin, b.EarthSin = math.Sin(rng.Float64()*math.Pi/3), math.Sin(rng.Float64()*math.Pi/3)
+		b.MoonCos, b.EarthCos = math.Sqrt(1-b.MoonSin*b.MoonSin), math.Sqrt(1-b.EarthSin*b.EarthSin)
+		b.MoonHidden, b.EarthLit = rng.IntN(4) == 0, rng.IntN(4) != 0
+		v := vw.at(&g, nil, nil)
+		for i, c := range vw.cone {
+			if v.moonIn[i] != b.MoonInCone(c, faces[i]) || v.litEarthIn[i] != b.LitEarthInCone(c, faces[i]) {
+				t.Fatalf("sensor %d: viewer Moon %v Earth %v, rules %v %v", i, v.moonIn[i], v.litEarthIn[i], b.MoonInCone(c, faces[i]), b.LitEarthInCone(c, faces[i]))
+			}
+			if v.moonIn[i] {
+				in++
+			}
+			if v.litEarthIn[i] {
+				lit++
+			}
+		}
+	}
+	if in == 0 || lit == 0 {
+		t.Fatalf("cases not reached: Moon in a cone %d, lit Earth in a cone %d", in, lit)
+	}
+}

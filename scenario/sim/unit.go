@@ -324,10 +324,15 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 			v.seen++
 		}
 	}
+	// sensor.Bodies.MoonInCone and LitEarthInCone, written out over the
+	// sensors: the same comparisons, without a copy of each cone.
 	b := &g.bodies
-	for i, c := range w.cone {
-		v.moonIn[i] = b.MoonInCone(c, w.face[i]) && (w.blocked == nil || w.blocked[i] == nil || !w.blocked[i](b.MoonDir))
-		v.litEarthIn[i] = b.LitEarthInCone(c, w.face[i])
+	moonCut, earthCut := -b.MoonSin, -b.EarthSin
+	for i := range w.cone {
+		c, face := &w.cone[i], &w.face[i]
+		v.moonIn[i] = !b.MoonHidden && r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin && r3.Dot(b.MoonDir, *face) > moonCut &&
+			(w.blocked == nil || w.blocked[i] == nil || !w.blocked[i](b.MoonDir))
+		v.litEarthIn[i] = b.EarthLit && r3.Dot(c.Axis, b.NadirDir) > c.Cos*b.EarthCos-c.Sin*b.EarthSin && r3.Dot(b.NadirDir, *face) > earthCut
 	}
 	return v
 }

@@ -214,6 +214,7 @@ func (tr *Trace) replay(ctx context.Context, cfg *Config, subset []int, units, w
 					}
 					r.step(k, &tr.geom[k], vw.at(&tr.geom[k], albSub, predSub))
 				}
+				vw.addCounts(r.acc)
 				r.acc.end(float64(len(tr.geom)) * cfg.Step)
 				if r.filt != nil {
 					r.acc.filter = r.filt.result(float64(len(tr.geom)) * cfg.Step)

@@ -268,11 +268,15 @@ type viewer struct {
 	// rounding), so its viewer need not be asked; −2 for the other kinds.
 	outside []float64
 	v       stepView
+	// The steps each sensor of the nominal layout sees the sun, the Moon,
+	// the lit Earth: the same for every unit of a task, so counted once
+	// here and added to each unit's accumulator (addCounts).
+	inView, moonInView, litEarthInView []int
 }
 
 func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 	n := arr.Len()
-	w := &viewer{blocked: cfg.Blocked, face: make([]r3.Vec, n),
+	w := &viewer{blocked: cfg.Blocked, face: make([]r3.Vec, n), inView: make([]int, n), moonInView: make([]int, n), litEarthInView: make([]int, n),
 		v: stepView{sees: make([]bool, n), moonIn: make([]bool, n), litEarthIn: make([]bool, n)}}
 	if cfg.Blocked != nil {
 		w.v.sunBlocked = make([]bool, n)
@@ -322,6 +326,7 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 		v.sees[i] = sunlit && r3.Dot(w.cone[i].Axis, g.sunBody) >= w.outside[i] && sees(g.sunBody)
 		if v.sees[i] {
 			v.seen++
+			w.inView[i]++
 		}
 	}
 	// sensor.Bodies.MoonInCone and LitEarthInCone, written out over the
@@ -333,8 +338,24 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 		v.moonIn[i] = !b.MoonHidden && r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin && r3.Dot(b.MoonDir, *face) > moonCut &&
 			(w.blocked == nil || w.blocked[i] == nil || !w.blocked[i](b.MoonDir))
 		v.litEarthIn[i] = b.EarthLit && r3.Dot(c.Axis, b.NadirDir) > c.Cos*b.EarthCos-c.Sin*b.EarthSin && r3.Dot(b.NadirDir, *face) > earthCut
+		if v.moonIn[i] {
+			w.moonInView[i]++
+		}
+		if v.litEarthIn[i] {
+			w.litEarthInView[i]++
+		}
 	}
 	return v
+}
+
+// addCounts adds the viewer's counts of the steps viewed so far to a unit's
+// accumulator.
+func (w *viewer) addCounts(a *unitAcc) {
+	for i := range w.inView {
+		a.inView[i] += w.inView[i]
+		a.moonInView[i] += w.moonInView[i]
+		a.litEarthInView[i] += w.litEarthInView[i]
+	}
 }
 
 // bodies fills sg.bodies: the Moon from the spacecraft at r (its geocentric
@@ -468,14 +489,9 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 			readAll(r.readAlb, r.arr, g.sunBody, g.direct, v.albSeen, r.noise, v.sunBlocked)
 		}
 	}
-	r.bodiesInView(&g.bodies, v)
+	r.blind(&g.bodies)
 	if r.readCorr != nil {
 		r.subtractPrediction(v.predSeen)
-	}
-	for i, s := range v.sees {
-		if s {
-			r.acc.inView[i]++
-		}
 	}
 	r.acc.step(k, g.t, g.region, g.lit, v.seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.readCorr, r.arr, r.ests)
 	if r.filt != nil {
@@ -487,18 +503,10 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 	}
 }
 
-// bodiesInView counts the steps with the Moon and with the lit Earth in each
-// sensor's cone (the view's nominal flags) and drops the readings of the
-// sensors their blinding rule invalidates (the unit as drawn).
-func (r *reader) bodiesInView(b *sensor.Bodies, v *stepView) {
-	for i := range v.moonIn {
-		if v.moonIn[i] {
-			r.acc.moonInView[i]++
-		}
-		if v.litEarthIn[i] {
-			r.acc.litEarthInView[i]++
-		}
-	}
+// blind drops the readings of the sensors their blinding rule invalidates
+// (the unit as drawn). The steps with the Moon and the lit Earth in each
+// nominal cone are the viewer's counts.
+func (r *reader) blind(b *sensor.Bodies) {
 	for j, i := range r.blinders {
 		if r.blindable[j].Blinded(*b) {
 			r.readNo[i], r.readAlb[i] = sensor.Reading{}, sensor.Reading{}
@@ -558,6 +566,7 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 	// step beyond it: no spell outlasts the run.
 	accs := make([]*unitAcc, len(readers))
 	for i, r := range readers {
+		vw.addCounts(r.acc)
 		r.acc.end(min(float64(tk.k1)*cfg.Step, cfg.Duration))
 		if r.filt != nil {
 			r.acc.filter = r.filt.result(min(float64(tk.k1)*cfg.Step, cfg.Duration))

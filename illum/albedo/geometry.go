@@ -1,6 +1,10 @@
 package albedo
 
-import "math"
+import (
+	"math"
+
+	"gonum.org/v1/gonum/spatial/r3"
+)
 
 // capGeometry holds the cells of an equal-solid-angle partition of the Earth's
 // disc as seen from radius r, in the cap frame (z toward the spacecraft, origin
@@ -11,6 +15,16 @@ type capGeometry struct {
 	η              float64 // angular radius of the Earth's disc seen from rKm, rad
 	cellSolidAngle float64 // a, sr; the same for every cell
 	cells          []cell
+	rings          []ring // the polar cell, then the rings outward; they tile cells in order
+}
+
+// ring is one ring of cells (the polar cell is a ring of one): cells
+// [start, start+count) at azimuths offset + (j + ½)·step, j = 0…count−1,
+// whose mean arrival directions are u_j = (k cos φ_j, k sin φ_j, −cα).
+type ring struct {
+	start, count int
+	k, cα        float64
+	offset, step float64
 }
 
 // cell is one cell of the visible Earth disc.
@@ -48,6 +62,7 @@ func (geo *capGeometry) build(rKm float64, n int, gx, gw []float64) {
 		geo.cells = make([]cell, 0, n)
 	}
 	geo.cells = geo.cells[:0]
+	geo.rings = geo.rings[:0]
 	geo.rKm = rKm
 	re := EarthRadiusKm
 	sinη := re / rKm
@@ -90,6 +105,7 @@ func (geo *capGeometry) build(rKm float64, n int, gx, gw []float64) {
 		} else {
 			k = 0
 		}
+		geo.rings = append(geo.rings, ring{start: len(geo.cells), count: count, k: k * sα, cα: cα, offset: offset, step: step})
 		for j := range count {
 			sφ, cφ := math.Sincos(offset + (float64(j)+0.5)*step)
 			geo.cells = append(geo.cells, cell{
@@ -134,4 +150,76 @@ func (geo *capGeometry) build(rKm float64, n int, gx, gw []float64) {
 		add(xb, xt, count)
 		xt = xb
 	}
+}
+
+// span is a run of cells [lo, hi) of the cap.
+type span struct{ lo, hi int }
+
+// windowSlack lowers a ring's threshold on n·u, so that the rounding of
+// the exact test (about 1e-16) never keeps a cell the window dropped.
+const windowSlack = 1e-12
+
+// windowMargin widens a ring's window in azimuth (rad) so that rounding in
+// its bounds never drops a cell the exact test would keep.
+const windowMargin = 1e-6
+
+// window appends to dst, in increasing cell order, the runs of ring rg's
+// cells that may have n·u > outer (n a cap-frame unit vector): a superset
+// of the cells that pass the exact test, which the caller still applies,
+// so the sum over the runs adds the same terms in the same order as a sum
+// over every cell. With n·u_j = k·hn·cos(φ_j − ψ) − n_z·cα (hn, ψ the
+// length and azimuth of n's horizontal part) the test holds on one arc of
+// azimuths |φ_j − ψ| < Δ, cos Δ = (outer + n_z·cα)/(k·hn).
+func (rg *ring) window(dst []span, hn, ψ, nz, outer float64) []span {
+	end := rg.start + rg.count
+	kh := rg.k * hn
+	// The slack: the exact test's products round differently from these.
+	lim := outer + nz*rg.cα - windowSlack
+	if rg.count == 1 || kh <= 0 {
+		if lim < 0 || rg.count == 1 {
+			return append(dst, span{rg.start, end})
+		}
+		return dst
+	}
+	τ := lim / kh
+	if τ >= 1 {
+		return dst
+	}
+	if τ <= -1 {
+		return append(dst, span{rg.start, end})
+	}
+	Δ := math.Acos(τ) + windowMargin
+	lo := int(math.Ceil((ψ-Δ-rg.offset)/rg.step - 0.5))
+	hi := int(math.Floor((ψ+Δ-rg.offset)/rg.step - 0.5))
+	n := hi - lo + 1
+	if n >= rg.count {
+		return append(dst, span{rg.start, end})
+	}
+	if n <= 0 {
+		return dst
+	}
+	m := lo % rg.count
+	if m < 0 {
+		m += rg.count
+	}
+	if m+n <= rg.count {
+		return append(dst, span{rg.start + m, rg.start + m + n})
+	}
+	return append(dst, span{rg.start, rg.start + m + n - rg.count}, span{rg.start + m, end})
+}
+
+// windows returns, in increasing cell order, runs of cells holding every
+// cell with n·u > outer (n a cap-frame unit vector), reusing dst. full
+// returns every cell (the reference for the tests).
+func (geo *capGeometry) windows(dst []span, n r3.Vec, outer float64, full bool) []span {
+	dst = dst[:0]
+	if full {
+		return append(dst, span{0, len(geo.cells)})
+	}
+	hn := math.Hypot(n.X, n.Y)
+	ψ := math.Atan2(n.Y, n.X)
+	for i := range geo.rings {
+		dst = geo.rings[i].window(dst, hn, ψ, n.Z, outer)
+	}
+	return dst
 }

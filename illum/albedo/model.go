@@ -29,9 +29,9 @@ type Sensor struct {
 	Plane r3.Vec
 }
 
-// behind reports whether the lit cell's direction l lies at or behind the
+// behind reports whether the cell's direction lies at or behind the
 // sensor's mounting plane p (cap frame; zero p: never).
-func behind(p r3.Vec, l *litCell) bool {
+func behind(p r3.Vec, l *cell) bool {
 	return p != (r3.Vec{}) && p.X*l.ux+p.Y*l.uy+p.Z*l.uz <= 0
 }
 
@@ -98,8 +98,16 @@ type Model struct {
 	rebuildKm float64
 	geo       capGeometry
 	gx, gw    []float64 // Gauss–Legendre nodes for the cells' radial means
-	lit       []litCell
+	w         []float64 // per cell: its lit weight, or unlit (< 0) at this step
+	runs      []span    // scratch: the runs of cells one sensor may see
+	fullScan  bool      // visit every cell (the reference the tests compare with)
+	// zonalInRange: a Zonal reflectance that stays inside [0, 1] at every
+	// latitude and season, so its clamp is the identity and is skipped.
+	zonalInRange bool
 }
+
+// unlit marks a cell of Model.w the sun does not light at this step.
+const unlit = -1.0
 
 // radialNodes is the Gauss–Legendre order of the cells' radial means.
 const radialNodes = 6
@@ -110,12 +118,6 @@ const (
 	kindGrid
 	kindOther
 )
-
-// litCell is a cell that is sunlit at this step, with its radiance weight.
-type litCell struct {
-	ux, uy, uz float64 // spacecraft → cell, cap frame
-	w          float64 // ρ S cos θ☉ g: Σ w cos θ is the cosine-sensor irradiance
-}
 
 // New returns a model, or an error naming the field of cfg that is wrong.
 func New(cfg Config) (*Model, error) {
@@ -131,6 +133,7 @@ func New(cfg Config) (*Model, error) {
 		m.kind = kindUniform
 	case Zonal:
 		m.kind = kindZonal
+		m.zonalInRange = m.refl.(Zonal).inRange()
 	case *Grid:
 		m.kind = kindGrid
 	default:
@@ -151,7 +154,7 @@ func New(cfg Config) (*Model, error) {
 	if math.IsNaN(cfg.AltitudeKm) || cfg.AltitudeKm < 0 || math.IsInf(cfg.AltitudeKm, 0) {
 		return nil, fmt.Errorf("albedo: config.altitude_km = %g: must be a finite altitude ≥ 0 km (0 for any altitude)", cfg.AltitudeKm)
 	}
-	m.lit = make([]litCell, 0, m.n)
+	m.w = make([]float64, 0, m.n)
 	m.gx, m.gw = make([]float64, radialNodes), make([]float64, radialNodes)
 	quad.Legendre{}.FixedLocations(m.gx, m.gw, -1, 1)
 	if cfg.AltitudeKm > 0 {
@@ -184,6 +187,10 @@ func (m *Model) ensureGeometry(r float64) {
 	if len(m.geo.cells) == 0 || math.Abs(r-m.geo.rKm) > m.rebuildKm {
 		m.geo.build(r, m.n, m.gx, m.gw)
 	}
+	m.w = m.w[:len(m.geo.cells)]
+	if cap(m.runs) < 2*len(m.geo.rings) {
+		m.runs = make([]span, 0, 2*len(m.geo.rings))
+	}
 }
 
 func toFrame(v, ex, ey, ez r3.Vec) r3.Vec {
@@ -213,10 +220,11 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 	q := AUKm / sunDistKm
 	irr := SolarIrradiance1AU * q * q // S(d) = S₀ (AU/d)²
 
-	// Pass 1, shared by all sensors: keep the sunlit cells with their radiance
-	// times solid angle, w = L·ω with L = ρ S (N̂·ŝ)/π (Lambert's law) and
-	// ω = π g, so w = ρ S (N̂·ŝ) g (cell sum of Bhanderi & Bak 2005, from memory).
-	lit := m.lit[:0]
+	// Pass 1, shared by all sensors: the radiance times solid angle of every
+	// sunlit cell, w = L·ω with L = ρ S (N̂·ŝ)/π (Lambert's law) and
+	// ω = π g, so w = ρ S (N̂·ŝ) g (cell sum of Bhanderi & Bak 2005, from
+	// memory); unlit cells are marked.
+	w := m.w
 	switch m.kind {
 	case kindUniform:
 		k := m.refl.(Uniform).Albedo * irr
@@ -224,9 +232,10 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			c := &m.geo.cells[i]
 			cs := c.px*s.X + c.py*s.Y + c.pz*s.Z // N̂·ŝ
 			if cs <= 0 {
+				w[i] = unlit
 				continue
 			}
-			lit = append(lit, litCell{c.ux, c.uy, c.uz, k * cs * c.g})
+			w[i] = k * cs * c.g
 		}
 	case kindZonal:
 		z := m.refl.(Zonal)
@@ -236,10 +245,15 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			c := &m.geo.cells[i]
 			cs := c.px*s.X + c.py*s.Y + c.pz*s.Z
 			if cs <= 0 {
+				w[i] = unlit
 				continue
 			}
 			sφ := c.px*pole.X + c.py*pole.Y + c.pz*pole.Z
-			lit = append(lit, litCell{c.ux, c.uy, c.uz, z.at(sφ, a1) * irr * cs * c.g})
+			if m.zonalInRange {
+				w[i] = z.unclamped(sφ, a1) * irr * cs * c.g
+			} else {
+				w[i] = z.at(sφ, a1) * irr * cs * c.g
+			}
 		}
 	default:
 		var month int
@@ -251,6 +265,7 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			c := &m.geo.cells[i]
 			cs := c.px*s.X + c.py*s.Y + c.pz*s.Z
 			if cs <= 0 {
+				w[i] = unlit
 				continue
 			}
 			x := c.px*ex.X + c.py*ey.X + c.pz*ez.X
@@ -265,14 +280,13 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			} else {
 				ρ = min(1, max(0, m.refl.Reflectance(lat, lon, jdTT)))
 			}
-			lit = append(lit, litCell{c.ux, c.uy, c.uz, ρ * irr * cs * c.g})
+			w[i] = ρ * irr * cs * c.g
 		}
 	}
-	m.lit = lit
 
 	// Pass 2: each sensor sums over the lit cells in its cone.
 	for i := range sensors {
-		dst[i] = sumSensor(lit, &sensors[i], ex, ey, ez, &m.geo)
+		dst[i] = m.sumSensor(&sensors[i], ex, ey, ez)
 	}
 }
 
@@ -280,7 +294,8 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 // responses: each Earth cell lights the detector cells its own direction
 // lights (midpoint rule on the cell's mean arrival direction; the cell
 // responses are continuous, so no edge weighting is needed).
-func sumCells(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Result {
+func (m *Model) sumCells(sn *Sensor, ex, ey, ez r3.Vec) Result {
+	geo := &m.geo
 	n := toFrame(sn.Normal, ex, ey, ez)
 	x, y := toFrame(sn.X, ex, ey, ez), toFrame(sn.Y, ex, ey, ez)
 	p := toFrame(sn.Plane, ex, ey, ez)
@@ -289,27 +304,34 @@ func sumCells(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Re
 		return res
 	}
 	var dx, dy, dz, count float64
-	for k := range lit {
-		l := &lit[k]
-		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz
-		if c <= 0 || behind(p, l) {
-			continue
+	m.runs = geo.windows(m.runs, n, 0, m.fullScan)
+	for _, run := range m.runs {
+		for k := run.lo; k < run.hi; k++ {
+			lw := m.w[k]
+			if lw < 0 {
+				continue
+			}
+			l := &geo.cells[k]
+			c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz
+			if c <= 0 || behind(p, l) {
+				continue
+			}
+			d := r3.Vec{X: x.X*l.ux + x.Y*l.uy + x.Z*l.uz, Y: y.X*l.ux + y.Y*l.uy + y.Z*l.uz, Z: c}
+			w := sn.Cells.CellResponse(d)
+			t := w[0] + w[1] + w[2] + w[3]
+			if t <= 0 {
+				continue
+			}
+			count++
+			for i := range w {
+				res.Cells[i] += lw * w[i]
+			}
+			we := lw * t
+			res.Irradiance += we
+			dx += we * l.ux
+			dy += we * l.uy
+			dz += we * l.uz
 		}
-		d := r3.Vec{X: x.X*l.ux + x.Y*l.uy + x.Z*l.uz, Y: y.X*l.ux + y.Y*l.uy + y.Z*l.uz, Z: c}
-		w := sn.Cells.CellResponse(d)
-		t := w[0] + w[1] + w[2] + w[3]
-		if t <= 0 {
-			continue
-		}
-		count++
-		for i := range w {
-			res.Cells[i] += l.w * w[i]
-		}
-		we := l.w * t
-		res.Irradiance += we
-		dx += we * l.ux
-		dy += we * l.uy
-		dz += we * l.uz
 	}
 	if res.Irradiance > 0 {
 		res.Dir = capToECI(dx, dy, dz, ex, ey, ez)
@@ -371,36 +393,45 @@ func missesDisc(n r3.Vec, h float64, geo *capGeometry) bool {
 
 // sumSensor integrates the lit cells over one sensor's cone: E = Σ L R(θ) ω
 // (Bhanderi & Bak 2005, from memory), with the cone weights of coneWeight.
-func sumSensor(lit []litCell, sn *Sensor, ex, ey, ez r3.Vec, geo *capGeometry) Result {
+func (m *Model) sumSensor(sn *Sensor, ex, ey, ez r3.Vec) Result {
 	if sn.Cells != nil {
-		return sumCells(lit, sn, ex, ey, ez, geo)
+		return m.sumCells(sn, ex, ey, ez)
 	}
+	geo := &m.geo
 	n := toFrame(sn.Normal, ex, ey, ez)
-	p := toFrame(sn.Plane, ex, ey, ez)
+	p := toFrame(sn.Plane, ex, ey, ez) // zero without a plane
 	var res Result
 	if missesDisc(n, sn.HalfAngle, geo) {
 		return res
 	}
 	cw := newConeWeight(sn, geo.halfWidth)
+	plane := p != (r3.Vec{})
 	var e, dx, dy, dz, count float64
-	for k := range lit {
-		l := &lit[k]
-		c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
-		if c <= cw.outer || behind(p, l) {
-			continue
-		}
-		f, frac := c, 1.0
-		if !(cw.cosine && c >= cw.inner) {
-			if f, frac = cw.edge(c); frac == 0 {
+	m.runs = geo.windows(m.runs, n, cw.outer, m.fullScan)
+	for _, run := range m.runs {
+		for k := run.lo; k < run.hi; k++ {
+			lw := m.w[k]
+			if lw < 0 {
 				continue
 			}
+			l := &geo.cells[k]
+			c := n.X*l.ux + n.Y*l.uy + n.Z*l.uz // cos θ at the sensor
+			if c <= cw.outer || (plane && behind(p, l)) {
+				continue
+			}
+			f, frac := c, 1.0
+			if !(cw.cosine && c >= cw.inner) {
+				if f, frac = cw.edge(c); frac == 0 {
+					continue
+				}
+			}
+			count += frac
+			we := lw * f
+			e += we
+			dx += we * l.ux
+			dy += we * l.uy
+			dz += we * l.uz
 		}
-		count += frac
-		we := l.w * f
-		e += we
-		dx += we * l.ux
-		dy += we * l.uy
-		dz += we * l.uz
 	}
 	if e > 0 {
 		res.Irradiance = e
@@ -427,14 +458,11 @@ func (m *Model) ViewFactor(rSat, normal r3.Vec, halfAngle float64) float64 {
 	}
 	m.ensureGeometry(r)
 	ex, ey, ez := capFrame(rSat, r)
-	lit := m.lit[:0]
 	for i := range m.geo.cells {
-		c := &m.geo.cells[i]
-		lit = append(lit, litCell{c.ux, c.uy, c.uz, c.g})
+		m.w[i] = m.geo.cells[i].g
 	}
-	m.lit = lit
 	s := Sensor{Normal: normal, HalfAngle: halfAngle}
-	return sumSensor(lit, &s, ex, ey, ez, &m.geo).Irradiance
+	return m.sumSensor(&s, ex, ey, ez).Irradiance
 }
 
 // monthOf returns the calendar month 1…12 of Julian date jd (the TT–UTC

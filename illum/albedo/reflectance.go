@@ -59,8 +59,36 @@ func (z Zonal) a1(jd float64) float64 {
 
 // at returns ρ for sin φ = sφ with first-degree coefficient a1, clamped to [0, 1].
 func (z Zonal) at(sφ, a1 float64) float64 {
+	return min(1, max(0, z.unclamped(sφ, a1)))
+}
+
+// unclamped returns ρ for sin φ = sφ with first-degree coefficient a1.
+func (z Zonal) unclamped(sφ, a1 float64) float64 {
 	p2 := 0.5 * (3*sφ*sφ - 1) // P₂(x) = (3x² − 1)/2
-	return min(1, max(0, z.A0+a1*sφ+z.A2*p2))
+	return z.A0 + a1*sφ + z.A2*p2
+}
+
+// inRange reports whether ρ stays strictly inside [0, 1] for every
+// |sin φ| ≤ 1 and every season, so that at never clamps. For a fixed sin φ,
+// ρ is linear in A1, whose range is C0 ± √(C1² + C2²); for a fixed A1 it is
+// a parabola in sin φ, extreme at ±1 or at its vertex.
+func (z Zonal) inRange() bool {
+	const margin = 1e-9
+	amp := math.Hypot(z.C1, z.C2)
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, a1 := range []float64{z.C0 - amp, z.C0 + amp} {
+		xs := []float64{-1, 1}
+		if z.A2 != 0 {
+			if v := -a1 / (3 * z.A2); v > -1 && v < 1 {
+				xs = append(xs, v)
+			}
+		}
+		for _, x := range xs {
+			ρ := z.unclamped(x, a1)
+			lo, hi = min(lo, ρ), max(hi, ρ)
+		}
+	}
+	return lo > margin && hi < 1-margin
 }
 
 // Reflectance implements Reflectance.

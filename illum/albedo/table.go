@@ -203,7 +203,7 @@ func (t *LocalTable) build(m *Model, sensors []Sensor) {
 		for c := range geo.cells {
 			cl := &geo.cells[c]
 			cc := n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz
-			if cc <= cw.outer || behind(p, &litCell{ux: cl.ux, uy: cl.uy, uz: cl.uz}) {
+			if cc <= cw.outer || behind(p, cl) {
 				continue
 			}
 			f, frac := cc, 1.0

@@ -91,7 +91,16 @@
 // Orbit states are filled by blocks of 1024 steps (Propagator.Fill; for
 // j2-mean a recurrence within 1e-7 km of the per-step StateAt over a year,
 // orbit.TestJ2MeanFillMatchesStateAt). A nadir law gives its attitude
-// matrix directly (attitude.RowsLaw). With a uniform albedo the cell
+// matrix directly (attitude.RowsLaw; the default axes written out, bit for
+// bit the general path). A layout of cosine sensors is read through a
+// sensor.CosineBank: each unit's drawn boresights, gains, offsets and
+// converter as plain values, one loop, no interface call per sensor, bit
+// for bit the sensors' own reads. The view of a step (sun blocked, albedo
+// past the body, coverage, the Moon and the lit Earth in each cone) is
+// taken once for all units of a task and its counts are added to each
+// unit at the end of the task; a cosine sensor's viewer is not asked when
+// the sun is outside its cone. None of this changes a number: the outputs
+// of the bundled examples and bench cases are the same bytes as before. With a uniform albedo the cell
 // integral is replaced by a table on long runs: the LVLH table
 // (albedo.LocalTable) for nadir pointing on a circular orbit with at most 8
 // sensors, else one albedo.BoresightTable per kind of cone over a few orbit

@@ -15,6 +15,11 @@ if ! [ -x /usr/bin/time ]; then
   apt-get install -y time >/dev/null
 fi
 
+if ! "$PY" -c 'import numpy, erfa' 2>/dev/null; then
+  echo "installing the reference's modules (apt-get install -y python3-numpy python3-erfa)" >&2
+  apt-get install -y python3-numpy python3-erfa >/dev/null
+fi
+
 go build -o /tmp/sunsight ./cmd/sunsight
 
 # measure <label> <cmd...>: runs the command under /usr/bin/time -v and sets

@@ -169,8 +169,10 @@ type Obstructed struct {
 const FacePlaneMargin = 1e-6
 
 // Hidden reports whether the mounting plane or an obstacle hides the body
-// direction d from the mount position (the field of view aside).
-func (o Obstructed) Hidden(d r3.Vec) bool {
+// direction d from the mount position (the field of view aside). A
+// pointer receiver: the step loop asks it for every sensor at every step,
+// without copying the value.
+func (o *Obstructed) Hidden(d r3.Vec) bool {
 	if o.Face != (r3.Vec{}) && !(r3.Dot(d, o.Face) > FacePlaneMargin) {
 		return true
 	}
@@ -183,7 +185,7 @@ func (o Obstructed) Hidden(d r3.Vec) bool {
 }
 
 // Sees implements Viewer.
-func (o Obstructed) Sees(d r3.Vec) bool {
+func (o *Obstructed) Sees(d r3.Vec) bool {
 	return o.View.Sees(d) && !o.Hidden(d)
 }
 

@@ -12,7 +12,7 @@ var everywhere = ViewerFunc(func(r3.Vec) bool { return true })
 func blockedFraction(t *testing.T, ob Obstacle, origin r3.Vec, n int) float64 {
 	t.Helper()
 	v := Obstructed{View: everywhere, Position: origin, Obstacles: []Obstacle{ob}}
-	return 1 - mustCoverage(t, []Viewer{v}, mustLattice(t, n)).AtLeast[1]
+	return 1 - mustCoverage(t, []Viewer{&v}, mustLattice(t, n)).AtLeast[1]
 }
 
 // An (effectively) infinite plate through the sensor blocks exactly half of
@@ -90,10 +90,10 @@ func TestObstructedViewer(t *testing.T) {
 	lat := mustLattice(t, 4096)
 	cone := NewCone(r3.Vec{Z: 1}, 60*deg)
 	panel := Rectangle{Centre: r3.Vec{Z: 0.5}, HalfU: r3.Vec{X: 10}, HalfV: r3.Vec{Y: 10}}
-	if f := mustCoverage(t, []Viewer{Obstructed{View: cone, Obstacles: []Obstacle{panel}}}, lat).AtLeast[1]; f != 0 {
+	if f := mustCoverage(t, []Viewer{&Obstructed{View: cone, Obstacles: []Obstacle{panel}}}, lat).AtLeast[1]; f != 0 {
 		t.Errorf("covered sensor sees %.4f", f)
 	}
-	free := mustCoverage(t, []Viewer{Obstructed{View: cone}}, lat).AtLeast[1]
+	free := mustCoverage(t, []Viewer{&Obstructed{View: cone}}, lat).AtLeast[1]
 	if want := mustCoverage(t, []Viewer{cone}, lat).AtLeast[1]; free != want {
 		t.Errorf("unobstructed %.6f, bare cone %.6f", free, want)
 	}
@@ -152,11 +152,11 @@ func TestObstructedFacePlane(t *testing.T) {
 	v := Obstructed{View: tilted, Face: r3.Vec{Z: 1}}
 	// Hemisphere about (1,0,1)/√2 cut by z > 0: a lune of dihedral angle
 	// 135°, area 2·(3π/4) of 4π = 3/8.
-	if got := mustCoverage(t, []Viewer{v}, lat).AtLeast[1]; math.Abs(got-0.375) > 2e-4 {
+	if got := mustCoverage(t, []Viewer{&v}, lat).AtLeast[1]; math.Abs(got-0.375) > 2e-4 {
 		t.Errorf("tilted hemisphere behind a face sees %.6f, want 0.375", got)
 	}
 	n := Obstructed{View: NewCone(r3.Vec{Z: 1}, math.Pi/2-1e-12), Face: r3.Vec{Z: 1}}
-	if got, want := mustCoverage(t, []Viewer{n}, lat).AtLeast[1], mustCoverage(t, []Viewer{n.View}, lat).AtLeast[1]; got != want {
+	if got, want := mustCoverage(t, []Viewer{&n}, lat).AtLeast[1], mustCoverage(t, []Viewer{n.View}, lat).AtLeast[1]; got != want {
 		t.Errorf("face-normal sensor: %.6f with the face plane, %.6f without", got, want)
 	}
 	if v.Sees(r3.Vec{X: 1}) {

@@ -409,7 +409,7 @@ func checkSeeingIsSignal(c *runCase) (f failures) {
 		var first string
 		for _, d := range ds {
 			direct := full
-			if cfg.Blocked != nil && cfg.Blocked[i] != nil && cfg.Blocked[i](d) {
+			if cfg.Blocked != nil && cfg.Blocked[i] != nil && cfg.Blocked[i].Hidden(d) {
 				direct = 0
 			}
 			r := sn.Read(d, direct, sensor.Albedo{}, nil)

@@ -51,9 +51,10 @@ type Config struct {
 	Array   *sensor.Array
 	Viewers []sky.Viewer
 	// Blocked[i], when set, says whether the body blocks sensor i's view
-	// of a body direction (obstructions): its direct sunlight and its albedo
-	// are cut there. Nil means nothing is in the way.
-	Blocked []func(dirBody r3.Vec) bool
+	// of a body direction (its Hidden: the mounting plane and the
+	// obstructions): its direct sunlight and its albedo are cut there. Nil
+	// means nothing is in the way.
+	Blocked []*sky.Obstructed
 
 	// NewAlbedo returns a fresh albedo model (models keep scratch buffers);
 	// nil means no albedo. AlbedoResponse[i] is sensor i's angular response

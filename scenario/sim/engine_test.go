@@ -13,6 +13,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
@@ -178,9 +179,8 @@ func TestChunkedRunIndependentOfWorkers(t *testing.T) {
 // no albedo from the blocked directions.
 func TestObstructionCutsReadings(t *testing.T) {
 	cfg := referenceCase(t, 0.2, true)
-	blockAll := func(r3.Vec) bool { return true }
-	cfg.Blocked = make([]func(r3.Vec) bool, cfg.Array.Len())
-	cfg.Blocked[0] = blockAll // css+X
+	cfg.Blocked = make([]*sky.Obstructed, cfg.Array.Len())
+	cfg.Blocked[0] = &sky.Obstructed{Obstacles: []sky.Obstacle{blockEverything{}}} // css+X
 	res, err := Run(context.Background(), cfg)
 	if err != nil {
 		t.Fatal(err)
@@ -230,3 +230,8 @@ func TestSharedGeometryEqualsPerUnit(t *testing.T) {
 		}
 	}
 }
+
+// blockEverything is an obstacle that meets every ray.
+type blockEverything struct{}
+
+func (blockEverything) Blocks(_, _ r3.Vec) bool { return true }

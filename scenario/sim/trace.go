@@ -108,7 +108,7 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 	cfg := tr.cfg
 	var ss []sensor.Sensor
 	var viewers []sky.Viewer
-	var blocked []func(dirBody r3.Vec) bool
+	var blocked []*sky.Obstructed
 	var normals []r3.Vec
 	for _, i := range subset {
 		if i < 0 || i >= len(tr.sensors) {

@@ -13,6 +13,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
@@ -258,7 +259,7 @@ type stepView struct {
 
 // viewer fills the stepView of each step, once for all units of a task.
 type viewer struct {
-	blocked []func(r3.Vec) bool
+	blocked []*sky.Obstructed
 	sees    []func(r3.Vec) bool
 	// The nominal cones and mounting-plane normals (zero: none).
 	cone []sensor.Cone
@@ -316,7 +317,7 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 	v := &w.v
 	for i := range v.sunBlocked {
-		v.sunBlocked[i] = w.blocked[i] != nil && w.blocked[i](g.sunBody)
+		v.sunBlocked[i] = w.blocked[i] != nil && w.blocked[i].Hidden(g.sunBody)
 	}
 	w.pastBody(v.albSeen, albBody)
 	w.pastBody(v.predSeen, predBody)
@@ -336,7 +337,7 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 	for i := range w.cone {
 		c, face := &w.cone[i], &w.face[i]
 		v.moonIn[i] = !b.MoonHidden && r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin && r3.Dot(b.MoonDir, *face) > moonCut &&
-			(w.blocked == nil || w.blocked[i] == nil || !w.blocked[i](b.MoonDir))
+			(w.blocked == nil || w.blocked[i] == nil || !w.blocked[i].Hidden(b.MoonDir))
 		v.litEarthIn[i] = b.EarthLit && r3.Dot(c.Axis, b.NadirDir) > c.Cos*b.EarthCos-c.Sin*b.EarthSin && r3.Dot(b.NadirDir, *face) > earthCut
 		if v.moonIn[i] {
 			w.moonInView[i]++
@@ -386,7 +387,7 @@ func (g *geometry) bodies(sg *stepGeom, M *bodyMatrix, r, sunU r3.Vec, sunD floa
 func (w *viewer) pastBody(dst, albBody []sensor.Albedo) {
 	for i := range dst {
 		dst[i] = albBody[i]
-		if w.blocked != nil && w.blocked[i] != nil && albBody[i].Irradiance > 0 && w.blocked[i](albBody[i].Dir) {
+		if w.blocked != nil && w.blocked[i] != nil && albBody[i].Irradiance > 0 && w.blocked[i].Hidden(albBody[i].Dir) {
 			dst[i] = sensor.Albedo{}
 		}
 	}

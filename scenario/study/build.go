@@ -357,8 +357,8 @@ func mountNormals(list []scenario.Sensor) []r3.Vec {
 // mounted wraps a sensor's field of view with what its mount hides: the
 // plane of the surface it sits on and every obstacle, traced from its
 // position.
-func mounted(v sky.Viewer, sc scenario.Sensor, obstacles []sky.Obstacle) sky.Obstructed {
-	return sky.Obstructed{View: v, Position: sc.PositionM, Face: sc.MountNormal, Obstacles: obstacles}
+func mounted(v sky.Viewer, sc scenario.Sensor, obstacles []sky.Obstacle) *sky.Obstructed {
+	return &sky.Obstructed{View: v, Position: sc.PositionM, Face: sc.MountNormal, Obstacles: obstacles}
 }
 
 // Obstacles returns the bus outline (a solid box, when the body has one)
@@ -541,10 +541,10 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 	}
 	// The mounting plane and the obstacles cut each sensor's direct sunlight
 	// and albedo in the time domain as they cut its view of the sky.
-	var blocked []func(r3.Vec) bool
+	var blocked []*sky.Obstructed
 	obs := Obstacles(s)
 	for _, sc := range sensors {
-		blocked = append(blocked, mounted(nil, sc, obs).Hidden)
+		blocked = append(blocked, mounted(nil, sc, obs))
 	}
 	cfg = sim.Config{
 		Epoch: s.Epoch, Duration: s.Duration.Seconds(), Step: s.Step.Seconds(),

@@ -42,6 +42,7 @@ ratio() { awk -v a="$1" -v b="$2" 'BEGIN {printf "%.2f", (b > 0) ? a / b : 0}'; 
 declare -A NP_WALL NP_RSS NP_INNER SS_WALL SS_RSS
 for alb in none uniform; do
   measure "numpy-$alb" "$PY" bench/reference.py --days "$DAYS" --step 10 --albedo "$alb" --out "$OUT/numpy-$alb.json"
+  if [ "$STATUS" != 0 ]; then echo "bench: the numpy reference failed:" >&2; cat "$OUT/numpy-$alb.time" >&2; exit 1; fi
   NP_WALL[$alb]=$WALL; NP_RSS[$alb]=$RSS
   NP_INNER[$alb]=$(awk '/^wall_time_s/ {print $2}' "$OUT/numpy-$alb.out")
 done

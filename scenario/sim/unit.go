@@ -330,9 +330,15 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 			w.inView[i]++
 		}
 	}
-	// sensor.Bodies.MoonInCone and LitEarthInCone, written out over the
-	// sensors: the same comparisons, without a copy of each cone.
-	b := &g.bodies
+	w.bodiesInCones(v, &g.bodies)
+	return v
+}
+
+// bodiesInCones sets the view's Moon and lit-Earth flags and counts them:
+// sensor.Bodies.MoonInCone and LitEarthInCone written out over the sensors,
+// the same comparisons without a copy of each cone
+// (TestViewerBodiesFlagsAreTheRules).
+func (w *viewer) bodiesInCones(v *stepView, b *sensor.Bodies) {
 	moonCut, earthCut := -b.MoonSin, -b.EarthSin
 	for i := range w.cone {
 		c, face := &w.cone[i], &w.face[i]
@@ -346,7 +352,6 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 			w.litEarthInView[i]++
 		}
 	}
-	return v
 }
 
 // addCounts adds the viewer's counts of the steps viewed so far to a unit's

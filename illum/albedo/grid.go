@@ -29,7 +29,15 @@ type Grid struct {
 	lon0       float64 // western edge of the first column, rad
 	dLat, dLon float64 // rad
 	values     []float64
+	// latBin[b] is the latitude row of every sin φ in bin b of [−1, 1]
+	// (latBins equal bins), or −1 where a row edge falls in the bin.
+	latBin []int32
+	// perLon = 1/dLon; lonSlackCols = lonSlack/dLon (columnOf).
+	perLon, lonSlackCols float64
 }
+
+// latBins is the number of bins in sin φ of Grid.latBin.
+const latBins = 8192
 
 // GridError is a parse error with its place in the file.
 type GridError struct {
@@ -59,18 +67,124 @@ func (g *Grid) Reflectance(lat, lon, jdTT float64) float64 {
 
 // at looks up the nearest cell; month is 1…12.
 func (g *Grid) at(lat, lon float64, month int) float64 {
-	i := int((lat + math.Pi/2) / g.dLat)
-	i = max(0, min(g.nLat-1, i))
+	return g.value(g.row(lat), g.column(lon), month)
+}
+
+// row returns the latitude row of lat (rad).
+func (g *Grid) row(lat float64) int {
+	return max(0, min(g.nLat-1, int((lat+math.Pi/2)/g.dLat)))
+}
+
+// column returns the longitude column of lon (rad, any turn).
+func (g *Grid) column(lon float64) int {
 	x := math.Mod(lon-g.lon0, 2*math.Pi)
 	if x < 0 {
 		x += 2 * math.Pi
 	}
-	j := max(0, min(g.nLon-1, int(x/g.dLon)))
+	return max(0, min(g.nLon-1, int(x/g.dLon)))
+}
+
+// value returns the reflectivity of row i, column j in month 1…12.
+func (g *Grid) value(i, j, month int) float64 {
 	k := 0
 	if g.months == 12 {
 		k = month - 1
 	}
 	return g.values[(k*g.nLat+i)*g.nLon+j]
+}
+
+// binSlack widens each sin φ bin of latBin when its row is decided, so
+// that rounding in the bin index never matters.
+const binSlack = 1e-12
+
+// buildLatBins fills latBin: bin b holds sin φ ∈ [−1 + 2b/B, −1 + 2(b+1)/B];
+// its row is row(asin(·)) at both ends widened by binSlack when they agree
+// (row and asin are monotone, so every sin φ inside has that row), else −1.
+func (g *Grid) buildLatBins() {
+	g.latBin = make([]int32, latBins)
+	for b := range g.latBin {
+		lo := max(-1, -1+2*float64(b)/latBins-binSlack)
+		hi := min(1, -1+2*float64(b+1)/latBins+binSlack)
+		i, k := g.row(math.Asin(lo)), g.row(math.Asin(hi))
+		g.latBin[b] = -1
+		if i == k {
+			g.latBin[b] = int32(i)
+		}
+	}
+}
+
+// rowOfSin returns row(asin(q)) for q = sin φ ∈ [−1, 1]: from latBin where
+// the bin decides it, else through asin.
+func (g *Grid) rowOfSin(q float64) int {
+	if b := int((q + 1) * (latBins / 2)); b >= 0 && b < latBins && g.latBin != nil {
+		if i := g.latBin[b]; i >= 0 {
+			return int(i)
+		}
+	}
+	return g.row(math.Asin(q))
+}
+
+// lonSlack is how far (rad) an approximate longitude must lie from every
+// column edge to decide the column: far above the error of fastAtan2
+// (atanMaxErr) and the rounding of the exact path.
+const lonSlack = 1e-6
+
+// columnOf returns column(atan2(y, x) − gmst): from fastAtan2 when that
+// lies more than lonSlack from a column edge, else through math.Atan2.
+func (g *Grid) columnOf(y, x, gmst float64) int {
+	if a, ok := fastAtan2(y, x); ok {
+		t := a - gmst - g.lon0
+		t -= 2 * math.Pi * math.Floor(t*(0.5/math.Pi))
+		u := t * g.perLon
+		j := int(u)
+		if f := u - float64(j); f > g.lonSlackCols && f < 1-g.lonSlackCols && j < g.nLon {
+			return j
+		}
+	}
+	return g.column(math.Atan2(y, x) - gmst)
+}
+
+// atanNodes tabulates atan on [0, 1] at atanSteps + 1 equal steps.
+const atanSteps = 1024
+
+// atanMaxErr bounds the error of linear interpolation in atanNodes:
+// h²/8 · max|atan”| = h²/8 · 3√3/8 with h = 1/atanSteps (closed form),
+// plus rounding (TestFastAtan2 checks it).
+const atanMaxErr = 1.0 / (atanSteps * atanSteps) / 8 * 0.65 * 1.1
+
+var atanNodes = func() []float64 {
+	t := make([]float64, atanSteps+2)
+	for k := range t {
+		t[k] = math.Atan(float64(k) / atanSteps)
+	}
+	return t
+}()
+
+// fastAtan2 returns atan2(y, x) within atanMaxErr, by octant reduction and
+// linear interpolation in atanNodes; ok is false at the origin or for a
+// non-finite input.
+func fastAtan2(y, x float64) (a float64, ok bool) {
+	ax, ay := math.Abs(x), math.Abs(y)
+	swap := ay > ax
+	if swap {
+		ax, ay = ay, ax
+	}
+	if !(ax > 0) || math.IsInf(ax, 0) {
+		return 0, false
+	}
+	u := ay / ax * atanSteps // in [0, atanSteps]
+	k := int(u)
+	a = atanNodes[k] + (atanNodes[k+1]-atanNodes[k])*(u-float64(k))
+	if swap {
+		a = math.Pi/2 - a
+	}
+	if x < 0 {
+		a = math.Pi - a
+	}
+	if y < 0 {
+		a = -a
+	}
+	return a, true
 }
 
 const spacingTol = 1e-6 // deg, tolerance on equal spacing and tiling
@@ -207,6 +321,8 @@ func ParseGrid(rd io.Reader) (*Grid, error) {
 			copy(g.values[(k*nLat+i)*len(lons):], rw.vals)
 		}
 	}
+	g.buildLatBins()
+	g.perLon, g.lonSlackCols = 1/g.dLon, lonSlack/g.dLon
 	return g, nil
 }
 

@@ -272,12 +272,15 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 			y := c.px*ex.Y + c.py*ey.Y + c.pz*ez.Y
 			zz := c.px*ex.Z + c.py*ey.Z + c.pz*ez.Z
 			// The cell's mean normal is slightly shorter than 1 near the limb.
-			lat := math.Asin(min(1, max(-1, zz/math.Sqrt(x*x+y*y+zz*zz))))
-			lon := math.Atan2(y, x) - gmst // Earth-fixed longitude through GMST
+			q := min(1, max(-1, zz/math.Sqrt(x*x+y*y+zz*zz)))
 			var ρ float64
 			if isGrid {
-				ρ = g.at(lat, lon, month)
+				// The row and column of asin(q) and atan2(y, x) − gmst,
+				// found without either where a bin decides them.
+				ρ = g.value(g.rowOfSin(q), g.columnOf(y, x, gmst), month)
 			} else {
+				lat := math.Asin(q)
+				lon := math.Atan2(y, x) - gmst // Earth-fixed longitude through GMST
 				ρ = min(1, max(0, m.refl.Reflectance(lat, lon, jdTT)))
 			}
 			w[i] = ρ * irr * cs * c.g

@@ -9,6 +9,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -237,6 +238,40 @@ func TestTimelineFigure(t *testing.T) {
 	}
 	if strings.Join(got, "\n") != strings.Join(want, "\n") {
 		t.Errorf("drawn series:\n%s\nwant:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}
+
+// The on-board corrected error is a third series of the error panel, in
+// its own colour and a dotted line (the other two are solid and dashed),
+// read back as drawn; a length unlike T's is refused.
+func TestTimelineDrawsTheCorrectedError(t *testing.T) {
+	nan := math.NaN()
+	f := Timeline{
+		T:               []float64{0, 60, 120, 180},
+		ErrNoAlbedoDeg:  []float64{0.5, 0.6, nan, 0.7},
+		ErrAlbedoDeg:    []float64{1.5, 2.6, nan, 3},
+		ErrCorrectedDeg: []float64{0.55, nan, nan, 0.8},
+	}
+	c, err := f.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantText(t, mustSVG(t, c), "without albedo", "with albedo", "on-board corrected")
+	var got []string
+	for _, d := range c.drawn {
+		if d.Label == "on-board corrected" {
+			got = append(got, fmt.Sprint(d.XYs))
+		}
+	}
+	if want := "[{0 0.55}] [{3 0.8}]"; strings.Join(got, " ") != want {
+		t.Errorf("corrected series drawn as %v, want %s", got, want)
+	}
+	if slices.Equal(errDashes[2], errDashes[1]) || errDashes[2] == nil || seriesColour(2) == seriesColour(1) {
+		t.Error("the corrected series is drawn like another one")
+	}
+	f.ErrCorrectedDeg = f.ErrCorrectedDeg[:3]
+	if _, err := f.Plot(Caption{}); err == nil || !strings.Contains(err.Error(), "ErrCorrectedDeg") {
+		t.Errorf("short corrected series: %v", err)
 	}
 }
 

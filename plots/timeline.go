@@ -42,6 +42,9 @@ type Timeline struct {
 	// Sun-vector error without and with albedo, deg; NaN where undefined
 	// (eclipse or no valid vector).
 	ErrNoAlbedoDeg, ErrAlbedoDeg []float64
+	// ErrCorrectedDeg is the error after the on-board albedo correction,
+	// deg (NaN where undefined); nil without an on-board model.
+	ErrCorrectedDeg []float64
 	// ErrorTarget (deg) and ValidTarget (fraction of sunlit time) are drawn
 	// with their verdicts when set; ValidShare is the run's valid share
 	// shown in the panel title.
@@ -51,6 +54,15 @@ type Timeline struct {
 	// named bars above the other panels, their boundaries marked in each.
 	Phases []PhaseSpan
 }
+
+// errDashes and errDashesThin are the dash patterns of the error series
+// (without albedo, with albedo, on-board corrected; solid, dashed, dotted):
+// a reader without colour still tells them apart. The thin ones draw the
+// window maxima of a fast timeline.
+var (
+	errDashes     = [3][]vg.Length{nil, {6, 3}, {1.5, 2.5}}
+	errDashesThin = [3][]vg.Length{nil, {3, 2}, {1, 2}}
+)
 
 // fastChanges is the number of changes of the sensor count over the shown
 // span beyond which the raw steps would merge into a solid band; the
@@ -141,7 +153,7 @@ func (f Timeline) validate() error {
 	for _, c := range []struct {
 		name string
 		l    int
-	}{{"SensorsSeeing", len(f.SensorsSeeing)}, {"Valid", len(f.Valid)}, {"ErrNoAlbedoDeg", len(f.ErrNoAlbedoDeg)}, {"ErrAlbedoDeg", len(f.ErrAlbedoDeg)}} {
+	}{{"SensorsSeeing", len(f.SensorsSeeing)}, {"Valid", len(f.Valid)}, {"ErrNoAlbedoDeg", len(f.ErrNoAlbedoDeg)}, {"ErrAlbedoDeg", len(f.ErrAlbedoDeg)}, {"ErrCorrectedDeg", len(f.ErrCorrectedDeg)}} {
 		if err := check(c.name, c.l); err != nil {
 			return err
 		}
@@ -320,7 +332,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 			p.Y.Tick.Marker = plot.ConstantTicks([]plot.Tick{{Value: 0, Label: "no"}, {Value: 1, Label: "yes"}})
 		}
 	}
-	if f.ErrNoAlbedoDeg != nil || f.ErrAlbedoDeg != nil {
+	if f.ErrNoAlbedoDeg != nil || f.ErrAlbedoDeg != nil || f.ErrCorrectedDeg != nil {
 		p := addPanel("Sun-vector error", "error (deg)")
 		p.Y.Min = 0
 		if tg := f.ErrorTarget; tg != nil {
@@ -332,7 +344,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 		for k, s := range []struct {
 			label string
 			y     []float64
-		}{{"without albedo", f.ErrNoAlbedoDeg}, {"with albedo", f.ErrAlbedoDeg}} {
+		}{{"without albedo", f.ErrNoAlbedoDeg}, {"with albedo", f.ErrAlbedoDeg}, {"on-board corrected", f.ErrCorrectedDeg}} {
 			if s.y == nil {
 				continue
 			}
@@ -355,9 +367,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 				if fast {
 					l.Width = 2.2
 				}
-				if k == 1 {
-					l.Dashes = []vg.Length{6, 3}
-				}
+				l.Dashes = errDashes[k]
 				p.Add(l)
 				rec = append(rec, drawnSeries{len(panels) - 1, s.label, l.XYs})
 				if first == nil {
@@ -379,9 +389,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 						return nil, fmt.Errorf("plots: timeline: %w", err)
 					}
 					l.Color, l.Width = seriesColour(k), 0.8
-					if k == 1 {
-						l.Dashes = []vg.Length{3, 2}
-					}
+					l.Dashes = errDashesThin[k]
 					p.Add(l)
 					if firstHi == nil {
 						firstHi = l

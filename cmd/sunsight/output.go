@@ -652,7 +652,7 @@ func (o *runOutput) writeCSV(dir string) error {
 	files := map[string][][]string{}
 	if s := u.Series; s != nil {
 		head := []string{"t_s", "utc", "region", "sun_disc_visible_fraction", "sensors_seeing_sun", "valid",
-			"error_no_albedo_deg", "error_albedo_deg", "beta_deg", "sun_body_az_deg", "sun_body_el_deg"}
+			"error_no_albedo_deg", "error_albedo_deg", "error_onboard_corrected_deg", "beta_deg", "sun_body_az_deg", "sun_body_el_deg"}
 		pw := r.PowerSeries
 		if pw != nil && len(pw.W) != len(s.T) {
 			return fmt.Errorf("csv: the power series has %d samples, the time series %d", len(pw.W), len(s.T))
@@ -667,7 +667,7 @@ func (o *runOutput) writeCSV(dir string) error {
 		for i, t := range s.T {
 			row := []string{ff(t, 1), o.utc(t),
 				strings.ToLower(s.Region[i].String()), ff(s.Lit[i], 6), strconv.Itoa(s.Seen[i]), strconv.FormatBool(s.Valid[i]),
-				ff(s.ErrNoDeg[i], 4), ff(s.ErrAlbDeg[i], 4), ff(s.BetaDeg[i], 4), ff(s.SunBodyAz[i], 3), ff(s.SunBodyEl[i], 3)}
+				ff(s.ErrNoDeg[i], 4), ff(s.ErrAlbDeg[i], 4), ff(s.ErrCorrDeg[i], 4), ff(s.BetaDeg[i], 4), ff(s.SunBodyAz[i], 3), ff(s.SunBodyEl[i], 3)}
 			if pw != nil {
 				row = append(row, ff(pw.W[i], 4))
 			}

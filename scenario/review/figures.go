@@ -248,23 +248,30 @@ func verdictText(t *plots.Target) string {
 }
 
 func timelineTells(tl plots.Timeline, tg figureTargets) string {
-	peak := math.NaN()
-	for _, ys := range [][]float64{tl.ErrAlbedoDeg, tl.ErrNoAlbedoDeg} {
-		for _, v := range ys {
-			if !math.IsNaN(v) && !(v <= peak) {
-				peak = v
-			}
-		}
-		if !math.IsNaN(peak) {
-			break
-		}
+	peak := peakOf(tl.ErrAlbedoDeg)
+	if math.IsNaN(peak) {
+		peak = peakOf(tl.ErrNoAlbedoDeg)
 	}
 	t := fmt.Sprintf("Over the whole run the sun vector is valid %.1f %% of sunlit time%s; in these orbits the error peaks at %s°",
 		100*tl.ValidShare, verdictText(tg.valid), num(peak, 1))
+	if tl.ErrCorrectedDeg != nil {
+		t += fmt.Sprintf(" (%s° after the on-board albedo correction)", num(peakOf(tl.ErrCorrectedDeg), 1))
+	}
 	if tg.errP95 != nil {
 		t += fmt.Sprintf(", against a p95 target of %s", tg.errP95.Label)
 	}
 	return t + ". Shaded: umbra (dark) and penumbra (light)."
+}
+
+// peakOf is the largest finite value of ys, NaN without one.
+func peakOf(ys []float64) float64 {
+	peak := math.NaN()
+	for _, v := range ys {
+		if !math.IsNaN(v) && !(v <= peak) {
+			peak = v
+		}
+	}
+	return peak
 }
 
 func yearTells(y plots.YearView) string {
@@ -476,6 +483,9 @@ func timeline(cfg sim.Config, res *sim.Result) (plots.Timeline, error) {
 		tl.ErrNoAlbedoDeg = append(tl.ErrNoAlbedoDeg, ser.ErrNoDeg[i])
 		if cfg.NewAlbedo != nil {
 			tl.ErrAlbedoDeg = append(tl.ErrAlbedoDeg, ser.ErrAlbDeg[i])
+		}
+		if cfg.NewCorrection != nil {
+			tl.ErrCorrectedDeg = append(tl.ErrCorrectedDeg, ser.ErrCorrDeg[i])
 		}
 	}
 	tl.Umbra, tl.Penumbra = shadowSpans(res.Eclipses, tl.T[len(tl.T)-1])

@@ -2,6 +2,7 @@ package review
 
 import (
 	"context"
+	"math"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -51,5 +52,40 @@ func TestReportShowsTheOnboardCorrection(t *testing.T) {
 	}
 	if !found {
 		t.Error("no on-board albedo row in the models table")
+	}
+}
+
+// The timeline figure draws the on-board corrected error when the scenario
+// has an on-board model (mission-6u: a uniform model against a zonal
+// truth), sample for sample the run's short series, and says its peak;
+// without one (nadir-6u-sso) it has no such series.
+func TestTimelineDrawsTheOnboardCorrectedError(t *testing.T) {
+	_, cfg, res := shortRun(t, "mission-6u.yaml", 3*time.Hour, 1)
+	tl, err := timeline(cfg, res)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ser := res.Nominal.Timeline
+	if len(tl.ErrCorrectedDeg) != len(tl.T) {
+		t.Fatalf("%d corrected errors for %d samples", len(tl.ErrCorrectedDeg), len(tl.T))
+	}
+	finite := 0
+	for i, v := range tl.ErrCorrectedDeg {
+		if !(v == ser.ErrCorrDeg[i] || math.IsNaN(v) && math.IsNaN(ser.ErrCorrDeg[i])) {
+			t.Fatalf("sample %d: drawn %g°, series %g°", i, v, ser.ErrCorrDeg[i])
+		}
+		if !math.IsNaN(v) {
+			finite++
+		}
+	}
+	if finite < len(tl.T)/3 {
+		t.Errorf("corrected error on %d of %d samples", finite, len(tl.T))
+	}
+	if tells := timelineTells(tl, figureTargets{}); !strings.Contains(tells, "after the on-board albedo correction") {
+		t.Errorf("caption %q", tells)
+	}
+	_, cfg, res = shortRun(t, "nadir-6u-sso.yaml", 2*time.Hour, 1)
+	if tl, err = timeline(cfg, res); err != nil || tl.ErrCorrectedDeg != nil {
+		t.Errorf("without albedo.onboard: %d corrected errors (%v)", len(tl.ErrCorrectedDeg), err)
 	}
 }

@@ -199,13 +199,17 @@ type PowerSeries struct {
 
 // Series is a decimated time series of unit 0 for figures and CSV files.
 type Series struct {
-	T          []float64 // s since the epoch
-	Region     []illum.Region
-	Lit        []float64 // visible fraction of the solar disc
-	Seen       []int     // sensors with the sun in view
-	Valid      []bool    // primary estimator, realistic readings
-	ErrNoDeg   []float64 // NaN where invalid or not sunlit
-	ErrAlbDeg  []float64
+	T         []float64 // s since the epoch
+	Region    []illum.Region
+	Lit       []float64 // visible fraction of the solar disc
+	Seen      []int     // sensors with the sun in view
+	Valid     []bool    // primary estimator, realistic readings
+	ErrNoDeg  []float64 // NaN where invalid or not sunlit
+	ErrAlbDeg []float64
+	// ErrCorrDeg is the error of the primary estimator on the readings
+	// corrected by the on-board albedo model (Config.NewCorrection); NaN
+	// where invalid, not sunlit, or without an on-board model.
+	ErrCorrDeg []float64
 	BetaDeg    []float64
 	SunBodyAz  []float64 // deg, body frame
 	SunBodyEl  []float64
@@ -377,7 +381,7 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	if anyFalse {
 		a.falseSunAny++
 	}
-	var errNoDeg, errAlbDeg = math.NaN(), math.NaN()
+	var errNoDeg, errAlbDeg, errCorrDeg = math.NaN(), math.NaN(), math.NaN()
 	var primaryValid bool
 	for j, e := range ests {
 		ea := &a.est[j]
@@ -428,7 +432,9 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 				}
 			}
 			if a.corrected {
-				ea.corrected(t, gate.Apply(e.Estimate(arr, readCorr)), eNo, sunBody)
+				if d := ea.corrected(t, gate.Apply(e.Estimate(arr, readCorr)), eNo, sunBody); j == 0 {
+					errCorrDeg = d
+				}
 			}
 		} else {
 			ea.gaps.Observe(t, false)
@@ -454,16 +460,16 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		a.nadirTrack = append(a.nadirTrack, nadirBody)
 	}
 	if s := a.series; s != nil && k%a.cfg.SeriesStride == 0 {
-		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, sinBeta, sunBody, real)
+		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, errCorrDeg, sinBeta, sunBody, real)
 	}
 	if s := a.timeline; s != nil && t <= a.cfg.TimelineSpan && k%a.cfg.TimelineStride == 0 {
-		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, sinBeta, sunBody, real)
+		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, errCorrDeg, sinBeta, sunBody, real)
 	}
 }
 
 // add appends one sample (it allocates: series are kept for figures and
 // files, not in the measured loop).
-func (s *Series) add(t float64, region illum.Region, lit float64, seen int, valid bool, errNoDeg, errAlbDeg, sinBeta float64,
+func (s *Series) add(t float64, region illum.Region, lit float64, seen int, valid bool, errNoDeg, errAlbDeg, errCorrDeg, sinBeta float64,
 	sunBody r3.Vec, real []sensor.Reading) {
 	s.T = append(s.T, t)
 	s.Region = append(s.Region, region)
@@ -472,6 +478,7 @@ func (s *Series) add(t float64, region illum.Region, lit float64, seen int, vali
 	s.Valid = append(s.Valid, valid)
 	s.ErrNoDeg = append(s.ErrNoDeg, errNoDeg)
 	s.ErrAlbDeg = append(s.ErrAlbDeg, errAlbDeg)
+	s.ErrCorrDeg = append(s.ErrCorrDeg, errCorrDeg)
 	s.BetaDeg = append(s.BetaDeg, degOf(math.Asin(sinBeta)))
 	s.SunBodyAz = append(s.SunBodyAz, degOf(math.Atan2(sunBody.Y, sunBody.X)))
 	s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(math.Max(-1, math.Min(1, sunBody.Z)))))
@@ -491,6 +498,7 @@ func (s *Series) extend(t *Series) {
 	s.Valid = append(s.Valid, t.Valid...)
 	s.ErrNoDeg = append(s.ErrNoDeg, t.ErrNoDeg...)
 	s.ErrAlbDeg = append(s.ErrAlbDeg, t.ErrAlbDeg...)
+	s.ErrCorrDeg = append(s.ErrCorrDeg, t.ErrCorrDeg...)
 	s.BetaDeg = append(s.BetaDeg, t.BetaDeg...)
 	s.SunBodyAz = append(s.SunBodyAz, t.SunBodyAz...)
 	s.SunBodyEl = append(s.SunBodyEl, t.SunBodyEl...)
@@ -498,11 +506,12 @@ func (s *Series) extend(t *Series) {
 }
 
 // corrected folds in a sunlit sample's estimate from the corrected
-// readings, beside the estimate without albedo eNo.
-func (ea *estAcc) corrected(t float64, eCorr, eNo sensor.Estimate, sunBody r3.Vec) {
+// readings, beside the estimate without albedo eNo, and returns its error
+// (deg; NaN when invalid).
+func (ea *estAcc) corrected(t float64, eCorr, eNo sensor.Estimate, sunBody r3.Vec) float64 {
 	ea.gapsCorr.Observe(t, !eCorr.Valid)
 	if !eCorr.Valid {
-		return
+		return math.NaN()
 	}
 	ea.validCorr++
 	d := degOf(angleBetween(eCorr.Dir, sunBody))
@@ -513,6 +522,7 @@ func (ea *estAcc) corrected(t float64, eCorr, eNo sensor.Estimate, sunBody r3.Ve
 		ea.mResid.Add(p)
 		ea.qResid.Add(p)
 	}
+	return d
 }
 
 // end closes the accumulator's piece of grid at tEnd.

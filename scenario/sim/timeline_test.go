@@ -41,7 +41,7 @@ func TestTimelineIsTheSeriesHead(t *testing.T) {
 			t.Fatalf("timeline ends at sample %d (t = %g s); the series goes on to t = %g s", want, tl.T[len(tl.T)-1], tk)
 		}
 		row := func(s *Series, i int) string {
-			return fmt.Sprint(s.T[i], s.Region[i], s.Lit[i], s.Seen[i], s.Valid[i], s.ErrNoDeg[i], s.ErrAlbDeg[i], s.BetaDeg[i],
+			return fmt.Sprint(s.T[i], s.Region[i], s.Lit[i], s.Seen[i], s.Valid[i], s.ErrNoDeg[i], s.ErrAlbDeg[i], s.ErrCorrDeg[i], s.BetaDeg[i],
 				s.SunBodyAz[i], s.SunBodyEl[i], s.Signals[i])
 		}
 		if a, b := row(tl, want), row(full, k); a != b {

@@ -58,8 +58,13 @@ func (o *runOutput) writeModes(w io.Writer) {
 	if len(o.modes) == 0 {
 		return
 	}
+	filt := o.s.GyroFilter.Set
 	fmt.Fprintf(w, "\nModes side by side (same orbit, sensors and estimators; primary first)\n")
-	fmt.Fprintf(w, "  %-24s %8s %8s %8s %8s %10s %9s %8s\n", "attitude", "sunlit", ">=1", ">=2", "valid", "p95 error", "max gap", "targets")
+	fmt.Fprintf(w, "  %-24s %8s %8s %8s %8s %10s %9s %8s", "attitude", "sunlit", ">=1", ">=2", "valid", "p95 error", "max gap", "targets")
+	if filt {
+		fmt.Fprintf(w, " %12s %11s %14s", "filter valid", "filter p95", "filter eclipse")
+	}
+	fmt.Fprintln(w)
 	for _, m := range o.modeRows() {
 		p95 := m.h.P95AlbedoDeg
 		if p95 != p95 { // NaN: no albedo model
@@ -70,8 +75,15 @@ func (o *runOutput) writeModes(w io.Writer) {
 		if n > 0 {
 			tg = fmt.Sprintf("%d/%d", met, n)
 		}
-		fmt.Fprintf(w, "  %-24s %8s %8s %8s %8s %10s %7.0f s %8s\n", m.name, pct(m.h.SunlitFraction), pct(m.h.Seen1), pct(m.h.Seen2),
+		fmt.Fprintf(w, "  %-24s %8s %8s %8s %8s %10s %7.0f s %8s", m.name, pct(m.h.SunlitFraction), pct(m.h.Seen1), pct(m.h.Seen2),
 			pct(m.h.ValidFraction), deg(p95), m.h.LongestGapS, tg)
+		if filt {
+			fmt.Fprintf(w, " %12s %11s %14s", pct(m.h.FilterValidFraction), deg(m.h.FilterP95Deg), deg(m.h.FilterP95ShadowDeg))
+		}
+		fmt.Fprintln(w)
+	}
+	if filt {
+		fmt.Fprintf(w, "  (filter: the gyro-aided filter in that attitude, valid share of the whole run, p95 error over the run and in eclipse)\n")
 	}
 	for _, m := range o.modes {
 		for _, t := range m.targets {
@@ -98,7 +110,8 @@ func (o *runOutput) modesJSON() []modeRecord {
 // modesCSV is modes.csv: one row per attitude, primary first.
 func (o *runOutput) modesCSV() [][]string {
 	rows := [][]string{{"mode", "primary", "sunlit_fraction", "seen_by_1_fraction", "seen_by_2_fraction", "seen_by_3_fraction", "valid_fraction",
-		"p95_error_no_albedo_deg", "p95_error_albedo_deg", "longest_gap_s", "targets_met_count", "targets_stated_count"}}
+		"p95_error_no_albedo_deg", "p95_error_albedo_deg", "longest_gap_s", "targets_met_count", "targets_stated_count",
+		"filter_valid_fraction_of_run", "filter_p95_error_deg", "filter_p95_error_in_shadow_deg"}}
 	for i, m := range o.modeRows() {
 		name := m.name
 		if i == 0 {
@@ -106,7 +119,8 @@ func (o *runOutput) modesCSV() [][]string {
 		}
 		met, n := targetsMet(m.targets)
 		rows = append(rows, []string{name, strconv.FormatBool(i == 0), ff(m.h.SunlitFraction, 6), ff(m.h.Seen1, 6), ff(m.h.Seen2, 6), ff(m.h.Seen3, 6),
-			ff(m.h.ValidFraction, 6), ff(m.h.P95NoAlbedoDeg, 4), ff(m.h.P95AlbedoDeg, 4), ff(m.h.LongestGapS, 1), strconv.Itoa(met), strconv.Itoa(n)})
+			ff(m.h.ValidFraction, 6), ff(m.h.P95NoAlbedoDeg, 4), ff(m.h.P95AlbedoDeg, 4), ff(m.h.LongestGapS, 1), strconv.Itoa(met), strconv.Itoa(n),
+			ff(m.h.FilterValidFraction, 6), ff(m.h.FilterP95Deg, 4), ff(m.h.FilterP95ShadowDeg, 4)})
 	}
 	return rows
 }

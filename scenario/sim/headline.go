@@ -42,10 +42,11 @@ type Headline struct {
 	// without an on-board model).
 	ValidFractionCorrected float64 `json:"valid_fraction_onboard_corrected"`
 	LongestGapCorrectedS   float64 `json:"longest_gap_onboard_corrected_s"`
-	// FilterValidFraction and FilterP95ShadowDeg are the gyro-aided
-	// filter's valid share of the run and p95 error in eclipse (NaN
-	// without a filter).
+	// FilterValidFraction, FilterP95Deg and FilterP95ShadowDeg are the
+	// gyro-aided filter's valid share of the run, p95 error over its valid
+	// samples and p95 error in eclipse (NaN without a filter).
 	FilterValidFraction float64 `json:"filter_valid_fraction_of_run"`
+	FilterP95Deg        float64 `json:"filter_p95_error_deg"`
 	FilterP95ShadowDeg  float64 `json:"filter_p95_error_in_shadow_deg"`
 }
 
@@ -59,10 +60,10 @@ func (r *Result) Headline() Headline {
 		Seen1: u.SeenAtLeast[1], Seen2: u.SeenAtLeast[2], Seen3: u.SeenAtLeast[3],
 		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction, OrbitAvgPowerW: math.NaN(),
 		P95CorrectedDeg: math.NaN(), P95ResidualPartDeg: math.NaN(), ValidFractionCorrected: math.NaN(), LongestGapCorrectedS: math.NaN(),
-		FilterValidFraction: math.NaN(), FilterP95ShadowDeg: math.NaN(),
+		FilterValidFraction: math.NaN(), FilterP95Deg: math.NaN(), FilterP95ShadowDeg: math.NaN(),
 	}
 	if f := u.Filter; f != nil {
-		h.FilterValidFraction, h.FilterP95ShadowDeg = f.ValidFraction, f.ErrShadow.P95Deg
+		h.FilterValidFraction, h.FilterP95Deg, h.FilterP95ShadowDeg = f.ValidFraction, f.Err.P95Deg, f.ErrShadow.P95Deg
 	}
 	if r.Power != nil {
 		h.OrbitAvgPowerW = r.Power.MeanW

@@ -108,7 +108,7 @@ func (p PhaseResult) Headline() sim.Headline {
 	if p.Result == nil {
 		n := math.NaN()
 		return sim.Headline{SunlitFraction: n, Seen1: n, Seen2: n, Seen3: n, ValidFraction: n, LongestGapS: n,
-			P95NoAlbedoDeg: n, P95AlbedoDeg: n, P95AlbedoPartDeg: n, MaxErrorDeg: n, FilterValidFraction: n, FilterP95ShadowDeg: n}
+			P95NoAlbedoDeg: n, P95AlbedoDeg: n, P95AlbedoPartDeg: n, MaxErrorDeg: n, FilterValidFraction: n, FilterP95Deg: n, FilterP95ShadowDeg: n}
 	}
 	return p.Result.Headline()
 }

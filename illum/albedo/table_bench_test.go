@@ -2,6 +2,7 @@ package albedo
 
 import (
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -75,5 +76,40 @@ func BenchmarkBoresightTableBuild(b *testing.B) {
 		if _, err := NewBoresightTable(m, []float64{EarthRadiusKm + 550}, math.Pi/3, Response{}, DefaultBoresightSunResDeg, DefaultBoresightStepDeg); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// BenchmarkBoresightTableAt: one lookup of a default boresight table (60°
+// cone, two radii) for a random boresight and sun, the per-sensor cost of
+// a step with albedo in any attitude.
+func BenchmarkBoresightTableAt(b *testing.B) {
+	m, err := New(Config{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	t, err := NewBoresightTable(m, []float64{EarthRadiusKm + 540, EarthRadiusKm + 560}, math.Pi/3, Response{}, DefaultBoresightSunResDeg, DefaultBoresightStepDeg)
+	if err != nil {
+		b.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(1, 2))
+	unit := func() r3.Vec {
+		return r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()})
+	}
+	const n = 1024
+	frames := make([]SunFrame, n)
+	bores := make([]r3.Vec, n)
+	for i := range frames {
+		for !t.Frame(&frames[i], r3.Scale(EarthRadiusKm+550, unit()), unit(), 1.496e8) || frames[i].dark {
+		}
+		bores[i] = unit()
+	}
+	var sink float64
+	k := 0
+	for b.Loop() {
+		sink += t.At(&frames[k%n], bores[k%n]).Irradiance
+		k++
+	}
+	if sink < 0 {
+		b.Fatal("negative albedo")
 	}
 }

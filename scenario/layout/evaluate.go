@@ -29,6 +29,10 @@ func Evaluator(ctx context.Context, s *scenario.Scenario) (EvaluateFunc, error) 
 	traces := make([]*sim.Trace, len(atts))
 	configs := make([]sim.Config, len(atts))
 	for mi, m := range atts {
+		if i, ok := study.SensorPlannedTimeline(s, m.Attitude); ok {
+			return nil, fmt.Errorf("layout: mode %s: timeline.phases[%d] (%s).until: the phase ends when the sun is seen, so its timeline depends on the layout, but the search replays one timeline planned with every candidate; give that phase an elapsed or eclipse end for the search, then run the chosen layout with it",
+				m.Name, i, s.Timeline.Phases[i].Name)
+		}
 		cfg, err := study.ConfigFor(s, s.Body.Candidates, m.Attitude)
 		if err != nil {
 			return nil, fmt.Errorf("layout: mode %s: %w", m.Name, err)

@@ -60,7 +60,9 @@ func SingleFailureTraceBytes(base *sim.Config) int64 {
 // geometry is recorded once (sim.Trace) and each failed layout costs only
 // its sensor readings; a tumble redraws the attitude per unit, so each
 // failed layout is then a full run of the reduced sensor list, as it is when
-// the geometry would take more than maxTraceBytes.
+// the geometry would take more than maxTraceBytes, and when the attitude is
+// a timeline with a phase that ends on the sun seen (SensorPlannedTimeline):
+// that timeline is planned anew on the sensors left.
 func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config) (SingleFailure, error) {
 	sensors := s.Body.Sensors
 	if len(sensors) < 2 {
@@ -68,7 +70,7 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 	}
 	sf := SingleFailure{WorstPair: -1}
 	var tr *sim.Trace
-	if SingleFailureTraceBytes(&base) > 0 {
+	if _, replan := SensorPlannedTimeline(s, s.Attitude); SingleFailureTraceBytes(&base) > 0 && !replan {
 		var err error
 		if tr, err = sim.NewTrace(ctx, base); err != nil {
 			return sf, fmt.Errorf("single-failure study: %w", err)
@@ -146,6 +148,22 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 		sf.WorstPair = worstFailure(s, sf.Pairs)
 	}
 	return sf, nil
+}
+
+// SensorPlannedTimeline reports whether att is a timeline whose planning
+// depends on the sensors that fly: a phase that ends when the sun has been
+// seen by some of them (until: sun_seen). It returns that phase's index.
+// A replay of geometry planned with other sensors would then be wrong.
+func SensorPlannedTimeline(s *scenario.Scenario, att scenario.Attitude) (phase int, ok bool) {
+	if att.Name != scenario.LawTimeline {
+		return -1, false
+	}
+	for i, p := range s.Timeline.Phases {
+		if p.Until.Kind == scenario.UntilSunSeen {
+			return i, true
+		}
+	}
+	return -1, false
 }
 
 // runWithout is a full run of the primary attitude without the failed

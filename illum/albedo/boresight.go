@@ -54,8 +54,38 @@ type BoresightTable struct {
 	nθn, nφ  int     // nodes in θn and φ
 	darkZ    []float64
 	per      int       // values per radius
-	vals     []float32 // [radius][θs][θn][φ][boresightVals]
+	vals     []float32 // [radius][θs][θn][φ][ch][boresightVals]
 	halfCone float64
+	// ch is 1 for a uniform reflectance (E and E·Dir, the albedo baked
+	// in) or zonalChannels for a zonal one (see zonalBasis).
+	ch    int
+	zonal Zonal
+}
+
+// zonalChannels is the number of reflectance channels of a zonal
+// BoresightTable. A Zonal reflectance that never clamps is a quadratic in
+// s = N̂·P̂ (N̂ the surface normal, P̂ the pole):
+//
+//	ρ = (A0 − A2/2) + A1 s + (3A2/2) s²,  s = Σ Nᵢ Pᵢ,
+//
+// so its cell sum is Σₖ cₖ(P̂, t) Iₖ with Iₖ the cell sum for the
+// "reflectance" bₖ(N̂) of zonalBasis (1, the three Nᵢ, the six NᵢNⱼ), each
+// a function of the local geometry alone. The table keeps every Iₖ (E and
+// the vector sum of E·u); a lookup forms the cₖ from the pole in the sun
+// frame and the season. Exact before interpolation.
+const zonalChannels = 10
+
+// zonalBasis fills b with the basis values of the normal n (local frame).
+func zonalBasis(b *[zonalChannels]float64, n r3.Vec) {
+	*b = [zonalChannels]float64{1, n.X, n.Y, n.Z, n.X * n.X, n.Y * n.Y, n.Z * n.Z, n.X * n.Y, n.X * n.Z, n.Y * n.Z}
+}
+
+// zonalCoefs fills c with the weights of the basis for the pole p (local
+// frame) and first-degree coefficient a1.
+func (z Zonal) coefs(c *[zonalChannels]float64, p r3.Vec, a1 float64) {
+	q := 1.5 * z.A2
+	*c = [zonalChannels]float64{z.A0 - 0.5*z.A2, a1 * p.X, a1 * p.Y, a1 * p.Z,
+		q * p.X * p.X, q * p.Y * p.Y, q * p.Z * p.Z, 2 * q * p.X * p.Y, 2 * q * p.X * p.Z, 2 * q * p.Y * p.Z}
 }
 
 // NewBoresightTable builds the table of a cone of half-angle half and
@@ -70,9 +100,16 @@ func NewBoresightTable(m *Model, radiiKm []float64, half float64, resp Response,
 	if m == nil {
 		return nil, fmt.Errorf("albedo: boresight table: nil model")
 	}
-	u, ok := m.refl.(Uniform)
-	if !ok {
-		return nil, fmt.Errorf("albedo: boresight table: reflectance is %T: the table needs a uniform reflectance; use Model.Irradiance for zonal or gridded maps", m.refl)
+	ch := 1
+	switch r := m.refl.(type) {
+	case Uniform:
+	case Zonal:
+		if !r.inRange() {
+			return nil, fmt.Errorf("albedo: boresight table: the zonal profile leaves [0, 1] (it is clamped there): the table needs one that does not; use Model.Irradiance")
+		}
+		ch = zonalChannels
+	default:
+		return nil, fmt.Errorf("albedo: boresight table: reflectance is %T: the table needs a uniform or zonal reflectance; use Model.Irradiance for gridded maps", m.refl)
 	}
 	if len(radiiKm) == 0 {
 		return nil, fmt.Errorf("albedo: boresight table: no radius")
@@ -90,7 +127,10 @@ func NewBoresightTable(m *Model, radiiKm []float64, half float64, resp Response,
 	}
 	nθ := int(math.Ceil(180/resDeg - 1e-9))
 	nb := int(math.Ceil(180/stepDeg - 1e-9))
-	t := &BoresightTable{radii: append([]float64(nil), radiiKm...), polar: newPolarGrid(nθ), hb: math.Pi / float64(nb), halfCone: half}
+	t := &BoresightTable{radii: append([]float64(nil), radiiKm...), polar: newPolarGrid(nθ), hb: math.Pi / float64(nb), halfCone: half, ch: ch}
+	if z, ok := m.refl.(Zonal); ok {
+		t.zonal = z
+	}
 	// A boresight farther from nadir than the Earth's disc plus the cone
 	// (and a cell) sees nothing: the grid stops one step beyond.
 	ηMax := math.Asin(EarthRadiusKm / radiiKm[0])
@@ -99,7 +139,7 @@ func NewBoresightTable(m *Model, radiiKm []float64, half float64, resp Response,
 	for _, r := range radiiKm {
 		t.darkZ = append(t.darkZ, math.Sqrt(1-(EarthRadiusKm/r)*(EarthRadiusKm/r)))
 	}
-	t.per = (t.polar.n + 1) * t.nθn * t.nφ * boresightVals
+	t.per = (t.polar.n + 1) * t.nθn * t.nφ * boresightVals * ch
 	t.vals = make([]float32, len(radiiKm)*t.per)
 
 	// The sensors of one row: every boresight node, in the local frame (+Z to nadir).
@@ -112,11 +152,15 @@ func NewBoresightTable(m *Model, radiiKm []float64, half float64, resp Response,
 		}
 	}
 	for r, rKm := range radiiKm {
-		mr, err := New(Config{Reflectance: u, Cells: m.n, AltitudeKm: rKm - EarthRadiusKm, RebuildKm: m.rebuildKm})
+		mr, err := New(Config{Reflectance: m.refl, Cells: m.n, AltitudeKm: rKm - EarthRadiusKm, RebuildKm: m.rebuildKm})
 		if err != nil {
 			return nil, err
 		}
-		t.buildRadius(mr, sensors, r)
+		if ch == 1 {
+			t.buildRadius(mr, sensors, r)
+		} else {
+			t.buildRadiusZonal(mr, sensors, r)
+		}
 	}
 	return t, nil
 }
@@ -235,6 +279,114 @@ func (t *BoresightTable) buildRadius(m *Model, sensors []Sensor, r int) {
 	wg.Wait()
 }
 
+// buildRadiusZonal is buildRadius for a zonal table: the same running sums
+// over the rows of sun angles, with every cell's lit weight at ρ = 1 times
+// each basis value bₖ(N̂) of the cell's mean normal (zonalBasis), so each
+// node holds the ten cell sums Iₖ: E and the vector sum of E·u (local frame,
+// not normalised, so that the channels add).
+func (t *BoresightTable) buildRadiusZonal(m *Model, sensors []Sensor, r int) {
+	rKm := t.radii[r]
+	rSat := r3.Vec{Z: -rKm}
+	geo := &m.geo
+	ex, ey, ez := capFrame(rSat, vecmath.Norm(rSat))
+	k := SolarIrradiance1AU
+	ax, az := toFrame(r3.Vec{X: 1}, ex, ey, ez), toFrame(r3.Vec{Z: 1}, ex, ey, ez)
+	var rows []int
+	var sins, coss []float64
+	for i := 0; i <= t.polar.n; i++ {
+		sθ, cθ := math.Sincos(t.polar.angle(i))
+		if cθ >= t.darkZ[r] {
+			continue
+		}
+		rows = append(rows, i)
+		sins, coss = append(sins, sθ), append(coss, cθ)
+	}
+	nr, nc := len(rows), len(geo.cells)
+	first, end := make([]int32, nc), make([]int32, nc)
+	ws, wc := make([]float64, nc), make([]float64, nc)
+	basis := make([][zonalChannels]float64, nc)
+	for c := range geo.cells {
+		cl := &geo.cells[c]
+		first[c], end[c] = int32(nr), 0
+		pa, pb := cl.px*ax.X+cl.py*ax.Y+cl.pz*ax.Z, cl.px*az.X+cl.py*az.Y+cl.pz*az.Z
+		for q := range nr {
+			if sins[q]*pa+coss[q]*pb > 0 {
+				first[c], end[c] = min(first[c], int32(q)), int32(q+1)
+			}
+		}
+		ws[c], wc[c] = k*cl.g*pa, k*cl.g*pb
+		zonalBasis(&basis[c], capToLocal(cl.px, cl.py, cl.pz, ex, ey, ez))
+	}
+	const half = boresightVals * zonalChannels // the sin θ part, then the cos θ part
+	const coef = 2 * half
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range max(1, runtime.GOMAXPROCS(0)) {
+		wg.Go(func() {
+			steps := make([]float64, coef*(nr+1))
+			var v [coef]float64
+			for {
+				j := int(next.Add(1) - 1)
+				if j >= len(sensors) {
+					return
+				}
+				sn := &sensors[j]
+				n := toFrame(sn.Normal, ex, ey, ez)
+				if missesDisc(n, sn.HalfAngle, geo) {
+					continue
+				}
+				cw := newConeWeight(sn, geo.halfWidth)
+				clear(steps)
+				for c := range geo.cells {
+					cl := &geo.cells[c]
+					cc := n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz
+					if cc <= cw.outer || first[c] >= end[c] {
+						continue
+					}
+					f := cc
+					if !(cw.cosine && cc >= cw.inner) {
+						var frac float64
+						if f, frac = cw.edge(cc); frac == 0 {
+							continue
+						}
+					}
+					s, co := f*ws[c], f*wc[c]
+					for q, b := range basis[c] {
+						sb, cb := s*b, co*b
+						v[4*q], v[4*q+1], v[4*q+2], v[4*q+3] = sb, sb*cl.ux, sb*cl.uy, sb*cl.uz
+						v[half+4*q], v[half+4*q+1], v[half+4*q+2], v[half+4*q+3] = cb, cb*cl.ux, cb*cl.uy, cb*cl.uz
+					}
+					on, off := steps[coef*int(first[c]):][:coef], steps[coef*int(end[c]):][:coef]
+					for x := range v {
+						on[x] += v[x]
+						off[x] -= v[x]
+					}
+				}
+				var run [coef]float64
+				for q, i := range rows {
+					for x := range run {
+						run[x] += steps[coef*q+x]
+					}
+					sθ, cθ := sins[q], coss[q]
+					out := t.vals[r*t.per+(i*len(sensors)+j)*half:][:half]
+					for c := range zonalChannels {
+						e := sθ*run[4*c] + cθ*run[half+4*c]
+						d := capToLocal(sθ*run[4*c+1]+cθ*run[half+4*c+1], sθ*run[4*c+2]+cθ*run[half+4*c+2], sθ*run[4*c+3]+cθ*run[half+4*c+3], ex, ey, ez)
+						out[4*c], out[4*c+1], out[4*c+2], out[4*c+3] = float32(e), float32(d.X), float32(d.Y), float32(d.Z)
+					}
+				}
+			}
+		})
+	}
+	wg.Wait()
+}
+
+// capToLocal returns the cap-frame vector (x, y, z) in the coordinates the
+// frame (ex, ey, ez) is given in.
+func capToLocal(x, y, z float64, ex, ey, ez r3.Vec) r3.Vec {
+	return r3.Vec{X: x*ex.X + y*ey.X + z*ez.X, Y: x*ex.Y + y*ey.Y + z*ez.Y, Z: x*ex.Z + y*ey.Z + z*ez.Z}
+}
+
 // HalfAngle returns the cone half-angle of the table, rad.
 func (t *BoresightTable) HalfAngle() float64 { return t.halfCone }
 
@@ -257,6 +409,23 @@ type SunFrame struct {
 	fr         float64 // fraction across it
 	scale      float64 // (AU/d)²
 	dark       bool
+	// coef, coefM: a zonal table's basis weights for the pole as it is and
+	// mirrored (y → −y), set by Season.
+	coef, coefM [zonalChannels]float64
+}
+
+// Season sets, for a zonal table, the basis weights of the step prepared
+// by Frame at Julian date jdTT (the seasonal first-degree term and the
+// pole, EME2000 +Z, in the sun frame). A uniform table ignores it.
+func (t *BoresightTable) Season(f *SunFrame, jdTT float64) {
+	if t.ch == 1 || f.dark {
+		return
+	}
+	a1 := t.zonal.a1(jdTT)
+	p := r3.Vec{X: f.ex.Z, Y: f.ey.Z, Z: f.ez.Z}
+	t.zonal.coefs(&f.coef, p, a1)
+	p.Y = -p.Y
+	t.zonal.coefs(&f.coefM, p, a1)
 }
 
 // Frame prepares the lookups of one step: the spacecraft at rSat (km,
@@ -329,6 +498,9 @@ func (t *BoresightTable) At(f *SunFrame, n r3.Vec) Result {
 	jφ := min(int(fφ), t.nφ-2)
 	bφ := fφ - float64(jφ)
 
+	if t.ch != 1 {
+		return t.atZonal(f, mirror, jθ, bθ, jφ, bφ)
+	}
 	var v [boresightVals]float64
 	rows := 1
 	if len(t.radii) > 1 {
@@ -369,6 +541,67 @@ func (t *BoresightTable) At(f *SunFrame, n r3.Vec) Result {
 		dy = -dy
 	}
 	return Result{Irradiance: v[0] * f.scale, Dir: r3.Vec{
+		X: dx*f.ex.X + dy*f.ey.X + dz*f.ez.X,
+		Y: dx*f.ex.Y + dy*f.ey.Y + dz*f.ez.Y,
+		Z: dx*f.ex.Z + dy*f.ey.Z + dz*f.ez.Z,
+	}}
+}
+
+// atZonal is At for a zonal table: the channels interpolated as At
+// interpolates E and E·Dir, then weighted with the step's basis weights.
+func (t *BoresightTable) atZonal(f *SunFrame, mirror bool, jθ int, bθ float64, jφ int, bφ float64) Result {
+	const nv = boresightVals * zonalChannels
+	var v [nv]float64
+	rows := 1
+	if len(t.radii) > 1 {
+		rows = 2
+	}
+	for dr := range rows {
+		wr := 1 - f.fr
+		if dr == 1 {
+			wr = f.fr
+		}
+		base := (f.r + dr) * t.per
+		for di := range 2 {
+			wi := wr * (1 - f.a)
+			if di == 1 {
+				wi = wr * f.a
+			}
+			plane := t.vals[base+(f.i+di)*t.nθn*t.nφ*nv:]
+			for dθ := range 2 {
+				wθ := wi * (1 - bθ)
+				if dθ == 1 {
+					wθ = wi * bθ
+				}
+				row := plane[((jθ+dθ)*t.nφ+jφ)*nv:][:2*nv]
+				w0, w1 := wθ*(1-bφ), wθ*bφ
+				for c := range nv {
+					v[c] += w0*float64(row[c]) + w1*float64(row[nv+c])
+				}
+			}
+		}
+	}
+	c := &f.coef
+	if mirror {
+		c = &f.coefM
+	}
+	var e, dx, dy, dz float64
+	for k := range zonalChannels {
+		e += c[k] * v[4*k]
+		dx += c[k] * v[4*k+1]
+		dy += c[k] * v[4*k+2]
+		dz += c[k] * v[4*k+3]
+	}
+	n2 := dx*dx + dy*dy + dz*dz
+	if !(e > 0) || !(n2 > 0) {
+		return Result{}
+	}
+	inv := 1 / math.Sqrt(n2)
+	dx, dy, dz = dx*inv, dy*inv, dz*inv
+	if mirror {
+		dy = -dy
+	}
+	return Result{Irradiance: e * f.scale, Dir: r3.Vec{
 		X: dx*f.ex.X + dy*f.ey.X + dz*f.ez.X,
 		Y: dx*f.ex.Y + dy*f.ey.Y + dz*f.ez.Y,
 		Z: dx*f.ex.Z + dy*f.ey.Z + dz*f.ez.Z,

@@ -104,6 +104,12 @@ type Model struct {
 	// zonalInRange: a Zonal reflectance that stays inside [0, 1] at every
 	// latitude and season, so its clamp is the identity and is skipped.
 	zonalInRange bool
+	// tabs, with NewTableFactory: the shared zonal tables; kinds the ones
+	// this model has met, frame and served the scratch of a step.
+	tabs   *sharedTables
+	kinds  []coneTable
+	frame  SunFrame
+	served []bool
 }
 
 // unlit marks a cell of Model.w the sun does not light at this step.
@@ -214,6 +220,16 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 	if !(r > EarthRadiusKm) || !(sunDistKm > 0) {
 		return
 	}
+	served := m.served[:0]
+	if m.tabs != nil {
+		if cap(m.served) < len(sensors) {
+			m.served = make([]bool, len(sensors))
+		}
+		served = m.served[:len(sensors)]
+		if m.fromTables(dst, served, rSat, sunDir, r, sunDistKm, jdTT, sensors) {
+			return
+		}
+	}
 	m.ensureGeometry(r)
 	ex, ey, ez := capFrame(rSat, r)
 	s := toFrame(sunDir, ex, ey, ez)
@@ -289,6 +305,9 @@ func (m *Model) Irradiance(dst []Result, rSat, sunDir r3.Vec, sunDistKm, gmst, j
 
 	// Pass 2: each sensor sums over the lit cells in its cone.
 	for i := range sensors {
+		if len(served) > 0 && served[i] {
+			continue
+		}
 		dst[i] = m.sumSensor(&sensors[i], ex, ey, ez)
 	}
 }

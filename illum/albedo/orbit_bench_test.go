@@ -50,7 +50,9 @@ func inertialSensors() []Sensor {
 
 // BenchmarkOrbitSteps is the albedo cost of one run step for six 60° cones
 // of an inertial body along a sunlit-and-eclipsed orbit, per reflectance
-// model (ns/step averages over the orbit, shadowed steps included).
+// model (ns/step averages over the orbit, shadowed steps included);
+// zonal-tables reads the shared zonal table of NewTableFactory (its build,
+// before the timing, not included).
 func BenchmarkOrbitSteps(b *testing.B) {
 	f, err := os.Open("testdata/demo_grid.csv")
 	if err != nil {
@@ -62,17 +64,26 @@ func BenchmarkOrbitSteps(b *testing.B) {
 		b.Fatal(err)
 	}
 	for _, c := range []struct {
-		name string
-		refl Reflectance
-	}{{"uniform", Uniform{Albedo: DefaultAlbedo}}, {"zonal", KnockeZonal()}, {"grid", g}} {
+		name   string
+		refl   Reflectance
+		tables bool
+	}{{"uniform", Uniform{Albedo: DefaultAlbedo}, false}, {"zonal", KnockeZonal(), false}, {"zonal-tables", KnockeZonal(), true}, {"grid", g, false}} {
 		b.Run(c.name, func(b *testing.B) {
-			m, err := New(Config{Reflectance: c.refl, AltitudeKm: 550})
+			cfg := Config{Reflectance: c.refl, AltitudeKm: 550}
+			m, err := New(cfg)
+			if c.tables {
+				var f func() (*Model, error)
+				if f, err = NewTableFactory(cfg); err == nil {
+					m, err = f()
+				}
+			}
 			if err != nil {
 				b.Fatal(err)
 			}
 			steps, sun := benchOrbit()
 			sensors := inertialSensors()
 			dst := make([]Result, len(sensors))
+			m.Irradiance(dst, steps[0].rSat, sun, AUKm, 0, 2461406.5, sensors) // builds the shared table
 			b.ReportAllocs()
 			for b.Loop() {
 				for _, s := range steps {

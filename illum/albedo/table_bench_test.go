@@ -113,3 +113,17 @@ func BenchmarkBoresightTableAt(b *testing.B) {
 		b.Fatal("negative albedo")
 	}
 }
+
+// BenchmarkZonalBoresightTableBuild is BenchmarkBoresightTableBuild for
+// Knocke's zonal profile (ten channels).
+func BenchmarkZonalBoresightTableBuild(b *testing.B) {
+	m, err := New(Config{Reflectance: KnockeZonal()})
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		if _, err := NewBoresightTable(m, []float64{EarthRadiusKm + 550}, math.Pi/3, Response{}, DefaultBoresightSunResDeg, DefaultBoresightStepDeg); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -445,7 +445,36 @@ func albedoFactory(s *scenario.Scenario, a scenario.Albedo, path string) (func()
 	if _, err := albedo.New(cfg); err != nil {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
+	if zonalTables(s, cfg) {
+		if f, err := albedo.NewTableFactory(cfg); err == nil {
+			return f, nil
+		}
+	}
 	return func() (*albedo.Model, error) { return albedo.New(cfg) }, nil
+}
+
+// zonalTableMinSteps is the run length from which a zonal model reads its
+// cones from shared tables (albedo.NewTableFactory): one table of a 60°
+// cone builds in about 0.5 s of CPU (BenchmarkZonalBoresightTableBuild),
+// the time of some 200 000 sensor integrals at ~2.5 µs each, so a run of
+// six such sensors pays for it from about 35 000 steps (4 days at 10 s).
+const zonalTableMinSteps = 50_000
+
+// zonalTables reports whether the albedo model cfg of scenario s reads its
+// cones from shared zonal tables: a zonal reflectance (the factory refuses
+// one that leaves [0, 1]), a circular orbit whose radius stays put (not
+// j2-numeric or sgp4, whose radius swings beyond the tables' 1 km slack)
+// and a long enough run.
+func zonalTables(s *scenario.Scenario, cfg albedo.Config) bool {
+	if _, ok := cfg.Reflectance.(albedo.Zonal); !ok || !(cfg.AltitudeKm > 0) {
+		return false
+	}
+	switch s.Orbit.Propagator {
+	case "j2-mean", "two-body":
+	default:
+		return false
+	}
+	return s.Step.Seconds() > 0 && s.Duration.Seconds()/s.Step.Seconds() >= zonalTableMinSteps
 }
 
 // EstimatorList returns the scenario's estimators (the resolver fills the

@@ -188,7 +188,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	out.allUnits = f.allUnits
 	if study.TimelineOf(cfg) != nil {
 		pc := cfg.Lean()
-		ph, err := study.RunPhases(ctx, pc)
+		ph, err := study.RunPhases(ctx, pc, res)
 		if err != nil {
 			if errors.Is(err, context.Canceled) {
 				return errors.New("interrupted: no output written")

@@ -36,6 +36,11 @@ type phaseRecord struct {
 	LongestGapS num `json:"longest_gap_s"`
 	P95NoAlbedo num `json:"p95_error_no_albedo_deg"`
 	P95Albedo   num `json:"p95_error_albedo_deg"`
+	// The gyro-aided filter over the span, running on from the spans
+	// before (null without a gyro_filter block).
+	FilterValid     num `json:"filter_valid_fraction_of_run"`
+	FilterP95       num `json:"filter_p95_error_deg"`
+	FilterP95Shadow num `json:"filter_p95_error_in_shadow_deg"`
 }
 
 func (o *runOutput) timelineJSON() []phaseRecord {
@@ -51,6 +56,7 @@ func (o *runOutput) timelineJSON() []phaseRecord {
 		h := p.Headline()
 		r.Sunlit, r.Seen1, r.Seen2, r.Valid, r.LongestGapS = num(h.SunlitFraction), num(h.Seen1), num(h.Seen2), num(h.ValidFraction), num(h.LongestGapS)
 		r.P95NoAlbedo, r.P95Albedo = num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg)
+		r.FilterValid, r.FilterP95, r.FilterP95Shadow = num(h.FilterValidFraction), num(h.FilterP95Deg), num(h.FilterP95ShadowDeg)
 		out = append(out, r)
 	}
 	return out
@@ -62,7 +68,12 @@ func (o *runOutput) writeTimeline(w io.Writer) {
 		return
 	}
 	fmt.Fprintf(w, "\nMission timeline (%d of %d phases reached; each row is that stretch of the run alone)\n", o.phases.Reached, len(o.s.Timeline.Phases))
-	fmt.Fprintf(w, "  %-26s %-20s %9s %5s %8s %8s %8s %10s %9s\n", "phase", "start (UTC)", "duration", "ended", "sunlit", ">=1", "valid", "p95 error", "max gap")
+	filt := o.s.GyroFilter.Set
+	fmt.Fprintf(w, "  %-26s %-20s %9s %5s %8s %8s %8s %10s %9s", "phase", "start (UTC)", "duration", "ended", "sunlit", ">=1", "valid", "p95 error", "max gap")
+	if filt {
+		fmt.Fprintf(w, " %12s %11s %14s", "filter valid", "filter p95", "filter eclipse")
+	}
+	fmt.Fprintln(w)
 	var slews []string
 	for _, p := range o.phases.Phases {
 		h := p.Headline()
@@ -85,8 +96,12 @@ func (o *runOutput) writeTimeline(w io.Writer) {
 			slews = append(slews, fmt.Sprintf("%s: %d slew(s) back onto the law after held shadow passes, up to %.1f° and %.0f s", name, n,
 				p.Span.ReturnSlewMaxRad*180/math.Pi, p.Span.ReturnSlewMaxS))
 		}
-		fmt.Fprintf(w, "  %-26s %-20s %9s %5s %8s %8s %8s %10s %7.0f s\n", name, o.utc(p.Span.Start)[:19], scenario.Span(time.Duration(math.Round(p.Span.End-p.Span.Start)*1e9)).String(), ended,
+		fmt.Fprintf(w, "  %-26s %-20s %9s %5s %8s %8s %8s %10s %7.0f s", name, o.utc(p.Span.Start)[:19], scenario.Span(time.Duration(math.Round(p.Span.End-p.Span.Start)*1e9)).String(), ended,
 			pct(h.SunlitFraction), pct(h.Seen1), pct(h.ValidFraction), deg(p95), h.LongestGapS)
+		if filt {
+			fmt.Fprintf(w, " %12s %11s %14s", pct(h.FilterValidFraction), deg(h.FilterP95Deg), deg(h.FilterP95ShadowDeg))
+		}
+		fmt.Fprintln(w)
 	}
 	for _, ph := range o.s.Timeline.Phases[o.phases.Reached:] {
 		fmt.Fprintf(w, "  %-26s not reached: an earlier end condition was not met before the run ended\n", ph.Name)
@@ -95,6 +110,9 @@ func (o *runOutput) writeTimeline(w io.Writer) {
 		fmt.Fprintf(w, "  %s\n", sl)
 	}
 	fmt.Fprintf(w, "  (ended: the phase's end condition was met, - none set; the whole-run figures above are the whole timeline)\n")
+	if filt {
+		fmt.Fprintf(w, "  (filter: the gyro-aided filter of the whole run over the phase's samples, sunlit and eclipse, carried over from the phases before)\n")
+	}
 }
 
 // timelineCSV is timeline.csv: one row per phase span (nil without a
@@ -105,13 +123,15 @@ func (o *runOutput) timelineCSV() [][]string {
 	}
 	rows := [][]string{{"phase", "slew", "start_utc", "start_s", "duration_s", "end_condition_met", "slew_angle_deg",
 		"return_slews", "return_slew_max_deg", "return_slew_longest_s", "samples",
-		"sunlit_fraction", "seen_by_1_fraction", "seen_by_2_fraction", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg"}}
+		"sunlit_fraction", "seen_by_1_fraction", "seen_by_2_fraction", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg",
+		"filter_valid_fraction_of_run", "filter_p95_error_deg", "filter_p95_error_in_shadow_deg"}}
 	for _, p := range o.phases.Phases {
 		h := p.Headline()
 		rows = append(rows, []string{p.Span.Name, strconv.FormatBool(p.Span.Slew), o.utc(p.Span.Start), ff(p.Span.Start, 3), ff(p.Span.End-p.Span.Start, 3),
 			strconv.FormatBool(p.Span.Met), ff(p.Span.SlewAngleRad*180/math.Pi, 4),
 			strconv.Itoa(p.Span.ReturnSlews), ff(p.Span.ReturnSlewMaxRad*180/math.Pi, 4), ff(p.Span.ReturnSlewMaxS, 3), strconv.Itoa(p.Samples),
-			ff(h.SunlitFraction, 6), ff(h.Seen1, 6), ff(h.Seen2, 6), ff(h.ValidFraction, 6), ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4)})
+			ff(h.SunlitFraction, 6), ff(h.Seen1, 6), ff(h.Seen2, 6), ff(h.ValidFraction, 6), ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4),
+			ff(h.FilterValidFraction, 6), ff(h.FilterP95Deg, 4), ff(h.FilterP95ShadowDeg, 4)})
 	}
 	return rows
 }

@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -122,6 +123,86 @@ func TestTimelineReport(t *testing.T) {
 	for _, want := range []string{"Mission timeline: each phase on its own", "slew to acquisition (", "slews back after held shadows, up to", ">Mission phases (slews grey)<", "Mission timeline over the whole run"} {
 		if !strings.Contains(string(b), want) {
 			t.Errorf("report lacks %q", want)
+		}
+	}
+}
+
+// With a gyro_filter block the phase table, timeline.csv, the record's
+// timeline array and the report's phase table carry the filter over each
+// span: the run's filter, carried across the phases, so the spans' valid
+// samples add up to the run's (gyro_filter record; a definition). Without
+// the block the columns are empty and the summary has none.
+func TestTimelineCarriesTheFilter(t *testing.T) {
+	for _, filt := range []bool{true, false} {
+		text := timelineFile
+		if filt {
+			text += filterBlock
+		}
+		p := filepath.Join(t.TempDir(), "timeline.yaml")
+		if err := os.WriteFile(p, []byte(text), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		var so, se bytes.Buffer
+		dir, rep := filepath.Join(t.TempDir(), "csv"), filepath.Join(t.TempDir(), "r.html")
+		if code := runMain([]string{"run", p, "--quiet", "--csv", dir, "--report", rep}, &so, &se); code != exitOK {
+			t.Fatalf("filter %v: exit %d: %s", filt, code, se.String())
+		}
+		if got := strings.Contains(so.String(), "filter eclipse"); got != filt {
+			t.Errorf("filter %v: phase table with filter columns %v:\n%s", filt, got, so.String())
+		}
+		if b, _ := os.ReadFile(rep); bytes.Contains(b, []byte("Filter p95 in eclipse")) != filt {
+			t.Errorf("filter %v: the report's phase table disagrees", filt)
+		}
+		rows := readCSV(t, filepath.Join(dir, "timeline.csv"))
+		col := map[string]int{}
+		for i, h := range rows[0] {
+			col[h] = i
+		}
+		b, err := os.ReadFile(filepath.Join(dir, "run.json"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var rec struct {
+			Units []struct {
+				Filter *struct {
+					Valid float64 `json:"valid_fraction_of_run"`
+				} `json:"gyro_filter"`
+			} `json:"units"`
+			Timeline []map[string]any `json:"timeline"`
+		}
+		if err := json.Unmarshal(b, &rec); err != nil {
+			t.Fatal(err)
+		}
+		valid, n := 0.0, 0
+		for i, r := range rows[1:] {
+			s := rec.Timeline[i]
+			for _, name := range []string{"filter_valid_fraction_of_run", "filter_p95_error_deg", "filter_p95_error_in_shadow_deg"} {
+				k, ok := col[name]
+				if !ok {
+					t.Fatalf("timeline.csv lacks %s", name)
+				}
+				v, jv := r[k], s[name]
+				if !filt || name == "filter_p95_error_in_shadow_deg" && v == "" {
+					if v != "" || jv != nil {
+						t.Errorf("filter %v: %s %s: csv %q, JSON %v", filt, s["phase"], name, v, jv)
+					}
+					continue
+				}
+				x, err := strconv.ParseFloat(v, 64)
+				if f, ok := jv.(float64); err != nil || !ok || math.Abs(x-f) > 1e-4 {
+					t.Errorf("%s %s: csv %q, JSON %v", s["phase"], name, v, jv)
+				}
+			}
+			m := int(s["samples"].(float64))
+			n += m
+			if f, ok := s["filter_valid_fraction_of_run"].(float64); ok {
+				valid += f * float64(m)
+			}
+		}
+		if filt {
+			if want := rec.Units[0].Filter.Valid * float64(n); math.Abs(valid-want) > 1e-6*float64(n) {
+				t.Errorf("the spans hold %.3f valid filter samples, the run %.3f", valid, want)
+			}
 		}
 	}
 }

@@ -28,7 +28,11 @@
 // in eclipse against 168° held, tumbling at 1°/s with realistic errors).
 // A cosine reading's 1σ for the filter is the sensor's stated noise, dark
 // offset, gain and misalignment at full sun and its quantisation step/√12,
-// with FilterConfig.CosineSigma, in quadrature.
+// with FilterConfig.CosineSigma, in quadrature. With FilterConfig.SpanStarts
+// (the phases of a mission timeline) the nominal unit's figures are also
+// split over those spans, the filter running on across them
+// (FilterStats.Spans): a phase's figures then include the state it brought
+// in, as in flight, which a run of the phase alone would not.
 //
 // What the design review draws is kept by the run itself, when asked: a time
 // series of unit 0 (Config.SeriesStride), a short one over the first

@@ -27,7 +27,18 @@ type FilterConfig struct {
 	// HoldBoundDeg is the error (deg) up to which the filter's estimate
 	// counts as holding through a spell without a valid point estimate.
 	HoldBoundDeg float64
+	// SpanStarts, when set, splits the nominal unit's figures over spans
+	// of the run (the phases of a mission timeline): span i holds the
+	// samples from SpanStarts[i] (s since the epoch, the time of its first
+	// sample) to the next span's start, the last one to the end of the run
+	// (FilterStats.Spans). The filter itself runs on across them, as it
+	// would in flight.
+	SpanStarts []float64
 }
+
+// spanTolS is the tolerance (s) of a sample time against a span start:
+// far below any step, far above the rounding of t = k·step.
+const spanTolS = 1e-6
 
 // Validate checks the configuration.
 func (c *FilterConfig) Validate() error {
@@ -42,6 +53,11 @@ func (c *FilterConfig) Validate() error {
 	}
 	if !(c.HoldBoundDeg > 0 && c.HoldBoundDeg < 180) {
 		return fmt.Errorf("sim: filter hold bound %g°: want (0°, 180°)", c.HoldBoundDeg)
+	}
+	for i, t := range c.SpanStarts {
+		if math.IsNaN(t) || math.IsInf(t, 0) || t < 0 || i > 0 && t < c.SpanStarts[i-1] {
+			return fmt.Errorf("sim: filter span start %d at %g s: want finite, ≥ 0 and not before the one before", i, t)
+		}
 	}
 	return nil
 }
@@ -75,6 +91,30 @@ type FilterStats struct {
 	// MaxStepTurnDeg is the largest body rotation over one step (deg):
 	// the filter's linearisation is checked up to 50° a step.
 	MaxStepTurnDeg float64
+	// Spans are the figures of each span of FilterConfig.SpanStarts, for
+	// the nominal unit (unit 0) only; nil without spans.
+	Spans []FilterSpanStats
+}
+
+// FilterSpanStats are the filter's figures over the samples of one span of
+// the run (FilterConfig.SpanStarts), the filter running on from the spans
+// before.
+type FilterSpanStats struct {
+	// Samples is the number of samples in the span.
+	Samples int
+	// ValidFraction and ValidShadowFraction are the valid shares of the
+	// span's samples and of those in eclipse (NaN without any).
+	ValidFraction, ValidShadowFraction float64
+	// Err and ErrShadow are the errors over the span's valid samples and
+	// over those in eclipse.
+	Err, ErrShadow ErrorStats
+}
+
+// spanAcc accumulates one span of the filter's figures.
+type spanAcc struct {
+	samples, valid, shadow, validShadow int
+	mErr, mShadow                       Moments
+	qErr, qShadow                       *Quantiles
 }
 
 // MaxCheckedStepTurnDeg is the largest body turn per step at which the
@@ -105,7 +145,9 @@ type gyroFilter struct {
 	outStart                            float64
 	outages, held, starts               int
 	shortestBreak, longestHeld          float64
-	maxTurn                             float64 // rad
+	maxTurn                             float64   // rad
+	spans                               []spanAcc // unit 0 with span starts
+	span                                int       // the span of the last sample
 }
 
 // newGyroFilter builds unit u's filter; its gyro draws come from their own
@@ -120,6 +162,12 @@ func newGyroFilter(cfg *Config, nominal *sensor.Array, u int) *gyroFilter {
 	g := &gyroFilter{cfg: fc, f: f, rng: rng, qErr: NewQuantiles(), qShadow: NewQuantiles(), qHold: NewQuantiles(),
 		gyro:          filter.NewGyro(fc.Settings.ARW, fc.Settings.BiasSigma, fc.Settings.BiasTau, rng),
 		shortestBreak: math.Inf(1)}
+	if u == 0 && len(fc.SpanStarts) > 0 {
+		g.spans = make([]spanAcc, len(fc.SpanStarts))
+		for i := range g.spans {
+			g.spans[i].qErr, g.spans[i].qShadow = NewQuantiles(), NewQuantiles()
+		}
+	}
 	for _, s := range nominal.Sensors() {
 		g.boresite = append(g.boresite, s.Mount().Boresight())
 		c, isCos := s.(*sensor.Cosine)
@@ -198,6 +246,9 @@ func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estim
 			g.qShadow.Add(errDeg)
 		}
 	}
+	if g.spans != nil {
+		g.addToSpan(sg.t, valid, shadow, errDeg)
+	}
 	if prim.Valid {
 		g.lastDir, g.haveLast = prim.Dir, true
 	} else if shadow && g.haveLast {
@@ -221,6 +272,29 @@ func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estim
 	}
 }
 
+// addToSpan folds a sample at t into its span (samples come in time order).
+func (g *gyroFilter) addToSpan(t float64, valid, shadow bool, errDeg float64) {
+	starts := g.cfg.SpanStarts
+	for g.span+1 < len(starts) && t >= starts[g.span+1]-spanTolS {
+		g.span++
+	}
+	sp := &g.spans[g.span]
+	sp.samples++
+	if shadow {
+		sp.shadow++
+	}
+	if valid {
+		sp.valid++
+		sp.mErr.Add(errDeg)
+		sp.qErr.Add(errDeg)
+		if shadow {
+			sp.validShadow++
+			sp.mShadow.Add(errDeg)
+			sp.qShadow.Add(errDeg)
+		}
+	}
+}
+
 // closeOutage ends the running outage at t.
 func (g *gyroFilter) closeOutage(t float64) {
 	g.inOutage = false
@@ -241,6 +315,11 @@ func (g *gyroFilter) result(tEnd float64) *FilterStats {
 		Starts: g.starts, HoldBoundDeg: g.cfg.HoldBoundDeg, MaxStepTurnDeg: degOf(g.maxTurn)}
 	if math.IsInf(s.ShortestBreakS, 1) {
 		s.ShortestBreakS = math.NaN()
+	}
+	for i := range g.spans {
+		sp := &g.spans[i]
+		s.Spans = append(s.Spans, FilterSpanStats{Samples: sp.samples, ValidFraction: frac(sp.valid, sp.samples),
+			ValidShadowFraction: frac(sp.validShadow, sp.shadow), Err: errorStats(&sp.mErr, sp.qErr), ErrShadow: errorStats(&sp.mShadow, sp.qShadow)})
 	}
 	return s
 }

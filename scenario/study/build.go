@@ -17,6 +17,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum/sky"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
+	"codeberg.org/sunsight/sunsight/orbit/timeline"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
@@ -584,6 +585,9 @@ func ConfigFor(s *scenario.Scenario, sensors []scenario.Sensor, att scenario.Att
 		Panels:       panels,
 		PanelAlbedo:  s.Albedo.OnPanels,
 		Filter:       FilterConfig(s),
+	}
+	if tl, ok := law.(*timeline.Timeline); ok && cfg.Filter != nil {
+		cfg.Filter.SpanStarts = filterSpanStarts(tl.Spans, cfg.Steps(), cfg.Step)
 	}
 	return cfg, cfg.Validate()
 }

@@ -91,6 +91,18 @@ type Phases struct {
 	Phases  []PhaseResult
 }
 
+// filterSpanStarts are the times of the first sample of each span (the
+// samples SpanSamples gives it), for the gyro-aided filter's per-span
+// figures: an empty span starts where the next one does.
+func filterSpanStarts(spans []timeline.Span, steps int, step float64) []float64 {
+	out := make([]float64, len(spans))
+	for i := range spans {
+		k0, _ := SpanSamples(spans, i, steps, step)
+		out[i] = float64(min(k0, steps)) * step
+	}
+	return out
+}
+
 // PhaseResult is one span of the timeline (a phase or the slew into one)
 // run on its own: the run's step grid restricted to the span.
 type PhaseResult struct {
@@ -99,18 +111,29 @@ type PhaseResult struct {
 	// [start, end), the run's last sample with the last span): over all
 	// spans they add up to the run's samples.
 	Samples int
-	// Result is the span's run; nil with fewer than two samples.
+	// Result is the span's run; nil with fewer than two samples. It runs
+	// no gyro-aided filter: a filter carries its state across the spans,
+	// so its figures are the primary run's over the span (Filter).
 	Result *sim.Result
+	// Filter is the nominal unit's gyro-aided filter over the span in the
+	// primary run (sim.FilterStats.Spans); nil without a filter.
+	Filter *sim.FilterSpanStats
 }
 
-// Headline returns the span's headline figures (NaN without a run).
+// Headline returns the span's headline figures (NaN without a run), the
+// filter's from the primary run over the span (NaN without a filter).
 func (p PhaseResult) Headline() sim.Headline {
-	if p.Result == nil {
-		n := math.NaN()
-		return sim.Headline{SunlitFraction: n, Seen1: n, Seen2: n, Seen3: n, ValidFraction: n, LongestGapS: n,
-			P95NoAlbedoDeg: n, P95AlbedoDeg: n, P95AlbedoPartDeg: n, MaxErrorDeg: n, FilterValidFraction: n, FilterP95Deg: n, FilterP95ShadowDeg: n}
+	n := math.NaN()
+	h := sim.Headline{SunlitFraction: n, Seen1: n, Seen2: n, Seen3: n, ValidFraction: n, LongestGapS: n,
+		P95NoAlbedoDeg: n, P95AlbedoDeg: n, P95AlbedoPartDeg: n, MaxErrorDeg: n}
+	if p.Result != nil {
+		h = p.Result.Headline()
 	}
-	return p.Result.Headline()
+	h.FilterValidFraction, h.FilterP95Deg, h.FilterP95ShadowDeg = n, n, n
+	if f := p.Filter; f != nil {
+		h.FilterValidFraction, h.FilterP95Deg, h.FilterP95ShadowDeg = f.ValidFraction, f.Err.P95Deg, f.ErrShadow.P95Deg
+	}
+	return h
 }
 
 // TimelineOf returns the planned timeline a configuration flies (nil when
@@ -133,19 +156,31 @@ func SpanSamples(spans []timeline.Span, i, steps int, step float64) (k0, k1 int)
 
 // RunPhases runs each span of the timeline cfg flies on its own stretch of
 // the run's step grid (same units, seed and models), for the per-phase
-// figures.
-func RunPhases(ctx context.Context, cfg sim.Config) (Phases, error) {
+// figures; the gyro-aided filter's come from primary, the run of cfg
+// (its nominal unit's FilterStats.Spans).
+func RunPhases(ctx context.Context, cfg sim.Config, primary *sim.Result) (Phases, error) {
 	tl := TimelineOf(cfg)
 	if tl == nil {
 		return Phases{}, nil
 	}
 	out := Phases{Reached: tl.Reached}
 	steps := cfg.Steps()
+	var spans []sim.FilterSpanStats
+	if cfg.Filter != nil {
+		if primary == nil || primary.Nominal.Filter == nil || len(primary.Nominal.Filter.Spans) != len(tl.Spans) {
+			return out, fmt.Errorf("study: the timeline's filter figures need the primary run's filter over its %d spans", len(tl.Spans))
+		}
+		spans = primary.Nominal.Filter.Spans
+	}
 	for i, sp := range tl.Spans {
 		k0, k1 := SpanSamples(tl.Spans, i, steps, cfg.Step)
 		pr := PhaseResult{Span: sp, Samples: max(0, k1-k0+1)}
+		if spans != nil {
+			pr.Filter = &spans[i]
+		}
 		if k1 > k0 {
 			c := cfg
+			c.Filter = nil // the primary run's, over the span
 			t0 := float64(k0) * cfg.Step
 			c.Epoch = cfg.Epoch.Add(time.Duration(math.Round(t0 * 1e9)))
 			c.Duration = float64(k1-k0) * cfg.Step

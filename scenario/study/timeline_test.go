@@ -2,6 +2,7 @@ package study
 
 import (
 	"context"
+	"fmt"
 	"math"
 	"testing"
 
@@ -10,6 +11,7 @@ import (
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 	"codeberg.org/sunsight/sunsight/orbit/timeline"
 	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // timelineScenario is an invented 6U from tumbling deployment to nadir
@@ -77,7 +79,7 @@ func TestTimelineScenario(t *testing.T) {
 	if slews != 2 {
 		t.Errorf("%d slews, want 2", slews)
 	}
-	ph, err := RunPhases(context.Background(), cfg)
+	ph, err := RunPhases(context.Background(), cfg, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -102,5 +104,83 @@ func TestTimelineScenario(t *testing.T) {
 				t.Errorf("safe phase seen ≥1 %g, ≥2 %g; want 1 and 0", h.Seen1, h.Seen2)
 			}
 		}
+	}
+}
+
+// The gyro-aided filter of a timeline run runs on across the phases, as it
+// would in flight: each phase row takes the primary run's filter over the
+// span (FilterStats.Spans) and the phase runs fly none. The spans split the
+// run's filter exactly (their samples and valid samples add up to the
+// run's: a definition), and the first span, where the filter starts as
+// the run does, is the filter of a run stopped at the span's end (same
+// seed and gyro draws: identical figures).
+func TestTimelinePhasesTakeTheRunsFilter(t *testing.T) {
+	s, err := scenario.Parse([]byte(timelineScenario+`gyro_filter:
+  angle_random_walk_deg_rt_h: 0.3
+  bias_instability_deg_h: 10
+  bias_time_s: 600
+  hold_bound_deg: 10
+`), ".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Units = 2
+	res, err := sim.Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := res.Nominal.Filter
+	if f == nil || len(f.Spans) != len(TimelineOf(cfg).Spans) {
+		t.Fatalf("filter %+v: want one span per timeline span", f)
+	}
+	if res.Units[1].Filter.Spans != nil {
+		t.Error("unit 1 keeps span figures: only the nominal unit's are reported")
+	}
+	ph, err := RunPhases(context.Background(), cfg.Lean(), res)
+	if err != nil {
+		t.Fatal(err)
+	}
+	samples, valid := 0, 0.0
+	for i, p := range ph.Phases {
+		sp := f.Spans[i]
+		h := p.Headline()
+		t.Logf("%-24s %4d samples: filter valid %.4f, p95 %.3f°, in eclipse %.3f°", p.Span.Name, sp.Samples, h.FilterValidFraction, h.FilterP95Deg, h.FilterP95ShadowDeg)
+		if sp.Samples != p.Samples {
+			t.Errorf("%s: filter span of %d samples, phase of %d", p.Span.Name, sp.Samples, p.Samples)
+		}
+		if p.Result != nil && p.Result.Nominal.Filter != nil {
+			t.Errorf("%s: the phase run flew a filter of its own", p.Span.Name)
+		}
+		if p.Samples > 0 && (h.FilterValidFraction != sp.ValidFraction || !(h.FilterP95Deg == sp.Err.P95Deg || sp.Err.N == 0)) {
+			t.Errorf("%s: headline %+v, span %+v", p.Span.Name, h, sp)
+		}
+		samples += sp.Samples
+		if sp.Samples > 0 {
+			valid += sp.ValidFraction * float64(sp.Samples)
+		}
+	}
+	if n := cfg.Steps(); samples != n || math.Abs(valid-f.ValidFraction*float64(n)) > 1e-6 {
+		t.Errorf("spans hold %d samples, %.3f valid; the run %d, %.3f valid", samples, valid, n, f.ValidFraction*float64(n))
+	}
+	_, k1 := SpanSamples(TimelineOf(cfg).Spans, 0, cfg.Steps(), cfg.Step)
+	first := cfg.Lean()
+	first.Duration, first.Units, first.Filter = float64(k1)*cfg.Step, 1, nil
+	fc := *cfg.Filter
+	fc.SpanStarts = nil
+	first.Filter = &fc
+	r0, err := sim.Run(context.Background(), first)
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, want := f.Spans[0], r0.Nominal.Filter
+	same := func(a, b sim.ErrorStats) bool { return fmt.Sprint(a) == fmt.Sprint(b) } // NaN fields alike
+	t.Logf("whole run: filter valid %.4f, p95 %.3f°, in eclipse %.3f°", f.ValidFraction, f.Err.P95Deg, f.ErrShadow.P95Deg)
+	if got.Samples != r0.Steps || got.ValidFraction != want.ValidFraction || !same(got.Err, want.Err) || !same(got.ErrShadow, want.ErrShadow) {
+		t.Errorf("first span %+v; the run of the span alone: %d samples, valid %v, error %+v, in eclipse %+v",
+			got, r0.Steps, want.ValidFraction, want.Err, want.ErrShadow)
 	}
 }

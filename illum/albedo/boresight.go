@@ -237,16 +237,12 @@ func (t *BoresightTable) buildRadius(m *Model, sensors []Sensor, r int) {
 				clear(steps)
 				for c := range geo.cells {
 					cl := &geo.cells[c]
-					cc := n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz
-					if cc <= cw.outer || first[c] >= end[c] {
+					if first[c] >= end[c] {
 						continue
 					}
-					f := cc
-					if !(cw.cosine && cc >= cw.inner) {
-						var frac float64
-						if f, frac = cw.edge(cc); frac == 0 {
-							continue
-						}
+					f, frac := cw.at(n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz)
+					if frac == 0 {
+						continue
 					}
 					s, co := f*ws[c], f*wc[c]
 					v := [coef]float64{s, s * cl.ux, s * cl.uy, s * cl.uz, co, co * cl.ux, co * cl.uy, co * cl.uz}
@@ -339,16 +335,12 @@ func (t *BoresightTable) buildRadiusZonal(m *Model, sensors []Sensor, r int) {
 				clear(steps)
 				for c := range geo.cells {
 					cl := &geo.cells[c]
-					cc := n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz
-					if cc <= cw.outer || first[c] >= end[c] {
+					if first[c] >= end[c] {
 						continue
 					}
-					f := cc
-					if !(cw.cosine && cc >= cw.inner) {
-						var frac float64
-						if f, frac = cw.edge(cc); frac == 0 {
-							continue
-						}
+					f, frac := cw.at(n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz)
+					if frac == 0 {
+						continue
 					}
 					s, co := f*ws[c], f*wc[c]
 					for q, b := range basis[c] {

@@ -383,6 +383,19 @@ func newConeWeight(sn *Sensor, hw float64) coneWeight {
 	return coneWeight{cosH: cosH, hw: hw, inner: cosH + hw, outer: cosH - hw, resp: sn.Response, cosine: sn.Response.IsCosine()}
 }
 
+// at returns the weight f of a cell at cosine c from the boresight and the
+// share frac of the cell inside the cone (frac = 0: out of view): c itself
+// for a cosine sensor with the cell wholly inside, else edge.
+func (k *coneWeight) at(c float64) (f, frac float64) {
+	switch {
+	case c <= k.outer:
+		return 0, 0
+	case k.cosine && c >= k.inner:
+		return c, 1
+	}
+	return k.edge(c)
+}
+
 // edge returns the weight f of a cell at c with outer < c and not (c ≥
 // inner on a cosine response), and the share frac of the cell inside the
 // cone; frac = 0 means the cell is out of view. The common case (a cosine
@@ -441,6 +454,7 @@ func (m *Model) sumSensor(sn *Sensor, ex, ey, ez r3.Vec) Result {
 			if c <= cw.outer || (plane && behind(p, l)) {
 				continue
 			}
+			// coneWeight.at written out: the common case stays in the loop.
 			f, frac := c, 1.0
 			if !(cw.cosine && c >= cw.inner) {
 				if f, frac = cw.edge(c); frac == 0 {

@@ -202,15 +202,9 @@ func (t *LocalTable) build(m *Model, sensors []Sensor) {
 		}
 		for c := range geo.cells {
 			cl := &geo.cells[c]
-			cc := n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz
-			if cc <= cw.outer || behind(p, cl) {
+			f, frac := cw.at(n.X*cl.ux + n.Y*cl.uy + n.Z*cl.uz)
+			if frac == 0 || behind(p, cl) {
 				continue
-			}
-			f, frac := cc, 1.0
-			if !(cw.cosine && cc >= cw.inner) {
-				if f, frac = cw.edge(cc); frac == 0 {
-					continue
-				}
 			}
 			cones[s] = append(cones[s], coneCell{c: int32(c), f: f, frac: frac})
 		}

@@ -39,7 +39,8 @@ type failedSensorRecord struct {
 }
 
 // failedFigures are a failed layout's figures: uncorrected, then after the
-// on-board albedo correction (null without albedo.onboard).
+// on-board albedo correction (null without albedo.onboard), then the
+// gyro-aided filter on the sensors left (null without gyro_filter).
 type failedFigures struct {
 	Valid          num `json:"valid_fraction"`
 	LongestGapS    num `json:"longest_gap_s"`
@@ -48,11 +49,15 @@ type failedFigures struct {
 	ValidCorrected num `json:"valid_fraction_onboard_corrected"`
 	GapCorrectedS  num `json:"longest_gap_onboard_corrected_s"`
 	P95Corrected   num `json:"p95_error_onboard_corrected_deg"`
+	FilterValid    num `json:"filter_valid_fraction_of_run"`
+	FilterP95      num `json:"filter_p95_error_deg"`
+	FilterP95Shade num `json:"filter_p95_error_in_shadow_deg"`
 }
 
 func figuresOf(h sim.Headline) failedFigures {
 	return failedFigures{num(h.ValidFraction), num(h.LongestGapS), num(h.P95NoAlbedoDeg), num(h.P95AlbedoDeg),
-		num(h.ValidFractionCorrected), num(h.LongestGapCorrectedS), num(h.P95CorrectedDeg)}
+		num(h.ValidFractionCorrected), num(h.LongestGapCorrectedS), num(h.P95CorrectedDeg),
+		num(h.FilterValidFraction), num(h.FilterP95Deg), num(h.FilterP95ShadowDeg)}
 }
 
 func (o *runOutput) singleFailureJSON() *singleFailureRecord {
@@ -83,16 +88,23 @@ func (o *runOutput) writeSingleFailure(w io.Writer) {
 	}
 	h := o.res.Headline()
 	corr := o.s.Albedo.Onboard != nil
+	filt := o.s.GyroFilter.Set
 	fmt.Fprintf(w, "\nSingle failure over time (%s estimator, primary attitude; each sensor failed in turn)\n", h.Estimator)
 	fmt.Fprintf(w, "  %-28s %8s %9s %13s %11s", "failed sensor", "valid", "max gap", "p95 no albedo", "p95 albedo")
 	if corr {
 		fmt.Fprintf(w, " %10s %9s %9s", "valid corr", "gap corr", "p95 corr")
+	}
+	if filt {
+		fmt.Fprintf(w, " %12s %11s %14s", "filter valid", "filter p95", "filter eclipse")
 	}
 	fmt.Fprintln(w)
 	row := func(name string, g sim.Headline) {
 		fmt.Fprintf(w, "  %-28s %8s %7.0f s %13s %11s", name, pct(g.ValidFraction), g.LongestGapS, deg(g.P95NoAlbedoDeg), deg(g.P95AlbedoDeg))
 		if corr {
 			fmt.Fprintf(w, " %10s %7.0f s %9s", pct(g.ValidFractionCorrected), g.LongestGapCorrectedS, deg(g.P95CorrectedDeg))
+		}
+		if filt {
+			fmt.Fprintf(w, " %12s %11s %14s", pct(g.FilterValidFraction), deg(g.FilterP95Deg), deg(g.FilterP95ShadowDeg))
 		}
 		fmt.Fprintln(w)
 	}
@@ -118,11 +130,14 @@ func (o *runOutput) writeSingleFailure(w io.Writer) {
 		}
 	}
 	fmt.Fprintf(w, "  (worst: lowest valid share, then largest p95, then longest gap, on the %s estimate the targets judge;\n", judgeWord(o.s))
+	note := "   a failed sensor is removed from the layout"
 	if corr {
-		fmt.Fprintf(w, "   a failed sensor is removed from the layout; corr: after the on-board albedo correction)\n")
-	} else {
-		fmt.Fprintf(w, "   a failed sensor is removed from the layout)\n")
+		note += "; corr: after the on-board albedo correction"
 	}
+	if filt {
+		note += ";\n   filter: the gyro-aided filter on the sensors left, whole run: valid share of the run, p95 over the run and in eclipse"
+	}
+	fmt.Fprintf(w, "%s)\n", note)
 }
 
 // judgeWord names the estimate the targets judge, for table notes.
@@ -144,13 +159,15 @@ func (o *runOutput) singleFailureCSV() [][]string {
 		return nil
 	}
 	rows := [][]string{{"failed_sensor", "pair", "worst", "valid_fraction", "longest_gap_s", "p95_error_no_albedo_deg", "p95_error_albedo_deg",
-		"valid_fraction_onboard_corrected", "longest_gap_onboard_corrected_s", "p95_error_onboard_corrected_deg"}}
+		"valid_fraction_onboard_corrected", "longest_gap_onboard_corrected_s", "p95_error_onboard_corrected_deg",
+		"filter_valid_fraction_of_run", "filter_p95_error_deg", "filter_p95_error_in_shadow_deg"}}
 	add := func(fs []study.FailedSensor, worst int, pair bool) {
 		for i, f := range fs {
 			h := f.Headline
 			rows = append(rows, []string{f.Sensor, strconv.FormatBool(pair), strconv.FormatBool(i == worst), ff(h.ValidFraction, 6),
 				ff(h.LongestGapS, 1), ff(h.P95NoAlbedoDeg, 4), ff(h.P95AlbedoDeg, 4),
-				ff(h.ValidFractionCorrected, 6), ff(h.LongestGapCorrectedS, 1), ff(h.P95CorrectedDeg, 4)})
+				ff(h.ValidFractionCorrected, 6), ff(h.LongestGapCorrectedS, 1), ff(h.P95CorrectedDeg, 4),
+				ff(h.FilterValidFraction, 6), ff(h.FilterP95Deg, 4), ff(h.FilterP95ShadowDeg, 4)})
 		}
 	}
 	add(sf.Rows, sf.Worst, false)

@@ -3,8 +3,11 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
+	"slices"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -61,7 +64,7 @@ func TestSingleFailureInSummaryJSONAndExit(t *testing.T) {
 	if code := runMain([]string{"run", p, "--quiet", "--csv", dir}, &so, &se); code != exitTargetFailed {
 		t.Fatalf("--csv exit %d, want %d: %s", code, exitTargetFailed, se.String())
 	}
-	if h := csvHeader(t, filepath.Join(dir, "single_failure.csv")); len(h) != 10 || h[0] != "failed_sensor" {
+	if h := csvHeader(t, filepath.Join(dir, "single_failure.csv")); len(h) != 13 || h[0] != "failed_sensor" {
 		t.Errorf("single_failure.csv header %v", h)
 	}
 	dict, _ := os.ReadFile("../../docs/data-dictionary.md")
@@ -177,6 +180,97 @@ func TestReportShowsSingleFailure(t *testing.T) {
 	for _, want := range []string{"Single failure over time", "(worst)", "(worst pair)", "targets failed"} {
 		if !strings.Contains(html, want) {
 			t.Errorf("report lacks %q", want)
+		}
+	}
+}
+
+// With a gyro_filter block the single-failure table, the record's failed
+// entries, single_failure.csv and the report's table carry the filter
+// flown on the sensors left. The replayed layout's filter is that of a run
+// of the scenario written without the failed sensor (its gyro_filter
+// record); without the block the figures are null and the columns empty.
+func TestSingleFailureCarriesTheFilter(t *testing.T) {
+	for _, filt := range []bool{true, false} {
+		text := singleFailureFile
+		if filt {
+			text += filterBlock
+		}
+		p := filepath.Join(t.TempDir(), "sf.yaml")
+		if err := os.WriteFile(p, []byte(text), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		dir, rep := filepath.Join(t.TempDir(), "csv"), filepath.Join(t.TempDir(), "r.html")
+		var so, se bytes.Buffer
+		if code := runMain([]string{"run", p, "--quiet", "--csv", dir, "--report", rep}, &so, &se); code != exitTargetFailed {
+			t.Fatalf("filter %v: exit %d: %s", filt, code, se.String())
+		}
+		if got := strings.Contains(so.String(), "filter eclipse"); got != filt {
+			t.Errorf("filter %v: table with filter columns %v:\n%s", filt, got, so.String())
+		}
+		if b, _ := os.ReadFile(rep); bytes.Contains(b, []byte("Filter p95 in eclipse")) != filt {
+			t.Errorf("filter %v: the report's table disagrees", filt)
+		}
+		b, err := os.ReadFile(filepath.Join(dir, "run.json"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var rec struct {
+			SF struct {
+				Failed []map[string]any `json:"failed"`
+			} `json:"single_failure"`
+		}
+		if err := json.Unmarshal(b, &rec); err != nil {
+			t.Fatal(err)
+		}
+		rows := readCSV(t, filepath.Join(dir, "single_failure.csv"))
+		col := map[string]int{}
+		for i, h := range rows[0] {
+			col[h] = i
+		}
+		names := []string{"filter_valid_fraction_of_run", "filter_p95_error_deg", "filter_p95_error_in_shadow_deg"}
+		for i, f := range rec.SF.Failed {
+			for _, n := range names {
+				v, jv := rows[1+i][col[n]], f[n]
+				if !filt {
+					if v != "" || jv != nil {
+						t.Errorf("no filter: %s %s: csv %q, JSON %v", f["failed_sensor"], n, v, jv)
+					}
+					continue
+				}
+				x, err := strconv.ParseFloat(v, 64)
+				if g, ok := jv.(float64); err != nil || !ok || math.Abs(x-g) > 1e-4 {
+					t.Errorf("%s %s: csv %q, JSON %v", f["failed_sensor"], n, v, jv)
+				}
+			}
+		}
+		if !filt {
+			continue
+		}
+		// The scenario flown without css-px, run in full.
+		without := strings.Join(slices.DeleteFunc(strings.Split(text, "\n"), func(l string) bool { return strings.Contains(l, "css-px") }), "\n")
+		without = strings.Replace(without, "targets:\n  n_minus_1: {min_valid_fraction: 0.99, max_error_p95_deg: 60, max_gap: 10h, also_pairs: true}\n", "", 1)
+		q := filepath.Join(t.TempDir(), "without.yaml")
+		if err := os.WriteFile(q, []byte(without), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		so.Reset()
+		if code := runMain([]string{"run", q, "--quiet", "--json"}, &so, &se); code != exitOK {
+			t.Fatalf("without css-px: exit %d: %s", code, se.String())
+		}
+		var full struct {
+			Headline map[string]any `json:"headline"`
+		}
+		if err := json.Unmarshal(so.Bytes(), &full); err != nil {
+			t.Fatal(err)
+		}
+		f := rec.SF.Failed[0]
+		if f["failed_sensor"] != "css-px" {
+			t.Fatalf("first failed entry %v", f["failed_sensor"])
+		}
+		for _, n := range names {
+			if f[n] != full.Headline[n] || f[n] == nil {
+				t.Errorf("css-px failed: %s %v replayed, %v run without it", n, f[n], full.Headline[n])
+			}
 		}
 	}
 }

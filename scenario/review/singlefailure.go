@@ -23,10 +23,18 @@ func AddSingleFailure(r *plots.Report, s *scenario.Scenario, cfg sim.Config, res
 		t.Header = append(t.Header, "Valid corrected (% of sunlit)", "Longest gap corrected (s)", "p95 corrected (°)")
 		t.Note += " Corrected: after the on-board albedo correction."
 	}
+	filt := s.GyroFilter.Set
+	if filt {
+		t.Header = append(t.Header, "Filter valid (% of run)", "Filter p95 (°)", "Filter p95 in eclipse (°)")
+		t.Note += " Filter: the gyro-aided filter on the sensors left, over the whole run, sunlit and eclipse."
+	}
 	row := func(name string, g sim.Headline) []string {
 		r := []string{name, pct(g.ValidFraction), num(g.LongestGapS, 0), num(g.P95NoAlbedoDeg, 2), num(g.P95AlbedoDeg, 2)}
 		if corr {
 			r = append(r, pct(g.ValidFractionCorrected), num(g.LongestGapCorrectedS, 0), num(g.P95CorrectedDeg, 2))
+		}
+		if filt {
+			r = append(r, pct(g.FilterValidFraction), num(g.FilterP95Deg, 2), num(g.FilterP95ShadowDeg, 2))
 		}
 		return r
 	}

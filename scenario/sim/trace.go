@@ -97,8 +97,21 @@ func TraceBytes(cfg *Config) int64 {
 
 // Run scores the subset of candidates (indices into the trace's sensor
 // list) with the given estimators over units Monte Carlo units, as Run would
-// with only those sensors flown. The result's eclipses are the trace's.
+// with only those sensors flown, without the gyro-aided filter (a layout
+// search scores by the point estimators). The result's eclipses are the
+// trace's.
 func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator, units int) (*Result, error) {
+	return tr.run(ctx, subset, ests, units, false)
+}
+
+// RunWithFilter is Run with the trace's gyro-aided filter (Config.Filter)
+// flown on the subset's readings, as Run would fly it: the single-failure
+// study reports the filter of each reduced layout.
+func (tr *Trace) RunWithFilter(ctx context.Context, subset []int, ests []sensor.Estimator, units int) (*Result, error) {
+	return tr.run(ctx, subset, ests, units, true)
+}
+
+func (tr *Trace) run(ctx context.Context, subset []int, ests []sensor.Estimator, units int, withFilter bool) (*Result, error) {
 	if len(subset) == 0 {
 		return nil, fmt.Errorf("sim: empty sensor subset")
 	}
@@ -132,6 +145,9 @@ func (tr *Trace) Run(ctx context.Context, subset []int, ests []sensor.Estimator,
 	cfg.Array, cfg.Viewers, cfg.Blocked, cfg.Estimators = arr, viewers, blocked, ests
 	cfg.Gates = gatesFor(tr.cfg, ests)
 	cfg.MountNormals = normals
+	if !withFilter {
+		cfg.Filter = nil
+	}
 	return tr.replay(ctx, &cfg, subset, units, 1)
 }
 
@@ -159,6 +175,7 @@ func (tr *Trace) RunArray(ctx context.Context, arr *sensor.Array, withAlbedo boo
 	if !withAlbedo {
 		cfg.NewAlbedo, cfg.NewCorrection = nil, nil
 	}
+	cfg.Filter = nil // a budget case scores the point estimators
 	all := make([]int, arr.Len())
 	for i := range all {
 		all[i] = i
@@ -172,9 +189,6 @@ func (tr *Trace) RunArray(ctx context.Context, arr *sensor.Array, withAlbedo boo
 // once and asks for one each.
 func (tr *Trace) replay(ctx context.Context, cfg *Config, subset []int, units, workers int) (*Result, error) {
 	*cfg = cfg.Lean()
-	// Subsets are scored by their point estimators; the filter is the
-	// full run's.
-	cfg.Filter = nil
 	res := tr.result
 	units = max(units, 1)
 	res.Units = make([]*UnitResult, units)

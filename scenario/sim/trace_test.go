@@ -59,6 +59,60 @@ func TestTraceReplayEqualsFullRun(t *testing.T) {
 	}
 }
 
+// RunWithFilter flies the gyro-aided filter on the subset's readings: the
+// figures, the filter's included, are those of a full run with only that
+// subset flown (same gyro draws); Run scores without the filter.
+func TestTraceRunWithFilterEqualsFullRun(t *testing.T) {
+	cfg := referenceCase(t, 0.5, true)
+	cfg.Units = 2
+	cfg.NoAlbedoTable = true
+	cfg.Filter = filterConfig()
+	// Least squares first: the filter starts from the primary estimate,
+	// and opposite pairs gives none with a face sensor failed.
+	cfg.Estimators = []sensor.Estimator{sensor.LeastSquares{}, sensor.OppositePairs{}}
+	cfg.Array = faceArray(t, 90) // three faces in the sun: least squares valid with one failed
+	tr, err := NewTrace(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	subset := []int{0, 1, 2, 4, 5} // -Y failed
+	got, err := tr.RunWithFilter(context.Background(), subset, cfg.Estimators, cfg.Units)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var ss []sensor.Sensor
+	for _, i := range subset {
+		ss = append(ss, cfg.Array.Sensors()[i])
+	}
+	full := cfg
+	if full.Array, err = sensor.NewArray(ss...); err != nil {
+		t.Fatal(err)
+	}
+	want, err := Run(context.Background(), full)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got.Nominal.Filter == nil || got.Nominal.Filter.Err.N == 0 {
+		t.Fatalf("the replay flew no filter: %+v", got.Nominal.Filter)
+	}
+	for u := range got.Units {
+		if a, b := fmt.Sprintf("%+v", *got.Units[u].Filter), fmt.Sprintf("%+v", *want.Units[u].Filter); a != b {
+			t.Fatalf("unit %d: replayed filter\n%s\nfull run\n%s", u, a, b)
+		}
+		got.Units[u].Filter, want.Units[u].Filter = nil, nil // compared; showUnits prints the pointer
+	}
+	if a, b := showUnits(got), showUnits(want); a != b {
+		t.Fatalf("replay differs from the full run:\n%s\n%s", a, b)
+	}
+	plain, err := tr.Run(context.Background(), subset, cfg.Estimators, cfg.Units)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if plain.Nominal.Filter != nil {
+		t.Error("Run flew the filter")
+	}
+}
+
 // Replaying the whole layout with another error model (a budget case) gives
 // the figures of a full run with that array, with and without albedo, on one
 // and two workers; an array of other mounts is refused.

@@ -91,7 +91,7 @@ func RunSingleFailure(ctx context.Context, s *scenario.Scenario, base sim.Config
 					subset = append(subset, j)
 				}
 			}
-			res, err = tr.Run(ctx, subset, base.Estimators, base.Units)
+			res, err = tr.RunWithFilter(ctx, subset, base.Estimators, base.Units)
 		} else {
 			res, err = runWithout(ctx, s, base, failed...)
 		}

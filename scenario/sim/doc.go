@@ -22,7 +22,9 @@
 // output of each step is the rotation between the attitudes at its ends
 // (filter.DeltaAngle) plus the gyro's bias and angle random walk, drawn from
 // a stream of their own; the filter restarts from the primary estimate when
-// it is not valid. Its shares and errors run over every sample, sunlit or
+// it is not valid, and when it has stayed more than 30° from a valid primary
+// estimate for three steps (the monitor: unmodelled albedo can pull it off
+// while its own covariance stays small; filterMonitorSteps). Its shares and errors run over every sample, sunlit or
 // not, and the last valid primary estimate held in body axes through shadow
 // is kept beside it for comparison (TestFilterHoldsThroughEclipse: 3.7° p95
 // in eclipse against 168° held, tumbling at 1°/s with realistic errors).

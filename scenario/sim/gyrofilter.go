@@ -134,6 +134,7 @@ type gyroFilter struct {
 	prev     bodyMatrix
 	prevT    float64
 	started  bool // a step has been seen
+	disagree int  // steps in a row far from a valid point estimate
 
 	// accumulator
 	samples, valid, shadow, validShadow int
@@ -181,6 +182,21 @@ func newGyroFilter(cfg *Config, nominal *sensor.Array, u int) *gyroFilter {
 	return g
 }
 
+// The filter's monitor (common practice, no source): the filter is started
+// again from the point estimate after filterMonitorSteps steps in a row
+// more than filterDisagreeRad from a valid point estimate. Readings it does
+// not model, albedo on the faces toward the Earth above all, can pull it
+// far off while its innovations stay small (101° p95 in a nadir phase with
+// uniform albedo before the monitor, 29° with it:
+// TestFilterRestartsWhenItLeavesTheSensors). Three steps: one noisy step is
+// not a divergence; 30°: beyond the coarse point estimates' own errors with
+// albedo in the bundled examples. In eclipse there is no point estimate
+// and the filter holds on the gyro.
+const (
+	filterMonitorSteps = 3
+	filterDisagreeRad  = 30 * math.Pi / 180
+)
+
 // minDirSigma is the least 1σ (rad) the filter gives a two-axis direction:
 // 0.001°, a floor against a zero variance from a sensor stated perfect
 // (common practice, no source).
@@ -226,6 +242,19 @@ func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estim
 			} else {
 				g.f.Direction(r.Dir, max(g.sigma[i], r.Sigma, minDirSigma))
 			}
+		}
+		// The monitor: far from a valid point estimate step after step,
+		// the filter has left what the sensors say, whatever its
+		// covariance claims; it starts again from the point estimate.
+		if prim.Valid && g.f.Valid() && angleBetween(g.f.Sun(), prim.Dir) > filterDisagreeRad {
+			g.disagree++
+		} else {
+			g.disagree = 0
+		}
+		if g.disagree >= filterMonitorSteps {
+			g.disagree = 0
+			g.f.Start(prim.Dir)
+			g.starts++
 		}
 	}
 	g.samples++

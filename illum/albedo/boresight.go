@@ -493,7 +493,7 @@ func (t *BoresightTable) At(f *SunFrame, n r3.Vec) Result {
 	if t.ch != 1 {
 		return t.atZonal(f, mirror, jθ, bθ, jφ, bφ)
 	}
-	var v [boresightVals]float64
+	var v0, v1, v2, v3 float64 // E and E·Dir (boresightVals = 4)
 	rows := 1
 	if len(t.radii) > 1 {
 		rows = 2
@@ -517,22 +517,25 @@ func (t *BoresightTable) At(f *SunFrame, n r3.Vec) Result {
 				}
 				row := plane[((jθ+dθ)*t.nφ+jφ)*boresightVals:][:2*boresightVals]
 				w0, w1 := wθ*(1-bφ), wθ*bφ
-				for c := range boresightVals {
-					v[c] += w0*float64(row[c]) + w1*float64(row[boresightVals+c])
-				}
+				// The four values written out (the same sums in the same
+				// order), kept in registers.
+				v0 += w0*float64(row[0]) + w1*float64(row[4])
+				v1 += w0*float64(row[1]) + w1*float64(row[5])
+				v2 += w0*float64(row[2]) + w1*float64(row[6])
+				v3 += w0*float64(row[3]) + w1*float64(row[7])
 			}
 		}
 	}
-	n2 := v[1]*v[1] + v[2]*v[2] + v[3]*v[3]
-	if !(v[0] > 0) || !(n2 > 0) {
+	n2 := v1*v1 + v2*v2 + v3*v3
+	if !(v0 > 0) || !(n2 > 0) {
 		return Result{}
 	}
 	inv := 1 / math.Sqrt(n2)
-	dx, dy, dz := v[1]*inv, v[2]*inv, v[3]*inv
+	dx, dy, dz := v1*inv, v2*inv, v3*inv
 	if mirror {
 		dy = -dy
 	}
-	return Result{Irradiance: v[0] * f.scale, Dir: r3.Vec{
+	return Result{Irradiance: v0 * f.scale, Dir: r3.Vec{
 		X: dx*f.ex.X + dy*f.ey.X + dz*f.ez.X,
 		Y: dx*f.ex.Y + dy*f.ey.Y + dz*f.ez.Y,
 		Z: dx*f.ex.Z + dy*f.ey.Z + dz*f.ez.Z,

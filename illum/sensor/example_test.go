@@ -54,3 +54,32 @@ func ExampleQuadrant() {
 	// measured 20.0000° off boresight, valid true
 	// FOV cone 76.7°
 }
+
+// Three ideal cosine sensors read in one pass through a bank, without and
+// with an albedo of 5 % of full sun on each: the sensor on +X, 30° from the
+// sun, reads cos 30° = 0.866 (closed form), the one on +Y, 60° from it,
+// 0.5, and the one on −X only the albedo.
+func ExampleCosineBank() {
+	var cs []*sensor.Cosine
+	for _, f := range []string{"+X", "+Y", "-X"} {
+		face, _ := sensor.ParseFace(f)
+		m, _ := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
+		c, _ := sensor.NewCosine(sensor.CosineSpec{Name: "css" + f, Mount: m, HalfAngle: math.Pi / 2, Threshold: 0.01})
+		cs = append(cs, c)
+	}
+	bank := sensor.NewCosineBank(cs)
+	sun := r3.Vec{X: math.Cos(math.Pi / 6), Y: math.Sin(math.Pi / 6)}
+	alb := make([]sensor.Albedo, bank.Len())
+	for i := range alb {
+		alb[i].Irradiance = 0.05 * sensor.SolarConstant
+	}
+	noAlb, withAlb := make([]sensor.Reading, bank.Len()), make([]sensor.Reading, bank.Len())
+	bank.ReadPair(noAlb, withAlb, sun, sensor.SolarConstant, alb, nil, nil)
+	for i, c := range cs {
+		fmt.Printf("%s: %.3f (valid %v), with albedo %.3f\n", c.Name(), noAlb[i].Signal, noAlb[i].Valid, withAlb[i].Signal)
+	}
+	// Output:
+	// css+X: 0.866 (valid true), with albedo 0.916
+	// css+Y: 0.500 (valid true), with albedo 0.550
+	// css-X: 0.000 (valid false), with albedo 0.050
+}

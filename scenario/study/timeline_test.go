@@ -115,24 +115,7 @@ func TestTimelineScenario(t *testing.T) {
 // the run does, is the filter of a run stopped at the span's end (same
 // seed and gyro draws: identical figures).
 func TestTimelinePhasesTakeTheRunsFilter(t *testing.T) {
-	s, err := scenario.Parse([]byte(timelineScenario+`gyro_filter:
-  angle_random_walk_deg_rt_h: 0.3
-  bias_instability_deg_h: 10
-  bias_time_s: 600
-  hold_bound_deg: 10
-`), ".")
-	if err != nil {
-		t.Fatal(err)
-	}
-	cfg, err := Config(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	cfg.Units = 2
-	res, err := sim.Run(context.Background(), cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
+	cfg, res := runTimelineWithFilter(t)
 	f := res.Nominal.Filter
 	if f == nil || len(f.Spans) != len(TimelineOf(cfg).Spans) {
 		t.Fatalf("filter %+v: want one span per timeline span", f)
@@ -185,14 +168,10 @@ func TestTimelinePhasesTakeTheRunsFilter(t *testing.T) {
 	}
 }
 
-// Uniform albedo on the faces toward the Earth, which the filter does not
-// model, pulls it far off in the nadir science phase while its innovations
-// stay small: unchecked it stayed "valid" with a p95 of 101° there, against
-// 9° for the point estimate. The filter's monitor (scenario/sim: restart
-// from the point estimate after three steps more than 30° from it) brings
-// it back: no span is valid with a p95 beyond
-// 45° (29° in science; a bound of our choice, common practice, no source).
-func TestFilterRestartsWhenItLeavesTheSensors(t *testing.T) {
+// runTimelineWithFilter runs the timeline scenario with a MEMS-class
+// gyro-aided filter (invented demo values) on two units.
+func runTimelineWithFilter(t *testing.T) (sim.Config, *sim.Result) {
+	t.Helper()
 	s, err := scenario.Parse([]byte(timelineScenario+`gyro_filter:
   angle_random_walk_deg_rt_h: 0.3
   bias_instability_deg_h: 10
@@ -211,6 +190,18 @@ func TestFilterRestartsWhenItLeavesTheSensors(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return cfg, res
+}
+
+// Uniform albedo on the faces toward the Earth, which the filter does not
+// model, pulls it far off in the nadir science phase while its innovations
+// stay small: unchecked it stayed "valid" with a p95 of 101° there, against
+// 9° for the point estimate. The filter's monitor (scenario/sim: restart
+// from the point estimate after three steps more than 30° from it) brings
+// it back: no span is valid with a p95 beyond
+// 45° (29° in science; a bound of our choice, common practice, no source).
+func TestFilterRestartsWhenItLeavesTheSensors(t *testing.T) {
+	cfg, res := runTimelineWithFilter(t)
 	spans := TimelineOf(cfg).Spans
 	for _, u := range res.Units {
 		f := u.Filter

@@ -493,64 +493,37 @@ func (t *BoresightTable) At(f *SunFrame, n r3.Vec) Result {
 	if t.ch != 1 {
 		return t.atZonal(f, mirror, jθ, bθ, jφ, bφ)
 	}
-	var v0, v1, v2, v3 float64 // E and E·Dir (boresightVals = 4)
-	rows := 1
-	if len(t.radii) > 1 {
-		rows = 2
+	var c corners
+	t.corners(&c, f, jθ, bθ, jφ, bφ, boresightVals)
+	var v0, v1, v2, v3 float64 // E and E·Dir (boresightVals = 4), in registers
+	for k := range c.n {
+		row, w0, w1 := t.vals[c.off[k]:][:2*boresightVals], c.w0[k], c.w1[k]
+		v0 += w0*float64(row[0]) + w1*float64(row[4])
+		v1 += w0*float64(row[1]) + w1*float64(row[5])
+		v2 += w0*float64(row[2]) + w1*float64(row[6])
+		v3 += w0*float64(row[3]) + w1*float64(row[7])
 	}
-	for dr := range rows {
-		wr := 1 - f.fr
-		if dr == 1 {
-			wr = f.fr
-		}
-		base := (f.r + dr) * t.per
-		for di := range 2 {
-			wi := wr * (1 - f.a)
-			if di == 1 {
-				wi = wr * f.a
-			}
-			plane := t.vals[base+(f.i+di)*t.nθn*t.nφ*boresightVals:]
-			for dθ := range 2 {
-				wθ := wi * (1 - bθ)
-				if dθ == 1 {
-					wθ = wi * bθ
-				}
-				row := plane[((jθ+dθ)*t.nφ+jφ)*boresightVals:][:2*boresightVals]
-				w0, w1 := wθ*(1-bφ), wθ*bφ
-				// The four values written out (the same sums in the same
-				// order), kept in registers.
-				v0 += w0*float64(row[0]) + w1*float64(row[4])
-				v1 += w0*float64(row[1]) + w1*float64(row[5])
-				v2 += w0*float64(row[2]) + w1*float64(row[6])
-				v3 += w0*float64(row[3]) + w1*float64(row[7])
-			}
-		}
-	}
-	n2 := v1*v1 + v2*v2 + v3*v3
-	if !(v0 > 0) || !(n2 > 0) {
-		return Result{}
-	}
-	inv := 1 / math.Sqrt(n2)
-	dx, dy, dz := v1*inv, v2*inv, v3*inv
-	if mirror {
-		dy = -dy
-	}
-	return Result{Irradiance: v0 * f.scale, Dir: r3.Vec{
-		X: dx*f.ex.X + dy*f.ey.X + dz*f.ez.X,
-		Y: dx*f.ex.Y + dy*f.ey.Y + dz*f.ez.Y,
-		Z: dx*f.ex.Z + dy*f.ey.Z + dz*f.ez.Z,
-	}}
+	return frameResult(f, mirror, v0, v1, v2, v3)
 }
 
-// atZonal is At for a zonal table: the channels interpolated as At
-// interpolates E and E·Dir, then weighted with the step's basis weights.
-func (t *BoresightTable) atZonal(f *SunFrame, mirror bool, jθ int, bθ float64, jφ int, bφ float64) Result {
-	const nv = boresightVals * zonalChannels
-	var v [nv]float64
+// corners are the grid nodes of one lookup, in the order of the sums:
+// radius, sun angle, boresight angle from nadir (each lower node first);
+// off[k] is the start in BoresightTable.vals of the node's pair of azimuth
+// nodes, w0[k] and w1[k] their weights.
+type corners struct {
+	n      int
+	off    [8]int
+	w0, w1 [8]float64
+}
+
+// corners fills c for the lookup at boresight cell (jθ, jφ), fractions bθ
+// and bφ, with nv values per node.
+func (t *BoresightTable) corners(c *corners, f *SunFrame, jθ int, bθ float64, jφ int, bφ float64, nv int) {
 	rows := 1
 	if len(t.radii) > 1 {
 		rows = 2
 	}
+	c.n = 0
 	for dr := range rows {
 		wr := 1 - f.fr
 		if dr == 1 {
@@ -562,31 +535,24 @@ func (t *BoresightTable) atZonal(f *SunFrame, mirror bool, jθ int, bθ float64,
 			if di == 1 {
 				wi = wr * f.a
 			}
-			plane := t.vals[base+(f.i+di)*t.nθn*t.nφ*nv:]
+			plane := base + (f.i+di)*t.nθn*t.nφ*nv
 			for dθ := range 2 {
 				wθ := wi * (1 - bθ)
 				if dθ == 1 {
 					wθ = wi * bθ
 				}
-				row := plane[((jθ+dθ)*t.nφ+jφ)*nv:][:2*nv]
-				w0, w1 := wθ*(1-bφ), wθ*bφ
-				for c := range nv {
-					v[c] += w0*float64(row[c]) + w1*float64(row[nv+c])
-				}
+				c.off[c.n] = plane + ((jθ+dθ)*t.nφ+jφ)*nv
+				c.w0[c.n], c.w1[c.n] = wθ*(1-bφ), wθ*bφ
+				c.n++
 			}
 		}
 	}
-	c := &f.coef
-	if mirror {
-		c = &f.coefM
-	}
-	var e, dx, dy, dz float64
-	for k := range zonalChannels {
-		e += c[k] * v[4*k]
-		dx += c[k] * v[4*k+1]
-		dy += c[k] * v[4*k+2]
-		dz += c[k] * v[4*k+3]
-	}
+}
+
+// frameResult turns an interpolated irradiance e and E·Dir (dx, dy, dz) in
+// the sun frame f (mirrored when the boresight was) into a Result in
+// EME2000; no albedo when either vanishes.
+func frameResult(f *SunFrame, mirror bool, e, dx, dy, dz float64) Result {
 	n2 := dx*dx + dy*dy + dz*dz
 	if !(e > 0) || !(n2 > 0) {
 		return Result{}
@@ -601,4 +567,31 @@ func (t *BoresightTable) atZonal(f *SunFrame, mirror bool, jθ int, bθ float64,
 		Y: dx*f.ex.Y + dy*f.ey.Y + dz*f.ez.Y,
 		Z: dx*f.ex.Z + dy*f.ey.Z + dz*f.ez.Z,
 	}}
+}
+
+// atZonal is At for a zonal table: the channels interpolated as At
+// interpolates E and E·Dir, then weighted with the step's basis weights.
+func (t *BoresightTable) atZonal(f *SunFrame, mirror bool, jθ int, bθ float64, jφ int, bφ float64) Result {
+	const nv = boresightVals * zonalChannels
+	var cn corners
+	t.corners(&cn, f, jθ, bθ, jφ, bφ, nv)
+	var v [nv]float64
+	for k := range cn.n {
+		row, w0, w1 := t.vals[cn.off[k]:][:2*nv], cn.w0[k], cn.w1[k]
+		for c := range nv {
+			v[c] += w0*float64(row[c]) + w1*float64(row[nv+c])
+		}
+	}
+	c := &f.coef
+	if mirror {
+		c = &f.coefM
+	}
+	var e, dx, dy, dz float64
+	for k := range zonalChannels {
+		e += c[k] * v[4*k]
+		dx += c[k] * v[4*k+1]
+		dy += c[k] * v[4*k+2]
+		dz += c[k] * v[4*k+3]
+	}
+	return frameResult(f, mirror, e, dx, dy, dz)
 }

@@ -246,11 +246,7 @@ func (t *BoresightTable) buildRadius(m *Model, sensors []Sensor, r int) {
 					}
 					s, co := f*ws[c], f*wc[c]
 					v := [coef]float64{s, s * cl.ux, s * cl.uy, s * cl.uz, co, co * cl.ux, co * cl.uy, co * cl.uz}
-					on, off := steps[coef*int(first[c]):][:coef], steps[coef*int(end[c]):][:coef]
-					for x := range v {
-						on[x] += v[x]
-						off[x] -= v[x]
-					}
+					addRows(steps, v[:], first[c], end[c])
 				}
 				var run [coef]float64
 				for q, i := range rows {
@@ -348,11 +344,7 @@ func (t *BoresightTable) buildRadiusZonal(m *Model, sensors []Sensor, r int) {
 						v[4*q], v[4*q+1], v[4*q+2], v[4*q+3] = sb, sb*cl.ux, sb*cl.uy, sb*cl.uz
 						v[half+4*q], v[half+4*q+1], v[half+4*q+2], v[half+4*q+3] = cb, cb*cl.ux, cb*cl.uy, cb*cl.uz
 					}
-					on, off := steps[coef*int(first[c]):][:coef], steps[coef*int(end[c]):][:coef]
-					for x := range v {
-						on[x] += v[x]
-						off[x] -= v[x]
-					}
+					addRows(steps, v[:], first[c], end[c])
 				}
 				var run [coef]float64
 				for q, i := range rows {

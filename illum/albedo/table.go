@@ -256,11 +256,7 @@ func (t *LocalTable) build(m *Model, sensors []Sensor) {
 						cl := &geo.cells[cc.c]
 						a, b := cc.f*ws[cc.c], cc.f*wc[cc.c]
 						v := [coef]float64{a, a * cl.ux, a * cl.uy, a * cl.uz, b, b * cl.ux, b * cl.uy, b * cl.uz, cc.frac}
-						on, off := steps[coef*int(first[cc.c]):][:coef], steps[coef*int(end[cc.c]):][:coef]
-						for x := range v {
-							on[x] += v[x]
-							off[x] -= v[x]
-						}
+						addRows(steps, v[:], first[cc.c], end[cc.c])
 					}
 					var run [coef]float64
 					for q, i := range rows {
@@ -351,5 +347,18 @@ func (t *LocalTable) Irradiance(dst []Result, sunLocal r3.Vec, sunDistKm float64
 			Dir:        r3.Vec{X: v[1] * inv, Y: v[2] * inv, Z: v[3] * inv},
 			Fill:       min(1, max(0, v[4])),
 		}
+	}
+}
+
+// addRows adds the node values v to the running sums of the rows from
+// first on and takes them off again from row end on: a difference array
+// over the rows (steps holds len(v) values per row), which the builders
+// then sum row by row.
+func addRows(steps, v []float64, first, end int32) {
+	n := len(v)
+	on, off := steps[n*int(first):][:n], steps[n*int(end):][:n]
+	for x := range v {
+		on[x] += v[x]
+		off[x] -= v[x]
 	}
 }

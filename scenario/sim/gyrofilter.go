@@ -136,19 +136,19 @@ type gyroFilter struct {
 	started  bool // a step has been seen
 	disagree int  // steps in a row far from a valid point estimate
 
-	// accumulator
-	samples, valid, shadow, validShadow int
-	mErr, mShadow, mHold                Moments
-	qErr, qShadow, qHold                *Quantiles
-	lastDir                             r3.Vec
-	haveLast                            bool
-	inOutage, broken                    bool
-	outStart                            float64
-	outages, held, starts               int
-	shortestBreak, longestHeld          float64
-	maxTurn                             float64   // rad
-	spans                               []spanAcc // unit 0 with span starts
-	span                                int       // the span of the last sample
+	// accumulator: the whole run, then the held point estimate
+	all                        spanAcc
+	mHold                      Moments
+	qHold                      *Quantiles
+	lastDir                    r3.Vec
+	haveLast                   bool
+	inOutage, broken           bool
+	outStart                   float64
+	outages, held, starts      int
+	shortestBreak, longestHeld float64
+	maxTurn                    float64   // rad
+	spans                      []spanAcc // unit 0 with span starts
+	span                       int       // the span of the last sample
 }
 
 // newGyroFilter builds unit u's filter; its gyro draws come from their own
@@ -160,13 +160,13 @@ func newGyroFilter(cfg *Config, nominal *sensor.Array, u int) *gyroFilter {
 		panic(err) // Validate checked the settings
 	}
 	rng := rand.New(rand.NewPCG(cfg.Seed^0x6a09e667f3bcc908, uint64(u)))
-	g := &gyroFilter{cfg: fc, f: f, rng: rng, qErr: NewQuantiles(), qShadow: NewQuantiles(), qHold: NewQuantiles(),
+	g := &gyroFilter{cfg: fc, f: f, rng: rng, all: newSpanAcc(), qHold: NewQuantiles(),
 		gyro:          filter.NewGyro(fc.Settings.ARW, fc.Settings.BiasSigma, fc.Settings.BiasTau, rng),
 		shortestBreak: math.Inf(1)}
 	if u == 0 && len(fc.SpanStarts) > 0 {
 		g.spans = make([]spanAcc, len(fc.SpanStarts))
 		for i := range g.spans {
-			g.spans[i].qErr, g.spans[i].qShadow = NewQuantiles(), NewQuantiles()
+			g.spans[i] = newSpanAcc()
 		}
 	}
 	for _, s := range nominal.Sensors() {
@@ -257,24 +257,13 @@ func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estim
 			g.starts++
 		}
 	}
-	g.samples++
 	shadow := sg.region != illum.Sunlit
-	if shadow {
-		g.shadow++
-	}
 	valid := g.f.Valid()
 	errDeg := math.Inf(1)
 	if valid {
 		errDeg = degOf(angleBetween(g.f.Sun(), sg.sunBody))
-		g.valid++
-		g.mErr.Add(errDeg)
-		g.qErr.Add(errDeg)
-		if shadow {
-			g.validShadow++
-			g.mShadow.Add(errDeg)
-			g.qShadow.Add(errDeg)
-		}
 	}
+	g.all.add(valid, shadow, errDeg)
 	if g.spans != nil {
 		g.addToSpan(sg.t, valid, shadow, errDeg)
 	}
@@ -307,7 +296,15 @@ func (g *gyroFilter) addToSpan(t float64, valid, shadow bool, errDeg float64) {
 	for g.span+1 < len(starts) && t >= starts[g.span+1]-spanTolS {
 		g.span++
 	}
-	sp := &g.spans[g.span]
+	g.spans[g.span].add(valid, shadow, errDeg)
+}
+
+// newSpanAcc returns an empty accumulator.
+func newSpanAcc() spanAcc { return spanAcc{qErr: NewQuantiles(), qShadow: NewQuantiles()} }
+
+// add folds in one sample: in eclipse or not, the filter valid or not, and
+// its error when valid.
+func (sp *spanAcc) add(valid, shadow bool, errDeg float64) {
 	sp.samples++
 	if shadow {
 		sp.shadow++
@@ -338,8 +335,9 @@ func (g *gyroFilter) result(tEnd float64) *FilterStats {
 	if g.inOutage {
 		g.closeOutage(tEnd)
 	}
-	s := &FilterStats{ValidFraction: frac(g.valid, g.samples), ValidShadowFraction: frac(g.validShadow, g.shadow),
-		Err: errorStats(&g.mErr, g.qErr), ErrShadow: errorStats(&g.mShadow, g.qShadow), HoldLastShadow: errorStats(&g.mHold, g.qHold),
+	a := &g.all
+	s := &FilterStats{ValidFraction: frac(a.valid, a.samples), ValidShadowFraction: frac(a.validShadow, a.shadow),
+		Err: errorStats(&a.mErr, a.qErr), ErrShadow: errorStats(&a.mShadow, a.qShadow), HoldLastShadow: errorStats(&g.mHold, g.qHold),
 		Outages: g.outages, OutagesHeld: g.held, ShortestBreakS: g.shortestBreak, LongestHeldS: g.longestHeld,
 		Starts: g.starts, HoldBoundDeg: g.cfg.HoldBoundDeg, MaxStepTurnDeg: degOf(g.maxTurn)}
 	if math.IsInf(s.ShortestBreakS, 1) {

@@ -12,6 +12,7 @@ import (
 
 	"codeberg.org/sunsight/sunsight/illum/albedo"
 	"codeberg.org/sunsight/sunsight/illum/sensor"
+	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"codeberg.org/sunsight/sunsight/plots/figures"
 )
 
@@ -86,7 +87,7 @@ func defaultToward(face string) string {
 func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	s := Sensor{Name: f.Name, Kind: f.Kind}
 	if kinds := sensor.KindNames(); !oneOf(f.Kind, kinds) {
-		r.fail(p+".kind", "value %q is unknown; allowed %s", f.Kind, strings.Join(kinds, ", "))
+		r.fail(p+".kind", "value %q is unknown%s; allowed %s", f.Kind, suggest.Hint(f.Kind, kinds), strings.Join(kinds, ", "))
 	}
 	switch {
 	case f.Face != "" && f.Boresight != nil:
@@ -94,7 +95,7 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	case f.Face != "":
 		n, ok := parseAxis(f.Face)
 		if !ok {
-			r.fail(p+".face", "value %q is unknown; allowed %s", f.Face, strings.Join(faces, ", "))
+			r.fail(p+".face", "value %q is unknown%s; allowed %s", f.Face, suggest.Hint(f.Face, faces), strings.Join(faces, ", "))
 			break
 		}
 		f.Face = strings.ToUpper(f.Face)
@@ -240,7 +241,7 @@ func (r *resolver) outline(b *fileBody) (string, r3.Vec) {
 		f := strings.ToUpper(b.FormFactor)
 		size, ok := formFactors[f]
 		if !ok {
-			r.fail("body.form_factor", "value %q is unknown; allowed %s (or size_m: [x, y, z] in metres)", b.FormFactor, strings.Join(formFactorNames, ", "))
+			r.fail("body.form_factor", "value %q is unknown%s; allowed %s (or size_m: [x, y, z] in metres)", b.FormFactor, suggest.Hint(b.FormFactor, formFactorNames), strings.Join(formFactorNames, ", "))
 			return "", r3.Vec{}
 		}
 		b.FormFactor = f
@@ -378,7 +379,7 @@ func (r *resolver) kindParams(p string, info sensor.KindInfo, f *fileSensor) sen
 				f.Params[k.Key] = v
 			}
 			if !oneOf(v.(string), k.Choices) {
-				r.fail(kp, "value %q is unknown; allowed %s", v, strings.Join(k.Choices, ", "))
+				r.fail(kp, "value %q is unknown%s; allowed %s", v, suggest.Hint(v.(string), k.Choices), strings.Join(k.Choices, ", "))
 			}
 			out.Text[k.Key] = v.(string)
 		case sensor.Table:
@@ -567,7 +568,7 @@ func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 	for i, e := range f.Estimators {
 		p := fmt.Sprintf("estimators[%d]", i)
 		if names := sensor.EstimatorNames(); !oneOf(e, names) {
-			r.fail(p, "value %q is unknown; allowed %s", e, strings.Join(names, ", "))
+			r.fail(p, "value %q is unknown%s; allowed %s", e, suggest.Hint(e, names), strings.Join(names, ", "))
 		} else if seen[e] {
 			r.fail(p, "value %q is listed twice; allowed each estimator once", e)
 		}
@@ -786,7 +787,7 @@ func (r *resolver) output(o *fileOutput) Output {
 	}
 	for i, f := range o.Figures {
 		if names := figures.Names(); !oneOf(f, names) {
-			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q is unknown; allowed %s", f, strings.Join(names, ", "))
+			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q is unknown%s; allowed %s", f, suggest.Hint(f, names), strings.Join(names, ", "))
 		}
 		if given && f == figures.Power && !r.hasPanels {
 			r.fail(fmt.Sprintf("output.figures[%d]", i), "value %q needs solar panels but body.panels is empty; allowed with body.panels listed, or leave %q out", f, f)

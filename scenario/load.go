@@ -13,6 +13,7 @@ import (
 	"strconv"
 	"strings"
 
+	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"go.yaml.in/yaml/v3"
 )
 
@@ -325,7 +326,7 @@ func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
 					keys = append(keys, name)
 				}
 				sort.Strings(keys)
-				w.fail(k, kp, "key %q is unknown; allowed %s", k.Value, strings.Join(keys, ", "))
+				w.fail(k, kp, "key %q is unknown%s; allowed %s", k.Value, suggest.Hint(k.Value, keys), strings.Join(keys, ", "))
 				continue
 			}
 			w.check(v, ft, kp)

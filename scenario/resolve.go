@@ -16,6 +16,7 @@ import (
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
@@ -101,7 +102,7 @@ func (r *resolver) choice(path string, v *string, def string, list []string) {
 		*v = def
 	}
 	if !oneOf(*v, list) {
-		r.fail(path, "value %q is unknown; allowed %s", *v, strings.Join(list, ", "))
+		r.fail(path, "value %q is unknown%s; allowed %s", *v, suggest.Hint(*v, list), strings.Join(list, ", "))
 	}
 }
 
@@ -420,7 +421,7 @@ func (r *resolver) law(path string, l *fileLaw) Law {
 	}
 	info, err := attitude.LookupLaw(l.Law)
 	if err != nil {
-		r.fail(path+".law", "value %q is unknown; allowed %s", l.Law, strings.Join(attitude.LawNames(), ", "))
+		r.fail(path+".law", "value %q is unknown%s; allowed %s", l.Law, suggest.Hint(l.Law, attitude.LawNames()), strings.Join(attitude.LawNames(), ", "))
 		return Law{}
 	}
 	out := Law{Name: l.Law, Orientation: quat.Number{Real: 1}}
@@ -587,7 +588,7 @@ func (r *resolver) orientation(path string, l *fileLaw, info attitude.LawInfo, o
 			l.EulerSequence = info.Word("euler_sequence")
 		}
 		if !oneOf(l.EulerSequence, eulerSeqs) {
-			r.fail(path+".euler_sequence", "value %q is unknown; allowed %s", l.EulerSequence, strings.Join(eulerSeqs, ", "))
+			r.fail(path+".euler_sequence", "value %q is unknown%s; allowed %s", l.EulerSequence, suggest.Hint(l.EulerSequence, eulerSeqs), strings.Join(eulerSeqs, ", "))
 		}
 		for i, v := range l.EulerDeg {
 			out.EulerRad[i] = r.angle(fmt.Sprintf("%s.euler_deg[%d]", path, i), v, -360, 360)

@@ -11,6 +11,7 @@ import (
 	"strings"
 	"syscall"
 
+	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"codeberg.org/sunsight/sunsight/scenario"
 
 	"github.com/spf13/pflag"
@@ -43,9 +44,21 @@ func (fs *flagSet) parse(args []string, stdout io.Writer) ([]string, error) {
 		return nil, errHelpShown
 	}
 	if err != nil {
-		return nil, usagef("%v; run 'sunsight %s --help' for the flags", err, fs.Name())
+		return nil, usagef("%v%s; run 'sunsight %s --help' for the flags", err, flagHint(fs.FlagSet, err), fs.Name())
 	}
 	return fs.Args(), nil
+}
+
+// flagHint is the flag the user probably meant when err reports an unknown
+// long flag (" (did you mean "--units"?)"), or "".
+func flagHint(fs *pflag.FlagSet, err error) string {
+	name, ok := strings.CutPrefix(err.Error(), "unknown flag: --")
+	if !ok {
+		return ""
+	}
+	var names []string
+	fs.VisitAll(func(f *pflag.Flag) { names = append(names, "--"+f.Name) })
+	return suggest.Hint("--"+name, names)
 }
 
 // longDash rewrites -name and -name=value into --name and --name=value when

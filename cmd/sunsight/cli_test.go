@@ -119,3 +119,45 @@ func TestOutputTargetRules(t *testing.T) {
 		t.Errorf("run --csv into a foreign folder: exit %d, %q", code, errb.String())
 	}
 }
+
+// A misspelt flag or command is refused with the one the user probably
+// meant.
+func TestMisspeltFlagAndCommandHint(t *testing.T) {
+	for _, c := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"run", "--unit", "3", "x.yaml"}, `unknown flag: --unit (did you mean "--units"?)`},
+		{[]string{"run", "--workr", "2", "x.yaml"}, `(did you mean "--workers"?)`},
+		{[]string{"chek", "x.yaml"}, `unknown command "chek" (did you mean "check"?)`},
+		{[]string{"help", "sweeep"}, `(did you mean "sweep"?)`},
+	} {
+		var out, errb bytes.Buffer
+		if code := runMain(c.args, &out, &errb); code != exitUsage || !strings.Contains(errb.String(), c.want) {
+			t.Errorf("%v: exit %d, stderr %q, want %q", c.args, code, errb.String(), c.want)
+		}
+	}
+}
+
+// init takes the file to write as an argument too; with -o naming another
+// file it is refused.
+func TestInitFileArgument(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "s.yaml")
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"init", path, "--example", "nadir-6u-sso"}, &out, &errb); code != 0 {
+		t.Fatalf("init FILE: exit %d: %s", code, errb.String())
+	}
+	got, _ := os.ReadFile(path)
+	want, _ := os.ReadFile("../../examples/nadir-6u-sso.yaml")
+	if string(got) != scenario.SchemaComment+string(want) {
+		t.Errorf("init FILE wrote something else than the example")
+	}
+	other := filepath.Join(dir, "t.yaml")
+	if code := runMain([]string{"init", other, "-o", path + ".b"}, &out, &errb); code != exitUsage || !strings.Contains(errb.String(), "give one") {
+		t.Errorf("init FILE -o OTHER: exit %d, %q", code, errb.String())
+	}
+	if _, err := os.Stat(other); err == nil {
+		t.Errorf("init FILE -o OTHER wrote %s", other)
+	}
+}

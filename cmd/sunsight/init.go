@@ -8,9 +8,9 @@ import (
 )
 
 func init() {
-	register(command{name: "init", summary: "write a commented starting scenario file", args: "[flags]",
-		about: "Writes a commented starting scenario from one of the bundled examples; -o - prints it on standard output.",
-		examples: []string{"sunsight init", "sunsight init --example nadir-6u-sso -o my-sat.yaml",
+	register(command{name: "init", summary: "write a commented starting scenario file", args: "[FILE] [flags]",
+		about: "Writes a commented starting scenario from one of the bundled examples to FILE (or the file of -o; scenario.yaml without either); - prints it on standard output.",
+		examples: []string{"sunsight init", "sunsight init my-sat.yaml --example nadir-6u-sso", "sunsight init --example nadir-6u-sso -o my-sat.yaml",
 			"sunsight init -o - | sunsight check -"},
 		run: runInit})
 }
@@ -24,8 +24,14 @@ func runInit(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	if err := wantArgs("init", pos, 0, 0); err != nil {
+	if err := wantArgs("init", pos, 0, 1); err != nil {
 		return err
+	}
+	if len(pos) == 1 {
+		if fs.Changed("out") && *out != pos[0] {
+			return usagef("two files to write: %q and -o %q; give one", pos[0], *out)
+		}
+		*out = pos[0]
 	}
 	text, err := scenario.ExampleText(*example)
 	if err != nil {

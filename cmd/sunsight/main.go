@@ -14,6 +14,8 @@ import (
 	"os"
 	"sort"
 	"strings"
+
+	"codeberg.org/sunsight/sunsight/internal/suggest"
 )
 
 // Exit statuses: the contract scripts and CI rely on.
@@ -104,7 +106,7 @@ func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
 		if len(args) > 1 && args[0] == "help" {
 			c, ok := commands[args[1]]
 			if !ok {
-				fmt.Fprintf(stderr, "sunsight: unknown command %q; run 'sunsight help' for the list\n", args[1])
+				fmt.Fprintf(stderr, "sunsight: unknown command %q%s; run 'sunsight help' for the list\n", args[1], commandHint(args[1]))
 				return exitUsage
 			}
 			args = []string{c.name, "--help"}
@@ -117,7 +119,7 @@ func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
 	}
 	c, ok := commands[args[0]]
 	if !ok {
-		fmt.Fprintf(stderr, "sunsight: unknown command %q; run 'sunsight help' for the list\n", args[0])
+		fmt.Fprintf(stderr, "sunsight: unknown command %q%s; run 'sunsight help' for the list\n", args[0], commandHint(args[0]))
 		return exitUsage
 	}
 	err := c.run(args[1:], stdout, stderr)
@@ -190,4 +192,14 @@ func printCommandHelp(w io.Writer, c command, fs *flagSet) {
 		}
 	}
 	fmt.Fprintln(w, "\n"+exitHelp)
+}
+
+// commandHint is the command the user probably meant by name, or "".
+func commandHint(name string) string {
+	names := make([]string, 0, len(commands))
+	for n := range commands {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	return suggest.Hint(name, names)
 }

@@ -32,4 +32,3 @@ func TestHint(t *testing.T) {
 		}
 	}
 }
-

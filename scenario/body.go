@@ -711,6 +711,10 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 		r.rangeCheck("targets.max_error_p95_deg", *t.MaxErrorP95Deg, 0, 180, true, "(0, 180] degrees")
 		out.MaxErrorP95Rad = *t.MaxErrorP95Deg * deg
 	}
+	if t.MaxErrorP95UnitsDeg != nil {
+		r.rangeCheck("targets.max_error_p95_units_deg", *t.MaxErrorP95UnitsDeg, 0, 180, true, "(0, 180] degrees")
+		out.MaxErrorP95UnitsRad = *t.MaxErrorP95UnitsDeg * deg
+	}
 	if t.MinCoverage != nil {
 		if t.CoverageSensors == nil {
 			k := 1

@@ -189,14 +189,17 @@ type fileAlbedoModel struct {
 }
 
 type fileTargets struct {
-	MinValidFraction  *float64     `yaml:"min_valid_fraction,omitempty"`
-	MaxErrorP95Deg    *float64     `yaml:"max_error_p95_deg,omitempty"`
-	CoverageSensors   *int         `yaml:"coverage_sensors,omitempty"`
-	MinCoverage       *float64     `yaml:"min_coverage,omitempty"`
-	MaxGap            *Span        `yaml:"max_gap,omitempty"`
-	SurviveOneFailure bool         `yaml:"survive_one_failure"`
-	NMinus1           *fileNMinus1 `yaml:"n_minus_1,omitempty"`
-	MinOrbitAvgPowerW *float64     `yaml:"min_orbit_average_power_w,omitempty"`
+	MinValidFraction *float64 `yaml:"min_valid_fraction,omitempty"`
+	MaxErrorP95Deg   *float64 `yaml:"max_error_p95_deg,omitempty"`
+	// MaxErrorP95UnitsDeg bounds the p95 error reached by 95 % of the
+	// Monte Carlo units (needs monte_carlo.units ≥ 2).
+	MaxErrorP95UnitsDeg *float64     `yaml:"max_error_p95_units_deg,omitempty"`
+	CoverageSensors     *int         `yaml:"coverage_sensors,omitempty"`
+	MinCoverage         *float64     `yaml:"min_coverage,omitempty"`
+	MaxGap              *Span        `yaml:"max_gap,omitempty"`
+	SurviveOneFailure   bool         `yaml:"survive_one_failure"`
+	NMinus1             *fileNMinus1 `yaml:"n_minus_1,omitempty"`
+	MinOrbitAvgPowerW   *float64     `yaml:"min_orbit_average_power_w,omitempty"`
 	// Judge names the estimate the sun-vector targets judge: uncorrected
 	// (default) or onboard-corrected (needs albedo.onboard).
 	Judge string `yaml:"judge,omitempty"`

@@ -169,6 +169,8 @@ func badInputs() []badInput {
 		{"onboard grid without file", orbit + sensor + "albedo: {onboard: {model: grid}}\n", "albedo.onboard.grid_file"},
 		{"onboard cells 5", orbit + sensor + "albedo: {onboard: {cells: 5}}\n", "albedo.onboard.cells"},
 		{"judge corrected without onboard", orbit + sensor + "albedo: {model: zonal}\ntargets: {max_error_p95_deg: 3, judge: onboard-corrected}\n", "targets.judge (line 5, col 40): value \"onboard-corrected\" needs an on-board albedo model; allowed only with albedo.onboard set"},
+		{"units target with one unit", orbit + sensor + "monte_carlo: {units: 1}\ntargets: {max_error_p95_units_deg: 5}\n", "targets.max_error_p95_units_deg (line 5, col 36): needs at least 2 Monte Carlo units, monte_carlo.units is 1"},
+		{"units target 0", orbit + sensor + "monte_carlo: {units: 4}\ntargets: {max_error_p95_units_deg: 0}\n", "targets.max_error_p95_units_deg"},
 		{"judge unknown", orbit + sensor + "albedo: {model: zonal, onboard: {model: zonal}}\ntargets: {judge: corrected}\n", "targets.judge (line 5, col 18): value \"corrected\" is unknown; allowed uncorrected, onboard-corrected"},
 		{"onboard unknown model", orbit + sensor + "albedo: {onboard: {model: cloudy}}\n", "albedo.onboard.model"},
 		{"onboard unknown key", orbit + sensor + "albedo: {onboard: {model: uniform, gain: 1}}\n", "key \"gain\" is unknown"},

@@ -205,6 +205,9 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 		r.fail("monte_carlo.units", "value %d is out of range; allowed a whole number in [1, 1000000]", f.MonteCarlo.Units)
 	}
 	s.MonteCarlo.Units = f.MonteCarlo.Units
+	if s.Targets.MaxErrorP95UnitsRad > 0 && s.MonteCarlo.Units < 2 {
+		r.fail("targets.max_error_p95_units_deg", "needs at least 2 Monte Carlo units, monte_carlo.units is %d; allowed only with monte_carlo.units ≥ 2: set it (e.g. 100) or remove the target", s.MonteCarlo.Units)
+	}
 	if f.Budget != nil {
 		s.Budget = Budget{Set: true, Residuals: r.residuals(&f.Budget.Calibrated, s.Body.Sensors), ToleranceRad: f.Budget.ToleranceDeg * deg}
 		r.rangeCheck("budget.tolerance_deg", f.Budget.ToleranceDeg, 0, 90, true, "(0, 90]")

@@ -287,12 +287,17 @@ func (a Albedo) SameModel(b Albedo) bool {
 // Targets are the requirements a run is judged against; a zero value means
 // "no target".
 type Targets struct {
-	MinValidFraction  float64 // of sunlit time with a valid sun vector, in (0, 1]
-	MaxErrorP95Rad    float64 // 95th percentile of the sun-vector error
-	CoverageSensors   int     // k of "sky seen by at least k sensors"
-	MinCoverage       float64 // fraction of the sky seen by at least CoverageSensors sensors
-	MaxGap            Span    // longest sunlit interval without a valid sun vector
-	SurviveOneFailure bool    // targets must hold with any one sensor failed
+	MinValidFraction float64 // of sunlit time with a valid sun vector, in (0, 1]
+	MaxErrorP95Rad   float64 // 95th percentile of the sun-vector error
+	// MaxErrorP95UnitsRad bounds the p95 error reached by 95 % of the Monte
+	// Carlo units (the 95th percentile over units of each unit's p95; a
+	// unit without any valid estimate counts as the worst); needs
+	// monte_carlo.units ≥ 2. Zero: no target.
+	MaxErrorP95UnitsRad float64
+	CoverageSensors     int     // k of "sky seen by at least k sensors"
+	MinCoverage         float64 // fraction of the sky seen by at least CoverageSensors sensors
+	MaxGap              Span    // longest sunlit interval without a valid sun vector
+	SurviveOneFailure   bool    // targets must hold with any one sensor failed
 	// NMinus1 is the single-failure study and its targets (targets.n_minus_1).
 	NMinus1           NMinus1
 	MinOrbitAvgPowerW float64 // orbit-average solar-array power (W), needs body.panels

@@ -323,6 +323,11 @@ type acrossRecord struct {
 	WorstUnitP95Deg  num    `json:"worst_unit_p95_error_deg"`
 	MinValidFraction num    `json:"min_valid_fraction"`
 	UnitP95Deg       []num  `json:"unit_p95_error_deg"`
+	// UnitsWithoutEstimate counts the units without any valid estimate
+	// (null in unit_p95_error_deg); the quantiles count them as the worst.
+	UnitsWithoutEstimate int `json:"units_without_estimate"`
+	// P95OfUnitP95CorrectedDeg: after the on-board albedo correction.
+	P95OfUnitP95CorrectedDeg num `json:"p95_of_unit_p95_error_onboard_corrected_deg"`
 }
 
 // skyRecord is the layout's sky coverage: the share of the body-frame sky
@@ -383,7 +388,7 @@ func (o *runOutput) record() runRecord {
 			p[i] = num(v)
 		}
 		across = append(across, acrossRecord{a.Name, num(a.P50OfUnitP95Deg), num(a.P95OfUnitP95Deg), num(a.WorstUnitP95Deg),
-			num(a.MinValidFraction), p})
+			num(a.MinValidFraction), p, a.UnitsWithoutEstimate, num(a.P95OfUnitP95CorrectedDeg)})
 	}
 	es := r.EclipseStats
 	v := study.Judge(o.allTargets())
@@ -452,7 +457,7 @@ func pct(f float64) string {
 }
 
 func deg(f float64) string {
-	if math.IsNaN(f) {
+	if math.IsNaN(f) || math.IsInf(f, 0) {
 		return study.Missing
 	}
 	return fmt.Sprintf("%.2f°", f)
@@ -525,6 +530,10 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		for _, a := range r.AcrossUnits {
 			fmt.Fprintf(w, "  %-16s median %s   reached by 95 %% of units %s   worst %s   lowest validity %s\n", a.Name,
 				deg(a.P50OfUnitP95Deg), deg(a.P95OfUnitP95Deg), deg(a.WorstUnitP95Deg), pct(a.MinValidFraction))
+			if a.UnitsWithoutEstimate > 0 {
+				fmt.Fprintf(w, "  %-16s (%d of %d units never had a valid estimate: they count as the worst, — where they decide)\n", "",
+					a.UnitsWithoutEstimate, len(r.Units))
+			}
 		}
 	}
 	fmt.Fprintf(w, "\nSensors (signal 1 = normal sun at 1 AU)\n  %-14s %9s %12s %15s %10s %10s %12s %12s\n", "sensor", "in view", "peak signal", "full scale", "saturated",

@@ -134,6 +134,9 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	}
 	cfg := plan.Primary
 	if f.units > 0 {
+		if f.units < 2 && s.Targets.MaxErrorP95UnitsRad > 0 {
+			return usagef("--units %d: %s: targets.max_error_p95_units_deg needs at least 2 Monte Carlo units; give --units 2 or more, or leave --units out", f.units, file)
+		}
 		cfg.Units = f.units
 	}
 	cfg.Workers = f.workers

@@ -29,6 +29,9 @@ type Headline struct {
 	// UnitsP95Deg is the p95 error reached by 95 % of Monte Carlo units
 	// (NaN with a single unit).
 	UnitsP95Deg float64 `json:"units_p95_error_deg"`
+	// UnitsP95CorrectedDeg is the same after the on-board albedo
+	// correction (NaN with a single unit or without an on-board model).
+	UnitsP95CorrectedDeg float64 `json:"units_p95_error_onboard_corrected_deg"`
 	// OrbitAvgPowerW is the time-average solar-array power over the run
 	// (nominal attitude; NaN without panels).
 	OrbitAvgPowerW float64 `json:"orbit_average_power_w"`
@@ -58,7 +61,7 @@ func (r *Result) Headline() Headline {
 		Eclipses: r.EclipseStats.Count, EclipseMeanMin: r.EclipseStats.MeanS / 60, EclipseMaxMin: r.EclipseStats.MaxS / 60,
 		BetaMinDeg: u.BetaMinDeg, BetaMaxDeg: u.BetaMaxDeg,
 		Seen1: u.SeenAtLeast[1], Seen2: u.SeenAtLeast[2], Seen3: u.SeenAtLeast[3],
-		UnitsP95Deg: math.NaN(), FalseSunFraction: u.FalseSunFraction, OrbitAvgPowerW: math.NaN(),
+		UnitsP95Deg: math.NaN(), UnitsP95CorrectedDeg: math.NaN(), FalseSunFraction: u.FalseSunFraction, OrbitAvgPowerW: math.NaN(),
 		P95CorrectedDeg: math.NaN(), P95ResidualPartDeg: math.NaN(), ValidFractionCorrected: math.NaN(), LongestGapCorrectedS: math.NaN(),
 		FilterValidFraction: math.NaN(), FilterP95Deg: math.NaN(), FilterP95ShadowDeg: math.NaN(),
 	}
@@ -88,6 +91,7 @@ func (r *Result) Headline() Headline {
 	}
 	if len(r.AcrossUnits) > 0 {
 		h.UnitsP95Deg = r.AcrossUnits[0].P95OfUnitP95Deg
+		h.UnitsP95CorrectedDeg = r.AcrossUnits[0].P95OfUnitP95CorrectedDeg
 	}
 	return h
 }

@@ -222,10 +222,21 @@ type AcrossUnits struct {
 	Name string
 	// P95OfUnitP95Deg is the p95 error reached by 95 % of units (the 95th
 	// percentile over units of each unit's p95 error), with albedo when
-	// modelled; WorstUnitP95Deg the largest.
+	// modelled; WorstUnitP95Deg the largest. A unit without any valid
+	// estimate has no p95 (NaN in UnitP95Deg) and counts as the worst
+	// (+Inf) in these quantiles, so they are +Inf when such units make the
+	// quantile.
 	P50OfUnitP95Deg, P95OfUnitP95Deg, WorstUnitP95Deg float64
 	MinValidFraction                                  float64
 	UnitP95Deg                                        []float64
+	// UnitsWithoutEstimate counts the units that never had a valid
+	// estimate in sunlight.
+	UnitsWithoutEstimate int
+	// P95OfUnitP95CorrectedDeg is the same p95 over units of each unit's
+	// p95 error after the on-board albedo correction (NaN without an
+	// on-board model), units without a valid corrected estimate counted
+	// as the worst.
+	P95OfUnitP95CorrectedDeg float64
 }
 
 func errorStats(m *Moments, q *Quantiles) ErrorStats {
@@ -685,34 +696,45 @@ func acrossUnits(units []*UnitResult) []AcrossUnits {
 	}
 	var out []AcrossUnits
 	for j := range units[0].Estimators {
-		au := AcrossUnits{Name: units[0].Estimators[j].Name, MinValidFraction: math.Inf(1)}
+		au := AcrossUnits{Name: units[0].Estimators[j].Name, MinValidFraction: math.Inf(1), P95OfUnitP95CorrectedDeg: math.NaN()}
+		var corr []float64
 		for _, u := range units {
 			e := &u.Estimators[j]
-			au.UnitP95Deg = append(au.UnitP95Deg, e.realisticP95())
+			p := e.realisticP95()
+			au.UnitP95Deg = append(au.UnitP95Deg, p)
+			if math.IsNaN(p) {
+				au.UnitsWithoutEstimate++
+			}
 			au.MinValidFraction = math.Min(au.MinValidFraction, e.ValidFraction)
+			if e.Corrected != nil {
+				corr = append(corr, e.Corrected.Err.P95Deg)
+			}
 		}
-		s := append([]float64(nil), au.UnitP95Deg...)
-		sort.Float64s(s)
-		au.P50OfUnitP95Deg = empiricalQuantile(s, 0.5)
-		au.P95OfUnitP95Deg = empiricalQuantile(s, 0.95)
+		s := worstFirstMissing(au.UnitP95Deg)
+		au.P50OfUnitP95Deg = stat.Quantile(0.5, stat.Empirical, s, nil)
+		au.P95OfUnitP95Deg = stat.Quantile(0.95, stat.Empirical, s, nil)
 		au.WorstUnitP95Deg = s[len(s)-1]
+		if len(corr) == len(units) {
+			au.P95OfUnitP95CorrectedDeg = stat.Quantile(0.95, stat.Empirical, worstFirstMissing(corr), nil)
+		}
 		out = append(out, au)
 	}
 	return out
 }
 
-// empiricalQuantile is the p-quantile of the sorted values by the one
-// definition the project uses, gonum's stat.Empirical (the smallest value
-// with at least p·N values at or below it), as plots uses for its p95 marks;
-// NaNs sort first in sort.Float64s and are skipped.
-func empiricalQuantile(sorted []float64, p float64) float64 {
-	i := 0
-	for i < len(sorted) && math.IsNaN(sorted[i]) {
-		i++
+// worstFirstMissing returns the values sorted, a missing one (NaN: a unit
+// without any valid estimate) as +Inf: it reached no error bound at all.
+// The quantiles over units take them by the one definition the project
+// uses, gonum's stat.Empirical (the smallest value with at least p·N
+// values at or below it), as plots uses for its p95 marks.
+func worstFirstMissing(v []float64) []float64 {
+	s := make([]float64, len(v))
+	for i, x := range v {
+		if math.IsNaN(x) {
+			x = math.Inf(1)
+		}
+		s[i] = x
 	}
-	v := sorted[i:]
-	if len(v) == 0 {
-		return math.NaN()
-	}
-	return stat.Quantile(p, stat.Empirical, v, nil)
+	sort.Float64s(s)
+	return s
 }

@@ -19,6 +19,7 @@ const Missing = "—"
 const (
 	TargetValid             = "valid"               // min_valid_fraction
 	TargetErrorP95          = "error-p95"           // max_error_p95_deg
+	TargetErrorP95Units     = "error-p95-units"     // max_error_p95_units_deg
 	TargetCoverage          = "coverage"            // coverage_sensors + min_coverage
 	TargetCoverageOneFailed = "coverage-one-failed" // the same with survive_one_failure
 	TargetGap               = "gap"                 // max_gap
@@ -120,7 +121,12 @@ func CheckTargets(s *scenario.Scenario, h sim.Headline, cov sky.Result) []Target
 			Op:     OpAtLeast, Limit: t.MinValidFraction, Got: j.ValidFraction, Unit: UnitFraction})
 	}
 	if t.MaxErrorP95Rad > 0 {
-		out = append(out, checkErrorP95(s, "p95 sun-vector error ("+j.What+")", j.P95Deg))
+		out = append(out, checkP95(TargetErrorP95, "p95 sun-vector error ("+j.What+")", t.MaxErrorP95Rad, j.P95Deg))
+	}
+	if t.MaxErrorP95UnitsRad > 0 {
+		c := checkP95(TargetErrorP95Units, fmt.Sprintf("p95 sun-vector error reached by 95 %% of Monte Carlo units (%s)", j.What),
+			t.MaxErrorP95UnitsRad, j.UnitsP95Deg)
+		out = append(out, c)
 	}
 	if t.MinCoverage > 0 && t.CoverageSensors > 0 {
 		k := min(t.CoverageSensors, sky.MaxLevel)
@@ -217,39 +223,36 @@ func CheckSingleFailure(s *scenario.Scenario, sf SingleFailure) []TargetCheck {
 // What names the estimate in target labels and tables.
 type Judged struct {
 	ValidFraction, P95Deg, LongestGapS float64
-	What                               string
-	Corrected                          bool
+	// UnitsP95Deg is the p95 error reached by 95 % of the Monte Carlo
+	// units (+Inf when units without any valid estimate make it, NaN with
+	// one unit).
+	UnitsP95Deg float64
+	What        string
+	Corrected   bool
 }
 
 // JudgedFigures returns the figures of h the targets of s judge.
 func JudgedFigures(s *scenario.Scenario, h sim.Headline) Judged {
 	if s.Targets.Judge == scenario.JudgeOnboardCorrected {
 		return Judged{ValidFraction: h.ValidFractionCorrected, P95Deg: h.P95CorrectedDeg, LongestGapS: h.LongestGapCorrectedS,
-			What: h.Estimator + ", on-board corrected", Corrected: true}
+			UnitsP95Deg: h.UnitsP95CorrectedDeg, What: h.Estimator + ", on-board corrected", Corrected: true}
 	}
-	return Judged{ValidFraction: h.ValidFraction, P95Deg: headlineP95(h), LongestGapS: h.LongestGapS, What: h.Estimator}
+	return Judged{ValidFraction: h.ValidFraction, P95Deg: headlineP95(h), LongestGapS: h.LongestGapS,
+		UnitsP95Deg: h.UnitsP95Deg, What: h.Estimator}
 }
 
-// checkErrorP95 judges a p95 error (degrees) against max_error_p95_deg.
-func checkErrorP95(s *scenario.Scenario, label string, p95 float64) TargetCheck {
-	lim := s.Targets.MaxErrorP95Rad * 180 / math.Pi
-	c := TargetCheck{Key: TargetErrorP95, Label: label, Required: fmt.Sprintf("≤ %.2f°", lim), Value: Missing,
+// checkP95 judges a p95 error (degrees) against a limit (rad) under the
+// target key; an undefined p95 (NaN: no valid estimate; +Inf: units
+// without any) fails.
+func checkP95(key, label string, limRad, p95 float64) TargetCheck {
+	lim := limRad * 180 / math.Pi
+	c := TargetCheck{Key: key, Label: label, Required: fmt.Sprintf("≤ %.2f°", lim), Value: Missing,
 		Pass: p95 <= lim, Margin: math.Inf(-1), Op: OpAtMost, Limit: lim, Got: p95, Unit: UnitDeg}
-	if !math.IsNaN(p95) {
+	if !math.IsNaN(p95) && !math.IsInf(p95, 0) {
 		c.Value = fmt.Sprintf("%.2f°", p95)
 		c.Margin = (lim - p95) / lim
 	}
 	return c
-}
-
-// CheckErrorP95 judges another p95 figure (for example the p95 reached by
-// 95 % of Monte Carlo units) against max_error_p95_deg; ok is false when the
-// scenario sets no error target.
-func CheckErrorP95(s *scenario.Scenario, label string, p95Deg float64) (c TargetCheck, ok bool) {
-	if s.Targets.MaxErrorP95Rad <= 0 {
-		return TargetCheck{}, false
-	}
-	return checkErrorP95(s, label, p95Deg), true
 }
 
 // FindTarget returns the check of the given key.

@@ -44,6 +44,20 @@ func TestJudgeVerdict(t *testing.T) {
 	if c.Pass || c.Value != Missing {
 		t.Errorf("undefined p95: pass %v value %q, want a failure shown as %q", c.Pass, c.Value, Missing)
 	}
+	// The units target: its own limit, on the units figure; units without
+	// any valid estimate (+Inf) fail it, shown as undefined.
+	s.Targets = scenario.Targets{MaxErrorP95UnitsRad: 5 * math.Pi / 180}
+	for _, c := range []struct {
+		units float64
+		pass  bool
+		value string
+	}{{4.99, true, "4.99°"}, {5.01, false, "5.01°"}, {math.Inf(1), false, Missing}, {math.NaN(), false, Missing}} {
+		h.UnitsP95Deg = c.units
+		u, ok := FindTarget(CheckTargets(s, h, sky.Result{}), TargetErrorP95Units)
+		if !ok || u.Pass != c.pass || u.Value != c.value {
+			t.Errorf("units p95 %v: check %+v (found %v); want pass %v, value %q", c.units, u, ok, c.pass, c.value)
+		}
+	}
 	if v := Judge(nil); !v.Met() || v.Status() != "no-targets" || !strings.Contains(v.Text(), "no targets") {
 		t.Errorf("no targets: %+v %q", v, v.Text())
 	}

@@ -211,7 +211,7 @@ func (n Nadir) Attitude(_ float64, s orbit.State, sunDir r3.Vec) r3.Rotation {
 
 // Rows implements RowsLaw: the matrix of Attitude, built from the axes.
 func (n Nadir) Rows(t float64, s orbit.State, sun r3.Vec) Rows {
-	if n.Offset == (r3.Rotation{}) && !n.YawToSun && isAxis(n.NadirAxis, unitZ) && isAxis(n.VelocityAxis, unitX) {
+	if n.Plain() {
 		if m, ok := nadirRows(s.R, s.V); ok {
 			return m
 		}
@@ -223,6 +223,20 @@ func (n Nadir) Rows(t float64, s orbit.State, sun r3.Vec) Rows {
 	}
 	return RowsOf(n.Attitude(t, s, sun))
 }
+
+// Plain reports whether n has the default axes (+Z to nadir, +X toward
+// the velocity), no offset and no yaw steering: its Rows are then
+// NadirRows wherever those exist, so a step loop that decides this once
+// may call NadirRows itself, without the interface call and the copy of
+// the law per step.
+func (n Nadir) Plain() bool {
+	return n.Offset == (r3.Rotation{}) && !n.YawToSun && isAxis(n.NadirAxis, unitZ) && isAxis(n.VelocityAxis, unitX)
+}
+
+// NadirRows is the matrix of a Plain nadir law at the state (r, v);
+// false where it does not exist (r = 0 or r ∥ v), and Rows then takes
+// the general path.
+func NadirRows(r, v r3.Vec) (Rows, bool) { return nadirRows(r, v) }
 
 // isAxis reports whether a body axis is def or zero (the default).
 func isAxis(v, def r3.Vec) bool { return v == (r3.Vec{}) || v == def }

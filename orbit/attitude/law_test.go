@@ -302,10 +302,38 @@ func TestNadirRowsWrittenOut(t *testing.T) {
 		if got != want || okGot != okWant {
 			t.Fatalf("r %v v %v: written out %v (%v), general %v (%v)", r, v, got, okGot, want, okWant)
 		}
+		if m, ok := NadirRows(r, v); m != got || ok != okGot {
+			t.Fatalf("r %v v %v: NadirRows %v (%v), nadirRows %v (%v)", r, v, m, ok, got, okGot)
+		}
 		for _, n := range []Nadir{{}, {NadirAxis: unitZ, VelocityAxis: unitX}} {
+			if !n.Plain() {
+				t.Fatalf("Nadir%+v is not Plain", n)
+			}
 			if okWant && n.Rows(0, orbit.State{R: r, V: v}, r3.Vec{X: 1}) != want {
 				t.Fatalf("Nadir%+v.Rows differs from the general path", n)
 			}
+		}
+	}
+}
+
+// TestNadirPlainOnlyForTheDefaultAxes: a step loop calls NadirRows in
+// place of Rows only for the laws whose Rows are NadirRows (closed form:
+// another axis, an offset or yaw steering gives another matrix).
+func TestNadirPlainOnlyForTheDefaultAxes(t *testing.T) {
+	s := orbit.State{R: r3.Vec{X: 7000, Y: 300, Z: -200}, V: r3.Vec{X: -0.4, Y: 6.1, Z: 4.2}}
+	sun := r3.Unit(r3.Vec{X: 0.3, Y: -0.8, Z: 0.5})
+	plain, _ := NadirRows(s.R, s.V)
+	for _, n := range []Nadir{
+		{NadirAxis: r3.Vec{X: -1}},
+		{VelocityAxis: r3.Vec{Y: 1}},
+		{YawToSun: true},
+		{Offset: r3.NewRotation(0.2, r3.Vec{Z: 1})},
+	} {
+		if n.Plain() {
+			t.Errorf("Nadir%+v counted Plain", n)
+		}
+		if n.Rows(0, s, sun) == plain {
+			t.Errorf("Nadir%+v: Rows equal NadirRows, the test shows nothing", n)
 		}
 	}
 }

@@ -13,7 +13,6 @@ import (
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"codeberg.org/sunsight/sunsight/orbit"
-	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // benchDaySteps is one day at 10 s, the span of the per-step benchmarks.
@@ -150,11 +149,14 @@ func BenchmarkStages(b *testing.B) {
 	})
 	sunBody := make([]r3.Vec, steps)
 	rows := make([]bodyMatrix, steps)
-	law := cfg.Law.(attitude.RowsLaw)
 	b.Run("attitude", func(b *testing.B) {
+		g, err := newGeometry(&cfg, cfg.Array, 0, albedoTables{})
+		if err != nil {
+			b.Fatal(err)
+		}
 		for b.Loop() {
 			for k := range states {
-				rows[k] = bodyMatrix(law.Rows(float64(k)*cfg.Step, states[k], sunU[k]))
+				g.attitude(&rows[k], float64(k)*cfg.Step, states[k], sunU[k], region[k])
 				sunBody[k] = rows[k].toBody(sunU[k])
 			}
 		}
@@ -171,8 +173,9 @@ func BenchmarkStages(b *testing.B) {
 		for b.Loop() {
 			g.moon = newMoonCache(jd0)
 			for k := range states {
-				sg := stepGeom{t: float64(k) * cfg.Step, nadirBody: rows[k].toBody(r3.Scale(-1/vecmath.Norm(states[k].R), states[k].R))}
-				g.bodies(&sg, &rows[k], states[k].R, sunU[k], sunD[k])
+				rn := vecmath.Norm(states[k].R)
+				sg := stepGeom{t: float64(k) * cfg.Step, nadirBody: rows[k].toBody(r3.Scale(-1/rn, states[k].R))}
+				g.bodies(&sg, &rows[k], states[k].R, rn, sunU[k], sunD[k])
 				vw.bodiesInCones(&vw.v, &sg.bodies)
 			}
 		}

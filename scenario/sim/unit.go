@@ -52,12 +52,15 @@ type stepGeom struct {
 // geometry computes stepGeom and, with an albedo model, each sensor's albedo
 // (body axes) for the nominal boresights of a sensor list.
 type geometry struct {
-	cfg             *Config
-	prop            orbit.Propagator
-	sun, moon       *sunCache
-	law             attitude.Law
-	eclAware        attitude.EclipseAware
-	rows            attitude.RowsLaw
+	cfg       *Config
+	prop      orbit.Propagator
+	sun, moon *sunCache
+	law       attitude.Law
+	eclAware  attitude.EclipseAware
+	rows      attitude.RowsLaw
+	// plainNadir: the law is a Plain nadir law, whose matrix the step
+	// builds with attitude.NadirRows (its Rows, bit for bit).
+	plainNadir      bool
 	states          []orbit.State // the block of steps [blk0, blk0+len)
 	blk0            int
 	alb, corr       *albedo.Model
@@ -92,6 +95,9 @@ func newGeometry(cfg *Config, arr *sensor.Array, u int, tables albedoTables) (*g
 	}
 	g.eclAware, _ = g.law.(attitude.EclipseAware)
 	g.rows, _ = g.law.(attitude.RowsLaw)
+	if n, ok := g.law.(attitude.Nadir); ok && n.Plain() {
+		g.plainNadir = true
+	}
 	n := arr.Len()
 	for _, s := range arr.Sensors() {
 		g.boresights = append(g.boresights, s.Mount().Boresight())
@@ -172,19 +178,13 @@ func (g *geometry) fill(sg *stepGeom, k int, albBody, predBody []sensor.Albedo) 
 	sunU, sunD := g.sun.at(t)
 	lit, region := shadow(cfg.Cylindrical, st.R, sunU, sunD)
 	M := &sg.body
-	switch {
-	case g.eclAware != nil:
-		*M = attitudeRot(g.eclAware.AttitudeInEclipse(t, st, sunU, region != illum.Sunlit)).matrix()
-	case g.rows != nil:
-		*M = bodyMatrix(g.rows.Rows(t, st, sunU)) // built directly, no quaternion
-	default:
-		*M = attitudeRot(g.law.Attitude(t, st, sunU)).matrix()
-	}
+	g.attitude(M, t, st, sunU, region)
 	sg.t, sg.region, sg.lit, sg.direct = t, region, lit, solarIrradiance(sunD)*lit
 	sg.sunBody = M.toBody(sunU)
-	sg.nadirBody = M.toBody(r3.Scale(-1/vecmath.Norm(st.R), st.R))
+	rn := vecmath.Norm(st.R)
+	sg.nadirBody = M.toBody(r3.Scale(-1/rn, st.R))
 	sg.sinBeta = illum.SinBetaAngle(st.R, st.V, sunU)
-	g.bodies(sg, M, st.R, sunU, sunD)
+	g.bodies(sg, M, st.R, rn, sunU, sunD)
 	if g.alb == nil {
 		return
 	}
@@ -207,6 +207,25 @@ func (g *geometry) fill(sg *stepGeom, k int, albBody, predBody []sensor.Albedo) 
 		// the same numbers.
 		g.integrate(g.corr, g.corrTab, g.corrOut, st, sunU, sunD, gmst, jd)
 		toBody(predBody, g.corrOut, M)
+	}
+}
+
+// attitude writes the law's matrix at time t, state st, sun direction
+// sunU and shadow region into M.
+func (g *geometry) attitude(M *bodyMatrix, t float64, st orbit.State, sunU r3.Vec, region illum.Region) {
+	switch {
+	case g.eclAware != nil:
+		*M = attitudeRot(g.eclAware.AttitudeInEclipse(t, st, sunU, region != illum.Sunlit)).matrix()
+	case g.plainNadir:
+		if m, ok := attitude.NadirRows(st.R, st.V); ok {
+			*M = bodyMatrix(m)
+		} else {
+			*M = bodyMatrix(g.rows.Rows(t, st, sunU))
+		}
+	case g.rows != nil:
+		*M = bodyMatrix(g.rows.Rows(t, st, sunU)) // built directly, no quaternion
+	default:
+		*M = attitudeRot(g.law.Attitude(t, st, sunU)).matrix()
 	}
 }
 
@@ -259,8 +278,9 @@ type stepView struct {
 
 // viewer fills the stepView of each step, once for all units of a task.
 type viewer struct {
-	blocked []*sky.Obstructed
-	sees    []func(r3.Vec) bool
+	// hide[i] is sensor i's obstruction test (Config.Blocked[i]).
+	hide []hider
+	sees []func(r3.Vec) bool
 	// The nominal cones and mounting-plane normals (zero: none).
 	cone []sensor.Cone
 	face []r3.Vec
@@ -277,7 +297,7 @@ type viewer struct {
 
 func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 	n := arr.Len()
-	w := &viewer{blocked: cfg.Blocked, face: make([]r3.Vec, n), inView: make([]int, n), moonInView: make([]int, n), litEarthInView: make([]int, n),
+	w := &viewer{hide: make([]hider, n), face: make([]r3.Vec, n), inView: make([]int, n), moonInView: make([]int, n), litEarthInView: make([]int, n),
 		v: stepView{sees: make([]bool, n), moonIn: make([]bool, n), litEarthIn: make([]bool, n)}}
 	if cfg.Blocked != nil {
 		w.v.sunBlocked = make([]bool, n)
@@ -289,10 +309,8 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 		}
 	}
 	for i, s := range arr.Sensors() {
-		if cfg.Viewers != nil {
-			w.sees = append(w.sees, cfg.Viewers[i].Sees)
-		} else {
-			w.sees = append(w.sees, s.SeesSun)
+		if cfg.Blocked != nil {
+			w.hide[i] = newHider(cfg.Blocked[i])
 		}
 		w.cone = append(w.cone, sensor.NewCone(s.Mount().Boresight(), s.HalfAngle()))
 		cut := -2.0
@@ -300,6 +318,16 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 			cut = math.Cos(s.HalfAngle()) - 1e-9
 		}
 		w.outside = append(w.outside, cut)
+		switch o, _ := viewerOf(cfg, i).(*sky.Obstructed); {
+		case cfg.Viewers == nil:
+			w.sees = append(w.sees, s.SeesSun)
+		case o != nil && cut > -2 && len(o.Obstacles) == 0 && inFront(w.cone[i].Axis, o.Face, cut):
+			// Asked only inside the cone, which lies wholly above the
+			// mounting plane: Hidden is false wherever Sees is asked.
+			w.sees = append(w.sees, o.View.Sees)
+		default:
+			w.sees = append(w.sees, cfg.Viewers[i].Sees)
+		}
 		if cfg.MountNormals != nil {
 			w.face[i] = cfg.MountNormals[i]
 		}
@@ -317,7 +345,7 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 	v := &w.v
 	for i := range v.sunBlocked {
-		v.sunBlocked[i] = w.blocked[i] != nil && w.blocked[i].Hidden(g.sunBody)
+		v.sunBlocked[i] = w.hide[i].hidden(g.sunBody)
 	}
 	w.pastBody(v.albSeen, albBody)
 	w.pastBody(v.predSeen, predBody)
@@ -343,7 +371,7 @@ func (w *viewer) bodiesInCones(v *stepView, b *sensor.Bodies) {
 	for i := range w.cone {
 		c, face := &w.cone[i], &w.face[i]
 		v.moonIn[i] = !b.MoonHidden && r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin && r3.Dot(b.MoonDir, *face) > moonCut &&
-			(w.blocked == nil || w.blocked[i] == nil || !w.blocked[i].Hidden(b.MoonDir))
+			!w.hide[i].hidden(b.MoonDir)
 		v.litEarthIn[i] = b.EarthLit && r3.Dot(c.Axis, b.NadirDir) > c.Cos*b.EarthCos-c.Sin*b.EarthSin && r3.Dot(b.NadirDir, *face) > earthCut
 		if v.moonIn[i] {
 			w.moonInView[i]++
@@ -352,6 +380,54 @@ func (w *viewer) bodiesInCones(v *stepView, b *sensor.Bodies) {
 			w.litEarthInView[i]++
 		}
 	}
+}
+
+// hider is one sensor's obstruction test (Config.Blocked[i]) as the step
+// loop asks it: a mounting plane without obstacles is written out in
+// place, bit for bit sky.Obstructed.Hidden, without a call per sensor per
+// step.
+type hider struct {
+	o        *sky.Obstructed // nil: nothing ever hides
+	faceOnly bool            // o has no obstacles: only its mounting plane
+	face     r3.Vec          // o.Face
+}
+
+func newHider(o *sky.Obstructed) hider {
+	if o == nil {
+		return hider{}
+	}
+	return hider{o: o, faceOnly: len(o.Obstacles) == 0, face: o.Face}
+}
+
+// hidden is o.Hidden(d); false without o.
+func (h *hider) hidden(d r3.Vec) bool {
+	if h.faceOnly {
+		return h.face != (r3.Vec{}) && !(r3.Dot(d, h.face) > sky.FacePlaneMargin)
+	}
+	return h.o != nil && h.o.Hidden(d)
+}
+
+// viewerOf is cfg.Viewers[i]; nil without viewers.
+func viewerOf(cfg *Config, i int) sky.Viewer {
+	if cfg.Viewers == nil {
+		return nil
+	}
+	return cfg.Viewers[i]
+}
+
+// inFront reports whether every unit direction d with d·axis ≥ cut lies
+// above the plane of unit normal n by far more than sky.FacePlaneMargin
+// (the cone's edge at least 1 mrad above it; closed form: the angle from
+// n to d is at most the angle from n to the axis plus acos(cut)); true
+// for a zero n (no plane).
+func inFront(axis, n r3.Vec, cut float64) bool {
+	if n == (r3.Vec{}) {
+		return true
+	}
+	if math.Abs(vecmath.Norm(n)-1) > 1e-9 || math.Abs(vecmath.Norm(axis)-1) > 1e-9 || !(cut > -1 && cut <= 1) {
+		return false
+	}
+	return angleBetween(axis, n)+math.Acos(cut) < math.Pi/2-1e-3
 }
 
 // addCounts adds the viewer's counts of the steps viewed so far to a unit's
@@ -367,12 +443,12 @@ func (w *viewer) addCounts(a *unitAcc) {
 // bodies fills sg.bodies: the Moon from the spacecraft at r (its geocentric
 // position less r), hidden when its whole disc is behind the Earth's, lit by
 // Meeus's (48.1) from the Earth's centre; the Earth's angular radius and
-// whether the sub-satellite point is sunlit (r·ŝ > 0).
-func (g *geometry) bodies(sg *stepGeom, M *bodyMatrix, r, sunU r3.Vec, sunD float64) {
+// whether the sub-satellite point is sunlit (r·ŝ > 0). rn is |r|.
+func (g *geometry) bodies(sg *stepGeom, M *bodyMatrix, r r3.Vec, rn float64, sunU r3.Vec, sunD float64) {
 	mU, mD := g.moon.at(sg.t)
 	geo := r3.Scale(mD, mU)
 	rel := r3.Sub(geo, r)
-	d, rn := vecmath.Norm(rel), vecmath.Norm(r)
+	d := vecmath.Norm(rel)
 	b := &sg.bodies
 	b.MoonDir = M.toBody(r3.Scale(1/d, rel))
 	b.MoonSin = ephem.MoonRadiusKm / d
@@ -392,7 +468,7 @@ func (g *geometry) bodies(sg *stepGeom, M *bodyMatrix, r, sunU r3.Vec, sunD floa
 func (w *viewer) pastBody(dst, albBody []sensor.Albedo) {
 	for i := range dst {
 		dst[i] = albBody[i]
-		if w.blocked != nil && w.blocked[i] != nil && albBody[i].Irradiance > 0 && w.blocked[i].Hidden(albBody[i].Dir) {
+		if albBody[i].Irradiance > 0 && w.hide[i].hidden(albBody[i].Dir) {
 			dst[i] = sensor.Albedo{}
 		}
 	}

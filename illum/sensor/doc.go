@@ -54,11 +54,15 @@
 // 90° for a wall) and DeadZoneHalfAngle, per sensor axis; ViewText prints
 // them. half_angle_deg is refused for both quadrant kinds: their view
 // follows from the geometry. Error sources: per-cell dark offsets and gains,
-// noise, ADC, misalignment, aperture or wall offset, and a twist about the
-// boresight drawn per unit. Sigma: accuracy_deg_1sigma when stated, else
-// derived from the error model to first order (derivedSigma: slope of the
-// transfer times the imbalance error, in quadrature with misalignment,
-// twist and offset). Albedo: the albedo model integrates the cells' own
+// noise, ADC, misalignment, aperture or wall offset, a twist about the
+// boresight drawn per unit, and a shade that is not square: the aperture
+// side (or the wall distance) drawn per unit and per axis
+// (shade_size_mm_1sigma), while the flight software inverts with the
+// nominal one, so an aperture's tangent scales by (w − g)/(w' − g) and a
+// wall's shifts by (d' − d)/H (elementary geometry). Sigma:
+// accuracy_deg_1sigma when stated, else derived from the error model to
+// first order (derivedSigma: slope of the transfer times the imbalance
+// error, in quadrature with misalignment, twist, offset and shade size). Albedo: the albedo model integrates the cells' own
 // responses (CellResponse) over the lit Earth and delivers Albedo.Cells.
 //
 // Digital: the centroid in the tangent plane (tan αx, tan αy) of the sun
@@ -136,8 +140,8 @@
 //   - The albedo on a digital sensor is a point source in its mean arrival
 //     direction carrying the whole response-weighted irradiance (first order
 //     in the albedo ratio). A quadrant gets it cell by cell through the
-//     nominal geometry's cell responses (the drawn misalignment, twist and
-//     offset of a unit do not move its albedo; second order); without
+//     nominal geometry's cell responses (the drawn misalignment, twist,
+//     offset and shade size of a unit do not move its albedo; second order); without
 //     Albedo.Cells it falls back to the mean direction's lit proportions,
 //     and to nothing when that direction lights no cell.
 //   - A shade wall is thin and long enough to shade the full length of the

@@ -101,6 +101,7 @@ const (
 	SourceApertureOffset = "aperture offset"
 	SourceDigitalNoise   = "digital accuracy"
 	SourceTwist          = "twist"
+	SourceShadeSize      = "shade size"
 	SourceTemperature    = "temperature"
 )
 

@@ -74,6 +74,11 @@ type QuadrantSpec struct {
 	// drawn per unit on top of the misalignment (a detector soldered
 	// slightly turned).
 	TwistSigma float64
+	// SizeErrX, SizeErrY make the shade not square: they add to the
+	// aperture side (aperture geometry) or to the wall distance (wall
+	// geometry) along each axis, a build error the estimator does not know
+	// (same length unit); SizeSigma is drawn per unit and per axis on top.
+	SizeErrX, SizeErrY, SizeSigma float64
 	// Threshold is the cell-sum signal below which no sun is reported.
 	Threshold float64
 	// SignalMargin is the validity gate on intensity: a reading is valid only
@@ -110,6 +115,8 @@ type Quadrant struct {
 	unit    unitErrors
 	offX    float64
 	offY    float64
+	sizeX   float64 // the unit's aperture side or wall distance along x
+	sizeY   float64 // and along y
 	norm    float64 // area that gives a cell sum of 1 (w² or 4c²)
 	tanDead float64 // per-axis tangent of the dead-zone half-angle
 	tanLin  float64 // per-axis tangent where the calibrated linear range ends
@@ -137,7 +144,7 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 		pos bool
 	}{{"aperture_side", s.ApertureSide, aperture}, {"height", s.Height, true}, {"cell_side", s.CellSide, true},
 		{"gap", s.Gap, false}, {"wall_distance", s.WallDistance, false}, {"offset_sigma", s.OffsetSigma, false},
-		{"twist_sigma", s.TwistSigma, false}, {"threshold", s.Threshold, false},
+		{"twist_sigma", s.TwistSigma, false}, {"size_sigma", s.SizeSigma, false}, {"threshold", s.Threshold, false},
 		{"signal_margin", s.SignalMargin, false}, {"imbalance_margin", s.ImbalanceMargin, false},
 		{"dead_zone_imbalance", s.DeadZoneImbalance, false},
 		{"ref_irradiance", s.RefIrradiance, false}, {"sigma", s.Sigma, false}} {
@@ -159,6 +166,9 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 	if math.IsNaN(s.OffsetX) || math.IsNaN(s.OffsetY) || math.IsInf(s.OffsetX, 0) || math.IsInf(s.OffsetY, 0) {
 		return nil, fmt.Errorf("sensor: %q: offset_x/offset_y: want finite lengths", s.Name)
 	}
+	if math.IsNaN(s.SizeErrX) || math.IsNaN(s.SizeErrY) || math.IsInf(s.SizeErrX, 0) || math.IsInf(s.SizeErrY, 0) {
+		return nil, fmt.Errorf("sensor: %q: size_err_x/size_err_y: want finite lengths", s.Name)
+	}
 	if s.RefIrradiance == 0 {
 		s.RefIrradiance = SolarConstant
 	}
@@ -166,6 +176,7 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 		return nil, err
 	}
 	q := &Quadrant{spec: s, actual: s.Mount, offX: s.OffsetX, offY: s.OffsetY}
+	q.sizeX, q.sizeY = q.builtSize(s.SizeErrX), q.builtSize(s.SizeErrY)
 	q.shape()
 	q.sigma = s.Sigma
 	if q.sigma == 0 {
@@ -173,6 +184,20 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 	}
 	q.deadX = s.DeadZoneImbalance
 	return q, nil
+}
+
+// nominalSize is the aperture side (aperture geometry) or the wall
+// distance (wall geometry) the flight software inverts with.
+func (q *Quadrant) nominalSize() float64 {
+	if q.spec.Geometry == GeometryWall {
+		return q.spec.WallDistance
+	}
+	return q.spec.ApertureSide
+}
+
+// builtSize is the nominal size with a build error added, never below 0.
+func (q *Quadrant) builtSize(err float64) float64 {
+	return math.Max(0, q.nominalSize()+err)
 }
 
 // shape fills the derived geometry: normalisation, dead zone, linear and
@@ -233,7 +258,11 @@ func (q *Quadrant) Sigma() float64 { return q.sigma }
 // dt/dX of the transfer at the start of the linear range, added in
 // quadrature to the misalignment, half the twist variance (a twist δ turns a
 // direction at angle α off the boresight by δ·sin α; taken at the mean of
-// sin²) and the aperture offset over the height. r = 1e-4 of full sun is a
+// sin²), the aperture offset over the height and the shade size error
+// σ_s: a wall distance off by δ moves every reading by δ/H in tangent; an
+// aperture side off by δ scales the tangent by (w − g)/(w − g + δ), an
+// error t·δ/(w − g) taken at the mean of t² over the linear range,
+// tanLin²/3. r = 1e-4 of full sun is a
 // resolution floor per cell (common practice, no source) that keeps an
 // error-free sensor's weight finite and in proportion to its geometry, so
 // that small errors change the weights of several sensors smoothly. It holds
@@ -251,8 +280,15 @@ func (q *Quadrant) derivedSigma() float64 {
 	case s.ApertureSide > s.Gap:
 		slope = (s.ApertureSide - s.Gap) / (2 * s.Height)
 	}
+	size := 0.0 // tangent error of the shade size error
+	switch {
+	case s.Geometry == GeometryWall:
+		size = s.SizeSigma / s.Height
+	case s.ApertureSide > s.Gap:
+		size = s.SizeSigma * q.tanLin / (s.ApertureSide - s.Gap) / math.Sqrt(3)
+	}
 	v := slope*sx*slope*sx + e.MisalignSigma*e.MisalignSigma + s.TwistSigma*s.TwistSigma/2 +
-		(s.OffsetSigma/s.Height)*(s.OffsetSigma/s.Height)
+		(s.OffsetSigma/s.Height)*(s.OffsetSigma/s.Height) + size*size
 	if v == 0 { // no linear range and no error: any small weight
 		return 0.01 * math.Pi / 180
 	}
@@ -288,8 +324,8 @@ func overlap(a0, a1, b0, b1 float64) float64 {
 
 // axisLit returns the lit lengths of the negative and positive cells of one
 // axis for a sun at tangent t along it, with the aperture (or wall)
-// displaced by off.
-func (q *Quadrant) axisLit(t, off float64) (neg, pos float64) {
+// displaced by off and the aperture side (or wall distance) size along it.
+func (q *Quadrant) axisLit(t, off, size float64) (neg, pos float64) {
 	s := q.spec
 	c := s.CellSide
 	if s.Geometry == GeometryWall {
@@ -299,19 +335,27 @@ func (q *Quadrant) axisLit(t, off float64) (neg, pos float64) {
 		if b1 < b0 {
 			b0, b1 = b1, b0
 		}
-		d := s.WallDistance
+		d := size
 		return c - overlap(b0, b1, -d-c, -d), c - overlap(b0, b1, d, d+c)
 	}
-	w, g := s.ApertureSide, s.Gap
+	w, g := size, s.Gap
 	cx := off - s.Height*t // spot centre
 	return overlap(cx-w/2, cx+w/2, -g/2-c, -g/2), overlap(cx-w/2, cx+w/2, g/2, g/2+c)
 }
 
-// cellAreas returns the lit areas A, B, C, D for a sensor-frame direction
-// d (d.Z > 0) with the aperture (or wall) displaced by (ox, oy).
+// cellAreas returns the lit areas A, B, C, D of the nominal geometry for a
+// sensor-frame direction d (d.Z > 0) with the aperture (or wall) displaced
+// by (ox, oy).
 func (q *Quadrant) cellAreas(d r3.Vec, ox, oy float64) [4]float64 {
-	l, r := q.axisLit(d.X/d.Z, ox)
-	b, t := q.axisLit(d.Y/d.Z, oy)
+	n := q.nominalSize()
+	return q.builtAreas(d, ox, oy, n, n)
+}
+
+// builtAreas is cellAreas with the aperture side (or wall distance) sx
+// along x and sy along y.
+func (q *Quadrant) builtAreas(d r3.Vec, ox, oy, sx, sy float64) [4]float64 {
+	l, r := q.axisLit(d.X/d.Z, ox, sx)
+	b, t := q.axisLit(d.Y/d.Z, oy, sy)
 	return [4]float64{l * t, r * t, r * b, l * b}
 }
 
@@ -344,7 +388,7 @@ func (q *Quadrant) CellResponse(d r3.Vec) [4]float64 {
 // nominal geometry at tangent t; the second result is false when no light
 // is on the cells.
 func (q *Quadrant) ratio(t float64) (float64, bool) {
-	n, p := q.axisLit(t, 0)
+	n, p := q.axisLit(t, 0, q.nominalSize())
 	if n+p <= 0 {
 		return 0, false
 	}
@@ -499,7 +543,7 @@ func (q *Quadrant) ReadAt(sun r3.Vec, direct float64, alb Albedo, noise *rand.Ra
 func (q *Quadrant) readAt(sun r3.Vec, direct float64, alb Albedo, noise *rand.Rand, gainT, darkT float64) Reading {
 	var cells [4]float64
 	if d := q.actual.ToSensor(sun); d.Z > 0 && direct > 0 {
-		a := q.cellAreas(d, q.offX, q.offY)
+		a := q.builtAreas(d, q.offX, q.offY, q.sizeX, q.sizeY)
 		for i := range cells {
 			cells[i] = direct * d.Z * a[i] / q.norm
 		}
@@ -511,7 +555,7 @@ func (q *Quadrant) readAt(sun r3.Vec, direct float64, alb Albedo, noise *rand.Ra
 		}
 	case alb.Irradiance > 0:
 		if d := q.actual.ToSensor(alb.Dir); d.Z > 0 {
-			a := q.cellAreas(d, q.offX, q.offY)
+			a := q.builtAreas(d, q.offX, q.offY, q.sizeX, q.sizeY)
 			if s := a[0] + a[1] + a[2] + a[3]; s > 0 {
 				for i := range cells {
 					cells[i] += alb.Irradiance * a[i] / s
@@ -573,6 +617,10 @@ func (q *Quadrant) Draw(rng *rand.Rand) Sensor {
 	u.offX = q.spec.OffsetX + q.spec.OffsetSigma*rng.NormFloat64()
 	u.offY = q.spec.OffsetY + q.spec.OffsetSigma*rng.NormFloat64()
 	u.actual = u.actual.Misaligned(r3.Vec{Z: q.spec.TwistSigma * rng.NormFloat64()})
+	if sg := q.spec.SizeSigma; sg > 0 { // drawn only when set: the stream of other units stays
+		u.sizeX = u.builtSize(q.spec.SizeErrX + sg*rng.NormFloat64())
+		u.sizeY = u.builtSize(q.spec.SizeErrY + sg*rng.NormFloat64())
+	}
 	return &u
 }
 
@@ -594,12 +642,14 @@ var quadrantGateParams = []Param{
 		Default: 0, Min: 0, Max: 90, Allowed: "[0, 90] degrees (0: derived from the error model)", Scale: math.Pi / 180},
 	{Key: "twist_deg_1sigma", Doc: "1σ rotation of the unit about its boresight, drawn per unit (a detector soldered turned)",
 		Default: 0, Min: 0, Max: 90, Allowed: "[0, 90] degrees", Scale: math.Pi / 180},
+	{Key: "shade_size_mm_1sigma", Doc: "1σ error of the aperture side (quadrant) or of the wall distance (quadrant-wall), drawn per unit and per axis: a shade that is not square",
+		Default: 0, Min: 0, Max: 10, Allowed: "[0, 10] mm"},
 }
 
 // quadrantSources are the error sources both geometries offer the budget.
 var quadrantSources = []ErrorSource{{Name: SourceDarkOffset}, {Name: SourceGain}, {Name: SourceNoise},
 	{Name: SourceQuantisation}, {Name: SourceMisalignment}, {Name: SourceApertureOffset},
-	{Name: SourceTwist, Param: "twist_deg_1sigma"}, {Name: SourceTemperature}}
+	{Name: SourceTwist, Param: "twist_deg_1sigma"}, {Name: SourceShadeSize, Param: "shade_size_mm_1sigma"}, {Name: SourceTemperature}}
 
 // The registry entries of the two quadrant geometries.
 func init() {
@@ -640,7 +690,7 @@ func buildQuadrant(c Common, p Params) (Sensor, error) {
 	spec := QuadrantSpec{Name: c.Name, Mount: c.Mount, Height: p.Num["shade_height_mm"], CellSide: p.Num["cell_size_mm"],
 		Threshold: c.Threshold, SignalMargin: p.Num["signal_margin"], ImbalanceMargin: p.Num["imbalance_margin"],
 		DeadZoneImbalance: p.Num["dead_zone_imbalance"], Sigma: p.Num["accuracy_deg_1sigma"],
-		OffsetSigma: c.OffsetSigma, TwistSigma: p.Num["twist_deg_1sigma"], Errors: c.Errors}
+		OffsetSigma: c.OffsetSigma, TwistSigma: p.Num["twist_deg_1sigma"], SizeSigma: p.Num["shade_size_mm_1sigma"], Errors: c.Errors}
 	spec.Errors.Thermal = thermalFrom(p)
 	if p.Text["dead_zone"] == DeadZoneNoSun.String() {
 		spec.DeadZone = DeadZoneNoSun

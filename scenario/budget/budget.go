@@ -27,13 +27,14 @@ const (
 	ApertureOffset // quadrant sensors only
 	DigitalNoise   // digital sensors' stated accuracy
 	Twist          // quadrant sensors' rotation about the boresight
+	ShadeSize      // quadrant sensors' aperture side or wall distance per axis
 	Albedo
 	Temperature // the sensors' temperatures away from calibration (on/off)
 	NumSources
 )
 
 var sourceNames = [NumSources]string{"dark offset", "gain mismatch", "noise", "quantisation",
-	"misalignment", "aperture offset", "digital accuracy", "twist", "albedo", "temperature"}
+	"misalignment", "aperture offset", "digital accuracy", "twist", "shade size", "albedo", "temperature"}
 
 // String names the source as the tables print it.
 func (s Source) String() string {

@@ -15,8 +15,8 @@
 //
 // A run is the scenario's Monte Carlo with each error source's stated 1σ
 // multiplied by a scale (0 = off): dark offset, gain mismatch, noise,
-// quantisation (on/off), misalignment, aperture offset and twist (quadrant
-// sensors), digital-sensor accuracy and albedo (on/off). The figure of a run is, for
+// quantisation (on/off), misalignment, aperture offset, twist and shade
+// size (quadrant sensors), digital-sensor accuracy and albedo (on/off). The figure of a run is, for
 // the primary estimator over sunlit samples with a valid estimate, the mean
 // over units of each unit's p95 error (the p95 of a typical unit) and the
 // RMS pooled over units. The budget runs each source alone and all

@@ -23,7 +23,7 @@ const DefaultMaxDurationS = 6 * 3600
 // (common practice, no source: typical coarse-sensor figures).
 var referenceSigma = [NumSources]float64{
 	DarkOffset: 0.005, Gain: 0.01, Noise: 0.005, Misalignment: 0.2 * math.Pi / 180,
-	ApertureOffset: 0.02, DigitalNoise: 0.1 * math.Pi / 180, Twist: 1 * math.Pi / 180,
+	ApertureOffset: 0.02, DigitalNoise: 0.1 * math.Pi / 180, Twist: 1 * math.Pi / 180, ShadeSize: 0.02,
 }
 
 // tinySigma stands for "no error" in a source held in a kind parameter
@@ -173,7 +173,7 @@ func (r *Runner) Sigma(src Source, scale float64) (float64, string) {
 	switch src {
 	case Misalignment, DigitalNoise, Twist:
 		return v * 180 / math.Pi, "deg"
-	case ApertureOffset:
+	case ApertureOffset, ShadeSize:
 		return v, "mm"
 	case DarkOffset, Noise:
 		return v, "of full scale"

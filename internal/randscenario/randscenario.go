@@ -2,8 +2,10 @@ package randscenario
 
 import (
 	"fmt"
+	"maps"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"time"
 
 	"go.yaml.in/yaml/v3"
@@ -78,6 +80,10 @@ type Law struct {
 	TimeConstant   string    `yaml:"time_constant,omitempty"`
 	InSunlight     *Law      `yaml:"in_sunlight,omitempty"`
 	InEclipse      *Law      `yaml:"in_eclipse,omitempty"`
+	// Keys holds further law keys by name (tests set any key of the law
+	// registry through it); a key of Keys replaces a field of the same
+	// name when the file is written.
+	Keys map[string]any `yaml:",inline"`
 }
 
 // Errors is a sensor's error model (one-sigma values).
@@ -112,6 +118,51 @@ type Sensor struct {
 	MoonBlindLitFraction  *float64 `yaml:"moon_blind_lit_fraction,omitempty"`
 	LitEarthBlindDepthDeg *float64 `yaml:"lit_earth_blind_depth_deg,omitempty"`
 	Errors                *Errors  `yaml:"errors,omitempty"`
+	// Keys holds further kind keys by name (tests set any key of the
+	// sensor-kind registry through it); a key of Keys replaces a field of
+	// the same name when the file is written.
+	Keys map[string]any `yaml:",inline"`
+}
+
+// MarshalYAML writes the sensor's fields, then Keys (see withKeys).
+func (s Sensor) MarshalYAML() (any, error) {
+	type plain Sensor
+	p := plain(s)
+	p.Keys = nil
+	return withKeys(p, s.Keys)
+}
+
+// MarshalYAML writes the law's fields, then Keys (see withKeys).
+func (l Law) MarshalYAML() (any, error) {
+	type plain Law
+	p := plain(l)
+	p.Keys = nil
+	return withKeys(p, l.Keys)
+}
+
+// withKeys encodes v, a struct, as a YAML mapping, then adds keys in name
+// order, a key of keys in place of a field of the same name.
+func withKeys(v any, keys map[string]any) (*yaml.Node, error) {
+	var n yaml.Node
+	if err := n.Encode(v); err != nil {
+		return nil, err
+	}
+	for _, k := range slices.Sorted(maps.Keys(keys)) {
+		var v yaml.Node
+		if err := v.Encode(keys[k]); err != nil {
+			return nil, err
+		}
+		replaced := false
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			if n.Content[i].Value == k {
+				n.Content[i+1], replaced = &v, true
+			}
+		}
+		if !replaced {
+			n.Content = append(n.Content, &yaml.Node{Kind: yaml.ScalarNode, Value: k}, &v)
+		}
+	}
+	return &n, nil
 }
 
 // Obstruction is a body part in the way of the sensors.

@@ -494,3 +494,15 @@ func TestPowerViewRefuses(t *testing.T) {
 		}
 	}
 }
+
+// Boresights less than a degree apart share one mark and one label, their
+// names joined in order; the same azimuth through a pole (any azimuth at
+// −90° elevation is one direction) counts as one direction (closed form:
+// the angle between unit vectors).
+func TestMergeMarkers(t *testing.T) {
+	got := mergeMarkers([]Marker{{"a", 0, -90}, {"b", 10, 0}, {"c", 135, -90}, {"d", 10.5, 0.2}, {"e", 12, 0}}, sameMarkDeg)
+	want := []Marker{{"a, c", 0, -90}, {"b, d", 10, 0}, {"e", 12, 0}}
+	if fmt.Sprint(got) != fmt.Sprint(want) {
+		t.Errorf("merged %v, want %v", got, want)
+	}
+}

@@ -46,6 +46,34 @@ type Marker struct {
 	AzDeg, ElDeg float64
 }
 
+// sameMarkDeg is the angle within which boresights share one mark and one
+// label (names joined), so labels of sensors on one face do not overprint.
+const sameMarkDeg = 1.0
+
+// mergeMarkers joins markers less than tolDeg apart into the first of
+// them, their names joined by ", " in the given order.
+func mergeMarkers(ms []Marker, tolDeg float64) []Marker {
+	var out []Marker
+	cosTol := math.Cos(tolDeg * math.Pi / 180)
+	dir := func(m Marker) [3]float64 {
+		az, el := m.AzDeg*math.Pi/180, m.ElDeg*math.Pi/180
+		return [3]float64{math.Cos(el) * math.Cos(az), math.Cos(el) * math.Sin(az), math.Sin(el)}
+	}
+next:
+	for _, m := range ms {
+		d := dir(m)
+		for i := range out {
+			o := dir(out[i])
+			if d[0]*o[0]+d[1]*o[1]+d[2]*o[2] >= cosTol {
+				out[i].Name += ", " + m.Name
+				continue next
+			}
+		}
+		out = append(out, m)
+	}
+	return out
+}
+
 // Point is a body-frame direction.
 type Point struct{ AzDeg, ElDeg float64 }
 
@@ -540,7 +568,7 @@ func (s *skyPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		}
 	}
 	ring := draw.GlyphStyle{Color: colBlack, Radius: 5, Shape: draw.CrossGlyph{}}
-	for _, b := range s.Boresights {
+	for _, b := range mergeMarkers(s.Boresights, sameMarkDeg) {
 		p := tr(hammerDeg(wrapAz(b.AzDeg), b.ElDeg))
 		c.DrawGlyph(draw.GlyphStyle{Color: color.White, Radius: 6.5, Shape: draw.CircleGlyph{}}, p)
 		c.DrawGlyph(ring, p)

@@ -23,6 +23,10 @@
 //     Dormand–Prince 5(4) scheme (Dormand & Prince 1980) and its 4th-order
 //     dense output (Hairer, Nørsett & Wanner 1993). It starts from the
 //     osculating state of the given mean elements (MeanToOsculating).
+//     The dense output of the last 16 steps is kept, so a time a little
+//     before the latest one (an event search refining a boundary) is
+//     served without integrating again, bit for bit what a forward
+//     integration gives there.
 //   - OsculatingToMean / MeanToOsculating: first-order J2 mean elements in
 //     Kozai's sense (orbit average of the osculating elements), computed by
 //     numerical averaging over one period in equinoctial elements, and its

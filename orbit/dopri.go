@@ -73,6 +73,26 @@ type dopri5 struct {
 	k2, k3, k4, k5, k6, ks, ys, ye vec6
 	steps                          int // accepted steps so far
 	reject                         int
+	// The dense output of the keptSteps steps before the last one, oldest
+	// overwritten first (past[n % keptSteps] is the next to go), so a
+	// caller going a little back in time is served without integrating
+	// again.
+	past  [keptSteps]denseStep
+	nPast int
+}
+
+// keptSteps is the number of earlier steps whose dense output is kept. An
+// event search refining a boundary inside its last grid step goes back at
+// most two grid steps (a golden-section search over a grazing pass); with a
+// step cap of a twentieth of the period and a 60 s grid, 16 steps cover
+// that on every orbit above the Earth's surface (common practice, no
+// source: sized from the step counts of the integrator's tests).
+const keptSteps = 16
+
+// denseStep is one accepted step's dense-output polynomial on [t, t+h].
+type denseStep struct {
+	t, h float64
+	cont [5]vec6
 }
 
 func newDopri5(f deriv6, t0 float64, y0 vec6, h0, rtol, atol, hmax float64) *dopri5 {
@@ -92,11 +112,44 @@ func (d *dopri5) reset(t0 float64, y0 vec6, h0 float64) {
 		d.cont[i] = vec6{}
 	}
 	d.cont[0] = y0
+	d.nPast = 0
+}
+
+// earliest is the earliest time served without a reset: the start of the
+// oldest kept step.
+func (d *dopri5) earliest() float64 {
+	if d.nPast == 0 {
+		return d.t
+	}
+	if d.nPast < keptSteps {
+		return d.past[0].t
+	}
+	return d.past[d.nPast%keptSteps].t
+}
+
+// atPast writes the state at t from the kept step holding it (the first
+// whose end is at or after t, the one a forward integration would have
+// served t from) and reports whether one holds it.
+func (d *dopri5) atPast(t float64, y *vec6) bool {
+	n := min(d.nPast, keptSteps)
+	for j := n; j >= 1; j-- { // oldest first
+		p := &d.past[(d.nPast-j)%keptSteps]
+		if t >= p.t && t <= p.t+p.h {
+			evalDense(&p.cont, (t-p.t)/p.h, y)
+			return true
+		}
+	}
+	return false
 }
 
 // step takes one accepted step from t+h (the end of the previous step).
 func (d *dopri5) step() {
-	// Advance the window: the previous end is the new start.
+	// Keep the step being left, then advance the window: the previous end
+	// is the new start.
+	if d.h > 0 {
+		d.past[d.nPast%keptSteps] = denseStep{t: d.t, h: d.h, cont: d.cont}
+		d.nPast++
+	}
 	d.t += d.h
 	d.y0 = d.y1
 	d.k1 = d.k7
@@ -175,9 +228,12 @@ func (d *dopri5) at(t float64, y *vec6) {
 		*y = d.y0
 		return
 	}
-	θ := (t - d.t) / d.h
+	evalDense(&d.cont, (t-d.t)/d.h, y)
+}
+
+// evalDense evaluates a step's dense-output polynomial at θ ∈ [0, 1].
+func evalDense(c *[5]vec6, θ float64, y *vec6) {
 	θ1 := 1 - θ
-	c := &d.cont
 	for i := range y {
 		y[i] = c[0][i] + θ*(c[1][i]+θ1*(c[2][i]+θ*(c[3][i]+θ1*c[4][i])))
 	}

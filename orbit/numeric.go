@@ -101,19 +101,28 @@ func (p *J2Numeric) InitialState() State { return p.initial }
 func (p *J2Numeric) Restart(s State) (Restarter, error) { return NewJ2NumericFromState(s, p.opt) }
 
 // StateAt returns the state at t ≥ 0. Increasing t continues the
-// integration; a t before the current step restarts it from the epoch.
-// A negative t is a programming error and panics.
+// integration; a t before the current step is served from the dense output
+// of the steps kept (see Earliest), or restarts the integration from the
+// epoch when it lies before them. A negative t is a programming error and
+// panics.
 func (p *J2Numeric) StateAt(t float64) State {
 	if t < 0 {
 		panic("orbit: J2Numeric.StateAt needs t ≥ 0")
 	}
+	var y vec6
 	if t < p.rk.t {
+		if p.rk.atPast(t, &y) {
+			return unpack(&y)
+		}
 		p.rk.reset(0, pack(p.initial), p.h0)
 	}
-	var y vec6
 	p.rk.advanceTo(t, &y)
 	return unpack(&y)
 }
+
+// Earliest implements Restarter: the earliest time StateAt serves without
+// integrating again from the epoch (the start of the oldest step kept).
+func (p *J2Numeric) Earliest() float64 { return p.rk.earliest() }
 
 // Fill writes the states at t0 + k·dt into dst.
 func (p *J2Numeric) Fill(dst []State, t0, dt float64) {

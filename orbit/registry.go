@@ -15,6 +15,9 @@ type Restarter interface {
 	// Restart returns a fresh propagator of the same kind and options
 	// whose t = 0 state is s.
 	Restart(s State) (Restarter, error)
+	// Earliest is the earliest t served without integrating again: a
+	// caller going back in time restarts only before it.
+	Earliest() float64
 }
 
 // PropagatorInfo is the registry entry of one propagator: its name in the

@@ -6,8 +6,8 @@ import (
 
 // rewindable returns a propagator that serves requests going a little back
 // in time cheaply. The eclipse search refines each event inside one grid
-// step, which may reach before a numerical integrator's current step; the
-// integrator would then restart from the epoch. Checkpoints every
+// step: the integrator serves that from the steps it keeps (Earliest). A
+// request before them would restart it from the epoch; checkpoints every
 // checkpointS seconds let it restart from the latest one instead.
 // Closed-form propagators are returned as they are.
 func rewindable(newProp func() orbit.Propagator) orbit.Propagator {
@@ -35,7 +35,7 @@ type checkpointed struct {
 }
 
 func (c *checkpointed) StateAt(t float64) orbit.State {
-	if t < c.last {
+	if t < c.last && t-c.t0 < c.cur.Earliest() {
 		// Restart from the latest checkpoint at or before t.
 		i := len(c.checks) - 1
 		for i > 0 && c.checks[i].t > t {

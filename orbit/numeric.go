@@ -124,6 +124,16 @@ func (p *J2Numeric) StateAt(t float64) State {
 // integrating again from the epoch (the start of the oldest step kept).
 func (p *J2Numeric) Earliest() float64 { return p.rk.earliest() }
 
+// Fork implements Restarter: a copy of the integration as it stands (the
+// steps taken do not depend on the times asked, so the copy continues it
+// bit for bit).
+func (p *J2Numeric) Fork() Restarter {
+	c := *p
+	rk := *p.rk
+	c.rk = &rk
+	return &c
+}
+
 // Fill writes the states at t0 + k·dt into dst.
 func (p *J2Numeric) Fill(dst []State, t0, dt float64) {
 	for k := range dst {

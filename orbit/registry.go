@@ -18,6 +18,10 @@ type Restarter interface {
 	// Earliest is the earliest t served without integrating again: a
 	// caller going back in time restarts only before it.
 	Earliest() float64
+	// Fork returns a copy in the current state of the integration: asked
+	// the same times, it gives bit for bit what this one would. Pieces of
+	// a time grid run on several cores from forks of one integration.
+	Fork() Restarter
 }
 
 // PropagatorInfo is the registry entry of one propagator: its name in the

@@ -79,6 +79,9 @@ type Config struct {
 	// nadir-pointing runs with a uniform albedo use instead of the cell
 	// integral (see albedotable.go).
 	NoAlbedoTable bool
+	// onePiece runs the grid as one piece from the epoch (tests: the
+	// reference the pieces must equal).
+	onePiece bool
 
 	// Estimators are run side by side on the same readings; the first one is
 	// the primary, used for validity gaps and the time series.
@@ -241,9 +244,14 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	}
 	steps := cfg.Steps()
 	chunk := chunkSteps
-	if _, numeric := cfg.NewPropagator().(orbit.Restarter); numeric || cfg.Filter != nil {
-		// A numerical integration, or a filter, runs forward from the
-		// epoch: one piece.
+	// A numerical integration runs forward from the epoch: the pieces
+	// start from forks of one integration (forks.go). A filter runs
+	// forward too, from its own state: one piece.
+	var integ *integration
+	if num, ok := cfg.NewPropagator().(orbit.Restarter); ok && !cfg.onePiece {
+		integ = newIntegration(num, chunk, cfg.Step)
+	}
+	if cfg.Filter != nil || cfg.onePiece {
 		chunk = steps
 	}
 	nChunks := (steps + chunk - 1) / chunk
@@ -309,7 +317,7 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	for range min(workers, nTasks) {
 		wg.Go(func() {
 			for tk := range next {
-				as, err := runChunk(ctx, &cfg, arrays, tk, &done, units*steps, tables)
+				as, err := runChunk(ctx, &cfg, arrays, tk, &done, units*steps, tables, integ)
 				mu.Lock()
 				if err != nil && firstErr == nil {
 					firstErr = err

@@ -615,10 +615,13 @@ func (r *reader) subtractPrediction(pred []sensor.Albedo) {
 // computed once per step (on the nominal mounts, with unit tk.u0's
 // attitude, the same for every unit of a task) and each unit's sensors are
 // read on it.
-func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task, done *atomic.Int64, total int, tables albedoTables) ([]*unitAcc, error) {
+func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task, done *atomic.Int64, total int, tables albedoTables, integ *integration) ([]*unitAcc, error) {
 	g, err := newGeometry(cfg, arrays[tk.u0], tk.u0, tables)
 	if err != nil {
 		return nil, err
+	}
+	if integ != nil {
+		g.prop = integ.forPiece(tk.chunk)
 	}
 	readers := make([]*reader, tk.u1-tk.u0)
 	for i := range readers {

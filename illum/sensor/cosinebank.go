@@ -1,7 +1,6 @@
 package sensor
 
 import (
-	"math"
 	"math/rand/v2"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -77,7 +76,7 @@ func (s *bankCosine) digitise(v float64) (float64, bool) {
 		v, sat = s.fullScale, true
 	}
 	if s.q > 0 {
-		v = math.Round(v/s.q) * s.q
+		v = roundNonNeg(v/s.q) * s.q
 	}
 	return v, sat
 }

@@ -80,7 +80,10 @@
 // as they are next (memory flat in the duration: at most about one chunk
 // per worker waits); noise is reseeded per block of 4096 steps from (seed,
 // unit, block) and each unit's error draws from (seed, unit), so results do
-// not depend on the number of workers. Monte Carlo units are independent
+// not depend on the number of workers. A numerical integration
+// (orbit.Restarter: j2-numeric) runs once from the epoch and each chunk
+// starts from a fork of it taken before its first step (forks.go): the
+// chunks see bit for bit the states of the one integration. Monte Carlo units are independent
 // draws of the sensors' error models; when they share one attitude law
 // (Config.LawForUnit unset) the geometry of a step — orbit, sun, shadow,
 // attitude, albedo, on the nominal mounts — is computed once and every

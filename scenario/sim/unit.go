@@ -68,6 +68,7 @@ type geometry struct {
 	jd0, jdUT0      float64
 	boresights      []r3.Vec
 	albIn           []albedo.Sensor
+	albInECI        bool // albIn holds this step's axes (sensorsInECI)
 	albOut, corrOut []albedo.Result
 	// Sensors whose albedo runs through their own cell responses (quadrant
 	// sensors): their sensor axes, and, when a table serves the others,
@@ -188,24 +189,14 @@ func (g *geometry) fill(sg *stepGeom, k int, albBody, predBody []sensor.Albedo) 
 	if g.alb == nil {
 		return
 	}
-	jd := g.jd0 + t/86400
-	for i, b := range g.boresights {
-		g.albIn[i].Normal = M.toECI(b)
-	}
-	for k, i := range g.cells {
-		g.albIn[i].X, g.albIn[i].Y = M.toECI(g.cellX[k]), M.toECI(g.cellY[k])
-	}
-	for k, i := range g.clipped {
-		g.albIn[i].Plane = M.toECI(g.clipN[k])
-	}
-	gmst := ephem.GMST(g.jdUT0 + t/86400)
-	g.integrate(g.alb, g.table, g.albOut, st, sunU, sunD, gmst, jd)
+	g.albInECI = false
+	g.integrate(g.alb, g.table, g.albOut, st, sunU, sunD, M, t)
 	toBody(albBody, g.albOut, M)
 	if g.corr != nil {
 		// The on-board model's prediction, by the same route as the truth
 		// (a table when one serves it), so that the same model predicts
 		// the same numbers.
-		g.integrate(g.corr, g.corrTab, g.corrOut, st, sunU, sunD, gmst, jd)
+		g.integrate(g.corr, g.corrTab, g.corrOut, st, sunU, sunD, M, t)
 		toBody(predBody, g.corrOut, M)
 	}
 }
@@ -232,21 +223,47 @@ func (g *geometry) attitude(M *bodyMatrix, t float64, st orbit.State, sunU r3.Ve
 // integrate fills out with model m's albedo on the sensors, from table t
 // when it serves the step. The tables hold whole cones: the cell sensors and
 // the cones cut by their mounting plane are then integrated on their own.
-func (g *geometry) integrate(m *albedo.Model, t *localAlbedo, out []albedo.Result, st orbit.State, sunU r3.Vec, sunD, gmst, jd float64) {
+func (g *geometry) integrate(m *albedo.Model, t *localAlbedo, out []albedo.Result, st orbit.State, sunU r3.Vec, sunD float64, M *bodyMatrix, tS float64) {
+	// The sensors' axes in ECI and the sidereal angle are what the cell
+	// integral and the boresight tables ask for; a nadir-frame table
+	// serves a step without them, so they are made only when asked.
+	if t != nil && t.bore != nil {
+		g.sensorsInECI(M)
+	}
 	if t == nil || !t.irradiance(out, st, sunU, sunD, g.albIn) {
-		m.Irradiance(out, st.R, sunU, sunD, gmst, jd, g.albIn)
+		g.sensorsInECI(M)
+		m.Irradiance(out, st.R, sunU, sunD, ephem.GMST(g.jdUT0+tS/86400), g.jd0+tS/86400, g.albIn)
 		return
 	}
 	if len(g.own) == 0 {
 		return
 	}
+	g.sensorsInECI(M)
 	for k, i := range g.own {
 		g.ownIn[k] = g.albIn[i]
 	}
-	m.Irradiance(g.ownOut, st.R, sunU, sunD, gmst, jd, g.ownIn)
+	m.Irradiance(g.ownOut, st.R, sunU, sunD, ephem.GMST(g.jdUT0+tS/86400), g.jd0+tS/86400, g.ownIn)
 	for k, i := range g.own {
 		out[i] = g.ownOut[k]
 	}
+}
+
+// sensorsInECI turns the sensors' boresights, quadrant axes and mounting
+// planes into ECI with the step's matrix M, once per step (albInECI).
+func (g *geometry) sensorsInECI(M *bodyMatrix) {
+	if g.albInECI {
+		return
+	}
+	for i, b := range g.boresights {
+		g.albIn[i].Normal = M.toECI(b)
+	}
+	for k, i := range g.cells {
+		g.albIn[i].X, g.albIn[i].Y = M.toECI(g.cellX[k]), M.toECI(g.cellY[k])
+	}
+	for k, i := range g.clipped {
+		g.albIn[i].Plane = M.toECI(g.clipN[k])
+	}
+	g.albInECI = true
 }
 
 // toBody turns the albedo model's results (directions in ECI) into the

@@ -2,6 +2,7 @@ package sensor
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -127,5 +128,36 @@ func TestDigitalBlindingThresholds(t *testing.T) {
 	}
 	if _, err := NewDigital(DigitalSpec{Name: "d", Mount: m, HalfAngle: 0.5, Sigma: 1e-3, Blind: BlindRule{Moon: true, MoonLitAbove: 1}}); err == nil {
 		t.Error("a Moon threshold of 1 (can never act) is accepted as a rule")
+	}
+}
+
+// A lit-Earth depth threshold the Earth can never reach is refused: the
+// disc reaches at most half angle + its angular radius inside the cone,
+// and its angular radius is below 90° from any orbit (closed form), so a
+// threshold of half angle + 90° or more would never act.
+func TestDigitalUnreachableEarthDepthRefused(t *testing.T) {
+	m, err := FaceMount(FacePlusZ, 0, FaceNone, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	half := 30 * math.Pi / 180
+	for _, c := range []struct {
+		depthDeg float64
+		ok       bool
+	}{{119, true}, {120, false}, {150, false}} {
+		_, err := NewDigital(DigitalSpec{Name: "d", Mount: m, HalfAngle: half, Sigma: 1e-3,
+			Blind: BlindRule{Earth: true, EarthDepthAbove: c.depthDeg * math.Pi / 180}})
+		if (err == nil) != c.ok {
+			t.Errorf("depth %g° on a 30° cone: error %v, want accepted %v", c.depthDeg, err, c.ok)
+		}
+		if err != nil && !strings.Contains(err.Error(), "lit_earth_blind_depth_deg") {
+			t.Errorf("the refusal does not name the key: %v", err)
+		}
+	}
+	// Reachable from this orbit: 119° < 30° + 90°, though at 550 km the
+	// Earth's disc is 67° in radius and reaches only 97° deep.
+	b := bodiesAt(0, 0, 67)
+	if d := b.EarthDepth(r3.Vec{Z: 1}, half) * 180 / math.Pi; math.Abs(d-97) > 1e-9 {
+		t.Errorf("deepest Earth %.9f°, want 97°", d)
 	}
 }

@@ -84,6 +84,10 @@ func NewDigital(s DigitalSpec) (*Digital, error) {
 	if b := s.Blind; b.Moon && !(b.MoonLitAbove >= 0 && b.MoonLitAbove < 1) || b.Earth && !(b.EarthDepthAbove >= 0 && b.EarthDepthAbove < math.Pi) {
 		return nil, fmt.Errorf("sensor: %q: blinding thresholds: Moon lit fraction %g want [0, 1), Earth depth %g° want [0°, 180°)", s.Name, b.MoonLitAbove, b.EarthDepthAbove*180/math.Pi)
 	}
+	if b := s.Blind; b.Earth && b.EarthDepthAbove >= s.HalfAngle+math.Pi/2-1e-9 {
+		return nil, fmt.Errorf("sensor: %q: lit_earth_blind_depth_deg %g° can never act: the Earth's disc reaches at most the half angle plus its angular radius (below 90°) inside the cone, under %.4g° here; give a smaller depth, or 180 to turn the rule off",
+			s.Name, b.EarthDepthAbove*180/math.Pi, (s.HalfAngle+math.Pi/2)*180/math.Pi)
+	}
 	return &Digital{spec: s, tanMax: math.Tan(s.HalfAngle), cosMax: math.Cos(s.HalfAngle), actual: s.Mount}, nil
 }
 

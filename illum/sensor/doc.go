@@ -78,7 +78,8 @@
 // moon_blind_lit_fraction, or while the sub-satellite point is sunlit and
 // the Earth's disc (angular radius asin(R/r)) reaches more than
 // lit_earth_blind_depth_deg inside the cone (depth = half-angle + asin(R/r)
-// − angle from the boresight to nadir). The defaults, 1 and 180°, can never
+// − angle from the boresight to nadir; a depth of half-angle + 90° or more,
+// which no orbit reaches, is refused). The defaults, 1 and 180°, can never
 // be exceeded: the rule is off until a file sets a threshold, and the
 // albedo centroid bias above stays the model of a sensor without one.
 // Bodies holds the Moon and Earth geometry of a step; MoonInCone and

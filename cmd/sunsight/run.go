@@ -158,13 +158,13 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	if f.maxMemMiB < 1 {
 		return usagef("--max-memory-mib %d: want a positive number of MiB", f.maxMemMiB)
 	}
-	est := estimateMemoryMiB(cfg)
+	est := float64(study.MemoryEstimate(&cfg, study.SeriesRows(&cfg))) / (1 << 20)
 	if s.Targets.NMinus1.Set {
 		est += float64(study.SingleFailureTraceBytes(&cfg)) / (1 << 20)
 	}
 	if est > float64(f.maxMemMiB) {
 		return usagef("the run would need about %.0f MiB (%d units × %d steps, series of %d rows), more than --max-memory-mib %d; lower --units, --duration or the step, thin the series with output.decimate, or raise --max-memory-mib",
-			est, cfg.Units, cfg.Steps(), seriesRows(cfg), f.maxMemMiB)
+			est, cfg.Units, cfg.Steps(), study.SeriesRows(&cfg), f.maxMemMiB)
 	}
 
 	ctx, stop := interruptContext()
@@ -295,35 +295,3 @@ func ensureWritableDir(dir string) error {
 // is refused (--max-memory-mib raises it).
 const defaultMaxMemoryMiB = 4096
 
-// Memory model of a run, measured with /usr/bin/time -f %M on
-// examples/tumbling-3u.yaml (6 h: 17.8 MB at 1 unit, 163 MB at 400, 590 MB
-// at 1600 units; 50 units: 45 MB at 1 d, 115 MB at 10 d): about 30 MiB
-// fixed, 320 KiB per unit, 20 B per unit and step, and per kept series row
-// 9 B per column. The estimate errs high.
-const (
-	memFixedMiB      = 30
-	memPerUnitKiB    = 320
-	memPerUnitStepB  = 20
-	memPerSeriesCell = 9
-)
-
-// seriesRows is the number of time-series rows the run keeps (the series
-// and the figures' short one).
-func seriesRows(cfg sim.Config) int {
-	n := 0
-	if cfg.SeriesStride > 0 {
-		n += cfg.Steps()/cfg.SeriesStride + 1
-	}
-	if cfg.TimelineSpan > 0 && cfg.TimelineStride > 0 {
-		n += int(cfg.TimelineSpan/cfg.Step)/cfg.TimelineStride + 1
-	}
-	return n
-}
-
-// estimateMemoryMiB is the memory model above for a configuration.
-func estimateMemoryMiB(cfg sim.Config) float64 {
-	units, steps := float64(max(cfg.Units, 1)), float64(cfg.Steps())
-	cols := float64(12 + len(cfg.Viewers))
-	b := units*(memPerUnitKiB*1024+memPerUnitStepB*steps) + float64(seriesRows(cfg))*cols*memPerSeriesCell
-	return memFixedMiB + b/(1<<20)
-}

@@ -125,21 +125,14 @@ func NewBoresightTable(m *Model, radiiKm []float64, half float64, resp Response,
 	if err := (Sensor{Normal: r3.Vec{Z: 1}, HalfAngle: half}).Validate("sensor"); err != nil {
 		return nil, err
 	}
-	nθ := int(math.Ceil(180/resDeg - 1e-9))
-	nb := int(math.Ceil(180/stepDeg - 1e-9))
-	t := &BoresightTable{radii: append([]float64(nil), radiiKm...), polar: newPolarGrid(nθ), hb: math.Pi / float64(nb), halfCone: half, ch: ch}
+	t := &BoresightTable{radii: append([]float64(nil), radiiKm...), halfCone: half, ch: ch}
+	t.polar, t.hb, t.nθn, t.nφ, t.per = boresightGrid(radiiKm[0], half, resDeg, stepDeg, ch)
 	if z, ok := m.refl.(Zonal); ok {
 		t.zonal = z
 	}
-	// A boresight farther from nadir than the Earth's disc plus the cone
-	// (and a cell) sees nothing: the grid stops one step beyond.
-	ηMax := math.Asin(EarthRadiusKm / radiiKm[0])
-	t.nθn = min(nb, int(math.Ceil((ηMax+half+0.05)/t.hb))+1) + 1
-	t.nφ = nb + 1
 	for _, r := range radiiKm {
 		t.darkZ = append(t.darkZ, math.Sqrt(1-(EarthRadiusKm/r)*(EarthRadiusKm/r)))
 	}
-	t.per = (t.polar.n + 1) * t.nθn * t.nφ * boresightVals * ch
 	t.vals = make([]float32, len(radiiKm)*t.per)
 
 	// The sensors of one row: every boresight node, in the local frame (+Z to nadir).
@@ -164,6 +157,39 @@ func NewBoresightTable(m *Model, radiiKm []float64, half float64, resp Response,
 	}
 	return t, nil
 }
+
+// boresightGrid is the grid of a BoresightTable whose lowest radius is r0Km:
+// the sun's polar nodes, the boresight step, the boresight nodes in polar
+// angle and azimuth, and the values per radius (ch channels).
+func boresightGrid(r0Km, half, resDeg, stepDeg float64, ch int) (polar polarGrid, hb float64, nθn, nφ, per int) {
+	nθ := int(math.Ceil(180/resDeg - 1e-9))
+	nb := int(math.Ceil(180/stepDeg - 1e-9))
+	polar, hb = newPolarGrid(nθ), math.Pi/float64(nb)
+	// A boresight farther from nadir than the Earth's disc plus the cone
+	// (and a cell) sees nothing: the grid stops one step beyond.
+	ηMax := math.Asin(EarthRadiusKm / r0Km)
+	nθn = min(nb, int(math.Ceil((ηMax+half+0.05)/hb))+1) + 1
+	nφ = nb + 1
+	per = (polar.n + 1) * nθn * nφ * boresightVals * ch
+	return polar, hb, nθn, nφ, per
+}
+
+// BoresightTableBytes is the memory of the values of a BoresightTable of
+// nRadii radii from r0Km up, for a cone of half-angle half, zonal (ten
+// channels) or uniform, at the given grid steps: what NewBoresightTable
+// allocates (TestBoresightTableBytes), for a memory estimate made before
+// any table is built.
+func BoresightTableBytes(nRadii int, r0Km, half float64, zonal bool, resDeg, stepDeg float64) int64 {
+	ch := 1
+	if zonal {
+		ch = zonalChannels
+	}
+	_, _, _, _, per := boresightGrid(r0Km, half, resDeg, stepDeg, ch)
+	return int64(nRadii) * int64(per) * 4
+}
+
+// Bytes is the memory of the table's values.
+func (t *BoresightTable) Bytes() int64 { return int64(len(t.vals)) * 4 }
 
 // buildRadius fills the table at radius index r with the cell integral of
 // Model.Irradiance, the spacecraft at −Z·r (nadir along +Z) and the sun in

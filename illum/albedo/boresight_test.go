@@ -166,3 +166,29 @@ func rolloff(t *testing.T) Response {
 	}
 	return r
 }
+
+// BoresightTableBytes is what NewBoresightTable allocates for its values,
+// uniform and zonal, one radius and three (closed form: the same grid).
+func TestBoresightTableBytes(t *testing.T) {
+	const deg = math.Pi / 180
+	u, _ := New(Config{Cells: 200})
+	z, _ := New(Config{Cells: 200, Reflectance: Zonal{A0: 0.3, A2: 0.1}})
+	r := EarthRadiusKm + 550
+	for _, c := range []struct {
+		m     *Model
+		zonal bool
+		radii []float64
+		half  float64
+	}{{u, false, []float64{r}, 60 * deg}, {u, false, []float64{r, r + 5, r + 10}, 30 * deg}, {z, true, []float64{r}, 60 * deg}} {
+		tab, err := NewBoresightTable(c.m, c.radii, c.half, Response{}, 9, 9)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got, want := BoresightTableBytes(len(c.radii), c.radii[0], c.half, c.zonal, 9, 9), tab.Bytes(); got != want || want == 0 {
+			t.Errorf("zonal %v, %d radii: estimate %d bytes, table %d", c.zonal, len(c.radii), got, want)
+		}
+	}
+	t.Logf("default grid, 550 km, 60° cone: uniform %.1f MB, zonal %.1f MB per radius",
+		float64(BoresightTableBytes(1, r, 60*deg, false, DefaultBoresightSunResDeg, DefaultBoresightStepDeg))/1e6,
+		float64(BoresightTableBytes(1, r, 60*deg, true, DefaultBoresightSunResDeg, DefaultBoresightStepDeg))/1e6)
+}

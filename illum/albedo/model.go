@@ -176,6 +176,10 @@ func (m *Model) Cells() int { return m.n }
 // (the case the albedo tables serve).
 func (m *Model) IsUniform() bool { return m.kind == kindUniform }
 
+// SharesTables reports whether the model reads its cones from the shared
+// zonal tables of NewTableFactory (built on first use).
+func (m *Model) SharesTables() bool { return m.tabs != nil }
+
 // capFrame returns the unit basis (ex, ey, ez) of the cap frame, ez toward rSat.
 func capFrame(rSat r3.Vec, r float64) (ex, ey, ez r3.Vec) {
 	ez = r3.Scale(1/r, rSat)

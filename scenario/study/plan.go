@@ -3,10 +3,13 @@ package study
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
 	"codeberg.org/sunsight/sunsight/ephem"
+	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -128,30 +131,82 @@ func Derive(s *scenario.Scenario, p *Plan) (Derived, error) {
 	return d, nil
 }
 
-// Terms of MemoryEstimate, in bytes, fitted to peak resident sizes
-// measured with /usr/bin/time -f %M on the bundled examples (one unit and
-// four estimators: 19 MB; tumbling-3u, two estimators, 1 / 20 / 40 units:
-// 18 / 31 / 37 MB); a rough figure, not a bound.
+// Terms of MemoryEstimate, measured with /usr/bin/time -f %M on
+// examples/tumbling-3u.yaml (6 h: 17.8 MB at 1 unit, 163 MB at 400, 590 MB
+// at 1600 units; 50 units: 45 MB at 1 d, 115 MB at 10 d; again after the
+// step-loop changes of December 2026: 62 MB at 1 d, 105 MB at 10 d). The
+// term per unit and step is what a unit's records of events keep (its
+// sunlit gaps without a valid estimate: a tumbling layout gated tightly
+// has hundreds a day); the streaming statistics are flat in the duration.
+// The estimate errs high; it is not a bound.
 const (
-	// memBase: the Go runtime, the program, the albedo model's cells.
-	memBase = 18 << 20
-	// memPerUnitEstimator: the streaming statistics (quantile bins in use)
-	// of one estimator of one unit.
-	memPerUnitEstimator = 300 << 10
-	// memPerSeriesRowScalar: one float64 or int per time-series column.
-	memPerSeriesRowScalar = 8
+	memFixed        = 30 << 20  // the Go runtime, the program, the albedo model's cells
+	memPerUnit      = 320 << 10 // one unit's streaming statistics (quantile bins in use)
+	memPerUnitStep  = 20        // one unit's event records, per step
+	memPerSeriesCol = 9         // one time-series cell (value and its share of the row)
 )
 
-// MemoryEstimate is a rough estimate of the peak memory of a run of cfg
-// keeping seriesRows rows of time series (0 for none): a fixed base, the
-// quantile histograms of each unit and estimator, and the series (ten
-// columns plus one signal per sensor). The step loop keeps no other
-// per-step data (scenario/sim streams its statistics).
-func MemoryEstimate(cfg *sim.Config, seriesRows int) int64 {
-	units := int64(max(cfg.Units, 1))
-	m := int64(memBase) + units*int64(len(cfg.Estimators))*memPerUnitEstimator
-	if seriesRows > 0 && cfg.Array != nil {
-		m += int64(seriesRows) * int64(10+cfg.Array.Len()) * memPerSeriesRowScalar
+// SeriesRows is the number of time-series rows a run of cfg keeps (the
+// series and the figures' short one).
+func SeriesRows(cfg *sim.Config) int {
+	n := 0
+	if cfg.SeriesStride > 0 {
+		n += cfg.Steps()/cfg.SeriesStride + 1
 	}
-	return m
+	if cfg.TimelineSpan > 0 && cfg.TimelineStride > 0 {
+		n += int(cfg.TimelineSpan/cfg.Step)/cfg.TimelineStride + 1
+	}
+	return n
+}
+
+// MemoryEstimate is the one memory model of a run of cfg (run refuses a
+// run above --max-memory-mib on it, check prints it): a fixed base, each
+// unit's statistics and event records, seriesRows rows of time series
+// (twelve columns and one per sensor), and the albedo tables the engine
+// builds (albedoTableBytes).
+func MemoryEstimate(cfg *sim.Config, seriesRows int) int64 {
+	units, steps := int64(max(cfg.Units, 1)), int64(cfg.Steps())
+	cols := int64(12 + len(cfg.Viewers))
+	m := int64(memFixed) + units*(memPerUnit+memPerUnitStep*steps) + int64(seriesRows)*cols*memPerSeriesCol
+	return m + albedoTableBytes(cfg, cfg.NewAlbedo) + albedoTableBytes(cfg, cfg.NewCorrection)
+}
+
+// albedoTableBytes is the memory of the albedo tables of the model factory
+// f: one boresight table per kind of cone (half-angle and response) at the
+// orbit's radius at the epoch, zonal (ten channels: about 67 MB for a 60°
+// cone) when the model shares zonal tables, uniform (about 7 MB) for a
+// uniform albedo; none for a gridded map or no albedo. A uniform run on an
+// orbit whose radius varies may build up to four radii per kind, and a short
+// one none: the figure is the common case.
+func albedoTableBytes(cfg *sim.Config, f func() (*albedo.Model, error)) int64 {
+	if f == nil || cfg.Array == nil || cfg.NewPropagator == nil {
+		return 0
+	}
+	m, err := f()
+	if err != nil {
+		return 0
+	}
+	zonal := m.SharesTables()
+	if !zonal && (!m.IsUniform() || cfg.NoAlbedoTable) {
+		return 0
+	}
+	r0 := vecmath.Norm(cfg.NewPropagator().StateAt(0).R)
+	type kind struct {
+		half float64
+		resp albedo.Response
+	}
+	var kinds []kind
+	var b int64
+	for i, s := range cfg.Array.Sensors() {
+		k := kind{half: s.HalfAngle()}
+		if cfg.AlbedoResponse != nil {
+			k.resp = cfg.AlbedoResponse[i]
+		}
+		if slices.Contains(kinds, k) {
+			continue
+		}
+		kinds = append(kinds, k)
+		b += albedo.BoresightTableBytes(1, r0, k.half, zonal, albedo.DefaultBoresightSunResDeg, albedo.DefaultBoresightStepDeg)
+	}
+	return b
 }

@@ -294,4 +294,3 @@ func ensureWritableDir(dir string) error {
 // defaultMaxMemoryMiB is the memory a run may be estimated to need before it
 // is refused (--max-memory-mib raises it).
 const defaultMaxMemoryMiB = 4096
-

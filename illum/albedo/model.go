@@ -180,6 +180,10 @@ func (m *Model) IsUniform() bool { return m.kind == kindUniform }
 // zonal tables of NewTableFactory (built on first use).
 func (m *Model) SharesTables() bool { return m.tabs != nil }
 
+// SharesTablesWith reports whether m and o read their cones from the same
+// shared zonal tables (models of one NewTableFactory).
+func (m *Model) SharesTablesWith(o *Model) bool { return m.tabs != nil && m.tabs == o.tabs }
+
 // capFrame returns the unit basis (ex, ey, ez) of the cap frame, ez toward rSat.
 func capFrame(rSat r3.Vec, r float64) (ex, ey, ez r3.Vec) {
 	ez = r3.Scale(1/r, rSat)

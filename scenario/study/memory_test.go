@@ -35,3 +35,30 @@ func TestMemoryEstimateCountsAlbedoTables(t *testing.T) {
 	}
 	t.Logf("no albedo %.1f MB, uniform tables %.1f MB, zonal tables %.1f MB", float64(est["none"])/(1<<20), float64(uni)/(1<<20), float64(zon)/(1<<20))
 }
+
+// The attitude modes of a long zonal run read the primary's shared zonal
+// tables: one set is built, not one per mode.
+func TestModesShareTheZonalTables(t *testing.T) {
+	s := parse(t, "duration: 10d\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n"+
+		"modes:\n  - {name: inertial, law: inertial, quaternion: [1, 0, 0, 0]}\n"+
+		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60}\n    - {name: b, kind: cosine, face: \"-X\", half_angle_deg: 60}\n"+
+		"albedo: {model: zonal}\n")
+	p, err := Prepare(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(p.Modes) != 1 {
+		t.Fatalf("%d modes", len(p.Modes))
+	}
+	a, err := p.Primary.NewAlbedo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := p.Modes[0].Config.NewAlbedo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !a.SharesTables() || !a.SharesTablesWith(b) {
+		t.Errorf("the mode's albedo model does not share the primary's zonal tables (shared %v)", a.SharesTables())
+	}
+}

@@ -45,6 +45,10 @@ func Prepare(s *scenario.Scenario) (*Plan, error) {
 		if err != nil {
 			return nil, fmt.Errorf("modes[%d] (%s): %w", i, m.Name, err)
 		}
+		// A mode changes the attitude only: its albedo models are the
+		// primary's, so a long zonal run shares one set of zonal tables
+		// (built once, 50–80 MB each) instead of one per mode.
+		mc.NewAlbedo, mc.NewCorrection = cfg.NewAlbedo, cfg.NewCorrection
 		p.Modes = append(p.Modes, ModePlan{Name: m.Name, Config: mc})
 	}
 	return p, nil

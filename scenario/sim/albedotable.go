@@ -128,26 +128,8 @@ func buildBoresightAlbedo(cfg *Config, stepSets int) *localAlbedo {
 			radii = append(radii, rMin+(rMax-rMin)*float64(k)/float64(n-1))
 		}
 	}
-	type kind struct {
-		half float64
-		resp albedo.Response
-	}
-	var kinds []kind
-	t := &localAlbedo{}
-	for i, s := range cfg.Array.Sensors() {
-		k := kind{half: s.HalfAngle()}
-		if cfg.AlbedoResponse != nil {
-			k.resp = cfg.AlbedoResponse[i]
-		}
-		j := 0
-		for j < len(kinds) && kinds[j] != k {
-			j++
-		}
-		if j == len(kinds) {
-			kinds = append(kinds, k)
-		}
-		t.kindOf = append(t.kindOf, j)
-	}
+	kinds, kindOf := coneKinds(cfg)
+	t := &localAlbedo{kindOf: kindOf}
 	if stepSets*cfg.Array.Len() < boresightMinWork*len(kinds)*len(radii) {
 		return nil
 	}
@@ -159,6 +141,66 @@ func buildBoresightAlbedo(cfg *Config, stepSets int) *localAlbedo {
 		t.bore = append(t.bore, b)
 	}
 	return t
+}
+
+// coneKind is a kind of cone the boresight tables are built for: a
+// half-angle and an angular response.
+type coneKind struct {
+	half float64
+	resp albedo.Response
+}
+
+// coneKinds returns the distinct cones of cfg's sensors, in order of first
+// appearance, and the kind of each sensor.
+func coneKinds(cfg *Config) (kinds []coneKind, kindOf []int) {
+	for i, s := range cfg.Array.Sensors() {
+		k := coneKind{half: s.HalfAngle()}
+		if cfg.AlbedoResponse != nil {
+			k.resp = cfg.AlbedoResponse[i]
+		}
+		j := 0
+		for j < len(kinds) && kinds[j] != k {
+			j++
+		}
+		if j == len(kinds) {
+			kinds = append(kinds, k)
+		}
+		kindOf = append(kindOf, j)
+	}
+	return kinds, kindOf
+}
+
+// AlbedoTableBytes estimates the memory of the albedo tables a run of cfg
+// builds, for the truth's model and the on-board one: one boresight table
+// per kind of cone at the orbit's radius at the epoch, zonal (ten
+// channels: about 67 MB for a 60° cone) when the model shares zonal
+// tables, uniform (about 7 MB) for a uniform albedo; none for a gridded map
+// or no albedo. A uniform run on an orbit whose radius varies may build up
+// to four radii per kind, and a short one none: the figure is the common
+// case, made before any table is built.
+func AlbedoTableBytes(cfg *Config) int64 {
+	return tableBytes(cfg, cfg.NewAlbedo) + tableBytes(cfg, cfg.NewCorrection)
+}
+
+func tableBytes(cfg *Config, f func() (*albedo.Model, error)) int64 {
+	if f == nil || cfg.Array == nil || cfg.NewPropagator == nil {
+		return 0
+	}
+	m, err := f()
+	if err != nil {
+		return 0
+	}
+	zonal := m.SharesTables()
+	if !zonal && (!m.IsUniform() || cfg.NoAlbedoTable) {
+		return 0
+	}
+	r0 := vecmath.Norm(cfg.NewPropagator().StateAt(0).R)
+	kinds, _ := coneKinds(cfg)
+	var b int64
+	for _, k := range kinds {
+		b += albedo.BoresightTableBytes(1, r0, k.half, zonal, albedo.DefaultBoresightSunResDeg, albedo.DefaultBoresightStepDeg)
+	}
+	return b
 }
 
 // clone returns a copy with its own scratch frame, for one goroutine.

@@ -3,13 +3,10 @@ package study
 import (
 	"fmt"
 	"math"
-	"slices"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
 	"codeberg.org/sunsight/sunsight/ephem"
-	"codeberg.org/sunsight/sunsight/illum/albedo"
-	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -167,50 +164,10 @@ func SeriesRows(cfg *sim.Config) int {
 // run above --max-memory-mib on it, check prints it): a fixed base, each
 // unit's statistics and event records, seriesRows rows of time series
 // (twelve columns and one per sensor), and the albedo tables the engine
-// builds (albedoTableBytes).
+// builds (sim.AlbedoTableBytes).
 func MemoryEstimate(cfg *sim.Config, seriesRows int) int64 {
 	units, steps := int64(max(cfg.Units, 1)), int64(cfg.Steps())
 	cols := int64(12 + len(cfg.Viewers))
 	m := int64(memFixed) + units*(memPerUnit+memPerUnitStep*steps) + int64(seriesRows)*cols*memPerSeriesCol
-	return m + albedoTableBytes(cfg, cfg.NewAlbedo) + albedoTableBytes(cfg, cfg.NewCorrection)
-}
-
-// albedoTableBytes is the memory of the albedo tables of the model factory
-// f: one boresight table per kind of cone (half-angle and response) at the
-// orbit's radius at the epoch, zonal (ten channels: about 67 MB for a 60°
-// cone) when the model shares zonal tables, uniform (about 7 MB) for a
-// uniform albedo; none for a gridded map or no albedo. A uniform run on an
-// orbit whose radius varies may build up to four radii per kind, and a short
-// one none: the figure is the common case.
-func albedoTableBytes(cfg *sim.Config, f func() (*albedo.Model, error)) int64 {
-	if f == nil || cfg.Array == nil || cfg.NewPropagator == nil {
-		return 0
-	}
-	m, err := f()
-	if err != nil {
-		return 0
-	}
-	zonal := m.SharesTables()
-	if !zonal && (!m.IsUniform() || cfg.NoAlbedoTable) {
-		return 0
-	}
-	r0 := vecmath.Norm(cfg.NewPropagator().StateAt(0).R)
-	type kind struct {
-		half float64
-		resp albedo.Response
-	}
-	var kinds []kind
-	var b int64
-	for i, s := range cfg.Array.Sensors() {
-		k := kind{half: s.HalfAngle()}
-		if cfg.AlbedoResponse != nil {
-			k.resp = cfg.AlbedoResponse[i]
-		}
-		if slices.Contains(kinds, k) {
-			continue
-		}
-		kinds = append(kinds, k)
-		b += albedo.BoresightTableBytes(1, r0, k.half, zonal, albedo.DefaultBoresightSunResDeg, albedo.DefaultBoresightStepDeg)
-	}
-	return b
+	return m + sim.AlbedoTableBytes(cfg)
 }

@@ -5,6 +5,7 @@ import (
 	"flag"
 	"fmt"
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
 	"image/color"
 	"math"
 	"os"
@@ -504,5 +505,18 @@ func TestMergeMarkers(t *testing.T) {
 	want := []Marker{{"a, c", 0, -90}, {"b, d", 10, 0}, {"e", 12, 0}}
 	if fmt.Sprint(got) != fmt.Sprint(want) {
 		t.Errorf("merged %v, want %v", got, want)
+	}
+}
+
+// A label placed to the right of a boresight next to a sun fixed in body
+// axes would run under the sun's marker: underSun says so, and not for a
+// label clear of it (closed form on the label rectangle).
+func TestLabelUnderFixedSun(t *testing.T) {
+	r := vg.Rectangle{Min: vg.Point{X: 0, Y: -4}, Max: vg.Point{X: 30, Y: 8}}
+	if !underSun(r, vg.Point{X: 100, Y: 50}, vg.Point{X: 115, Y: 52}) {
+		t.Error("a sun 15 pt into a 30 pt label is not under it")
+	}
+	if underSun(r, vg.Point{X: 100, Y: 50}, vg.Point{X: 145, Y: 52}) {
+		t.Error("a sun 15 pt past the label's end counts as under it")
 	}
 }

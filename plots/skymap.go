@@ -568,11 +568,24 @@ func (s *skyPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		}
 	}
 	ring := draw.GlyphStyle{Color: colBlack, Radius: 5, Shape: draw.CrossGlyph{}}
+	// A sun fixed in body axes is drawn over everything (below): a label
+	// that would run under it goes to the left of its mark instead.
+	sunAt, sunOn := vg.Point{}, len(s.Track) > 0 && s.sunFixed()
+	if sunOn {
+		sunAt = tr(s.Track[0])
+	}
+	nameLeft := name
+	nameLeft.XAlign = draw.XRight
 	for _, b := range mergeMarkers(s.Boresights, sameMarkDeg) {
 		p := tr(hammerDeg(wrapAz(b.AzDeg), b.ElDeg))
 		c.DrawGlyph(draw.GlyphStyle{Color: color.White, Radius: 6.5, Shape: draw.CircleGlyph{}}, p)
 		c.DrawGlyph(ring, p)
-		halo(name, vg.Point{X: p.X + 8, Y: p.Y + 7}, b.Name)
+		at := vg.Point{X: p.X + 8, Y: p.Y + 7}
+		if sunOn && underSun(name.Rectangle(b.Name), at, sunAt) {
+			halo(nameLeft, vg.Point{X: p.X - 8, Y: p.Y + 7}, b.Name)
+			continue
+		}
+		halo(name, at, b.Name)
 	}
 	if len(s.Track) > 0 && s.sunFixed() {
 		// A sun fixed in body axes is drawn last, large, so nothing hides it.
@@ -582,6 +595,13 @@ func (s *skyPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		c.DrawGlyph(draw.GlyphStyle{Color: colBlack, Radius: 1.8, Shape: draw.CircleGlyph{}}, p0)
 	}
 	s.legend(c, lab)
+}
+
+// underSun reports whether a label of extent r placed at pt reaches within
+// the fixed sun marker's radius (9 pt) of sun.
+func underSun(r vg.Rectangle, pt, sun vg.Point) bool {
+	const rad = 9
+	return sun.X >= r.Min.X+pt.X-rad && sun.X <= r.Max.X+pt.X+rad && sun.Y >= r.Min.Y+pt.Y-rad && sun.Y <= r.Max.Y+pt.Y+rad
 }
 
 // legend draws the key to the right of the map, outside the data.

@@ -325,6 +325,33 @@ func TestErrorDistFigure(t *testing.T) {
 	}
 }
 
+// Gaps given as a histogram (durations with counts) draw the same bins as
+// the same gaps listed one by one.
+func TestGapsFigureFromCounts(t *testing.T) {
+	listed := Gaps{DurationsS: []float64{10, 10, 10, 20, 50, 50}, LongestS: 50, StepS: 10}
+	counted := Gaps{DurationsS: []float64{10, 20, 50}, Counts: []int{3, 1, 2}, LongestS: 50, StepS: 10}
+	a, err := listed.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := counted.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if fmt.Sprint(a.drawn) != fmt.Sprint(b.drawn) {
+		t.Errorf("bins from counts %v, from the list %v", b.drawn, a.drawn)
+	}
+	if counted.Number() != 6 {
+		t.Errorf("Number %d, want 6", counted.Number())
+	}
+	wantText(t, mustSVG(t, b), "6 gaps")
+	for _, bad := range []Gaps{{DurationsS: []float64{10}, Counts: []int{0}}, {DurationsS: []float64{10}, Counts: []int{1, 2}}} {
+		if _, err := bad.Plot(Caption{}); err == nil || !strings.Contains(err.Error(), "count") {
+			t.Errorf("%+v: error %v, want one naming the counts", bad, err)
+		}
+	}
+}
+
 func TestGapsFigure(t *testing.T) {
 	f := Gaps{DurationsS: []float64{10, 20, 30, 40, 50, 60}, LongestS: 60, StepS: 10,
 		Target: &Target{Value: 45, Label: "≤ 45 s", Got: "60 s"}}

@@ -359,8 +359,12 @@ func constant(n int, v float64) []float64 {
 
 // Gaps are the sunlit spans without a valid sun vector.
 type Gaps struct {
-	DurationsS []float64 // one per gap, seconds
-	LongestS   float64   // the longest gap, seconds (marked)
+	// DurationsS are the gap durations, seconds; Counts, when set, is the
+	// number of gaps of each duration (beside DurationsS), else each
+	// duration is one gap.
+	DurationsS []float64
+	Counts     []int
+	LongestS   float64 // the longest gap, seconds (marked)
 	// StepS is the run's time step: gap durations are whole steps, so bins
 	// are whole multiples of it (0 = free bins).
 	StepS float64
@@ -392,23 +396,46 @@ func gapBins(longest, step float64) []float64 {
 	return e
 }
 
+// count is the number of gaps of the k-th duration.
+func (f Gaps) count(k int) int {
+	if f.Counts == nil {
+		return 1
+	}
+	return f.Counts[k]
+}
+
+// Number is the number of gaps.
+func (f Gaps) Number() int {
+	n := 0
+	for k := range f.DurationsS {
+		n += f.count(k)
+	}
+	return n
+}
+
 // Plot draws the histogram of gap durations (seconds, bins of whole steps)
 // as a step outline, with the longest gap and the target marked.
 func (f Gaps) Plot(caption Caption) (*Chart, error) {
 	if len(f.DurationsS) == 0 {
 		return nil, fmt.Errorf("plots: gaps: DurationsS is empty (a run with no gap needs no gap figure)")
 	}
+	if f.Counts != nil && len(f.Counts) != len(f.DurationsS) {
+		return nil, fmt.Errorf("plots: gaps: %d counts for %d durations; give one count per duration, or none", len(f.Counts), len(f.DurationsS))
+	}
 	for i, d := range f.DurationsS {
 		if !finite(d) || d < 0 {
 			return nil, fmt.Errorf("plots: gaps: DurationsS[%d] = %g; durations must be finite and ≥ 0", i, d)
+		}
+		if f.Counts != nil && f.Counts[i] < 1 {
+			return nil, fmt.Errorf("plots: gaps: Counts[%d] = %d; a count must be ≥ 1", i, f.Counts[i])
 		}
 	}
 	longest := math.Max(f.LongestS, slices.Max(f.DurationsS))
 	edges := gapBins(longest, f.StepS)
 	counts := make([]float64, len(edges)-1)
-	for _, d := range f.DurationsS {
+	for k, d := range f.DurationsS {
 		i := sort.SearchFloat64s(edges, d) - 1
-		counts[max(0, min(i, len(counts)-1))]++
+		counts[max(0, min(i, len(counts)-1))] += float64(f.count(k))
 	}
 	xlabel := "gap duration (s)"
 	if f.StepS > 0 {
@@ -430,7 +457,7 @@ func (f Gaps) Plot(caption Caption) (*Chart, error) {
 	h.Color, h.Width = colBlue, 2
 	h.FillColor = withAlpha(colBlue, 60)
 	p.Add(h)
-	p.Legend.Add(fmt.Sprintf("%d gaps", len(f.DurationsS)), h)
+	p.Legend.Add(fmt.Sprintf("%d gaps", f.Number()), h)
 	mark := vline{f.LongestS, draw.LineStyle{Color: colVermil, Width: 2, Dashes: []vg.Length{6, 3}}}
 	p.Add(mark)
 	p.Legend.Add(fmt.Sprintf("longest = %.0f s", f.LongestS), mark)

@@ -234,7 +234,7 @@ func unitJSON(u *sim.UnitResult) jsonUnit {
 	}
 	for _, e := range u.Estimators {
 		j.Estimators = append(j.Estimators, jsonEstimator{Name: e.Name, Valid: num(e.ValidFraction), ValidNoAlbedo: num(e.ValidFractionNoAlbedo),
-			Gaps: len(e.Gaps), LongestGapS: num(e.LongestGapS), LongestAtS: num(e.LongestAtS), ErrNoAlbedo: errJSON(e.ErrNoAlbedo),
+			Gaps: e.NumGaps, LongestGapS: num(e.LongestGapS), LongestAtS: num(e.LongestAtS), ErrNoAlbedo: errJSON(e.ErrNoAlbedo),
 			ErrAlbedo: errJSON(e.ErrAlbedo), AlbedoPart: errJSON(e.AlbedoPart), FalseSun: num(e.FalseSunFraction),
 			FalseSunFromNadir: errJSON(e.FalseSunFromNadir), AlbedoOnly: num(e.AlbedoOnlyFraction), BeyondBound: num(e.WrongFraction)})
 		if k := e.Corrected; k != nil {

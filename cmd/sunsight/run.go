@@ -144,6 +144,11 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	// step unless output.decimate thins it (said on stderr). The figures ask
 	// the run for what they need (review.Request).
 	if f.csvDir != "" {
+		// gaps.csv lists the gaps of the units it writes.
+		cfg.GapListUnits = 1
+		if f.allUnits {
+			cfg.GapListUnits = max(1, cfg.Units)
+		}
 		cfg.SeriesStride = max(1, s.Output.Decimate)
 		if cfg.SeriesStride > 1 {
 			fmt.Fprintf(stderr, "sunsight run: series.csv keeps every %d-th step (output.decimate: %d); remove the key for every step\n",

@@ -70,7 +70,7 @@ func checkFilterLeavesEstimators(c *runCase) (f failures) {
 	for i, u := range res.Units {
 		for j, e := range u.Estimators {
 			a := c.res.Units[i].Estimators[j]
-			if fmt.Sprint(a.ValidFraction, a.ErrNoAlbedo, a.ErrAlbedo, a.Gaps) != fmt.Sprint(e.ValidFraction, e.ErrNoAlbedo, e.ErrAlbedo, e.Gaps) {
+			if fmt.Sprint(a.ValidFraction, a.ErrNoAlbedo, a.ErrAlbedo, a.NumGaps, a.GapLengths) != fmt.Sprint(e.ValidFraction, e.ErrNoAlbedo, e.ErrAlbedo, e.NumGaps, e.GapLengths) {
 				f.addf("unit %d %s: figures change when the filter is turned off", u.Unit, e.Name)
 			}
 		}

@@ -218,12 +218,19 @@ func checkGaps(c *runCase) (f failures) {
 			if e.LongestGapS > 0 && (e.LongestAtS < 0 || e.LongestAtS+e.LongestGapS > d+1e-9) {
 				f.addf("unit %d %s: longest gap [%.0f, %.0f] s leaves the run [0, %.0f]", u.Unit, e.Name, e.LongestAtS, e.LongestAtS+e.LongestGapS, d)
 			}
-			sum := 0.0
-			for _, g := range e.Gaps {
-				sum += g
+			sum, n := 0.0, 0
+			for _, l := range e.GapLengths {
+				sum += float64(l.Steps*l.Count) * c.res.StepS
+				n += l.Count
+			}
+			if n != e.NumGaps {
+				f.addf("unit %d %s: the histogram of gap lengths holds %d gaps, the count is %d", u.Unit, e.Name, n, e.NumGaps)
+			}
+			if e.Gaps != nil && len(e.Gaps) != e.NumGaps {
+				f.addf("unit %d %s: %d gaps listed, %d counted", u.Unit, e.Name, len(e.Gaps), e.NumGaps)
 			}
 			invalid := (1 - e.ValidFraction) * sunlitS
-			if sum > invalid+c.res.StepS*float64(len(e.Gaps))+1e-6 {
+			if sum > invalid+c.res.StepS*float64(e.NumGaps)+1e-6 {
 				f.addf("unit %d %s: gaps add up to %.0f s, sunlit time without a valid estimate is %.0f s", u.Unit, e.Name, sum, invalid)
 			}
 		}

@@ -297,7 +297,7 @@ func errorTells(e *sim.EstimatorStats, tg figureTargets) string {
 }
 
 func gapsTells(g plots.Gaps) string {
-	return fmt.Sprintf("%d sunlit gaps without a valid sun vector; the longest lasts %.0f s%s.", len(g.DurationsS), g.LongestS, verdictText(g.Target))
+	return fmt.Sprintf("%d sunlit gaps without a valid sun vector; the longest lasts %.0f s%s.", g.Number(), g.LongestS, verdictText(g.Target))
 }
 
 // figureTargets are the scenario's targets in the units of the figures,
@@ -528,7 +528,12 @@ func errorDist(res *sim.Result) (plots.ErrorDist, bool) {
 
 func gaps(res *sim.Result) (plots.Gaps, bool) {
 	e := &res.Nominal.Estimators[0]
-	return plots.Gaps{DurationsS: append([]float64(nil), e.Gaps...), LongestS: e.LongestGapS}, len(e.Gaps) > 0
+	g := plots.Gaps{LongestS: e.LongestGapS}
+	for _, l := range e.GapLengths {
+		g.DurationsS = append(g.DurationsS, float64(l.Steps)*res.StepS)
+		g.Counts = append(g.Counts, l.Count)
+	}
+	return g, e.NumGaps > 0
 }
 
 // WritePlots writes every figure as dir/NAME.FORMAT for each format ("png",

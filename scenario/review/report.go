@@ -424,7 +424,7 @@ func estimatorTable(res *sim.Result) plots.Table {
 			wrong = "⚠ " + wrong
 		}
 		t.Rows = append(t.Rows, []string{name, pct(e.ValidFraction), pct(e.ValidFractionNoAlbedo), num(e.ErrNoAlbedo.P95Deg, 2),
-			with, part, wrong, num(e.LongestGapS, 0), fmt.Sprint(len(e.Gaps)), units})
+			with, part, wrong, num(e.LongestGapS, 0), fmt.Sprint(e.NumGaps), units})
 	}
 	return t
 }

@@ -130,7 +130,7 @@ func TestOnlyRequestedFiguresAreBuilt(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%s: %v", name, err)
 		}
-		drawn := name != FigGaps || len(res.Nominal.Estimators[0].Gaps) > 0
+		drawn := name != FigGaps || res.Nominal.Estimators[0].NumGaps > 0
 		if want := map[bool]int{true: 1, false: 0}[drawn]; len(figs) != want || (want == 1 && figs[0].Name != name) {
 			t.Errorf("asked for %s: got %d figures %v", name, len(figs), figs)
 		}

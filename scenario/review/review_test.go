@@ -63,7 +63,7 @@ func TestFiguresAndReportNadir(t *testing.T) {
 		t.Fatal(err)
 	}
 	want := []string{FigSky, FigTimeline, FigYear, FigError}
-	if len(res.Nominal.Estimators[0].Gaps) > 0 {
+	if res.Nominal.Estimators[0].NumGaps > 0 {
 		want = append(want, FigGaps)
 	}
 	var got []string

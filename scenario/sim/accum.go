@@ -2,6 +2,7 @@ package sim
 
 import (
 	"math"
+	"slices"
 	"sync"
 )
 
@@ -235,20 +236,40 @@ func (q *Quantiles) CDF(n int) (x, f []float64) {
 }
 
 // Spells tracks runs of consecutive "on" samples on a uniform grid (for
-// example sunlit time without a valid sun vector) and keeps them as
-// intervals: the memory is bounded by the number of runs, not of samples.
-// Trackers of consecutive pieces of a grid merge into the tracker of the
-// whole.
+// example sunlit time without a valid sun vector). It always keeps their
+// number, the longest and the histogram of their lengths in whole steps;
+// with a list (NewSpells' list) it also keeps every run's start and
+// duration. Without a list the memory is bounded by the number of distinct
+// run lengths (at most √(2N) on N samples, a few dozen in practice), not by
+// the number of runs. Trackers of consecutive pieces of a grid merge into
+// the tracker of the whole.
 type Spells struct {
-	t0      float64 // start of the piece of grid observed
-	running bool
-	start   float64
-	runs    []spell
+	t0, step float64 // start of the piece of grid observed, its spacing
+	list     bool
+	running  bool
+	start    float64
+	// runs: every run with a list; without, only the runs that may still
+	// join a neighbouring piece (one starting at t0, one open at the end).
+	runs []spell
+	// The folded runs (all of them with a list, at Finish).
+	n         int
+	longest   float64
+	longestAt float64
+	lengths   map[int]int // run length in steps → number of runs
 	// Filled by Finish:
-	Durations []float64
+	N         int       // the number of runs
+	Durations []float64 // each run's duration (s), with a list only
 	Starts    []float64 // start of each run (s), beside Durations
 	Longest   float64
 	LongestAt float64
+	// Lengths is the histogram of run lengths, by increasing length.
+	Lengths []RunLength
+}
+
+// RunLength is a bin of the histogram of run lengths: Count runs of Steps
+// steps each.
+type RunLength struct {
+	Steps, Count int
 }
 
 type spell struct {
@@ -256,8 +277,11 @@ type spell struct {
 	open       bool // still running at the end of the piece
 }
 
-// NewSpells starts a tracker for a piece of grid beginning at t0 (s).
-func NewSpells(t0 float64) *Spells { return &Spells{t0: t0} }
+// NewSpells starts a tracker for a piece of a grid of spacing step (s)
+// beginning at t0 (s); list keeps every run's start and duration.
+func NewSpells(t0, step float64, list bool) *Spells {
+	return &Spells{t0: t0, step: step, list: list, longestAt: math.NaN()}
+}
 
 // Observe records the state at time t (s). A run lasts from its first on
 // sample to the first off sample after it, so a single on sample counts one
@@ -267,9 +291,28 @@ func (s *Spells) Observe(t float64, on bool) {
 	case on && !s.running:
 		s.running, s.start = true, t
 	case !on && s.running:
-		s.runs = append(s.runs, spell{start: s.start, end: t})
 		s.running = false
+		r := spell{start: s.start, end: t}
+		if s.list || r.start == s.t0 {
+			s.runs = append(s.runs, r)
+		} else {
+			s.fold(r)
+		}
 	}
+}
+
+// fold counts a closed run into the summary. Ties of the longest go to the
+// earliest run, whatever the order of folding.
+func (s *Spells) fold(r spell) {
+	d := r.end - r.start
+	if s.n == 0 || d > s.longest || d == s.longest && r.start < s.longestAt {
+		s.longest, s.longestAt = d, r.start
+	}
+	s.n++
+	if s.lengths == nil {
+		s.lengths = make(map[int]int)
+	}
+	s.lengths[int(math.Round(d/s.step))]++
 }
 
 // End closes the piece at tEnd (exclusive): a run still going is kept open,
@@ -284,23 +327,62 @@ func (s *Spells) End(tEnd float64) {
 // Merge appends the tracker of the next piece of grid.
 func (s *Spells) Merge(next *Spells) {
 	rs := next.runs
-	if k := len(s.runs) - 1; k >= 0 && s.runs[k].open && len(rs) > 0 && rs[0].start == next.t0 && s.runs[k].end == next.t0 {
-		s.runs[k].end, s.runs[k].open = rs[0].end, rs[0].open
-		rs = rs[1:]
-	}
-	s.runs = append(s.runs, rs...)
-}
-
-// Finish computes the durations and the longest run.
-func (s *Spells) Finish() {
-	s.Durations, s.Starts = s.Durations[:0], s.Starts[:0]
-	s.Longest, s.LongestAt = 0, 0
-	for _, r := range s.runs {
-		d := r.end - r.start
-		s.Durations = append(s.Durations, d)
-		s.Starts = append(s.Starts, r.start)
-		if d > s.Longest {
-			s.Longest, s.LongestAt = d, r.start
+	if k := len(s.runs) - 1; k >= 0 && s.runs[k].open {
+		if len(rs) > 0 && rs[0].start == next.t0 && s.runs[k].end == next.t0 {
+			s.runs[k].end, s.runs[k].open = rs[0].end, rs[0].open
+			rs = rs[1:]
+		} else {
+			s.runs[k].open = false // it ended where next begins
 		}
 	}
+	s.runs = append(s.runs, rs...)
+	// next's folded runs come after every run of s and before its kept ones.
+	if next.n > 0 {
+		if s.n == 0 || next.longest > s.longest || next.longest == s.longest && next.longestAt < s.longestAt {
+			s.longest, s.longestAt = next.longest, next.longestAt
+		}
+		s.n += next.n
+		if s.lengths == nil {
+			s.lengths = make(map[int]int, len(next.lengths))
+		}
+		for l, c := range next.lengths {
+			s.lengths[l] += c
+		}
+	}
+	if s.list {
+		return
+	}
+	kept := s.runs[:0]
+	for _, r := range s.runs {
+		if r.open || r.start == s.t0 {
+			kept = append(kept, r)
+		} else {
+			s.fold(r)
+		}
+	}
+	s.runs = kept
+}
+
+// Finish computes the number of runs, the longest, the histogram of lengths
+// and, with a list, the durations. It folds the kept runs: a tracker is
+// finished once, after its last Merge.
+func (s *Spells) Finish() {
+	s.Durations, s.Starts = s.Durations[:0], s.Starts[:0]
+	for _, r := range s.runs {
+		if s.list {
+			s.Durations = append(s.Durations, r.end-r.start)
+			s.Starts = append(s.Starts, r.start)
+		}
+		s.fold(r)
+	}
+	s.runs = s.runs[:0]
+	s.N, s.Longest, s.LongestAt = s.n, s.longest, s.longestAt
+	if s.n == 0 {
+		s.Longest, s.LongestAt = 0, 0
+	}
+	s.Lengths = s.Lengths[:0]
+	for l, c := range s.lengths {
+		s.Lengths = append(s.Lengths, RunLength{Steps: l, Count: c})
+	}
+	slices.SortFunc(s.Lengths, func(a, b RunLength) int { return a.Steps - b.Steps })
 }

@@ -1,6 +1,7 @@
 package sim
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"sort"
@@ -65,15 +66,15 @@ func TestQuantilesMatchGonumEmpirical(t *testing.T) {
 func TestSpellsDurations(t *testing.T) {
 	// on at 10,20,30 (run 10..40 = 30 s), off, on at 60 (run 60..70), on at 90 to end 110.
 	on := map[float64]bool{10: true, 20: true, 30: true, 60: true, 90: true, 100: true}
-	whole := NewSpells(0)
+	whole := NewSpells(0, 10, true)
 	for t := 0.0; t < 110; t += 10 {
 		whole.Observe(t, on[t])
 	}
 	whole.End(110)
 	whole.Finish()
 	want := []float64{30, 10, 20}
-	if len(whole.Durations) != 3 {
-		t.Fatalf("durations %v", whole.Durations)
+	if len(whole.Durations) != 3 || whole.N != 3 {
+		t.Fatalf("durations %v, N %d", whole.Durations, whole.N)
 	}
 	for i := range want {
 		if whole.Durations[i] != want[i] {
@@ -83,23 +84,101 @@ func TestSpellsDurations(t *testing.T) {
 	if whole.Longest != 30 || whole.LongestAt != 10 {
 		t.Fatalf("longest %v at %v", whole.Longest, whole.LongestAt)
 	}
+	if fmt.Sprint(whole.Lengths) != "[{1 1} {2 1} {3 1}]" {
+		t.Fatalf("lengths %v", whole.Lengths)
+	}
 	// The same grid cut into pieces at every possible place merges to the
-	// same runs.
-	for cut := 10.0; cut < 110; cut += 10 {
-		a, b := NewSpells(0), NewSpells(cut)
-		for t := 0.0; t < 110; t += 10 {
-			if t < cut {
-				a.Observe(t, on[t])
-			} else {
-				b.Observe(t, on[t])
+	// same runs, with and without a list.
+	for _, list := range []bool{true, false} {
+		for cut := 10.0; cut < 110; cut += 10 {
+			a, b := NewSpells(0, 10, list), NewSpells(cut, 10, list)
+			for t := 0.0; t < 110; t += 10 {
+				if t < cut {
+					a.Observe(t, on[t])
+				} else {
+					b.Observe(t, on[t])
+				}
+			}
+			a.End(cut)
+			b.End(110)
+			a.Merge(b)
+			a.Finish()
+			if list && (len(a.Durations) != 3 || a.Durations[0] != 30 || a.Durations[1] != 10 || a.Durations[2] != 20) {
+				t.Errorf("cut at %v: durations %v", cut, a.Durations)
+			}
+			if !list && a.Durations != nil {
+				t.Errorf("cut at %v: durations %v kept without a list", cut, a.Durations)
+			}
+			if a.N != 3 || a.Longest != 30 || a.LongestAt != 10 || fmt.Sprint(a.Lengths) != "[{1 1} {2 1} {3 1}]" {
+				t.Errorf("cut at %v, list %v: N %d, longest %v at %v, lengths %v", cut, list, a.N, a.Longest, a.LongestAt, a.Lengths)
 			}
 		}
-		a.End(cut)
-		b.End(110)
-		a.Merge(b)
-		a.Finish()
-		if len(a.Durations) != 3 || a.Durations[0] != 30 || a.Durations[1] != 10 || a.Durations[2] != 20 {
-			t.Errorf("cut at %v: durations %v", cut, a.Durations)
+	}
+}
+
+// A tracker without a list, fed in random pieces and merged, gives the
+// number of runs, the longest (the earliest of equal longest ones) and the
+// histogram of lengths a plain pass over the samples counts; it keeps at
+// most two runs between merges, however many it has seen.
+func TestSpellsWithoutListAreFlat(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	for trial := range 200 {
+		n := 1 + rng.IntN(3000)
+		p := rng.Float64()
+		on := make([]bool, n)
+		for k := range on {
+			on[k] = rng.Float64() < p
+		}
+		// The plain count.
+		want := map[int]int{}
+		wantN, longest, at := 0, 0, 0
+		for k := 0; k < n; {
+			if !on[k] {
+				k++
+				continue
+			}
+			k0 := k
+			for k < n && on[k] {
+				k++
+			}
+			want[k-k0]++
+			wantN++
+			if k-k0 > longest {
+				longest, at = k-k0, k0
+			}
+		}
+		const step = 10.0
+		var whole *Spells
+		for k0 := 0; k0 < n; {
+			k1 := min(n, k0+1+rng.IntN(400))
+			s := NewSpells(float64(k0)*step, step, false)
+			for k := k0; k < k1; k++ {
+				s.Observe(float64(k)*step, on[k])
+			}
+			s.End(float64(k1) * step)
+			if len(s.runs) > 2 {
+				t.Fatalf("trial %d: %d runs kept in a piece", trial, len(s.runs))
+			}
+			if whole == nil {
+				whole = s
+			} else {
+				whole.Merge(s)
+			}
+			if len(whole.runs) > 2 {
+				t.Fatalf("trial %d: %d runs kept after a merge: %v", trial, len(whole.runs), whole.runs)
+			}
+			k0 = k1
+		}
+		whole.Finish()
+		got := map[int]int{}
+		for _, l := range whole.Lengths {
+			got[l.Steps] = l.Count
+		}
+		if whole.N != wantN || fmt.Sprint(got) != fmt.Sprint(want) {
+			t.Fatalf("trial %d: N %d lengths %v, want %d %v", trial, whole.N, got, wantN, want)
+		}
+		if wantN > 0 && (whole.Longest != float64(longest)*step || whole.LongestAt != float64(at)*step) {
+			t.Fatalf("trial %d: longest %v at %v, want %v at %v", trial, whole.Longest, whole.LongestAt, float64(longest)*step, float64(at)*step)
 		}
 	}
 }

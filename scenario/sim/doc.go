@@ -162,8 +162,10 @@
 //
 // Statistics stream in constant memory: moments as sums about a shift
 // (the first value; Chan, Golub & LeVeque 1983, from memory), quantiles
-// from a histogram resolving ±0.07 % of the value, gap durations as a list
-// bounded by the number of gaps. The reference case agrees with an independent
+// from a histogram resolving ±0.07 % of the value, gaps as their number, the
+// longest and a histogram of their lengths in whole steps (bounded by the
+// number of distinct lengths, at most √(2N) on N steps), and as a list of
+// every gap only for the units Config.GapListUnits names. The reference case agrees with an independent
 // numpy computation (bench/reference.py) to 0.1 percentage point in every
 // fraction and 0.05° in every error statistic (reference_test.go).
 //

@@ -102,6 +102,11 @@ type Config struct {
 	Seed    uint64
 	Units   int
 	Workers int
+	// GapListUnits is the number of units, from unit 0, whose sunlit gaps
+	// are kept as a list (EstimatorStats.Gaps, for a table of gaps); the
+	// other units keep their number, longest and lengths in memory flat in
+	// the duration.
+	GapListUnits int
 
 	// SeriesStride > 0 keeps every SeriesStride-th step of unit 0 as a time
 	// series; SunTrackPoints bounds the body-frame sun track kept for unit 0.
@@ -136,11 +141,12 @@ type Config struct {
 }
 
 // Lean returns a copy of c that keeps nothing for figures or files (no
-// series, sun track, short series or season table) and reports no
+// series, sun track, short series, season table or list of gaps) and reports no
 // progress: the extra runs of a study (phases, single failures, replays),
 // whose figures come from the primary run.
 func (c Config) Lean() Config {
 	c.SeriesStride, c.SunTrackPoints, c.TimelineSpan, c.TimelineStride, c.Season, c.Progress = 0, 0, 0, 0, nil, nil
+	c.GapListUnits = 0
 	return c
 }
 
@@ -188,6 +194,9 @@ func (c *Config) Validate() error {
 		if err := c.Filter.Validate(); err != nil {
 			return err
 		}
+	}
+	if c.GapListUnits < 0 {
+		return fmt.Errorf("sim: %d units with a list of gaps: want ≥ 0", c.GapListUnits)
 	}
 	if c.TimelineSpan > 0 && c.TimelineStride < 1 {
 		return fmt.Errorf("sim: timeline stride %d: want ≥ 1 with a timeline span", c.TimelineStride)

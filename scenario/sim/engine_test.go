@@ -235,3 +235,64 @@ func TestSharedGeometryEqualsPerUnit(t *testing.T) {
 type blockEverything struct{}
 
 func (blockEverything) Blocks(_, _ r3.Vec) bool { return true }
+
+// Listing the gaps of the first unit (Config.GapListUnits) leaves every
+// figure of every unit as it is; the listed unit's gaps agree with its
+// count, longest and histogram of lengths, and the other units keep no
+// list. The run is tumbling (gaps every few steps) and cut into pieces on
+// two workers, so gaps join across pieces.
+func TestGapListChangesNoFigure(t *testing.T) {
+	run := func(list int) *Result {
+		cfg := referenceCase(t, 5, false)
+		cfg.Law = attitude.NewTumble(5, 5*math.Pi/180)
+		cfg.Array = faceArray(t, 40) // 40° cones leave gaps between them
+		cfg.Units, cfg.Workers, cfg.GapListUnits = 3, 2, list
+		res, err := Run(context.Background(), cfg)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return res
+	}
+	plain, listed := run(0), run(1)
+	strip := func(r *Result) string {
+		for _, u := range r.Units {
+			for j := range u.Estimators {
+				u.Estimators[j].Gaps, u.Estimators[j].GapStartS = nil, nil
+			}
+		}
+		return showUnits(r)
+	}
+	e := listed.Units[0].Estimators[0]
+	t.Logf("%d gaps, %d lengths", e.NumGaps, len(e.GapLengths))
+	if e.NumGaps < 100 {
+		t.Fatalf("%d gaps: the case should have many", e.NumGaps)
+	}
+	if len(e.Gaps) != e.NumGaps || len(e.GapStartS) != e.NumGaps {
+		t.Fatalf("%d gaps listed, %d starts, %d counted", len(e.Gaps), len(e.GapStartS), e.NumGaps)
+	}
+	hist := map[int]int{}
+	longest, at := 0.0, 0.0
+	for k, d := range e.Gaps {
+		hist[int(math.Round(d/10))]++
+		if d > longest {
+			longest, at = d, e.GapStartS[k]
+		}
+	}
+	for _, l := range e.GapLengths {
+		if hist[l.Steps] != l.Count {
+			t.Errorf("%d gaps of %d steps listed, %d counted", hist[l.Steps], l.Steps, l.Count)
+		}
+		delete(hist, l.Steps)
+	}
+	if len(hist) != 0 || longest != e.LongestGapS || at != e.LongestAtS {
+		t.Errorf("lengths listed but not counted %v; longest listed %v at %v, recorded %v at %v", hist, longest, at, e.LongestGapS, e.LongestAtS)
+	}
+	for _, u := range listed.Units[1:] {
+		if u.Estimators[0].Gaps != nil {
+			t.Errorf("unit %d keeps a list of gaps without being asked", u.Unit)
+		}
+	}
+	if a, b := strip(plain), strip(listed); a != b {
+		t.Fatalf("listing gaps moved a figure:\n%s\n%s", a, b)
+	}
+}

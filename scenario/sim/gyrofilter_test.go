@@ -82,7 +82,7 @@ func TestFilterLeavesEstimatorsUnchanged(t *testing.T) {
 	}
 	for j := range with.Nominal.Estimators {
 		a, b := without.Nominal.Estimators[j], with.Nominal.Estimators[j]
-		if fmt.Sprint(a.ValidFraction, a.ErrNoAlbedo, a.Gaps) != fmt.Sprint(b.ValidFraction, b.ErrNoAlbedo, b.Gaps) {
+		if fmt.Sprint(a.ValidFraction, a.ErrNoAlbedo, a.NumGaps, a.GapLengths) != fmt.Sprint(b.ValidFraction, b.ErrNoAlbedo, b.NumGaps, b.GapLengths) {
 			t.Errorf("%s changed with the filter on: %+v vs %+v", a.Name, a.ErrNoAlbedo, b.ErrNoAlbedo)
 		}
 	}

@@ -125,8 +125,12 @@ type EstimatorStats struct {
 	// without albedo.
 	ValidFraction         float64
 	ValidFractionNoAlbedo float64
-	// Gaps are the sunlit spells without a valid estimate (s); GapStartS
-	// holds the start of each (s since the epoch).
+	// NumGaps is the number of sunlit spells without a valid estimate,
+	// GapLengths the histogram of their lengths in steps. Gaps lists each
+	// spell's duration (s) and GapStartS its start (s since the epoch),
+	// only for the units Config.GapListUnits names (nil for the others).
+	NumGaps     int
+	GapLengths  []RunLength
 	Gaps        []float64
 	GapStartS   []float64
 	LongestGapS float64
@@ -272,6 +276,7 @@ type estAcc struct {
 type unitAcc struct {
 	cfg                       *Config
 	albedo, corrected         bool
+	listGaps                  bool // keep the list of gaps (Config.GapListUnits)
 	samples, sunlit, pen, umb int
 	seenAtLeast               [4]int
 	inView                    []int
@@ -303,9 +308,9 @@ type unitAcc struct {
 	filter  *FilterStats
 }
 
-func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first bool, t0 float64) *unitAcc {
+func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first, listGaps bool, t0 float64) *unitAcc {
 	n := arr.Len()
-	a := &unitAcc{cfg: cfg, albedo: withAlbedo, corrected: corrected, inView: make([]int, n), peak: make([]float64, n),
+	a := &unitAcc{cfg: cfg, albedo: withAlbedo, corrected: corrected, listGaps: listGaps, inView: make([]int, n), peak: make([]float64, n),
 		moonInView: make([]int, n), litEarthInView: make([]int, n), blinded: make([]int, n), canBlind: make([]bool, n),
 		saturated: make([]int, n), falseSunSensor: make([]int, n), est: make([]estAcc, len(cfg.Estimators)),
 		sensorAlbedoOnly: make([]int, n), sensorWrong: make([]int, n), twoAxis: make([]bool, n),
@@ -317,10 +322,10 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first boo
 		a.canBlind[i] = ok && b.Blinding()
 	}
 	for i := range a.est {
-		a.est[i] = estAcc{gaps: NewSpells(t0), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
+		a.est[i] = estAcc{gaps: NewSpells(t0, cfg.Step, listGaps), qNo: NewQuantiles(), qAlb: NewQuantiles(), qPart: NewQuantiles(), qFalse: NewQuantiles()}
 		if corrected {
 			a.est[i].qCorr, a.est[i].qResid = NewQuantiles(), NewQuantiles()
-			a.est[i].gapsCorr = NewSpells(t0)
+			a.est[i].gapsCorr = NewSpells(t0, cfg.Step, false)
 		}
 	}
 	if first {
@@ -664,7 +669,7 @@ func (a *unitAcc) result() *UnitResult {
 	for j, e := range a.cfg.Estimators {
 		ea := &a.est[j]
 		es := EstimatorStats{Name: e.Name(), ValidFraction: frac(ea.validAlb, a.sunlit),
-			ValidFractionNoAlbedo: frac(ea.validNo, a.sunlit), Gaps: ea.gaps.Durations, GapStartS: ea.gaps.Starts,
+			ValidFractionNoAlbedo: frac(ea.validNo, a.sunlit), NumGaps: ea.gaps.N, GapLengths: ea.gaps.Lengths,
 			LongestGapS: ea.gaps.Longest, LongestAtS: ea.gaps.LongestAt,
 			ErrNoAlbedo: errorStats(&ea.mNo, ea.qNo), ErrAlbedo: errorStats(&ea.mAlb, ea.qAlb),
 			AlbedoPart: errorStats(&ea.mPart, ea.qPart), FalseSunFraction: frac(ea.falseSun, a.umb),
@@ -676,6 +681,9 @@ func (a *unitAcc) result() *UnitResult {
 		if a.corrected {
 			es.Corrected = &CorrectedStats{ValidFraction: frac(ea.validCorr, a.sunlit), LongestGapS: ea.gapsCorr.Longest,
 				Err: errorStats(&ea.mCorr, ea.qCorr), ResidualPart: errorStats(&ea.mResid, ea.qResid)}
+		}
+		if a.listGaps {
+			es.Gaps, es.GapStartS = ea.gaps.Durations, ea.gaps.Starts
 		}
 		r.Estimators = append(r.Estimators, es)
 	}

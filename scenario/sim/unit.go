@@ -548,7 +548,7 @@ func newReader(cfg *Config, arr *sensor.Array, u, k0 int) *reader {
 	if cfg.Filter != nil {
 		r.filt = newGyroFilter(cfg, cfg.Array, u)
 	}
-	r.acc = newUnitAcc(cfg, arr, r.withAlbedo, r.readCorr != nil, u == 0, float64(k0)*cfg.Step)
+	r.acc = newUnitAcc(cfg, arr, r.withAlbedo, r.readCorr != nil, u == 0, u < cfg.GapListUnits, float64(k0)*cfg.Step)
 	r.acc.unit, r.acc.k0 = u, k0
 	return r
 }

@@ -7,8 +7,7 @@ import (
 // The memory estimate counts the albedo tables the engine will build: a
 // long zonal run shares one zonal table per kind of cone (tens of MB, the
 // size NewBoresightTable allocates, see TestBoresightTableBytes), a uniform
-// run one uniform table, a gridded or albedo-free run none; and the term
-// per unit and step of the event records.
+// run one uniform table, a gridded or albedo-free run none.
 func TestMemoryEstimateCountsAlbedoTables(t *testing.T) {
 	const base = "duration: 10d\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: inertial, quaternion: [1, 0, 0, 0]}\n" +
 		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60}\n    - {name: b, kind: cosine, face: \"-X\", half_angle_deg: 60}\n" +
@@ -34,6 +33,32 @@ func TestMemoryEstimateCountsAlbedoTables(t *testing.T) {
 		t.Errorf("zonal tables counted %.1f MB, want two of 50-70 MB", float64(zon)/(1<<20))
 	}
 	t.Logf("no albedo %.1f MB, uniform tables %.1f MB, zonal tables %.1f MB", float64(est["none"])/(1<<20), float64(uni)/(1<<20), float64(zon)/(1<<20))
+}
+
+// The estimate grows with the duration only for the units whose gaps are
+// listed (for gaps.csv): 50 units of ten years are no larger than of one
+// unless their gaps are listed, then by 20 B per listed unit and step.
+func TestMemoryEstimateFlatUnlessGapsListed(t *testing.T) {
+	s := parse(t, "duration: 10d\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n"+
+		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60}\n")
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Units = 50
+	short := MemoryEstimate(&cfg, 0)
+	cfg.Duration *= 365
+	long := MemoryEstimate(&cfg, 0)
+	if long != short {
+		t.Errorf("no gaps listed: %d bytes for 10 d, %d for 10 years", short, long)
+	}
+	for _, listed := range []int{1, 50, 80} {
+		cfg.GapListUnits = listed
+		got, want := MemoryEstimate(&cfg, 0)-long, int64(min(listed, 50))*memPerListStep*int64(cfg.Steps())
+		if got != want {
+			t.Errorf("%d units listed: %d bytes more, want %d", listed, got, want)
+		}
+	}
 }
 
 // The attitude modes of a long zonal run read the primary's shared zonal

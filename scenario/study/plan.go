@@ -135,15 +135,16 @@ func Derive(s *scenario.Scenario, p *Plan) (Derived, error) {
 // Terms of MemoryEstimate, measured with /usr/bin/time -f %M on
 // examples/tumbling-3u.yaml (6 h: 17.8 MB at 1 unit, 163 MB at 400, 590 MB
 // at 1600 units; 50 units: 45 MB at 1 d, 115 MB at 10 d; again after the
-// step-loop changes of December 2026: 62 MB at 1 d, 105 MB at 10 d). The
-// term per unit and step is what a unit's records of events keep (its
-// sunlit gaps without a valid estimate: a tumbling layout gated tightly
-// has hundreds a day); the streaming statistics are flat in the duration.
+// step-loop changes of December 2026: 62 MB at 1 d, 105 MB at 10 d, and
+// 62 MB, 64 MB once only listed units kept their gaps). The term per step
+// is what a unit whose gaps are listed (Config.GapListUnits, for gaps.csv)
+// keeps: a tumbling layout gated tightly has hundreds of gaps a day. The
+// other units, and the streaming statistics, are flat in the duration.
 // The estimate errs high; it is not a bound.
 const (
 	memFixed        = 30 << 20  // the Go runtime, the program, the albedo model's cells
 	memPerUnit      = 320 << 10 // one unit's streaming statistics (quantile bins in use)
-	memPerUnitStep  = 20        // one unit's event records, per step
+	memPerListStep  = 20        // one listed unit's list of gaps, per step
 	memPerSeriesCol = 9         // one time-series cell (value and its share of the row)
 )
 
@@ -162,12 +163,13 @@ func SeriesRows(cfg *sim.Config) int {
 
 // MemoryEstimate is the one memory model of a run of cfg (run refuses a
 // run above --max-memory-mib on it, check prints it): a fixed base, each
-// unit's statistics and event records, seriesRows rows of time series
+// unit's statistics, the listed units' gaps, seriesRows rows of time series
 // (twelve columns and one per sensor), and the albedo tables the engine
 // builds (sim.AlbedoTableBytes).
 func MemoryEstimate(cfg *sim.Config, seriesRows int) int64 {
 	units, steps := int64(max(cfg.Units, 1)), int64(cfg.Steps())
 	cols := int64(12 + len(cfg.Viewers))
-	m := int64(memFixed) + units*(memPerUnit+memPerUnitStep*steps) + int64(seriesRows)*cols*memPerSeriesCol
+	listed := min(int64(cfg.GapListUnits), units)
+	m := int64(memFixed) + units*memPerUnit + listed*memPerListStep*steps + int64(seriesRows)*cols*memPerSeriesCol
 	return m + sim.AlbedoTableBytes(cfg)
 }

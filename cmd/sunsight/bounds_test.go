@@ -43,6 +43,7 @@ func TestBounds(t *testing.T) {
 		{"endless scenario file", []string{"check", "/dev/zero"}, "larger than 1048576 bytes"},
 		{"memory estimate", []string{"run", "../../examples/tumbling-3u.yaml", "--units", "1000000"}, "--max-memory-mib 4096"},
 		{"memory limit lowered", []string{"run", "../../examples/tumbling-3u.yaml", "--units", "50", "--max-memory-mib", "20"}, "more than --max-memory-mib 20"},
+		{"memory names the albedo tables", []string{"run", "../../examples/nadir-6u-sso.yaml", "--max-memory-mib", "20"}, "MiB of it albedo tables"},
 		{"albedo grid file size", []string{"check", gridScen}, "more than the 134217728 bytes"},
 		{"sweep cases", []string{"sweep", "../../examples/nadir-6u-sso.yaml", "--vary", "orbit.altitude_km=400:899:1", "--vary", "seed=1:100:1", "--out", filepath.Join(dir, "s")}, "more than 20000 cases"},
 	} {

@@ -168,8 +168,12 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		est += float64(study.SingleFailureTraceBytes(&cfg)) / (1 << 20)
 	}
 	if est > float64(f.maxMemMiB) {
-		return usagef("the run would need about %.0f MiB (%d units × %d steps, series of %d rows), more than --max-memory-mib %d; lower --units, --duration or the step, thin the series with output.decimate, or raise --max-memory-mib",
-			est, cfg.Units, cfg.Steps(), study.SeriesRows(&cfg), f.maxMemMiB)
+		tables := ""
+		if tb := sim.AlbedoTableBytes(&cfg); tb > 0 {
+			tables = fmt.Sprintf("; %.0f MiB of it albedo tables, one per kind of sensor cone", float64(tb)/(1<<20))
+		}
+		return usagef("the run would need about %.0f MiB (%d units × %d steps, series of %d rows%s), more than --max-memory-mib %d; lower --units, --duration or the step, thin the series with output.decimate, or raise --max-memory-mib",
+			est, cfg.Units, cfg.Steps(), study.SeriesRows(&cfg), tables, f.maxMemMiB)
 	}
 
 	ctx, stop := interruptContext()

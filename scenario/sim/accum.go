@@ -280,7 +280,7 @@ type spell struct {
 // NewSpells starts a tracker for a piece of a grid of spacing step (s)
 // beginning at t0 (s); list keeps every run's start and duration.
 func NewSpells(t0, step float64, list bool) *Spells {
-	return &Spells{t0: t0, step: step, list: list, longestAt: math.NaN()}
+	return &Spells{t0: t0, step: step, list: list}
 }
 
 // Observe records the state at time t (s). A run lasts from its first on
@@ -301,18 +301,24 @@ func (s *Spells) Observe(t float64, on bool) {
 	}
 }
 
-// fold counts a closed run into the summary. Ties of the longest go to the
-// earliest run, whatever the order of folding.
+// fold counts a closed run into the summary.
 func (s *Spells) fold(r spell) {
 	d := r.end - r.start
-	if s.n == 0 || d > s.longest || d == s.longest && r.start < s.longestAt {
-		s.longest, s.longestAt = d, r.start
+	s.count(d, r.start, int(math.Round(d/s.step)), 1)
+}
+
+// count adds n runs of the given length (steps) to the summary, the longest
+// of them d seconds long from at. Ties of the longest go to the earliest
+// run, whatever the order of counting.
+func (s *Spells) count(d, at float64, steps, n int) {
+	if s.n == 0 || d > s.longest || d == s.longest && at < s.longestAt {
+		s.longest, s.longestAt = d, at
 	}
-	s.n++
+	s.n += n
 	if s.lengths == nil {
 		s.lengths = make(map[int]int)
 	}
-	s.lengths[int(math.Round(d/s.step))]++
+	s.lengths[steps] += n
 }
 
 // End closes the piece at tEnd (exclusive): a run still going is kept open,
@@ -336,18 +342,8 @@ func (s *Spells) Merge(next *Spells) {
 		}
 	}
 	s.runs = append(s.runs, rs...)
-	// next's folded runs come after every run of s and before its kept ones.
-	if next.n > 0 {
-		if s.n == 0 || next.longest > s.longest || next.longest == s.longest && next.longestAt < s.longestAt {
-			s.longest, s.longestAt = next.longest, next.longestAt
-		}
-		s.n += next.n
-		if s.lengths == nil {
-			s.lengths = make(map[int]int, len(next.lengths))
-		}
-		for l, c := range next.lengths {
-			s.lengths[l] += c
-		}
+	for l, c := range next.lengths {
+		s.count(next.longest, next.longestAt, l, c)
 	}
 	if s.list {
 		return
@@ -364,10 +360,9 @@ func (s *Spells) Merge(next *Spells) {
 }
 
 // Finish computes the number of runs, the longest, the histogram of lengths
-// and, with a list, the durations. It folds the kept runs: a tracker is
-// finished once, after its last Merge.
+// and, with a list, the durations, after the last Merge. It folds the kept
+// runs into the summary, so a second call changes nothing.
 func (s *Spells) Finish() {
-	s.Durations, s.Starts = s.Durations[:0], s.Starts[:0]
 	for _, r := range s.runs {
 		if s.list {
 			s.Durations = append(s.Durations, r.end-r.start)
@@ -380,7 +375,7 @@ func (s *Spells) Finish() {
 	if s.n == 0 {
 		s.Longest, s.LongestAt = 0, 0
 	}
-	s.Lengths = s.Lengths[:0]
+	s.Lengths = nil
 	for l, c := range s.lengths {
 		s.Lengths = append(s.Lengths, RunLength{Steps: l, Count: c})
 	}

@@ -72,6 +72,7 @@ func TestSpellsDurations(t *testing.T) {
 	}
 	whole.End(110)
 	whole.Finish()
+	whole.Finish() // a second call changes nothing
 	want := []float64{30, 10, 20}
 	if len(whole.Durations) != 3 || whole.N != 3 {
 		t.Fatalf("durations %v, N %d", whole.Durations, whole.N)

@@ -52,7 +52,7 @@ SS_READY=yes
 for alb in none uniform; do
   f=bench/year-nadir.yaml; [ "$alb" = uniform ] && f=bench/year-nadir-albedo.yaml
   if [ "$SS_READY" = yes ]; then
-    measure "sunsight-$alb" /tmp/sunsight run --quiet "$f"
+    measure "sunsight-$alb" /tmp/sunsight run --quiet --duration "${DAYS}d" "$f"
     SS_WALL[$alb]=$WALL; SS_RSS[$alb]=$RSS
   else
     SS_WALL[$alb]=NA; SS_RSS[$alb]=NA
@@ -78,6 +78,10 @@ awk '/ns\/step/ {name=$1; sub(/^Benchmark/, "", name); sub(/-[0-9]+$/, "", name)
 LIMIT=$(awk '/^BenchmarkStepLimit/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/bench.txt")
 ENGINE=$(awk '/^BenchmarkEngineStep/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/bench.txt")
 echo "  engine / floor = $(ratio "$ENGINE" "$LIMIT")"
+go test -run '^$' -bench 'Units' -benchtime 3x ./scenario/sim >"$OUT/units.txt"
+U1=$(awk '/^BenchmarkUnits\/1-/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/units.txt")
+U10=$(awk '/^BenchmarkUnits\/10-/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/units.txt")
+echo "  Monte Carlo, inertial with albedo, one core: 1 unit ${U1} ns/step, 10 units ${U10} ns/step, 10 / 1 = $(ratio "$U10" "$U1")"
 
 # ---- whole runs side by side: each pair measured back to back ----------
 # pair <label> <fileA> <argsA> <fileB> <argsB>: prints both runs and the

@@ -108,7 +108,12 @@
 // past the body, coverage, the Moon and the lit Earth in each cone) is
 // taken once for all units of a task and its counts are added to each
 // unit at the end of the task; a cosine sensor's viewer is not asked when
-// the sun is outside its cone. None of this changes a number: the outputs
+// the sun is outside its cone. A task runs in blocks of 256 steps: the
+// geometry and the view of the whole block first, then each unit reads its
+// sensors over the block (its accumulators stay in cache), each unit
+// seeing the same steps in the same order. Where albedo leaves a step's
+// readings the same bits, the estimate with albedo is the one without
+// (estimators are functions of the readings), not computed again. None of this changes a number: the outputs
 // of the bundled examples and bench cases are the same bytes as before. With a uniform albedo the cell
 // integral is replaced by a table on long runs: the LVLH table
 // (albedo.LocalTable) for nadir pointing on a circular orbit with at most 8

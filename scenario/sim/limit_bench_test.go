@@ -13,6 +13,7 @@ import (
 	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
 	"codeberg.org/sunsight/sunsight/orbit"
+	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
 
 // benchDaySteps is one day at 10 s, the span of the per-step benchmarks.
@@ -219,3 +220,30 @@ func BenchmarkStages(b *testing.B) {
 }
 
 var sinkEst sensor.Estimate
+
+// BenchmarkUnits runs the reference case with a uniform albedo in a fixed
+// inertial attitude (the boresight table) for 1 and for 10 Monte Carlo
+// units of drawn errors on one worker, and reports ns per step: units share
+// the geometry, so 10 units cost one geometry and ten readings per step.
+func BenchmarkUnits(b *testing.B) {
+	for _, units := range []int{1, 10} {
+		b.Run(map[int]string{1: "1", 10: "10"}[units], func(b *testing.B) {
+			// 12 days: enough steps for the table at one unit too
+			// (steps × units ≥ 100 000).
+			cfg := referenceCase(b, 12, true)
+			cfg.Law = attitude.Inertial{Q: r3.Rotation{Real: 0.9, Imag: 0.1, Jmag: 0.3, Kmag: 0.3}}
+			cfg.Estimators = cfg.Estimators[:1]
+			cfg.Units, cfg.Workers = units, 1
+			// Realistic errors (every unit its own draw): noise, dark
+			// offset, gain, misalignment, a 12-bit converter.
+			cfg.Array = faceArrayWith(b, 60, sensor.Errors{NoiseSigma: 0.005, DarkSigma: 0.005, GainSigma: 0.02,
+				MisalignSigma: 0.5 * math.Pi / 180, ADCBits: 12, FullScale: 1.5})
+			for b.Loop() {
+				if _, err := Run(context.Background(), cfg); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*cfg.Steps()), "ns/step")
+		})
+	}
+}

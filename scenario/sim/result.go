@@ -399,6 +399,11 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	}
 	var errNoDeg, errAlbDeg, errCorrDeg = math.NaN(), math.NaN(), math.NaN()
 	var primaryValid bool
+	// Readings the albedo left unchanged, bit for bit (no lit Earth in any
+	// cone): every estimator gives the same estimate on both, so the
+	// estimate with albedo, its error and its angle to the one without
+	// (exactly 0) are taken from the first.
+	same := a.albedo && sameReadings(readNo, readAlb)
 	for j, e := range ests {
 		ea := &a.est[j]
 		var gate sensor.Gate
@@ -407,7 +412,7 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		}
 		eNo := gate.Apply(e.Estimate(arr, readNo))
 		eAlb := eNo
-		if a.albedo {
+		if a.albedo && !same {
 			eAlb = gate.Apply(e.Estimate(arr, readAlb))
 		}
 		if sunlit {
@@ -427,8 +432,8 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 				if !eNo.Valid {
 					ea.albedoOnly++
 				}
-				d := dNo // without albedo the two estimates are one
-				if a.albedo {
+				d := dNo // without albedo, or on the same readings, the two estimates are one
+				if a.albedo && !same {
 					d = degOf(angleBetween(eAlb.Dir, sunBody))
 				}
 				if d > a.boundDeg {
@@ -441,7 +446,10 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 						errAlbDeg = d
 					}
 					if eNo.Valid {
-						p := degOf(angleBetween(eAlb.Dir, eNo.Dir))
+						p := 0.0 // angleBetween of a vector with itself: atan2(0, 1) = 0
+						if !same {
+							p = degOf(angleBetween(eAlb.Dir, eNo.Dir))
+						}
 						ea.mPart.Add(p)
 						ea.qPart.Add(p)
 					}
@@ -481,6 +489,27 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	if s := a.timeline; s != nil && t <= a.cfg.TimelineSpan && k%a.cfg.TimelineStride == 0 {
 		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, errCorrDeg, sinBeta, sunBody, real)
 	}
+}
+
+// sameReadings reports whether two reading lists are the same bits, field
+// by field.
+func sameReadings(a, b []sensor.Reading) bool {
+	for i := range a {
+		x, y := &a[i], &b[i]
+		if math.Float64bits(x.Signal) != math.Float64bits(y.Signal) || x.Valid != y.Valid || x.Saturated != y.Saturated ||
+			math.Float64bits(x.Sigma) != math.Float64bits(y.Sigma) || !sameBits3(x.Dir, y.Dir) ||
+			math.Float64bits(x.Cells[0]) != math.Float64bits(y.Cells[0]) || math.Float64bits(x.Cells[1]) != math.Float64bits(y.Cells[1]) ||
+			math.Float64bits(x.Cells[2]) != math.Float64bits(y.Cells[2]) || math.Float64bits(x.Cells[3]) != math.Float64bits(y.Cells[3]) {
+			return false
+		}
+	}
+	return true
+}
+
+// sameBits3 reports whether two vectors are the same bits.
+func sameBits3(a, b r3.Vec) bool {
+	return math.Float64bits(a.X) == math.Float64bits(b.X) && math.Float64bits(a.Y) == math.Float64bits(b.Y) &&
+		math.Float64bits(a.Z) == math.Float64bits(b.Z)
 }
 
 // add appends one sample (it allocates: series are kept for figures and

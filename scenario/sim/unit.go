@@ -360,7 +360,13 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 // blocked Earth is not split). The prediction is blocked by the same rule:
 // the flight software knows its own spacecraft.
 func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
-	v := &w.v
+	w.view(&w.v, g, albBody, predBody)
+	return &w.v
+}
+
+// view is at writing into v, whose slices have the lengths of the viewer's
+// own (newView).
+func (w *viewer) view(v *stepView, g *stepGeom, albBody, predBody []sensor.Albedo) {
 	for i := range v.sunBlocked {
 		v.sunBlocked[i] = w.hide[i].hidden(g.sunBody)
 	}
@@ -376,7 +382,42 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 		}
 	}
 	w.bodiesInCones(v, &g.bodies)
-	return v
+}
+
+// newViews returns m views shaped as the viewer's own, their slices cut
+// from one backing array each.
+func (w *viewer) newViews(m int) []stepView {
+	n := len(w.cone)
+	vs := make([]stepView, m)
+	sees, moonIn, litEarthIn := make([]bool, m*n), make([]bool, m*n), make([]bool, m*n)
+	var blocked []bool
+	if w.v.sunBlocked != nil {
+		blocked = make([]bool, m*n)
+	}
+	var albSeen, predSeen []sensor.Albedo
+	if w.v.albSeen != nil {
+		albSeen = make([]sensor.Albedo, m*n)
+	}
+	if w.v.predSeen != nil {
+		predSeen = make([]sensor.Albedo, m*n)
+	}
+	cut := func(s []bool, j int) []bool {
+		if s == nil {
+			return nil
+		}
+		return s[j*n : (j+1)*n : (j+1)*n]
+	}
+	cutAlb := func(s []sensor.Albedo, j int) []sensor.Albedo {
+		if s == nil {
+			return nil
+		}
+		return s[j*n : (j+1)*n : (j+1)*n]
+	}
+	for j := range vs {
+		vs[j] = stepView{sunBlocked: cut(blocked, j), albSeen: cutAlb(albSeen, j), predSeen: cutAlb(predSeen, j),
+			sees: cut(sees, j), moonIn: cut(moonIn, j), litEarthIn: cut(litEarthIn, j)}
+	}
+	return vs
 }
 
 // bodiesInCones sets the view's Moon and lit-Earth flags and counts them:
@@ -627,11 +668,19 @@ func (r *reader) subtractPrediction(pred []sensor.Albedo) {
 	}
 }
 
+// blockSteps is the length of the blocks of steps the step loop runs
+// stage by stage: the geometry and the view of a whole block first (once
+// for all units of a task), then each unit reads its sensors over the
+// block, so that a unit's sensors, estimators and accumulators stay in
+// cache for the block's steps. Each unit sees the same steps in the same
+// order as step by step: the results do not depend on the length.
+const blockSteps = 256
+
 // runChunk simulates the steps [tk.k0, tk.k1) of units [tk.u0, tk.u1),
 // whose sensors (with their drawn errors) are arrays[u]: the geometry is
 // computed once per step (on the nominal mounts, with unit tk.u0's
 // attitude, the same for every unit of a task) and each unit's sensors are
-// read on it.
+// read on it, block by block (blockSteps).
 func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task, done *atomic.Int64, total int, tables albedoTables, integ *integration) ([]*unitAcc, error) {
 	g, err := newGeometry(cfg, arrays[tk.u0], tk.u0, tables)
 	if err != nil {
@@ -648,20 +697,26 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 	predBody := make([]sensor.Albedo, len(albBody))
 	vw := newViewer(cfg, arrays[tk.u0])
 	n := int64(len(readers))
-	var sg stepGeom
-	for k := tk.k0; k < tk.k1; k++ {
-		if k&1023 == 0 && k > tk.k0 {
+	geoms := make([]stepGeom, min(blockSteps, tk.k1-tk.k0))
+	views := vw.newViews(len(geoms))
+	for b0 := tk.k0; b0 < tk.k1; b0 += len(geoms) {
+		if b0 > tk.k0 {
 			if ctx.Err() != nil {
 				return nil, ctx.Err()
 			}
-			if d := done.Add(1024 * n); cfg.Progress != nil {
+			if d := done.Add(int64(len(geoms)) * n); cfg.Progress != nil && b0&1023 == 0 {
 				cfg.Progress(float64(d) / float64(total))
 			}
 		}
-		g.fill(&sg, k, albBody, predBody)
-		v := vw.at(&sg, albBody, predBody)
+		m := min(len(geoms), tk.k1-b0)
+		for j := range m {
+			g.fill(&geoms[j], b0+j, albBody, predBody)
+			vw.view(&views[j], &geoms[j], albBody, predBody)
+		}
 		for _, r := range readers {
-			r.step(k, &sg, v)
+			for j := range m {
+				r.step(b0+j, &geoms[j], &views[j])
+			}
 		}
 	}
 	// The last sample stands for the time up to the run's end, not a whole

@@ -49,6 +49,8 @@ type runOutput struct {
 	warnings []string
 	// phases are the per-phase figures of a timeline run (timeline.go).
 	phases *study.Phases
+	// series is series.csv, written as the run went (nil without --csv).
+	series *seriesFile
 }
 
 func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
@@ -647,45 +649,25 @@ func csvBytes(rows [][]string) ([]byte, error) {
 }
 
 // utc is the UTC time of t seconds after the epoch, empty when t is undefined.
-func (o *runOutput) utc(t float64) string {
+func (o *runOutput) utc(t float64) string { return utcOf(o.s.Epoch, t) }
+
+// utcOf is the UTC time of t seconds after epoch, empty when t is undefined.
+func utcOf(epoch time.Time, t float64) string {
 	if math.IsNaN(t) {
 		return ""
 	}
-	return o.s.Epoch.Add(time.Duration(t * float64(time.Second))).UTC().Format("2006-01-02T15:04:05.000Z")
+	return epoch.Add(time.Duration(t * float64(time.Second))).UTC().Format("2006-01-02T15:04:05.000Z")
 }
 
 // writeCSV writes the time series, eclipses, estimators and sensors tables,
 // the resolved scenario and the JSON record into dir.
 func (o *runOutput) writeCSV(dir string) error {
-	r, u := o.res, o.res.Nominal
+	r := o.res
 	files := map[string][][]string{}
-	if s := u.Series; s != nil {
-		head := []string{"t_s", "utc", "region", "sun_disc_visible_fraction", "sensors_seeing_sun", "valid",
-			"error_no_albedo_deg", "error_albedo_deg", "error_onboard_corrected_deg", "beta_deg", "sun_body_az_deg", "sun_body_el_deg"}
-		pw := r.PowerSeries
-		if pw != nil && len(pw.W) != len(s.T) {
-			return fmt.Errorf("csv: the power series has %d samples, the time series %d", len(pw.W), len(s.T))
+	if o.series != nil {
+		if err := o.series.place(dir); err != nil {
+			return fmt.Errorf("series.csv: %w", err)
 		}
-		if pw != nil {
-			head = append(head, "array_power_w")
-		}
-		for _, n := range s.SensorName {
-			head = append(head, "signal_"+n)
-		}
-		rows := [][]string{head}
-		for i, t := range s.T {
-			row := []string{ff(t, 1), o.utc(t),
-				strings.ToLower(s.Region[i].String()), ff(s.Lit[i], 6), strconv.Itoa(s.Seen[i]), strconv.FormatBool(s.Valid[i]),
-				ff(s.ErrNoDeg[i], 4), ff(s.ErrAlbDeg[i], 4), ff(s.ErrCorrDeg[i], 4), ff(s.BetaDeg[i], 4), ff(s.SunBodyAz[i], 3), ff(s.SunBodyEl[i], 3)}
-			if pw != nil {
-				row = append(row, ff(pw.W[i], 4))
-			}
-			for _, v := range s.Signals[i] {
-				row = append(row, ff(v, 5))
-			}
-			rows = append(rows, row)
-		}
-		files["series.csv"] = rows
 	}
 	ecl := [][]string{{"penumbra_start_utc", "penumbra_start_s", "umbra_start_s", "umbra_end_s", "penumbra_end_s", "duration_s", "umbra_s", "cut_by_span"}}
 	for _, e := range r.Eclipses {

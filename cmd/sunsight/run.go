@@ -143,6 +143,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	// A time series is kept only for the CSV files: series.csv has every
 	// step unless output.decimate thins it (said on stderr). The figures ask
 	// the run for what they need (review.Request).
+	var series *seriesFile
 	if f.csvDir != "" {
 		// gaps.csv lists the gaps of the units it writes.
 		cfg.GapListUnits = 1
@@ -154,6 +155,14 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 			fmt.Fprintf(stderr, "sunsight run: series.csv keeps every %d-th step (output.decimate: %d); remove the key for every step\n",
 				cfg.SeriesStride, cfg.SeriesStride)
 		}
+		// series.csv is written as the run goes, into a temporary file
+		// that any failure before the output set is in place removes.
+		var err error
+		if series, err = newSeriesFile(f.csvDir, s.Epoch, cfg.Panels != nil); err != nil {
+			return fmt.Errorf("--csv %s: %w", f.csvDir, err)
+		}
+		defer series.discard()
+		cfg.SeriesSink = series.write
 	}
 	if f.report != "" || f.plotsDir != "" {
 		if err := review.Request(s, &cfg, s.Output.Figures); err != nil {
@@ -196,6 +205,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	out := newRunOutput(s, &cfg, res, toolVersion())
+	out.series = series
 	printWarnings(stderr, out.warnings)
 	out.allUnits = f.allUnits
 	if study.TimelineOf(cfg) != nil {

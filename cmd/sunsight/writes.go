@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -116,12 +117,17 @@ func writeManifest(dir string) error {
 			return err
 		}
 		rel, _ := filepath.Rel(dir, p)
-		b, err := os.ReadFile(p)
+		// Hashed as it is read: a series of a long run is hundreds of MB.
+		f, err := os.Open(p)
 		if err != nil {
 			return err
 		}
-		sum := sha256.Sum256(b)
-		m.Files[filepath.ToSlash(rel)] = hex.EncodeToString(sum[:])
+		defer f.Close()
+		h := sha256.New()
+		if _, err := io.Copy(h, f); err != nil {
+			return err
+		}
+		m.Files[filepath.ToSlash(rel)] = hex.EncodeToString(h.Sum(nil))
 		return nil
 	})
 	if err != nil {

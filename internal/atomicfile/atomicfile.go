@@ -9,8 +9,10 @@
 package atomicfile
 
 import (
+	"bufio"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -53,6 +55,17 @@ func kind(m fs.FileMode) string {
 // fsync and a rename. On any error the temporary file is removed and path is
 // untouched. A path that exists and is not a regular file is refused.
 func Write(path string, data []byte) error {
+	return WriteFrom(path, func(w io.Writer) error {
+		_, err := w.Write(data)
+		return err
+	})
+}
+
+// WriteFrom is Write with the data written by fill, through a buffer, as it
+// goes: a large table need not be held whole in memory. On any error of
+// fill or of the writes the temporary file is removed and path is
+// untouched.
+func WriteFrom(path string, fill func(w io.Writer) error) error {
 	if err := CheckTarget(path); err != nil {
 		return err
 	}
@@ -61,7 +74,11 @@ func Write(path string, data []byte) error {
 		return fmt.Errorf("cannot write %s: %w (check that the folder exists and is writable)", path, err)
 	}
 	tmp := f.Name()
-	_, werr := f.Write(data)
+	bw := bufio.NewWriterSize(f, 1<<16)
+	werr := fill(bw)
+	if werr == nil {
+		werr = bw.Flush()
+	}
 	if werr == nil {
 		werr = f.Sync()
 	}

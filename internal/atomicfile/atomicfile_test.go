@@ -1,8 +1,11 @@
 package atomicfile
 
 import (
+	"errors"
+	"io"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -32,5 +35,40 @@ func TestWriteFailureLeavesNothing(t *testing.T) {
 	}
 	if ents, _ := os.ReadDir(dir); len(ents) != 0 {
 		t.Fatalf("left files: %v", ents)
+	}
+}
+
+// A fill that fails half way leaves the old file as it was and no
+// temporary file; one that succeeds replaces it with everything it wrote.
+func TestWriteFromFailureKeepsOldFile(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "series.csv")
+	if err := Write(path, []byte("old\n")); err != nil {
+		t.Fatal(err)
+	}
+	boom := errors.New("boom")
+	err := WriteFrom(path, func(w io.Writer) error {
+		if _, err := io.WriteString(w, strings.Repeat("row\n", 100000)); err != nil {
+			return err
+		}
+		return boom
+	})
+	if !errors.Is(err, boom) {
+		t.Fatalf("error %v, want the fill's", err)
+	}
+	if b, _ := os.ReadFile(path); string(b) != "old\n" {
+		t.Fatalf("file now %d bytes, want the old 4", len(b))
+	}
+	if ents, _ := os.ReadDir(dir); len(ents) != 1 {
+		t.Fatalf("left files: %v", ents)
+	}
+	if err := WriteFrom(path, func(w io.Writer) error {
+		_, err := io.WriteString(w, strings.Repeat("row\n", 100000))
+		return err
+	}); err != nil {
+		t.Fatal(err)
+	}
+	if b, _ := os.ReadFile(path); len(b) != 400000 {
+		t.Fatalf("file %d bytes, want 400000", len(b))
 	}
 }

@@ -75,6 +75,11 @@
 // light scattered by the atmosphere, a reflectance model with a limb); the
 // sunlit measures (1) and (2) are the ones that fire.
 //
+// A time series (Config.SeriesStride) is kept in the result, or handed
+// piece by piece in time order to Config.SeriesSink as the pieces are
+// folded (memory flat in the duration; with panels the power pass then
+// runs first, so each piece carries its power).
+//
 // Long runs are cut into fixed chunks of 32768 steps that run in parallel;
 // each unit's chunks are folded into its accumulator in time order as soon
 // as they are next (memory flat in the duration: at most about one chunk

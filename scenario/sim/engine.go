@@ -112,6 +112,15 @@ type Config struct {
 	// series; SunTrackPoints bounds the body-frame sun track kept for unit 0.
 	SeriesStride   int
 	SunTrackPoints int
+	// SeriesSink, when set with SeriesStride > 0, receives unit 0's time
+	// series as the run goes, piece by piece in time order, each piece
+	// once, with the panels' power at its samples (nil without Panels);
+	// the result then keeps no series (Nominal.Series nil), so memory
+	// stays flat in the duration. It is called from one goroutine at a
+	// time; an error it returns ends the run with that error. With
+	// Panels the power pass runs before the step loop, so that each piece
+	// has its power.
+	SeriesSink func(piece *Series, powerW []float64) error
 	// TimelineSpan > 0 keeps, besides the series, a short series of unit 0
 	// over its first TimelineSpan seconds, one step in TimelineStride: what
 	// a timeline figure shows, so the review needs neither a full series
@@ -146,6 +155,7 @@ type Config struct {
 // whose figures come from the primary run.
 func (c Config) Lean() Config {
 	c.SeriesStride, c.SunTrackPoints, c.TimelineSpan, c.TimelineStride, c.Season, c.Progress = 0, 0, 0, 0, nil, nil
+	c.SeriesSink = nil
 	c.GapListUnits = 0
 	return c
 }
@@ -274,14 +284,28 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 		}
 		close(eclDone)
 	}()
+	// A series written as the run goes (SeriesSink) runs until a piece
+	// fails to be written: the run is then stopped.
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	streaming := cfg.SeriesSink != nil && cfg.SeriesStride > 0
 	powDone := make(chan error, 1)
-	if cfg.Panels != nil {
+	switch {
+	case cfg.Panels != nil && streaming:
+		// The pieces of a streamed series carry their power: the power
+		// pass goes first.
+		var err error
+		if res.Power, res.PowerSeries, res.PowerTimeline, err = powerPass(ctx, &cfg); err != nil {
+			return nil, err
+		}
+		powDone <- nil
+	case cfg.Panels != nil:
 		go func() {
 			var err error
 			res.Power, res.PowerSeries, res.PowerTimeline, err = powerPass(ctx, &cfg)
 			powDone <- err
 		}()
-	} else {
+	default:
 		powDone <- nil
 	}
 
@@ -305,6 +329,21 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	merged := make([]*orderedMerge, units)
 	for u := range merged {
 		merged[u] = &orderedMerge{pending: map[int]*unitAcc{}}
+	}
+	if streaming {
+		rows := 0
+		merged[0].sink = func(piece *Series) error {
+			var w []float64
+			if res.PowerSeries != nil {
+				w = res.PowerSeries.W[rows : rows+len(piece.T)]
+			}
+			rows += len(piece.T)
+			err := cfg.SeriesSink(piece, w)
+			if err != nil {
+				cancel()
+			}
+			return err
+		}
 	}
 	// Units share a task's geometry unless the attitude is drawn per unit.
 	// With fewer pieces than workers the units are split into groups so
@@ -355,6 +394,9 @@ feed:
 	wg.Wait()
 	<-eclDone
 	powErr := <-powDone
+	if err := merged[0].sinkErr; err != nil {
+		return nil, err
+	}
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
@@ -387,6 +429,11 @@ type orderedMerge struct {
 	acc     *unitAcc
 	next    int // index of the next piece to fold in
 	pending map[int]*unitAcc
+	// sink, when set, takes each piece's time series in time order instead
+	// of the accumulator (Config.SeriesSink); sinkErr is its first error,
+	// after which the pieces' series are dropped.
+	sink    func(*Series) error
+	sinkErr error
 }
 
 // add hands over piece c.
@@ -400,6 +447,12 @@ func (m *orderedMerge) add(c int, a *unitAcc) {
 			return
 		}
 		delete(m.pending, m.next)
+		if m.sink != nil && p.series != nil {
+			if m.sinkErr == nil {
+				m.sinkErr = m.sink(p.series)
+			}
+			p.series = nil
+		}
 		if m.acc == nil {
 			m.acc = p
 		} else {

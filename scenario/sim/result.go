@@ -2,6 +2,7 @@ package sim
 
 import (
 	"math"
+	"slices"
 	"sort"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -217,8 +218,17 @@ type Series struct {
 	BetaDeg    []float64
 	SunBodyAz  []float64 // deg, body frame
 	SunBodyEl  []float64
-	Signals    [][]float64 // per sample, per sensor (realistic)
+	// Signal holds the realistic signal of every sensor at every sample,
+	// sample after sample (len(SensorName) values each, one array rather
+	// than a slice per sample); SignalsAt cuts out one sample's.
+	Signal     []float64
 	SensorName []string
+}
+
+// SignalsAt returns the sensors' signals at sample i (a view into Signal).
+func (s *Series) SignalsAt(i int) []float64 {
+	n := len(s.SensorName)
+	return s.Signal[i*n : (i+1)*n : (i+1)*n]
 }
 
 // AcrossUnits is the Monte Carlo spread of one estimator over the units.
@@ -527,11 +537,30 @@ func (s *Series) add(t float64, region illum.Region, lit float64, seen int, vali
 	s.BetaDeg = append(s.BetaDeg, degOf(math.Asin(sinBeta)))
 	s.SunBodyAz = append(s.SunBodyAz, degOf(math.Atan2(sunBody.Y, sunBody.X)))
 	s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(math.Max(-1, math.Min(1, sunBody.Z)))))
-	sig := make([]float64, len(real))
 	for i := range real {
-		sig[i] = real[i].Signal
+		s.Signal = append(s.Signal, real[i].Signal)
 	}
-	s.Signals = append(s.Signals, sig)
+}
+
+// reserve makes room for n samples in all, so that appending up to n
+// allocates nothing more.
+func (s *Series) reserve(n int) {
+	if n <= cap(s.T) {
+		return
+	}
+	more := n - len(s.T)
+	s.T = slices.Grow(s.T, more)
+	s.Region = slices.Grow(s.Region, more)
+	s.Lit = slices.Grow(s.Lit, more)
+	s.Seen = slices.Grow(s.Seen, more)
+	s.Valid = slices.Grow(s.Valid, more)
+	s.ErrNoDeg = slices.Grow(s.ErrNoDeg, more)
+	s.ErrAlbDeg = slices.Grow(s.ErrAlbDeg, more)
+	s.ErrCorrDeg = slices.Grow(s.ErrCorrDeg, more)
+	s.BetaDeg = slices.Grow(s.BetaDeg, more)
+	s.SunBodyAz = slices.Grow(s.SunBodyAz, more)
+	s.SunBodyEl = slices.Grow(s.SunBodyEl, more)
+	s.Signal = slices.Grow(s.Signal, more*len(s.SensorName))
 }
 
 // extend appends the samples of the next piece of the same series.
@@ -547,7 +576,7 @@ func (s *Series) extend(t *Series) {
 	s.BetaDeg = append(s.BetaDeg, t.BetaDeg...)
 	s.SunBodyAz = append(s.SunBodyAz, t.SunBodyAz...)
 	s.SunBodyEl = append(s.SunBodyEl, t.SunBodyEl...)
-	s.Signals = append(s.Signals, t.Signals...)
+	s.Signal = append(s.Signal, t.Signal...)
 }
 
 // corrected folds in a sunlit sample's estimate from the corrected
@@ -629,6 +658,10 @@ func (a *unitAcc) merge(b *unitAcc) {
 		}
 	}
 	if a.series != nil && b.series != nil {
+		// Grown once to the whole run's rows, not by doubling as the
+		// pieces arrive (a year at 10 s keeps 3 M rows).
+		steps, stride := a.cfg.Steps(), a.cfg.SeriesStride
+		a.series.reserve((steps + stride - 1) / stride)
 		a.series.extend(b.series)
 	}
 	if a.timeline != nil && b.timeline != nil {

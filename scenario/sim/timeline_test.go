@@ -42,7 +42,7 @@ func TestTimelineIsTheSeriesHead(t *testing.T) {
 		}
 		row := func(s *Series, i int) string {
 			return fmt.Sprint(s.T[i], s.Region[i], s.Lit[i], s.Seen[i], s.Valid[i], s.ErrNoDeg[i], s.ErrAlbDeg[i], s.ErrCorrDeg[i], s.BetaDeg[i],
-				s.SunBodyAz[i], s.SunBodyEl[i], s.Signals[i])
+				s.SunBodyAz[i], s.SunBodyEl[i], s.SignalsAt(i))
 		}
 		if a, b := row(tl, want), row(full, k); a != b {
 			t.Fatalf("timeline sample %d:\n%s\nseries step %d:\n%s", want, a, k, b)

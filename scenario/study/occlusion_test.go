@@ -173,8 +173,8 @@ func TestOcclusionInTheTimeDomain(t *testing.T) {
 		if se.Region[k] != illum.Sunlit {
 			continue
 		}
-		if lit := se.Signals[k][0] > 0; lit != (se.Seen[k] == 1) {
-			t.Fatalf("t = %g s: signal %g with %d sensors seeing the sun", se.T[k], se.Signals[k][0], se.Seen[k])
+		if lit := se.SignalsAt(k)[0] > 0; lit != (se.Seen[k] == 1) {
+			t.Fatalf("t = %g s: signal %g with %d sensors seeing the sun", se.T[k], se.SignalsAt(k)[0], se.Seen[k])
 		}
 		el, az := se.SunBodyEl[k]*math.Pi/180, se.SunBodyAz[k]*math.Pi/180
 		d := r3.Vec{X: math.Cos(el) * math.Cos(az), Y: math.Cos(el) * math.Sin(az), Z: math.Sin(el)}
@@ -218,7 +218,7 @@ func TestTiltedSensorAlbedoClippedByItsFace(t *testing.T) {
 	with, without := run(true), run(false)
 	less, kept := 0, 0
 	for k := range with.T {
-		a, b := with.Signals[k][0], without.Signals[k][0]
+		a, b := with.SignalsAt(k)[0], without.SignalsAt(k)[0]
 		switch {
 		case b > 0 && a > b+1e-12:
 			t.Fatalf("t = %g s: %g with the face plane, %g without", with.T[k], a, b)

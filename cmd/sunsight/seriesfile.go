@@ -1,0 +1,178 @@
+package main
+
+import (
+	"bufio"
+	"encoding/csv"
+	"errors"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"time"
+
+	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
+)
+
+// seriesFile writes series.csv as the run goes (sim.Config.SeriesSink): each
+// piece of unit 0's time series is formatted into a hidden temporary file
+// beside the output folder, so a long run never holds its series in memory.
+// The output set takes the file in when it is complete (place); a run that
+// fails or is interrupted removes it (discard).
+type seriesFile struct {
+	f         *os.File
+	bw        *bufio.Writer
+	w         *csv.Writer
+	epoch     time.Time
+	withPower bool
+	head      bool   // the header is written
+	buf       []byte // one row
+	done      bool   // placed or discarded
+}
+
+// newSeriesFile opens the temporary file beside the output folder outDir
+// (its parent, so that the final rename stays on one file system).
+func newSeriesFile(outDir string, epoch time.Time, withPower bool) (*seriesFile, error) {
+	f, err := os.CreateTemp(filepath.Dir(filepath.Clean(outDir)), ".sunsight-series-*.csv.tmp")
+	if err != nil {
+		return nil, err
+	}
+	bw := bufio.NewWriterSize(f, 1<<16)
+	return &seriesFile{f: f, bw: bw, w: csv.NewWriter(bw), epoch: epoch, withPower: withPower}, nil
+}
+
+// write appends the rows of one piece of the series; powerW is the array
+// power at its samples (nil without panels).
+func (sf *seriesFile) write(p *sim.Series, powerW []float64) error {
+	if sf.withPower != (powerW != nil) {
+		return errors.New("series.csv: the power column comes and goes between pieces")
+	}
+	if !sf.head {
+		head := []string{"t_s", "utc", "region", "sun_disc_visible_fraction", "sensors_seeing_sun", "valid",
+			"error_no_albedo_deg", "error_albedo_deg", "error_onboard_corrected_deg", "beta_deg", "sun_body_az_deg", "sun_body_el_deg"}
+		if sf.withPower {
+			head = append(head, "array_power_w")
+		}
+		for _, n := range p.SensorName {
+			head = append(head, "signal_"+n)
+		}
+		if err := sf.w.Write(head); err != nil {
+			return err
+		}
+		sf.head = true
+	}
+	// The rows are numbers, region names and times, none of which CSV
+	// quotes: they are appended as bytes, without a string per field
+	// (the same bytes as csv.Writer writes for them).
+	if err := sf.w.Error(); err != nil {
+		return err
+	}
+	sf.w.Flush()
+	b := sf.buf
+	for i, t := range p.T {
+		b = b[:0]
+		b = appendFF(b, t, 1)
+		b = append(b, ',')
+		b = appendUTC(b, sf.epoch, t)
+		b = append(b, ',')
+		b = append(b, regionName(p.Region[i])...)
+		b = append(b, ',')
+		b = appendFF(b, p.Lit[i], 6)
+		b = append(b, ',')
+		b = strconv.AppendInt(b, int64(p.Seen[i]), 10)
+		b = append(b, ',')
+		b = strconv.AppendBool(b, p.Valid[i])
+		for _, f := range [...]struct {
+			v    float64
+			prec int
+		}{{p.ErrNoDeg[i], 4}, {p.ErrAlbDeg[i], 4}, {p.ErrCorrDeg[i], 4}, {p.BetaDeg[i], 4}, {p.SunBodyAz[i], 3}, {p.SunBodyEl[i], 3}} {
+			b = append(b, ',')
+			b = appendFF(b, f.v, f.prec)
+		}
+		if sf.withPower {
+			b = append(b, ',')
+			b = appendFF(b, powerW[i], 4)
+		}
+		for _, v := range p.SignalsAt(i) {
+			b = append(b, ',')
+			b = appendFF(b, v, 5)
+		}
+		b = append(b, '\n')
+		if _, err := sf.bw.Write(b); err != nil {
+			sf.buf = b
+			return err
+		}
+	}
+	sf.buf = b
+	return nil
+}
+
+// regionNames are the region column's words (illum.Region's names in lower
+// case), by region.
+var regionNames = [...]string{
+	illum.Sunlit:   strings.ToLower(illum.Sunlit.String()),
+	illum.Penumbra: strings.ToLower(illum.Penumbra.String()),
+	illum.Umbra:    strings.ToLower(illum.Umbra.String()),
+}
+
+func regionName(r illum.Region) string {
+	if int(r) >= 0 && int(r) < len(regionNames) {
+		return regionNames[r]
+	}
+	return strings.ToLower(r.String())
+}
+
+// appendFF appends ff(v, prec): nothing for NaN.
+func appendFF(b []byte, v float64, prec int) []byte {
+	if math.IsNaN(v) {
+		return b
+	}
+	return strconv.AppendFloat(b, v, 'f', prec, 64)
+}
+
+// appendUTC appends utcOf(epoch, t).
+func appendUTC(b []byte, epoch time.Time, t float64) []byte {
+	if math.IsNaN(t) {
+		return b
+	}
+	return epoch.Add(time.Duration(t*float64(time.Second))).UTC().AppendFormat(b, "2006-01-02T15:04:05.000Z")
+}
+
+// place completes the file and moves it to dir/series.csv (dir: the output
+// set being filled).
+func (sf *seriesFile) place(dir string) error {
+	sf.w.Flush()
+	err := sf.w.Error()
+	if err == nil {
+		err = sf.bw.Flush()
+	}
+	if err == nil {
+		err = sf.f.Sync()
+	}
+	if cerr := sf.f.Close(); err == nil {
+		err = cerr
+	}
+	if err == nil {
+		err = os.Chmod(sf.f.Name(), 0o644)
+	}
+	if err == nil {
+		err = os.Rename(sf.f.Name(), filepath.Join(dir, "series.csv"))
+	}
+	if err != nil {
+		sf.discard()
+		return err
+	}
+	sf.done = true
+	return nil
+}
+
+// discard removes the temporary file unless it was placed.
+func (sf *seriesFile) discard() {
+	if sf == nil || sf.done {
+		return
+	}
+	sf.f.Close()
+	os.Remove(sf.f.Name())
+	sf.done = true
+}

@@ -2,6 +2,11 @@ package study
 
 import (
 	"testing"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/illum/power"
+	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
 // The memory estimate counts the albedo tables the engine will build: a
@@ -85,5 +90,34 @@ func TestModesShareTheZonalTables(t *testing.T) {
 	}
 	if !a.SharesTables() || !a.SharesTablesWith(b) {
 		t.Errorf("the mode's albedo model does not share the primary's zonal tables (shared %v)", a.SharesTables())
+	}
+}
+
+// A series written as the run goes (Config.SeriesSink) is not counted, a
+// kept one is, row for row; panels add their power at every sample either
+// way.
+func TestSeriesRowsOnlyWhenKept(t *testing.T) {
+	s := parse(t, "duration: 10d\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n"+
+		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60}\n")
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.SeriesStride = 2
+	if got, want := SeriesRows(&cfg), cfg.Steps()/2+1; got != want {
+		t.Errorf("kept series: %d rows, want %d", got, want)
+	}
+	cfg.SeriesSink = func(*sim.Series, []float64) error { return nil }
+	if got := SeriesRows(&cfg); got != 0 {
+		t.Errorf("streamed series: %d rows kept, want 0", got)
+	}
+	before := MemoryEstimate(&cfg, 0)
+	arr, err := power.NewArray(power.Panel{Name: "p", Normal: r3.Vec{Z: 1}, AreaM2: 0.01, Efficiency: 0.3, PackingFactor: 0.9})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Panels = arr
+	if got, want := MemoryEstimate(&cfg, 0)-before, int64(cfg.Steps()/2+1)*memPerPowerRow; got != want {
+		t.Errorf("panel power adds %d bytes, want %d", got, want)
 	}
 }

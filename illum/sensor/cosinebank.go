@@ -113,14 +113,25 @@ func (b *CosineBank) ReadPair(noAlb, withAlb []Reading, sun r3.Vec, direct float
 		}
 		e := d * s.response(sun)
 		v0 := s.gain*e/s.ref + s.dark
-		v1 := s.gain*(e+alb[i].Irradiance)/s.ref + s.dark
-		if noise != nil && s.noiseSigma > 0 {
-			n := s.noiseSigma * noise.NormFloat64()
-			v0, v1 = v0+n, v1+n
+		noisy := noise != nil && s.noiseSigma > 0
+		var n float64
+		if noisy {
+			n = s.noiseSigma * noise.NormFloat64()
+			v0 += n
 		}
 		v0, s0 := s.digitise(v0)
-		v1, s1 := s.digitise(v1)
 		noAlb[i] = Reading{Signal: v0, Valid: v0 > 0 && v0 >= s.threshold, Saturated: s0}
+		a := alb[i].Irradiance
+		if a == 0 {
+			// e + 0 is e (e ≥ 0): the same value, digitised once.
+			withAlb[i] = noAlb[i]
+			continue
+		}
+		v1 := s.gain*(e+a)/s.ref + s.dark
+		if noisy {
+			v1 += n
+		}
+		v1, s1 := s.digitise(v1)
 		withAlb[i] = Reading{Signal: v1, Valid: v1 > 0 && v1 >= s.threshold, Saturated: s1}
 	}
 }

@@ -1,6 +1,7 @@
 package sensor
 
 import (
+	"math"
 	"math/rand/v2"
 	"testing"
 
@@ -61,6 +62,9 @@ func TestCosineBankEqualsReads(t *testing.T) {
 			for i := range n {
 				blocked[i] = pick.IntN(5) == 0
 				alb[i] = Albedo{Irradiance: 400 * pick.Float64()}
+				if pick.IntN(3) == 0 {
+					alb[i] = Albedo{} // none: the bank copies the reading without
+				}
 			}
 			saved := *src
 			bank.Read(got, sun, direct, blocked, noise)
@@ -102,6 +106,11 @@ func TestCosineBankEqualsReads(t *testing.T) {
 				c.ReadPair(&wantNo, &wantAlb, sun, d, alb[i].Irradiance, noise)
 				if got[i] != wantNo || gotAlb[i] != wantAlb {
 					t.Fatalf("%s: bank pair %+v / %+v, ReadPair %+v / %+v", c.Name(), got[i], gotAlb[i], wantNo, wantAlb)
+				}
+				// No albedo: the two readings are the same bits (the
+				// engine then takes the estimate without albedo for both).
+				if alb[i].Irradiance == 0 && (math.Float64bits(got[i].Signal) != math.Float64bits(gotAlb[i].Signal) || got[i] != gotAlb[i]) {
+					t.Fatalf("%s: no albedo, yet %+v and %+v", c.Name(), got[i], gotAlb[i])
 				}
 			}
 			if *src != after {

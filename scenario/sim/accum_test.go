@@ -7,10 +7,7 @@ import (
 	"sort"
 	"testing"
 
-	"gonum.org/v1/gonum/spatial/r3"
 	"gonum.org/v1/gonum/stat"
-
-	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 // The streaming accumulators are checked against gonum's whole-slice
@@ -233,35 +230,5 @@ func TestMomentsNarrowSpreadPieces(t *testing.T) {
 	mean, sd := stat.MeanStdDev(xs, nil)
 	if math.Abs(whole.Mean()-mean) > 1e-12*mean || math.Abs(whole.StdDev()-sd) > 1e-9*sd {
 		t.Fatalf("mean %.15g sd %.15g, gonum %.15g %.15g", whole.Mean(), whole.StdDev(), mean, sd)
-	}
-}
-
-// sameReadings compares bits: −0 and +0 differ, a NaN equals itself, and
-// every field counts.
-func TestSameReadings(t *testing.T) {
-	base := []sensor.Reading{{Signal: 0.5, Valid: true}, {Signal: 0, Dir: r3.Vec{Z: 1}, Cells: [4]float64{1, 2, 3, 4}}}
-	cp := func() []sensor.Reading { return append([]sensor.Reading(nil), base...) }
-	if !sameReadings(base, cp()) {
-		t.Fatal("a copy differs")
-	}
-	nan := cp()
-	nan[0].Signal = math.NaN()
-	if !sameReadings(nan, append([]sensor.Reading(nil), nan...)) {
-		t.Error("a NaN signal differs from the same NaN")
-	}
-	for name, change := range map[string]func(r []sensor.Reading){
-		"signal -0":  func(r []sensor.Reading) { r[1].Signal = math.Copysign(0, -1) },
-		"valid":      func(r []sensor.Reading) { r[0].Valid = false },
-		"saturated":  func(r []sensor.Reading) { r[0].Saturated = true },
-		"sigma":      func(r []sensor.Reading) { r[1].Sigma = 1e-3 },
-		"direction":  func(r []sensor.Reading) { r[1].Dir.Z = math.Nextafter(1, 2) },
-		"cell":       func(r []sensor.Reading) { r[1].Cells[3] = 4.5 },
-		"last entry": func(r []sensor.Reading) { r[1].Dir.X = 1e-300 },
-	} {
-		r := cp()
-		change(r)
-		if sameReadings(base, r) {
-			t.Errorf("%s: a changed reading compares the same", name)
-		}
 	}
 }

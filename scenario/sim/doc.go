@@ -116,9 +116,11 @@
 // the sun is outside its cone. A task runs in blocks of 256 steps: the
 // geometry and the view of the whole block first, then each unit reads its
 // sensors over the block (its accumulators stay in cache), each unit
-// seeing the same steps in the same order. Where albedo leaves a step's
-// readings the same bits, the estimate with albedo is the one without
-// (estimators are functions of the readings), not computed again. None of this changes a number: the outputs
+// seeing the same steps in the same order. A cosine bank copies a
+// sensor's reading without albedo when it gets none, so a step without
+// albedo on any sensor has the same readings with and without it: the
+// estimate with albedo is then the one without (estimators are functions
+// of the readings), not computed again. None of this changes a number: the outputs
 // of the bundled examples and bench cases are the same bytes as before. With a uniform albedo the cell
 // integral is replaced by a table on long runs: the LVLH table
 // (albedo.LocalTable) for nadir pointing on a circular orbit with at most 8

@@ -212,7 +212,7 @@ func BenchmarkStages(b *testing.B) {
 		for b.Loop() {
 			a := newUnitAcc(&c, arr, false, false, true, false, 0)
 			for k := range states {
-				a.step(k, float64(k)*cfg.Step, region[k], 1, 2, sunBody[k], r3.Vec{Z: 1}, 0.3, reads[k*n:(k+1)*n], nil, nil, arr, c.Estimators)
+				a.step(k, float64(k)*cfg.Step, region[k], 1, 2, sunBody[k], r3.Vec{Z: 1}, 0.3, reads[k*n:(k+1)*n], nil, nil, false, arr, c.Estimators)
 			}
 		}
 		report(b)

@@ -355,7 +355,7 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first, li
 // step folds one sample in. readAlb is ignored without an albedo model,
 // readCorr (the readings corrected on board) without an on-board model.
 func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen int, sunBody, nadirBody r3.Vec,
-	sinBeta float64, readNo, readAlb, readCorr []sensor.Reading, arr *sensor.Array, ests []sensor.Estimator) {
+	sinBeta float64, readNo, readAlb, readCorr []sensor.Reading, same bool, arr *sensor.Array, ests []sensor.Estimator) {
 	a.samples++
 	sunlit := region == illum.Sunlit
 	switch region {
@@ -409,11 +409,11 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	}
 	var errNoDeg, errAlbDeg, errCorrDeg = math.NaN(), math.NaN(), math.NaN()
 	var primaryValid bool
-	// Readings the albedo left unchanged, bit for bit (no lit Earth in any
-	// cone): every estimator gives the same estimate on both, so the
+	// Readings the albedo left unchanged, bit for bit (same: the caller
+	// knows it): every estimator gives the same estimate on both, so the
 	// estimate with albedo, its error and its angle to the one without
 	// (exactly 0) are taken from the first.
-	same := a.albedo && sameReadings(readNo, readAlb)
+	same = same && a.albedo
 	for j, e := range ests {
 		ea := &a.est[j]
 		var gate sensor.Gate
@@ -499,27 +499,6 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 	if s := a.timeline; s != nil && t <= a.cfg.TimelineSpan && k%a.cfg.TimelineStride == 0 {
 		s.add(t, region, lit, seen, primaryValid, errNoDeg, errAlbDeg, errCorrDeg, sinBeta, sunBody, real)
 	}
-}
-
-// sameReadings reports whether two reading lists are the same bits, field
-// by field.
-func sameReadings(a, b []sensor.Reading) bool {
-	for i := range a {
-		x, y := &a[i], &b[i]
-		if math.Float64bits(x.Signal) != math.Float64bits(y.Signal) || x.Valid != y.Valid || x.Saturated != y.Saturated ||
-			math.Float64bits(x.Sigma) != math.Float64bits(y.Sigma) || !sameBits3(x.Dir, y.Dir) ||
-			math.Float64bits(x.Cells[0]) != math.Float64bits(y.Cells[0]) || math.Float64bits(x.Cells[1]) != math.Float64bits(y.Cells[1]) ||
-			math.Float64bits(x.Cells[2]) != math.Float64bits(y.Cells[2]) || math.Float64bits(x.Cells[3]) != math.Float64bits(y.Cells[3]) {
-			return false
-		}
-	}
-	return true
-}
-
-// sameBits3 reports whether two vectors are the same bits.
-func sameBits3(a, b r3.Vec) bool {
-	return math.Float64bits(a.X) == math.Float64bits(b.X) && math.Float64bits(a.Y) == math.Float64bits(b.Y) &&
-		math.Float64bits(a.Z) == math.Float64bits(b.Z)
 }
 
 // add appends one sample (it allocates: series are kept for figures and

@@ -633,7 +633,11 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 	if r.readCorr != nil {
 		r.subtractPrediction(v.predSeen)
 	}
-	r.acc.step(k, g.t, g.region, g.lit, v.seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.readCorr, r.arr, r.ests)
+	// A cosine bank copies a reading without albedo when the sensor gets
+	// none (CosineBank.ReadPair): with no albedo on any sensor the two
+	// lists are the same bits.
+	same := r.bank != nil && r.withAlbedo && noAlbedo(v.albSeen)
+	r.acc.step(k, g.t, g.region, g.lit, v.seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.readCorr, same, r.arr, r.ests)
 	if r.filt != nil {
 		real := r.readNo
 		if r.withAlbedo {
@@ -641,6 +645,16 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 		}
 		r.filt.step(g, real, r.acc.primary)
 	}
+}
+
+// noAlbedo reports whether no sensor gets albedo.
+func noAlbedo(alb []sensor.Albedo) bool {
+	for i := range alb {
+		if alb[i].Irradiance != 0 {
+			return false
+		}
+	}
+	return true
 }
 
 // blind drops the readings of the sensors their blinding rule invalidates

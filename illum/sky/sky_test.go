@@ -256,3 +256,15 @@ func TestMapAgreesWithCoverage(t *testing.T) {
 		}
 	}
 }
+
+// The lattice's longitudes use x − ⌊x⌋ for math.Mod(x, 1): the same bits
+// for every point of the default lattice and beyond.
+func TestFibonacciFractionIsMod(t *testing.T) {
+	φ := (1 + math.Sqrt(5)) / 2
+	for i := range 1 << 20 {
+		x := float64(i) / φ
+		if a, b := x-math.Floor(x), math.Mod(x, 1); math.Float64bits(a) != math.Float64bits(b) {
+			t.Fatalf("i = %d: %v against math.Mod %v", i, a, b)
+		}
+	}
+}

@@ -367,11 +367,22 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 // view is at writing into v, whose slices have the lengths of the viewer's
 // own (newView).
 func (w *viewer) view(v *stepView, g *stepGeom, albBody, predBody []sensor.Albedo) {
-	for i := range v.sunBlocked {
-		v.sunBlocked[i] = w.hide[i].hidden(g.sunBody)
+	if v.sunBlocked != nil {
+		blocked, hide, sun := v.sunBlocked, w.hide, g.sunBody
+		for i := range min(len(blocked), len(hide)) {
+			h := &hide[i]
+			if h.faceOnly {
+				// hider.hidden written out: the mounting plane alone.
+				blocked[i] = h.face != (r3.Vec{}) && !(r3.Dot(sun, h.face) > sky.FacePlaneMargin)
+			} else {
+				blocked[i] = h.hidden(sun)
+			}
+		}
 	}
-	w.pastBody(v.albSeen, albBody)
-	w.pastBody(v.predSeen, predBody)
+	if v.albSeen != nil {
+		w.pastBody(v.albSeen, albBody)
+		w.pastBody(v.predSeen, predBody)
+	}
 	v.seen = 0
 	sunlit := g.region == illum.Sunlit
 	for i, sees := range w.sees {
@@ -425,17 +436,36 @@ func (w *viewer) newViews(m int) []stepView {
 // the same comparisons without a copy of each cone
 // (TestViewerBodiesFlagsAreTheRules).
 func (w *viewer) bodiesInCones(v *stepView, b *sensor.Bodies) {
-	moonCut, earthCut := -b.MoonSin, -b.EarthSin
-	for i := range w.cone {
-		c, face := &w.cone[i], &w.face[i]
-		v.moonIn[i] = !b.MoonHidden && r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin && r3.Dot(b.MoonDir, *face) > moonCut &&
-			!w.hide[i].hidden(b.MoonDir)
-		v.litEarthIn[i] = b.EarthLit && r3.Dot(c.Axis, b.NadirDir) > c.Cos*b.EarthCos-c.Sin*b.EarthSin && r3.Dot(b.NadirDir, *face) > earthCut
-		if v.moonIn[i] {
-			w.moonInView[i]++
+	moonIn, earthIn := v.moonIn[:len(w.cone)], v.litEarthIn[:len(w.cone)]
+	face, hide := w.face[:len(w.cone)], w.hide[:len(w.cone)]
+	moonN, earthN := w.moonInView[:len(w.cone)], w.litEarthInView[:len(w.cone)]
+	// A hidden Moon or an unlit Earth is in no cone: its comparisons need
+	// not be made (each flag is a conjunction that starts with it).
+	if b.MoonHidden {
+		clear(moonIn)
+	} else {
+		moonCut := -b.MoonSin
+		for i := range w.cone {
+			c := &w.cone[i]
+			in := r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin && r3.Dot(b.MoonDir, face[i]) > moonCut &&
+				!hide[i].hidden(b.MoonDir)
+			moonIn[i] = in
+			if in {
+				moonN[i]++
+			}
 		}
-		if v.litEarthIn[i] {
-			w.litEarthInView[i]++
+	}
+	if !b.EarthLit {
+		clear(earthIn)
+		return
+	}
+	earthCut := -b.EarthSin
+	for i := range w.cone {
+		c := &w.cone[i]
+		in := r3.Dot(c.Axis, b.NadirDir) > c.Cos*b.EarthCos-c.Sin*b.EarthSin && r3.Dot(b.NadirDir, face[i]) > earthCut
+		earthIn[i] = in
+		if in {
+			earthN[i]++
 		}
 	}
 }

@@ -717,8 +717,9 @@ func (r *reader) subtractPrediction(pred []sensor.Albedo) {
 // for all units of a task), then each unit reads its sensors over the
 // block, so that a unit's sensors, estimators and accumulators stay in
 // cache for the block's steps. Each unit sees the same steps in the same
-// order as step by step: the results do not depend on the length.
-const blockSteps = 256
+// order as step by step: the results do not depend on the length
+// (TestBlockLengthChangesNothing sets it).
+var blockSteps = 256
 
 // runChunk simulates the steps [tk.k0, tk.k1) of units [tk.u0, tk.u1),
 // whose sensors (with their drawn errors) are arrays[u]: the geometry is

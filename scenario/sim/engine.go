@@ -334,8 +334,12 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 		rows := 0
 		merged[0].sink = func(piece *Series) error {
 			var w []float64
-			if res.PowerSeries != nil {
-				w = res.PowerSeries.W[rows : rows+len(piece.T)]
+			if pw := res.PowerSeries; pw != nil {
+				if rows+len(piece.T) > len(pw.W) {
+					cancel()
+					return fmt.Errorf("sim: the power series has %d samples, the time series at least %d", len(pw.W), rows+len(piece.T))
+				}
+				w = pw.W[rows : rows+len(piece.T)]
 			}
 			rows += len(piece.T)
 			err := cfg.SeriesSink(piece, w)

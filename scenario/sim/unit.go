@@ -365,7 +365,7 @@ func (w *viewer) at(g *stepGeom, albBody, predBody []sensor.Albedo) *stepView {
 }
 
 // view is at writing into v, whose slices have the lengths of the viewer's
-// own (newView).
+// own (newViews makes such views).
 func (w *viewer) view(v *stepView, g *stepGeom, albBody, predBody []sensor.Albedo) {
 	if v.sunBlocked != nil {
 		blocked, hide, sun := v.sunBlocked, w.hide, g.sunBody

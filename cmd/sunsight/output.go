@@ -56,6 +56,9 @@ type runOutput struct {
 func newRunOutput(s *scenario.Scenario, cfg *sim.Config, res *sim.Result, version string) *runOutput {
 	o := &runOutput{s: s, cfg: cfg, res: res, version: version}
 	o.warnings = study.Warnings(s, res)
+	if cfg.Units > 1 && cfg.UnitsAlike() {
+		o.warnings = append(o.warnings, fmt.Sprintf("%d Monte Carlo units, but nothing is drawn per unit (no sensor has a drawn error or noise): every unit gives unit 0's numbers; give the sensors an errors block for a spread over units", cfg.Units))
+	}
 	o.assessed = study.Assess(s, *cfg, res)
 	o.cov, o.covErr, o.targets = o.assessed.Coverage, o.assessed.CoverageErr, o.assessed.Targets
 	return o

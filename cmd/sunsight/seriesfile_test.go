@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/csv"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -94,5 +95,27 @@ func TestSeriesFileLeavesNoTemporaryFile(t *testing.T) {
 	}
 	if ents, _ := os.ReadDir(parent2); len(ents) != 0 {
 		t.Errorf("after a refused run: %v", ents)
+	}
+}
+
+// Monte Carlo units with nothing drawn per unit are said to be copies of
+// unit 0, on stderr and in the JSON record's warnings; a layout with drawn
+// errors is not.
+func TestWarnsUnitsAlike(t *testing.T) {
+	src := "epoch: \"2027-01-01T00:00:00Z\"\nduration: 6h\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n" +
+		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60%s}\n    - {name: b, kind: cosine, face: \"-X\", half_angle_deg: 60%s}\n" +
+		"    - {name: c, kind: cosine, face: \"+Z\", half_angle_deg: 60%s}\n"
+	for _, tc := range []struct {
+		errs string
+		want bool
+	}{{"", true}, {", errors: {noise_1sigma: 0.003}", false}} {
+		scen := filepath.Join(t.TempDir(), "s.yaml")
+		os.WriteFile(scen, fmt.Appendf(nil, src, tc.errs, tc.errs, tc.errs), 0o644)
+		var so, se bytes.Buffer
+		runMain([]string{"run", scen, "--units", "3", "--json"}, &so, &se)
+		said := strings.Contains(se.String(), "nothing is drawn per unit") && strings.Contains(so.String(), "nothing is drawn per unit")
+		if said != tc.want {
+			t.Errorf("errors %q: warned %v, want %v (stderr %s)", tc.errs, said, tc.want, se.String())
+		}
 	}
 }

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"reflect"
 	"runtime"
 	"sync"
 	"sync/atomic"
@@ -517,4 +518,32 @@ func orbitPeriod(s orbit.State) float64 {
 		return math.NaN()
 	}
 	return orbit.Period(a)
+}
+
+// UnitsAlike reports whether every Monte Carlo unit of cfg is certain to
+// give unit 0's numbers: no attitude drawn per unit, no gyro filter (its
+// gyro noise is drawn per unit), two units drawn from different streams
+// equal field by field, and no sensor whose reading depends on the noise
+// stream (read along its boresight at a tenth, three tenths and six
+// tenths of a 1 AU sun, below full scale, on two different streams). A false answer only means the draws could differ.
+func (c *Config) UnitsAlike() bool {
+	if c.LawForUnit != nil || c.Filter != nil || c.Array == nil {
+		return false
+	}
+	a, b := c.Array.Draw(rand.New(rand.NewPCG(1, 2))), c.Array.Draw(rand.New(rand.NewPCG(3, 4)))
+	if !reflect.DeepEqual(a, b) {
+		return false
+	}
+	// Below full scale, where a saturated reading would hide the noise.
+	for _, s := range a.Sensors() {
+		sun := s.Mount().Boresight()
+		for _, f := range []float64{0.1, 0.3, 0.6} {
+			r1 := s.Read(sun, f*ephem.SolarIrradiance1AU, sensor.Albedo{}, rand.New(rand.NewPCG(5, 6)))
+			r2 := s.Read(sun, f*ephem.SolarIrradiance1AU, sensor.Albedo{}, rand.New(rand.NewPCG(7, 8)))
+			if r1 != r2 {
+				return false
+			}
+		}
+	}
+	return true
 }

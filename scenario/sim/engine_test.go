@@ -296,3 +296,43 @@ func TestGapListChangesNoFigure(t *testing.T) {
 		t.Fatalf("listing gaps moved a figure:\n%s\n%s", a, b)
 	}
 }
+
+// Units are alike when nothing is drawn per unit: sensors without errors;
+// any drawn error, any noise, an attitude drawn per unit or a gyro filter
+// makes them differ.
+func TestUnitsAlike(t *testing.T) {
+	cfg := referenceCase(t, 1, false)
+	if !cfg.UnitsAlike() {
+		t.Error("sensors without errors: units not alike")
+	}
+	for name, errs := range map[string]sensor.Errors{
+		"noise":                 {NoiseSigma: 0.001},
+		"noise, 1 AU saturates": {NoiseSigma: 0.001, FullScale: 1, ADCBits: 12},
+		"dark offset":           {DarkSigma: 0.001},
+		"gain":                  {GainSigma: 0.001},
+		"misalignment":          {MisalignSigma: 1e-4},
+	} {
+		c := cfg
+		c.Array = faceArrayWith(t, 60, errs)
+		if c.UnitsAlike() {
+			t.Errorf("%s: units alike", name)
+		}
+	}
+	c := cfg
+	c.LawForUnit = func(int) attitude.Law { return attitude.Nadir{} }
+	if c.UnitsAlike() {
+		t.Error("attitude drawn per unit: units alike")
+	}
+	// And alike units do give the same numbers.
+	c = cfg
+	c.Units, c.Duration = 3, 6*3600
+	res, err := Run(context.Background(), c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for u := 1; u < 3; u++ {
+		if !sameBits(res.Units[u].Estimators, res.Units[0].Estimators) || !sameBits(res.Units[u].Sensors, res.Units[0].Sensors) {
+			t.Errorf("unit %d differs from unit 0 though the units are alike", u)
+		}
+	}
+}

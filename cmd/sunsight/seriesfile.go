@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"encoding/csv"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -29,6 +30,7 @@ type seriesFile struct {
 	head      bool   // the header is written
 	buf       []byte // one row
 	done      bool   // placed or discarded
+	outDir    string // the --csv folder, for messages
 }
 
 // newSeriesFile opens the temporary file beside the output folder outDir
@@ -39,12 +41,34 @@ func newSeriesFile(outDir string, epoch time.Time, withPower bool) (*seriesFile,
 		return nil, err
 	}
 	bw := bufio.NewWriterSize(f, 1<<16)
-	return &seriesFile{f: f, bw: bw, w: csv.NewWriter(bw), epoch: epoch, withPower: withPower}, nil
+	return &seriesFile{f: f, bw: bw, w: csv.NewWriter(bw), epoch: epoch, withPower: withPower, outDir: outDir}, nil
 }
 
 // write appends the rows of one piece of the series; powerW is the array
-// power at its samples (nil without panels).
+// power at its samples (nil without panels). Its errors name the output
+// folder and the file, not the temporary file.
 func (sf *seriesFile) write(p *sim.Series, powerW []float64) error {
+	if err := sf.writeRows(p, powerW); err != nil {
+		return fmt.Errorf("--csv %s: series.csv: %w (the run stopped; no output written)", sf.outDir, bare(err))
+	}
+	return nil
+}
+
+// bare is err without the temporary file's path, which means nothing to the
+// user.
+func bare(err error) error {
+	var pe *os.PathError
+	if errors.As(err, &pe) {
+		return pe.Err
+	}
+	var le *os.LinkError
+	if errors.As(err, &le) {
+		return le.Err
+	}
+	return err
+}
+
+func (sf *seriesFile) writeRows(p *sim.Series, powerW []float64) error {
 	if sf.withPower != (powerW != nil) {
 		return errors.New("series.csv: the power column comes and goes between pieces")
 	}
@@ -161,7 +185,7 @@ func (sf *seriesFile) place(dir string) error {
 	}
 	if err != nil {
 		sf.discard()
-		return err
+		return bare(err)
 	}
 	sf.done = true
 	return nil

@@ -119,3 +119,29 @@ func TestWarnsUnitsAlike(t *testing.T) {
 		}
 	}
 }
+
+// A write that fails names the --csv folder and series.csv, not the
+// temporary file, and says the run stopped.
+func TestSeriesFileErrorNamesTheFolder(t *testing.T) {
+	dir := t.TempDir()
+	sf, err := newSeriesFile(filepath.Join(dir, "out"), time.Date(2027, 1, 1, 0, 0, 0, 0, time.UTC), false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sf.f.Close() // every later write fails
+	p := &sim.Series{T: make([]float64, 5000), Region: make([]illum.Region, 5000), Lit: make([]float64, 5000), Seen: make([]int, 5000),
+		Valid: make([]bool, 5000), ErrNoDeg: make([]float64, 5000), ErrAlbDeg: make([]float64, 5000), ErrCorrDeg: make([]float64, 5000),
+		BetaDeg: make([]float64, 5000), SunBodyAz: make([]float64, 5000), SunBodyEl: make([]float64, 5000)}
+	err = sf.write(p, nil)
+	if err == nil {
+		t.Fatal("a write to a closed file succeeded")
+	}
+	msg := err.Error()
+	if !strings.Contains(msg, "--csv "+filepath.Join(dir, "out")+": series.csv: ") || strings.Contains(msg, ".tmp") || !strings.Contains(msg, "run stopped") {
+		t.Errorf("message %q", msg)
+	}
+	sf.discard()
+	if ents, _ := os.ReadDir(dir); len(ents) != 0 {
+		t.Errorf("left: %v", ents)
+	}
+}

@@ -105,7 +105,7 @@ done
 pair "inertial albedo: zonal / uniform" bench/month-inertial-albedo-zonal.yaml "" bench/month-inertial-albedo.yaml ""
 pair "inertial albedo: grid / uniform" bench/month-inertial-albedo-grid.yaml "" bench/month-inertial-albedo.yaml ""
 pair "nadir albedo: j2-numeric / j2-mean" bench/month-nadir-albedo-j2-numeric.yaml "" bench/month-nadir-albedo-j2-mean.yaml ""
-pair "inertial albedo: 10 units / 1" bench/month-inertial-albedo.yaml "--units 10" bench/month-inertial-albedo.yaml "--units 1"
+pair "inertial albedo: 10 units / 1" bench/month-inertial-albedo-mc.yaml "--units 10" bench/month-inertial-albedo-mc.yaml "--units 1"
 pair "24 sensors albedo: 10 y / 1 y" bench/year-24-albedo.yaml "--duration 3650d" bench/year-24-albedo.yaml ""
 
 # ---- sweep: 52 cases on one and on two workers -------------------------

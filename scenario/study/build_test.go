@@ -109,3 +109,28 @@ func TestSunLawAlignReferences(t *testing.T) {
 		}
 	}
 }
+
+// Every benchmark scenario of bench/ loads, builds and runs a few orbits,
+// so that bench/run.sh does not fail half way on a scenario that went stale.
+func TestBenchScenariosBuildAndRun(t *testing.T) {
+	files, _ := filepath.Glob("../../bench/*.yaml")
+	if len(files) < 10 {
+		t.Fatalf("found %d bench scenarios", len(files))
+	}
+	for _, f := range files {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			s, err := scenario.Load(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			cfg, err := Config(s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			cfg.Duration, cfg.Units = 3*3600, 1
+			if _, err := sim.Run(context.Background(), cfg); err != nil {
+				t.Fatal(err)
+			}
+		})
+	}
+}

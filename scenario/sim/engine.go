@@ -118,7 +118,8 @@ type Config struct {
 	// once, with the panels' power at its samples (nil without Panels);
 	// the result then keeps no series (Nominal.Series nil), so memory
 	// stays flat in the duration. It is called from one goroutine at a
-	// time; an error it returns ends the run with that error. With
+	// time; an error it returns ends the run with that error. A piece is
+	// the sink's only during the call (the engine reuses it). With
 	// Panels the power pass runs before the step loop, so that each piece
 	// has its power.
 	SeriesSink func(piece *Series, powerW []float64) error
@@ -249,6 +250,11 @@ const noiseBlockSteps = 4096
 type task struct {
 	u0, u1, chunk int
 	k0, k1        int
+	// stream, set on the task of the first piece of unit 0 when the series
+	// is written as the run goes, takes that piece's series as it grows:
+	// nothing comes before it, so it need not wait for its merge (a run in
+	// one piece, with a gyro filter, then keeps no series either).
+	stream func(*Series) error
 }
 
 // Run simulates every unit and gathers the result. It stops early with the
@@ -331,24 +337,35 @@ func Run(ctx context.Context, cfg Config) (*Result, error) {
 	for u := range merged {
 		merged[u] = &orderedMerge{pending: map[int]*unitAcc{}}
 	}
+	// sink hands a piece of unit 0's series to Config.SeriesSink, in time
+	// order, from one goroutine at a time (the first piece's worker while
+	// that piece runs, then the ordered merge); its first error stops the
+	// run and is the run's error.
+	var sink func(*Series) error
+	var sinkErr error
 	if streaming {
 		rows := 0
-		merged[0].sink = func(piece *Series) error {
+		sink = func(piece *Series) error {
+			if sinkErr != nil {
+				return sinkErr
+			}
 			var w []float64
 			if pw := res.PowerSeries; pw != nil {
 				if rows+len(piece.T) > len(pw.W) {
+					sinkErr = fmt.Errorf("sim: the power series has %d samples, the time series at least %d", len(pw.W), rows+len(piece.T))
 					cancel()
-					return fmt.Errorf("sim: the power series has %d samples, the time series at least %d", len(pw.W), rows+len(piece.T))
+					return sinkErr
 				}
 				w = pw.W[rows : rows+len(piece.T)]
 			}
 			rows += len(piece.T)
-			err := cfg.SeriesSink(piece, w)
-			if err != nil {
+			if err := cfg.SeriesSink(piece, w); err != nil {
+				sinkErr = err
 				cancel()
 			}
-			return err
+			return sinkErr
 		}
+		merged[0].sink = sink
 	}
 	// Units share a task's geometry unless the attitude is drawn per unit.
 	// With fewer pieces than workers the units are split into groups so
@@ -388,6 +405,9 @@ feed:
 	for u0 := 0; u0 < units; u0 += group {
 		for c := range nChunks {
 			tk := task{u0: u0, u1: min(u0+group, units), chunk: c, k0: c * chunk, k1: min((c+1)*chunk, steps)}
+			if c == 0 && u0 == 0 {
+				tk.stream = sink
+			}
 			select {
 			case next <- tk:
 			case <-ctx.Done():
@@ -399,8 +419,8 @@ feed:
 	wg.Wait()
 	<-eclDone
 	powErr := <-powDone
-	if err := merged[0].sinkErr; err != nil {
-		return nil, err
+	if sinkErr != nil {
+		return nil, sinkErr
 	}
 	if err := ctx.Err(); err != nil {
 		return nil, err
@@ -435,10 +455,8 @@ type orderedMerge struct {
 	next    int // index of the next piece to fold in
 	pending map[int]*unitAcc
 	// sink, when set, takes each piece's time series in time order instead
-	// of the accumulator (Config.SeriesSink); sinkErr is its first error,
-	// after which the pieces' series are dropped.
-	sink    func(*Series) error
-	sinkErr error
+	// of the accumulator (Config.SeriesSink).
+	sink func(*Series) error
 }
 
 // add hands over piece c.
@@ -453,9 +471,7 @@ func (m *orderedMerge) add(c int, a *unitAcc) {
 		}
 		delete(m.pending, m.next)
 		if m.sink != nil && p.series != nil {
-			if m.sinkErr == nil {
-				m.sinkErr = m.sink(p.series)
-			}
+			m.sink(p.series) // an error is kept by the sink and ends the run
 			p.series = nil
 		}
 		if m.acc == nil {

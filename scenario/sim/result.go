@@ -542,6 +542,13 @@ func (s *Series) reserve(n int) {
 	s.Signal = slices.Grow(s.Signal, more*len(s.SensorName))
 }
 
+// reset empties the series, keeping its arrays for the next samples.
+func (s *Series) reset() {
+	s.T, s.Region, s.Lit, s.Seen, s.Valid = s.T[:0], s.Region[:0], s.Lit[:0], s.Seen[:0], s.Valid[:0]
+	s.ErrNoDeg, s.ErrAlbDeg, s.ErrCorrDeg, s.BetaDeg = s.ErrNoDeg[:0], s.ErrAlbDeg[:0], s.ErrCorrDeg[:0], s.BetaDeg[:0]
+	s.SunBodyAz, s.SunBodyEl, s.Signal = s.SunBodyAz[:0], s.SunBodyEl[:0], s.Signal[:0]
+}
+
 // extend appends the samples of the next piece of the same series.
 func (s *Series) extend(t *Series) {
 	s.T = append(s.T, t.T...)

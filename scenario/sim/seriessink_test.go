@@ -3,6 +3,7 @@ package sim
 import (
 	"context"
 	"errors"
+	"fmt"
 	"math"
 	"reflect"
 	"testing"
@@ -18,8 +19,11 @@ import (
 // piece, the series the run keeps without a sink, with the panels' power at
 // the same samples; the run then keeps no series, and every other figure is
 // the same. The run is cut into several pieces on two workers, with noisy
-// sensors and a panel.
+// sensors and a panel; the first piece hands its series on as it grows
+// (streamRows: the default, and 100 for many hand-overs), and a run in one
+// piece (as with a gyro filter) hands everything on that way.
 func TestSeriesSinkMatchesKeptSeries(t *testing.T) {
+	defer func(n int) { streamRows = n }(streamRows)
 	cfg := referenceCase(t, 1.2, false)
 	cfg.Step = 1 // 103 681 steps: four pieces of 32 768
 	cfg.Law = attitude.NewTumble(5, 3*degRad)
@@ -30,44 +34,54 @@ func TestSeriesSinkMatchesKeptSeries(t *testing.T) {
 		t.Fatal(err)
 	}
 	cfg.Panels = arr
-	kept, err := Run(context.Background(), cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
-	got := &Series{SensorName: kept.Nominal.Series.SensorName}
-	var gotW []float64
-	pieces := 0
-	cfg.SeriesSink = func(p *Series, w []float64) error {
-		if len(w) != len(p.T) {
-			t.Errorf("piece %d: %d power values for %d samples", pieces, len(w), len(p.T))
+	for _, tc := range []struct {
+		rows      int
+		onePiece  bool
+		minPieces int
+	}{{8192, false, 4}, {100, false, 30}, {100, true, 100}} {
+		streamRows = tc.rows
+		c := cfg
+		c.onePiece = tc.onePiece
+		kept, err := Run(context.Background(), c)
+		if err != nil {
+			t.Fatal(err)
 		}
-		got.extend(p)
-		gotW = append(gotW, w...)
-		pieces++
-		return nil
-	}
-	streamed, err := Run(context.Background(), cfg)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if pieces < 4 {
-		t.Errorf("%d pieces written, want one per piece of the grid (4)", pieces)
-	}
-	if streamed.Nominal.Series != nil {
-		t.Error("a streamed run kept its series too")
-	}
-	if !sameBits(got, kept.Nominal.Series) {
-		t.Errorf("streamed series (%d samples) differs from the kept one (%d)", len(got.T), len(kept.Nominal.Series.T))
-	}
-	if !sameBits(gotW, kept.PowerSeries.W) {
-		t.Errorf("streamed power (%d values) differs from the kept one (%d)", len(gotW), len(kept.PowerSeries.W))
-	}
-	kept.Nominal.Series, kept.Units[0].Series = nil, nil
-	if sameBits(kept.Nominal, &UnitResult{}) {
-		t.Fatal("sameBits sees no difference from an empty result")
-	}
-	if !sameBits(streamed.Nominal, kept.Nominal) || !sameBits(streamed.Power, kept.Power) {
-		t.Error("streaming the series changed another figure")
+		got := &Series{SensorName: kept.Nominal.Series.SensorName}
+		var gotW []float64
+		pieces := 0
+		c.SeriesSink = func(p *Series, w []float64) error {
+			if len(w) != len(p.T) {
+				t.Errorf("piece %d: %d power values for %d samples", pieces, len(w), len(p.T))
+			}
+			got.extend(p)
+			gotW = append(gotW, w...)
+			pieces++
+			return nil
+		}
+		streamed, err := Run(context.Background(), c)
+		if err != nil {
+			t.Fatal(err)
+		}
+		name := fmt.Sprintf("hand-over every %d rows, one piece %v", tc.rows, tc.onePiece)
+		if pieces < tc.minPieces {
+			t.Errorf("%s: %d pieces written, want at least %d", name, pieces, tc.minPieces)
+		}
+		if streamed.Nominal.Series != nil {
+			t.Errorf("%s: a streamed run kept its series too", name)
+		}
+		if !sameBits(got, kept.Nominal.Series) {
+			t.Errorf("%s: streamed series (%d samples) differs from the kept one (%d)", name, len(got.T), len(kept.Nominal.Series.T))
+		}
+		if !sameBits(gotW, kept.PowerSeries.W) {
+			t.Errorf("%s: streamed power (%d values) differs from the kept one (%d)", name, len(gotW), len(kept.PowerSeries.W))
+		}
+		kept.Nominal.Series, kept.Units[0].Series = nil, nil
+		if sameBits(kept.Nominal, &UnitResult{}) {
+			t.Fatal("sameBits sees no difference from an empty result")
+		}
+		if !sameBits(streamed.Nominal, kept.Nominal) || !sameBits(streamed.Power, kept.Power) {
+			t.Errorf("%s: streaming the series changed another figure", name)
+		}
 	}
 }
 

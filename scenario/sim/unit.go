@@ -721,6 +721,10 @@ func (r *reader) subtractPrediction(pred []sensor.Albedo) {
 // (TestBlockLengthChangesNothing sets it).
 var blockSteps = 256
 
+// streamRows is the number of series samples the first piece of a
+// streamed series holds before it hands them on (task.stream).
+var streamRows = 8192
+
 // runChunk simulates the steps [tk.k0, tk.k1) of units [tk.u0, tk.u1),
 // whose sensors (with their drawn errors) are arrays[u]: the geometry is
 // computed once per step (on the nominal mounts, with unit tk.u0's
@@ -762,6 +766,13 @@ func runChunk(ctx context.Context, cfg *Config, arrays []*sensor.Array, tk task,
 			for j := range m {
 				r.step(b0+j, &geoms[j], &views[j])
 			}
+		}
+		// The first piece of unit 0 hands its series on as it grows.
+		if s := readers[0].acc.series; tk.stream != nil && s != nil && len(s.T) >= streamRows {
+			if err := tk.stream(s); err != nil {
+				return nil, err
+			}
+			s.reset()
 		}
 	}
 	// The last sample stands for the time up to the run's end, not a whole

@@ -31,6 +31,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	points := fs.Int("sky-points", layout.DefaultPoints, "sky lattice points for the coverage bound (`N`)")
 	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; the answer is then not proven)")
 	force := fs.Bool("force", false, "replace an earlier --out folder")
+	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -61,6 +62,11 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return usageError{err}
 	}
+	stopProf, err := startCPUProfile(*cpuProf)
+	if err != nil {
+		return err
+	}
+	defer stopProf()
 	ctx, stop := interruptContext()
 	defer stop()
 	eval, err := layout.Evaluator(ctx, s)

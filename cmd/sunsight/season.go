@@ -48,6 +48,7 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	plotsDir := fs.String("plots", "", "folder for the figures (`DIR`; PNG and SVG)")
 	force := fs.Bool("force", false, "replace earlier output folders")
 	quiet := fs.Bool("quiet", false, "no progress on stderr")
+	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -73,6 +74,11 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	if _, err := season.CaseScenario(s, 0, opt.CaseS); err != nil {
 		return usageError{fmt.Errorf("%s: %w", describeFile(pos[0]), err)}
 	}
+	stopProf, err := startCPUProfile(*cpuProf)
+	if err != nil {
+		return err
+	}
+	defer stopProf()
 	ctx, stop := interruptContext()
 	defer stop()
 	progress := func(done, total int) {

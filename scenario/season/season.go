@@ -5,7 +5,10 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
+	"sync"
+	"sync/atomic"
 	"time"
 
 	"codeberg.org/sunsight/sunsight/orbit"
@@ -166,33 +169,95 @@ func Run(ctx context.Context, s *scenario.Scenario, opt Options, progress func(d
 	r := &Result{Options: opt}
 	Δ := opt.SpanS / float64(opt.Cases)
 	total := opt.Cases + 3*2*opt.Refine
-	run := func(off float64, refined bool) error {
-		for _, c := range r.Cases {
-			if math.Abs(c.OffsetS-off) < 0.5 {
-				return nil // already run
-			}
+	// The eclipse distribution of the span runs beside the cases.
+	type eclipses struct {
+		d   Distribution
+		err error
+	}
+	eclDone := make(chan eclipses, 1)
+	go func() {
+		d, err := Eclipses(s, opt.SpanS, opt.EclipseAboveS)
+		eclDone <- eclipses{d, err}
+	}()
+	// runAll runs the cases at offsets offs (none already run, none twice)
+	// on every core and appends them in the order of offs: each case is a
+	// run of its own, so the order they finish in changes nothing.
+	var mu sync.Mutex
+	done := 0
+	runAll := func(offs []float64, refined bool) error {
+		cases := make([]Case, len(offs))
+		errs := make([]error, len(offs))
+		var next atomic.Int64
+		var wg sync.WaitGroup
+		for range min(runtime.GOMAXPROCS(0), len(offs)) {
+			wg.Go(func() {
+				for {
+					i := int(next.Add(1) - 1)
+					if i >= len(offs) || ctx.Err() != nil {
+						return
+					}
+					cs, err := CaseScenario(s, offs[i], opt.CaseS)
+					if err != nil {
+						errs[i] = err
+						return
+					}
+					out, err := sweep.RunCase(ctx, cs, uint64(s.Seed))
+					if err != nil {
+						errs[i] = fmt.Errorf("season: case at %s: %w", cs.Epoch.Format(time.RFC3339), err)
+						return
+					}
+					cases[i] = Case{OffsetS: offs[i], Epoch: cs.Epoch, Refined: refined, Outcome: out, Judged: study.JudgedFigures(cs, out.Headline)}
+					mu.Lock()
+					done++
+					if progress != nil {
+						progress(done, total)
+					}
+					mu.Unlock()
+				}
+			})
 		}
-		cs, err := CaseScenario(s, off, opt.CaseS)
-		if err != nil {
+		wg.Wait()
+		if err := ctx.Err(); err != nil {
 			return err
 		}
-		out, err := sweep.RunCase(ctx, cs, uint64(s.Seed))
-		if err != nil {
-			return fmt.Errorf("season: case at %s: %w", cs.Epoch.Format(time.RFC3339), err)
+		for _, err := range errs {
+			if err != nil {
+				return err
+			}
 		}
-		r.Cases = append(r.Cases, Case{OffsetS: off, Epoch: cs.Epoch, Refined: refined, Outcome: out, Judged: study.JudgedFigures(cs, out.Headline)})
-		if progress != nil {
-			progress(len(r.Cases), total)
-		}
+		r.Cases = append(r.Cases, cases...)
 		return nil
 	}
+	// seen reports whether a case at off is run or listed already.
+	seen := func(off float64, listed []float64) bool {
+		for _, c := range r.Cases {
+			if math.Abs(c.OffsetS-off) < 0.5 {
+				return true
+			}
+		}
+		for _, o := range listed {
+			if math.Abs(o-off) < 0.5 {
+				return true
+			}
+		}
+		return false
+	}
+	fail := func(err error) (*Result, error) {
+		<-eclDone
+		return nil, err
+	}
 	last := opt.SpanS - opt.CaseS // the last start that keeps a case inside the span
+	var offs []float64
 	for k := range opt.Cases {
-		if err := run(math.Min(float64(k)*Δ, last), false); err != nil {
-			return nil, err
+		if off := math.Min(float64(k)*Δ, last); !seen(off, offs) {
+			offs = append(offs, off)
 		}
 	}
+	if err := runAll(offs, false); err != nil {
+		return fail(err)
+	}
 	coarse := append([]Case(nil), r.Cases...)
+	offs = offs[:0]
 	for _, crit := range []string{WorstValid, WorstP95, WorstEclipse} {
 		w := worstOf(crit, coarse)
 		if w < 0 {
@@ -200,23 +265,24 @@ func Run(ctx context.Context, s *scenario.Scenario, opt Options, progress func(d
 		}
 		for j := -opt.Refine; j <= opt.Refine; j++ {
 			off := coarse[w].OffsetS + float64(j)*Δ/float64(opt.Refine+1)
-			if j == 0 || off < 0 || off > last {
+			if j == 0 || off < 0 || off > last || seen(off, offs) {
 				continue
 			}
-			if err := run(off, true); err != nil {
-				return nil, err
-			}
+			offs = append(offs, off)
 		}
+	}
+	if err := runAll(offs, true); err != nil {
+		return fail(err)
 	}
 	slices.SortFunc(r.Cases, func(a, b Case) int { return compare(a.OffsetS, b.OffsetS) })
 	for _, crit := range []string{WorstValid, WorstP95, WorstEclipse} {
 		r.Worst = append(r.Worst, Worst{Criterion: crit, Case: worstOf(crit, r.Cases)})
 	}
-	d, err := Eclipses(s, opt.SpanS, opt.EclipseAboveS)
-	if err != nil {
-		return nil, err
+	e := <-eclDone
+	if e.err != nil {
+		return nil, e.err
 	}
-	r.Eclipse = d
+	r.Eclipse = e.d
 	return r, nil
 }
 

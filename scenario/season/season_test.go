@@ -2,6 +2,8 @@ package season
 
 import (
 	"context"
+	"fmt"
+	"runtime"
 	"math"
 	"strings"
 	"testing"
@@ -154,5 +156,27 @@ body: {sensors: [{name: a, kind: cosine, face: "+Z"}]}
 `)
 	if _, err := CaseScenario(s, 86400, 3600); err == nil {
 		t.Error("a state orbit was moved")
+	}
+}
+
+// The cases run on every core; the result is the one of a run on one
+// core, case for case (each case is a run of its own).
+func TestScanSameOnOneCore(t *testing.T) {
+	s := parse(t, circular)
+	opt := Options{SpanS: 60 * 86400, Cases: 6, CaseS: 3 * 3600, Refine: 1, EclipseAboveS: 1800}
+	var got []string
+	for _, procs := range []int{1, 2} {
+		prev := runtime.GOMAXPROCS(procs)
+		r, err := Run(context.Background(), s, opt, nil)
+		runtime.GOMAXPROCS(prev)
+		if err != nil {
+			t.Fatal(err)
+		}
+		// %v prints every float exactly (NaN as NaN) and follows no
+		// pointer but the cases' values.
+		got = append(got, fmt.Sprintf("%+v %+v %+v", r.Cases, r.Worst, r.Eclipse))
+	}
+	if got[0] != got[1] {
+		t.Error("the scan on two cores differs from the scan on one")
 	}
 }

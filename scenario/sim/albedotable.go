@@ -134,7 +134,9 @@ func buildBoresightAlbedo(cfg *Config, stepSets int) *localAlbedo {
 		return nil
 	}
 	for _, k := range kinds {
-		b, err := albedo.NewBoresightTable(m, radii, k.half, k.resp, albedo.DefaultBoresightSunResDeg, albedo.DefaultBoresightStepDeg)
+		// Shared for the process: the runs of a season or a sweep over one
+		// orbit build each table once.
+		b, err := albedo.SharedBoresightTable(m, radii, k.half, k.resp, albedo.DefaultBoresightSunResDeg, albedo.DefaultBoresightStepDeg)
 		if err != nil {
 			return nil
 		}

@@ -84,7 +84,7 @@ func TestSharedBoresightTable(t *testing.T) {
 	if b > sharedBoresightBytes {
 		t.Errorf("cache holds %d bytes, bound %d", b, sharedBoresightBytes)
 	}
-	again, _ := SharedBoresightTable(m, []float64{EarthRadiusKm + 600 + float64(int(2*sharedBoresightBytes/per) + 1)}, 1.0, Response{}, res, step)
+	again, _ := SharedBoresightTable(m, []float64{EarthRadiusKm + 600 + float64(int(2*sharedBoresightBytes/per)+1)}, 1.0, Response{}, res, step)
 	if again != last {
 		t.Error("the most recent table was dropped")
 	}

@@ -3,8 +3,8 @@ package season
 import (
 	"context"
 	"fmt"
-	"runtime"
 	"math"
+	"runtime"
 	"strings"
 	"testing"
 

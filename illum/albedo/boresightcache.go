@@ -1,68 +1,45 @@
 package albedo
 
 import (
+	"fmt"
 	"math"
-	"strconv"
 	"strings"
 	"sync"
 )
 
-// sharedBoresightBytes bounds the uniform boresight tables kept for the
-// process by SharedBoresightTable (about nine tables of a 60° cone).
-const sharedBoresightBytes = 64 << 20
+// sharedTableBytes bounds the uniform tables kept for the process by
+// SharedBoresightTable (about nine tables of a 60° cone).
+const sharedTableBytes = 64 << 20
 
-// boresightKey is what a uniform boresight table depends on: the albedo,
-// the cell count and scan of the model, the radii, the cone, its response
-// and the grid resolution (NewBoresightTable).
-type boresightKey struct {
-	albedo          float64
-	cells           int
-	fullScan        bool
-	radii           string // the radii's bits
-	half            float64
-	resp            Response
-	resDeg, stepDeg float64
-}
+// A shared table: a uniform BoresightTable, only read after its build.
+type sharedTable interface{ Bytes() int64 }
 
-type boresightEntry struct {
+type tableEntry struct {
 	ready chan struct{} // closed once tab and err are set
-	tab   *BoresightTable
+	tab   sharedTable
 	err   error
 	used  uint64 // the cache's clock at the last call
 	done  bool   // built and counted (set under the cache's lock)
+	// keep holds what the key names by address (the responses' tables),
+	// so that no other value takes that address while the entry lives.
+	keep []any
 }
 
-var boresightCache = struct {
+var tableCache = struct {
 	sync.Mutex
-	m     map[boresightKey]*boresightEntry
+	m     map[string]*tableEntry
 	bytes int64
 	clock uint64
-}{m: map[boresightKey]*boresightEntry{}}
+}{m: map[string]*tableEntry{}}
 
-// SharedBoresightTable is NewBoresightTable for a model of uniform albedo,
-// kept for the process: a later call with the same albedo, cell count,
-// radii, cone, response and resolution returns the same table, built once
-// (a table is only read after its build, so runs on several goroutines can
-// share it, and its numbers do not depend on which run built it). The many
-// short runs of a season or a sweep over one orbit so build their tables
-// once. At most 64 MiB of tables are kept, the least recently asked for
-// dropped first; a model of another reflectance gets a table of its own
-// (NewBoresightTable).
-func SharedBoresightTable(m *Model, radiiKm []float64, half float64, resp Response, resDeg, stepDeg float64) (*BoresightTable, error) {
-	if m == nil {
-		return NewBoresightTable(m, radiiKm, half, resp, resDeg, stepDeg)
-	}
-	u, ok := m.refl.(Uniform)
-	if !ok {
-		return NewBoresightTable(m, radiiKm, half, resp, resDeg, stepDeg)
-	}
-	var b strings.Builder
-	for _, r := range radiiKm {
-		b.WriteString(strconv.FormatUint(math.Float64bits(r), 16))
-		b.WriteByte(',')
-	}
-	key := boresightKey{albedo: u.Albedo, cells: m.n, fullScan: m.fullScan, radii: b.String(), half: half, resp: resp, resDeg: resDeg, stepDeg: stepDeg}
-	c := &boresightCache
+// sharedBuild returns the table of key, built by build at the first call
+// (later calls, also at once from other goroutines, wait for that build and
+// get the same table); at most sharedTableBytes are kept, the least
+// recently asked for dropped first, and a table larger than that is not
+// kept. A failed build is not kept either. keep are the values the key
+// names by address.
+func sharedBuild(key string, keep []any, build func() (sharedTable, error)) (sharedTable, error) {
+	c := &tableCache
 	c.Lock()
 	c.clock++
 	if e, ok := c.m[key]; ok {
@@ -71,11 +48,11 @@ func SharedBoresightTable(m *Model, radiiKm []float64, half float64, resp Respon
 		<-e.ready
 		return e.tab, e.err
 	}
-	e := &boresightEntry{ready: make(chan struct{}), used: c.clock}
+	e := &tableEntry{ready: make(chan struct{}), used: c.clock, keep: keep}
 	c.m[key] = e
 	c.Unlock()
 
-	e.tab, e.err = NewBoresightTable(m, radiiKm, half, resp, resDeg, stepDeg)
+	e.tab, e.err = build()
 	close(e.ready)
 
 	c.Lock()
@@ -86,11 +63,11 @@ func SharedBoresightTable(m *Model, radiiKm []float64, half float64, resp Respon
 	}
 	e.done = true
 	c.bytes += e.tab.Bytes()
-	for c.bytes > sharedBoresightBytes {
+	for c.bytes > sharedTableBytes {
 		// Drop the least recently asked for table other than this one (a
 		// table being built is not yet counted).
-		var oldK boresightKey
-		var old *boresightEntry
+		var oldK string
+		var old *tableEntry
 		for k, x := range c.m {
 			if x == e || !x.done {
 				continue
@@ -100,7 +77,6 @@ func SharedBoresightTable(m *Model, radiiKm []float64, half float64, resp Respon
 			}
 		}
 		if old == nil {
-			// This table alone exceeds the bound: it is not kept.
 			c.bytes -= e.tab.Bytes()
 			delete(c.m, key)
 			break
@@ -109,4 +85,55 @@ func SharedBoresightTable(m *Model, radiiKm []float64, half float64, resp Respon
 		delete(c.m, oldK)
 	}
 	return e.tab, nil
+}
+
+// keyWriter builds a cache key from the bits of the values a table depends
+// on.
+type keyWriter struct{ strings.Builder }
+
+func (w *keyWriter) float(x float64) { fmt.Fprintf(w, "%x,", math.Float64bits(x)) }
+
+// modelKey starts a key with what a uniform model gives a table: the
+// albedo, the cell count and the scan.
+func modelKey(kind string, m *Model, u Uniform) *keyWriter {
+	w := &keyWriter{}
+	fmt.Fprintf(w, "%s|%d|%t|", kind, m.n, m.fullScan)
+	w.float(u.Albedo)
+	return w
+}
+
+// SharedBoresightTable is NewBoresightTable for a model of uniform albedo,
+// kept for the process: a later call with the same albedo, cell count,
+// radii, cone, response and resolution returns the same table, built once
+// (a table is only read after its build, so runs on several goroutines can
+// share it, and its numbers do not depend on which run built it). The many
+// short runs of a season or a sweep over one orbit so build their tables
+// once. At most 64 MiB of tables are kept, the least recently asked for
+// dropped first; a model of another reflectance
+// gets a table of its own (NewBoresightTable).
+func SharedBoresightTable(m *Model, radiiKm []float64, half float64, resp Response, resDeg, stepDeg float64) (*BoresightTable, error) {
+	if m == nil {
+		return NewBoresightTable(m, radiiKm, half, resp, resDeg, stepDeg)
+	}
+	u, ok := m.refl.(Uniform)
+	if !ok {
+		return NewBoresightTable(m, radiiKm, half, resp, resDeg, stepDeg)
+	}
+	w := modelKey("boresight", m, u)
+	for _, r := range radiiKm {
+		w.float(r)
+	}
+	w.float(half)
+	w.float(resDeg)
+	w.float(stepDeg)
+	// A response is a pointer to its table: the same response, the same
+	// key (the entry keeps the table, so the address is not reused).
+	fmt.Fprintf(w, "%p|", resp.table)
+	t, err := sharedBuild(w.String(), []any{resp.table}, func() (sharedTable, error) {
+		return NewBoresightTable(m, radiiKm, half, resp, resDeg, stepDeg)
+	})
+	if err != nil {
+		return nil, err
+	}
+	return t.(*BoresightTable), nil
 }

@@ -61,18 +61,18 @@ func TestSharedBoresightTable(t *testing.T) {
 			t.Errorf("another %s got the same table", name)
 		}
 	}
-	c := &boresightCache
+	c := &tableCache
 	c.Lock()
 	n, b := len(c.m), c.bytes
 	c.Unlock()
-	if n < 4 || b > sharedBoresightBytes {
+	if n < 4 || b > sharedTableBytes {
 		t.Errorf("cache holds %d tables, %d bytes", n, b)
 	}
 	// Fill past the bound: the bytes stay within it and the most recent
 	// table stays.
 	var last *BoresightTable
 	per := tabs[0].Bytes()
-	for k := range int(2*sharedBoresightBytes/per) + 2 {
+	for k := range int(2*sharedTableBytes/per) + 2 {
 		last, err = SharedBoresightTable(m, []float64{EarthRadiusKm + 600 + float64(k)}, 1.0, Response{}, res, step)
 		if err != nil {
 			t.Fatal(err)
@@ -81,10 +81,10 @@ func TestSharedBoresightTable(t *testing.T) {
 	c.Lock()
 	b = c.bytes
 	c.Unlock()
-	if b > sharedBoresightBytes {
-		t.Errorf("cache holds %d bytes, bound %d", b, sharedBoresightBytes)
+	if b > sharedTableBytes {
+		t.Errorf("cache holds %d bytes, bound %d", b, sharedTableBytes)
 	}
-	again, _ := SharedBoresightTable(m, []float64{EarthRadiusKm + 600 + float64(int(2*sharedBoresightBytes/per)+1)}, 1.0, Response{}, res, step)
+	again, _ := SharedBoresightTable(m, []float64{EarthRadiusKm + 600 + float64(int(2*sharedTableBytes/per)+1)}, 1.0, Response{}, res, step)
 	if again != last {
 		t.Error("the most recent table was dropped")
 	}

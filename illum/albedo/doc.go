@@ -160,6 +160,9 @@
 //     for a 90° cone; one radius of a 60° cone at 550 km builds in about
 //     0.05 s of CPU at the default 2000 cells (BenchmarkBoresightTableBuild;
 //     26× less than one integral per θs node, measured side by side).
+//     SharedBoresightTable keeps uniform tables for the process, keyed by
+//     the bits of all they depend on (at most 64 MiB, the least recently
+//     asked for dropped first): the short runs of a season build them once.
 //   - Zonal BoresightTable: a Zonal profile that never leaves [0, 1] (the
 //     clamp would break what follows; Knocke's stays inside) is a quadratic
 //     in s = N̂·P̂ (P̂ the pole): ρ = (A0 − A2/2) + A1 s + (3A2/2) s², so

@@ -10,7 +10,10 @@
 // side. Each case is a full run (sweep.RunCase) of the scenario moved in
 // time: a sun-synchronous orbit keeps its LTAN, a TLE is carried to the new
 // epoch as the build step does, mean elements are carried by the secular J2
-// rates (or by the mean motion alone for the two-body propagator).
+// rates (or by the mean motion alone for the two-body propagator). The
+// cases run on every core, the coarse ones first, then the refined ones,
+// each phase kept in its order (TestScanSameOnOneCore); the span's eclipse
+// distribution runs beside them.
 //
 // The eclipse distribution follows the scenario's own propagator, sun and
 // shadow over the whole span: the event search of the run (60 s sampling,

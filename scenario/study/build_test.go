@@ -14,9 +14,23 @@ import (
 
 // Every bundled example builds and runs (a few orbits).
 func TestExamplesBuildAndRun(t *testing.T) {
-	files, _ := filepath.Glob("../../examples/*.yaml")
-	if len(files) < 3 {
-		t.Fatalf("found %d examples", len(files))
+	eachBuildsAndRuns(t, "../../examples/*.yaml", 3, func(t *testing.T, res *sim.Result) {
+		u := res.Nominal
+		t.Logf("sunlit %.3f seen %.3f/%.3f/%.3f eclipses %d", u.SunlitFraction, u.SeenAtLeast[1], u.SeenAtLeast[2], u.SeenAtLeast[3], len(res.Eclipses))
+		for _, e := range u.Estimators {
+			t.Logf("  %-15s valid %.3f p95 no-alb %.2f alb %.2f", e.Name, e.ValidFraction, e.ErrNoAlbedo.P95Deg, e.ErrAlbedo.P95Deg)
+		}
+	})
+}
+
+// eachBuildsAndRuns loads, builds and runs three hours of one unit of
+// every scenario file the pattern matches (there must be at least least
+// files), and
+// hands each result to check.
+func eachBuildsAndRuns(t *testing.T, pattern string, least int, check func(*testing.T, *sim.Result)) {
+	files, _ := filepath.Glob(pattern)
+	if len(files) < least {
+		t.Fatalf("%s: found %d files, want at least %d", pattern, len(files), least)
 	}
 	for _, f := range files {
 		t.Run(filepath.Base(f), func(t *testing.T) {
@@ -28,17 +42,12 @@ func TestExamplesBuildAndRun(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			cfg.Duration = 3 * 3600
-			cfg.Units = 1
+			cfg.Duration, cfg.Units = 3*3600, 1
 			res, err := sim.Run(context.Background(), cfg)
 			if err != nil {
 				t.Fatal(err)
 			}
-			u := res.Nominal
-			t.Logf("sunlit %.3f seen %.3f/%.3f/%.3f eclipses %d", u.SunlitFraction, u.SeenAtLeast[1], u.SeenAtLeast[2], u.SeenAtLeast[3], len(res.Eclipses))
-			for _, e := range u.Estimators {
-				t.Logf("  %-15s valid %.3f p95 no-alb %.2f alb %.2f", e.Name, e.ValidFraction, e.ErrNoAlbedo.P95Deg, e.ErrAlbedo.P95Deg)
-			}
+			check(t, res)
 		})
 	}
 }
@@ -113,24 +122,5 @@ func TestSunLawAlignReferences(t *testing.T) {
 // Every benchmark scenario of bench/ loads, builds and runs a few orbits,
 // so that bench/run.sh does not fail half way on a scenario that went stale.
 func TestBenchScenariosBuildAndRun(t *testing.T) {
-	files, _ := filepath.Glob("../../bench/*.yaml")
-	if len(files) < 10 {
-		t.Fatalf("found %d bench scenarios", len(files))
-	}
-	for _, f := range files {
-		t.Run(filepath.Base(f), func(t *testing.T) {
-			s, err := scenario.Load(f)
-			if err != nil {
-				t.Fatal(err)
-			}
-			cfg, err := Config(s)
-			if err != nil {
-				t.Fatal(err)
-			}
-			cfg.Duration, cfg.Units = 3*3600, 1
-			if _, err := sim.Run(context.Background(), cfg); err != nil {
-				t.Fatal(err)
-			}
-		})
-	}
+	eachBuildsAndRuns(t, "../../bench/*.yaml", 10, func(*testing.T, *sim.Result) {})
 }

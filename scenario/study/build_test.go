@@ -24,9 +24,8 @@ func TestExamplesBuildAndRun(t *testing.T) {
 }
 
 // eachBuildsAndRuns loads, builds and runs three hours of one unit of
-// every scenario file the pattern matches (there must be at least least
-// files), and
-// hands each result to check.
+// every scenario file the pattern matches, of which there must be at least
+// least, and hands each result to check.
 func eachBuildsAndRuns(t *testing.T, pattern string, least int, check func(*testing.T, *sim.Result)) {
 	files, _ := filepath.Glob(pattern)
 	if len(files) < least {

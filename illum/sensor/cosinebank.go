@@ -132,8 +132,9 @@ func (b *CosineBank) ReadPair(noAlb, withAlb []Reading, sun r3.Vec, direct float
 		noAlb[i] = Reading{Signal: v0, Valid: v0 > 0 && v0 >= s.threshold, Saturated: s0}
 		a := alb[i].Irradiance
 		if a == 0 {
-			// e + 0 is e (for e = −0 the sum is +0, and gain·e/ref + dark
-			// is the same either way): the same value, digitised once.
+			// e + 0 is e: e is a product of the direct irradiance (+0 or
+			// more) and a response that is +0 or more, never −0. The
+			// same value, digitised once.
 			withAlb[i] = noAlb[i]
 			continue
 		}

@@ -46,3 +46,37 @@ func TestRunCPUProfile(t *testing.T) {
 		t.Errorf("message does not name the flag: %s", errb.String())
 	}
 }
+
+// season and layout take --cpuprofile too: each writes a non-empty
+// gzip-compressed profile, and a path that cannot be created is refused
+// with exit 2 naming the flag.
+func TestSeasonLayoutCPUProfile(t *testing.T) {
+	for _, args := range [][]string{
+		{"season", "--quiet", "--span", "10d", "--cases", "2", "--refine", "0", "--case-duration", "2h", "../../examples/nadir-6u-sso.yaml"},
+		{"layout", "--max-runs", "3", "../../examples/layout-6u.yaml"},
+	} {
+		dir := t.TempDir()
+		prof := filepath.Join(dir, "cpu.pprof")
+		var out, errb bytes.Buffer
+		if code := runMain(append(args, "--cpuprofile", prof), &out, &errb); code != 0 && code != 3 {
+			t.Fatalf("%s: exit %d: %s", args[0], code, errb.String())
+		}
+		f, err := os.Open(prof)
+		if err != nil {
+			t.Fatalf("%s: %v", args[0], err)
+		}
+		zr, err := gzip.NewReader(f)
+		if err != nil {
+			t.Fatalf("%s: profile is not gzip-compressed: %v", args[0], err)
+		}
+		var body bytes.Buffer
+		if _, err := body.ReadFrom(zr); err != nil || body.Len() == 0 {
+			t.Errorf("%s: profile body: %d bytes, %v", args[0], body.Len(), err)
+		}
+		f.Close()
+		errb.Reset()
+		if code := runMain(append(args, "--cpuprofile", filepath.Join(dir, "no-such-folder", "cpu.pprof")), &out, &errb); code != 2 || !strings.Contains(errb.String(), "--cpuprofile") {
+			t.Errorf("%s: bad profile path: exit %d, %s", args[0], code, errb.String())
+		}
+	}
+}

@@ -1,10 +1,10 @@
 package main
 
 import (
-	"bufio"
 	"encoding/csv"
 	"errors"
 	"fmt"
+	"io"
 	"math"
 	"os"
 	"path/filepath"
@@ -13,6 +13,7 @@ import (
 	"time"
 
 	"codeberg.org/sunsight/sunsight/illum"
+	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
 )
 
@@ -22,26 +23,24 @@ import (
 // The output set takes the file in when it is complete (place); a run that
 // fails or is interrupted removes it (discard).
 type seriesFile struct {
-	f         *os.File
-	bw        *bufio.Writer
-	w         *csv.Writer
+	p         *atomicfile.Pending
+	out       io.Writer   // p (a test puts a failing writer here)
+	w         *csv.Writer // the header (sensor names may need quoting), onto out
 	epoch     time.Time
 	withPower bool
 	head      bool   // the header is written
 	buf       []byte // one row
-	done      bool   // placed or discarded
 	outDir    string // the --csv folder, for messages
 }
 
 // newSeriesFile opens the temporary file beside the output folder outDir
 // (its parent, so that the final rename stays on one file system).
 func newSeriesFile(outDir string, epoch time.Time, withPower bool) (*seriesFile, error) {
-	f, err := os.CreateTemp(filepath.Dir(filepath.Clean(outDir)), ".sunsight-series-*.csv.tmp")
+	p, err := atomicfile.Create(filepath.Dir(filepath.Clean(outDir)), ".sunsight-series-*.csv.tmp")
 	if err != nil {
 		return nil, err
 	}
-	bw := bufio.NewWriterSize(f, 1<<16)
-	return &seriesFile{f: f, bw: bw, w: csv.NewWriter(bw), epoch: epoch, withPower: withPower, outDir: outDir}, nil
+	return &seriesFile{p: p, out: p, w: csv.NewWriter(p), epoch: epoch, withPower: withPower, outDir: outDir}, nil
 }
 
 // write appends the rows of one piece of the series; powerW is the array
@@ -123,7 +122,7 @@ func (sf *seriesFile) writeRows(p *sim.Series, powerW []float64) error {
 			b = appendFF(b, v, 5)
 		}
 		b = append(b, '\n')
-		if _, err := sf.bw.Write(b); err != nil {
+		if _, err := sf.out.Write(b); err != nil {
 			sf.buf = b
 			return err
 		}
@@ -167,36 +166,16 @@ func appendUTC(b []byte, epoch time.Time, t float64) []byte {
 // set being filled).
 func (sf *seriesFile) place(dir string) error {
 	sf.w.Flush()
-	err := sf.w.Error()
-	if err == nil {
-		err = sf.bw.Flush()
-	}
-	if err == nil {
-		err = sf.f.Sync()
-	}
-	if cerr := sf.f.Close(); err == nil {
-		err = cerr
-	}
-	if err == nil {
-		err = os.Chmod(sf.f.Name(), 0o644)
-	}
-	if err == nil {
-		err = os.Rename(sf.f.Name(), filepath.Join(dir, "series.csv"))
-	}
-	if err != nil {
-		sf.discard()
+	if err := sf.w.Error(); err != nil {
+		sf.p.Abort()
 		return bare(err)
 	}
-	sf.done = true
-	return nil
+	return bare(sf.p.Commit(filepath.Join(dir, "series.csv")))
 }
 
 // discard removes the temporary file unless it was placed.
 func (sf *seriesFile) discard() {
-	if sf == nil || sf.done {
-		return
+	if sf != nil {
+		sf.p.Abort()
 	}
-	sf.f.Close()
-	os.Remove(sf.f.Name())
-	sf.done = true
 }

@@ -128,7 +128,7 @@ func TestSeriesFileErrorNamesTheFolder(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	sf.f.Close() // every later write fails
+	sf.out = failingWriter{os.ErrClosed} // every later write fails
 	p := &sim.Series{T: make([]float64, 5000), Region: make([]illum.Region, 5000), Lit: make([]float64, 5000), Seen: make([]int, 5000),
 		Valid: make([]bool, 5000), ErrNoDeg: make([]float64, 5000), ErrAlbDeg: make([]float64, 5000), ErrCorrDeg: make([]float64, 5000),
 		BetaDeg: make([]float64, 5000), SunBodyAz: make([]float64, 5000), SunBodyEl: make([]float64, 5000)}
@@ -144,4 +144,11 @@ func TestSeriesFileErrorNamesTheFolder(t *testing.T) {
 	if ents, _ := os.ReadDir(dir); len(ents) != 0 {
 		t.Errorf("left: %v", ents)
 	}
+}
+
+// failingWriter fails every write with its error, wrapped as a file's.
+type failingWriter struct{ err error }
+
+func (f failingWriter) Write([]byte) (int, error) {
+	return 0, &os.PathError{Op: "write", Path: "/tmp/.sunsight-series-1.csv.tmp", Err: f.err}
 }

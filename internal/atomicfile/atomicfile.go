@@ -69,34 +69,77 @@ func WriteFrom(path string, fill func(w io.Writer) error) error {
 	if err := CheckTarget(path); err != nil {
 		return err
 	}
-	f, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
+	p, err := Create(filepath.Dir(path), "."+filepath.Base(path)+".tmp*")
 	if err != nil {
 		return fmt.Errorf("cannot write %s: %w (check that the folder exists and is writable)", path, err)
 	}
-	tmp := f.Name()
-	bw := bufio.NewWriterSize(f, 1<<16)
-	werr := fill(bw)
-	if werr == nil {
-		werr = bw.Flush()
+	if err := fill(p); err != nil {
+		p.Abort()
+		return fmt.Errorf("writing %s: %w", path, err)
 	}
-	if werr == nil {
-		werr = f.Sync()
+	if err := p.Commit(path); err != nil {
+		return fmt.Errorf("writing %s: %w", path, err)
 	}
-	if cerr := f.Close(); werr == nil {
-		werr = cerr
+	return nil
+}
+
+// Pending is a file written through a buffer into a temporary file that
+// either goes into place whole (Commit: an fsync, mode 0644 and a rename)
+// or is removed (Abort). A file written over a long run, piece by piece,
+// is kept out of memory this way and is never seen half written.
+type Pending struct {
+	f    *os.File
+	w    *bufio.Writer
+	done bool // committed or aborted
+}
+
+// Create opens a pending file in dir, named after pattern as os.CreateTemp
+// names it. Commit it to a path in dir's file system (a rename does not
+// cross file systems).
+func Create(dir, pattern string) (*Pending, error) {
+	f, err := os.CreateTemp(dir, pattern)
+	if err != nil {
+		return nil, err
 	}
-	if werr == nil {
-		werr = os.Chmod(tmp, 0o644)
+	return &Pending{f: f, w: bufio.NewWriterSize(f, 1<<16)}, nil
+}
+
+// Write implements io.Writer (buffered).
+func (p *Pending) Write(b []byte) (int, error) { return p.w.Write(b) }
+
+// Commit flushes the file to the disk and renames it to path. On an error
+// the temporary file is removed and path is untouched.
+func (p *Pending) Commit(path string) error {
+	err := p.w.Flush()
+	if err == nil {
+		err = p.f.Sync()
 	}
-	if werr == nil {
-		werr = os.Rename(tmp, path)
+	if cerr := p.f.Close(); err == nil {
+		err = cerr
 	}
-	if werr != nil {
-		os.Remove(tmp)
-		return fmt.Errorf("writing %s: %w", path, werr)
+	if err == nil {
+		err = os.Chmod(p.f.Name(), 0o644)
+	}
+	if err == nil {
+		err = os.Rename(p.f.Name(), path)
+	}
+	p.done = true
+	if err != nil {
+		os.Remove(p.f.Name())
+		return err
 	}
 	syncDir(filepath.Dir(path))
 	return nil
+}
+
+// Abort removes the temporary file; after Commit it does nothing.
+func (p *Pending) Abort() {
+	if p == nil || p.done {
+		return
+	}
+	p.f.Close()
+	os.Remove(p.f.Name())
+	p.done = true
 }
 
 // syncDir flushes a folder's entries (the rename) to the disk; file systems

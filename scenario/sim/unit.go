@@ -287,6 +287,9 @@ type stepView struct {
 	predSeen   []sensor.Albedo // the on-board prediction past the body; nil without one
 	sees       []bool
 	seen       int
+	// noAlbedo: no sensor gets albedo past the body (albSeen all zero),
+	// taken once here for every unit.
+	noAlbedo bool
 	// moonIn, litEarthIn: the Moon, the lit Earth in each sensor's cone
 	// (sensor.Bodies.MoonInCone, LitEarthInCone; the Moon also clear of the
 	// body's obstructions).
@@ -382,6 +385,7 @@ func (w *viewer) view(v *stepView, g *stepGeom, albBody, predBody []sensor.Albed
 	if v.albSeen != nil {
 		w.pastBody(v.albSeen, albBody)
 		w.pastBody(v.predSeen, predBody)
+		v.noAlbedo = noAlbedo(v.albSeen)
 	}
 	v.seen = 0
 	sunlit := g.region == illum.Sunlit
@@ -666,7 +670,7 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 	// A cosine bank copies a reading without albedo when the sensor gets
 	// none (CosineBank.ReadPair): with no albedo on any sensor the two
 	// lists are the same bits.
-	same := r.bank != nil && r.withAlbedo && noAlbedo(v.albSeen)
+	same := r.bank != nil && r.withAlbedo && v.noAlbedo
 	r.acc.step(k, g.t, g.region, g.lit, v.seen, g.sunBody, g.nadirBody, g.sinBeta, r.readNo, r.readAlb, r.readCorr, same, r.arr, r.ests)
 	if r.filt != nil {
 		real := r.readNo

@@ -44,12 +44,7 @@ func TestMemoryEstimateCountsAlbedoTables(t *testing.T) {
 // listed (for gaps.csv): 50 units of ten years are no larger than of one
 // unless their gaps are listed, then by 20 B per listed unit and step.
 func TestMemoryEstimateFlatUnlessGapsListed(t *testing.T) {
-	s := parse(t, "duration: 10d\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n"+
-		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60}\n")
-	cfg, err := Config(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	cfg := oneSensorNadir(t)
 	cfg.Units = 50
 	short := MemoryEstimate(&cfg, 0)
 	cfg.Duration *= 365
@@ -97,12 +92,7 @@ func TestModesShareTheZonalTables(t *testing.T) {
 // kept one is, row for row; panels add their power at every sample either
 // way.
 func TestSeriesRowsOnlyWhenKept(t *testing.T) {
-	s := parse(t, "duration: 10d\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n"+
-		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60}\n")
-	cfg, err := Config(s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	cfg := oneSensorNadir(t)
 	cfg.SeriesStride = 2
 	if got, want := SeriesRows(&cfg), cfg.Steps()/2+1; got != want {
 		t.Errorf("kept series: %d rows, want %d", got, want)
@@ -120,4 +110,17 @@ func TestSeriesRowsOnlyWhenKept(t *testing.T) {
 	if got, want := MemoryEstimate(&cfg, 0)-before, int64(cfg.Steps()/2+1)*memPerPowerRow; got != want {
 		t.Errorf("panel power adds %d bytes, want %d", got, want)
 	}
+}
+
+// oneSensorNadir is the configuration of 10 days at 10 s of one cosine
+// sensor in nadir pointing at 550 km, for the memory estimate's tests.
+func oneSensorNadir(t *testing.T) sim.Config {
+	t.Helper()
+	s := parse(t, "duration: 10d\nstep: 10s\norbit: {altitude_km: 550, ltan: \"10:30\"}\nattitude: {law: nadir}\n"+
+		"body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", half_angle_deg: 60}\n")
+	cfg, err := Config(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return cfg
 }

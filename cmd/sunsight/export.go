@@ -8,7 +8,6 @@ import (
 
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 	"codeberg.org/sunsight/sunsight/orbit/ccsds"
-	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
@@ -51,9 +50,9 @@ func runExport(args []string, stdout, stderr io.Writer) error {
 	}
 	step := s.Step.Seconds()
 	if *stepS != "" {
-		sp, err := scenario.ParseSpan(*stepS)
-		if err != nil || !(sp.Seconds() > 0) {
-			return usagef("--step %q: allowed a positive span such as 10s or 1m", *stepS)
+		sp, err := spanFlag("--step", *stepS, "10s or 1m")
+		if err != nil {
+			return err
 		}
 		step = sp.Seconds()
 	}

@@ -98,16 +98,16 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	if f.duration != "" {
-		d, err := scenario.ParseSpan(f.duration)
-		if err != nil || d.Seconds() <= 0 {
-			return usagef("--duration %q: want a positive span such as 90m, 12h, 30d", f.duration)
+		d, err := spanFlag("--duration", f.duration, "90m, 12h or 30d")
+		if err != nil {
+			return err
 		}
 		s.Duration = d
 	}
 	if f.step != "" {
-		d, err := scenario.ParseSpan(f.step)
-		if err != nil || d.Seconds() <= 0 {
-			return usagef("--step %q: want a positive span such as 10s", f.step)
+		d, err := spanFlag("--step", f.step, "10s or 1m")
+		if err != nil {
+			return err
 		}
 		s.Step = d
 	}
@@ -313,3 +313,18 @@ func ensureWritableDir(dir string) error {
 // defaultMaxMemoryMiB is the memory a run may be estimated to need before it
 // is refused (--max-memory-mib raises it).
 const defaultMaxMemoryMiB = 4096
+
+// spanFlag reads the value of a flag that takes a length of time: the
+// parser's own reason when it cannot read it (an unknown or calendar unit,
+// a span too long), and a positive span asked for otherwise (examples: what
+// to write instead).
+func spanFlag(flag, text, examples string) (scenario.Span, error) {
+	d, err := scenario.ParseSpan(text)
+	if err != nil {
+		return 0, usagef("%s: %v", flag, err)
+	}
+	if !(d.Seconds() > 0) {
+		return 0, usagef("%s %q: want a positive span such as %s", flag, text, examples)
+	}
+	return d, nil
+}

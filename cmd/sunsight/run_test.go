@@ -53,6 +53,11 @@ func TestRunBadInput(t *testing.T) {
 		{[]string{"run", filepath.Join(dir, "missing.yaml")}, "missing.yaml"},
 		{[]string{"run", "-units", "-2", "../../examples/nadir-6u-sso.yaml"}, "-units"},
 		{[]string{"run", "-duration", "soon", "../../examples/nadir-6u-sso.yaml"}, "-duration"},
+		// The span parser's own reason reaches the user.
+		{[]string{"run", "-duration", "2y", "../../examples/nadir-6u-sso.yaml"}, `--duration: "2y": unit "y" is calendar-ambiguous`},
+		{[]string{"run", "-duration", "100000d", "../../examples/nadir-6u-sso.yaml"}, "too long; allowed up to about 146 years"},
+		{[]string{"run", "-duration", "-3d", "../../examples/nadir-6u-sso.yaml"}, "want a positive span such as 90m"},
+		{[]string{"run", "-step", "10q", "../../examples/nadir-6u-sso.yaml"}, `--step: "10q": unknown unit "q"`},
 		{[]string{"run", "-step", "3d", "-duration", "1d", "../../examples/nadir-6u-sso.yaml"}, "longer than the duration"},
 		{[]string{"run", "a.yaml", "b.yaml"}, "want one scenario file"},
 		{[]string{"run", "-bogus", "../../examples/nadir-6u-sso.yaml"}, "bogus"},

@@ -91,7 +91,8 @@ func rotAngle(a, b r3.Rotation) float64 {
 }
 
 // Warnings: epochs outside the sun model's stated span, a TLE far from the
-// run, and a run shorter than one orbit; none for a plain 2026 day.
+// run, a run shorter than one orbit and a step too long for the orbit; none
+// for a plain 2026 day.
 func TestWarnings(t *testing.T) {
 	base := "orbit: {altitude_km: 500, inclination_deg: 51.6}\nbody:\n  sensors: [{name: a, kind: cosine, face: \"+X\"}]\n"
 	for _, c := range []struct{ text, want string }{
@@ -100,6 +101,9 @@ func TestWarnings(t *testing.T) {
 		{"epoch: \"2050-12-31T00:00:00Z\"\nduration: 2d\n" + base, "the run (2050 to 2051)"},
 		{"epoch: \"2099-03-20T00:00:00Z\"\nsun_model: meeus\n" + base, ""},
 		{"epoch: \"2026-03-20T00:00:00Z\"\nduration: 45m\n" + base, "shorter than one orbit (94.6 min)"},
+		// 94.6 min / 30 = 189 s: a 180 s step passes, 200 s does not.
+		{"epoch: \"2026-03-20T00:00:00Z\"\nstep: 180s\n" + base, ""},
+		{"epoch: \"2026-03-20T00:00:00Z\"\nstep: 200s\n" + base, "samples each orbit (94.6 min) at fewer than 30 points"},
 	} {
 		ws := Warnings(parse(t, c.text), nil)
 		got := strings.Join(ws, "; ")

@@ -21,10 +21,19 @@ import (
 // less than times.
 const MaxTLEAgeDays = 14
 
+// MinSamplesPerOrbit is the fewest steps per orbital period before a
+// warning: at 30 a step is 12° of orbit, about 3 min in LEO, a tenth of an
+// eclipse, and the time shares, gaps and percentiles of the step loop move
+// by several per cent with the phase of the samples (common practice, no
+// source). The eclipse list comes from an event search to 1 ms and does not
+// depend on the step.
+const MinSamplesPerOrbit = 30
+
 // Warnings returns what a user should know before trusting a run of s:
 // epochs outside the sun model's stated validity, a TLE older than
-// MaxTLEAgeDays, and a run shorter than one orbit (res, when not nil, adds
-// how many eclipses the run's ends cut). Each is one sentence.
+// MaxTLEAgeDays, a run shorter than one orbit (res, when not nil, adds
+// how many eclipses the run's ends cut) and a step too long for the orbit
+// (MinSamplesPerOrbit). Each is one sentence.
 func Warnings(s *scenario.Scenario, res *sim.Result) []string {
 	var out []string
 	end := s.Epoch.Add(time.Duration(s.Duration.Seconds() * float64(time.Second)))
@@ -48,6 +57,10 @@ func Warnings(s *scenario.Scenario, res *sim.Result) []string {
 				msg += fmt.Sprintf(" (%d of %d eclipses here are cut)", res.EclipseStats.Count-res.EclipseStats.Complete, res.EclipseStats.Count)
 			}
 			out = append(out, msg)
+		}
+		if T := orbit.Period(el.SemiMajorAxisKm); s.Step.Seconds() > T/MinSamplesPerOrbit {
+			out = append(out, fmt.Sprintf("the step (%s) samples each orbit (%.1f min) at fewer than %d points: the time shares, gaps and error percentiles are coarse and depend on where the samples fall (the eclipse list does not: it comes from an event search); use a step of at most %.0f s",
+				s.Step, T/60, MinSamplesPerOrbit, math.Floor(T/MinSamplesPerOrbit)))
 		}
 	}
 	return append(out, filterWarnings(res)...)

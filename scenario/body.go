@@ -188,22 +188,36 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	s.Errors = r.errorsOf(p+".errors", f.Errors)
 	if known {
 		// An error the kind's model does not draw would be ignored: refuse it.
-		for _, c := range []struct {
-			key, source string
-			v           float64
-		}{
-			{"dark_offset_1sigma", sensor.SourceDarkOffset, f.Errors.DarkOffset1Sigma},
-			{"gain_1sigma", sensor.SourceGain, f.Errors.Gain1Sigma},
-			{"noise_1sigma", sensor.SourceNoise, f.Errors.Noise1Sigma},
-			{"misalignment_deg_1sigma", sensor.SourceMisalignment, f.Errors.MisalignmentDeg1Sigma},
-			{"aperture_offset_mm_1sigma", sensor.SourceApertureOffset, f.Errors.ApertureOffsetMM1Sigma},
-		} {
-			if c.v != 0 && !hasSource(info, c.source) {
+		values := [len(errorKeySources)]float64{f.Errors.DarkOffset1Sigma, f.Errors.Gain1Sigma, f.Errors.Noise1Sigma,
+			f.Errors.MisalignmentDeg1Sigma, f.Errors.ApertureOffsetMM1Sigma}
+		for i, c := range errorKeySources {
+			if values[i] != 0 && !hasSource(info, c.source) {
 				r.fail(p+".errors."+c.key, "value does not apply to kind %s (its error model has no %s); remove it", f.Kind, c.source)
 			}
 		}
 	}
 	return s
+}
+
+// errorKeySources pairs each key of a sensor's errors block, in the order
+// of fileErrors, with the error source it sets.
+var errorKeySources = [...]struct{ key, source string }{
+	{"dark_offset_1sigma", sensor.SourceDarkOffset},
+	{"gain_1sigma", sensor.SourceGain},
+	{"noise_1sigma", sensor.SourceNoise},
+	{"misalignment_deg_1sigma", sensor.SourceMisalignment},
+	{"aperture_offset_mm_1sigma", sensor.SourceApertureOffset},
+}
+
+// errorKeyApplies reports whether the errors key applies to a sensor kind
+// (true for a key or a kind it does not know).
+func errorKeyApplies(k sensor.KindInfo, key string) bool {
+	for _, c := range errorKeySources {
+		if c.key == key {
+			return hasSource(k, c.source)
+		}
+	}
+	return true
 }
 
 // hasSource reports whether a sensor kind's error model draws the source.

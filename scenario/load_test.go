@@ -7,7 +7,10 @@ import (
 	"strings"
 	"testing"
 
+	"go.yaml.in/yaml/v3"
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 )
 
 func TestExamplesLoadAndMatchTemplates(t *testing.T) {
@@ -290,4 +293,40 @@ func TestSensorPlacementOnTheOutline(t *testing.T) {
 func withTLEField(line string, col int, v string) string {
 	l := line[:col] + v + line[col+len(v):]
 	return l[:68] + string(rune('0'+tleChecksum(l[:68]+"0")))
+}
+
+// The record's errors block of each sensor kind offers exactly the errors
+// that kind's model draws (the others are refused when set), and a record
+// that names them all loads again.
+func TestRecordErrorsAreTheKindsOwn(t *testing.T) {
+	for _, kind := range sensor.KindNames() {
+		info, _ := sensor.LookupKind(kind)
+		text := "orbit: {altitude_km: 500, inclination_deg: 97.4}\nbody:\n  form_factor: 3U\n  sensors:\n    - {name: a, kind: " + kind + ", face: \"+X\"}\n"
+		s, err := Parse([]byte(text), t.TempDir())
+		if err != nil {
+			t.Fatalf("%s: %v", kind, err)
+		}
+		var rec struct {
+			Body struct {
+				Sensors []struct {
+					Errors map[string]float64 `yaml:"errors"`
+				} `yaml:"sensors"`
+			} `yaml:"body"`
+		}
+		if err := yaml.Unmarshal(s.Record(), &rec); err != nil || len(rec.Body.Sensors) != 1 {
+			t.Fatalf("%s: record: %v\n%s", kind, err, s.Record())
+		}
+		got := rec.Body.Sensors[0].Errors
+		for _, c := range errorKeySources {
+			if _, listed := got[c.key]; listed != hasSource(info, c.source) {
+				t.Errorf("%s: errors.%s listed %v, but the kind draws %s: %v", kind, c.key, listed, c.source, hasSource(info, c.source))
+			}
+		}
+		if len(got) == 0 || len(got) > len(errorKeySources) {
+			t.Errorf("%s: errors block %v", kind, got)
+		}
+		if _, err := Parse(s.Record(), s.Dir); err != nil {
+			t.Errorf("%s: the record does not load: %v", kind, err)
+		}
+	}
 }

@@ -103,6 +103,18 @@ func (f fileSensor) MarshalYAML() (any, error) {
 		if err := kv.Encode(map[string]any{"errors": f.Errors}); err != nil {
 			return nil, err
 		}
+		// Only the errors the kind's model draws: the others are refused
+		// when set, so the record does not offer them.
+		if k, ok := sensor.LookupKind(f.Kind); ok && len(kv.Content) == 2 && kv.Content[1].Kind == yaml.MappingNode {
+			m := kv.Content[1]
+			var kept []*yaml.Node
+			for i := 0; i+1 < len(m.Content); i += 2 {
+				if errorKeyApplies(k, m.Content[i].Value) {
+					kept = append(kept, m.Content[i], m.Content[i+1])
+				}
+			}
+			m.Content = kept
+		}
 		n.Content = append(n.Content, kv.Content...)
 	}
 	return &n, nil

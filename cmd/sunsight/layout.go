@@ -102,9 +102,13 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	for i, c := range res.Alternatives {
 		fmt.Fprintf(stdout, "%4d  %7d  %8.4f  %7s  %6.3f  %s\n", i+1, len(c.Subset), c.Coverage, fixed(c.Score.P95Deg, 3), c.Score.Margin, name(c))
 	}
+	fmt.Fprintln(stdout, "coverage: share of the sphere seen by enough sensors; p95_deg: the worst mode's p95 error;")
+	fmt.Fprintln(stdout, "margin: the smallest target margin over the modes (a valid fraction: above its minimum;")
+	fmt.Fprintln(stdout, "the p95 error and the gap: the share of the limit left)")
 	fmt.Fprintln(stdout, "\ntrade-off front (count vs coverage vs p95 error)")
+	fmt.Fprintln(stdout, "sensors  coverage  p95_deg  meets  set")
 	for _, c := range res.Front {
-		fmt.Fprintf(stdout, "%7d  %8.4f  %7s  %-5v %s\n", len(c.Subset), c.Coverage, fixed(c.Score.P95Deg, 3), c.Score.Meets, name(c))
+		fmt.Fprintf(stdout, "%7d  %8.4f  %7s  %-5v  %s\n", len(c.Subset), c.Coverage, fixed(c.Score.P95Deg, 3), c.Score.Meets, name(c))
 	}
 	fmt.Fprintln(stdout, "\nanalysis aid: verify the chosen layout with a finer sky map and qualified flight analysis")
 	// No subset meeting the targets is a completed search whose answer is

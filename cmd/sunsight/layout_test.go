@@ -43,6 +43,13 @@ func TestLayoutCommandPicksAllSixFaces(t *testing.T) {
 	if !strings.Contains(out.String(), "fewest sensors: 6 (px mx py my pz mz)") {
 		t.Errorf("output:\n%s", out.String())
 	}
+	// Both tables name their columns, and the margin says what it measures.
+	for _, want := range []string{"rank  sensors  coverage  p95_deg  margin  set", "margin: the smallest target margin over the modes",
+		"sensors  coverage  p95_deg  meets  set"} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("output lacks %q:\n%s", want, out.String())
+		}
+	}
 	if _, err := os.Stat(filepath.Join(dir, "layout.json")); err != nil {
 		t.Error(err)
 	}

@@ -27,7 +27,7 @@ func newProgress(stderr io.Writer, quiet bool, steps int, name string) *progress
 		p.off = true
 		return p
 	}
-	if f, ok := stderr.(*os.File); ok && term.IsTerminal(int(f.Fd())) {
+	if isTerminal(stderr) {
 		p.bars = mpb.New(mpb.WithOutput(stderr), mpb.WithWidth(40))
 		p.bar = p.bars.AddBar(int64(steps),
 			mpb.PrependDecorators(decor.Name(name+" ", decor.WC{W: len(name) + 1})),
@@ -54,4 +54,11 @@ func (p *progress) done() {
 	}
 	p.bar.SetCurrent(int64(p.steps))
 	p.bars.Wait()
+}
+
+// isTerminal reports whether w is a terminal: progress displays write only
+// there, so that logs and pipes stay clean.
+func isTerminal(w io.Writer) bool {
+	f, ok := w.(*os.File)
+	return ok && term.IsTerminal(int(f.Fd()))
 }

@@ -81,13 +81,15 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	defer stopProf()
 	ctx, stop := interruptContext()
 	defer stop()
+	// The count of cases done, on a terminal only (as run's display).
+	show := !*quiet && isTerminal(stderr)
 	progress := func(done, total int) {
-		if !*quiet {
+		if show {
 			fmt.Fprintf(stderr, "\rsunsight season: case %d of about %d", done, total)
 		}
 	}
 	r, err := season.Run(ctx, s, opt, progress)
-	if !*quiet {
+	if show {
 		fmt.Fprintln(stderr)
 	}
 	if err != nil {

@@ -119,3 +119,19 @@ func TestSeasonCommand(t *testing.T) {
 		t.Errorf("--cases 1: exit %d, %s", code, se.String())
 	}
 }
+
+// Without --quiet, a season whose stderr is not a terminal (a log, a pipe)
+// gets no progress counter: no carriage returns, nothing but what it says.
+func TestSeasonProgressOnlyOnATerminal(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "season.yaml")
+	if err := os.WriteFile(p, []byte(seasonFile), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var so, se bytes.Buffer
+	if code := runMain([]string{"season", p, "--span", "60d", "--cases", "3", "--refine", "1", "--case-duration", "2h"}, &so, &se); code != exitOK {
+		t.Fatalf("exit %d: %s", code, se.String())
+	}
+	if strings.Contains(se.String(), "\r") || strings.Contains(se.String(), "of about") {
+		t.Errorf("stderr has a progress counter: %q", se.String())
+	}
+}

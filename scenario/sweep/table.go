@@ -201,8 +201,43 @@ var curveFigures = [][3]string{
 	{"p95_error_albedo_deg", "Sun-vector error, 95th percentile, with albedo", "p95 error (deg)"},
 }
 
+// noAlbedoErrorFigure stands in for the p95 error with albedo when no case
+// models albedo: the target is then judged on the error without it.
+var noAlbedoErrorFigure = [3]string{"p95_error_no_albedo_deg", "Sun-vector error, 95th percentile (no albedo modelled)", "p95 error (deg)"}
+
+// plottedFigures is curveFigures as a sweep's cases can draw them: the p95
+// error without albedo in place of the one with it when no case has the
+// latter, and no figure of which no case has a value (an empty frame
+// would look like a broken plot).
+func plottedFigures(m Manifest, cases []*CaseFile) [][3]string {
+	var out [][3]string
+	for _, f := range curveFigures {
+		if f[0] == "p95_error_albedo_deg" && !anyValue(m, cases, f[0]) {
+			f = noAlbedoErrorFigure
+		}
+		if anyValue(m, cases, f[0]) {
+			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// anyValue reports whether some case has a finite value of the figure.
+func anyValue(m Manifest, cases []*CaseFile, name string) bool {
+	_, _, lines := Curves(m, cases, name)
+	for _, l := range lines {
+		for _, y := range l.Y {
+			if !math.IsNaN(y) && !math.IsInf(y, 0) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
 // curveTarget names the target key judged on a figure's headline value.
-var curveTarget = map[string]string{"valid_fraction": study.TargetValid, "p95_error_albedo_deg": study.TargetErrorP95}
+var curveTarget = map[string]string{"valid_fraction": study.TargetValid, "p95_error_albedo_deg": study.TargetErrorP95,
+	"p95_error_no_albedo_deg": study.TargetErrorP95}
 
 // axisLabel turns a sweep key into an axis label with its unit:
 // "orbit.altitude_km" → "orbit altitude (km)", "orbit.ltan" → "orbit LTAN
@@ -391,7 +426,7 @@ func caseIndex(m Manifest, cases []*CaseFile, cf *CaseFile) (i, k int) {
 }
 
 func writePlots(dir string, m Manifest, cases []*CaseFile, caption plots.Caption) error {
-	for _, f := range curveFigures {
+	for _, f := range plottedFigures(m, cases) {
 		x, xLabel, lines := Curves(m, cases, f[0])
 		sw := plots.Sweep{Title: f[1], XLabel: xLabel, X: x, Lines: lines, YLabel: f[2]}
 		scale := 1.0

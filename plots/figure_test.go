@@ -325,6 +325,36 @@ func TestErrorDistFigure(t *testing.T) {
 	}
 }
 
+// The error axis ends at 180° however large the errors (no angle is
+// larger): errors of 18–37° drew an axis to 1000°.
+func TestErrorDistAxisEndsAt180(t *testing.T) {
+	for _, c := range []struct {
+		errs       []float64
+		xmin, xmax float64
+		targetDeg  float64
+	}{
+		{[]float64{18, 25, 37}, 1, 180, 0},
+		{[]float64{0.5, 120, 179.9}, 0.1, 180, 0},
+		{[]float64{0.02, 0.3}, 0.01, 1, 0},
+		{[]float64{3, 8}, 1, 100, 0},
+		{[]float64{20, 30}, 1, 180, 150},
+	} {
+		f := ErrorDist{Series: []ErrSeries{{Label: "x", ErrorsDeg: c.errs}}}
+		if c.targetDeg > 0 {
+			f.Target = &Target{Value: c.targetDeg, Label: "≤", Got: "-", Pass: true}
+		}
+		ch, err := f.Plot(Caption{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, p := range ch.Panels[:2] {
+			if p.X.Min != c.xmin || p.X.Max != c.xmax {
+				t.Errorf("errors %v: axis %g…%g, want %g…%g", c.errs, p.X.Min, p.X.Max, c.xmin, c.xmax)
+			}
+		}
+	}
+}
+
 // Gaps given as a histogram (durations with counts) draw the same bins as
 // the same gaps listed one by one.
 func TestGapsFigureFromCounts(t *testing.T) {

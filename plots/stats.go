@@ -129,6 +129,10 @@ type ErrSeries struct {
 	BinCounts   []float64
 }
 
+// maxAngleDeg is the largest angle between two directions: the error
+// axes end there.
+const maxAngleDeg = 180
+
 // ErrorDist compares sun-vector error distributions (e.g. with and
 // without albedo).
 type ErrorDist struct {
@@ -224,11 +228,15 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	if !(lo <= hi) {
 		lo, hi = 0.01, 1
 	}
-	// Whole decades around the data; zero errors sit on the left edge.
+	// Whole decades around the data, ending at 180° (no angle is larger);
+	// zero errors sit on the left edge; at least a factor 100.
 	xmin := math.Pow(10, math.Floor(math.Log10(lo)))
-	xmax := math.Pow(10, math.Ceil(math.Log10(hi*1.0001)))
+	xmax := math.Min(math.Pow(10, math.Ceil(math.Log10(hi*1.0001))), maxAngleDeg)
 	if xmax/xmin < 100 {
-		xmax = xmin * 100
+		if xmax = xmin * 100; xmax > maxAngleDeg {
+			xmax = maxAngleDeg
+			xmin = math.Min(xmin, math.Pow(10, math.Floor(math.Log10(xmax/100))))
+		}
 	}
 	const nb = 40
 	edges := make([]float64, nb+1)

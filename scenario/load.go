@@ -76,7 +76,11 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 	w.check(root, reflect.TypeOf(fileScenario{}), "")
 	if len(w.errs) > 0 {
 		// Report the value problems of the keys that could be read in the
-		// same round as the key and type problems.
+		// same round as the key and type problems; after a key given twice
+		// the decoder reads nothing more, so those problems alone.
+		if w.duplicate {
+			return nil, sortErrors(w.errs)
+		}
 		return nil, sortErrors(append(w.errs, valueErrors(data, dir, w)...))
 	}
 	var f fileScenario
@@ -211,6 +215,10 @@ func cleanYAML(s string) string {
 type walker struct {
 	nodes map[string]*yaml.Node
 	errs  Errors
+	// duplicate: some mapping gives a key twice. The YAML decoder then
+	// stops filling the file's values, so the other values cannot be
+	// judged (they would look missing).
+	duplicate bool
 }
 
 func (w *walker) fail(n *yaml.Node, path, format string, a ...any) {
@@ -316,6 +324,7 @@ func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
 			kp := join(path, k.Value)
 			if first, dup := seen[k.Value]; dup {
 				w.fail(k, kp, "key %q is given twice (first at line %d); allowed each key once", k.Value, first.Line)
+				w.duplicate = true
 				continue
 			}
 			seen[k.Value] = k

@@ -2,6 +2,7 @@ package scenario
 
 import (
 	"bytes"
+	"errors"
 	"os"
 	"path/filepath"
 	"strings"
@@ -327,6 +328,22 @@ func TestRecordErrorsAreTheKindsOwn(t *testing.T) {
 		}
 		if _, err := Parse(s.Record(), s.Dir); err != nil {
 			t.Errorf("%s: the record does not load: %v", kind, err)
+		}
+	}
+}
+
+// A key given twice is the one problem reported: the sections after it are
+// not said to be missing (the decoder stops at the duplicate, and the
+// file's orbit and sensors looked absent).
+func TestDuplicateKeyAlone(t *testing.T) {
+	for _, text := range []string{
+		"name: x\nname: y\norbit: {altitude_km: 500, inclination_deg: 97}\nbody:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\"}\n",
+		"orbit: {altitude_km: 500, inclination_deg: 97}\nbody:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", face: \"-X\"}\n",
+	} {
+		_, err := Parse([]byte(text), t.TempDir())
+		var errs Errors
+		if !errors.As(err, &errs) || len(errs) != 1 || !strings.Contains(errs[0].Error(), "is given twice") {
+			t.Errorf("%q: %v; want the duplicate key alone", text, err)
 		}
 	}
 }

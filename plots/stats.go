@@ -234,8 +234,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	xmax := math.Min(math.Pow(10, math.Ceil(math.Log10(hi*1.0001))), maxAngleDeg)
 	if xmax/xmin < 100 {
 		if xmax = xmin * 100; xmax > maxAngleDeg {
-			xmax = maxAngleDeg
-			xmin = math.Min(xmin, math.Pow(10, math.Floor(math.Log10(xmax/100))))
+			xmax, xmin = maxAngleDeg, math.Min(xmin, 1) // 1° to 180°
 		}
 	}
 	const nb = 40

@@ -188,10 +188,8 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	s.Errors = r.errorsOf(p+".errors", f.Errors)
 	if known {
 		// An error the kind's model does not draw would be ignored: refuse it.
-		values := [len(errorKeySources)]float64{f.Errors.DarkOffset1Sigma, f.Errors.Gain1Sigma, f.Errors.Noise1Sigma,
-			f.Errors.MisalignmentDeg1Sigma, f.Errors.ApertureOffsetMM1Sigma}
-		for i, c := range errorKeySources {
-			if values[i] != 0 && !hasSource(info, c.source) {
+		for _, c := range errorKeySources {
+			if c.value(f.Errors) != 0 && !hasSource(info, c.source) {
 				r.fail(p+".errors."+c.key, "value does not apply to kind %s (its error model has no %s); remove it", f.Kind, c.source)
 			}
 		}
@@ -199,14 +197,17 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 	return s
 }
 
-// errorKeySources pairs each key of a sensor's errors block, in the order
-// of fileErrors, with the error source it sets.
-var errorKeySources = [...]struct{ key, source string }{
-	{"dark_offset_1sigma", sensor.SourceDarkOffset},
-	{"gain_1sigma", sensor.SourceGain},
-	{"noise_1sigma", sensor.SourceNoise},
-	{"misalignment_deg_1sigma", sensor.SourceMisalignment},
-	{"aperture_offset_mm_1sigma", sensor.SourceApertureOffset},
+// errorKeySources pairs each key of a sensor's errors block with the error
+// source it sets and its value in the file.
+var errorKeySources = [...]struct {
+	key, source string
+	value       func(*fileErrors) float64
+}{
+	{"dark_offset_1sigma", sensor.SourceDarkOffset, func(e *fileErrors) float64 { return e.DarkOffset1Sigma }},
+	{"gain_1sigma", sensor.SourceGain, func(e *fileErrors) float64 { return e.Gain1Sigma }},
+	{"noise_1sigma", sensor.SourceNoise, func(e *fileErrors) float64 { return e.Noise1Sigma }},
+	{"misalignment_deg_1sigma", sensor.SourceMisalignment, func(e *fileErrors) float64 { return e.MisalignmentDeg1Sigma }},
+	{"aperture_offset_mm_1sigma", sensor.SourceApertureOffset, func(e *fileErrors) float64 { return e.ApertureOffsetMM1Sigma }},
 }
 
 // errorKeyApplies reports whether the errors key applies to a sensor kind

@@ -51,14 +51,15 @@ func Warnings(s *scenario.Scenario, res *sim.Result) []string {
 		}
 	}
 	if el, err := MeanElements(s); err == nil {
-		if T := orbit.Period(el.SemiMajorAxisKm); s.Duration.Seconds() < T {
+		T := orbit.Period(el.SemiMajorAxisKm)
+		if s.Duration.Seconds() < T {
 			msg := fmt.Sprintf("the run (%s) is shorter than one orbit (%.1f min): eclipses are cut by the run's ends, and eclipse means and maxima count complete eclipses only", s.Duration, T/60)
 			if res != nil && res.EclipseStats.Count > 0 {
 				msg += fmt.Sprintf(" (%d of %d eclipses here are cut)", res.EclipseStats.Count-res.EclipseStats.Complete, res.EclipseStats.Count)
 			}
 			out = append(out, msg)
 		}
-		if T := orbit.Period(el.SemiMajorAxisKm); s.Step.Seconds() > T/MinSamplesPerOrbit {
+		if s.Step.Seconds() > T/MinSamplesPerOrbit {
 			out = append(out, fmt.Sprintf("the step (%s) samples each orbit (%.1f min) at fewer than %d points: the time shares, gaps and error percentiles are coarse and depend on where the samples fall (the eclipse list does not: it comes from an event search); use a step of at most %.0f s",
 				s.Step, T/60, MinSamplesPerOrbit, math.Floor(T/MinSamplesPerOrbit)))
 		}

@@ -29,11 +29,11 @@ func TestPlottedFiguresSkipEmptyOnes(t *testing.T) {
 		}
 		return got
 	}
-	with := names(plottedFigures(m, cases(true)))
+	with := names(plottedFigures(cases(true)))
 	if !with["p95_error_albedo_deg"] || with["p95_error_no_albedo_deg"] || len(with) != len(curveFigures) {
 		t.Errorf("with albedo: figures %v", with)
 	}
-	without := names(plottedFigures(m, cases(false)))
+	without := names(plottedFigures(cases(false)))
 	if without["p95_error_albedo_deg"] || !without["p95_error_no_albedo_deg"] || len(without) != len(curveFigures) {
 		t.Errorf("without albedo: figures %v", without)
 	}
@@ -42,7 +42,7 @@ func TestPlottedFiguresSkipEmptyOnes(t *testing.T) {
 	for _, c := range cs {
 		delete(c.Headline, "seen_by_3_fraction")
 	}
-	if got := names(plottedFigures(m, cs)); got["seen_by_3_fraction"] || len(got) != len(curveFigures)-1 {
+	if got := names(plottedFigures(cs)); got["seen_by_3_fraction"] || len(got) != len(curveFigures)-1 {
 		t.Errorf("figure without values: %v", got)
 	}
 	// And the files written are those.

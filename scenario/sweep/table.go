@@ -209,13 +209,13 @@ var noAlbedoErrorFigure = [3]string{"p95_error_no_albedo_deg", "Sun-vector error
 // error without albedo in place of the one with it when no case has the
 // latter, and no figure of which no case has a value (an empty frame
 // would look like a broken plot).
-func plottedFigures(m Manifest, cases []*CaseFile) [][3]string {
+func plottedFigures(cases []*CaseFile) [][3]string {
 	var out [][3]string
 	for _, f := range curveFigures {
-		if f[0] == "p95_error_albedo_deg" && !anyValue(m, cases, f[0]) {
+		if f[0] == "p95_error_albedo_deg" && !anyValue(cases, f[0]) {
 			f = noAlbedoErrorFigure
 		}
-		if anyValue(m, cases, f[0]) {
+		if anyValue(cases, f[0]) {
 			out = append(out, f)
 		}
 	}
@@ -223,13 +223,10 @@ func plottedFigures(m Manifest, cases []*CaseFile) [][3]string {
 }
 
 // anyValue reports whether some case has a finite value of the figure.
-func anyValue(m Manifest, cases []*CaseFile, name string) bool {
-	_, _, lines := Curves(m, cases, name)
-	for _, l := range lines {
-		for _, y := range l.Y {
-			if !math.IsNaN(y) && !math.IsInf(y, 0) {
-				return true
-			}
+func anyValue(cases []*CaseFile, name string) bool {
+	for _, cf := range cases {
+		if y := cf.Value(name); !math.IsNaN(y) && !math.IsInf(y, 0) {
+			return true
 		}
 	}
 	return false
@@ -426,7 +423,7 @@ func caseIndex(m Manifest, cases []*CaseFile, cf *CaseFile) (i, k int) {
 }
 
 func writePlots(dir string, m Manifest, cases []*CaseFile, caption plots.Caption) error {
-	for _, f := range plottedFigures(m, cases) {
+	for _, f := range plottedFigures(cases) {
 		x, xLabel, lines := Curves(m, cases, f[0])
 		sw := plots.Sweep{Title: f[1], XLabel: xLabel, X: x, Lines: lines, YLabel: f[2]}
 		scale := 1.0

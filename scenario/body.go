@@ -166,7 +166,9 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 				r.fail(p+"."+key, "value does not apply to kind %s (its model has no analogue-to-digital converter); remove %s", f.Kind, key)
 			}
 		}
-		s.FullScale, s.ADCBits = defaultFullScale, defaultADCBits
+		// No converter: no full scale to fill (the sensors table prints
+		// none), no ADC.
+		s.FullScale, s.ADCBits = 0, 0
 	} else {
 		s.FullScale = setDefault(&f.FullScale, defaultFullScale)
 		r.rangeCheck(p+".full_scale", s.FullScale, 0, math.MaxFloat64, true, "a number > 0")

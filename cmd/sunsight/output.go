@@ -544,15 +544,17 @@ func (o *runOutput) writeSummary(w io.Writer) {
 	fmt.Fprintf(w, "\nSensors (signal 1 = normal sun at 1 AU)\n  %-14s %9s %12s %15s %10s %10s %12s %12s\n", "sensor", "in view", "peak signal", "full scale", "saturated",
 		"umbra lit", "albedo only", fmt.Sprintf("> %g° off", r.FalseSunBoundDeg))
 	for i, sn := range u.Sensors {
-		fs := "-"
+		// A kind without a converter model has no full scale and cannot
+		// saturate.
+		fs, sat := "—", "—"
 		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
 			f := s.Body.Sensors[i].FullScale
-			fs = fmt.Sprintf("%.2f (%+.0f %%)", f, 100*(1-sn.PeakSignal/f))
+			fs, sat = fmt.Sprintf("%.2f (%+.0f %%)", f, 100*(1-sn.PeakSignal/f)), pct(sn.SaturatedFraction)
 		}
-		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s %12s %12s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, pct(sn.SaturatedFraction),
+		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s %12s %12s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, sat,
 			pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction))
 	}
-	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal; umbra lit: share of umbra time above threshold;\n")
+	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal, — for a kind without one; umbra lit: share of umbra time above threshold;\n")
 	fmt.Fprintf(w, "   albedo only: share of sunlit time valid only because of albedo; off: a two-axis direction that far from the sun)\n")
 	writeBodiesInView(w, u.Sensors)
 	for _, sn := range o.cfg.Array.Sensors() {

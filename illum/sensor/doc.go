@@ -2,9 +2,10 @@
 // sun-vector estimators. Every vector is in body axes; angles in radians.
 //
 // A Mount places a sensor (FaceMount: face, tilt toward a named axis, clock
-// about the boresight; VectorMount: explicit boresight and reference). Three
+// about the boresight; VectorMount: explicit boresight and reference). Four
 // kinds implement Sensor: Cosine (photodiode), Quadrant (four cells under a
-// square aperture) and Digital (aperture over a detector array). An Array
+// square aperture, or beside a shade wall), Digital (a stated accuracy) and
+// ApertureArray (a digital sensor from its geometry). An Array
 // holds the flown set; Array.Read fills a caller-owned []Reading for one
 // instant and the estimators (EstimatorByName: least-squares,
 // opposite-pairs, two-axis, combined) turn it into an Estimate. Draw gives
@@ -70,6 +71,22 @@
 // direction (weight E_alb, only when E_alb ≥ AlbedoThreshold and in the
 // FOV), plus Gaussian noise of the stated σ on each axis angle. Albedo alone
 // above the threshold produces a false sun, as real detectors can.
+//
+// Aperture array (ApertureArray, kind aperture-array): N small apertures in
+// a mask at height h, spanning a square of side A, over a square detector of
+// side D and pixel pitch p. A sun at (tan αx, tan αy) moves every spot by
+// −h·(tan αx, tan αy) (pinhole geometry, closed form); the reading is valid
+// while the whole pattern is on the detector, |tan α| ≤ (D − A)/(2h) per
+// axis, and S·cos θ reaches the threshold. The software inverts the mean
+// spot displacement with the nominal h, after centroid noise of
+// p·σc/(h·√N) on each tan α (mean of N independent centroids of σc pixels;
+// σ on the angle is cos² α times that). Drawn per unit: misalignment, a
+// twist about the boresight, a mask offset δ per axis (a bias atan(δ/h) on
+// the boresight, and the field's edge moved by δ) and a mask height h'
+// (tan α read as tan α·h'/h). Albedo never moves the reading: the sun's
+// radiance (2.0·10⁷ W/m²/sr) is about 4.6·10⁴ times a white Lambertian
+// Earth's under a zenith sun (S/π = 433 W/m²/sr; closed form), so a
+// thresholded centroid finds the sun's spot alone.
 //
 // Blinding (Blindable, BlindRule): a digital sensor's reading is dropped —
 // invalid, not biased — while some of the Moon's disc is inside its cone

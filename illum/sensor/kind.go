@@ -103,6 +103,8 @@ const (
 	SourceTwist          = "twist"
 	SourceShadeSize      = "shade size"
 	SourceTemperature    = "temperature"
+	SourceCentroid       = "centroid noise"
+	SourceMaskHeight     = "mask height"
 )
 
 // ErrorSource is one error source a kind offers the budget. Its 1σ is a

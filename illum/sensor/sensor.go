@@ -250,6 +250,10 @@ func Row(s Sensor) MountRow {
 // for the other kinds the field-of-view cone.
 func ViewText(s Sensor) string {
 	r := Row(s)
+	if a, ok := s.(*ApertureArray); ok {
+		return fmt.Sprintf("valid within ±%.1f° per axis (every spot on the detector), %.4f° 1σ per axis at the boresight from the centroids",
+			a.AxisHalfAngle()*180/math.Pi, a.Sigma()*180/math.Pi)
+	}
 	q, ok := s.(*Quadrant)
 	if !ok {
 		return fmt.Sprintf("field of view %.1f° half-angle (cone containing it)", r.FOVDeg)

@@ -496,7 +496,7 @@ func (d drawer) body(f *File) {
 	} else {
 		n := 1 + d.r.IntN(8)
 		for i := range n {
-			kind := d.pick("cosine", "cosine", "cosine", "quadrant", "digital")
+			kind := d.pick("cosine", "cosine", "cosine", "quadrant", "digital", "aperture-array")
 			b.Sensors = append(b.Sensors, d.sensor(fmt.Sprintf("s%d", i), kind, d.p(0.5)))
 		}
 	}
@@ -582,6 +582,18 @@ func (d drawer) sensor(name, kind string, withErrors bool) Sensor {
 		}
 		s.AccuracyDeg1Sigma = d.ptr(0.05, 1, 3)
 		e = Errors{MisalignmentDeg1Sigma: d.round(d.u(0, 0.3), 3)}
+	case "aperture-array":
+		det := d.round(d.u(3, 8), 2)
+		s.Keys = map[string]any{"mask_height_mm": d.round(d.u(0.5, 3), 2), "detector_size_mm": det}
+		if n := d.pick2(1, 1, 4, 9); n > 1 {
+			s.Keys["apertures"] = n
+			s.Keys["array_size_mm"] = d.round(d.u(0.2, 0.6)*det, 2)
+		}
+		if withErrors && d.p(0.5) {
+			s.Keys["twist_deg_1sigma"] = d.round(d.u(0, 2), 2)
+			s.Keys["mask_height_mm_1sigma"] = d.round(d.u(0, 0.03), 3)
+		}
+		e = Errors{MisalignmentDeg1Sigma: d.round(d.u(0, 0.3), 3), ApertureOffsetMM1Sigma: d.round(d.u(0, 0.03), 4)}
 	}
 	if withErrors {
 		s.Errors = &e

@@ -30,11 +30,14 @@ const (
 	ShadeSize      // quadrant sensors' aperture side or wall distance per axis
 	Albedo
 	Temperature // the sensors' temperatures away from calibration (on/off)
+	Centroid    // aperture-array sensors' centroid noise per spot
+	MaskHeight  // aperture-array sensors' mask height
 	NumSources
 )
 
 var sourceNames = [NumSources]string{"dark offset", "gain mismatch", "noise", "quantisation",
-	"misalignment", "aperture offset", "digital accuracy", "twist", "shade size", "albedo", "temperature"}
+	"misalignment", "aperture offset", "digital accuracy", "twist", "shade size", "albedo", "temperature",
+	"centroid noise", "mask height"}
 
 // String names the source as the tables print it.
 func (s Source) String() string {

@@ -24,6 +24,7 @@ const DefaultMaxDurationS = 6 * 3600
 var referenceSigma = [NumSources]float64{
 	DarkOffset: 0.005, Gain: 0.01, Noise: 0.005, Misalignment: 0.2 * math.Pi / 180,
 	ApertureOffset: 0.02, DigitalNoise: 0.1 * math.Pi / 180, Twist: 1 * math.Pi / 180, ShadeSize: 0.02,
+	Centroid: 0.1, MaskHeight: 0.02,
 }
 
 // tinySigma stands for "no error" in a source held in a kind parameter
@@ -173,8 +174,10 @@ func (r *Runner) Sigma(src Source, scale float64) (float64, string) {
 	switch src {
 	case Misalignment, DigitalNoise, Twist:
 		return v * 180 / math.Pi, "deg"
-	case ApertureOffset, ShadeSize:
+	case ApertureOffset, ShadeSize, MaskHeight:
 		return v, "mm"
+	case Centroid:
+		return v, "px"
 	case DarkOffset, Noise:
 		return v, "of full scale"
 	case Gain:
@@ -218,13 +221,6 @@ func (r *Runner) sensors(c Case) []scenario.Sensor {
 		}
 		if !(c.Scale[Quantisation] > 0) {
 			sc.ADCBits = 0
-		}
-		switch {
-		case !sensor.HasThermalCoefficient(sc.Params):
-		case c.AtTemperature:
-			sc.Params = sensor.AtTemperatureOffset(sc.Params, c.TempOffsetC)
-		case !(c.Scale[Temperature] > 0):
-			sc.Params = sensor.AtTemperatureOffset(sc.Params, 0) // as calibrated
 		}
 		switch {
 		case !sensor.HasThermalCoefficient(sc.Params):

@@ -40,6 +40,12 @@ var kindKeyCases = map[string]kindKeyCase{
 	// Drawn per unit: the key base's two units draw them.
 	"shade_size_mm_1sigma": {value: 0.1},
 	"twist_deg_1sigma":     {value: 2.0},
+	// The aperture array: a count and the array's side act together (one
+	// aperture spans no array, several need a side); the mask-height
+	// tolerance stays below a third of the height.
+	"apertures":             {value: 9.0, with: map[string]any{"apertures": 4.0, "array_size_mm": 1.0}},
+	"array_size_mm":         {value: 2.0, with: map[string]any{"apertures": 4.0, "array_size_mm": 1.0}},
+	"mask_height_mm_1sigma": {value: 0.05},
 }
 
 // kindKeyDeadZone are the keys that act only inside a dead zone: an
@@ -79,13 +85,15 @@ func changedValue(p sensor.Param) (any, bool) {
 // fails here.
 func TestEveryKindKeyHasAnEffect(t *testing.T) {
 	// One sensor of each kind: the key base's cosine c1, quadrant q and
-	// digital d, and a wall quadrant w added here.
+	// digital d, and a wall quadrant w and an aperture array aa added here.
 	names := map[string]string{string(sensor.KindCosine): "c1", string(sensor.KindQuadrant): "q", string(sensor.KindDigital): "d",
-		string(sensor.KindQuadrantWall): "w"}
+		string(sensor.KindQuadrantWall): "w", string(sensor.KindApertureArray): "aa"}
 	base := func() *randscenario.File {
 		f := keyBase()
 		f.Body.Sensors = append(f.Body.Sensors, randscenario.Sensor{Name: "w", Kind: "quadrant-wall", Face: "-Z",
-			Errors: &randscenario.Errors{DarkOffset1Sigma: 0.002, Gain1Sigma: 0.01, Noise1Sigma: 0.001}})
+			Errors: &randscenario.Errors{DarkOffset1Sigma: 0.002, Gain1Sigma: 0.01, Noise1Sigma: 0.001}},
+			randscenario.Sensor{Name: "aa", Kind: "aperture-array", Face: "-Y",
+				Errors: &randscenario.Errors{MisalignmentDeg1Sigma: 0.1, ApertureOffsetMM1Sigma: 0.01}})
 		return f
 	}
 	set := func(f *randscenario.File, name string, keys map[string]any) {

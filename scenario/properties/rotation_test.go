@@ -119,7 +119,7 @@ func (b bodyTurn) file(f *randscenario.File) bool {
 			// A boresight mount picks its own reference axis, which does
 			// not turn with the body: only sensors symmetric about their
 			// boresight can be turned.
-			if s.Kind == "quadrant" || s.FOVShape == "square" || s.Kind == "digital" {
+			if s.Kind != "cosine" {
 				return false
 			}
 			s.Boresight = b.slice(s.Boresight)

@@ -393,7 +393,7 @@ func checkSeeingIsSignal(c *runCase) (f failures) {
 	// ADC steps): the error model is off, as in the definition of seeing.
 	g := c.b.file.Clone()
 	for i := range g.Body.Sensors {
-		if g.Body.Sensors[i].Kind != "digital" { // no converter model: adc_bits is refused there
+		if hasConverter(g.Body.Sensors[i].Kind) { // adc_bits is refused on a kind without a converter model
 			g.Body.Sensors[i].ADCBits = new(int)
 		}
 	}
@@ -681,4 +681,16 @@ func checkNoSunUnused(c *runCase) (f failures) {
 		}
 	}
 	return f
+}
+
+// hasConverter reports whether a sensor kind models an analogue-to-digital
+// converter (it offers the quantisation source).
+func hasConverter(kind string) bool {
+	info, _ := sensor.LookupKind(kind)
+	for _, es := range info.Sources {
+		if es.Name == sensor.SourceQuantisation {
+			return true
+		}
+	}
+	return false
 }

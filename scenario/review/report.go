@@ -436,13 +436,15 @@ func sensorTable(s *scenario.Scenario, cfg sim.Config, res *sim.Result) plots.Ta
 		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of time)", "false sun (% of umbra)",
 			"valid only with albedo (% of sunlit)", fmt.Sprintf("direction > %g° off (%% of sunlit)", res.FalseSunBoundDeg)}}
 	for i, sn := range res.Nominal.Sensors {
-		fs, margin := study.Missing, study.Missing
+		// A kind without a converter model has no full scale and cannot
+		// saturate.
+		fs, margin, sat := study.Missing, study.Missing, study.Missing
 		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
 			f := s.Body.Sensors[i].FullScale
-			fs, margin = num(f, 2), fmt.Sprintf("%.0f", 100*(1-sn.PeakSignal/f))
+			fs, margin, sat = num(f, 2), fmt.Sprintf("%.0f", 100*(1-sn.PeakSignal/f)), pct(sn.SaturatedFraction)
 		}
 		t.Rows = append(t.Rows, []string{sn.Name, pct(sn.InViewFraction), num(sn.PeakSignal, 3), fs, margin,
-			pct(sn.SaturatedFraction), pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction)})
+			sat, pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction)})
 	}
 	// Four-quadrant sensors: where their readings can be valid (the
 	// validity gate), where light still reaches a cell, and the dead zone.

@@ -333,6 +333,12 @@ type acrossRecord struct {
 	UnitsWithoutEstimate int `json:"units_without_estimate"`
 	// P95OfUnitP95CorrectedDeg: after the on-board albedo correction.
 	P95OfUnitP95CorrectedDeg num `json:"p95_of_unit_p95_error_onboard_corrected_deg"`
+	// The false suns over the units: units with one in umbra, and the
+	// largest shares of any unit.
+	UnitsWithFalseSun       int `json:"units_with_false_sun_in_umbra"`
+	WorstFalseSunFraction   num `json:"worst_unit_false_sun_fraction_of_umbra"`
+	WorstAlbedoOnlyFraction num `json:"worst_unit_albedo_only_fraction"`
+	WorstWrongFraction      num `json:"worst_unit_wrong_fraction"`
 }
 
 // skyRecord is the layout's sky coverage: the share of the body-frame sky
@@ -393,7 +399,8 @@ func (o *runOutput) record() runRecord {
 			p[i] = num(v)
 		}
 		across = append(across, acrossRecord{a.Name, num(a.P50OfUnitP95Deg), num(a.P95OfUnitP95Deg), num(a.WorstUnitP95Deg),
-			num(a.MinValidFraction), p, a.UnitsWithoutEstimate, num(a.P95OfUnitP95CorrectedDeg)})
+			num(a.MinValidFraction), p, a.UnitsWithoutEstimate, num(a.P95OfUnitP95CorrectedDeg),
+			a.UnitsWithFalseSun, num(a.WorstFalseSunFraction), num(a.WorstAlbedoOnlyFraction), num(a.WorstWrongFraction)})
 	}
 	es := r.EclipseStats
 	v := study.Judge(o.allTargets())
@@ -538,6 +545,10 @@ func (o *runOutput) writeSummary(w io.Writer) {
 			if a.UnitsWithoutEstimate > 0 {
 				fmt.Fprintf(w, "  %-16s (%d of %d units never had a valid estimate: they count as the worst, — where they decide)\n", "",
 					a.UnitsWithoutEstimate, len(r.Units))
+			}
+			if a.UnitsWithFalseSun > 0 || a.WorstAlbedoOnlyFraction > 0 || a.WorstWrongFraction > 0 {
+				fmt.Fprintf(w, "  %-16s worst unit: false sun in umbra %s (%d of %d units have one), valid only with albedo %s, valid > %g° off %s\n", "",
+					pct(a.WorstFalseSunFraction), a.UnitsWithFalseSun, len(r.Units), pct(a.WorstAlbedoOnlyFraction), r.FalseSunBoundDeg, pct(a.WorstWrongFraction))
 			}
 		}
 	}

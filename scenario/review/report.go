@@ -347,11 +347,15 @@ func headline(s *scenario.Scenario, cfg sim.Config, res *sim.Result) ([]plots.He
 		rows = append(rows, row("Valid only because of albedo (false sun)", pct(e.AlbedoOnlyFraction), "% of sunlit time"))
 	}
 	rows = append(rows, row(fmt.Sprintf("Valid but more than %g° off (false sun)", res.FalseSunBoundDeg), pct(e.WrongFraction), "% of sunlit time"))
-	if cfg.NewAlbedo != nil {
-		rows = append(rows, row("False sun in umbra (no direct sun)", pct(e.FalseSunFraction), "% of umbra time"))
-	}
+	// Sensor errors light the umbra measure with or without albedo (which
+	// alone cannot, on a spherical Earth).
+	rows = append(rows, row("False sun in umbra (no direct sun)", pct(e.FalseSunFraction), "% of umbra time"))
 	if len(res.AcrossUnits) > 0 {
 		au := res.AcrossUnits[0]
+		if au.UnitsWithFalseSun > 0 {
+			rows = append(rows, row(fmt.Sprintf("False sun in umbra, worst of %d units (%d have one)", len(res.Units), au.UnitsWithFalseSun),
+				pct(au.WorstFalseSunFraction), "% of umbra time"))
+		}
 		u := row(fmt.Sprintf("p95 error reached by 95 %% of %d units (%s)", len(res.Units), which), num(au.P95OfUnitP95Deg, 2), "deg")
 		if study.JudgedFigures(s, h).Corrected {
 			u.Label = fmt.Sprintf("p95 error reached by 95 %% of %d units (on-board corrected)", len(res.Units))

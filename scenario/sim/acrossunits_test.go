@@ -46,3 +46,21 @@ func TestAcrossUnitsCountsUnitsWithoutEstimateAsWorst(t *testing.T) {
 		t.Errorf("all units valid: p95 %v worst %v missing %d; want 19, 20, 0", a.P95OfUnitP95Deg, a.WorstUnitP95Deg, a.UnitsWithoutEstimate)
 	}
 }
+
+// The false suns over the units: the count of units with one in umbra
+// and the largest share of any unit, whichever unit it is (unit 0, whose
+// errors are one draw, shows none here; counting).
+func TestAcrossUnitsFalseSuns(t *testing.T) {
+	umbra := []float64{0, 0, 0.5, 1, 0.05}
+	var units []*UnitResult
+	for i, f := range umbra {
+		e := EstimatorStats{Name: "e", ValidFraction: 0.9, FalseSunFraction: f, AlbedoOnlyFraction: 0.01 * float64(i), WrongFraction: 0.1 * float64(4-i)}
+		e.ErrAlbedo.P95Deg, e.ErrNoAlbedo.P95Deg = math.NaN(), 1
+		units = append(units, &UnitResult{Unit: i, Estimators: []EstimatorStats{e}})
+	}
+	a := acrossUnits(units)[0]
+	if a.UnitsWithFalseSun != 3 || a.WorstFalseSunFraction != 1 || a.WorstAlbedoOnlyFraction != 0.04 || a.WorstWrongFraction != 0.4 {
+		t.Errorf("units with a false sun %d, worst %v, albedo only %v, wrong %v; want 3, 1, 0.04, 0.4",
+			a.UnitsWithFalseSun, a.WorstFalseSunFraction, a.WorstAlbedoOnlyFraction, a.WorstWrongFraction)
+	}
+}

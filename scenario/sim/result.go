@@ -251,6 +251,14 @@ type AcrossUnits struct {
 	// on-board model), units without a valid corrected estimate counted
 	// as the worst.
 	P95OfUnitP95CorrectedDeg float64
+	// The false suns over the units (each unit's EstimatorStats figures):
+	// UnitsWithFalseSun counts the units with a valid estimate at some
+	// umbra sample, WorstFalseSunFraction is the largest share of umbra
+	// time, WorstAlbedoOnlyFraction and WorstWrongFraction the largest
+	// shares of sunlit time valid only with albedo and valid beyond the
+	// false-sun bound. Unit 0 alone can hide them: its errors are one draw.
+	UnitsWithFalseSun                                                  int
+	WorstFalseSunFraction, WorstAlbedoOnlyFraction, WorstWrongFraction float64
 }
 
 func errorStats(m *Moments, q *Quantiles) ErrorStats {
@@ -762,6 +770,12 @@ func acrossUnits(units []*UnitResult) []AcrossUnits {
 				au.UnitsWithoutEstimate++
 			}
 			au.MinValidFraction = math.Min(au.MinValidFraction, e.ValidFraction)
+			if e.FalseSunFraction > 0 {
+				au.UnitsWithFalseSun++
+			}
+			au.WorstFalseSunFraction = max(au.WorstFalseSunFraction, e.FalseSunFraction)
+			au.WorstAlbedoOnlyFraction = max(au.WorstAlbedoOnlyFraction, e.AlbedoOnlyFraction)
+			au.WorstWrongFraction = max(au.WorstWrongFraction, e.WrongFraction)
 			if e.Corrected != nil {
 				corr = append(corr, e.Corrected.Err.P95Deg)
 			}

@@ -520,14 +520,17 @@ func (o *runOutput) writeSummary(w io.Writer) {
 			pct(c.AtLeast[1]), pct(c.AtLeast[2]), pct(c.AtLeast[3]), pct(c.WorstOneFailed[1]))
 	}
 	fmt.Fprintf(w, "\nSun-vector estimate (sunlit time; errors to the true sun)\n")
-	fmt.Fprintf(w, "  %-16s %8s %9s %13s %11s %12s %9s %10s\n", "estimator", "valid", "max gap", "p95 no albedo", "p95 albedo", "albedo part", "max", "false sun")
+	// The false suns have a table of their own below (a "false sun"
+	// column here, of umbra time alone, read as "no false suns" beside
+	// estimates valid but far off in sunlight).
+	fmt.Fprintf(w, "  %-16s %8s %9s %13s %11s %12s %9s\n", "estimator", "valid", "max gap", "p95 no albedo", "p95 albedo", "albedo part", "max")
 	for _, e := range u.Estimators {
 		mx := e.ErrNoAlbedo.MaxDeg
 		if e.ErrAlbedo.N > 0 {
 			mx = e.ErrAlbedo.MaxDeg
 		}
-		fmt.Fprintf(w, "  %-16s %8s %7.0f s %13s %11s %12s %9s %10s\n", e.Name, pct(e.ValidFraction), e.LongestGapS,
-			deg(e.ErrNoAlbedo.P95Deg), deg(e.ErrAlbedo.P95Deg), deg(e.AlbedoPart.P95Deg), deg(mx), pct(e.FalseSunFraction))
+		fmt.Fprintf(w, "  %-16s %8s %7.0f s %13s %11s %12s %9s\n", e.Name, pct(e.ValidFraction), e.LongestGapS,
+			deg(e.ErrNoAlbedo.P95Deg), deg(e.ErrAlbedo.P95Deg), deg(e.AlbedoPart.P95Deg), deg(mx))
 	}
 	o.writeFilter(w)
 	o.writeOnboard(w)
@@ -565,8 +568,9 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s %12s %12s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, sat,
 			pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction))
 	}
-	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal, — for a kind without one; umbra lit: share of umbra time above threshold;\n")
-	fmt.Fprintf(w, "   albedo only: share of sunlit time valid only because of albedo; off: a two-axis direction that far from the sun)\n")
+	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal, — for a kind without one; saturated: share of sunlit time\n")
+	fmt.Fprintf(w, "   at full scale; umbra lit: share of umbra time above threshold;")
+	fmt.Fprintf(w, " albedo only: share of sunlit time valid only because of albedo;\n   off: a two-axis direction that far from the sun)\n")
 	writeBodiesInView(w, u.Sensors)
 	for _, sn := range o.cfg.Array.Sensors() {
 		if q, ok := sn.(*sensor.Quadrant); ok {

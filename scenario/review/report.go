@@ -437,7 +437,7 @@ func estimatorTable(res *sim.Result) plots.Table {
 // scale, saturation and false sun.
 func sensorTable(s *scenario.Scenario, cfg sim.Config, res *sim.Result) plots.Table {
 	t := plots.Table{Title: "Sensors (signal 1 = normal sun at 1 AU)",
-		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of time)", "false sun (% of umbra)",
+		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of sunlit)", "false sun (% of umbra)",
 			"valid only with albedo (% of sunlit)", fmt.Sprintf("direction > %g° off (%% of sunlit)", res.FalseSunBoundDeg)}}
 	for i, sn := range res.Nominal.Sensors {
 		// A kind without a converter model has no full scale and cannot

@@ -91,7 +91,8 @@ type SensorStats struct {
 	// InViewFraction is the fraction of sunlit time with the sun in view.
 	InViewFraction float64
 	// PeakSignal is the largest reading (normalised signal, with albedo when
-	// modelled); SaturatedFraction the fraction of samples at full scale.
+	// modelled); SaturatedFraction the fraction of sunlit time at full
+	// scale.
 	PeakSignal        float64
 	SaturatedFraction float64
 	// FalseSunFraction is the fraction of umbra time above threshold.
@@ -396,7 +397,7 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		if r.Signal > a.peak[i] {
 			a.peak[i] = r.Signal
 		}
-		if r.Saturated {
+		if r.Saturated && sunlit {
 			a.saturated[i]++
 		}
 		if region == illum.Umbra && r.Valid {
@@ -711,7 +712,7 @@ func (a *unitAcc) result() *UnitResult {
 	}
 	for i, name := range a.names {
 		r.Sensors = append(r.Sensors, SensorStats{Name: name, InViewFraction: frac(a.inView[i], a.sunlit),
-			PeakSignal: a.peak[i], SaturatedFraction: frac(a.saturated[i], a.samples),
+			PeakSignal: a.peak[i], SaturatedFraction: frac(a.saturated[i], a.sunlit),
 			FalseSunFraction: frac(a.falseSunSensor[i], a.umb), AlbedoOnlyFraction: frac(a.sensorAlbedoOnly[i], a.sunlit),
 			MoonInViewFraction: frac(a.moonInView[i], a.samples), LitEarthInViewFraction: frac(a.litEarthInView[i], a.samples),
 			BlindedFraction: math.NaN(), WrongFraction: math.NaN()})

@@ -52,13 +52,14 @@ func TestCheckErrors(t *testing.T) {
 
 // check prints where each sensor can see the sun: for a quadrant sensor its
 // linear range, its detection range and its dead zone (the wall example:
-// atan(2.31/4) = 30.0°).
+// flat to atan(2.31/4) = 30.0°, read as straight above while the imbalance
+// is below 0.03, to atan((2.31 + 6·0.03/1.03)/4) = 31.8°; closed form).
 func TestCheckPrintsQuadrantRanges(t *testing.T) {
 	var out, errb bytes.Buffer
 	if code := runMain([]string{"check", "../../examples/hobby-3u-quadrants.yaml"}, &out, &errb); code != 0 {
 		t.Fatalf("check exit %d: %s", code, errb.String())
 	}
-	for _, want := range []string{"#   wall-fwd: valid within ±52.6° per axis", "light on the cells to ±90.0°, dead zone ±30.0° (imbalance below 0.030; reads straight-above there)",
+	for _, want := range []string{"#   wall-fwd: valid within ±52.6° per axis", "light on the cells to ±90.0°, dead zone ±31.8° (flat to ±30.0°, imbalance below 0.030 to ±31.8°; reads straight-above there)",
 		"#   quad-zenith: valid within ±36.9° per axis", "light on the cells to ±68.5°, no dead zone"} {
 		if !strings.Contains(out.String(), want) {
 			t.Errorf("check output lacks %q:\n%s", want, out.String())

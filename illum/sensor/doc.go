@@ -41,8 +41,10 @@
 // Validity gate of a quadrant (what a flight algorithm checks, margins as
 // keys): no sun when the cell sum is below the threshold or a cell is at
 // full scale; each axis' |X| must lie within the calibrated linear range
-// less imbalance_margin (aperture: the spot straddling the gap and wholly
-// on the detector; wall: until the shadow covers the near cell), and
+// less imbalance_margin (aperture: the spot straddling the gap, for a spot
+// wider than a cell also after its outer edge leaves the detector, the far
+// cell wholly lit and X = (c − l)/(c + l) still rising to 1; wall: until the
+// shadow covers the near cell), and
 // |X| < 1; the cell sum must lie within ±signal_margin of the sum the
 // nominal geometry expects for a sun at the reference irradiance in the
 // measured direction (rejects a partial spot, penumbra and readings swamped
@@ -52,8 +54,12 @@
 // dead-zone half-angle, with Reading.Sigma = atan(tan δ/√3) so the weighted
 // estimators trust it less) or no sun (dead_zone: no-sun). The ranges:
 // LinearHalfAngle (valid readings), DetectionHalfAngle (light on a cell;
-// 90° for a wall) and DeadZoneHalfAngle, per sensor axis; ViewText prints
-// them. half_angle_deg is refused for both quadrant kinds: their view
+// 90° for a wall), DeadZoneHalfAngle (the flat part) and
+// DeadZoneReadHalfAngle (where |X| ≤ dead_zone_imbalance, the zone the
+// readings take the dead-zone rule in, and the δ of its Reading.Sigma), per
+// sensor axis; ViewText prints them. A geometry without a dead zone refuses
+// the dead-zone keys; one that can never give a valid reading (w ≤ g) is
+// refused. half_angle_deg is refused for both quadrant kinds: their view
 // follows from the geometry. Error sources: per-cell dark offsets and gains,
 // noise, ADC, misalignment, aperture or wall offset, a twist about the
 // boresight drawn per unit, and a shade that is not square: the aperture

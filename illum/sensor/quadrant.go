@@ -118,12 +118,16 @@ type Quadrant struct {
 	sizeX   float64 // the unit's aperture side or wall distance along x
 	sizeY   float64 // and along y
 	norm    float64 // area that gives a cell sum of 1 (w² or 4c²)
-	tanDead float64 // per-axis tangent of the dead-zone half-angle
-	tanLin  float64 // per-axis tangent where the calibrated linear range ends
-	xLin    float64 // imbalance there
-	tanDet  float64 // per-axis tangent where light stops reaching a cell (+Inf: never)
-	sigma   float64 // stated or derived 1σ per axis
-	deadX   float64 // dead-zone imbalance threshold (stated or derived)
+	tanDead float64 // per-axis tangent of the dead-zone half-angle (the flat part of the transfer)
+	// tanDeadRead: the tangent up to which an axis reads as in the dead
+	// zone (its imbalance at most deadX), beyond tanDead; 0 without one.
+	tanDeadRead float64
+	tanLin      float64 // per-axis tangent where the calibrated linear range ends
+	tanOn       float64 // aperture: where the closed form X = 2h·tan α/(w − g) ends (spot straddling the gap, wholly on the detector)
+	xLin        float64 // imbalance there
+	tanDet      float64 // per-axis tangent where light stops reaching a cell (+Inf: never)
+	sigma       float64 // stated or derived 1σ per axis
+	deadX       float64 // dead-zone imbalance threshold (stated or derived)
 }
 
 // NewQuadrant checks the spec and returns an ideal unit.
@@ -183,6 +187,13 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 		q.sigma = q.derivedSigma()
 	}
 	q.deadX = s.DeadZoneImbalance
+	if q.xLin <= s.ImbalanceMargin {
+		return nil, fmt.Errorf("sensor: %q: no reading can be valid: an aperture (%g mm) no wider than the gap (%g mm) never lights two cells at once; widen the aperture or narrow the gap",
+			s.Name, s.ApertureSide, s.Gap)
+	}
+	if q.tanDead > 0 {
+		q.tanDeadRead = q.invert(math.Min(q.deadX, q.xLin))
+	}
 	return q, nil
 }
 
@@ -222,11 +233,15 @@ func (q *Quadrant) shape() {
 	switch {
 	case w <= g: // the spot never straddles the gap: no linear range
 		q.tanLin, q.xLin = 0, 0
-	case w <= 2*c+g: // straddling the gap and wholly on the detector
-		q.tanLin = math.Min((w-g)/2, c+g/2-w/2) / h
-		q.xLin = 2 * h * q.tanLin / (w - g)
-	default: // both cells lit until the spot edge crosses the gap
+	default:
+		// Both cells lit until the spot's inner edge crosses the gap, at
+		// X = 1. A spot wider than a cell leaves the detector first, at
+		// tan α = (c + g/2 − w/2)/h; beyond, the far cell stays wholly lit
+		// (r = c) while the near one's lit length l falls, so
+		// X = (c − l)/(c + l) still rises monotonically to 1 (elementary
+		// geometry): the range is inverted by bisection there.
 		q.tanLin, q.xLin = (w-g)/(2*h), 1
+		q.tanOn = math.Max(0, math.Min((w-g)/2, c+g/2-w/2)/h)
 	}
 }
 
@@ -415,7 +430,7 @@ func (q *Quadrant) invert(ax float64) float64 {
 		return (s.WallDistance + sh) / s.Height
 	}
 	w, g := s.ApertureSide, s.Gap
-	if t := ax * (w - g) / (2 * s.Height); t <= q.tanLin && q.tanDead == 0 {
+	if t := ax * (w - g) / (2 * s.Height); t <= q.tanOn && q.tanDead == 0 {
 		return t
 	}
 	lo, hi := q.tanDead, q.tanLin
@@ -456,6 +471,13 @@ func (q *Quadrant) axisAngle(x float64) (t float64, ok, dead bool) {
 // round the boresight, where the imbalance stays zero: atan(d/H) for a wall,
 // atan((w − 2c − g)/2h) for an aperture wider than the detector, else 0.
 func (q *Quadrant) DeadZoneHalfAngle() float64 { return math.Atan(q.tanDead) }
+
+// DeadZoneReadHalfAngle returns the per-axis half-angle (rad) up to which
+// a reading takes the dead-zone rule (straight-above or no sun): the
+// imbalance stays within DeadZoneImbalance of zero a little beyond the
+// flat part, to the angle the nominal transfer reaches it (0 without a
+// dead zone).
+func (q *Quadrant) DeadZoneReadHalfAngle() float64 { return math.Atan(q.tanDeadRead) }
 
 // LinearHalfAngle returns the per-axis half-angle (rad) up to which a
 // reading can be valid: where the imbalance reaches the end of the
@@ -606,7 +628,7 @@ func (q *Quadrant) decide(out *Reading) {
 	out.Dir = q.spec.Mount.ToBody(d)
 	out.Valid = true
 	if deadX || deadY {
-		out.Sigma = math.Max(q.sigma, math.Atan(q.tanDead/math.Sqrt(3)))
+		out.Sigma = math.Max(q.sigma, math.Atan(q.tanDeadRead/math.Sqrt(3)))
 	}
 }
 
@@ -687,6 +709,41 @@ func init() {
 }
 
 func buildQuadrant(c Common, p Params) (Sensor, error) {
+	q, err := newQuadrantFrom(c, p)
+	if err != nil {
+		return nil, err
+	}
+	// The dead-zone keys act only where the geometry has a dead zone.
+	if q.tanDead == 0 {
+		for _, k := range []string{"dead_zone", "dead_zone_imbalance"} {
+			if given(p, k) {
+				fix := "widen aperture_mm beyond 2·cell_size_mm + gap_mm"
+				if q.spec.Geometry == GeometryWall {
+					fix = "give wall_distance_mm > 0"
+				}
+				return nil, fmt.Errorf("sensor: %q: %s: this geometry has no dead zone, so the key would change nothing; remove it, or %s", c.Name, k, fix)
+			}
+		}
+	}
+	return q, nil
+}
+
+// given reports whether the kind parameter key has a value other than its
+// registry default (a default stated in the file changes nothing either).
+func given(p Params, key string) bool {
+	for _, d := range quadrantGateParams {
+		if d.Key != key {
+			continue
+		}
+		if d.Type == Choice {
+			return p.Text[key] != "" && p.Text[key] != d.Choices[0]
+		}
+		return p.Num[key] != d.Default*ScaleOr1(d.Scale)
+	}
+	return false
+}
+
+func newQuadrantFrom(c Common, p Params) (*Quadrant, error) {
 	spec := QuadrantSpec{Name: c.Name, Mount: c.Mount, Height: p.Num["shade_height_mm"], CellSide: p.Num["cell_size_mm"],
 		Threshold: c.Threshold, SignalMargin: p.Num["signal_margin"], ImbalanceMargin: p.Num["imbalance_margin"],
 		DeadZoneImbalance: p.Num["dead_zone_imbalance"], Sigma: p.Num["accuracy_deg_1sigma"],

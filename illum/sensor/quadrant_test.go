@@ -3,6 +3,7 @@ package sensor
 import (
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -296,5 +297,107 @@ func BenchmarkQuadrantGeometries(b *testing.B) {
 				q.Read(sun, SolarConstant, Albedo{}, rng)
 			}
 		})
+	}
+}
+
+// An aperture wider than a cell but narrower than the detector (c < w ≤
+// 2c + g): once the spot's outer edge leaves the detector the far cell
+// stays fully lit (r = c) while the near one's lit length l = w/2 − x₀ − g/2
+// falls, so X = (c − l)/(c + l) still rises monotonically to 1 at
+// tan α = (w − g)/(2h) (elementary geometry). The linear range therefore
+// ends there, as for any w > c, and does not collapse toward 0 as w nears
+// 2c + g (it printed ±0.0° at w = 4.0 mm over 2 mm cells, ±58.4° at 4.11).
+func TestQuadrantWideApertureKeepsItsRange(t *testing.T) {
+	const h, c, g = 1.2, 2.0, 0.1
+	prev := 0.0
+	for _, w := range []float64{2.5, 3, 3.5, 4.0, 4.1} {
+		q := quad(t, w, h, c, g, Errors{})
+		// Transfer against the closed form beyond the spot leaving the detector.
+		x0 := (c + g/2 - w/2 + (w-g)/2) / 2 // halfway through the second phase
+		l := w/2 - x0 - g/2
+		if got, want := q.Transfer(x0/h), (c-l)/(c+l); math.Abs(math.Abs(got)-want) > 1e-12 {
+			t.Errorf("w=%g: transfer %g at tan %g, want ±%g", w, got, x0/h, want)
+		}
+		if got := q.LinearImbalance(); got != 1 {
+			t.Errorf("w=%g: linear range ends at X = %g, want 1", w, got)
+		}
+		lin := q.LinearHalfAngle() / deg
+		if !(lin > prev) {
+			t.Errorf("w=%g: valid range ±%.2f° is not wider than at the narrower aperture (±%.2f°)", w, lin, prev)
+		}
+		prev = lin
+		// A noise-free reading in the second phase inverts exactly.
+		a := math.Atan(x0 / h)
+		sun := sunAt(a, 0)
+		r := q.Read(sun, SolarConstant, Albedo{}, nil)
+		if !r.Valid || angle(r.Dir, sun) > 1e-9 {
+			t.Errorf("w=%g: sun at %.2f° reads valid %v, %g rad off", w, a/deg, r.Valid, angle(r.Dir, sun))
+		}
+	}
+}
+
+// The dead zone as the readings see it: a wall H = 4 mm high, cells 3 mm
+// wide 2.31 mm from it, is flat to atan(2.31/4) = 30.0°, and its imbalance
+// stays below dead_zone_imbalance 0.03 until the shadow reaches
+// s = 2c·X/(1 + X) = 0.1748 mm into the near cell, tan α = (d + s)/H,
+// 31.85° (closed form of X = s/(2c − s)). A reading there still says
+// "straight above", and its own σ is taken over that wider zone.
+func TestQuadrantDeadZoneAsRead(t *testing.T) {
+	m, _ := FaceMount(FacePlusZ, 0, FaceNone, 0)
+	q, err := NewQuadrant(QuadrantSpec{Name: "w", Mount: m, Geometry: GeometryWall, Height: 4, CellSide: 3, WallDistance: 2.31,
+		Threshold: 1e-3, ImbalanceMargin: 0.05, DeadZoneImbalance: 0.03, Sigma: 0.5 * deg})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := 2 * 3 * 0.03 / 1.03
+	want := math.Atan((2.31 + s) / 4)
+	if got := q.DeadZoneReadHalfAngle(); math.Abs(got-want) > 1e-9 {
+		t.Errorf("dead zone as read ±%.4f°, want ±%.4f°", got/deg, want/deg)
+	}
+	if got := q.DeadZoneHalfAngle(); math.Abs(got-math.Atan(2.31/4)) > 1e-12 {
+		t.Errorf("flat part ±%.4f°, want ±%.4f°", got/deg, math.Atan(2.31/4)/deg)
+	}
+	r := q.Read(sunAt(want-0.05*deg, 0), SolarConstant, Albedo{}, nil)
+	if !r.Valid || math.Abs(r.Sigma-math.Atan(math.Tan(want)/math.Sqrt(3))) > 1e-12 {
+		t.Errorf("at %.2f°: %+v; want a straight-above reading with σ = atan(tan δ/√3) of the zone as read", (want-0.05*deg)/deg, r)
+	}
+	if !strings.Contains(ViewText(q), "dead zone ±31.8° (flat to ±30.0°") {
+		t.Errorf("view text %q does not give the zone as read", ViewText(q))
+	}
+}
+
+// The dead-zone keys on a geometry without a dead zone would change
+// nothing: they are refused, naming the key and the fix; their defaults
+// are accepted.
+func TestQuadrantDeadZoneKeysNeedADeadZone(t *testing.T) {
+	m, _ := FaceMount(FacePlusZ, 0, FaceNone, 0)
+	base := func(geometryKeys map[string]float64) Params {
+		p := Params{Num: map[string]float64{"shade_height_mm": 1, "cell_size_mm": 2, "gap_mm": 0.1, "aperture_mm": 0,
+			"signal_margin": 0.2, "imbalance_margin": 0.05, "dead_zone_imbalance": 0.03}, Text: map[string]string{"dead_zone": "straight-above"}}
+		for k, v := range geometryKeys {
+			p.Num[k] = v
+		}
+		return p
+	}
+	c := Common{Name: "q", Mount: m, Threshold: 0.01}
+	if _, err := buildQuadrant(c, base(nil)); err != nil {
+		t.Fatalf("defaults refused: %v", err)
+	}
+	p := base(nil)
+	p.Text["dead_zone"] = "no-sun"
+	if _, err := buildQuadrant(c, p); err == nil || !strings.Contains(err.Error(), "dead_zone: this geometry has no dead zone") {
+		t.Errorf("dead_zone no-sun on a one-cell aperture: %v", err)
+	}
+	p = base(map[string]float64{"dead_zone_imbalance": 0.1})
+	if _, err := buildQuadrant(c, p); err == nil || !strings.Contains(err.Error(), "widen aperture_mm") {
+		t.Errorf("dead_zone_imbalance on a one-cell aperture: %v", err)
+	}
+	p = base(map[string]float64{"aperture_mm": 5, "dead_zone_imbalance": 0.1})
+	if _, err := buildQuadrant(c, p); err != nil {
+		t.Errorf("dead_zone_imbalance on a 5 mm aperture (a dead zone): %v", err)
+	}
+	p = base(map[string]float64{"wall_distance_mm": 0, "dead_zone_imbalance": 0.1})
+	if _, err := buildQuadrant(c, p); err == nil || !strings.Contains(err.Error(), "wall_distance_mm > 0") {
+		t.Errorf("dead_zone_imbalance on a wall at distance 0: %v", err)
 	}
 }

@@ -220,6 +220,9 @@ type MountRow struct {
 	// half-angle up to which a reading can be valid, the half-angle up to
 	// which light reaches a cell, and the dead zone round the boresight.
 	LinearDeg, DetectionDeg, DeadZoneDeg float64
+	// DeadZoneReadDeg: the half-angle up to which readings take the dead
+	// zone's rule (the imbalance within dead_zone_imbalance of zero).
+	DeadZoneReadDeg float64
 }
 
 // Row returns the mount-table row of a sensor.
@@ -240,6 +243,7 @@ func Row(s Sensor) MountRow {
 		row.LinearDeg = q.LinearHalfAngle() * 180 / math.Pi
 		row.DetectionDeg = q.DetectionHalfAngle() * 180 / math.Pi
 		row.DeadZoneDeg = q.DeadZoneHalfAngle() * 180 / math.Pi
+		row.DeadZoneReadDeg = q.DeadZoneReadHalfAngle() * 180 / math.Pi
 	}
 	return row
 }
@@ -260,7 +264,8 @@ func ViewText(s Sensor) string {
 	}
 	dz := "no dead zone"
 	if r.DeadZoneDeg > 0 {
-		dz = fmt.Sprintf("dead zone ±%.1f° (imbalance below %.3f; reads %s there)", r.DeadZoneDeg, q.DeadZoneImbalance(), q.spec.DeadZone)
+		dz = fmt.Sprintf("dead zone ±%.1f° (flat to ±%.1f°, imbalance below %.3f to ±%.1f°; reads %s there)",
+			r.DeadZoneReadDeg, r.DeadZoneDeg, q.DeadZoneImbalance(), r.DeadZoneReadDeg, q.spec.DeadZone)
 	}
 	return fmt.Sprintf("valid within ±%.1f° per axis (linear range less the imbalance margin), light on the cells to ±%.1f°, %s",
 		r.LinearDeg, r.DetectionDeg, dz)

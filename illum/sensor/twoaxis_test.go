@@ -3,6 +3,7 @@ package sensor
 import (
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -99,16 +100,17 @@ func TestQuadrantInversion(t *testing.T) {
 }
 
 // Closed form: a spot (w = 0.2) narrower than the gap (0.5) lights no cell
-// near the boresight, then falls wholly on one cell: no angle anywhere.
+// near the boresight, then falls wholly on one cell: no angle anywhere. Such
+// a sensor can never give a valid reading, so it is refused (a file with
+// it was accepted and printed "valid within ±0.0°"); so is a gap as wide as
+// the cells under the default one-cell aperture.
 func TestQuadrantInsensitiveZone(t *testing.T) {
-	q := quad(t, 0.2, 1, 2, 0.5, Errors{})
-	if r := q.Read(r3.Vec{Z: 1}, SolarConstant, Albedo{}, nil); r.Valid || r.Signal != 0 {
-		t.Errorf("boresight: %+v, want no light", r)
-	}
-	// Spot centre at −h tan α = −0.3: spot [−0.4, −0.2] lies wholly on the left cells.
-	r := q.Read(sunAt(math.Atan(0.3), math.Atan(0.3)), SolarConstant, Albedo{}, nil)
-	if r.Valid || r.Signal == 0 {
-		t.Errorf("one cell lit: %+v, want light and no valid reading", r)
+	m, _ := FaceMount(FacePlusZ, 0, FaceNone, 0)
+	for _, c := range []struct{ w, cell, gap float64 }{{0.2, 2, 0.5}, {2, 2, 2}} {
+		_, err := NewQuadrant(QuadrantSpec{Name: "q", Mount: m, ApertureSide: c.w, Height: 1, CellSide: c.cell, Gap: c.gap, Threshold: 1e-3, Sigma: deg})
+		if err == nil || !strings.Contains(err.Error(), "no reading can be valid") {
+			t.Errorf("aperture %g over %g mm cells, gap %g: %v; want a refusal", c.w, c.cell, c.gap, err)
+		}
 	}
 }
 

@@ -18,7 +18,8 @@ func init() {
 	register(command{name: "layout", summary: "find the fewest candidate sun sensors that meet the targets", args: "[flags] FILE",
 		about: `Searches the candidate mounts of body.candidates in the scenario FILE (- reads standard
 input) for the fewest sensors that meet its targets in its attitude and every mode (exact
-branch and bound). The exit status is 3 when no subset meets the targets.`,
+branch and bound; the sky coverage is judged on the lattice run uses, so the chosen set
+passes run's coverage target with the coverage printed here). The exit status is 3 when no subset meets the targets.`,
 		examples: []string{"sunsight layout examples/layout-6u.yaml", "sunsight layout examples/layout-6u.yaml --top 10 --out layout-out"},
 		run:      runLayout})
 }
@@ -28,7 +29,6 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	maxSensors := fs.Int("max-sensors", 0, "largest subset tried (`N`; 0 = all candidates)")
 	top := fs.Int("top", 5, "ranked alternatives to report (`K`)")
 	out := fs.String("out", "", "folder for layout.json (`DIR`, optional)")
-	points := fs.Int("sky-points", layout.DefaultPoints, "sky lattice points for the coverage bound (`N`)")
 	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; the answer is then not proven)")
 	force := fs.Bool("force", false, "replace an earlier --out folder")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
@@ -39,8 +39,8 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	if len(pos) != 1 {
 		return usagef("want one scenario file; usage: sunsight layout FILE [--max-sensors N] [--top K] [--out DIR]")
 	}
-	if *maxSensors < 0 || *top < 1 || *points < 1 || *maxRuns < 0 {
-		return usagef("--max-sensors ≥ 0, --top ≥ 1, --sky-points ≥ 1 and --max-runs ≥ 0 are required")
+	if *maxSensors < 0 || *top < 1 || *maxRuns < 0 {
+		return usagef("--max-sensors ≥ 0, --top ≥ 1 and --max-runs ≥ 0 are required")
 	}
 	if *out != "" {
 		if err := checkOutputDir(*out, *force); err != nil {
@@ -76,7 +76,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	t := s.Targets
 	res, err := layout.Search(ctx, layout.Problem{
 		Viewers: viewers, CoverageSensors: t.CoverageSensors, MinCoverage: t.MinCoverage,
-		SurviveOneFailure: t.SurviveOneFailure, MaxSensors: *maxSensors, Top: *top, Points: *points,
+		SurviveOneFailure: t.SurviveOneFailure, MaxSensors: *maxSensors, Top: *top, Points: layout.DefaultPoints,
 		MaxEvaluations: *maxRuns, Evaluate: eval,
 	})
 	if err != nil {
@@ -90,6 +90,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		return strings.Join(n, " ")
 	}
 	fmt.Fprintf(stdout, "layout search: %d candidates, %d subsets simulated, %d branches pruned by sky coverage\n", len(cands), res.Evaluated, res.Pruned)
+	fmt.Fprintf(stdout, "sky coverage judged on the %d-point sky lattice run uses (a share resolved to about %.1e)\n", layout.DefaultPoints, layout.Resolution(layout.DefaultPoints))
 	if !res.Exhausted {
 		fmt.Fprintln(stdout, "warning: --max-runs reached; the answer below is not proven to be the fewest sensors")
 	}
@@ -110,7 +111,10 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	for _, c := range res.Front {
 		fmt.Fprintf(stdout, "%7d  %8.4f  %7s  %-5v  %s\n", len(c.Subset), c.Coverage, fixed(c.Score.P95Deg, 3), c.Score.Meets, name(c))
 	}
-	fmt.Fprintln(stdout, "\nanalysis aid: verify the chosen layout with a finer sky map and qualified flight analysis")
+	if b := res.Best; b != nil && t.CoverageSensors > 0 && b.Coverage-t.MinCoverage < layout.Resolution(layout.DefaultPoints) {
+		fmt.Fprintf(stdout, "note: the chosen set's coverage %.4f is within the lattice's resolution of min_coverage %.4f: run judges it the same way, but the sky itself could fall either side\n", b.Coverage, t.MinCoverage)
+	}
+	fmt.Fprintln(stdout, "\nanalysis aid: verify the chosen layout with qualified flight analysis")
 	// No subset meeting the targets is a completed search whose answer is
 	// "none": exit status 3, after the table and layout.json are written.
 	var verdict error
@@ -146,7 +150,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		}
 		return rows
 	}
-	doc := map[string]any{"proven": res.Exhausted, "simulated": res.Evaluated, "alternatives": conv(res.Alternatives), "front": conv(res.Front)}
+	doc := map[string]any{"proven": res.Exhausted, "simulated": res.Evaluated, "sky_points": layout.DefaultPoints, "alternatives": conv(res.Alternatives), "front": conv(res.Front)}
 	data, err := json.MarshalIndent(doc, "", "  ")
 	if err != nil {
 		return err

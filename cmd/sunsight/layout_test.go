@@ -2,6 +2,8 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -52,5 +54,110 @@ func TestLayoutCommandPicksAllSixFaces(t *testing.T) {
 	}
 	if _, err := os.Stat(filepath.Join(dir, "layout.json")); err != nil {
 		t.Error(err)
+	}
+}
+
+// layoutExample is examples/layout-6u.yaml shortened to two hours at 60 s:
+// the sky coverage does not depend on the duration, and the time targets
+// stay loose enough that the coverage target decides.
+func layoutExample(t *testing.T) (file string, text string) {
+	t.Helper()
+	b, err := os.ReadFile("../../examples/layout-6u.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text = strings.Replace(strings.Replace(string(b), "duration: 1d", "duration: 2h", 1), "step: 30s", "step: 60s", 1)
+	file = filepath.Join(t.TempDir(), "layout.yaml")
+	if err := os.WriteFile(file, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return file, text
+}
+
+// asBody returns the scenario text with the named candidates as its
+// body.sensors (their lines copied from body.candidates).
+func asBody(t *testing.T, text string, names []string) string {
+	t.Helper()
+	head, rest, ok := strings.Cut(text, "  sensors:")
+	_, cands, ok2 := strings.Cut(rest, "  candidates:")
+	if !ok || !ok2 {
+		t.Fatal("layout example has no body.sensors and body.candidates")
+	}
+	var lines []string
+	for _, n := range names {
+		for _, l := range strings.Split(cands, "\n") {
+			if strings.Contains(l, "{name: "+n+",") {
+				lines = append(lines, l)
+			}
+		}
+	}
+	if len(lines) != len(names) {
+		t.Fatalf("found %d of the candidates %v", len(lines), names)
+	}
+	return head + "  sensors:\n" + strings.Join(lines, "\n") + "\n  candidates:" + cands
+}
+
+// The set the layout search names, flown as body.sensors, passes the
+// coverage target of run with the very coverage the search printed: the
+// search judges the sky on the lattice run uses (it judged a 4096-point
+// lattice, and any --sky-points, so that an 8-sensor set it chose at 10
+// points failed run at 72.5 % of an 80 % target).
+func TestLayoutChoicePassesRunCoverage(t *testing.T) {
+	file, text := layoutExample(t)
+	dir := filepath.Join(t.TempDir(), "out")
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"layout", file, "--out", dir}, &out, &errb); code != exitOK {
+		t.Fatalf("layout exit %d: %s\n%s", code, errb.String(), out.String())
+	}
+	if !strings.Contains(out.String(), "65536-point sky lattice run uses") {
+		t.Errorf("the output does not say at what resolution the coverage was judged:\n%s", out.String())
+	}
+	var doc struct {
+		Alternatives []struct {
+			Sensors  []string `json:"sensors"`
+			Coverage float64  `json:"coverage_fraction"`
+		} `json:"alternatives"`
+	}
+	b, _ := os.ReadFile(filepath.Join(dir, "layout.json"))
+	if err := json.Unmarshal(b, &doc); err != nil || len(doc.Alternatives) == 0 {
+		t.Fatalf("layout.json: %v\n%s", err, b)
+	}
+	for i, a := range doc.Alternatives {
+		body := filepath.Join(t.TempDir(), "body.yaml")
+		os.WriteFile(body, []byte(asBody(t, text, a.Sensors)), 0o644)
+		out.Reset()
+		errb.Reset()
+		runMain([]string{"run", body, "--json", "--quiet"}, &out, &errb)
+		var rec struct {
+			Sky struct {
+				Seen3 float64 `json:"sky_seen_by_3_fraction"`
+			} `json:"sky_coverage"`
+			Targets []struct {
+				Key  string `json:"key"`
+				Pass bool   `json:"pass"`
+			} `json:"targets"`
+		}
+		if err := json.Unmarshal(out.Bytes(), &rec); err != nil {
+			t.Fatalf("run of %v: %v: %s", a.Sensors, err, errb.String())
+		}
+		// run writes 10 significant digits; one lattice point is 1.5e-5.
+		if math.Abs(rec.Sky.Seen3-a.Coverage) > 1e-9 {
+			t.Errorf("alternative %d %v: layout coverage %.12f, run %.12f", i+1, a.Sensors, a.Coverage, rec.Sky.Seen3)
+		}
+		for _, tg := range rec.Targets {
+			if tg.Key == "coverage" && !tg.Pass {
+				t.Errorf("alternative %d %v fails run's coverage target", i+1, a.Sensors)
+			}
+		}
+	}
+}
+
+// The sky lattice is the one run judges on; a flag that would judge
+// another is refused (it accepted any --sky-points ≥ 1).
+func TestLayoutRefusesSkyPoints(t *testing.T) {
+	file, _ := layoutExample(t)
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"layout", file, "--sky-points", "10"}, &out, &errb); code != exitUsage {
+		t.Errorf("--sky-points 10: exit %d, want %d\n%s", code, exitUsage, out.String())
 	}
 }

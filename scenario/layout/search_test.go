@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"slices"
 	"testing"
 
@@ -139,5 +140,37 @@ func TestRefusesTooManyCandidates(t *testing.T) {
 	v := make([]sky.Viewer, MaxCandidates+1)
 	if _, err := Search(context.Background(), Problem{Viewers: v, Evaluate: always}); err == nil {
 		t.Error("31 candidates accepted")
+	}
+}
+
+// The lattice's share of a spherical cap is within Resolution of the closed
+// form (1 − cos θ)/2 for random caps, and 1/n would claim too much: the
+// worst cap error at 65 536 points is many lattice points.
+func TestResolutionBoundsCapError(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	for _, n := range []int{1024, 4096, 16384, 65536} {
+		lat, err := sky.Fibonacci(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		worst := 0.0
+		for range 300 {
+			z := 2*rng.Float64() - 1
+			φ := 2 * math.Pi * rng.Float64()
+			r := math.Sqrt(1 - z*z)
+			θ := math.Pi * rng.Float64()
+			c, err := sky.Coverage([]sky.Viewer{sky.NewCone(r3.Vec{X: r * math.Cos(φ), Y: r * math.Sin(φ), Z: z}, θ)}, lat)
+			if err != nil {
+				t.Fatal(err)
+			}
+			worst = max(worst, math.Abs(c.AtLeast[1]-(1-math.Cos(θ))/2))
+		}
+		if worst > Resolution(n) {
+			t.Errorf("n = %d: worst cap error %.2e above the resolution %.2e", n, worst, Resolution(n))
+		}
+		if n == 65536 && worst < 10.0/float64(n) {
+			t.Errorf("n = %d: worst cap error %.2e is under 10 lattice points", n, worst)
+		}
+		t.Logf("n = %d: worst cap error %.2e = %.2f n^(-3/4), resolution %.2e", n, worst, worst*math.Pow(float64(n), 0.75), Resolution(n))
 	}
 }

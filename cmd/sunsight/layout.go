@@ -106,6 +106,10 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	fmt.Fprintln(stdout, "coverage: share of the sphere seen by enough sensors; p95_deg: the worst mode's p95 error;")
 	fmt.Fprintln(stdout, "margin: the smallest target margin over the modes (a valid fraction: above its minimum;")
 	fmt.Fprintln(stdout, "the p95 error and the gap: the share of the limit left)")
+	fmt.Fprintf(stdout, "ranked by margin, then coverage (closer than %.1e, the lattice's resolution, is a tie), then p95_deg\n", res.Resolution)
+	if ties := coverageTies(res.Alternatives); ties != "" {
+		fmt.Fprintf(stdout, "tied on coverage: ranks %s (ordered by p95_deg, then coverage)\n", ties)
+	}
 	fmt.Fprintln(stdout, "\ntrade-off front (count vs coverage vs p95 error)")
 	fmt.Fprintln(stdout, "sensors  coverage  p95_deg  meets  set")
 	for _, c := range res.Front {
@@ -131,11 +135,16 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		Margin   float64  `json:"margin"`
 		Meets    bool     `json:"meets_targets"`
 		Detail   string   `json:"detail"`
+		Class    *int     `json:"coverage_class,omitempty"` // alternatives only
 	}
-	conv := func(list []layout.Choice) []row {
+	conv := func(list []layout.Choice, ranked bool) []row {
 		rows := []row{}
 		for _, c := range list {
 			r := row{Coverage: c.Coverage, Margin: c.Score.Margin, Meets: c.Score.Meets, Detail: c.Score.Detail}
+			if ranked {
+				cl := c.CoverageClass
+				r.Class = &cl
+			}
 			for _, i := range c.Subset {
 				r.Sensors = append(r.Sensors, cands[i].Name)
 			}
@@ -150,7 +159,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		}
 		return rows
 	}
-	doc := map[string]any{"proven": res.Exhausted, "simulated": res.Evaluated, "sky_points": layout.DefaultPoints, "alternatives": conv(res.Alternatives), "front": conv(res.Front)}
+	doc := map[string]any{"proven": res.Exhausted, "simulated": res.Evaluated, "sky_points": layout.DefaultPoints, "coverage_resolution_fraction": res.Resolution, "alternatives": conv(res.Alternatives, true), "front": conv(res.Front, false)}
 	data, err := json.MarshalIndent(doc, "", "  ")
 	if err != nil {
 		return err
@@ -164,6 +173,24 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "wrote %s\n", path)
 	return verdict
+}
+
+// coverageTies lists the runs of ranks (1-based, "1-2, 4-5") that the
+// coverage did not order: the same size and margin, one coverage class.
+func coverageTies(alt []layout.Choice) string {
+	var runs []string
+	for i := 0; i < len(alt); {
+		j := i + 1
+		for j < len(alt) && len(alt[j].Subset) == len(alt[i].Subset) && alt[j].Score.Margin == alt[i].Score.Margin &&
+			alt[j].CoverageClass == alt[i].CoverageClass {
+			j++
+		}
+		if j-i > 1 {
+			runs = append(runs, fmt.Sprintf("%d-%d", i+1, j))
+		}
+		i = j
+	}
+	return strings.Join(runs, ", ")
 }
 
 // fixed prints v with prec decimals, or the missing-value mark.

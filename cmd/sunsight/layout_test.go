@@ -47,7 +47,7 @@ func TestLayoutCommandPicksAllSixFaces(t *testing.T) {
 	}
 	// Both tables name their columns, and the margin says what it measures.
 	for _, want := range []string{"rank  sensors  coverage  p95_deg  margin  set", "margin: the smallest target margin over the modes",
-		"sensors  coverage  p95_deg  meets  set"} {
+		"sensors  coverage  p95_deg  meets  set", "ranked by margin, then coverage (closer than 4.9e-04, the lattice's resolution, is a tie), then p95_deg"} {
 		if !strings.Contains(out.String(), want) {
 			t.Errorf("output lacks %q:\n%s", want, out.String())
 		}

@@ -23,8 +23,13 @@
 // by increasing size, most coverage first, in parallel batches taken in list
 // order. Every size below the answer is evaluated in full, so the answer is
 // the fewest sensors; at that size the search stops once Top feasible subsets
-// are found, and those are the ranked alternatives (ranked by margin among
-// themselves, not over every feasible subset of the size). The cost is set by
+// are found and every later subset whose coverage is within Resolution of
+// the last of them has been scored (the order of work cannot tell them
+// apart), and those are the ranked alternatives (ranked among themselves,
+// not over every feasible subset of the size). The rank: larger margin
+// first; equal margins by coverage, where coverages closer than Resolution
+// tie (a chain of such steps is one tie, CoverageClass); ties by the smaller
+// p95 error, then the larger coverage, then the order of work. The cost is set by
 // how many subsets pass the coverage bound below the answer's size: a loose
 // coverage target with strict time targets means many simulations.
 //

@@ -67,17 +67,25 @@ type Choice struct {
 	Subset   []int
 	Coverage float64 // ≥ k fraction (worst single failure when SurviveOneFailure)
 	Score    Score
+	// CoverageClass numbers the coverage ties among the alternatives (0 =
+	// the most coverage): alternatives whose coverages are closer than the
+	// lattice's Resolution, in a chain, share a class and rank as equal
+	// on coverage.
+	CoverageClass int
 }
 
 // Result is the search outcome.
 type Result struct {
 	Best         *Choice  // fewest sensors meeting every target; nil if none
-	Alternatives []Choice // feasible, by size then margin (Best first)
+	Alternatives []Choice // feasible, in rank order (Best first; see rank)
 	Front        []Choice // evaluated subsets not dominated in (count, coverage, p95)
 	Evaluated    int      // Evaluate calls
 	Visited      int      // branch-and-bound nodes
 	Pruned       int      // branches cut by the coverage bound
 	Exhausted    bool     // every coverage-feasible size up to the stop was evaluated
+	// Resolution is the lattice's coverage resolution (Resolution(Points)):
+	// coverage differences below it are ties.
+	Resolution float64
 }
 
 // Search runs the branch and bound.
@@ -110,7 +118,7 @@ func Search(ctx context.Context, p Problem) (Result, error) {
 		return Result{}, err
 	}
 	b := newBounder(p.Viewers, lat, p.CoverageSensors, p.SurviveOneFailure)
-	var res Result
+	res := Result{Resolution: Resolution(pts)}
 	chosen := make([]int, 0, maxS)
 	var mask uint64 // chosen as a bit mask
 	// collect walks the subsets of exactly size sensors, pruning a branch
@@ -153,6 +161,10 @@ func Search(ctx context.Context, p Problem) (Result, error) {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	batch := 4 * workers
+	// Once Top feasible subsets are found, the subsets after them whose
+	// coverage is within the resolution of the last one found tie with it
+	// in the order of work, so they are scored too before the ranking.
+	full, cut := false, 0.0
 sizes:
 	for size := 1; size <= maxS; size++ {
 		// Sizes are walked one at a time and only up to the answer: the
@@ -181,6 +193,9 @@ sizes:
 			close(next)
 			wg.Wait()
 			for k := start; k < end; k++ {
+				if full && list[k].Coverage <= cut-res.Resolution {
+					break sizes
+				}
 				if p.MaxEvaluations > 0 && res.Evaluated >= p.MaxEvaluations {
 					res.Exhausted = false
 					break sizes
@@ -198,9 +213,10 @@ sizes:
 					res.Alternatives = append(res.Alternatives, list[k])
 					// Every smaller size was exhausted, so this size is
 					// the fewest; the alternatives are the first Top
-					// feasible subsets of it in coverage order.
-					if len(res.Alternatives) >= top {
-						break sizes
+					// feasible subsets of it in coverage order, and those
+					// tied with the last of them on coverage.
+					if len(res.Alternatives) == top {
+						full, cut = true, list[k].Coverage
 					}
 				}
 			}
@@ -209,13 +225,7 @@ sizes:
 			break
 		}
 	}
-	sort.SliceStable(res.Alternatives, func(a, b int) bool {
-		x, y := res.Alternatives[a], res.Alternatives[b]
-		if len(x.Subset) != len(y.Subset) {
-			return len(x.Subset) < len(y.Subset)
-		}
-		return x.Score.Margin > y.Score.Margin
-	})
+	rank(res.Alternatives, res.Resolution)
 	if len(res.Alternatives) > top {
 		res.Alternatives = res.Alternatives[:top]
 	}
@@ -224,6 +234,47 @@ sizes:
 	}
 	res.Front = front(evaluated)
 	return res, nil
+}
+
+// rank orders the alternatives: fewer sensors, then a larger margin, then
+// more coverage — where coverages closer than the resolution tie (a chain of
+// such steps is one class: CoverageClass) — then a smaller p95 error (NaN
+// last), then more coverage, then the order of work.
+func rank(alt []Choice, resolution float64) {
+	byCov := make([]int, len(alt))
+	for i := range byCov {
+		byCov[i] = i
+	}
+	sort.SliceStable(byCov, func(a, b int) bool { return alt[byCov[a]].Coverage > alt[byCov[b]].Coverage })
+	for j, i := range byCov {
+		if j > 0 {
+			prev := alt[byCov[j-1]]
+			alt[i].CoverageClass = prev.CoverageClass
+			if prev.Coverage-alt[i].Coverage >= resolution {
+				alt[i].CoverageClass++
+			}
+		}
+	}
+	p95 := func(c Choice) float64 {
+		if math.IsNaN(c.Score.P95Deg) {
+			return math.Inf(1)
+		}
+		return c.Score.P95Deg
+	}
+	sort.SliceStable(alt, func(a, b int) bool {
+		x, y := alt[a], alt[b]
+		switch {
+		case len(x.Subset) != len(y.Subset):
+			return len(x.Subset) < len(y.Subset)
+		case x.Score.Margin != y.Score.Margin:
+			return x.Score.Margin > y.Score.Margin
+		case x.CoverageClass != y.CoverageClass:
+			return x.CoverageClass < y.CoverageClass
+		case p95(x) != p95(y):
+			return p95(x) < p95(y)
+		}
+		return x.Coverage > y.Coverage
+	})
 }
 
 // front keeps the evaluated subsets no other beats on every axis: fewer or

@@ -174,3 +174,55 @@ func TestResolutionBoundsCapError(t *testing.T) {
 		t.Logf("n = %d: worst cap error %.2e = %.2f n^(-3/4), resolution %.2e", n, worst, worst*math.Pow(float64(n), 0.75), Resolution(n))
 	}
 }
+
+// Two mirror-image subsets (axes x → −x about a mirror-symmetric pair) see
+// the same share of the sky (closed form: symmetry), but the lattice is not
+// mirror-symmetric and counts them a few points apart. That is below its
+// resolution: they tie on coverage and the lower p95 error ranks first, also
+// when only one alternative is asked for (the search took the first feasible
+// subset in coverage order and stopped).
+func TestCoverageBelowResolutionTiesAndP95Decides(t *testing.T) {
+	s, c := math.Sincos(40 * math.Pi / 180)
+	axes := []r3.Vec{{Z: 1}, {Z: -1}, {X: s, Y: 0.3, Z: c}, {X: -s, Y: 0.3, Z: c}}
+	v := cones(axes, 50)
+	lat, _ := sky.Fibonacci(DefaultPoints)
+	cov := func(s []int) float64 {
+		var sv []sky.Viewer
+		for _, i := range s {
+			sv = append(sv, v[i])
+		}
+		r, _ := sky.Coverage(sv, lat)
+		return r.AtLeast[1]
+	}
+	a, b := []int{0, 1, 2}, []int{0, 1, 3}
+	ca, cb := cov(a), cov(b)
+	if ca == cb || math.Abs(ca-cb) >= Resolution(DefaultPoints) {
+		t.Fatalf("the mirror pair's lattice coverages %.6f and %.6f do not differ below the resolution", ca, cb)
+	}
+	// The subset the lattice counts lower flies the better p95.
+	lower := a
+	if cb < ca {
+		lower = b
+	}
+	eval := func(_ context.Context, s []int) (Score, error) {
+		ok := slices.Equal(s, a) || slices.Equal(s, b)
+		p95 := 5.0
+		if slices.Equal(s, lower) {
+			p95 = 3
+		}
+		return Score{Meets: ok, Margin: 0.1, P95Deg: p95}, nil
+	}
+	for _, top := range []int{1, 5} {
+		res, err := Search(context.Background(), Problem{Viewers: v, CoverageSensors: 1, MinCoverage: 0.2, Evaluate: eval, Top: top})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.Best == nil || !slices.Equal(res.Best.Subset, lower) {
+			t.Errorf("top %d: best %+v, want %v (coverage %.6f against %.6f: a tie; p95 3° against 5°)", top, res.Best, lower, cov(lower), max(ca, cb))
+			continue
+		}
+		if top == 5 && (len(res.Alternatives) != 2 || res.Alternatives[0].CoverageClass != res.Alternatives[1].CoverageClass) {
+			t.Errorf("top 5: alternatives %+v, want the pair in one coverage class", res.Alternatives)
+		}
+	}
+}

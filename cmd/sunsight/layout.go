@@ -19,7 +19,9 @@ func init() {
 		about: `Searches the candidate mounts of body.candidates in the scenario FILE (- reads standard
 input) for the fewest sensors that meet its targets in its attitude and every mode (exact
 branch and bound; the sky coverage is judged on the lattice run uses, so the chosen set
-passes run's coverage target with the coverage printed here). The exit status is 3 when no subset meets the targets.`,
+passes run's coverage target with the coverage printed here). The exit status is 3 when
+no subset meets the targets, and 1 when --max-runs stopped the search before any subset
+met them (an incomplete search, not a proof).`,
 		examples: []string{"sunsight layout examples/layout-6u.yaml", "sunsight layout examples/layout-6u.yaml --top 10 --out layout-out"},
 		run:      runLayout})
 }
@@ -29,7 +31,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	maxSensors := fs.Int("max-sensors", 0, "largest subset tried (`N`; 0 = all candidates)")
 	top := fs.Int("top", 5, "ranked alternatives to report (`K`)")
 	out := fs.String("out", "", "folder for layout.json (`DIR`, optional)")
-	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; the answer is then not proven)")
+	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; stopped before any subset meets the targets: exit 1, not a proof)")
 	force := fs.Bool("force", false, "replace an earlier --out folder")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	pos, err := fs.parse(args, stdout)
@@ -91,12 +93,26 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "layout search: %d candidates, %d subsets simulated, %d branches pruned by sky coverage\n", len(cands), res.Evaluated, res.Pruned)
 	fmt.Fprintf(stdout, "sky coverage judged on the %d-point sky lattice run uses (a share resolved to about %.1e)\n", layout.DefaultPoints, layout.Resolution(layout.DefaultPoints))
-	if !res.Exhausted {
-		fmt.Fprintln(stdout, "warning: --max-runs reached; the answer below is not proven to be the fewest sensors")
+	untried := strconv.Itoa(res.Untried)
+	if res.UntriedAtLeast {
+		untried = "at least " + untried
 	}
-	if res.Best == nil {
+	switch {
+	case !res.Exhausted && res.Best == nil:
+		total := strconv.Itoa(res.Evaluated + res.Untried)
+		if res.UntriedAtLeast {
+			total = "at least " + total
+		}
+		fmt.Fprintf(stdout, "search incomplete: stopped at --max-runs %d in size %d after %d of the %s subsets (up to %d sensors) that pass the coverage bound;\n",
+			*maxRuns, res.StoppedSize, res.Evaluated, total, maxSize(*maxSensors, len(cands)))
+		fmt.Fprintln(stdout, "none of those tried meets every target, which is not a proof that no subset does: raise --max-runs or give 0")
+	case !res.Exhausted:
+		fmt.Fprintf(stdout, "run limit: stopped at --max-runs %d with %s subsets of %d sensors untried; every smaller size was simulated in full,\n", *maxRuns, untried, res.StoppedSize)
+		fmt.Fprintln(stdout, "so the fewest sensors below is proven, but the ranking covers only the subsets of its size tried")
+	}
+	if res.Best == nil && res.Exhausted {
 		fmt.Fprintln(stdout, "no subset meets every target; relax targets or add candidates")
-	} else {
+	} else if res.Best != nil {
 		fmt.Fprintf(stdout, "fewest sensors: %d (%s)\n", len(res.Best.Subset), name(*res.Best))
 	}
 	fmt.Fprintln(stdout, "\nrank  sensors  coverage  p95_deg  margin  set")
@@ -121,9 +137,14 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	fmt.Fprintln(stdout, "\nanalysis aid: verify the chosen layout with qualified flight analysis")
 	// No subset meeting the targets is a completed search whose answer is
 	// "none": exit status 3, after the table and layout.json are written.
+	// A search stopped by --max-runs before any subset met the targets has
+	// no answer: exit status 1, after the table and layout.json.
 	var verdict error
-	if res.Best == nil {
+	switch {
+	case res.Best == nil && res.Exhausted:
 		verdict = targetsFailed{what: "no subset of body.candidates meets every target"}
+	case res.Best == nil:
+		verdict = fmt.Errorf("search incomplete: --max-runs %d stopped it before any subset met every target (%d simulated, %s passing the coverage bound untried); not a proof that none does", *maxRuns, res.Evaluated, untried)
 	}
 	if *out == "" {
 		return verdict
@@ -159,7 +180,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		}
 		return rows
 	}
-	doc := map[string]any{"proven": res.Exhausted, "simulated": res.Evaluated, "sky_points": layout.DefaultPoints, "coverage_resolution_fraction": res.Resolution, "alternatives": conv(res.Alternatives, true), "front": conv(res.Front, false)}
+	doc := map[string]any{"proven": res.Exhausted, "simulated": res.Evaluated, "untried": res.Untried, "untried_at_least": res.UntriedAtLeast, "sky_points": layout.DefaultPoints, "coverage_resolution_fraction": res.Resolution, "alternatives": conv(res.Alternatives, true), "front": conv(res.Front, false)}
 	data, err := json.MarshalIndent(doc, "", "  ")
 	if err != nil {
 		return err
@@ -173,6 +194,14 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "wrote %s\n", path)
 	return verdict
+}
+
+// maxSize is the largest subset size searched.
+func maxSize(maxSensors, n int) int {
+	if maxSensors <= 0 || maxSensors > n {
+		return n
+	}
+	return maxSensors
 }
 
 // coverageTies lists the runs of ranks (1-based, "1-2, 4-5") that the

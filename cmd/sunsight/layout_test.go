@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -159,5 +160,42 @@ func TestLayoutRefusesSkyPoints(t *testing.T) {
 	var out, errb bytes.Buffer
 	if code := runMain([]string{"layout", file, "--sky-points", "10"}, &out, &errb); code != exitUsage {
 		t.Errorf("--sky-points 10: exit %d, want %d\n%s", code, exitUsage, out.String())
+	}
+}
+
+// --max-runs that stops the search before any subset meets the targets is
+// an incomplete search, not a miss: it says how many subsets it tried of
+// how many and that this is no proof, and exits 1; the same search run to
+// the end is a proven miss, exit 3. (It printed "no subset meets every
+// target" and exited 3 after 200 of 855 subsets.)
+func TestLayoutRunLimitIsNotAProof(t *testing.T) {
+	file, text := layoutExample(t)
+	text = strings.Replace(text, "max_error_p95_deg: 30", "max_error_p95_deg: 2", 1)
+	os.WriteFile(file, []byte(text), 0o644)
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"layout", file, "--max-sensors", "8"}, &out, &errb); code != exitTargetFailed {
+		t.Fatalf("full search: exit %d, want %d\n%s", code, exitTargetFailed, out.String())
+	}
+	total := 0
+	if _, err := fmt.Sscanf(out.String(), "layout search: 13 candidates, %d subsets simulated", &total); err != nil || total <= 3 {
+		t.Fatalf("full search simulated %d subsets (%v):\n%s", total, err, out.String())
+	}
+	if !strings.Contains(out.String(), "no subset meets every target") {
+		t.Errorf("full search:\n%s", out.String())
+	}
+	out.Reset()
+	errb.Reset()
+	code := runMain([]string{"layout", file, "--max-sensors", "8", "--max-runs", "3"}, &out, &errb)
+	if code != exitFailure {
+		t.Errorf("--max-runs 3: exit %d, want %d", code, exitFailure)
+	}
+	o := out.String()
+	for _, want := range []string{fmt.Sprintf("3 of the %d subsets", total), "not a proof", "--max-runs 3"} {
+		if !strings.Contains(o, want) {
+			t.Errorf("--max-runs 3: output lacks %q:\n%s", want, o)
+		}
+	}
+	if strings.Contains(o, "no subset meets every target") || !strings.Contains(errb.String(), "incomplete") {
+		t.Errorf("--max-runs 3 states a result it has not proven:\n%s\n%s", o, errb.String())
 	}
 }

@@ -32,6 +32,10 @@
 // p95 error, then the larger coverage, then the order of work. The cost is set by
 // how many subsets pass the coverage bound below the answer's size: a loose
 // coverage target with strict time targets means many simulations.
+// MaxEvaluations stops the work: a feasible subset found before the stop is
+// still the fewest (every smaller size was evaluated in full), only the
+// ranking is partial; with none found the search is incomplete, and
+// Result.Untried counts the coverage-passing subsets it did not evaluate.
 //
 // # Assumptions
 //

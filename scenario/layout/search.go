@@ -83,6 +83,16 @@ type Result struct {
 	Visited      int      // branch-and-bound nodes
 	Pruned       int      // branches cut by the coverage bound
 	Exhausted    bool     // every coverage-feasible size up to the stop was evaluated
+	// Untried counts, when MaxEvaluations stopped the search (Exhausted
+	// false), the subsets passing the coverage bound that were not
+	// simulated: the rest of the size it stopped in and every larger size up
+	// to MaxSensors, which a search finding nothing would all simulate.
+	// UntriedAtLeast says the count stopped at maxCountNodes nodes.
+	Untried        int
+	UntriedAtLeast bool
+	// StoppedSize is the subset size the run limit stopped in (0 when
+	// Exhausted).
+	StoppedSize int
 	// Resolution is the lattice's coverage resolution (Resolution(Points)):
 	// coverage differences below it are ties.
 	Resolution float64
@@ -198,6 +208,13 @@ sizes:
 				}
 				if p.MaxEvaluations > 0 && res.Evaluated >= p.MaxEvaluations {
 					res.Exhausted = false
+					res.StoppedSize = size
+					res.Untried = len(list) - k
+					if len(res.Alternatives) == 0 {
+						n, capped := countPassing(b, p, size+1, maxS)
+						res.Untried += n
+						res.UntriedAtLeast = capped
+					}
 					break sizes
 				}
 				if err := ctx.Err(); err != nil {
@@ -234,6 +251,42 @@ sizes:
 	}
 	res.Front = front(evaluated)
 	return res, nil
+}
+
+// maxCountNodes bounds the nodes countPassing visits.
+const maxCountNodes = 1 << 20
+
+// countPassing counts the subsets of sizes from..to that pass the coverage
+// bound (the subsets a search finding nothing would simulate), visiting at
+// most maxCountNodes nodes; capped reports that it stopped there.
+func countPassing(b *bounder, p Problem, from, to int) (count int, capped bool) {
+	n := len(p.Viewers)
+	nodes := 0
+	var walk func(i, size, have int, mask uint64)
+	walk = func(i, size, have int, mask uint64) {
+		if capped {
+			return
+		}
+		if nodes++; nodes > maxCountNodes {
+			capped = true
+			return
+		}
+		if have+(n-i) < size || (p.CoverageSensors > 0 && !b.canReach(mask, i, p.MinCoverage)) {
+			return
+		}
+		if have == size {
+			if p.CoverageSensors == 0 || b.coverage(mask) >= p.MinCoverage {
+				count++
+			}
+			return
+		}
+		walk(i+1, size, have+1, mask|1<<i)
+		walk(i+1, size, have, mask)
+	}
+	for size := from; size <= to && !capped; size++ {
+		walk(0, size, 0, 0)
+	}
+	return count, capped
 }
 
 // rank orders the alternatives: fewer sensors, then a larger margin, then

@@ -226,3 +226,27 @@ func TestCoverageBelowResolutionTiesAndP95Decides(t *testing.T) {
 		}
 	}
 }
+
+// A search stopped by MaxEvaluations before any subset met the targets is
+// not complete, and says how many coverage-passing subsets it left untried:
+// with those it adds up to what the full search simulates.
+func TestStoppedSearchCountsWhatItLeft(t *testing.T) {
+	never := func(_ context.Context, s []int) (Score, error) { return Score{Margin: -1, P95Deg: 1}, nil }
+	p := Problem{Viewers: cones(tilted(), 70), CoverageSensors: 1, MinCoverage: 0.9, Evaluate: never, Points: 2000}
+	full, err := Search(context.Background(), p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !full.Exhausted || full.Best != nil || full.Untried != 0 {
+		t.Fatalf("full search: exhausted %v, best %v, untried %d", full.Exhausted, full.Best, full.Untried)
+	}
+	p.MaxEvaluations = 5
+	cut, err := Search(context.Background(), p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if cut.Exhausted || cut.Evaluated != 5 || cut.UntriedAtLeast || cut.Evaluated+cut.Untried != full.Evaluated {
+		t.Errorf("stopped search: exhausted %v, %d simulated + %d untried (at least: %v), full search simulated %d",
+			cut.Exhausted, cut.Evaluated, cut.Untried, cut.UntriedAtLeast, full.Evaluated)
+	}
+}

@@ -124,9 +124,16 @@ func printBudget(w io.Writer, rep budget.Report, elapsed time.Duration) {
 	fmt.Fprintf(tw, "root-sum-square\t\t%.3f\t%.3f\t\t\n", rep.RSSP95Deg, rep.RSSRMSDeg)
 	fmt.Fprintf(tw, "all together\t\t%.3f\t%.3f\t\t\n", rep.AllP95Deg, rep.AllRMSDeg)
 	tw.Flush()
-	fmt.Fprintf(w, "\nall − RSS: p95 %+.3f° (95 %% bootstrap interval over units [%+.3f, %+.3f]), RMS %+.3f° [%+.3f, %+.3f]\n",
-		rep.AllP95Deg-rep.RSSP95Deg, rep.GapP95CIDeg[0], rep.GapP95CIDeg[1], rep.AllRMSDeg-rep.RSSRMSDeg, rep.GapRMSCIDeg[0], rep.GapRMSCIDeg[1])
-	fmt.Fprintln(w, "  an interval that excludes 0 means that figure does not add in RSS: size it from the all-together run.")
+	if p, r := rep.GapP95CIDeg, rep.GapRMSCIDeg; p != nil && r != nil {
+		fmt.Fprintf(w, "\nall − RSS: p95 %+.3f° (95 %% bootstrap interval over units [%+.3f, %+.3f]), RMS %+.3f° [%+.3f, %+.3f]\n",
+			rep.AllP95Deg-rep.RSSP95Deg, p[0], p[1], rep.AllRMSDeg-rep.RSSRMSDeg, r[0], r[1])
+		fmt.Fprintln(w, "  an interval that excludes 0 means that figure does not add in RSS: size it from the all-together run.")
+	} else {
+		fmt.Fprintf(w, "\nall − RSS: p95 %+.3f°, RMS %+.3f°; no interval and no conclusion from %d units: a 95 %% bootstrap\n",
+			rep.AllP95Deg-rep.RSSP95Deg, rep.AllRMSDeg-rep.RSSRMSDeg, rep.Units)
+		fmt.Fprintf(w, "  interval over units needs at least %d units (below that it holds the true value well under 90 %%\n", rep.IntervalMinUnits)
+		fmt.Fprintf(w, "  of the time); give --units %d or more to judge whether the budget adds in RSS.\n", rep.IntervalMinUnits)
+	}
 	if rep.CalibratedP95 != nil || rep.CorrectedP95 != nil {
 		fmt.Fprintln(w, "\nWhat calibration buys (p95, all sources):")
 		fmt.Fprintf(w, "  as stated                         %.3f°\n", rep.AllP95Deg)

@@ -3,8 +3,10 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"fmt"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -62,6 +64,38 @@ func TestBudgetJSONAndFigures(t *testing.T) {
 	for _, f := range []string{"budget.png", "budget.svg", "budget-sensitivity.png", "budget-sensitivity.svg"} {
 		if st, err := os.Stat(filepath.Join(dir, f)); err != nil || st.Size() == 0 {
 			t.Errorf("%s: %v", f, err)
+		}
+	}
+}
+
+// With fewer units than a bootstrap interval needs, the budget prints the
+// all − RSS figures without an interval and without a conclusion, and says
+// how many units are needed (it printed a "95 % interval" from 2 units).
+func TestBudgetWithholdsIntervalBelowEnoughUnits(t *testing.T) {
+	for _, c := range []struct {
+		units string
+		shown bool
+	}{{"2", false}, {strconv.Itoa(budget.MinIntervalUnits), true}} {
+		var out, errb bytes.Buffer
+		if code := runMain([]string{"budget", budgetScenario, "--units", c.units}, &out, &errb); code != 0 && code != 3 {
+			t.Fatalf("exit %d: %s", code, errb.String())
+		}
+		o := out.String()
+		if strings.Contains(o, "bootstrap interval over units [") != c.shown || strings.Contains(o, "an interval that excludes 0") != c.shown {
+			t.Errorf("%s units: interval shown %v wanted:\n%s", c.units, !c.shown, o)
+		}
+		need := fmt.Sprintf("needs at least %d units", budget.MinIntervalUnits)
+		if strings.Contains(o, need) == c.shown {
+			t.Errorf("%s units: %q said %v:\n%s", c.units, need, c.shown, o)
+		}
+		var rep budget.Report
+		out.Reset()
+		runMain([]string{"budget", budgetScenario, "--units", c.units, "--json"}, &out, &errb)
+		if err := json.Unmarshal(out.Bytes(), &rep); err != nil {
+			t.Fatal(err)
+		}
+		if (rep.GapP95CIDeg != nil) != c.shown || (rep.GapRMSCIDeg != nil) != c.shown || rep.IntervalMinUnits != budget.MinIntervalUnits {
+			t.Errorf("%s units: JSON intervals %v %v, min units %d", c.units, rep.GapP95CIDeg, rep.GapRMSCIDeg, rep.IntervalMinUnits)
 		}
 	}
 }

@@ -150,7 +150,7 @@ type Result struct {
 	// NonAdditiveP95Deg is All.P95Deg − RSSP95Deg, and NonAdditiveCI its
 	// 95 % bootstrap interval over units (the same resampled units in every
 	// run): an interval that holds zero means the budget adds in RSS within
-	// sampling error.
+	// sampling error. Both intervals are NaN below MinIntervalUnits units.
 	NonAdditiveP95Deg float64
 	NonAdditiveCI     Interval
 	// NonAdditiveRMSDeg and NonAdditiveRMSCI are the same for the RMS error:
@@ -160,6 +160,22 @@ type Result struct {
 	NonAdditiveRMSCI  Interval
 	Units             int
 }
+
+// IntervalShown reports whether the budget has its bootstrap intervals (at
+// least MinIntervalUnits units; else they are NaN).
+func (r *Result) IntervalShown() bool { return !math.IsNaN(r.NonAdditiveCI.Lo) }
+
+// MinIntervalUnits is the fewest Monte Carlo units from which the budget
+// gives its 95 % bootstrap intervals (and the conclusion drawn from them).
+// The percentile interval of a mean over n units uses the plug-in variance,
+// smaller by (n−1)/n, and a normal quantile, so for normal units it covers
+// about P(|t(n−1)| < 1.96·√((n−1)/n)) of the true value (closed form):
+// 0.60 at 2 units (where the three distinct resamples make it the range of
+// the two units, which holds the mean half the time), 0.85 at 5, 0.90 at 10,
+// 0.92 at 16 (TestBootstrapCoverageByUnits). Ten is the first count at which
+// a nominal 95 % interval covers at least 90 %: that floor is common
+// practice, no source.
+const MinIntervalUnits = 10
 
 // bootstrapRounds is the number of bootstrap resamples (common practice, no
 // source: 1000–2000 resamples are usual for a 95 % percentile interval).
@@ -196,9 +212,12 @@ func Decompose(ctx context.Context, run RunFunc, sources []Source) (*Result, err
 	}
 	r.RSSP95Deg, r.RSSRMSDeg = math.Sqrt(s95), math.Sqrt(srms)
 	r.NonAdditiveP95Deg = r.All.P95Deg - r.RSSP95Deg
-	r.NonAdditiveCI = bootstrapNonAdditive(alone, all, false, 1)
 	r.NonAdditiveRMSDeg = r.All.RMSDeg - r.RSSRMSDeg
-	r.NonAdditiveRMSCI = bootstrapNonAdditive(alone, all, true, 2)
+	r.NonAdditiveCI, r.NonAdditiveRMSCI = Interval{math.NaN(), math.NaN()}, Interval{math.NaN(), math.NaN()}
+	if r.Units >= MinIntervalUnits {
+		r.NonAdditiveCI = bootstrapNonAdditive(alone, all, false, 1)
+		r.NonAdditiveRMSCI = bootstrapNonAdditive(alone, all, true, 2)
+	}
 	sort.SliceStable(r.Terms, func(i, j int) bool { return r.Terms[i].P95Deg > r.Terms[j].P95Deg })
 	return r, nil
 }

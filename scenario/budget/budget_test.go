@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"codeberg.org/sunsight/sunsight/illum/sensor"
@@ -28,7 +29,8 @@ func fakeRun(a [NumSources]float64, w []float64) RunFunc {
 	}
 }
 
-var fakeWeights = []float64{0.9, 1.1, 1.0, 0.95, 1.05, 1.2, 0.8, 1.0}
+// Ten units: the bootstrap interval is given from MinIntervalUnits on.
+var fakeWeights = []float64{0.9, 1.1, 1.0, 0.95, 1.05, 1.2, 0.8, 1.0, 0.85, 1.15}
 
 func TestDecomposeClosedForm(t *testing.T) {
 	a := [NumSources]float64{Noise: 0.3, Misalignment: 0.4, Albedo: 1.2}
@@ -113,5 +115,59 @@ func TestToleranceTreatsNoValidAsMissed(t *testing.T) {
 	}
 	if Twist.String() != "twist" || !Twist.Scalable() {
 		t.Errorf("twist source %q scalable %v", Twist, Twist.Scalable())
+	}
+}
+
+// Below MinIntervalUnits the budget gives no bootstrap interval (NaN), from
+// it on it does.
+func TestIntervalNeedsEnoughUnits(t *testing.T) {
+	a := [NumSources]float64{Noise: 0.3, Albedo: 1.2}
+	for _, n := range []int{2, MinIntervalUnits - 1, MinIntervalUnits} {
+		r, err := Decompose(context.Background(), fakeRun(a, fakeWeights[:n]), []Source{Noise, Albedo})
+		if err != nil {
+			t.Fatal(err)
+		}
+		shown := !math.IsNaN(r.NonAdditiveCI.Lo) && !math.IsNaN(r.NonAdditiveRMSCI.Hi)
+		if shown != (n >= MinIntervalUnits) || shown != r.IntervalShown() {
+			t.Errorf("%d units: interval %+v, RMS %+v", n, r.NonAdditiveCI, r.NonAdditiveRMSCI)
+		}
+	}
+}
+
+// Why MinIntervalUnits: the percentile interval of a mean over n normal
+// units covers about P(|t(n−1)| < 1.96·√((n−1)/n)) of the true mean (closed
+// form of the plug-in variance and the normal quantile: 0.602 at n = 2,
+// 0.904 at n = 10, scipy.stats t.cdf), and at n = 2 the three distinct
+// resamples make it [min, max] of the two units, which holds the mean half
+// the time (closed form). Checked on the budget's own bootstrap with every
+// source alone at zero, so that all − RSS is the mean of the all-together
+// units.
+func TestBootstrapCoverageByUnits(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	const trials = 400
+	for _, c := range []struct {
+		n        int
+		lo, hi   float64
+		expected string
+	}{{2, 0.40, 0.60, "0.5"}, {MinIntervalUnits, 0.85, 0.95, "0.904"}} {
+		hit := 0
+		for range trials {
+			all := Metric{}
+			for range c.n {
+				x := 1 + rng.NormFloat64()
+				all.UnitP95Deg = append(all.UnitP95Deg, x)
+				all.UnitRMSDeg = append(all.UnitRMSDeg, x)
+			}
+			zero := Metric{UnitP95Deg: make([]float64, c.n), UnitRMSDeg: make([]float64, c.n)}
+			iv := bootstrapNonAdditive([]Metric{zero}, all, false, rng.Uint64())
+			if iv.Lo <= 1 && 1 <= iv.Hi {
+				hit++
+			}
+		}
+		got := float64(hit) / trials
+		if got < c.lo || got > c.hi {
+			t.Errorf("%d units: the 95 %% interval covers %.3f of trials, closed form about %s", c.n, got, c.expected)
+		}
+		t.Logf("%d units: covers %.3f (closed form about %s)", c.n, got, c.expected)
 	}
 }

@@ -24,20 +24,23 @@ type StudyOptions struct {
 // Report is a budget study: the terms of each source alone and all
 // together, what calibration and albedo correction buy, and the tolerances.
 type Report struct {
-	SchemaVersion int        `json:"schema_version"`
-	Scenario      string     `json:"scenario"`
-	DurationS     float64    `json:"duration_s"`
-	Shortened     bool       `json:"shortened"`
-	Units         int        `json:"units"`
-	Terms         []TermRow  `json:"terms"`
-	AllP95Deg     float64    `json:"all_p95_deg"`
-	AllRMSDeg     float64    `json:"all_rms_deg"`
-	RSSP95Deg     float64    `json:"rss_p95_deg"`
-	RSSRMSDeg     float64    `json:"rss_rms_deg"`
-	GapP95CIDeg   [2]float64 `json:"all_minus_rss_p95_ci95_deg"`
-	GapRMSCIDeg   [2]float64 `json:"all_minus_rss_rms_ci95_deg"`
-	CalibratedP95 *float64   `json:"calibrated_p95_deg,omitempty"`
-	CorrectedP95  *float64   `json:"albedo_corrected_p95_deg,omitempty"`
+	SchemaVersion int       `json:"schema_version"`
+	Scenario      string    `json:"scenario"`
+	DurationS     float64   `json:"duration_s"`
+	Shortened     bool      `json:"shortened"`
+	Units         int       `json:"units"`
+	Terms         []TermRow `json:"terms"`
+	AllP95Deg     float64   `json:"all_p95_deg"`
+	AllRMSDeg     float64   `json:"all_rms_deg"`
+	RSSP95Deg     float64   `json:"rss_p95_deg"`
+	RSSRMSDeg     float64   `json:"rss_rms_deg"`
+	// GapP95CIDeg and GapRMSCIDeg are the 95 % bootstrap intervals of
+	// all − RSS, null below IntervalMinUnits units.
+	GapP95CIDeg      *[2]float64 `json:"all_minus_rss_p95_ci95_deg"`
+	GapRMSCIDeg      *[2]float64 `json:"all_minus_rss_rms_ci95_deg"`
+	IntervalMinUnits int         `json:"interval_min_units"`
+	CalibratedP95    *float64    `json:"calibrated_p95_deg,omitempty"`
+	CorrectedP95     *float64    `json:"albedo_corrected_p95_deg,omitempty"`
 	// CorrectionModel names the on-board albedo model of CorrectedP95 and
 	// says when it is the truth's own (CorrectionModelText).
 	CorrectionModel string         `json:"albedo_correction_model,omitempty"`
@@ -135,7 +138,11 @@ func Study(ctx context.Context, s *scenario.Scenario, o StudyOptions) (Report, e
 	}
 	rep := Report{SchemaVersion: 1, Scenario: s.Name, DurationS: r.DurationS(), Shortened: r.Shortened(), Units: b.Units,
 		AllP95Deg: b.All.P95Deg, AllRMSDeg: b.All.RMSDeg, RSSP95Deg: b.RSSP95Deg, RSSRMSDeg: b.RSSRMSDeg,
-		GapP95CIDeg: [2]float64{b.NonAdditiveCI.Lo, b.NonAdditiveCI.Hi}, GapRMSCIDeg: [2]float64{b.NonAdditiveRMSCI.Lo, b.NonAdditiveRMSCI.Hi}, TargetDeg: tgt}
+		IntervalMinUnits: MinIntervalUnits, TargetDeg: tgt}
+	if b.IntervalShown() {
+		rep.GapP95CIDeg = &[2]float64{b.NonAdditiveCI.Lo, b.NonAdditiveCI.Hi}
+		rep.GapRMSCIDeg = &[2]float64{b.NonAdditiveRMSCI.Lo, b.NonAdditiveRMSCI.Hi}
+	}
 	for _, t := range b.Terms {
 		v, unit := r.Sigma(t.Source, 1)
 		if !t.Source.Scalable() {

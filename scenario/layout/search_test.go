@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"slices"
 	"testing"
 
@@ -139,5 +140,113 @@ func TestRefusesTooManyCandidates(t *testing.T) {
 	v := make([]sky.Viewer, MaxCandidates+1)
 	if _, err := Search(context.Background(), Problem{Viewers: v, Evaluate: always}); err == nil {
 		t.Error("31 candidates accepted")
+	}
+}
+
+// The lattice's share of a spherical cap is within Resolution of the closed
+// form (1 − cos θ)/2 for random caps, and 1/n would claim too much: the
+// worst cap error at 65 536 points is many lattice points.
+func TestResolutionBoundsCapError(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	for _, n := range []int{1024, 4096, 16384, 65536} {
+		lat, err := sky.Fibonacci(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		worst := 0.0
+		for range 300 {
+			z := 2*rng.Float64() - 1
+			φ := 2 * math.Pi * rng.Float64()
+			r := math.Sqrt(1 - z*z)
+			θ := math.Pi * rng.Float64()
+			c, err := sky.Coverage([]sky.Viewer{sky.NewCone(r3.Vec{X: r * math.Cos(φ), Y: r * math.Sin(φ), Z: z}, θ)}, lat)
+			if err != nil {
+				t.Fatal(err)
+			}
+			worst = max(worst, math.Abs(c.AtLeast[1]-(1-math.Cos(θ))/2))
+		}
+		if worst > Resolution(n) {
+			t.Errorf("n = %d: worst cap error %.2e above the resolution %.2e", n, worst, Resolution(n))
+		}
+		if n == 65536 && worst < 10.0/float64(n) {
+			t.Errorf("n = %d: worst cap error %.2e is under 10 lattice points", n, worst)
+		}
+		t.Logf("n = %d: worst cap error %.2e = %.2f n^(-3/4), resolution %.2e", n, worst, worst*math.Pow(float64(n), 0.75), Resolution(n))
+	}
+}
+
+// Two mirror-image subsets (axes x → −x about a mirror-symmetric pair) see
+// the same share of the sky (closed form: symmetry), but the lattice is not
+// mirror-symmetric and counts them a few points apart. That is below its
+// resolution: they tie on coverage and the lower p95 error ranks first, also
+// when only one alternative is asked for (the search took the first feasible
+// subset in coverage order and stopped).
+func TestCoverageBelowResolutionTiesAndP95Decides(t *testing.T) {
+	s, c := math.Sincos(40 * math.Pi / 180)
+	axes := []r3.Vec{{Z: 1}, {Z: -1}, {X: s, Y: 0.3, Z: c}, {X: -s, Y: 0.3, Z: c}}
+	v := cones(axes, 50)
+	lat, _ := sky.Fibonacci(DefaultPoints)
+	cov := func(s []int) float64 {
+		var sv []sky.Viewer
+		for _, i := range s {
+			sv = append(sv, v[i])
+		}
+		r, _ := sky.Coverage(sv, lat)
+		return r.AtLeast[1]
+	}
+	a, b := []int{0, 1, 2}, []int{0, 1, 3}
+	ca, cb := cov(a), cov(b)
+	if ca == cb || math.Abs(ca-cb) >= Resolution(DefaultPoints) {
+		t.Fatalf("the mirror pair's lattice coverages %.6f and %.6f do not differ below the resolution", ca, cb)
+	}
+	// The subset the lattice counts lower flies the better p95.
+	lower := a
+	if cb < ca {
+		lower = b
+	}
+	eval := func(_ context.Context, s []int) (Score, error) {
+		ok := slices.Equal(s, a) || slices.Equal(s, b)
+		p95 := 5.0
+		if slices.Equal(s, lower) {
+			p95 = 3
+		}
+		return Score{Meets: ok, Margin: 0.1, P95Deg: p95}, nil
+	}
+	for _, top := range []int{1, 5} {
+		res, err := Search(context.Background(), Problem{Viewers: v, CoverageSensors: 1, MinCoverage: 0.2, Evaluate: eval, Top: top})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.Best == nil || !slices.Equal(res.Best.Subset, lower) {
+			t.Errorf("top %d: best %+v, want %v (coverage %.6f against %.6f: a tie; p95 3° against 5°)", top, res.Best, lower, cov(lower), max(ca, cb))
+			continue
+		}
+		if top == 5 && (len(res.Alternatives) != 2 || res.Alternatives[0].CoverageClass != res.Alternatives[1].CoverageClass) {
+			t.Errorf("top 5: alternatives %+v, want the pair in one coverage class", res.Alternatives)
+		}
+	}
+}
+
+// A search stopped by MaxEvaluations before any subset met the targets is
+// not complete, and says how many coverage-passing subsets it left untried:
+// with those it adds up to what the full search simulates.
+func TestStoppedSearchCountsWhatItLeft(t *testing.T) {
+	never := func(_ context.Context, s []int) (Score, error) { return Score{Margin: -1, P95Deg: 1}, nil }
+	p := Problem{Viewers: cones(tilted(), 70), CoverageSensors: 1, MinCoverage: 0.9, Evaluate: never, Points: 2000}
+	full, err := Search(context.Background(), p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !full.Exhausted || full.Best != nil || full.Untried != 0 {
+		t.Fatalf("full search: exhausted %v, best %v, untried %d", full.Exhausted, full.Best, full.Untried)
+	}
+	p.MaxEvaluations = 5
+	cut, err := Search(context.Background(), p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if cut.Exhausted || cut.Evaluated != 5 || cut.UntriedAtLeast || cut.Evaluated+cut.Untried != full.Evaluated {
+		t.Errorf("stopped search: exhausted %v, %d simulated + %d untried (at least: %v), full search simulated %d",
+			cut.Exhausted, cut.Evaluated, cut.Untried, cut.UntriedAtLeast, full.Evaluated)
 	}
 }

@@ -134,14 +134,19 @@ func printBudget(w io.Writer, rep budget.Report, elapsed time.Duration) {
 		fmt.Fprintf(w, "  interval over units needs at least %d units (below that it holds the true value well under 90 %%\n", rep.IntervalMinUnits)
 		fmt.Fprintf(w, "  of the time); give --units %d or more to judge whether the budget adds in RSS.\n", rep.IntervalMinUnits)
 	}
-	if rep.CalibratedP95 != nil || rep.CorrectedP95 != nil {
+	if rep.CalibratedP95 != nil || rep.NoAlbedoP95 != nil {
 		fmt.Fprintln(w, "\nWhat calibration buys (p95, all sources):")
 		fmt.Fprintf(w, "  as stated                         %.3f°\n", rep.AllP95Deg)
 		if rep.CalibratedP95 != nil {
 			fmt.Fprintf(w, "  calibrated residuals (budget)     %.3f°\n", *rep.CalibratedP95)
 		}
-		if rep.CorrectedP95 != nil {
+		switch {
+		case rep.CorrectedP95 != nil:
 			fmt.Fprintf(w, "  albedo corrected on board         %.3f°   (%s)\n", *rep.CorrectedP95, rep.CorrectionModel)
+		case rep.NoAlbedoP95 != nil:
+			fmt.Fprintf(w, "  albedo corrected on board         —        (no sensor of the layout can subtract a predicted albedo)\n")
+		}
+		if rep.NoAlbedoP95 != nil {
 			fmt.Fprintf(w, "  no albedo at all (floor)          %.3f°\n", *rep.NoAlbedoP95)
 		}
 	}

@@ -1,6 +1,7 @@
 package budget
 
 import (
+	"codeberg.org/sunsight/sunsight/scenario/study"
 	"context"
 	"fmt"
 	"math"
@@ -168,12 +169,20 @@ func Study(ctx context.Context, s *scenario.Scenario, o StudyOptions) (Report, e
 		}
 	}
 	if all.Scale[Albedo] > 0 {
-		c := all
-		c.Correction = true
-		if rep.CorrectedP95, err = p95(c); err != nil {
+		// An on-board correction only where a sensor can subtract a
+		// prediction; otherwise the row would repeat "as stated".
+		canCorrect, err := study.CanCorrectAlbedo(s)
+		if err != nil {
 			return Report{}, err
 		}
-		rep.CorrectionModel = CorrectionModelText(s)
+		c := all
+		if canCorrect {
+			c.Correction = true
+			if rep.CorrectedP95, err = p95(c); err != nil {
+				return Report{}, err
+			}
+			rep.CorrectionModel = CorrectionModelText(s)
+		}
 		c = all
 		c.Scale[Albedo] = 0
 		if rep.NoAlbedoP95, err = p95(c); err != nil {

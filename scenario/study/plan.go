@@ -1,6 +1,7 @@
 package study
 
 import (
+	"codeberg.org/sunsight/sunsight/illum/sensor"
 	"fmt"
 	"math"
 
@@ -35,6 +36,11 @@ func Prepare(s *scenario.Scenario) (*Plan, error) {
 	cfg, err := Config(s)
 	if err != nil {
 		return nil, err
+	}
+	if cfg.NewCorrection != nil {
+		if err := onboardApplies(s, cfg.Array); err != nil {
+			return nil, err
+		}
 	}
 	p := &Plan{Primary: cfg}
 	for i, m := range s.Modes {
@@ -181,4 +187,47 @@ func MemoryEstimate(cfg *sim.Config, seriesRows int) int64 {
 		m += (steps/int64(cfg.SeriesStride) + 1) * memPerPowerRow
 	}
 	return m + sim.AlbedoTableBytes(cfg)
+}
+
+// onboardApplies refuses an on-board albedo correction that no sensor of
+// the file can apply (CanCorrectAlbedo): the key would change nothing.
+func onboardApplies(s *scenario.Scenario, body *sensor.Array) error {
+	if subtracts(body) {
+		return nil
+	}
+	if ok, err := CanCorrectAlbedo(s); ok || err != nil {
+		return err
+	}
+	return fmt.Errorf("albedo.onboard: no sensor of the file can subtract a predicted albedo (the cosine kind can; the others are passed unchanged), so the correction would change nothing; remove albedo.onboard or add cosine sensors")
+}
+
+// CanCorrectAlbedo reports whether some sensor of the file (the body's,
+// or a layout candidate) can subtract a predicted albedo from its reading
+// (sensor.AlbedoSubtracter): only those are corrected on board.
+func CanCorrectAlbedo(s *scenario.Scenario) (bool, error) {
+	for _, list := range []struct {
+		sensors []scenario.Sensor
+		path    string
+	}{{s.Body.Sensors, "body.sensors"}, {s.Body.Candidates, "body.candidates"}} {
+		if len(list.sensors) == 0 {
+			continue
+		}
+		arr, _, _, err := BuildSensors(s, list.sensors, list.path)
+		if err != nil {
+			return false, err
+		}
+		if subtracts(arr) {
+			return true, nil
+		}
+	}
+	return false, nil
+}
+
+func subtracts(arr *sensor.Array) bool {
+	for _, sn := range arr.Sensors() {
+		if _, ok := sn.(sensor.AlbedoSubtracter); ok {
+			return true
+		}
+	}
+	return false
 }

@@ -209,6 +209,12 @@ func init() {
 			{Key: "fov_shape", Type: Choice, Doc: "cone, or a square of half side half_angle_deg", Choices: []string{"cone", "square"}},
 			{Key: "moon_blind_lit_fraction", Doc: "the Moon inside the field of view invalidates the reading when its illuminated fraction is above this (1: never)",
 				Default: 1, Min: 0, Max: 1, Allowed: "[0, 1]; 1 turns the rule off"},
+			// 0.3 of full sun: above what a uniform Earth of albedo 0.3
+			// gives a nadir-facing detector in low orbit (ρ·(R/r)² ≤ 0.27
+			// at 400 km; closed form), so the default ignores albedo there
+			// (common practice, no source). State the unit's own level.
+			{Key: "albedo_ignore_below", Doc: "diffuse albedo irradiance on the detector, as a fraction of full sun, below which the centroid ignores it; above, it pulls the centroid toward the lit Earth (alone: a false sun)",
+				Default: digitalAlbedoRejection, Min: 0, Max: 1, Allowed: "[0, 1] of full sun (1: albedo never counts)"},
 			{Key: "lit_earth_blind_depth_deg", Doc: "the lit Earth reaching more than this far inside the field-of-view cone invalidates the reading (180: never)",
 				Default: 180, Min: 0, Max: 180, Allowed: "[0, 180] degrees; 180 turns the rule off", Scale: math.Pi / 180},
 		},
@@ -217,15 +223,16 @@ func init() {
 	})
 }
 
-// digitalAlbedoRejection is the diffuse irradiance, as a fraction of the solar
-// constant, below which a digital sensor ignores albedo (an assumed
-// detector property; common practice, no source).
+// digitalAlbedoRejection is the default of albedo_ignore_below: the
+// diffuse irradiance, as a fraction of the solar constant, below which a
+// digital sensor ignores albedo (an assumed detector property; common
+// practice, no source).
 const digitalAlbedoRejection = 0.3
 
 func buildDigital(c Common, p Params) (Sensor, error) {
 	return NewDigital(DigitalSpec{Name: c.Name, Mount: c.Mount, HalfAngle: c.HalfAngle, Square: p.Text["fov_shape"] == "square",
 		Sigma: p.Num["accuracy_deg_1sigma"], MinIrradiance: c.Threshold * SolarConstant,
-		AlbedoThreshold: digitalAlbedoRejection * SolarConstant, MisalignSigma: c.Errors.MisalignSigma,
+		AlbedoThreshold: p.Num["albedo_ignore_below"] * SolarConstant, MisalignSigma: c.Errors.MisalignSigma,
 		Blind: BlindRule{Moon: p.Num["moon_blind_lit_fraction"] < 1, MoonLitAbove: p.Num["moon_blind_lit_fraction"],
 			Earth: p.Num["lit_earth_blind_depth_deg"] < math.Pi-1e-12, EarthDepthAbove: p.Num["lit_earth_blind_depth_deg"]}})
 }

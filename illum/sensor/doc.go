@@ -74,9 +74,10 @@
 //
 // Digital: the centroid in the tangent plane (tan αx, tan αy) of the sun
 // (weight S·cos θ, when above MinIrradiance) and of the albedo mean
-// direction (weight E_alb, only when E_alb ≥ AlbedoThreshold and in the
-// FOV), plus Gaussian noise of the stated σ on each axis angle. Albedo alone
-// above the threshold produces a false sun, as real detectors can.
+// direction (weight E_alb, only when E_alb ≥ AlbedoThreshold, the key
+// albedo_ignore_below times S, default 0.3 S, and in the FOV), plus Gaussian
+// noise of the stated σ on each axis angle. Albedo alone above the threshold
+// produces a false sun, as real detectors can.
 //
 // Aperture array (ApertureArray, kind aperture-array): N small apertures in
 // a mask at height h, spanning a square of side A, over a square detector of

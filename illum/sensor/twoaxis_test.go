@@ -202,3 +202,34 @@ func TestQuadrantDeadZoneAndNonLinearInversion(t *testing.T) {
 		}
 	}
 }
+
+// albedo_ignore_below sets the level of diffuse light the digital centroid
+// ignores: 0.1 of full sun from 40° off the boresight leaves a sun on the
+// boresight read exactly at the default 0.3, and pulls it toward the Earth
+// at 0.05, by atan of the weighted mean tangent, 0.1·tan 40°/1.1 = 4.36°
+// (closed form of the centroid model); alone, it is a false sun.
+func TestDigitalAlbedoIgnoreLevel(t *testing.T) {
+	m, _ := FaceMount(FacePlusZ, 0, FaceNone, 0)
+	c := Common{Name: "d", Mount: m, HalfAngle: 60 * deg, Threshold: 0.05}
+	p := Params{Num: map[string]float64{"accuracy_deg_1sigma": 0.1 * deg, "moon_blind_lit_fraction": 1, "lit_earth_blind_depth_deg": math.Pi,
+		"albedo_ignore_below": 0.3}, Text: map[string]string{"fov_shape": "cone"}}
+	alb := Albedo{Irradiance: 0.1 * SolarConstant, Dir: sunAt(40*deg, 0)}
+	d, err := buildDigital(c, p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r := d.Read(r3.Vec{Z: 1}, SolarConstant, alb, nil); angle(r.Dir, r3.Vec{Z: 1}) != 0 {
+		t.Errorf("default level: albedo of 0.1 moved the reading by %g rad", angle(r.Dir, r3.Vec{Z: 1}))
+	}
+	p.Num["albedo_ignore_below"] = 0.05
+	if d, err = buildDigital(c, p); err != nil {
+		t.Fatal(err)
+	}
+	want := math.Atan(0.1 * math.Tan(40*deg) / 1.1)
+	if r := d.Read(r3.Vec{Z: 1}, SolarConstant, alb, nil); math.Abs(angle(r.Dir, r3.Vec{Z: 1})-want) > 1e-12 {
+		t.Errorf("level 0.05: pulled %.4f°, want %.4f°", angle(r.Dir, r3.Vec{Z: 1})/deg, want/deg)
+	}
+	if r := d.Read(r3.Vec{}, 0, alb, nil); !r.Valid {
+		t.Error("level 0.05: albedo alone gave no false sun")
+	}
+}

@@ -37,6 +37,9 @@ var kindKeyCases = map[string]kindKeyCase{
 	// they can fire: any Moon in view, the lit Earth 10° inside the cone.
 	"moon_blind_lit_fraction":   {value: 0.0},
 	"lit_earth_blind_depth_deg": {value: 10.0},
+	// The key base's albedo never reaches the default 0.3 of full sun on
+	// a detector: a low level lets it count.
+	"albedo_ignore_below": {value: 0.01},
 	// Drawn per unit: the key base's two units draw them.
 	"shade_size_mm_1sigma": {value: 0.1},
 	"twist_deg_1sigma":     {value: 2.0},

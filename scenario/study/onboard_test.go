@@ -38,3 +38,25 @@ body:
 		t.Errorf("with a cosine sensor: %v", err)
 	}
 }
+
+// A cosine sensor at threshold 0 beside an on-board correction is refused:
+// the residue of a dark sensor would count it lit by its sign.
+func TestOnboardRefusesAZeroThreshold(t *testing.T) {
+	s, err := scenario.Parse([]byte(`name: onboard
+epoch: "2026-06-01T00:00:00Z"
+duration: 3h
+step: 10s
+orbit: {altitude_km: 500, ltan: "10:30"}
+attitude: {law: nadir}
+albedo: {model: uniform, value: 0.3, onboard: {model: uniform, value: 0.3, cells: 1000}}
+body:
+  sensors:
+    - {name: c, kind: cosine, face: "+X", threshold: 0}
+`), ".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Prepare(s); err == nil || !strings.Contains(err.Error(), "body.sensors[0] (c).threshold: 0 with albedo.onboard") {
+		t.Errorf("threshold 0: %v; want a refusal", err)
+	}
+}

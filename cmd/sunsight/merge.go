@@ -23,7 +23,7 @@ func runMerge(args []string, stdout, stderr io.Writer) error {
 	if len(pos) == 0 {
 		return usagef("want the shard folders; usage: sunsight merge DIR... (the first one receives every case and sweep.csv)")
 	}
-	release, err := lockOutput(pos[0])
+	release, err := holdSweepDir(pos[0], !*noPlots)
 	if err != nil {
 		return err
 	}

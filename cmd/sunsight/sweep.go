@@ -85,7 +85,9 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	defer stop()
 	// One sweep at a time writes a folder: a second one on the same --out
 	// is refused at once instead of racing on plan.json and the case files.
-	release, err := lockOutput(*out)
+	// A folder that is not a sweep's is refused untouched (a shard writes
+	// no table nor figures; the merge does).
+	release, err := holdSweepDir(*out, !*noPlots && n <= 1)
 	if err != nil {
 		return err
 	}
@@ -116,13 +118,17 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 	}
 	caption := plots.Caption{Scenario: source + " swept over " + strings.Join(m.Keys, ", "),
 		Assumptions: "analysis aid; flight hardware needs qualified verification"}
-	cases, err := sweep.WriteOutputs(dirs, noPlots, caption)
+	// The figures go in as an output set of their own (with its manifest):
+	// a plots folder holding a file of the user's is never replaced.
+	cases, err := sweep.WriteOutputs(dirs, noPlots, caption, func(dst string, fill func(string) error) error {
+		return writeOutputDir(dst, true, fill)
+	})
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "sweep: wrote %s\n", filepath.Join(dirs[0], "sweep.csv"))
+	fmt.Fprintf(stdout, "sweep: wrote %s\n", filepath.Join(dirs[0], sweep.TableFile))
 	if !noPlots {
-		fmt.Fprintf(stdout, "sweep: figures in %s\n", filepath.Join(dirs[0], "plots"))
+		fmt.Fprintf(stdout, "sweep: figures in %s\n", filepath.Join(dirs[0], sweep.PlotsDir))
 	}
 	failed := 0
 	for _, cf := range cases {

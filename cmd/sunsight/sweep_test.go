@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -185,5 +186,97 @@ func TestMergeRefusesEditedCase(t *testing.T) {
 	se.Reset()
 	if code := runMain([]string{"merge", "--no-plots", out}, &so, &se); code == 0 || !strings.Contains(se.String(), "checksum") {
 		t.Errorf("edited case: exit %d, %s", code, se.String())
+	}
+}
+
+// tree lists every file under dir with its contents, for before/after
+// comparisons.
+func tree(t *testing.T, dir string) map[string]string {
+	t.Helper()
+	m := map[string]string{}
+	filepath.WalkDir(dir, func(p string, d os.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		rel, _ := filepath.Rel(dir, p)
+		if d.IsDir() {
+			m[rel+"/"] = ""
+			return nil
+		}
+		b, _ := os.ReadFile(p)
+		m[rel] = string(b)
+		return nil
+	})
+	return m
+}
+
+// sweep --out refuses, before any case runs, a folder that holds files and
+// is not a sunsight sweep (no plan.json): exit 2 naming the folder, and the
+// folder exactly as it was (no lock, no case, the user's files untouched).
+// In a sweep folder, a plots folder holding a file that is not one of its
+// figures is refused too, so re-running never deletes it.
+func TestSweepRefusesForeignFolder(t *testing.T) {
+	file := writeSweepScenario(t)
+	for _, files := range []map[string]string{
+		{"plots/mine.png": "mine", "sweep.csv": "my,table\n"},
+		{"notes.txt": "notes"},
+		{"cases/00000.json": "{}"},
+	} {
+		out := filepath.Join(t.TempDir(), "user")
+		for name, text := range files {
+			os.MkdirAll(filepath.Dir(filepath.Join(out, name)), 0o755)
+			os.WriteFile(filepath.Join(out, name), []byte(text), 0o644)
+		}
+		before := tree(t, out)
+		var so, se bytes.Buffer
+		code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", out}, &so, &se)
+		if code != exitUsage || !strings.Contains(se.String(), out) || !strings.Contains(se.String(), "not a sunsight sweep") {
+			t.Errorf("%v: exit %d, stderr %q; want 2 naming the folder", files, code, se.String())
+		}
+		if after := tree(t, out); fmt.Sprint(after) != fmt.Sprint(before) {
+			t.Errorf("%v: the folder changed:\n%v\nwas\n%v", files, after, before)
+		}
+	}
+	// A sweep folder whose plots hold a file of the user's.
+	out := filepath.Join(t.TempDir(), "o")
+	args := []string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", out}
+	var so, se bytes.Buffer
+	if code := runMain(args, &so, &se); code != exitOK {
+		t.Fatalf("sweep: exit %d %s", code, se.String())
+	}
+	mine := filepath.Join(out, "plots", "mine.png")
+	os.WriteFile(mine, []byte("mine"), 0o644)
+	se.Reset()
+	if code := runMain(args, &so, &se); code != exitUsage || !strings.Contains(se.String(), "mine.png") {
+		t.Errorf("user file in plots: exit %d, stderr %q; want 2 naming it", code, se.String())
+	}
+	if b, err := os.ReadFile(mine); err != nil || string(b) != "mine" {
+		t.Errorf("the user's file in plots: %q %v", b, err)
+	}
+	// Re-running a finished sweep with its own figures is fine.
+	os.Remove(mine)
+	if code := runMain(args, &so, &se); code != exitOK {
+		t.Errorf("re-run: exit %d %s", code, se.String())
+	}
+}
+
+// An output folder with its manifest but also a file the manifest does not
+// list (the user's) is not replaced, even with --force: exit 2 naming the
+// file, which is kept.
+func TestForceKeepsAFileOutsideTheSet(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "csv")
+	args := []string{"run", "../../examples/nadir-6u-sso.yaml", "--duration", "1h", "--quiet", "--csv", out}
+	var so, se bytes.Buffer
+	if code := runMain(args, &so, &se); code != exitTargetFailed {
+		t.Fatalf("first run: exit %d %s", code, se.String())
+	}
+	mine := filepath.Join(out, "notes.txt")
+	os.WriteFile(mine, []byte("mine"), 0o644)
+	se.Reset()
+	if code := runMain(append(args, "--force"), &so, &se); code != exitUsage || !strings.Contains(se.String(), "notes.txt") {
+		t.Errorf("exit %d, stderr %q; want 2 naming notes.txt", code, se.String())
+	}
+	if b, err := os.ReadFile(mine); err != nil || string(b) != "mine" {
+		t.Errorf("the user's file: %q %v", b, err)
 	}
 }

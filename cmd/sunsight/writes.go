@@ -12,6 +12,7 @@ import (
 	"path/filepath"
 
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
+	"codeberg.org/sunsight/sunsight/scenario/sweep"
 )
 
 // Every command writes its files the same way: an output file or folder that
@@ -55,14 +56,88 @@ func checkOutputDir(dir string, force bool) error {
 		return usageError{err}
 	}
 	if len(ents) > 0 {
-		if _, err := os.Stat(filepath.Join(dir, manifestName)); err != nil {
+		b, err := os.ReadFile(filepath.Join(dir, manifestName))
+		if err != nil {
 			return usagef("output folder %s holds files that are not a sunsight output set (no %s); give a new or empty folder", dir, manifestName)
+		}
+		// A file the manifest does not list was put there by someone
+		// else: replacing the folder would delete it.
+		if name, err := unlisted(dir, b); err != nil {
+			return usageError{err}
+		} else if name != "" {
+			return usagef("output folder %s holds %s, which is not part of its output set (not in %s); move it away or give another folder", dir, name, manifestName)
 		}
 		if !force {
 			return usagef("output folder %s holds an earlier output set; give a new folder, or add --force to replace it", dir)
 		}
 	}
 	return usageError2(ensureWritableDir(filepath.Dir(filepath.Clean(dir))))
+}
+
+// unlisted returns the first file under dir (by path) that the manifest
+// text m does not list, or "".
+func unlisted(dir string, m []byte) (string, error) {
+	var man manifest
+	if err := json.Unmarshal(m, &man); err != nil {
+		return "", fmt.Errorf("output folder %s: %s is not a sunsight manifest (%v); give a new or empty folder", dir, manifestName, err)
+	}
+	first := ""
+	err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		rel, _ := filepath.Rel(dir, p)
+		rel = filepath.ToSlash(rel)
+		if _, ok := man.Files[rel]; !ok && rel != manifestName {
+			first = rel
+			return fs.SkipAll
+		}
+		return nil
+	})
+	return first, err
+}
+
+// checkSweepDir refuses, before any case runs, a sweep folder (sweep --out,
+// the first folder of merge) whose writing would replace or mix with files
+// that are not a sweep's: a folder holding files but no plan.json, a
+// sweep.csv that is not a regular file, and (withPlots) a plots folder that
+// is not a sunsight figure set or holds a file its manifest does not list.
+// Only the lock file of a sweep stopped before its plan may be there alone.
+func checkSweepDir(dir string, withPlots bool) error {
+	st, err := os.Lstat(dir)
+	if errors.Is(err, fs.ErrNotExist) {
+		return usageError2(ensureWritableDir(filepath.Dir(filepath.Clean(dir))))
+	}
+	if err != nil {
+		return usageError{err}
+	}
+	if !st.IsDir() {
+		return usagef("output folder %s exists and is not a folder; give a new or empty folder", dir)
+	}
+	ents, err := os.ReadDir(dir)
+	if err != nil {
+		return usageError{err}
+	}
+	_, err = sweep.ReadManifest(dir)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		for _, e := range ents {
+			if e.Name() != atomicfile.LockName {
+				return usagef("output folder %s holds files that are not a sunsight sweep (%s, and no %s); give a new or empty folder", dir, e.Name(), sweep.PlanFile)
+			}
+		}
+	case err != nil:
+		return usageError{err}
+	}
+	if err := atomicfile.CheckTarget(filepath.Join(dir, sweep.TableFile)); err != nil {
+		return usageError{err}
+	}
+	if withPlots {
+		if err := checkOutputDir(filepath.Join(dir, sweep.PlotsDir), true); err != nil {
+			return err
+		}
+	}
+	return usageError2(ensureWritableDir(dir))
 }
 
 func usageError2(err error) error {
@@ -141,6 +216,27 @@ func writeManifest(dir string) error {
 		return fmt.Errorf("manifest: %w", err)
 	}
 	return nil
+}
+
+// holdSweepDir checks the sweep folder dir (checkSweepDir) and holds it for
+// this process. A folder without a lock file is checked before the lock is
+// taken, so a folder refused is left as it was; the check is made again
+// under the lock, where no other sweep can be writing the folder.
+func holdSweepDir(dir string, withPlots bool) (release func(), err error) {
+	if _, err := os.Lstat(filepath.Join(dir, atomicfile.LockName)); err != nil {
+		if err := checkSweepDir(dir, withPlots); err != nil {
+			return nil, err
+		}
+	}
+	release, err = lockOutput(dir)
+	if err != nil {
+		return nil, err
+	}
+	if err := checkSweepDir(dir, withPlots); err != nil {
+		release()
+		return nil, err
+	}
+	return release, nil
 }
 
 // lockOutput holds the folder dir for this process (see atomicfile.Lock).

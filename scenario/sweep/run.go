@@ -71,6 +71,14 @@ type Options struct {
 	Done func(index int)
 }
 
+// The files of a sweep folder besides cases/: the plan, the table and the
+// figures' folder.
+const (
+	PlanFile  = "plan.json"
+	TableFile = "sweep.csv"
+	PlotsDir  = "plots"
+)
+
 // Manifest is DIR/plan.json: the sweep's definition, so a resume or merge
 // can refuse a folder made by another sweep.
 type Manifest struct {
@@ -147,11 +155,16 @@ func Execute(ctx context.Context, p *Plan, dir string, opt Options) (Summary, er
 	if run == nil {
 		run = RunCase
 	}
-	if err := os.MkdirAll(filepath.Join(dir, "cases"), 0o755); err != nil {
+	// The plan first: a folder holding anything of the sweep's holds its
+	// plan.json, which is how a later run knows the folder is a sweep's.
+	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return sum, fmt.Errorf("sweep: output folder: %w", err)
 	}
 	if err := p.claim(dir); err != nil {
 		return sum, err
+	}
+	if err := os.MkdirAll(filepath.Join(dir, "cases"), 0o755); err != nil {
+		return sum, fmt.Errorf("sweep: output folder: %w", err)
 	}
 	var todo []int
 	for i := range p.Cases {
@@ -244,7 +257,7 @@ feed:
 
 // claim writes dir/plan.json, or checks that the one there is this plan's.
 func (p *Plan) claim(dir string) error {
-	path := filepath.Join(dir, "plan.json")
+	path := filepath.Join(dir, PlanFile)
 	want := p.manifest()
 	old, err := ReadManifest(dir)
 	if errors.Is(err, os.ErrNotExist) {
@@ -328,7 +341,7 @@ func ReadCase(dir string, i int) (*CaseFile, error) {
 // ReadManifest reads dir/plan.json.
 func ReadManifest(dir string) (Manifest, error) {
 	var m Manifest
-	data, err := os.ReadFile(filepath.Join(dir, "plan.json"))
+	data, err := os.ReadFile(filepath.Join(dir, PlanFile))
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
 			return m, err

@@ -166,10 +166,15 @@ func (cf *CaseFile) Value(name string) float64 {
 	return math.NaN()
 }
 
+// PutDir puts a folder of outputs at dst, filled by fill, as a whole (the
+// command line's writer adds its manifest and refuses a folder that holds
+// files of someone else's).
+type PutDir func(dst string, fill func(dir string) error) error
+
 // WriteOutputs gathers dirs, writes dirs[0]/sweep.csv and, unless noPlots,
-// the sweep curves in dirs[0]/plots (PNG and SVG). It writes nothing when a
-// case is missing.
-func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) ([]*CaseFile, error) {
+// the sweep curves in dirs[0]/plots (PNG and SVG) through put (nil:
+// atomicfile.ReplaceDir). It writes nothing when a case is missing.
+func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption, put PutDir) ([]*CaseFile, error) {
 	m, cases, err := Gather(dirs)
 	if err != nil {
 		return nil, err
@@ -178,14 +183,17 @@ func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) ([]*CaseFi
 	if err := Table(&buf, m, cases); err != nil {
 		return nil, fmt.Errorf("sweep: table: %w", err)
 	}
-	if err := atomicfile.Write(filepath.Join(dirs[0], "sweep.csv"), buf.Bytes()); err != nil {
+	if err := atomicfile.Write(filepath.Join(dirs[0], TableFile), buf.Bytes()); err != nil {
 		return nil, err
 	}
 	if noPlots {
 		return cases, nil
 	}
 	// The figures are drawn into a fresh folder swapped in whole.
-	err = atomicfile.ReplaceDir(filepath.Join(dirs[0], "plots"), func(dir string) error {
+	if put == nil {
+		put = atomicfile.ReplaceDir
+	}
+	err = put(filepath.Join(dirs[0], PlotsDir), func(dir string) error {
 		return writePlots(dir, m, cases, caption)
 	})
 	return cases, err

@@ -50,6 +50,9 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	if *target < 0 || math.IsNaN(*target) || math.IsInf(*target, 0) {
 		return usagef("--tolerance-target %g: want a p95 error in degrees > 0", *target)
 	}
+	if err := distinctOutputs(output{"--out", *out}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
+	}
 	if *out != "" {
 		if err := checkOutputDir(*out, *force); err != nil {
 			return err

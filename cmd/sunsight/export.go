@@ -37,6 +37,9 @@ func runExport(args []string, stdout, stderr io.Writer) error {
 	if *oemPath == "" && *aemPath == "" {
 		return usagef("nothing to write; give --oem FILE, --aem FILE or both")
 	}
+	if err := distinctOutputs(output{"--oem", *oemPath}, output{"--aem", *aemPath}); err != nil {
+		return err
+	}
 	for _, p := range []string{*oemPath, *aemPath} {
 		if p != "" {
 			if err := checkOutputFile(p, *force); err != nil {

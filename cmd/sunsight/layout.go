@@ -42,6 +42,9 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	if *maxSensors < 0 || *top < 1 || *points < 1 || *maxRuns < 0 {
 		return usagef("--max-sensors ≥ 0, --top ≥ 1, --sky-points ≥ 1 and --max-runs ≥ 0 are required")
 	}
+	if err := distinctOutputs(output{"--out", *out}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
+	}
 	if *out != "" {
 		if err := checkOutputDir(*out, *force); err != nil {
 			return err

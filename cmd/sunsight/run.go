@@ -85,6 +85,9 @@ func parseRunFlags(args []string, stdout io.Writer) (runFlags, string, error) {
 	if f.allUnits && f.csvDir == "" {
 		return f, "", usagef("--all-units selects the units of the --csv tables; give --csv DIR too")
 	}
+	if err := distinctOutputs(output{"--csv", f.csvDir}, output{"--plots", f.plotsDir}, output{"--report", f.report}, output{"--cpuprofile", f.cpuProf}); err != nil {
+		return f, "", err
+	}
 	return f, pos[0], nil
 }
 

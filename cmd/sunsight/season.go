@@ -60,6 +60,9 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	if err := opt.Validate(); err != nil {
 		return usageError{err}
 	}
+	if err := distinctOutputs(output{"--csv", *csvDir}, output{"--plots", *plotsDir}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
+	}
 	for _, d := range []string{*csvDir, *plotsDir} {
 		if d != "" {
 			if err := checkOutputDir(d, *force); err != nil {

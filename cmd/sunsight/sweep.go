@@ -53,6 +53,9 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	if *out == "" {
 		return usagef("--out is missing; give the folder for the case files and sweep.csv")
 	}
+	if err := distinctOutputs(output{"--out", *out}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
+	}
 	if *workers < 0 {
 		return usagef("--workers %d: give 0 (number of CPUs) or a positive count", *workers)
 	}

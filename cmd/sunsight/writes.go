@@ -10,6 +10,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"strings"
 
 	"codeberg.org/sunsight/sunsight/internal/atomicfile"
 	"codeberg.org/sunsight/sunsight/scenario/sweep"
@@ -246,4 +247,70 @@ func lockOutput(dir string) (release func(), err error) {
 		return nil, fmt.Errorf("%s is in use by another sunsight process; wait for it to finish or give another folder", dir)
 	}
 	return release, err
+}
+
+// output is one output path of a command and the flag that names it.
+type output struct{ flag, path string }
+
+// distinctOutputs refuses, before any work, two outputs of one command on
+// the same path or one inside the other (a file in an output folder, a
+// folder in another): the second would replace the first, or vanish when the
+// first folder is swapped into place. Paths are compared absolute, cleaned,
+// with the symbolic links of their existing part resolved. Empty paths (an
+// output not asked for) and "-" (standard output) are skipped.
+func distinctOutputs(outs ...output) error {
+	type resolved struct {
+		output
+		abs string
+	}
+	var rs []resolved
+	for _, o := range outs {
+		if o.path == "" || o.path == stdinName {
+			continue
+		}
+		abs, err := resolvePath(o.path)
+		if err != nil {
+			return usagef("%s %s: %v", o.flag, o.path, err)
+		}
+		for _, r := range rs {
+			switch {
+			case abs == r.abs:
+				return usagef("%s %s and %s %s are the same path: one output would replace the other; give each its own path", r.flag, r.path, o.flag, o.path)
+			case within(abs, r.abs):
+				return usagef("%s %s is inside %s %s: give each output its own place, outside the other's folder", o.flag, o.path, r.flag, r.path)
+			case within(r.abs, abs):
+				return usagef("%s %s is inside %s %s: give each output its own place, outside the other's folder", r.flag, r.path, o.flag, o.path)
+			}
+		}
+		rs = append(rs, resolved{o, abs})
+	}
+	return nil
+}
+
+// within reports whether path p lies under the folder dir (both clean and
+// absolute).
+func within(p, dir string) bool {
+	rel, err := filepath.Rel(dir, p)
+	return err == nil && rel != "." && rel != ".." && !strings.HasPrefix(rel, ".."+string(filepath.Separator))
+}
+
+// resolvePath is p absolute and clean, with the symbolic links of its
+// longest existing ancestor resolved (the rest does not exist yet).
+func resolvePath(p string) (string, error) {
+	abs, err := filepath.Abs(p)
+	if err != nil {
+		return "", err
+	}
+	head, tail := abs, ""
+	for {
+		if r, err := filepath.EvalSymlinks(head); err == nil {
+			return filepath.Join(r, tail), nil
+		}
+		parent := filepath.Dir(head)
+		if parent == head {
+			return abs, nil
+		}
+		tail = filepath.Join(filepath.Base(head), tail)
+		head = parent
+	}
 }

@@ -209,8 +209,9 @@ func noDefault(fs *flagSet, names ...string) {
 	}
 }
 
-// interruptContext is cancelled by Ctrl-C (SIGINT) or SIGTERM, what batch
-// schedulers send: the work stops, no partial output is written.
+// interruptContext is cancelled by Ctrl-C (SIGINT), SIGTERM (what batch
+// schedulers send) or SIGHUP (the terminal closed): the work stops, its
+// temporary files are removed, no partial output is written.
 func interruptContext() (context.Context, context.CancelFunc) {
-	return signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	return signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM, syscall.SIGHUP)
 }

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"path/filepath"
@@ -104,7 +105,7 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 		}
 	}})
 	if err != nil {
-		return err
+		return sweepError(err)
 	}
 	fmt.Fprintf(stdout, "sweep: %d cases in %s (%d run now, %d already there)\n", sum.InShard, *out, sum.Ran, sum.Skipped)
 	if n > 1 {
@@ -127,7 +128,7 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 		return writeOutputDir(dst, true, fill)
 	})
 	if err != nil {
-		return err
+		return sweepError(err)
 	}
 	fmt.Fprintf(stdout, "sweep: wrote %s\n", filepath.Join(dirs[0], sweep.TableFile))
 	if !noPlots {
@@ -145,6 +146,17 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 	}
 	fmt.Fprintf(stdout, "verdict: every target met in all %d cases\n", len(cases))
 	return nil
+}
+
+// sweepError is err, marked bad input (exit 2) when it is a folder that does
+// not fit the sweep (sweep.FolderError: another sweep's, a case missing or
+// damaged), which the user fixes.
+func sweepError(err error) error {
+	var fe *sweep.FolderError
+	if errors.As(err, &fe) {
+		return usageError{err}
+	}
+	return err
 }
 
 func parseShard(s string) (k, n int, err error) {

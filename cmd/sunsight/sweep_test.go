@@ -280,3 +280,61 @@ func TestForceKeepsAFileOutsideTheSet(t *testing.T) {
 		t.Errorf("the user's file: %q %v", b, err)
 	}
 }
+
+// A case that loads but cannot be built (7000 km with an LTAN: no
+// sun-synchronous inclination exists) is bad input found before any case
+// runs: exit 2 naming the case, as check gives for the same file, and no
+// output folder. A folder holding another sweep, and merge given folders of
+// different sweeps, a shard missing or a folder that is no sweep's, are bad
+// input too (exit 2), and merge copies nothing before it refuses.
+func TestSweepBadInputExit2(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "x2")
+	var so, se bytes.Buffer
+	code := runMain([]string{"sweep", "../../examples/nadir-6u-sso.yaml", "--vary", "orbit.altitude_km=400,7000", "--vary", "duration=30m", "--out", out}, &so, &se)
+	if code != exitUsage || !strings.Contains(se.String(), "case 1") || !strings.Contains(se.String(), "sun-synchronous") {
+		t.Errorf("7000 km case: exit %d, stderr %q; want 2 naming case 1", code, se.String())
+	}
+	if _, err := os.Stat(out); err == nil {
+		t.Error("the refused sweep left its output folder")
+	}
+
+	file := writeSweepScenario(t)
+	a := filepath.Join(dir, "a")
+	if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", a, "--no-plots"}, &so, &se); code != exitOK {
+		t.Fatalf("sweep a: %d %s", code, se.String())
+	}
+	se.Reset()
+	if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,600", "--out", a, "--no-plots"}, &so, &se); code != exitUsage || !strings.Contains(se.String(), "another sweep") {
+		t.Errorf("another sweep in the folder: exit %d, %s", code, se.String())
+	}
+	var shards []string
+	for _, k := range []string{"1/3", "2/3"} {
+		d := filepath.Join(dir, "shard"+k[:1])
+		if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400:600:100", "--shard", k, "--out", d}, &so, &se); code != exitOK {
+			t.Fatalf("shard %s: %d %s", k, code, se.String())
+		}
+		shards = append(shards, d)
+	}
+	before := tree(t, shards[0])
+	for _, c := range []struct {
+		dirs []string
+		want string
+	}{
+		{shards, "missing"},
+		{[]string{shards[0], a}, "different sweeps"},
+		{[]string{filepath.Join(dir, "none"), shards[0]}, "plan.json"},
+	} {
+		se.Reset()
+		code := runMain(append([]string{"merge", "--no-plots"}, c.dirs...), &so, &se)
+		if code != exitUsage || !strings.Contains(se.String(), c.want) {
+			t.Errorf("merge %v: exit %d, stderr %q; want 2 and %q", c.dirs, code, se.String(), c.want)
+		}
+	}
+	if after := tree(t, shards[0]); fmt.Sprint(after) != fmt.Sprint(before) {
+		t.Errorf("a refused merge changed the first folder:\n%v\nwas\n%v", after, before)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "none")); err == nil {
+		t.Error("a refused merge created its first folder")
+	}
+}

@@ -36,6 +36,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	force := fs.Bool("force", false, "replace an earlier --out folder")
 	full := fs.Bool("full", false, "simulate the scenario's whole duration instead of at most 6 h")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -76,7 +77,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 		return usageError{err}
 	}
 	if err != nil {
-		return err
+		return interrupted(err)
 	}
 	tgt := rep.TargetDeg
 	if *out != "" {

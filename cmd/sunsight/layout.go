@@ -32,6 +32,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; the answer is then not proven)")
 	force := fs.Bool("force", false, "replace an earlier --out folder")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -74,7 +75,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	defer stop()
 	eval, err := layout.Evaluator(ctx, s)
 	if err != nil {
-		return err
+		return interrupted(err)
 	}
 	t := s.Targets
 	res, err := layout.Search(ctx, layout.Problem{
@@ -83,7 +84,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		MaxEvaluations: *maxRuns, Evaluate: eval,
 	})
 	if err != nil {
-		return err
+		return interrupted(err)
 	}
 	name := func(c layout.Choice) string {
 		var n []string

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"io"
@@ -36,6 +37,7 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	shard := fs.String("shard", "", "`K/N`: run only cases with index % N == K-1 (join the shards with sunsight merge)")
 	noPlots := fs.Bool("no-plots", false, "write the table but no figures")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -104,6 +106,10 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 			fmt.Fprintf(stderr, "sweep: %d new cases done\n", d)
 		}
 	}})
+	if errors.Is(err, context.Canceled) {
+		// The finished cases stay: a sweep resumes.
+		return fmt.Errorf("interrupted after %d new cases (%d of %d in %s); run the same command again to resume", sum.Ran, sum.Ran+sum.Skipped, sum.InShard, *out)
+	}
 	if err != nil {
 		return sweepError(err)
 	}

@@ -162,9 +162,16 @@ func TestKilledRunLeavesOldOrNewSet(t *testing.T) {
 	}
 }
 
-// SIGTERM stops a run like Ctrl-C: exit 1, "interrupted", the old output set
-// untouched and no temporary folder left.
+// SIGTERM, and SIGHUP (the terminal closed), stop a run like Ctrl-C: exit 1,
+// "interrupted", the old output set untouched and no temporary file or
+// folder left (SIGHUP left the series' temporary file, exit 129).
 func TestSIGTERMStopsCleanly(t *testing.T) {
+	for _, sig := range []syscall.Signal{syscall.SIGTERM, syscall.SIGHUP} {
+		t.Run(sig.String(), func(t *testing.T) { signalStopsCleanly(t, sig) })
+	}
+}
+
+func signalStopsCleanly(t *testing.T, sig syscall.Signal) {
 	dir := t.TempDir()
 	out := filepath.Join(dir, "csv")
 	scen := "../../examples/nadir-6u-sso.yaml"
@@ -180,7 +187,7 @@ func TestSIGTERMStopsCleanly(t *testing.T) {
 		t.Fatal(err)
 	}
 	time.Sleep(500 * time.Millisecond)
-	c.Process.Signal(syscall.SIGTERM)
+	c.Process.Signal(sig)
 	err := c.Wait()
 	code := -1
 	if ee, ok := err.(*exec.ExitError); ok {
@@ -189,10 +196,10 @@ func TestSIGTERMStopsCleanly(t *testing.T) {
 		code = 0
 	}
 	if code != exitFailure || !strings.Contains(cerr.String(), "interrupted") {
-		t.Errorf("SIGTERM: exit %d, stderr %q; want 1 and interrupted", code, cerr.String())
+		t.Errorf("%v: exit %d, stderr %q; want 1 and interrupted", sig, code, cerr.String())
 	}
 	if got := outputSet(t, out); !sameSet(got, old) {
-		t.Error("SIGTERM changed the old set")
+		t.Errorf("%v changed the old set", sig)
 	}
 	ents, _ := os.ReadDir(dir)
 	if len(ents) != 1 {
@@ -263,5 +270,33 @@ func TestWriteFailureMidOutput(t *testing.T) {
 	}
 	if strings.Join(names, " ") != "csv layout.yaml report.html" {
 		t.Errorf("left beside the outputs: %v", names)
+	}
+}
+
+// A closed pipe on standard output (sunsight run x.yaml | head -1) is a write
+// error: exit 1 with one message, not the death by SIGPIPE (141 in a shell).
+func TestClosedPipeIsAWriteError(t *testing.T) {
+	pass := nadirWith(t, "40")
+	for _, args := range [][]string{
+		{"run", pass, "--duration", "2h", "--quiet"},
+		{"run", pass, "--duration", "2h", "--quiet", "--json"},
+		{"orbit", "--altitude-km", "550", "--ltan", "10:30", "--epoch", "2027-03-20T12:00:00Z"},
+	} {
+		r, w, err := os.Pipe()
+		if err != nil {
+			t.Fatal(err)
+		}
+		r.Close() // the reader is gone before the first write
+		c := child(false, args...)
+		c.Stdout = w
+		var cerr bytes.Buffer
+		c.Stderr = &cerr
+		err = c.Run()
+		w.Close()
+		code := exitCode(err)
+		msg := cerr.String()
+		if code != exitFailure || !strings.Contains(msg, "broken pipe") || strings.Count(msg, "\n") != 1 {
+			t.Errorf("%v | (closed): exit %d (%v), stderr %q; want 1 and one message naming the broken pipe", args, code, err, msg)
+		}
 	}
 }

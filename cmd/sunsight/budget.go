@@ -36,6 +36,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	force := fs.Bool("force", false, "replace an earlier --out folder")
 	full := fs.Bool("full", false, "simulate the scenario's whole duration instead of at most 6 h")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -49,6 +50,9 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	}
 	if *target < 0 || math.IsNaN(*target) || math.IsInf(*target, 0) {
 		return usagef("--tolerance-target %g: want a p95 error in degrees > 0", *target)
+	}
+	if err := distinctOutputs(output{"--out", *out}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
 	}
 	if *out != "" {
 		if err := checkOutputDir(*out, *force); err != nil {
@@ -73,7 +77,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 		return usageError{err}
 	}
 	if err != nil {
-		return err
+		return interrupted(err)
 	}
 	tgt := rep.TargetDeg
 	if *out != "" {

@@ -8,6 +8,7 @@ import (
 	"os"
 	"os/signal"
 	"path/filepath"
+	"sort"
 	"strings"
 	"syscall"
 
@@ -23,6 +24,42 @@ import (
 // working; single letters (-o, -q) are the short forms.
 type flagSet struct {
 	*pflag.FlagSet
+	// paths are the flags whose value is a path; true where "-" means
+	// standard output.
+	paths map[string]bool
+}
+
+// pathFlags marks the named flags as paths: a value starting with "-" is
+// refused (it is the next flag, taken as the value of one whose value was
+// forgotten), except "-" itself where dashOK says it means standard output.
+func (fs *flagSet) pathFlags(dashOK bool, names ...string) {
+	if fs.paths == nil {
+		fs.paths = map[string]bool{}
+	}
+	for _, n := range names {
+		if fs.Lookup(n) == nil {
+			panic("sunsight: pathFlags: no flag " + n)
+		}
+		fs.paths[n] = dashOK
+	}
+}
+
+// checkPaths refuses a path flag whose value looks like a flag.
+func (fs *flagSet) checkPaths() error {
+	names := make([]string, 0, len(fs.paths))
+	for n := range fs.paths {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		f := fs.Lookup(n)
+		v := f.Value.String()
+		if !f.Changed || !strings.HasPrefix(v, "-") || (v == stdinName && fs.paths[n]) {
+			continue
+		}
+		return usagef("--%s %q: the value looks like a flag, not a path (was the value of --%s left out?); give the path, or ./%s for a name that starts with \"-\"", n, v, n, v)
+	}
+	return nil
 }
 
 // newFlagSet returns the parser of the named command. It prints nothing
@@ -32,7 +69,7 @@ func newFlagSet(name string) *flagSet {
 	fs.SetOutput(io.Discard)
 	fs.Usage = func() {}
 	fs.SortFlags = true
-	return &flagSet{fs}
+	return &flagSet{FlagSet: fs}
 }
 
 // parse reads args and returns the positional arguments. On --help it
@@ -45,6 +82,9 @@ func (fs *flagSet) parse(args []string, stdout io.Writer) ([]string, error) {
 	}
 	if err != nil {
 		return nil, usagef("%v%s; run 'sunsight %s --help' for the flags", err, flagHint(fs.FlagSet, err), fs.Name())
+	}
+	if err := fs.checkPaths(); err != nil {
+		return nil, err
 	}
 	return fs.Args(), nil
 }
@@ -209,8 +249,22 @@ func noDefault(fs *flagSet, names ...string) {
 	}
 }
 
-// interruptContext is cancelled by Ctrl-C (SIGINT) or SIGTERM, what batch
-// schedulers send: the work stops, no partial output is written.
+// errInterrupted is the error of a command stopped by a signal before it
+// wrote its outputs.
+var errInterrupted = errors.New("interrupted: no output written")
+
+// interrupted is errInterrupted when err comes from an interrupt (the
+// context of interruptContext cancelled), else err.
+func interrupted(err error) error {
+	if errors.Is(err, context.Canceled) {
+		return errInterrupted
+	}
+	return err
+}
+
+// interruptContext is cancelled by Ctrl-C (SIGINT), SIGTERM (what batch
+// schedulers send) or SIGHUP (the terminal closed): the work stops, its
+// temporary files are removed, no partial output is written.
 func interruptContext() (context.Context, context.CancelFunc) {
-	return signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	return signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM, syscall.SIGHUP)
 }

@@ -68,10 +68,12 @@ func TestStdoutFullDevice(t *testing.T) {
 		t.Skip("no /dev/full here")
 	}
 	defer full.Close()
-	pass := nadirWith(t, "40")
+	pass, fail := nadirWith(t, "40"), nadirWith(t, "5")
 	for _, args := range [][]string{
 		{"run", pass, "--duration", "2h", "--quiet"},
 		{"run", pass, "--duration", "2h", "--quiet", "--json"},
+		{"run", fail, "--duration", "2h", "--quiet"},
+		{"run", fail, "--duration", "2h", "--quiet", "--json"},
 		{"check", pass},
 		{"orbit", "--altitude-km", "550", "--ltan", "10:30", "--epoch", "2027-03-20T12:00:00Z"},
 		{"init", "-o", "-"},
@@ -80,8 +82,11 @@ func TestStdoutFullDevice(t *testing.T) {
 	} {
 		var errb bytes.Buffer
 		code := runMain(args, full, &errb)
-		if code != exitFailure || !strings.Contains(errb.String(), "no space left") {
-			t.Errorf("%v > /dev/full: exit %d, stderr %q; want 1 naming the write error", args, code, errb.String())
+		// The write error is the one verdict: no "target failed" before it,
+		// no second message of the command's own.
+		if code != exitFailure || !strings.Contains(errb.String(), "no space left") ||
+			strings.Count(errb.String(), "\n") != 1 || strings.Contains(errb.String(), "target") {
+			t.Errorf("%v > /dev/full: exit %d, stderr %q; want 1 and the write error alone", args, code, errb.String())
 		}
 	}
 }

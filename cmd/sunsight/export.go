@@ -27,6 +27,7 @@ func runExport(args []string, stdout, stderr io.Writer) error {
 	aemPath := fs.String("aem", "", "write the attitude to `FILE` (CCSDS AEM, KVN)")
 	stepS := fs.String("step", "", "sample step, a span such as 60s (default: the scenario's step)")
 	force := fs.Bool("force", false, "replace output files that exist")
+	fs.pathFlags(false, "oem", "aem")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -36,6 +37,9 @@ func runExport(args []string, stdout, stderr io.Writer) error {
 	}
 	if *oemPath == "" && *aemPath == "" {
 		return usagef("nothing to write; give --oem FILE, --aem FILE or both")
+	}
+	if err := distinctOutputs(output{"--oem", *oemPath}, output{"--aem", *aemPath}); err != nil {
+		return err
 	}
 	for _, p := range []string{*oemPath, *aemPath} {
 		if p != "" {

@@ -20,6 +20,7 @@ func runInit(args []string, stdout, stderr io.Writer) error {
 	example := fs.String("example", "tumbling-3u", "bundled example to start from (`NAME`): "+fmt.Sprint(scenario.ExampleNames()))
 	out := fs.StringP("out", "o", "scenario.yaml", "file to write (`FILE`; - for standard output)")
 	force := fs.Bool("force", false, "overwrite an existing file")
+	fs.pathFlags(true, "out")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err

@@ -34,6 +34,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; stopped before any subset meets the targets: exit 1, not a proof)")
 	force := fs.Bool("force", false, "replace an earlier --out folder")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -43,6 +44,9 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	}
 	if *maxSensors < 0 || *top < 1 || *maxRuns < 0 {
 		return usagef("--max-sensors ≥ 0, --top ≥ 1 and --max-runs ≥ 0 are required")
+	}
+	if err := distinctOutputs(output{"--out", *out}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
 	}
 	if *out != "" {
 		if err := checkOutputDir(*out, *force); err != nil {
@@ -73,7 +77,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	defer stop()
 	eval, err := layout.Evaluator(ctx, s)
 	if err != nil {
-		return err
+		return interrupted(err)
 	}
 	t := s.Targets
 	res, err := layout.Search(ctx, layout.Problem{
@@ -82,7 +86,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 		MaxEvaluations: *maxRuns, Evaluate: eval,
 	})
 	if err != nil {
-		return err
+		return interrupted(err)
 	}
 	name := func(c layout.Choice) string {
 		var n []string

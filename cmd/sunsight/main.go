@@ -8,12 +8,16 @@
 package main
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"io"
 	"os"
+	"os/signal"
 	"sort"
 	"strings"
+	"sync"
+	"syscall"
 
 	"codeberg.org/sunsight/sunsight/internal/suggest"
 )
@@ -85,20 +89,34 @@ func main() {
 }
 
 // runMain dispatches to a subcommand and maps its error to an exit status.
-// A write error on stdout (a full disk, a closed pipe) is a run failure.
+// A write error on stdout (a full disk, a closed pipe) is a run failure and
+// the one verdict: the command's own message (its error, "a target failed")
+// is not printed beside it.
 func runMain(args []string, stdout, stderr io.Writer) int {
+	pipeErrors.Do(func() {
+		// With SIGPIPE asked for, a write to a closed pipe returns EPIPE
+		// instead of killing the process; the signal itself is dropped.
+		signal.Notify(make(chan os.Signal, 1), syscall.SIGPIPE)
+	})
 	out := &checkedWriter{w: stdout}
-	code := dispatch(args, out, stderr)
+	var msg bytes.Buffer
+	code := dispatch(args, out, stderr, &msg)
 	if out.err != nil && code != exitUsage {
 		fmt.Fprintf(stderr, "sunsight: writing to standard output: %v\n", out.err)
 		return exitFailure
 	}
+	stderr.Write(msg.Bytes())
 	return code
 }
 
-func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
+// pipeErrors turns SIGPIPE into write errors, once per process.
+var pipeErrors sync.Once
+
+// dispatch runs the command of args with stdout and stderr; its closing
+// message (the error, the exit status explained) goes to closing.
+func dispatch(args []string, stdout, stderr, closing io.Writer) int {
 	if len(args) == 0 {
-		printUsage(stderr)
+		printUsage(closing)
 		return exitUsage
 	}
 	switch args[0] {
@@ -106,7 +124,7 @@ func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
 		if len(args) > 1 && args[0] == "help" {
 			c, ok := commands[args[1]]
 			if !ok {
-				fmt.Fprintf(stderr, "sunsight: unknown command %q%s; run 'sunsight help' for the list\n", args[1], commandHint(args[1]))
+				fmt.Fprintf(closing, "sunsight: unknown command %q%s; run 'sunsight help' for the list\n", args[1], commandHint(args[1]))
 				return exitUsage
 			}
 			args = []string{c.name, "--help"}
@@ -119,7 +137,7 @@ func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
 	}
 	c, ok := commands[args[0]]
 	if !ok {
-		fmt.Fprintf(stderr, "sunsight: unknown command %q%s; run 'sunsight help' for the list\n", args[0], commandHint(args[0]))
+		fmt.Fprintf(closing, "sunsight: unknown command %q%s; run 'sunsight help' for the list\n", args[0], commandHint(args[0]))
 		return exitUsage
 	}
 	err := c.run(args[1:], stdout, stderr)
@@ -129,16 +147,16 @@ func dispatch(args []string, stdout io.Writer, stderr io.Writer) int {
 	case err == nil, errors.Is(err, errHelpShown):
 		return exitOK
 	case errors.As(err, &tf) && tf.shown:
-		fmt.Fprintf(stderr, "sunsight %s: exit status %d: a target failed (the verdict line names it)\n", c.name, exitTargetFailed)
+		fmt.Fprintf(closing, "sunsight %s: exit status %d: a target failed (the verdict line names it)\n", c.name, exitTargetFailed)
 		return exitTargetFailed
 	case errors.As(err, &tf):
-		fmt.Fprintf(stderr, "sunsight %s: %v\n", c.name, err)
+		fmt.Fprintf(closing, "sunsight %s: %v\n", c.name, err)
 		return exitTargetFailed
 	case errors.As(err, &u):
-		fmt.Fprintf(stderr, "sunsight %s: %v\n", c.name, err)
+		fmt.Fprintf(closing, "sunsight %s: %v\n", c.name, err)
 		return exitUsage
 	}
-	fmt.Fprintf(stderr, "sunsight %s: %v\n", c.name, err)
+	fmt.Fprintf(closing, "sunsight %s: %v\n", c.name, err)
 	return exitFailure
 }
 

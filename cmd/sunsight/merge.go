@@ -2,6 +2,8 @@ package main
 
 import (
 	"io"
+
+	"codeberg.org/sunsight/sunsight/scenario/sweep"
 )
 
 func init() {
@@ -23,7 +25,11 @@ func runMerge(args []string, stdout, stderr io.Writer) error {
 	if len(pos) == 0 {
 		return usagef("want the shard folders; usage: sunsight merge DIR... (the first one receives every case and sweep.csv)")
 	}
-	release, err := lockOutput(pos[0])
+	// Every folder a sweep's, and one sweep's, before the first is touched.
+	if _, err := sweep.Plans(pos); err != nil {
+		return sweepError(err)
+	}
+	release, err := holdSweepDir(pos[0], !*noPlots)
 	if err != nil {
 		return err
 	}

@@ -62,6 +62,14 @@ func runOrbit(args []string, stdout, stderr io.Writer) error {
 	if *ltan == "" && math.IsNaN(*incl) {
 		return usagef("--ltan is required for a sun-synchronous orbit (local time of the ascending node, HH:MM, e.g. 10:30); or give --inclination-deg")
 	}
+	// The epoch and the solar time only place the node of --ltan.
+	if *ltan == "" {
+		for _, n := range []string{"epoch", "ltan-solar-time"} {
+			if fs.Changed(n) {
+				return usagef("--%s places the ascending node of --ltan only; without --ltan it changes nothing: give --ltan HH:MM for the RAAN, or leave --%s out", n, n)
+			}
+		}
+	}
 	var ltanH float64
 	var epoch time.Time
 	if *ltan != "" {

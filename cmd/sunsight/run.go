@@ -61,6 +61,7 @@ func runFlagSet(f *runFlags) *flagSet {
 	fs.StringVar(&f.duration, "duration", "", "override the scenario duration (`SPAN`, e.g. 6h, 30d)")
 	fs.StringVar(&f.step, "step", "", "override the scenario step (`SPAN`, e.g. 10s)")
 	fs.StringVar(&f.cpuProf, "cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "csv", "report", "plots", "cpuprofile")
 	return fs
 }
 
@@ -84,6 +85,9 @@ func parseRunFlags(args []string, stdout io.Writer) (runFlags, string, error) {
 	}
 	if f.allUnits && f.csvDir == "" {
 		return f, "", usagef("--all-units selects the units of the --csv tables; give --csv DIR too")
+	}
+	if err := distinctOutputs(output{"--csv", f.csvDir}, output{"--plots", f.plotsDir}, output{"--report", f.report}, output{"--cpuprofile", f.cpuProf}); err != nil {
+		return f, "", err
 	}
 	return f, pos[0], nil
 }
@@ -199,10 +203,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		err = perr
 	}
 	if err != nil {
-		if errors.Is(err, context.Canceled) {
-			return errors.New("interrupted: no output written")
-		}
-		return err
+		return interrupted(err)
 	}
 	out := newRunOutput(s, &cfg, res, toolVersion())
 	out.series = series
@@ -212,10 +213,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		pc := cfg.Lean()
 		ph, err := study.RunPhases(ctx, pc, res)
 		if err != nil {
-			if errors.Is(err, context.Canceled) {
-				return errors.New("interrupted: no output written")
-			}
-			return err
+			return interrupted(err)
 		}
 		out.phases = &ph
 	}
@@ -223,10 +221,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		sc := cfg.Lean()
 		sf, err := study.RunSingleFailure(ctx, s, sc)
 		if err != nil {
-			if errors.Is(err, context.Canceled) {
-				return errors.New("interrupted: no output written")
-			}
-			return err
+			return interrupted(err)
 		}
 		out.addSingleFailure(sf)
 	}
@@ -241,7 +236,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		prog.done()
 		if err != nil {
 			if errors.Is(err, context.Canceled) {
-				return errors.New("interrupted: no output written")
+				return errInterrupted
 			}
 			return fmt.Errorf("mode %s: %w", m.Name, err)
 		}

@@ -49,6 +49,7 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	force := fs.Bool("force", false, "replace earlier output folders")
 	quiet := fs.Bool("quiet", false, "no progress on stderr")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "csv", "plots", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -59,6 +60,9 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	opt := season.Options{SpanS: span.Seconds(), Cases: *cases, CaseS: caseDur.Seconds(), Refine: *refine, EclipseAboveS: above.Seconds()}
 	if err := opt.Validate(); err != nil {
 		return usageError{err}
+	}
+	if err := distinctOutputs(output{"--csv", *csvDir}, output{"--plots", *plotsDir}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
 	}
 	for _, d := range []string{*csvDir, *plotsDir} {
 		if d != "" {
@@ -93,7 +97,7 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 		fmt.Fprintln(stderr)
 	}
 	if err != nil {
-		return err
+		return interrupted(err)
 	}
 	if *csvDir != "" {
 		if err := writeOutputDir(*csvDir, *force, func(dir string) error { return seasonCSV(r, dir) }); err != nil {

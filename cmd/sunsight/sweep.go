@@ -1,6 +1,8 @@
 package main
 
 import (
+	"context"
+	"errors"
 	"fmt"
 	"io"
 	"path/filepath"
@@ -35,6 +37,7 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	shard := fs.String("shard", "", "`K/N`: run only cases with index % N == K-1 (join the shards with sunsight merge)")
 	noPlots := fs.Bool("no-plots", false, "write the table but no figures")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
+	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
 	if err != nil {
 		return err
@@ -52,6 +55,9 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	}
 	if *out == "" {
 		return usagef("--out is missing; give the folder for the case files and sweep.csv")
+	}
+	if err := distinctOutputs(output{"--out", *out}, output{"--cpuprofile", *cpuProf}); err != nil {
+		return err
 	}
 	if *workers < 0 {
 		return usagef("--workers %d: give 0 (number of CPUs) or a positive count", *workers)
@@ -85,7 +91,9 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	defer stop()
 	// One sweep at a time writes a folder: a second one on the same --out
 	// is refused at once instead of racing on plan.json and the case files.
-	release, err := lockOutput(*out)
+	// A folder that is not a sweep's is refused untouched (a shard writes
+	// no table nor figures; the merge does).
+	release, err := holdSweepDir(*out, !*noPlots && n <= 1)
 	if err != nil {
 		return err
 	}
@@ -98,8 +106,12 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 			fmt.Fprintf(stderr, "sweep: %d new cases done\n", d)
 		}
 	}})
+	if errors.Is(err, context.Canceled) {
+		// The finished cases stay: a sweep resumes.
+		return fmt.Errorf("interrupted after %d new cases (%d of %d in %s); run the same command again to resume", sum.Ran, sum.Ran+sum.Skipped, sum.InShard, *out)
+	}
 	if err != nil {
-		return err
+		return sweepError(err)
 	}
 	fmt.Fprintf(stdout, "sweep: %d cases in %s (%d run now, %d already there)\n", sum.InShard, *out, sum.Ran, sum.Skipped)
 	if n > 1 {
@@ -116,13 +128,17 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 	}
 	caption := plots.Caption{Scenario: source + " swept over " + strings.Join(m.Keys, ", "),
 		Assumptions: "analysis aid; flight hardware needs qualified verification"}
-	cases, err := sweep.WriteOutputs(dirs, noPlots, caption)
+	// The figures go in as an output set of their own (with its manifest):
+	// a plots folder holding a file of the user's is never replaced.
+	cases, err := sweep.WriteOutputs(dirs, noPlots, caption, func(dst string, fill func(string) error) error {
+		return writeOutputDir(dst, true, fill)
+	})
 	if err != nil {
-		return err
+		return sweepError(err)
 	}
-	fmt.Fprintf(stdout, "sweep: wrote %s\n", filepath.Join(dirs[0], "sweep.csv"))
+	fmt.Fprintf(stdout, "sweep: wrote %s\n", filepath.Join(dirs[0], sweep.TableFile))
 	if !noPlots {
-		fmt.Fprintf(stdout, "sweep: figures in %s\n", filepath.Join(dirs[0], "plots"))
+		fmt.Fprintf(stdout, "sweep: figures in %s\n", filepath.Join(dirs[0], sweep.PlotsDir))
 	}
 	failed := 0
 	for _, cf := range cases {
@@ -136,6 +152,17 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 	}
 	fmt.Fprintf(stdout, "verdict: every target met in all %d cases\n", len(cases))
 	return nil
+}
+
+// sweepError is err, marked bad input (exit 2) when it is a folder that does
+// not fit the sweep (sweep.FolderError: another sweep's, a case missing or
+// damaged), which the user fixes.
+func sweepError(err error) error {
+	var fe *sweep.FolderError
+	if errors.As(err, &fe) {
+		return usageError{err}
+	}
+	return err
 }
 
 func parseShard(s string) (k, n int, err error) {

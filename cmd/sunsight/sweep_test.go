@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -185,5 +186,155 @@ func TestMergeRefusesEditedCase(t *testing.T) {
 	se.Reset()
 	if code := runMain([]string{"merge", "--no-plots", out}, &so, &se); code == 0 || !strings.Contains(se.String(), "checksum") {
 		t.Errorf("edited case: exit %d, %s", code, se.String())
+	}
+}
+
+// tree lists every file under dir with its contents, for before/after
+// comparisons.
+func tree(t *testing.T, dir string) map[string]string {
+	t.Helper()
+	m := map[string]string{}
+	filepath.WalkDir(dir, func(p string, d os.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		rel, _ := filepath.Rel(dir, p)
+		if d.IsDir() {
+			m[rel+"/"] = ""
+			return nil
+		}
+		b, _ := os.ReadFile(p)
+		m[rel] = string(b)
+		return nil
+	})
+	return m
+}
+
+// sweep --out refuses, before any case runs, a folder that holds files and
+// is not a sunsight sweep (no plan.json): exit 2 naming the folder, and the
+// folder exactly as it was (no lock, no case, the user's files untouched).
+// In a sweep folder, a plots folder holding a file that is not one of its
+// figures is refused too, so re-running never deletes it.
+func TestSweepRefusesForeignFolder(t *testing.T) {
+	file := writeSweepScenario(t)
+	for _, files := range []map[string]string{
+		{"plots/mine.png": "mine", "sweep.csv": "my,table\n"},
+		{"notes.txt": "notes"},
+		{"cases/00000.json": "{}"},
+	} {
+		out := filepath.Join(t.TempDir(), "user")
+		for name, text := range files {
+			os.MkdirAll(filepath.Dir(filepath.Join(out, name)), 0o755)
+			os.WriteFile(filepath.Join(out, name), []byte(text), 0o644)
+		}
+		before := tree(t, out)
+		var so, se bytes.Buffer
+		code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", out}, &so, &se)
+		if code != exitUsage || !strings.Contains(se.String(), out) || !strings.Contains(se.String(), "not a sunsight sweep") {
+			t.Errorf("%v: exit %d, stderr %q; want 2 naming the folder", files, code, se.String())
+		}
+		if after := tree(t, out); fmt.Sprint(after) != fmt.Sprint(before) {
+			t.Errorf("%v: the folder changed:\n%v\nwas\n%v", files, after, before)
+		}
+	}
+	// A sweep folder whose plots hold a file of the user's.
+	out := filepath.Join(t.TempDir(), "o")
+	args := []string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", out}
+	var so, se bytes.Buffer
+	if code := runMain(args, &so, &se); code != exitOK {
+		t.Fatalf("sweep: exit %d %s", code, se.String())
+	}
+	mine := filepath.Join(out, "plots", "mine.png")
+	os.WriteFile(mine, []byte("mine"), 0o644)
+	se.Reset()
+	if code := runMain(args, &so, &se); code != exitUsage || !strings.Contains(se.String(), "mine.png") {
+		t.Errorf("user file in plots: exit %d, stderr %q; want 2 naming it", code, se.String())
+	}
+	if b, err := os.ReadFile(mine); err != nil || string(b) != "mine" {
+		t.Errorf("the user's file in plots: %q %v", b, err)
+	}
+	// Re-running a finished sweep with its own figures is fine.
+	os.Remove(mine)
+	if code := runMain(args, &so, &se); code != exitOK {
+		t.Errorf("re-run: exit %d %s", code, se.String())
+	}
+}
+
+// An output folder with its manifest but also a file the manifest does not
+// list (the user's) is not replaced, even with --force: exit 2 naming the
+// file, which is kept.
+func TestForceKeepsAFileOutsideTheSet(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "csv")
+	args := []string{"run", "../../examples/nadir-6u-sso.yaml", "--duration", "1h", "--quiet", "--csv", out}
+	var so, se bytes.Buffer
+	if code := runMain(args, &so, &se); code != exitTargetFailed {
+		t.Fatalf("first run: exit %d %s", code, se.String())
+	}
+	mine := filepath.Join(out, "notes.txt")
+	os.WriteFile(mine, []byte("mine"), 0o644)
+	se.Reset()
+	if code := runMain(append(args, "--force"), &so, &se); code != exitUsage || !strings.Contains(se.String(), "notes.txt") {
+		t.Errorf("exit %d, stderr %q; want 2 naming notes.txt", code, se.String())
+	}
+	if b, err := os.ReadFile(mine); err != nil || string(b) != "mine" {
+		t.Errorf("the user's file: %q %v", b, err)
+	}
+}
+
+// A case that loads but cannot be built (7000 km with an LTAN: no
+// sun-synchronous inclination exists) is bad input found before any case
+// runs: exit 2 naming the case, as check gives for the same file, and no
+// output folder. A folder holding another sweep, and merge given folders of
+// different sweeps, a shard missing or a folder that is no sweep's, are bad
+// input too (exit 2), and merge copies nothing before it refuses.
+func TestSweepBadInputExit2(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "x2")
+	var so, se bytes.Buffer
+	code := runMain([]string{"sweep", "../../examples/nadir-6u-sso.yaml", "--vary", "orbit.altitude_km=400,7000", "--vary", "duration=30m", "--out", out}, &so, &se)
+	if code != exitUsage || !strings.Contains(se.String(), "case 1") || !strings.Contains(se.String(), "sun-synchronous") {
+		t.Errorf("7000 km case: exit %d, stderr %q; want 2 naming case 1", code, se.String())
+	}
+	if _, err := os.Stat(out); err == nil {
+		t.Error("the refused sweep left its output folder")
+	}
+
+	file := writeSweepScenario(t)
+	a := filepath.Join(dir, "a")
+	if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500", "--out", a, "--no-plots"}, &so, &se); code != exitOK {
+		t.Fatalf("sweep a: %d %s", code, se.String())
+	}
+	se.Reset()
+	if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400,600", "--out", a, "--no-plots"}, &so, &se); code != exitUsage || !strings.Contains(se.String(), "another sweep") {
+		t.Errorf("another sweep in the folder: exit %d, %s", code, se.String())
+	}
+	var shards []string
+	for _, k := range []string{"1/3", "2/3"} {
+		d := filepath.Join(dir, "shard"+k[:1])
+		if code := runMain([]string{"sweep", file, "--vary", "orbit.altitude_km=400:600:100", "--shard", k, "--out", d}, &so, &se); code != exitOK {
+			t.Fatalf("shard %s: %d %s", k, code, se.String())
+		}
+		shards = append(shards, d)
+	}
+	before := tree(t, shards[0])
+	for _, c := range []struct {
+		dirs []string
+		want string
+	}{
+		{shards, "missing"},
+		{[]string{shards[0], a}, "different sweeps"},
+		{[]string{filepath.Join(dir, "none"), shards[0]}, "plan.json"},
+	} {
+		se.Reset()
+		code := runMain(append([]string{"merge", "--no-plots"}, c.dirs...), &so, &se)
+		if code != exitUsage || !strings.Contains(se.String(), c.want) {
+			t.Errorf("merge %v: exit %d, stderr %q; want 2 and %q", c.dirs, code, se.String(), c.want)
+		}
+	}
+	if after := tree(t, shards[0]); fmt.Sprint(after) != fmt.Sprint(before) {
+		t.Errorf("a refused merge changed the first folder:\n%v\nwas\n%v", after, before)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "none")); err == nil {
+		t.Error("a refused merge created its first folder")
 	}
 }

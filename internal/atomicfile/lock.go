@@ -7,6 +7,9 @@ import (
 	"path/filepath"
 )
 
+// LockName is the file in a locked folder that Lock holds.
+const LockName = ".lock"
+
 // ErrLocked is returned by Lock when another process holds the folder.
 var ErrLocked = errors.New("locked by another process")
 
@@ -18,7 +21,7 @@ func Lock(dir string) (release func(), err error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, fmt.Errorf("output folder %s: %w", dir, err)
 	}
-	f, err := os.OpenFile(filepath.Join(dir, ".lock"), os.O_CREATE|os.O_RDWR, 0o644)
+	f, err := os.OpenFile(filepath.Join(dir, LockName), os.O_CREATE|os.O_RDWR, 0o644)
 	if err != nil {
 		return nil, fmt.Errorf("output folder %s: %w", dir, err)
 	}

@@ -8,6 +8,7 @@ import (
 	"go.yaml.in/yaml/v3"
 
 	"codeberg.org/sunsight/sunsight/scenario"
+	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
 // Plan is a checked sweep: the base scenario text, its axes and every case's
@@ -24,8 +25,10 @@ type Plan struct {
 	sum  []string
 }
 
-// NewPlan edits base (scenario file text; dir is its folder) once per case and
-// checks every case with scenario.Parse. Errors name the case and the key.
+// NewPlan edits base (scenario file text; dir is its folder) once per case,
+// checks every case with scenario.Parse and builds everything run builds
+// (study.Prepare, as check does), so a case that loads but cannot be built
+// is refused before any case runs. Errors name the case and the key.
 func NewPlan(base []byte, dir string, axes []Axis, zip bool) (*Plan, error) {
 	if _, err := scenario.Parse(base, dir); err != nil {
 		return nil, err
@@ -37,6 +40,9 @@ func NewPlan(base []byte, dir string, axes []Axis, zip bool) (*Plan, error) {
 	p := &Plan{Axes: axes, Zip: zip, Cases: cases, base: base, dir: dir}
 	for i, vals := range cases {
 		s, err := p.build(vals)
+		if err == nil {
+			_, err = study.Prepare(s)
+		}
 		if err != nil {
 			return nil, fmt.Errorf("sweep: case %d (%s): %w", i, describeCase(axes, vals), err)
 		}

@@ -71,6 +71,14 @@ type Options struct {
 	Done func(index int)
 }
 
+// The files of a sweep folder besides cases/: the plan, the table and the
+// figures' folder.
+const (
+	PlanFile  = "plan.json"
+	TableFile = "sweep.csv"
+	PlotsDir  = "plots"
+)
+
 // Manifest is DIR/plan.json: the sweep's definition, so a resume or merge
 // can refuse a folder made by another sweep.
 type Manifest struct {
@@ -129,6 +137,20 @@ func (p *Plan) manifest() Manifest {
 	return m
 }
 
+// FolderError is a folder that does not hold what the sweep asked for needs:
+// another sweep's plan, a case file made from another scenario, edited or
+// damaged, shards of different sweeps, cases missing at a merge. The fix is
+// the user's (another folder, the missing shards), as for bad input.
+type FolderError struct{ Err error }
+
+func (e *FolderError) Error() string { return e.Err.Error() }
+func (e *FolderError) Unwrap() error { return e.Err }
+
+// folderErrorf builds a *FolderError.
+func folderErrorf(format string, a ...any) error {
+	return &FolderError{fmt.Errorf(format, a...)}
+}
+
 // Summary tells what Execute did.
 type Summary struct {
 	Total, InShard, Skipped, Ran int
@@ -147,11 +169,16 @@ func Execute(ctx context.Context, p *Plan, dir string, opt Options) (Summary, er
 	if run == nil {
 		run = RunCase
 	}
-	if err := os.MkdirAll(filepath.Join(dir, "cases"), 0o755); err != nil {
+	// The plan first: a folder holding anything of the sweep's holds its
+	// plan.json, which is how a later run knows the folder is a sweep's.
+	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return sum, fmt.Errorf("sweep: output folder: %w", err)
 	}
 	if err := p.claim(dir); err != nil {
 		return sum, err
+	}
+	if err := os.MkdirAll(filepath.Join(dir, "cases"), 0o755); err != nil {
+		return sum, fmt.Errorf("sweep: output folder: %w", err)
 	}
 	var todo []int
 	for i := range p.Cases {
@@ -168,7 +195,7 @@ func Execute(ctx context.Context, p *Plan, dir string, opt Options) (Summary, er
 			return sum, err
 		}
 		if err := p.matches(cf); err != nil {
-			return sum, fmt.Errorf("sweep: %s: %w; use a new --out folder or delete the file", caseFile(dir, i), err)
+			return sum, folderErrorf("sweep: %s: %w; use a new --out folder or delete the file", caseFile(dir, i), err)
 		}
 		sum.Skipped++
 	}
@@ -244,7 +271,7 @@ feed:
 
 // claim writes dir/plan.json, or checks that the one there is this plan's.
 func (p *Plan) claim(dir string) error {
-	path := filepath.Join(dir, "plan.json")
+	path := filepath.Join(dir, PlanFile)
 	want := p.manifest()
 	old, err := ReadManifest(dir)
 	if errors.Is(err, os.ErrNotExist) {
@@ -254,7 +281,7 @@ func (p *Plan) claim(dir string) error {
 		return err
 	}
 	if !reflect.DeepEqual(old, want) {
-		return fmt.Errorf("sweep: %s holds another sweep (different keys, values or scenario); use a new --out folder or delete it", dir)
+		return folderErrorf("sweep: %s holds another sweep (different keys, values or scenario); use a new --out folder or delete it", dir)
 	}
 	return nil
 }
@@ -314,13 +341,13 @@ func ReadCase(dir string, i int) (*CaseFile, error) {
 	}
 	var cf CaseFile
 	if err := json.Unmarshal(data, &cf); err != nil {
-		return nil, fmt.Errorf("sweep: %s is not a case file (%v); delete it to run the case again", caseFile(dir, i), err)
+		return nil, folderErrorf("sweep: %s is not a case file (%v); delete it to run the case again", caseFile(dir, i), err)
 	}
 	if cf.Index != i {
-		return nil, fmt.Errorf("sweep: %s says it is case %d; delete it to run the case again", caseFile(dir, i), cf.Index)
+		return nil, folderErrorf("sweep: %s says it is case %d; delete it to run the case again", caseFile(dir, i), cf.Index)
 	}
 	if sum, err := cf.sum(); err != nil || sum != cf.Checksum {
-		return nil, fmt.Errorf("sweep: %s fails its checksum (edited or damaged); delete it to run the case again", caseFile(dir, i))
+		return nil, folderErrorf("sweep: %s fails its checksum (edited or damaged); delete it to run the case again", caseFile(dir, i))
 	}
 	return &cf, nil
 }
@@ -328,7 +355,7 @@ func ReadCase(dir string, i int) (*CaseFile, error) {
 // ReadManifest reads dir/plan.json.
 func ReadManifest(dir string) (Manifest, error) {
 	var m Manifest
-	data, err := os.ReadFile(filepath.Join(dir, "plan.json"))
+	data, err := os.ReadFile(filepath.Join(dir, PlanFile))
 	if err != nil {
 		if errors.Is(err, os.ErrNotExist) {
 			return m, err
@@ -336,7 +363,7 @@ func ReadManifest(dir string) (Manifest, error) {
 		return m, fmt.Errorf("sweep: %w", err)
 	}
 	if err := json.Unmarshal(data, &m); err != nil {
-		return m, fmt.Errorf("sweep: %s/plan.json is not a sweep plan: %v", dir, err)
+		return m, folderErrorf("sweep: %s is not a sweep plan (%v); use a new --out folder or delete it", filepath.Join(dir, PlanFile), err)
 	}
 	return m, nil
 }

@@ -149,7 +149,7 @@ func fake(_ context.Context, s *scenario.Scenario, seed uint64) (Outcome, error)
 
 func csvOf(t *testing.T, dirs ...string) []byte {
 	t.Helper()
-	if _, err := WriteOutputs(dirs, true, scenarioCaption()); err != nil {
+	if _, err := WriteOutputs(dirs, true, scenarioCaption(), nil); err != nil {
 		t.Fatal(err)
 	}
 	b, err := os.ReadFile(filepath.Join(dirs[0], "sweep.csv"))
@@ -178,7 +178,7 @@ func TestResumeAfterCancelIsByteIdentical(t *testing.T) {
 	if err == nil {
 		t.Fatal("cancelled sweep returned no error")
 	}
-	if _, err := WriteOutputs([]string{dir}, true, scenarioCaption()); err == nil || !strings.Contains(err.Error(), "missing") {
+	if _, err := WriteOutputs([]string{dir}, true, scenarioCaption(), nil); err == nil || !strings.Contains(err.Error(), "missing") {
 		t.Errorf("table of a partial sweep: %v", err)
 	}
 	if _, err := os.Stat(filepath.Join(dir, "sweep.csv")); err == nil {

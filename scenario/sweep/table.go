@@ -21,29 +21,41 @@ import (
 	"codeberg.org/sunsight/sunsight/scenario/study"
 )
 
-// Gather reads every case of the sweep in dirs (one folder, or the folders of
-// its shards, all made by the same sweep) in case order. Cases found only in
-// a later folder are copied into the first, so it then holds the whole sweep.
-func Gather(dirs []string) (Manifest, []*CaseFile, error) {
+// Plans reads the plan of every folder in dirs and checks that they are one
+// sweep's (one folder, or the folders of its shards); it returns that plan.
+func Plans(dirs []string) (Manifest, error) {
 	if len(dirs) == 0 {
-		return Manifest{}, nil, errors.New("sweep: no folder to read; give the --out folder(s) of the sweep")
+		return Manifest{}, errors.New("sweep: no folder to read; give the --out folder(s) of the sweep")
 	}
 	var m Manifest
 	for k, d := range dirs {
 		mk, err := ReadManifest(d)
 		if errors.Is(err, os.ErrNotExist) {
-			return m, nil, fmt.Errorf("sweep: %s has no plan.json; give folders written by sunsight sweep --out", d)
+			return m, folderErrorf("sweep: %s has no %s; give folders written by sunsight sweep --out", d, PlanFile)
 		}
 		if err != nil {
-			return m, nil, err
+			return m, err
 		}
 		if k == 0 {
 			m = mk
 		} else if !reflect.DeepEqual(m, mk) {
-			return m, nil, fmt.Errorf("sweep: %s and %s hold different sweeps; merge only the shards of one sweep", dirs[0], d)
+			return m, folderErrorf("sweep: %s and %s hold different sweeps; merge only the shards of one sweep", dirs[0], d)
 		}
 	}
+	return m, nil
+}
+
+// Gather reads every case of the sweep in dirs (one folder, or the folders of
+// its shards, all made by the same sweep) in case order. Cases found only in
+// a later folder are copied into the first, so it then holds the whole sweep;
+// nothing is copied unless every case is found and sound.
+func Gather(dirs []string) (Manifest, []*CaseFile, error) {
+	m, err := Plans(dirs)
+	if err != nil {
+		return m, nil, err
+	}
 	cases := make([]*CaseFile, len(m.Cases))
+	from := make([]int, len(m.Cases)) // the folder each case is read from
 	var missing []int
 	for i := range cases {
 		for k, d := range dirs {
@@ -55,18 +67,9 @@ func Gather(dirs []string) (Manifest, []*CaseFile, error) {
 				return m, nil, err
 			}
 			if cf.SHA256 != m.CaseSHA[i] {
-				return m, nil, fmt.Errorf("sweep: %s was made from another scenario; delete it and run its shard again", caseFile(d, i))
+				return m, nil, folderErrorf("sweep: %s was made from another scenario; delete it and run its shard again", caseFile(d, i))
 			}
-			if k > 0 {
-				data, err := os.ReadFile(caseFile(d, i))
-				if err == nil {
-					err = atomicfile.Write(caseFile(dirs[0], i), data)
-				}
-				if err != nil {
-					return m, nil, fmt.Errorf("sweep: copying case %d: %w", i, err)
-				}
-			}
-			cases[i] = cf
+			cases[i], from[i] = cf, k
 			break
 		}
 		if cases[i] == nil {
@@ -74,7 +77,19 @@ func Gather(dirs []string) (Manifest, []*CaseFile, error) {
 		}
 	}
 	if len(missing) > 0 {
-		return m, nil, fmt.Errorf("sweep: %d of %d cases are missing (first: case %d); run the missing shards, or run the sweep again to resume", len(missing), len(cases), missing[0])
+		return m, nil, folderErrorf("sweep: %d of %d cases are missing (first: case %d); run the missing shards, or run the sweep again to resume", len(missing), len(cases), missing[0])
+	}
+	for i, k := range from {
+		if k == 0 {
+			continue
+		}
+		data, err := os.ReadFile(caseFile(dirs[k], i))
+		if err == nil {
+			err = atomicfile.Write(caseFile(dirs[0], i), data)
+		}
+		if err != nil {
+			return m, nil, fmt.Errorf("sweep: copying case %d: %w", i, err)
+		}
 	}
 	return m, cases, nil
 }
@@ -166,10 +181,15 @@ func (cf *CaseFile) Value(name string) float64 {
 	return math.NaN()
 }
 
+// PutDir puts a folder of outputs at dst, filled by fill, as a whole (the
+// command line's writer adds its manifest and refuses a folder that holds
+// files of someone else's).
+type PutDir func(dst string, fill func(dir string) error) error
+
 // WriteOutputs gathers dirs, writes dirs[0]/sweep.csv and, unless noPlots,
-// the sweep curves in dirs[0]/plots (PNG and SVG). It writes nothing when a
-// case is missing.
-func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) ([]*CaseFile, error) {
+// the sweep curves in dirs[0]/plots (PNG and SVG) through put (nil:
+// atomicfile.ReplaceDir). It writes nothing when a case is missing.
+func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption, put PutDir) ([]*CaseFile, error) {
 	m, cases, err := Gather(dirs)
 	if err != nil {
 		return nil, err
@@ -178,14 +198,17 @@ func WriteOutputs(dirs []string, noPlots bool, caption plots.Caption) ([]*CaseFi
 	if err := Table(&buf, m, cases); err != nil {
 		return nil, fmt.Errorf("sweep: table: %w", err)
 	}
-	if err := atomicfile.Write(filepath.Join(dirs[0], "sweep.csv"), buf.Bytes()); err != nil {
+	if err := atomicfile.Write(filepath.Join(dirs[0], TableFile), buf.Bytes()); err != nil {
 		return nil, err
 	}
 	if noPlots {
 		return cases, nil
 	}
 	// The figures are drawn into a fresh folder swapped in whole.
-	err = atomicfile.ReplaceDir(filepath.Join(dirs[0], "plots"), func(dir string) error {
+	if put == nil {
+		put = atomicfile.ReplaceDir
+	}
+	err = put(filepath.Join(dirs[0], PlotsDir), func(dir string) error {
 		return writePlots(dir, m, cases, caption)
 	})
 	return cases, err

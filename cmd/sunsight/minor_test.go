@@ -78,7 +78,7 @@ func TestInterruptedSeasonAndLayout(t *testing.T) {
 	os.WriteFile(layoutScen, src, 0o644)
 	for _, args := range [][]string{
 		{"season", "../../examples/nadir-6u-sso.yaml", "--quiet"},
-		{"layout", layoutScen, "--sky-points", "100000"},
+		{"layout", layoutScen, "--top", "50"},
 	} {
 		c := child(false, args...)
 		var cerr bytes.Buffer

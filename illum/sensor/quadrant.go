@@ -194,6 +194,10 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 	if q.tanDead > 0 {
 		q.tanDeadRead = q.invert(math.Min(q.deadX, q.xLin))
 	}
+	if q.ValidHalfAngle() == 0 {
+		return nil, fmt.Errorf("sensor: %q: threshold %g is above the cell sum at normal incidence (%.3f of full sun): no reading can be valid; give a lower threshold",
+			s.Name, s.Threshold, q.sum(r3.Vec{Z: 1}, 0, 0)*SolarConstant/s.RefIrradiance)
+	}
 	return q, nil
 }
 
@@ -490,6 +494,35 @@ func (q *Quadrant) LinearHalfAngle() float64 {
 	return math.Atan(q.invert(lim))
 }
 
+// ValidHalfAngle returns the per-axis half-angle (rad) up to which the
+// nominal unit gives a valid reading from a 1 AU sun along a sensor axis:
+// LinearHalfAngle, or less where the cell sum falls below the threshold
+// first (the sum falls monotonically off the boresight: cos α times a lit
+// area that does not grow). 0 when even the boresight is below it.
+func (q *Quadrant) ValidHalfAngle() float64 {
+	lin := q.LinearHalfAngle()
+	above := func(t float64) bool {
+		return q.sum(r3.Vec{X: t, Z: 1}, 0, 0)*SolarConstant/q.spec.RefIrradiance >= q.spec.Threshold
+	}
+	hi := math.Tan(lin)
+	if above(hi) {
+		return lin
+	}
+	if !above(0) {
+		return 0
+	}
+	lo := 0.0
+	for range 60 {
+		mid := 0.5 * (lo + hi)
+		if above(mid) {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return math.Atan(lo)
+}
+
 // LinearImbalance returns the imbalance at the end of the calibrated linear
 // range (1 when it ends where a cell goes dark).
 func (q *Quadrant) LinearImbalance() float64 { return q.xLin }
@@ -621,7 +654,25 @@ func (q *Quadrant) decide(out *Reading) {
 	d := vecmath.Unit(r3.Vec{X: tx, Y: ty, Z: 1})
 	if m := q.spec.SignalMargin; m > 0 {
 		exp := q.sum(d, 0, 0)
-		if !(exp > 0) || math.Abs(sum/exp-1) > m {
+		lo := exp
+		if deadX || deadY {
+			// An axis in the dead zone says only that the sun lies within
+			// the zone along it: the sum expected of any direction there
+			// lies between the one at the boresight and the one at the
+			// zone's edge (the sum falls off the boresight), so the gate
+			// takes that span. Against the boresight's alone it rejected
+			// straight-above readings off the diagonals, a band of no sun
+			// 36-41° off the boresight that check did not print.
+			e := d
+			if deadX {
+				e.X = q.tanDeadRead * d.Z
+			}
+			if deadY {
+				e.Y = q.tanDeadRead * d.Z
+			}
+			lo = math.Min(exp, q.sum(e, 0, 0))
+		}
+		if !(exp > 0) || sum < lo*(1-m) || sum > exp*(1+m) {
 			return
 		}
 	}

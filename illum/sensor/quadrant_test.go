@@ -7,6 +7,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
 func quadSpec(t testing.TB, s QuadrantSpec) *Quadrant {
@@ -399,5 +401,58 @@ func TestQuadrantDeadZoneKeysNeedADeadZone(t *testing.T) {
 	p = base(map[string]float64{"wall_distance_mm": 0, "dead_zone_imbalance": 0.1})
 	if _, err := buildQuadrant(c, p); err == nil || !strings.Contains(err.Error(), "wall_distance_mm > 0") {
 		t.Errorf("dead_zone_imbalance on a wall at distance 0: %v", err)
+	}
+}
+
+// The printed valid range honours the threshold: one cell-wide aperture
+// (w = c = 2, g = 0.1, h = 1.2) lights (w − g)²/w² = 0.9025 of the spot at
+// normal incidence, and the sum along an axis is cos α·(w − g)/w·(w − g)/w
+// while the spot stays on the detector, so a threshold of 0.8 ends the
+// range at cos α = 0.8/0.9025, 27.56° (closed form), inside the linear
+// range (36.9°); 0.95 is refused.
+func TestQuadrantValidRangeHonoursThreshold(t *testing.T) {
+	m, _ := FaceMount(FacePlusZ, 0, FaceNone, 0)
+	spec := QuadrantSpec{Name: "q", Mount: m, ApertureSide: 2, Height: 1.2, CellSide: 2, Gap: 0.1, Threshold: 0.8,
+		SignalMargin: 0.2, ImbalanceMargin: 0.05, Sigma: deg}
+	q, err := NewQuadrant(spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := math.Acos(0.8 / 0.9025)
+	if got := q.ValidHalfAngle(); math.Abs(got-want) > 1e-9 {
+		t.Errorf("valid range ±%.4f°, want ±%.4f°", got/deg, want/deg)
+	}
+	if !q.Read(sunAt(want-0.1*deg, 0), SolarConstant, Albedo{}, nil).Valid || q.Read(sunAt(want+0.1*deg, 0), SolarConstant, Albedo{}, nil).Valid {
+		t.Error("readings do not change validity at the printed edge")
+	}
+	if !strings.Contains(ViewText(q), "valid within ±27.6° per axis (where the cell sum falls below the threshold 0.8") {
+		t.Errorf("view text %q", ViewText(q))
+	}
+	spec.Threshold = 0.95
+	if _, err := NewQuadrant(spec); err == nil || !strings.Contains(err.Error(), "no reading can be valid; give a lower threshold") {
+		t.Errorf("threshold 0.95: %v", err)
+	}
+}
+
+// A straight-above reading off the diagonal passes the signal gate: a sun
+// 38° off the boresight at 45° azimuth lies inside the wall's 30° dead zone
+// on both axes (tan 38°/√2 = 0.5525 < 2.31/4) and sums cos 38° = 0.788,
+// more than 20 % below the boresight's 1 but within the span the zone
+// allows (its corner sums 0.708; closed form). It read as no sun.
+func TestQuadrantDeadZoneDiagonalIsValid(t *testing.T) {
+	m, _ := FaceMount(FacePlusZ, 0, FaceNone, 0)
+	q, err := NewQuadrant(QuadrantSpec{Name: "w", Mount: m, Geometry: GeometryWall, Height: 4, CellSide: 3, WallDistance: 2.31,
+		Threshold: 0.05, SignalMargin: 0.2, ImbalanceMargin: 0.05, DeadZoneImbalance: 0.03, Sigma: 0.5 * deg})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tn := math.Tan(38*deg) / math.Sqrt2
+	sun := vecmath.Unit(r3.Vec{X: tn, Y: tn, Z: 1})
+	r := q.Read(sun, SolarConstant, Albedo{}, nil)
+	if !r.Valid || angle(r.Dir, r3.Vec{Z: 1}) > 1e-12 {
+		t.Errorf("38° on the diagonal: %+v; want a valid straight-above reading", r)
+	}
+	if !q.SeesSun(sun) {
+		t.Error("coverage does not count the diagonal sun the reading reports")
 	}
 }

@@ -240,7 +240,7 @@ func Row(s Sensor) MountRow {
 		Boresight: [3]float64{b.X, b.Y, b.Z}, FOVDeg: s.HalfAngle() * 180 / math.Pi,
 	}
 	if q, ok := s.(*Quadrant); ok {
-		row.LinearDeg = q.LinearHalfAngle() * 180 / math.Pi
+		row.LinearDeg = q.ValidHalfAngle() * 180 / math.Pi
 		row.DetectionDeg = q.DetectionHalfAngle() * 180 / math.Pi
 		row.DeadZoneDeg = q.DeadZoneHalfAngle() * 180 / math.Pi
 		row.DeadZoneReadDeg = q.DeadZoneReadHalfAngle() * 180 / math.Pi
@@ -267,8 +267,12 @@ func ViewText(s Sensor) string {
 		dz = fmt.Sprintf("dead zone ±%.1f° (flat to ±%.1f°, imbalance below %.3f to ±%.1f°; reads %s there)",
 			r.DeadZoneReadDeg, r.DeadZoneDeg, q.DeadZoneImbalance(), r.DeadZoneReadDeg, q.spec.DeadZone)
 	}
-	return fmt.Sprintf("valid within ±%.1f° per axis (linear range less the imbalance margin), light on the cells to ±%.1f°, %s",
-		r.LinearDeg, r.DetectionDeg, dz)
+	why := "linear range less the imbalance margin"
+	if q.ValidHalfAngle() < q.LinearHalfAngle() {
+		why = fmt.Sprintf("where the cell sum falls below the threshold %g; the linear range goes to ±%.1f°", q.spec.Threshold, q.LinearHalfAngle()*180/math.Pi)
+	}
+	return fmt.Sprintf("valid within ±%.1f° per axis (%s), light on the cells to ±%.1f°, %s",
+		r.LinearDeg, why, r.DetectionDeg, dz)
 }
 
 func checkMount(name string, m Mount) error {

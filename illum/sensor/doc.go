@@ -138,8 +138,10 @@
 // NᵀNx = b) and the RMS chord between each two-axis direction and the
 // estimate. DefaultGate: each estimator's own minimum of sensors, half of
 // full sun summed over a cosine fit (a 1 AU sun on a box's lit faces sums to
-// |sx| + |sy| + |sz| ≥ 1; albedo alone gives a sensor at most ρ·(R/r)² of
-// full sun), no residual limit (common practice, no source). Combined lets
+// |sx| + |sy| + |sz| ≥ 1; albedo alone gives one sensor at most ρ·(R/r)² of
+// full sun, but several sensors facing the Earth add up, about 0.61 over
+// five faces at 400 km, so the gate does not stop every albedo-only fit), no
+// residual limit (common practice, no source). Combined lets
 // its cosine part join only through CosineGate.
 //
 // Estimators: LeastSquares ŝ ∝ (NᵀN)⁻¹Nᵀm over lit cosine sensors (≥ 3,

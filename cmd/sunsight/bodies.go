@@ -17,5 +17,6 @@ func writeBodiesInView(w io.Writer, ss []sim.SensorStats) {
 		fmt.Fprintf(w, "  %-14s %12s %18s %10s\n", s.Name, pct(s.MoonInViewFraction), pct(s.LitEarthInViewFraction), pct(s.BlindedFraction))
 	}
 	fmt.Fprintf(w, "  (Moon: its disc inside half-angle + its radius, not behind the Earth, the mounting face or the body; lit Earth: the Earth's\n")
-	fmt.Fprintf(w, "   disc inside the cone while the sub-satellite point is sunlit; blinded: readings a digital sensor's blinding rule dropped, %s without a rule)\n", study.Missing)
+	fmt.Fprintf(w, "   disc inside the cone while the sub-satellite point is sunlit; a square field of view counts the cone through its corners;\n")
+	fmt.Fprintf(w, "   blinded: readings a digital sensor's blinding rule dropped, %s without a rule)\n", study.Missing)
 }

@@ -83,3 +83,26 @@ func ExampleCosineBank() {
 	// css+Y: 0.500 (valid true), with albedo 0.550
 	// css-X: 0.000 (valid false), with albedo 0.050
 }
+
+// A home-made digital sensor sized before it is built: nine apertures over
+// 1 mm, 1.5 mm above a 5.6 mm detector of 5.5 µm pixels, each spot
+// centroided to 0.2 pixel. Pinhole geometry (closed form): the field per
+// axis is atan((5.6 − 1)/(2·1.5)) = 56.9°, the noise at the boresight
+// 5.5 µm·0.2/(1.5 mm·√9) = 2.44·10⁻⁴ rad = 0.0140°; a sun 56° off along x
+// is read, 57° off is not.
+func ExampleNewApertureArray() {
+	face, _ := sensor.ParseFace("-Z")
+	m, _ := sensor.FaceMount(face, 0, sensor.FaceNone, 0)
+	a, _ := sensor.NewApertureArray(sensor.ApertureArraySpec{Name: "dss", Mount: m, MaskHeight: 1.5, DetectorSide: 5.6,
+		PixelPitch: 0.0055, CentroidSigma: 0.2, Apertures: 9, ArraySide: 1, Threshold: 0.05})
+	fmt.Printf("field ±%.1f° per axis, σ %.4f° at the boresight\n", a.AxisHalfAngle()*180/math.Pi, a.Sigma()*180/math.Pi)
+	for _, deg := range []float64{56, 57} {
+		t := math.Tan(deg * math.Pi / 180)
+		sun := r3.Vec{X: t / math.Sqrt(1+t*t), Z: -1 / math.Sqrt(1+t*t)}
+		fmt.Printf("sun %g° off: valid %v\n", deg, a.Read(sun, sensor.SolarConstant, sensor.Albedo{}, nil).Valid)
+	}
+	// Output:
+	// field ±56.9° per axis, σ 0.0140° at the boresight
+	// sun 56° off: valid true
+	// sun 57° off: valid false
+}

@@ -2,8 +2,6 @@ package main
 
 import (
 	"bytes"
-	"os"
-	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
@@ -15,9 +13,7 @@ import (
 // sensors table shows no full scale and no saturation for it (no converter
 // model), while the cosine sensor keeps its ADC range.
 func TestApertureArrayOnTheCommandLine(t *testing.T) {
-	dir := t.TempDir()
-	file := filepath.Join(dir, "aa.yaml")
-	if err := os.WriteFile(file, []byte(`name: aperture array
+	file := scenarioText(t, `name: aperture array
 epoch: "2026-06-01T00:00:00Z"
 duration: 3h
 step: 10s
@@ -29,9 +25,7 @@ body:
        pixel_pitch_um: 5.5, centroid_px_1sigma: 0.2, apertures: 9, array_size_mm: 1.0}
     - {name: css, kind: cosine, face: "+X"}
 albedo: {model: none}
-`), 0o644); err != nil {
-		t.Fatal(err)
-	}
+`)
 	var out, errb bytes.Buffer
 	if code := runMain([]string{"check", file}, &out, &errb); code != 0 {
 		t.Fatalf("check: exit %d: %s", code, errb.String())

@@ -14,9 +14,7 @@ import (
 // saturated in all of its sunlit time (closed form: cos 0° = 1 > 0.5),
 // while the orbit spends about a third of the time in shadow.
 func TestSaturatedFractionIsOfSunlitTime(t *testing.T) {
-	dir := t.TempDir()
-	file := filepath.Join(dir, "sat.yaml")
-	if err := os.WriteFile(file, []byte(`name: saturation share
+	file := scenarioText(t, `name: saturation share
 epoch: "2026-03-20T00:00:00Z"
 duration: 6h
 step: 10s
@@ -26,9 +24,7 @@ body:
   sensors:
     - {name: s, kind: cosine, face: "+Z", full_scale: 0.5}
 albedo: {model: none}
-`), 0o644); err != nil {
-		t.Fatal(err)
-	}
+`)
 	var out, errb bytes.Buffer
 	if code := runMain([]string{"run", "--quiet", "--json", file}, &out, &errb); code != 0 {
 		t.Fatalf("exit %d: %s", code, errb.String())
@@ -48,4 +44,15 @@ albedo: {model: none}
 	if !(u.Sunlit < 0.8) || u.Sensors[0].Saturated != 1 {
 		t.Errorf("sunlit %v, saturated %v: want a shadowed orbit and saturation in all sunlit time (1)", u.Sunlit, u.Sensors[0].Saturated)
 	}
+}
+
+// scenarioText writes a scenario file of the given text in a test folder
+// and returns its path.
+func scenarioText(t *testing.T, text string) string {
+	t.Helper()
+	file := filepath.Join(t.TempDir(), "scenario.yaml")
+	if err := os.WriteFile(file, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return file
 }

@@ -42,19 +42,9 @@ func checkOutputFile(path string, force bool) error {
 // replace something: one that is not a folder, one holding files that are not
 // a sunsight output set, an earlier output set without --force.
 func checkOutputDir(dir string, force bool) error {
-	st, err := os.Lstat(dir)
-	if errors.Is(err, fs.ErrNotExist) {
-		return usageError2(ensureWritableDir(filepath.Dir(filepath.Clean(dir))))
-	}
-	if err != nil {
-		return usageError{err}
-	}
-	if !st.IsDir() {
-		return usagef("output folder %s exists and is not a folder; give a new or empty folder", dir)
-	}
-	ents, err := os.ReadDir(dir)
-	if err != nil {
-		return usageError{err}
+	ents, exists, err := existingOutputDir(dir)
+	if err != nil || !exists {
+		return err
 	}
 	if len(ents) > 0 {
 		b, err := os.ReadFile(filepath.Join(dir, manifestName))
@@ -105,19 +95,9 @@ func unlisted(dir string, m []byte) (string, error) {
 // is not a sunsight figure set or holds a file its manifest does not list.
 // Only the lock file of a sweep stopped before its plan may be there alone.
 func checkSweepDir(dir string, withPlots bool) error {
-	st, err := os.Lstat(dir)
-	if errors.Is(err, fs.ErrNotExist) {
-		return usageError2(ensureWritableDir(filepath.Dir(filepath.Clean(dir))))
-	}
-	if err != nil {
-		return usageError{err}
-	}
-	if !st.IsDir() {
-		return usagef("output folder %s exists and is not a folder; give a new or empty folder", dir)
-	}
-	ents, err := os.ReadDir(dir)
-	if err != nil {
-		return usageError{err}
+	ents, exists, err := existingOutputDir(dir)
+	if err != nil || !exists {
+		return err
 	}
 	_, err = sweep.ReadManifest(dir)
 	switch {
@@ -139,6 +119,27 @@ func checkSweepDir(dir string, withPlots bool) error {
 		}
 	}
 	return usageError2(ensureWritableDir(dir))
+}
+
+// existingOutputDir lists an output folder that exists; for one that does
+// not, it checks that its parent can take it (exists false). Anything there
+// that is not a folder is refused.
+func existingOutputDir(dir string) (ents []os.DirEntry, exists bool, err error) {
+	st, err := os.Lstat(dir)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, false, usageError2(ensureWritableDir(filepath.Dir(filepath.Clean(dir))))
+	}
+	if err != nil {
+		return nil, false, usageError{err}
+	}
+	if !st.IsDir() {
+		return nil, false, usagef("output folder %s exists and is not a folder; give a new or empty folder", dir)
+	}
+	ents, err = os.ReadDir(dir)
+	if err != nil {
+		return nil, false, usageError{err}
+	}
+	return ents, true, nil
 }
 
 func usageError2(err error) error {

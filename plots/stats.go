@@ -127,6 +127,10 @@ type ErrSeries struct {
 	ErrorsDeg   []float64
 	BinEdgesDeg []float64
 	BinCounts   []float64
+	// P95Deg, when set, is the run's own p95 (deg): marked and labelled
+	// (to 0.01°, as the report prints it) instead of the p95 of the
+	// samples or bins given, which only approximate it.
+	P95Deg *float64
 }
 
 // maxAngleDeg is the largest angle between two directions: the error
@@ -249,7 +253,10 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		for i, p := range prep[k].pts {
 			pts[i] = plotter.XY{X: math.Max(p.X, xmin), Y: p.Y}
 		}
-		p95 := prep[k].p95
+		p95, p95Label := prep[k].p95, fmt.Sprintf("%.3g", prep[k].p95)
+		if s.P95Deg != nil {
+			p95, p95Label = *s.P95Deg, fmt.Sprintf("%.2f", *s.P95Deg)
+		}
 		l, err := plotter.NewLine(pts)
 		if err != nil {
 			return nil, fmt.Errorf("plots: error distribution: %w", err)
@@ -263,7 +270,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		mark := vline{math.Max(p95, xmin), draw.LineStyle{Color: seriesColour(k), Width: 1.2, Dashes: []vg.Length{2, 2}}}
 		cdfP.Add(mark)
 		cdfP.Legend.Add(s.Label, l)
-		cdfP.Legend.Add(fmt.Sprintf("p95 %s = %.3g°", s.Label, p95), mark)
+		cdfP.Legend.Add(fmt.Sprintf("p95 %s = %s°", s.Label, p95Label), mark)
 
 		// Fraction per log-spaced bin, drawn as a step outline so the
 		// series overlap without mixing colours.

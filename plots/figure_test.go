@@ -577,3 +577,62 @@ func TestLabelUnderFixedSun(t *testing.T) {
 		t.Error("a sun 15 pt past the label's end counts as under it")
 	}
 }
+
+// A thinned timeline says so in its error panel (the window maxima and
+// peaks drawn are of the drawn steps only), and eclipses too many to draw
+// at the figure's scale are not shaded, which the figure says, instead of
+// painting every panel grey (a 20-day run has about 300).
+func TestTimelineThinnedAndDenseEclipses(t *testing.T) {
+	f := Timeline{
+		T:              []float64{0, 60, 120, 180, 240},
+		Valid:          []bool{true, true, false, false, false},
+		Umbra:          []Interval{{130, 170}},
+		ErrNoAlbedoDeg: []float64{0.5, 0.6, math.NaN(), math.NaN(), 0.7},
+		StepsPerSample: 3,
+	}
+	if !f.ShadesEclipses() {
+		t.Error("one eclipse not shaded")
+	}
+	c, err := f.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantText(t, mustSVG(t, c), "Sun-vector error, one step in 3 drawn", "umbra")
+	f.StepsPerSample = 0
+	f.Umbra = nil
+	for i := range maxShadedSpans + 1 {
+		a := 240 * float64(i) / (maxShadedSpans + 1)
+		f.Umbra = append(f.Umbra, Interval{a, a + 1})
+	}
+	if f.ShadesEclipses() {
+		t.Errorf("%d eclipses shaded", len(f.Umbra))
+	}
+	c, err = f.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	svg := mustSVG(t, c)
+	wantText(t, svg, "eclipses not shaded (too many)")
+	if strings.Contains(svg, "one step in") {
+		t.Error("an unthinned timeline says it is thinned")
+	}
+}
+
+// A series given the run's own p95 marks and labels that figure, not the
+// p95 of the samples it draws (the review draws 400 quantiles of the run's
+// errors; their p95 is not the run's to the digits the report prints).
+func TestErrorDistUsesTheRunsP95(t *testing.T) {
+	var a []float64
+	for i := 1; i <= 100; i++ {
+		a = append(a, float64(i)/100)
+	}
+	p95 := 0.9712
+	c, err := ErrorDist{Series: []ErrSeries{{Label: "with albedo", ErrorsDeg: a, P95Deg: &p95}}}.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantText(t, mustSVG(t, c), "p95 with albedo = 0.97°")
+	if d := c.drawn[1]; d.Label != "p95 with albedo" || d.XYs[0].X != p95 {
+		t.Errorf("p95 marked at %v (%s), want %g", d.XYs, d.Label, p95)
+	}
+}

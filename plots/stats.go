@@ -12,6 +12,7 @@ import (
 	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 )
@@ -127,6 +128,10 @@ type ErrSeries struct {
 	ErrorsDeg   []float64
 	BinEdgesDeg []float64
 	BinCounts   []float64
+	// P95Deg, when set, is the run's own p95 (deg): marked and labelled
+	// (to 0.01°, as the report prints it) instead of the p95 of the
+	// samples or bins given, which only approximate it.
+	P95Deg *float64
 }
 
 // maxAngleDeg is the largest angle between two directions: the error
@@ -249,7 +254,10 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		for i, p := range prep[k].pts {
 			pts[i] = plotter.XY{X: math.Max(p.X, xmin), Y: p.Y}
 		}
-		p95 := prep[k].p95
+		p95, p95Label := prep[k].p95, fmt.Sprintf("%.3g", prep[k].p95)
+		if s.P95Deg != nil {
+			p95, p95Label = *s.P95Deg, fmt.Sprintf("%.2f", *s.P95Deg)
+		}
 		l, err := plotter.NewLine(pts)
 		if err != nil {
 			return nil, fmt.Errorf("plots: error distribution: %w", err)
@@ -263,7 +271,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		mark := vline{math.Max(p95, xmin), draw.LineStyle{Color: seriesColour(k), Width: 1.2, Dashes: []vg.Length{2, 2}}}
 		cdfP.Add(mark)
 		cdfP.Legend.Add(s.Label, l)
-		cdfP.Legend.Add(fmt.Sprintf("p95 %s = %.3g°", s.Label, p95), mark)
+		cdfP.Legend.Add(fmt.Sprintf("p95 %s = %s°", s.Label, p95Label), mark)
 
 		// Fraction per log-spaced bin, drawn as a step outline so the
 		// series overlap without mixing colours.
@@ -321,31 +329,72 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	}
 	for _, p := range []*plot.Plot{cdfP, histP} {
 		p.X.Scale = plot.LogScale{}
-		p.X.Tick.Marker = decadeTicks{}
+		// Half the chart width: shorter than the drawn axis (the legend
+		// takes the rest), so labels that fit here fit there.
+		p.X.Tick.Marker = decadeTicks{label: p.X.Tick.Label, axis: DefaultWidth / 2}
 		p.X.Min, p.X.Max = xmin, xmax
 	}
 	histP.Y.Min, histP.Y.Max = 0, histTop*1.08
 	return &Chart{Panels: []*plot.Plot{cdfP, histP}, Caption: caption, Height: 7.5 * vg.Inch, drawn: rec}, nil
 }
 
-// decadeTicks labels 1, 2 and 5 × 10ⁿ on a log axis, with minor ticks at
-// the other integers.
-type decadeTicks struct{}
+// decadeTicks labels 1, 2 and 5 × 10ⁿ on a log axis where their labels fit
+// side by side, with minor ticks at the other integers. Labels are kept in
+// turn — the decades from the largest down, then the fives, then the twos —
+// each only when it leaves a gap of gapEm (em of the label font) to every
+// label kept before, on an axis taken to be axis long: errors down to
+// 0.001° printed "0.0010.0020.0050.010.02". A decade label a longer one
+// beside it crowds out goes too (a span of eight decades labels every
+// other one).
+type decadeTicks struct {
+	label text.Style // the axis' tick label style
+	axis  vg.Length  // the axis length assumed (shorter than drawn)
+}
 
-func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
+// gapEm is the least space between two tick labels, in em (common
+// practice, no source).
+const gapEm = 0.5
+
+func (d decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 	var ts []plot.Tick
 	for e := math.Floor(math.Log10(lo)); e <= math.Ceil(math.Log10(hi)); e++ {
-		d := math.Pow(10, e)
+		p := math.Pow(10, e)
 		for m := 1.0; m < 10; m++ {
-			v := m * d
+			v := m * p
 			if v < lo*(1-1e-9) || v > hi*(1+1e-9) {
 				continue
 			}
-			lab := ""
-			if m == 1 || m == 2 || m == 5 {
-				lab = tickLabel(v)
+			ts = append(ts, plot.Tick{Value: v})
+		}
+	}
+	if len(ts) == 0 || !(hi > lo) {
+		return ts
+	}
+	span := math.Log10(hi / lo)
+	pos := func(v float64) float64 { return float64(d.axis) * math.Log10(v/lo) / span }
+	gap := gapEm * float64(d.label.Font.Size)
+	type kept struct{ x, half float64 }
+	var done []kept
+	fits := func(x, half float64) bool {
+		for _, k := range done {
+			if math.Abs(x-k.x) < half+k.half+gap {
+				return false
 			}
-			ts = append(ts, plot.Tick{Value: v, Label: lab})
+		}
+		return true
+	}
+	for _, lead := range []float64{1, 5, 2} {
+		for i := len(ts) - 1; i >= 0; i-- {
+			v := ts[i].Value
+			if m := math.Round(v / math.Pow(10, math.Floor(math.Log10(v)+1e-9))); m != lead {
+				continue
+			}
+			lab := tickLabel(v)
+			x, half := pos(v), float64(d.label.Width(lab))/2
+			if fits(x, half) {
+				ts[i].Label = lab
+				done = append(done, kept{x, half})
+			}
 		}
 	}
 	return ts

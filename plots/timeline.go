@@ -53,6 +53,22 @@ type Timeline struct {
 	// Phases, when set, are the spans of a mission timeline: a band of
 	// named bars above the other panels, their boundaries marked in each.
 	Phases []PhaseSpan
+	// StepsPerSample is how many of the run's steps each sample stands
+	// for (one step in StepsPerSample drawn); above 1 the error panel says
+	// so, since its peaks are of the drawn steps only.
+	StepsPerSample int
+}
+
+// maxShadedSpans is the number of umbra and penumbra spans (about three
+// per eclipse) beyond which their shading would merge into one grey band
+// over the figure's width (about 700 points); the timeline then leaves
+// them unshaded and says so (common practice, no source).
+const maxShadedSpans = 120
+
+// ShadesEclipses reports whether the figure shades the eclipse spans: not
+// when there are more than maxShadedSpans of them.
+func (f Timeline) ShadesEclipses() bool {
+	return len(f.Umbra)+len(f.Penumbra) <= maxShadedSpans
 }
 
 // errDashes and errDashesThin are the dash patterns of the error series
@@ -198,6 +214,10 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 	}
 	t, div, unit := scaledTimes(f.T)
 	umbra, penumbra := scaleIntervals(f.Umbra, div), scaleIntervals(f.Penumbra, div)
+	shadeU, shadeP := umbra, penumbra
+	if !f.ShadesEclipses() {
+		shadeU, shadeP = nil, nil
+	}
 	xlabel := fmt.Sprintf("time since epoch (%s)", unit)
 
 	var panels []*plot.Plot
@@ -214,7 +234,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 	cutStyle := draw.LineStyle{Color: colBlack, Width: 0.8, Dashes: []vg.Length{2, 2}}
 	addPanel := func(title, ylabel string) *plot.Plot {
 		p := newPlot(title, "", ylabel)
-		p.Add(bands{penumbra, colPenumbra}, bands{umbra, colUmbra})
+		p.Add(bands{shadeP, colPenumbra}, bands{shadeU, colUmbra})
 		for _, x := range cuts {
 			p.Add(vline{x, cutStyle})
 		}
@@ -341,6 +361,9 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 			p.Legend.Add(tg.text(), h)
 			p.Title.Text += " (target is on the p95 over the run)"
 		}
+		if n := f.StepsPerSample; n > 1 {
+			p.Title.Text += fmt.Sprintf(", one step in %d drawn", n)
+		}
 		for k, s := range []struct {
 			label string
 			y     []float64
@@ -405,11 +428,16 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 		return nil, fmt.Errorf("plots: timeline: nothing to draw; fill SensorsSeeing, Valid or an error series")
 	}
 	top := panels[first]
-	if len(f.Umbra) > 0 {
-		top.Legend.Add("umbra", swatch{colUmbra})
-	}
-	if len(f.Penumbra) > 0 {
-		top.Legend.Add("penumbra", swatch{colPenumbra})
+	switch {
+	case !f.ShadesEclipses():
+		top.Legend.Add("eclipses not shaded (too many)")
+	default:
+		if len(f.Umbra) > 0 {
+			top.Legend.Add("umbra", swatch{colUmbra})
+		}
+		if len(f.Penumbra) > 0 {
+			top.Legend.Add("penumbra", swatch{colPenumbra})
+		}
 	}
 	panels[len(panels)-1].X.Label.Text = xlabel
 	for _, p := range panels {

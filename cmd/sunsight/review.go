@@ -4,11 +4,14 @@ import (
 	"bytes"
 	"crypto/sha256"
 	"fmt"
+	"io"
 	"os"
 	"runtime/debug"
+	"strings"
 	"time"
 
 	"codeberg.org/sunsight/sunsight/plots"
+	"codeberg.org/sunsight/sunsight/plots/figures"
 	"codeberg.org/sunsight/sunsight/scenario"
 	"codeberg.org/sunsight/sunsight/scenario/review"
 	"codeberg.org/sunsight/sunsight/scenario/sim"
@@ -16,8 +19,10 @@ import (
 )
 
 // writeReview draws the design-review figures of a run and writes them as
-// files (plotsDir) and/or binds them into the HTML report.
-func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *study.SingleFailure, ph *study.Phases, report, plotsDir string, prov review.Provenance, force bool) error {
+// files (plotsDir) and/or binds them into the HTML report. A named figure
+// the run has nothing for is left out of plotsDir with a note on stderr
+// (the report carries the same note).
+func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *study.SingleFailure, ph *study.Phases, report, plotsDir string, prov review.Provenance, force bool, stderr io.Writer) error {
 	// output.figures chooses the figures (all of them by default); only
 	// those are built.
 	figs, err := review.Figures(s, cfg, res, s.Output.Figures)
@@ -25,6 +30,9 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *stud
 		return fmt.Errorf("figures: %w", err)
 	}
 	if plotsDir != "" {
+		for _, n := range review.Skipped(res, s.Output.Figures) {
+			fmt.Fprintf(stderr, "sunsight run: --plots: %s\n", n)
+		}
 		err := writeOutputDir(plotsDir, force, func(dir string) error {
 			return review.WritePlots(dir, figs, []string{"png", "svg"})
 		})
@@ -52,6 +60,17 @@ func writeReview(s *scenario.Scenario, cfg sim.Config, res *sim.Result, sf *stud
 		}
 	}
 	return nil
+}
+
+// checkPlotFigures refuses --plots when output.figures names no figure: an
+// empty list asks for none, and a plots folder with no figure in it is no
+// output. (A report is still written then, with its tables alone.)
+func checkPlotFigures(file string, s *scenario.Scenario) error {
+	if len(s.Output.Figures) > 0 {
+		return nil
+	}
+	return usagef("--plots: %s: output.figures is an empty list, so there is no figure to write; name the figures there (%s), remove the key for the default set, or leave --plots out",
+		file, strings.Join(figures.Names(), ", "))
 }
 
 // provenance records where a report comes from: the scenario file as given,

@@ -118,6 +118,11 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	if s.Step.Seconds() > s.Duration.Seconds() {
 		return usagef("step %s is longer than the duration %s: shorten the step or lengthen the run", s.Step, s.Duration)
 	}
+	if f.plotsDir != "" {
+		if err := checkPlotFigures(file, s); err != nil {
+			return err
+		}
+	}
 	// Check every output place before the run, so a long run does not end
 	// on an unwritable folder or an output it may not replace.
 	for _, d := range []string{f.csvDir, f.plotsDir} {
@@ -252,7 +257,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 		if err != nil {
 			return err
 		}
-		if err := writeReview(s, cfg, res, out.assessed.SingleFailure, out.phases, f.report, f.plotsDir, prov, f.force); err != nil {
+		if err := writeReview(s, cfg, res, out.assessed.SingleFailure, out.phases, f.report, f.plotsDir, prov, f.force, stderr); err != nil {
 			return err
 		}
 	}

@@ -8,7 +8,7 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
-	"sync/atomic"
+	"sync"
 
 	"codeberg.org/sunsight/sunsight/plots"
 	"codeberg.org/sunsight/sunsight/scenario/sweep"
@@ -36,6 +36,7 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	workers := fs.Int("workers", 0, "cases run in parallel (`N`; 0 = number of CPUs)")
 	shard := fs.String("shard", "", "`K/N`: run only cases with index % N == K-1 (join the shards with sunsight merge)")
 	noPlots := fs.Bool("no-plots", false, "write the table but no figures")
+	quiet := fs.Bool("quiet", false, "no progress on stderr (it is shown on a terminal only)")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
@@ -98,14 +99,11 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 		return err
 	}
 	defer release()
-	var done atomic.Int32
-	total := len(plan.Cases)
-	sum, err := sweep.Execute(ctx, plan, *out, sweep.Options{Workers: *workers, ShardK: k, ShardN: n, Done: func(int) {
-		d := done.Add(1)
-		if step := max(int32(total)/10, 1); d%step == 0 {
-			fmt.Fprintf(stderr, "sweep: %d new cases done\n", d)
-		}
-	}})
+	// The count of new cases done, on a terminal only (as run's and
+	// season's displays): logs and pipes stay clean.
+	prog := sweepProgress(stderr, !*quiet && isTerminal(stderr), len(plan.Cases))
+	sum, err := sweep.Execute(ctx, plan, *out, sweep.Options{Workers: *workers, ShardK: k, ShardN: n, Done: func(int) { prog.update() }})
+	prog.finish()
 	if errors.Is(err, context.Canceled) {
 		// The finished cases stay: a sweep resumes.
 		return fmt.Errorf("interrupted after %d new cases (%d of %d in %s); run the same command again to resume", sum.Ran, sum.Ran+sum.Skipped, sum.InShard, *out)
@@ -119,6 +117,45 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 		return nil
 	}
 	return writeSweepOutputs([]string{*out}, *noPlots, pos[0], stdout)
+}
+
+// caseProgress rewrites one line of stderr with the number of new cases
+// done; off, it writes nothing.
+type caseProgress struct {
+	mu         sync.Mutex
+	w          io.Writer
+	on         bool
+	done, most int
+}
+
+// sweepProgress is the case count of a sweep of at most most cases to run
+// (a resumed or sharded sweep runs fewer), shown when on.
+func sweepProgress(w io.Writer, on bool, most int) *caseProgress {
+	return &caseProgress{w: w, on: on, most: most}
+}
+
+// update counts one more case done (from any worker).
+func (p *caseProgress) update() {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	p.done++
+	if !p.on {
+		return
+	}
+	word := "cases"
+	if p.done == 1 {
+		word = "case"
+	}
+	fmt.Fprintf(p.w, "\rsunsight sweep: %d new %s done (at most %d to run)", p.done, word, p.most)
+}
+
+// finish ends the line, if one was written.
+func (p *caseProgress) finish() {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	if p.on && p.done > 0 {
+		fmt.Fprintln(p.w)
+	}
 }
 
 func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Writer) error {

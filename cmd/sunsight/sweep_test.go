@@ -338,3 +338,37 @@ func TestSweepBadInputExit2(t *testing.T) {
 		t.Error("a refused merge created its first folder")
 	}
 }
+
+// Sweep progress goes to a terminal only (as run's and season's): into a
+// pipe or log stderr gets no "cases done" lines (it had one per case for
+// sweeps under 20 cases), and --quiet turns it off on a terminal too. On a
+// terminal the count rewrites one line.
+func TestSweepProgressOnlyOnATerminal(t *testing.T) {
+	file := writeSweepScenario(t)
+	for _, extra := range [][]string{nil, {"--quiet"}} {
+		out := filepath.Join(t.TempDir(), "o")
+		var so, se bytes.Buffer
+		args := append([]string{"sweep", file, "--vary", "orbit.altitude_km=400,500,600", "--out", out, "--no-plots"}, extra...)
+		if code := runMain(args, &so, &se); code != 0 {
+			t.Fatalf("%v: exit %d, %s", args, code, se.String())
+		}
+		if se.Len() != 0 {
+			t.Errorf("%v: stderr into a buffer: %q", args, se.String())
+		}
+	}
+	var b bytes.Buffer
+	p := sweepProgress(&b, true, 3)
+	p.update()
+	p.update()
+	p.finish()
+	if got, want := b.String(), "\rsunsight sweep: 1 new case done (at most 3 to run)\rsunsight sweep: 2 new cases done (at most 3 to run)\n"; got != want {
+		t.Errorf("terminal progress %q, want %q", got, want)
+	}
+	b.Reset()
+	p = sweepProgress(&b, false, 3)
+	p.update()
+	p.finish()
+	if b.Len() != 0 {
+		t.Errorf("progress off wrote %q", b.String())
+	}
+}

@@ -190,12 +190,14 @@ func timelineFigure(in *figureInput) (Named, bool, error) {
 	}
 	tl.ErrorTarget, tl.ValidTarget = in.tg.errP95, in.tg.valid
 	tl.ValidShare = in.res.Nominal.Estimators[0].ValidFraction
+	tl.StepsPerSample = in.cfg.TimelineStride
 	c, err := tl.Plot(in.cap)
 	title := fmt.Sprintf("Timeline of the first %d orbits: sensors seeing the sun, validity, error", TimelineOrbits)
 	if len(tl.Phases) > 0 {
 		title = "Mission timeline over the whole run: phases, sensors seeing the sun, validity, error"
 	}
-	return Named{Title: title, Chart: c, Tells: timelineTells(tl, in.tg)}, true, err
+	whole := len(tl.Phases) > 0 || in.cfg.TimelineSpan >= in.cfg.Duration
+	return Named{Title: title, Chart: c, Tells: timelineTells(tl, &in.res.Nominal.Estimators[0], in.cfg.TimelineStride, whole, in.tg)}, true, err
 }
 
 func yearFigure(in *figureInput) (Named, bool, error) {
@@ -247,20 +249,41 @@ func verdictText(t *plots.Target) string {
 	return " (target " + t.Label + ": " + v + ")"
 }
 
-func timelineTells(tl plots.Timeline, tg figureTargets) string {
-	peak := peakOf(tl.ErrAlbedoDeg)
-	if math.IsNaN(peak) {
-		peak = peakOf(tl.ErrNoAlbedoDeg)
+// timelineTells is the timeline's message. The peak it states is the run's
+// own largest error (unit 0, every step: the headline's "Largest error"),
+// not the largest of the samples the figure draws, which are one step in
+// cfg.TimelineStride; the peak of the three orbits shown is added when they
+// are a part of the run, said to be of the drawn samples when thinned.
+func timelineTells(tl plots.Timeline, e *sim.EstimatorStats, stride int, whole bool, tg figureTargets) string {
+	mx, drawn := e.ErrAlbedo.MaxDeg, peakOf(tl.ErrAlbedoDeg)
+	if e.ErrAlbedo.N == 0 {
+		mx, drawn = e.ErrNoAlbedo.MaxDeg, peakOf(tl.ErrNoAlbedoDeg)
 	}
-	t := fmt.Sprintf("Over the whole run the sun vector is valid %.1f %% of sunlit time%s; in these orbits the error peaks at %s°",
-		100*tl.ValidShare, verdictText(tg.valid), num(peak, 1))
-	if tl.ErrCorrectedDeg != nil {
-		t += fmt.Sprintf(" (%s° after the on-board albedo correction)", num(peakOf(tl.ErrCorrectedDeg), 1))
+	t := fmt.Sprintf("Over the whole run the sun vector is valid %.1f %% of sunlit time%s and the error peaks at %s°",
+		100*tl.ValidShare, verdictText(tg.valid), num(mx, 2))
+	if k := e.Corrected; k != nil && tl.ErrCorrectedDeg != nil {
+		t += fmt.Sprintf(" (%s° after the on-board albedo correction)", num(k.Err.MaxDeg, 2))
 	}
 	if tg.errP95 != nil {
 		t += fmt.Sprintf(", against a p95 target of %s", tg.errP95.Label)
 	}
-	return t + ". Shaded: umbra (dark) and penumbra (light)."
+	switch {
+	case whole && stride > 1:
+		t += fmt.Sprintf("; the figure draws one step in %d, so its peaks can sit below the run's", stride)
+	case !whole && stride > 1:
+		t += fmt.Sprintf("; in these orbits the largest drawn sample (one step in %d) is %s°", stride, num(drawn, 2))
+	case !whole:
+		t += fmt.Sprintf("; in these orbits it peaks at %s°", num(drawn, 2))
+	}
+	return t + ". " + shadingText(tl)
+}
+
+// shadingText says how the timeline marks the eclipses.
+func shadingText(tl plots.Timeline) string {
+	if !tl.ShadesEclipses() {
+		return "Eclipses are not shaded: too many to draw at this scale."
+	}
+	return "Shaded: umbra (dark) and penumbra (light)."
 }
 
 // peakOf is the largest finite value of ys, NaN without one.
@@ -283,7 +306,7 @@ func yearTells(y plots.YearView) string {
 			free++
 		}
 	}
-	return fmt.Sprintf("In %d the beta angle ranges %.0f° … %.0f° and eclipses last up to %.0f min per orbit; %d days are eclipse-free. "+
+	return fmt.Sprintf("In %d the beta angle ranges %.0f° … %.0f° and eclipses last up to %.0f min per orbit (one orbit examined a day); %d days are eclipse-free. "+
 		"The blue band marks this run (days %.0f–%.0f): a run outside the worst season does not show the worst case.",
 		y.Year, lo, hi, ecl, free, math.Floor(y.Run.Start), math.Ceil(y.Run.End))
 }
@@ -514,11 +537,15 @@ func errorDist(res *sim.Result) (plots.ErrorDist, bool) {
 	var d plots.ErrorDist
 	// Quantiles at equal probability steps are an equal-weight sample of
 	// the distribution, which is what ErrSeries takes.
+	// The p95 marked is the run's own (the caption's and the headline's),
+	// not the p95 of those quantiles.
 	if x, _ := e.ErrorCDF(cdfPoints, false); len(x) > 0 {
-		d.Series = append(d.Series, plots.ErrSeries{Label: "without albedo", ErrorsDeg: x})
+		p95 := e.ErrNoAlbedo.P95Deg
+		d.Series = append(d.Series, plots.ErrSeries{Label: "without albedo", ErrorsDeg: x, P95Deg: &p95})
 	}
 	if x, _ := e.ErrorCDF(cdfPoints, true); len(x) > 0 {
-		d.Series = append(d.Series, plots.ErrSeries{Label: "with albedo", ErrorsDeg: x})
+		p95 := e.ErrAlbedo.P95Deg
+		d.Series = append(d.Series, plots.ErrSeries{Label: "with albedo", ErrorsDeg: x, P95Deg: &p95})
 	}
 	if len(res.AcrossUnits) > 0 {
 		d.UnitP95Deg = append([]float64(nil), res.AcrossUnits[0].UnitP95Deg...)

@@ -81,7 +81,7 @@ func TestTimelineDrawsTheOnboardCorrectedError(t *testing.T) {
 	if finite < len(tl.T)/3 {
 		t.Errorf("corrected error on %d of %d samples", finite, len(tl.T))
 	}
-	if tells := timelineTells(tl, figureTargets{}); !strings.Contains(tells, "after the on-board albedo correction") {
+	if tells := timelineTells(tl, &res.Nominal.Estimators[0], cfg.TimelineStride, true, figureTargets{}); !strings.Contains(tells, "after the on-board albedo correction") {
 		t.Errorf("caption %q", tells)
 	}
 	_, cfg, res = shortRun(t, "nadir-6u-sso.yaml", 2*time.Hour, 1)

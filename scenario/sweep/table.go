@@ -94,12 +94,29 @@ func Gather(dirs []string) (Manifest, []*CaseFile, error) {
 	return m, cases, nil
 }
 
+// The columns of the sky coverage the coverage targets judge (the share of
+// the sky seen by ≥ targets.coverage_sensors sensors, and the same with the
+// worst single sensor failed), present when any case states the target.
+const (
+	CoverageColumn          = "sky_seen_by_coverage_sensors_fraction"
+	CoverageOneFailedColumn = "sky_seen_by_coverage_sensors_one_failed_fraction"
+)
+
+// judgedColumns are the figures of the targets that no headline column
+// holds, by target key: the value of the case's target record.
+var judgedColumns = []struct{ key, column string }{
+	{study.TargetCoverage, CoverageColumn},
+	{study.TargetCoverageOneFailed, CoverageOneFailedColumn},
+}
+
 // Table writes the sweep table: one row per case in case order: the case,
 // its seed and the SHA-256 of its resolved scenario, the varied inputs, the
-// headline columns (names carry units), then targets_met and one
-// target_<key>_pass column per target stated in any case (true, false, or
-// empty where that case states no such target). Floats have six decimals,
-// counts are whole numbers, an undefined figure is an empty cell.
+// headline columns (names carry units), the judged sky coverage of the
+// coverage targets (judgedColumns, when any case states them), then
+// targets_met and one target_<key>_pass column per target stated in any
+// case (true, false, or empty where that case states no such target).
+// Floats have six decimals, counts are whole numbers, an undefined figure
+// is an empty cell.
 func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 	cw := csv.NewWriter(w)
 	names := HeadlineNames()
@@ -115,6 +132,13 @@ func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 	}
 	head := append([]string{"case", "seed", "scenario_sha256"}, m.Keys...)
 	head = append(head, names...)
+	var judged []string // target keys with a column of their value
+	for _, j := range judgedColumns {
+		if seen[j.key] {
+			judged = append(judged, j.key)
+			head = append(head, j.column)
+		}
+	}
 	head = append(head, "targets_met")
 	for _, k := range keys {
 		head = append(head, TargetPassColumn(k))
@@ -135,6 +159,15 @@ func Table(w io.Writer, m Manifest, cases []*CaseFile) error {
 			v := cf.Headline[n]
 			if x, ok := v.(float64); ok && isInt[n] {
 				v = int64(x) // counts print as whole numbers
+			}
+			row = append(row, cell(v))
+		}
+		for _, k := range judged {
+			var v any
+			for _, t := range cf.Targets {
+				if t.Key == k && t.Value != nil {
+					v = *t.Value
+				}
 			}
 			row = append(row, cell(v))
 		}

@@ -177,17 +177,27 @@ func writeSweepOutputs(dirs []string, noPlots bool, source string, stdout io.Wri
 	if !noPlots {
 		fmt.Fprintf(stdout, "sweep: figures in %s\n", filepath.Join(dirs[0], sweep.PlotsDir))
 	}
-	failed := 0
+	failed, stated := 0, 0
 	for _, cf := range cases {
 		if !cf.Met() {
 			failed++
+		}
+		if len(cf.Targets) > 0 {
+			stated++
 		}
 	}
 	if failed > 0 {
 		fmt.Fprintf(stdout, "verdict: %d of %d cases miss a target (see the target_*_pass columns of sweep.csv)\n", failed, len(cases))
 		return targetsFailed{what: fmt.Sprintf("%d of %d cases miss a target", failed, len(cases))}
 	}
-	fmt.Fprintf(stdout, "verdict: every target met in all %d cases\n", len(cases))
+	switch stated {
+	case 0:
+		fmt.Fprintf(stdout, "verdict: no targets set in any of the %d cases\n", len(cases))
+	case len(cases):
+		fmt.Fprintf(stdout, "verdict: every target met in all %d cases\n", len(cases))
+	default:
+		fmt.Fprintf(stdout, "verdict: every target met in the %d cases that set any (%d set none)\n", stated, len(cases)-stated)
+	}
 	return nil
 }
 

@@ -23,9 +23,15 @@ type FieldError struct {
 	Path      string // dotted key path, e.g. "body.sensors[2].half_angle_deg"
 	Line, Col int    // 1-based; zero when the key is absent from the file
 	Msg       string // "value V is …; allowed …"
+	// Origin says where a value that is not a line of the file came from
+	// (a tool that edits the file sets it, e.g. "set by --vary seed").
+	Origin string
 }
 
 func (e *FieldError) Error() string {
+	if e.Origin != "" {
+		return fmt.Sprintf("%s (%s): %s", e.Path, e.Origin, e.Msg)
+	}
 	if e.Line > 0 {
 		return fmt.Sprintf("%s (line %d, col %d): %s", e.Path, e.Line, e.Col, e.Msg)
 	}
@@ -72,7 +78,14 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 	if fe := secondDocument(data); fe != nil {
 		return nil, Errors{fe}
 	}
-	root := doc.Content[0]
+	return ParseNode(doc.Content[0], dir)
+}
+
+// ParseNode checks and resolves a scenario given as its YAML node tree (the
+// top mapping), as Parse does its text. Each problem carries the line and
+// column of its node; a node made in code (line 0) gives none, so a tool
+// that edits a user's file before the check reports the user's own lines.
+func ParseNode(root *yaml.Node, dir string) (*Scenario, error) {
 	w := walker{nodes: map[string]*yaml.Node{}, refused: map[*yaml.Node]bool{}, types: map[*yaml.Node]reflect.Type{}}
 	w.check(root, reflect.TypeOf(fileScenario{}), "")
 	if len(w.errs) > 0 {
@@ -88,9 +101,7 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 		return nil, sortErrors(append(w.errs, valueErrors(root, dir, w)...))
 	}
 	var f fileScenario
-	dec := yaml.NewDecoder(bytes.NewReader(data))
-	dec.KnownFields(true)
-	if err := dec.Decode(&f); err != nil && err != io.EOF {
+	if err := root.Decode(&f); err != nil {
 		// The walker has seen every key and scalar, so this is a safety net.
 		return nil, Errors{{Path: "(file)", Msg: "value could not be read: " + cleanYAML(err.Error()) + "; allowed the keys and types shown by sunsight init"}}
 	}

@@ -439,14 +439,18 @@ func (r *resolver) table(p string, cols [2]sensor.Column, rows [][]float64) [][2
 
 func (r *resolver) errorsOf(p string, e *fileErrors) SensorErrors {
 	for _, c := range []struct {
-		key string
-		v   float64
+		key     string
+		v, max  float64
+		allowed string
 	}{
-		{"dark_offset_1sigma", e.DarkOffset1Sigma}, {"gain_1sigma", e.Gain1Sigma}, {"noise_1sigma", e.Noise1Sigma},
-		{"misalignment_deg_1sigma", e.MisalignmentDeg1Sigma}, {"aperture_offset_mm_1sigma", e.ApertureOffsetMM1Sigma},
+		{"dark_offset_1sigma", e.DarkOffset1Sigma, 10, "a one-sigma fraction of full scale in [0, 10]"},
+		{"gain_1sigma", e.Gain1Sigma, 10, "a one-sigma fraction of the gain in [0, 10]"},
+		{"noise_1sigma", e.Noise1Sigma, 10, "a one-sigma fraction of full scale in [0, 10]"},
+		{"misalignment_deg_1sigma", e.MisalignmentDeg1Sigma, 90, "a one-sigma angle in [0, 90] degrees"},
+		{"aperture_offset_mm_1sigma", e.ApertureOffsetMM1Sigma, 10, "a one-sigma offset in [0, 10] mm"},
 	} {
-		if c.v < 0 || c.v > 10 && c.key != "misalignment_deg_1sigma" || c.v > 90 {
-			r.fail(p+"."+c.key, "value %g is out of range; allowed a one-sigma value ≥ 0 (fractions ≤ 10, degrees ≤ 90)", c.v)
+		if c.v < 0 || c.v > c.max {
+			r.fail(p+"."+c.key, "value %g is out of range; allowed %s", c.v, c.allowed)
 		}
 	}
 	return SensorErrors{DarkOffset1Sigma: e.DarkOffset1Sigma, Gain1Sigma: e.Gain1Sigma, Noise1Sigma: e.Noise1Sigma,

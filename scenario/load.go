@@ -14,6 +14,7 @@ import (
 	"strconv"
 	"strings"
 
+	"codeberg.org/sunsight/sunsight/internal/numtext"
 	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"go.yaml.in/yaml/v3"
 )
@@ -369,7 +370,7 @@ type walker struct {
 }
 
 func (w *walker) fail(n *yaml.Node, path, format string, a ...any) {
-	w.errs = append(w.errs, &FieldError{Path: path, Line: n.Line, Col: n.Column, Msg: fmt.Sprintf(format, a...)})
+	w.errs = append(w.errs, &FieldError{Path: path, Line: n.Line, Col: n.Column, Msg: fmt.Sprintf(format, numtext.Clean(a)...)})
 	w.refused[n] = true
 }
 

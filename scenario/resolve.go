@@ -16,6 +16,7 @@ import (
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/internal/numtext"
 	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
@@ -73,7 +74,7 @@ type resolver struct {
 // fail records a problem at path, taking the line from the nearest key of the
 // path that the file has.
 func (r *resolver) fail(path, format string, a ...any) {
-	e := &FieldError{Path: path, Msg: fmt.Sprintf(format, a...)}
+	e := &FieldError{Path: path, Msg: fmt.Sprintf(format, numtext.Clean(a)...)}
 	for p := path; p != ""; {
 		if n, ok := r.nodes[p]; ok {
 			e.Line, e.Col = n.Line, n.Column
@@ -362,7 +363,7 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 }
 
 func (r *resolver) angle(path string, v, lo, hi float64) float64 {
-	r.rangeCheck(path, v, lo, hi, false, fmt.Sprintf("[%g, %g] degrees", lo, hi))
+	r.rangeCheck(path, v, lo, hi, false, fmt.Sprintf("[%g, %g] degrees", numtext.Clean([]any{lo, hi})...))
 	return v * deg
 }
 

@@ -101,7 +101,7 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 		f.Face = strings.ToUpper(f.Face)
 		s.Face = f.Face
 		tilt := setDefault(&f.TiltDeg, 0)
-		r.rangeCheck(p+".tilt_deg", tilt, 0, 90, false, "[0, 90] degrees")
+		r.rangeCheck(p+".tilt_deg", tilt, tiltRange, " degrees")
 		if f.TiltToward == "" {
 			f.TiltToward = defaultToward(f.Face)
 		}
@@ -134,7 +134,7 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 		r.fail(p+".face", "value is missing; allowed a face (%s) or a boresight [x, y, z]", strings.Join(faces, ", "))
 	}
 	clock := setDefault(&f.ClockDeg, 0)
-	r.rangeCheck(p+".clock_deg", clock, -360, 360, false, "[-360, 360] degrees")
+	r.rangeCheck(p+".clock_deg", clock, clockRange, " degrees")
 	s.ClockRad = clock * deg
 	if s.ClockRad != 0 && r3.Norm(s.Boresight) > 0 {
 		s.RefAxis = r3.Rotate(s.RefAxis, s.ClockRad, s.Boresight)
@@ -154,11 +154,13 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 			halfDef = info.HalfAngleDeg
 		}
 		half := setDefault(&f.HalfAngleDeg, halfDef)
-		r.rangeCheck(p+".half_angle_deg", half, 0, 90, true, "a field of view half angle in (0, 90] degrees")
+		if !halfAngleRange.Holds(half) {
+			r.fail(p+".half_angle_deg", "value %g is out of range; allowed a field of view half angle in %s degrees", half, halfAngleRange)
+		}
 		s.HalfAngleRad = half * deg
 	}
 	s.Threshold = setDefault(&f.Threshold, defaultThreshold)
-	r.rangeCheck(p+".threshold", s.Threshold, 0, 1, false, "[0, 1] (fraction of the full-sun reading)")
+	r.rangeCheck(p+".threshold", s.Threshold, fractionRange, " (fraction of the full-sun reading)")
 	if known && !hasSource(info, sensor.SourceQuantisation) {
 		// The kind has no converter model: its keys would be ignored.
 		for key, given := range map[string]bool{"full_scale": f.FullScale != nil, "adc_bits": f.ADCBits != nil} {
@@ -171,14 +173,14 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 		s.FullScale, s.ADCBits = 0, 0
 	} else {
 		s.FullScale = setDefault(&f.FullScale, defaultFullScale)
-		r.rangeCheck(p+".full_scale", s.FullScale, 0, math.MaxFloat64, true, "a number > 0")
+		r.rangeCheck(p+".full_scale", s.FullScale, positiveRange, "")
 		if f.ADCBits == nil {
 			v := defaultADCBits
 			f.ADCBits = &v
 		}
 		s.ADCBits = *f.ADCBits
-		if s.ADCBits < 0 || s.ADCBits > 32 {
-			r.fail(p+".adc_bits", "value %d is out of range; allowed [0, 32] (0 = no quantisation)", s.ADCBits)
+		if !adcBitsRange.Holds(float64(s.ADCBits)) {
+			r.fail(p+".adc_bits", "value %d is out of range; allowed %s (0 = no quantisation)", s.ADCBits, adcBitsRange)
 		}
 	}
 	if known {
@@ -388,7 +390,9 @@ func (r *resolver) kindParams(p string, info sensor.KindInfo, f *fileSensor) sen
 			if k.MaxKey != "" {
 				hi = f.Params[k.MaxKey].(float64)
 			}
-			r.rangeCheck(kp, x, k.Min, hi, k.MinOpen, k.Allowed)
+			if !(Interval{Lo: k.Min, Hi: hi, LoOpen: k.MinOpen}).Holds(x) {
+				r.fail(kp, "value %g is out of range; allowed %s", x, k.Allowed)
+			}
 			out.Num[k.Key] = x * sensor.ScaleOr1(k.Scale)
 		case sensor.Choice:
 			if !given {
@@ -437,16 +441,24 @@ func (r *resolver) table(p string, cols [2]sensor.Column, rows [][]float64) [][2
 	return out
 }
 
+// errorKeyRanges are the ranges of the errors block's keys, in file order.
+var errorKeyRanges = []struct {
+	key, what, unit string
+	iv              Interval
+}{
+	{"dark_offset_1sigma", "fraction of full scale", "", errorRange},
+	{"gain_1sigma", "fraction of the gain", "", errorRange},
+	{"noise_1sigma", "fraction of full scale", "", errorRange},
+	{"misalignment_deg_1sigma", "angle", " degrees", misalignRange},
+	{"aperture_offset_mm_1sigma", "offset", " mm", errorRange},
+}
+
 func (r *resolver) errorsOf(p string, e *fileErrors) SensorErrors {
-	for _, c := range []struct {
-		key string
-		v   float64
-	}{
-		{"dark_offset_1sigma", e.DarkOffset1Sigma}, {"gain_1sigma", e.Gain1Sigma}, {"noise_1sigma", e.Noise1Sigma},
-		{"misalignment_deg_1sigma", e.MisalignmentDeg1Sigma}, {"aperture_offset_mm_1sigma", e.ApertureOffsetMM1Sigma},
-	} {
-		if c.v < 0 || c.v > 10 && c.key != "misalignment_deg_1sigma" || c.v > 90 {
-			r.fail(p+"."+c.key, "value %g is out of range; allowed a one-sigma value ≥ 0 (fractions ≤ 10, degrees ≤ 90)", c.v)
+	vals := map[string]float64{"dark_offset_1sigma": e.DarkOffset1Sigma, "gain_1sigma": e.Gain1Sigma, "noise_1sigma": e.Noise1Sigma,
+		"misalignment_deg_1sigma": e.MisalignmentDeg1Sigma, "aperture_offset_mm_1sigma": e.ApertureOffsetMM1Sigma}
+	for _, c := range errorKeyRanges {
+		if v := vals[c.key]; !c.iv.Holds(v) {
+			r.fail(p+"."+c.key, "value %g is out of range; allowed a one-sigma %s in %s%s", v, c.what, c.iv, c.unit)
 		}
 	}
 	return SensorErrors{DarkOffset1Sigma: e.DarkOffset1Sigma, Gain1Sigma: e.Gain1Sigma, Noise1Sigma: e.Noise1Sigma,
@@ -532,13 +544,13 @@ func (r *resolver) obstruction(p string, o *fileObstruction) Obstruction {
 		if o.FromM == nil || o.ToM == nil || r3.Norm(r3.Sub(out.ToM, out.FromM)) == 0 {
 			r.fail(p+".to_m", "value is missing or equal to from_m; allowed two distinct end points [x, y, z] in metres")
 		}
-		if o.RadiusM == nil || *o.RadiusM <= 0 {
+		if o.RadiusM == nil || !positiveRange.Holds(*o.RadiusM) {
 			r.fail(p+".radius_m", "value is missing or not positive; allowed a radius > 0 in metres")
 		} else {
 			out.RadiusM = *o.RadiusM
 		}
 	default:
-		r.fail(p+".shape", "value %q is unknown; allowed rectangle, cylinder", o.Shape)
+		r.fail(p+".shape", "value %q is unknown; allowed %s", o.Shape, strings.Join(obstructionShapes, ", "))
 	}
 	return out
 }
@@ -626,7 +638,7 @@ func (r *resolver) albedoModel(path string, a *fileAlbedoModel) Albedo {
 	}
 	if m.TakesValue {
 		out.Value = setDefault(&a.Value, m.DefaultValue)
-		r.rangeCheck(path+".value", out.Value, 0, 1, false, "[0, 1]")
+		r.rangeCheck(path+".value", out.Value, fractionRange, "")
 	} else if a.Value != nil {
 		r.fail(path+".value", "value does not apply to model %q; allowed with %s", a.Model, strings.Join(albedoModelsWith(func(m albedo.ModelInfo) bool { return m.TakesValue }), " or "))
 	}
@@ -663,7 +675,7 @@ func DefaultGate(estimator string) Gate {
 
 func (r *resolver) validity(v *fileValidity, ests []string) Validity {
 	out := Validity{FalseSunBoundDeg: setDefault(&v.FalseSunBoundDeg, defaultFalseSunBoundDeg), Gates: map[string]Gate{}}
-	r.rangeCheck("validity.false_sun_bound_deg", out.FalseSunBoundDeg, 0, 180, true, "an angle in (0, 180) degrees")
+	r.rangeCheck("validity.false_sun_bound_deg", out.FalseSunBoundDeg, boundRange, " degrees")
 	run := map[string]bool{}
 	for _, e := range ests {
 		run[e] = true
@@ -689,8 +701,8 @@ func (r *resolver) validity(v *fileValidity, ests []string) Validity {
 		if g.MinSensors < 0 || g.MinSensors > 1000 {
 			r.fail(p+".min_sensors", "value %d is out of range; allowed a whole number in [0, 1000] (0: the estimator's own minimum)", g.MinSensors)
 		}
-		r.rangeCheck(p+".min_total_signal", g.MinTotalSignal, 0, 100, false, "[0, 100] (sum of normalised signals; 1 = one sensor facing a 1 AU sun)")
-		r.rangeCheck(p+".max_residual", g.MaxResidual, 0, 10, false, "[0, 10] (RMS fit residual in normalised signal, or chord between directions; 0: no limit)")
+		r.rangeCheck(p+".min_total_signal", g.MinTotalSignal, totalSignalRange, " (sum of normalised signals; 1 = one sensor facing a 1 AU sun)")
+		r.rangeCheck(p+".max_residual", g.MaxResidual, residualRange, " (RMS fit residual in normalised signal, or chord between directions; 0: no limit)")
 		v.Gates[name] = fg
 		out.Gates[name] = g
 	}
@@ -713,7 +725,7 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 	if t == nil {
 		return out
 	}
-	switch t.Judge {
+	switch t.Judge { // the words of judges
 	case "":
 	case JudgeUncorrected, JudgeOnboardCorrected:
 		out.Judge = t.Judge
@@ -722,14 +734,14 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 	}
 	if t.MinValidFraction != nil {
 		out.MinValidFraction = *t.MinValidFraction
-		r.rangeCheck("targets.min_valid_fraction", out.MinValidFraction, 0, 1, true, "(0, 1]")
+		r.rangeCheck("targets.min_valid_fraction", out.MinValidFraction, openFraction, "")
 	}
 	if t.MaxErrorP95Deg != nil {
-		r.rangeCheck("targets.max_error_p95_deg", *t.MaxErrorP95Deg, 0, 180, true, "(0, 180] degrees")
+		r.rangeCheck("targets.max_error_p95_deg", *t.MaxErrorP95Deg, p95Range, " degrees")
 		out.MaxErrorP95Rad = *t.MaxErrorP95Deg * deg
 	}
 	if t.MaxErrorP95UnitsDeg != nil {
-		r.rangeCheck("targets.max_error_p95_units_deg", *t.MaxErrorP95UnitsDeg, 0, 180, true, "(0, 180] degrees")
+		r.rangeCheck("targets.max_error_p95_units_deg", *t.MaxErrorP95UnitsDeg, p95Range, " degrees")
 		out.MaxErrorP95UnitsRad = *t.MaxErrorP95UnitsDeg * deg
 	}
 	if t.MinCoverage != nil {
@@ -738,7 +750,7 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 			t.CoverageSensors = &k
 		}
 		out.MinCoverage = *t.MinCoverage
-		r.rangeCheck("targets.min_coverage", out.MinCoverage, 0, 1, true, "(0, 1]")
+		r.rangeCheck("targets.min_coverage", out.MinCoverage, openFraction, "")
 	}
 	if t.CoverageSensors != nil {
 		out.CoverageSensors = *t.CoverageSensors
@@ -760,14 +772,14 @@ func (r *resolver) targets(t *fileTargets, nSensors int) Targets {
 		}
 		if n.MinValidFraction != nil {
 			out.NMinus1.MinValidFraction = *n.MinValidFraction
-			r.rangeCheck("targets.n_minus_1.min_valid_fraction", *n.MinValidFraction, 0, 1, true, "(0, 1]")
+			r.rangeCheck("targets.n_minus_1.min_valid_fraction", *n.MinValidFraction, openFraction, "")
 		}
 		out.NMinus1.Pairs = n.AlsoPairs
 		if n.AlsoPairs && nSensors < 3 {
 			r.fail("targets.n_minus_1.also_pairs", "failing pairs needs at least 3 sensors, the body has %d; remove also_pairs", nSensors)
 		}
 		if n.MaxErrorP95Deg != nil {
-			r.rangeCheck("targets.n_minus_1.max_error_p95_deg", *n.MaxErrorP95Deg, 0, 180, true, "(0, 180] degrees")
+			r.rangeCheck("targets.n_minus_1.max_error_p95_deg", *n.MaxErrorP95Deg, p95Range, " degrees")
 			out.NMinus1.MaxErrorP95Rad = *n.MaxErrorP95Deg * deg
 		}
 		if n.MaxGap != nil {

@@ -62,17 +62,17 @@ func (r *resolver) gyroFilter(f *fileGyroFilter) GyroFilter {
 	valid := setDefault(&f.ValidSigmaDeg, defaultValidSigmaDg)
 	gate := setDefault(&f.GateSigma, defaultGateSigma)
 	hold := setDefault(&f.HoldBoundDeg, defaultHoldBoundDeg)
-	r.rangeCheck(p+"angle_random_walk_deg_rt_h", arw, 0, 100, false, "[0, 100] °/√h")
-	r.rangeCheck(p+"bias_instability_deg_h", bias, 0, 36000, false, "[0, 36000] °/h (1σ of the bias)")
-	r.rangeCheck(p+"bias_time_s", tau, 0, 1e8, true, "(0, 1e8] s")
-	r.rangeCheck(p+"cosine_sigma", cs, 0, 1, false, "[0, 1] (normalised signal; 1 = full sun)")
-	r.rangeCheck(p+"start_sigma_deg", start, 0, 60, true, "(0, 60] degrees")
-	r.rangeCheck(p+"valid_sigma_deg", valid, 0, 60, true, "(0, 60] degrees")
+	r.rangeCheck(p+"angle_random_walk_deg_rt_h", arw, arwRange, " °/√h")
+	r.rangeCheck(p+"bias_instability_deg_h", bias, biasRange, " °/h (1σ of the bias)")
+	r.rangeCheck(p+"bias_time_s", tau, biasTimeRange, " s")
+	r.rangeCheck(p+"cosine_sigma", cs, fractionRange, " (normalised signal; 1 = full sun)")
+	r.rangeCheck(p+"start_sigma_deg", start, filterSigmaRange, " degrees")
+	r.rangeCheck(p+"valid_sigma_deg", valid, filterSigmaRange, " degrees")
 	if start > valid {
 		r.fail(p+"start_sigma_deg", "value %g is above valid_sigma_deg %g; allowed start_sigma_deg ≤ valid_sigma_deg (a start must count as valid)", start, valid)
 	}
-	r.rangeCheck(p+"gate_sigma", gate, 0, 100, false, "[0, 100] (0: no gate)")
-	r.rangeCheck(p+"hold_bound_deg", hold, 0, 180, true, "(0, 180) degrees")
+	r.rangeCheck(p+"gate_sigma", gate, gateSigmaRange, " (0: no gate)")
+	r.rangeCheck(p+"hold_bound_deg", hold, boundRange, " degrees")
 	if hold == 180 {
 		r.fail(p+"hold_bound_deg", "value 180 is out of range; allowed (0, 180) degrees")
 	}

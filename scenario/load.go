@@ -9,10 +9,12 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
 
+	"codeberg.org/sunsight/sunsight/internal/numtext"
 	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"go.yaml.in/yaml/v3"
 )
@@ -22,9 +24,15 @@ type FieldError struct {
 	Path      string // dotted key path, e.g. "body.sensors[2].half_angle_deg"
 	Line, Col int    // 1-based; zero when the key is absent from the file
 	Msg       string // "value V is …; allowed …"
+	// Origin says where a value that is not a line of the file came from
+	// (a tool that edits the file sets it, e.g. "set by --vary seed").
+	Origin string
 }
 
 func (e *FieldError) Error() string {
+	if e.Origin != "" {
+		return fmt.Sprintf("%s (%s): %s", e.Path, e.Origin, e.Msg)
+	}
 	if e.Line > 0 {
 		return fmt.Sprintf("%s (line %d, col %d): %s", e.Path, e.Line, e.Col, e.Msg)
 	}
@@ -71,22 +79,30 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 	if fe := secondDocument(data); fe != nil {
 		return nil, Errors{fe}
 	}
-	root := doc.Content[0]
-	w := walker{nodes: map[string]*yaml.Node{}}
+	return ParseNode(doc.Content[0], dir)
+}
+
+// ParseNode checks and resolves a scenario given as its YAML node tree (the
+// top mapping), as Parse does its text. Each problem carries the line and
+// column of its node; a node made in code (line 0) gives none, so a tool
+// that edits a user's file before the check reports the user's own lines.
+func ParseNode(root *yaml.Node, dir string) (*Scenario, error) {
+	w := walker{nodes: map[string]*yaml.Node{}, refused: map[*yaml.Node]bool{}, types: map[*yaml.Node]reflect.Type{}}
 	w.check(root, reflect.TypeOf(fileScenario{}), "")
 	if len(w.errs) > 0 {
 		// Report the value problems of the keys that could be read in the
 		// same round as the key and type problems; after a key given twice
 		// the decoder reads nothing more, so those problems alone.
-		if w.duplicate {
+		// A section or a list given as something else leaves the rest
+		// of the file to be judged without it (no sensors, no panels),
+		// so those problems are reported alone too.
+		if w.duplicate || w.structural {
 			return nil, sortErrors(w.errs)
 		}
-		return nil, sortErrors(append(w.errs, valueErrors(data, dir, w)...))
+		return nil, sortErrors(append(w.errs, valueErrors(root, dir, w)...))
 	}
 	var f fileScenario
-	dec := yaml.NewDecoder(bytes.NewReader(data))
-	dec.KnownFields(true)
-	if err := dec.Decode(&f); err != nil && err != io.EOF {
+	if err := root.Decode(&f); err != nil {
 		// The walker has seen every key and scalar, so this is a safety net.
 		return nil, Errors{{Path: "(file)", Msg: "value could not be read: " + cleanYAML(err.Error()) + "; allowed the keys and types shown by sunsight init"}}
 	}
@@ -105,12 +121,16 @@ func Parse(data []byte, dir string) (*Scenario, error) {
 }
 
 // valueErrors resolves a file whose keys or types the walker refused, as
-// far as it can be read, and returns the value problems of the other keys
-// (those at or under a refused key are left out: one problem per key).
-func valueErrors(data []byte, dir string, w walker) (out Errors) {
+// far as it can be read, and returns the value problems of the other keys.
+// The file is read with each refused value taken out (its key absent, a
+// refused list entry kept as an empty one, so lists keep their length and
+// their indexes), and a problem that may follow from a refused value is
+// left out: one at, under or above a refused key (a section or list that
+// holds it looks incomplete without it), one in the same list entry, or
+// one whose message names it.
+func valueErrors(root *yaml.Node, dir string, w walker) (out Errors) {
 	var f fileScenario
-	dec := yaml.NewDecoder(bytes.NewReader(data))
-	if err := dec.Decode(&f); err != nil && err != io.EOF {
+	if err := w.pruned(root).Decode(&f); err != nil {
 		var te *yaml.TypeError
 		if !errors.As(err, &te) {
 			return nil
@@ -127,9 +147,10 @@ func valueErrors(data []byte, dir string, w walker) (out Errors) {
 	r.resolve(&f)
 	for _, e := range r.errs {
 		covered := false
-		for _, we := range w.errs {
-			if e.Path == we.Path || strings.HasPrefix(e.Path, we.Path+".") || strings.HasPrefix(e.Path, we.Path+"[") {
+		for _, p := range w.refusedPaths() {
+			if follows(e, p) {
 				covered = true
+				break
 			}
 		}
 		if !covered {
@@ -137,6 +158,124 @@ func valueErrors(data []byte, dir string, w walker) (out Errors) {
 		}
 	}
 	return out
+}
+
+// refusedPaths lists the paths of the problems found and of the keys
+// misspelt ones were meant to be.
+func (w *walker) refusedPaths() []string {
+	out := slices.Clone(w.meant)
+	for _, e := range w.errs {
+		out = append(out, e.Path)
+	}
+	return out
+}
+
+// follows reports whether problem e may be a consequence of the refused
+// value at path refused.
+func follows(e *FieldError, refused string) bool {
+	if under(e.Path, refused) || under(refused, e.Path) {
+		return true
+	}
+	// The keys of one list entry (a sensor, a panel, a phase) are judged
+	// together: kind and its keys, face and tilt, area and size.
+	if i := strings.Index(refused, "]"); i >= 0 && under(e.Path, refused[:i+1]) {
+		return true
+	}
+	// The message names the refused key, or a section holding it (a
+	// cross-check such as "needs monte_carlo.units ≥ 2").
+	for p := refused; strings.Contains(p, "."); p = parentPath(p) {
+		if namesKey(e.Msg, p) {
+			return true
+		}
+	}
+	// A key of the same mapping named by its own name ("given without
+	// ltan", "longer than the duration").
+	leaf := refused[strings.LastIndex(refused, ".")+1:]
+	return !strings.Contains(leaf, "[") && parentPath(e.Path) == parentPath(refused) && namesKey(e.Msg, leaf)
+}
+
+// under reports whether path p is at or under path top.
+func under(p, top string) bool {
+	return top != "" && (p == top || strings.HasPrefix(p, top+".") || strings.HasPrefix(p, top+"["))
+}
+
+// parentPath is the path of the mapping or list holding p ("" at the top).
+func parentPath(p string) string {
+	if i := strings.LastIndexAny(p, ".["); i >= 0 {
+		return p[:i]
+	}
+	return ""
+}
+
+// namesKey reports whether msg holds key as a whole word (not as part of a
+// longer key or path).
+func namesKey(msg, key string) bool {
+	word := func(c byte) bool {
+		return c == '_' || c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c >= '0' && c <= '9'
+	}
+	for i := 0; ; {
+		j := strings.Index(msg[i:], key)
+		if j < 0 {
+			return false
+		}
+		a, b := i+j, i+j+len(key)
+		before := a == 0 || !(word(msg[a-1]) || msg[a-1] == '.')
+		after := b == len(msg) || !(word(msg[b]) || (msg[b] == '.' || msg[b] == '[') && b+1 < len(msg) && word(msg[b+1]))
+		if before && after {
+			return true
+		}
+		i = a + 1
+	}
+}
+
+// pruned copies the node tree without the values the walker refused: a
+// refused value of a mapping is left out with its key, a refused list entry
+// is replaced by the empty value of the list's type.
+func (w *walker) pruned(n *yaml.Node) *yaml.Node {
+	c := *n
+	if len(n.Content) == 0 {
+		return &c
+	}
+	c.Content = make([]*yaml.Node, 0, len(n.Content))
+	switch n.Kind {
+	case yaml.MappingNode:
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			k, v := n.Content[i], n.Content[i+1]
+			if w.refused[k] || w.refused[v] {
+				continue
+			}
+			c.Content = append(c.Content, w.pruned(k), w.pruned(v))
+		}
+	case yaml.SequenceNode:
+		for _, v := range n.Content {
+			if w.refused[v] {
+				c.Content = append(c.Content, emptyNode(w.types[v]))
+				continue
+			}
+			c.Content = append(c.Content, w.pruned(v))
+		}
+	default:
+		for _, v := range n.Content {
+			c.Content = append(c.Content, w.pruned(v))
+		}
+	}
+	return &c
+}
+
+// emptyNode is a node that decodes to the zero value of t (an empty mapping
+// for a section or an entry).
+func emptyNode(t reflect.Type) *yaml.Node {
+	for t != nil && t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	if t == nil || t.Kind() == reflect.Struct {
+		return &yaml.Node{Kind: yaml.MappingNode, Tag: "!!map"}
+	}
+	var n yaml.Node
+	if err := n.Encode(reflect.Zero(t).Interface()); err != nil {
+		return &yaml.Node{Kind: yaml.MappingNode, Tag: "!!map"}
+	}
+	return &n
 }
 
 // sortErrors orders problems by line and column, those without a line last.
@@ -219,10 +358,20 @@ type walker struct {
 	// stops filling the file's values, so the other values cannot be
 	// judged (they would look missing).
 	duplicate bool
+	// structural: a section, or a list under a key, is not a mapping or a
+	// list. The other values would be judged as if it were absent.
+	structural bool
+	// refused: the nodes of the problems found (a value, or the key of an
+	// unknown key); types: the file type each node was checked against.
+	refused map[*yaml.Node]bool
+	types   map[*yaml.Node]reflect.Type
+	// meant: the paths of the keys misspelt ones were probably meant to be.
+	meant []string
 }
 
 func (w *walker) fail(n *yaml.Node, path, format string, a ...any) {
-	w.errs = append(w.errs, &FieldError{Path: path, Line: n.Line, Col: n.Column, Msg: fmt.Sprintf(format, a...)})
+	w.errs = append(w.errs, &FieldError{Path: path, Line: n.Line, Col: n.Column, Msg: fmt.Sprintf(format, numtext.Clean(a)...)})
+	w.refused[n] = true
 }
 
 // keyLister is a file type whose keys are not its fields (a sensor entry
@@ -283,6 +432,7 @@ func shown(n *yaml.Node) string {
 }
 
 func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
+	w.types[n] = t
 	if n.Kind == yaml.AliasNode {
 		w.fail(n, path, "value is a yaml alias; allowed plain values (aliases are not supported)")
 		return
@@ -315,6 +465,7 @@ func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
 	case reflect.Struct:
 		if n.Kind != yaml.MappingNode {
 			w.fail(n, path, "value %s is not a mapping; allowed a mapping of keys", shown(n))
+			w.structural = w.structural || !strings.HasSuffix(path, "]")
 			return
 		}
 		fields := yamlFields(t)
@@ -336,6 +487,7 @@ func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
 				}
 				sort.Strings(keys)
 				w.fail(k, kp, "key %q is unknown%s; allowed %s", k.Value, suggest.Hint(k.Value, keys), strings.Join(keys, ", "))
+				w.misspelt(n, path, suggest.Closest(k.Value, keys), fields)
 				continue
 			}
 			w.check(v, ft, kp)
@@ -343,6 +495,7 @@ func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
 	case reflect.Slice:
 		if n.Kind != yaml.SequenceNode {
 			w.fail(n, path, "value %s is not a list; allowed %s", shown(n), describe(t))
+			w.structural = w.structural || !strings.HasSuffix(path, "]")
 			return
 		}
 		for i, c := range n.Content {
@@ -374,6 +527,29 @@ func (w *walker) check(n *yaml.Node, t reflect.Type, path string) {
 		if n.Kind != yaml.ScalarNode || n.Tag != "!!bool" {
 			w.fail(n, path, "value %s is not true or false; allowed true or false", shown(n))
 		}
+	}
+}
+
+// misspelt notes the key an unknown key of mapping n was probably meant to
+// be, when the mapping lacks it: what the file then says without that key
+// follows from the misspelling. A section or a list misspelt leaves the
+// rest to be judged without it, as a refused one does.
+func (w *walker) misspelt(n *yaml.Node, path, meant string, fields map[string]reflect.Type) {
+	if meant == "" {
+		return
+	}
+	for i := 0; i < len(n.Content); i += 2 {
+		if n.Content[i].Value == meant {
+			return
+		}
+	}
+	w.meant = append(w.meant, join(path, meant))
+	t := fields[meant]
+	for t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	if (t.Kind() == reflect.Struct || t.Kind() == reflect.Slice) && !reflect.PointerTo(t).Implements(textUnmarshaler) {
+		w.structural = true
 	}
 }
 

@@ -347,3 +347,122 @@ func TestDuplicateKeyAlone(t *testing.T) {
 		}
 	}
 }
+
+// A refused value is the one problem reported about it: what the resolver
+// would say of the file with that value missing (a list one entry short, a
+// section without its key, a cross-check naming it) is its consequence, not
+// a second problem. An independent problem is still reported in the same
+// round.
+func TestRefusedValueHasNoConsequences(t *testing.T) {
+	sensor7 := func(gain string) string {
+		var b strings.Builder
+		for i, f := range []string{"+X", "-X", "+Y", "-Y", "+Z", "-Z", "+X"} {
+			g := "0.01"
+			if i < 6 {
+				g = gain
+			}
+			b.WriteString("    - {name: s" + string(rune('a'+i)) + ", kind: cosine, face: \"" + f + "\", errors: {gain_1sigma: " + g + "}}\n")
+		}
+		return b.String()
+	}
+	const orbit = "orbit: {altitude_km: 500, inclination_deg: 97.4}\n"
+	cases := []struct {
+		name, text string
+		want       []string // the paths reported, in order
+	}{
+		{"wrong type in the only sensor",
+			orbit + "body:\n  sensors:\n    - name: q\n      kind: quadrant\n      face: \"-Z\"\n      tilt_deg: TILT\n      tilt_toward: \"+X\"\n",
+			[]string{"body.sensors[0].tilt_deg"}},
+		{"wrong type in six of seven sensors",
+			orbit + "body:\n  sensors:\n" + sensor7(`"two"`) + "targets:\n  coverage_sensors: 2\n",
+			[]string{"body.sensors[0].errors.gain_1sigma", "body.sensors[1].errors.gain_1sigma", "body.sensors[2].errors.gain_1sigma",
+				"body.sensors[3].errors.gain_1sigma", "body.sensors[4].errors.gain_1sigma", "body.sensors[5].errors.gain_1sigma"}},
+		{"wrong type in a vector",
+			orbit + "body:\n  sensors:\n    - {name: a, kind: cosine, boresight: [1, x, 0]}\n",
+			[]string{"body.sensors[0].boresight[1]"}},
+		{"a sensor that is not a mapping",
+			orbit + "body:\n  sensors:\n    - cosine\n    - {name: a, kind: cosine, face: \"+X\"}\ntargets:\n  coverage_sensors: 2\n",
+			[]string{"body.sensors[0]"}},
+		{"misspelt required key",
+			"orbit: {altitude_kms: 500, inclination_deg: 97.4}\nbody:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\"}\n",
+			[]string{"orbit.altitude_kms"}},
+		{"cross-check naming the refused key",
+			orbit + "body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\"}\nmonte_carlo:\n  units: many\ntargets:\n  max_error_p95_units_deg: 5\n",
+			[]string{"monte_carlo.units"}},
+		{"an independent problem in the same round",
+			orbit + "body:\n  sensors:\n    - {name: a, kind: cosine, face: \"+X\", tilt_deg: TILT}\nalbedo:\n  value: 1.5\n",
+			[]string{"body.sensors[0].tilt_deg", "albedo.value"}},
+	}
+	for _, c := range cases {
+		_, err := Parse([]byte(c.text), t.TempDir())
+		var errs Errors
+		if !errors.As(err, &errs) {
+			t.Errorf("%s: %v; want %v", c.name, err, c.want)
+			continue
+		}
+		var got []string
+		for _, e := range errs {
+			got = append(got, e.Path)
+		}
+		if strings.Join(got, " ") != strings.Join(c.want, " ") {
+			t.Errorf("%s: reported\n%v\nwant the paths %v", c.name, err, c.want)
+		}
+	}
+}
+
+// One mistake in a bundled example is one problem reported: each value in
+// turn given as the wrong type (a mapping for a scalar, a word for a
+// mapping or list), and each key in turn misspelt.
+func TestOneMistakeOneProblem(t *testing.T) {
+	for _, name := range ExampleNames() {
+		data, err := os.ReadFile(filepath.Join("templates", name+".yaml"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var doc yaml.Node
+		if err := yaml.Unmarshal(data, &doc); err != nil {
+			t.Fatal(err)
+		}
+		var values, keys []*yaml.Node
+		var walk func(n *yaml.Node)
+		walk = func(n *yaml.Node) {
+			for i, c := range n.Content {
+				if n.Kind == yaml.MappingNode && i%2 == 0 {
+					keys = append(keys, c)
+					continue
+				}
+				values = append(values, c)
+				walk(c)
+			}
+		}
+		walk(doc.Content[0])
+		try := func(what string, line int) {
+			text, err := yaml.Marshal(&doc)
+			if err != nil {
+				t.Fatal(err)
+			}
+			_, err = Parse(text, "templates")
+			var errs Errors
+			if !errors.As(err, &errs) || len(errs) != 1 {
+				t.Errorf("%s, %s at line %d: want one problem, got\n%v", name, what, line, err)
+			}
+		}
+		for _, n := range values {
+			saved := *n
+			if n.Kind == yaml.ScalarNode {
+				*n = yaml.Node{Kind: yaml.MappingNode, Tag: "!!map", Content: []*yaml.Node{
+					{Kind: yaml.ScalarNode, Tag: "!!str", Value: "x"}, {Kind: yaml.ScalarNode, Tag: "!!int", Value: "1"}}}
+			} else {
+				*n = yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: "x"}
+			}
+			try("a value of the wrong type", saved.Line)
+			*n = saved
+		}
+		for _, k := range keys {
+			saved := k.Value
+			k.Value += "q"
+			try("key "+saved+" misspelt", k.Line)
+			k.Value = saved
+		}
+	}
+}

@@ -78,7 +78,7 @@ func (r *resolver) panels(list []filePanel) []Panel {
 			r.fail(p+".area_m2", "value is missing; allowed the panel area in m² (> 0), or size_m [u, v] in m")
 		} else {
 			pn.AreaM2 = *f.AreaM2
-			if !(pn.AreaM2 > 0) || math.IsInf(pn.AreaM2, 0) {
+			if !positiveRange.Holds(pn.AreaM2) || math.IsInf(pn.AreaM2, 0) {
 				r.fail(p+".area_m2", "value %g is out of range; allowed an area > 0 m²", pn.AreaM2)
 			}
 		}
@@ -86,10 +86,10 @@ func (r *resolver) panels(list []filePanel) []Panel {
 			r.fail(p+".efficiency", "value is missing; allowed the cell efficiency in (0, 1], for example 0.28")
 		} else {
 			pn.Efficiency = *f.Efficiency
-			r.rangeCheck(p+".efficiency", pn.Efficiency, 0, 1, true, "(0, 1], a fraction (29.5 % is 0.295)")
+			r.rangeCheck(p+".efficiency", pn.Efficiency, openFraction, ", a fraction (29.5 % is 0.295)")
 		}
 		pn.PackingFactor = setDefault(&f.PackingFactor, 1)
-		r.rangeCheck(p+".packing_factor", pn.PackingFactor, 0, 1, true, "(0, 1] (1 = the area is cell area)")
+		r.rangeCheck(p+".packing_factor", pn.PackingFactor, openFraction, " (1 = the area is cell area)")
 		if r3.Norm(pn.Normal) > 0 {
 			r.placePanel(p, f, &pn)
 		}
@@ -106,8 +106,8 @@ func (r *resolver) panelSize(p string, f *filePanel, pn *Panel) {
 		return
 	}
 	for k, v := range f.SizeM {
-		if !(v > 0) || math.IsInf(v, 0) || v > 100 {
-			r.fail(fmt.Sprintf("%s.size_m[%d]", p, k), "value %g is out of range; allowed a side length in (0, 100] m", v)
+		if !sideRange.Holds(v) {
+			r.fail(fmt.Sprintf("%s.size_m[%d]", p, k), "value %g is out of range; allowed a side length in %s m", v, sideRange)
 			return
 		}
 	}

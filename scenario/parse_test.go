@@ -2,6 +2,7 @@ package scenario
 
 import (
 	"math"
+	"strings"
 	"testing"
 	"time"
 )
@@ -148,4 +149,31 @@ func FuzzLocalTime(f *testing.F) {
 			t.Fatalf("%q gave %v outside [0, 24)", s, h)
 		}
 	})
+}
+
+// A refusal says the range in the key's own unit: the aperture offset in
+// mm, the misalignment in degrees, the signal errors as fractions.
+func TestErrorKeyRefusalNamesItsUnit(t *testing.T) {
+	for _, c := range []struct{ key, want, not string }{
+		{"aperture_offset_mm_1sigma", "mm", "degree"},
+		{"misalignment_deg_1sigma", "degrees", "mm"},
+		{"gain_1sigma", "fraction", "degree"},
+	} {
+		text := "orbit: {altitude_km: 500, inclination_deg: 97.4}\nbody:\n  sensors:\n    - {name: a, kind: quadrant, face: \"+X\", errors: {" + c.key + ": -1}}\n"
+		_, err := Parse([]byte(text), t.TempDir())
+		if err == nil || !strings.Contains(err.Error(), c.want) || strings.Contains(err.Error(), c.not) {
+			t.Errorf("%s: -1 refused with %v; want the range in %s", c.key, err, c.want)
+		}
+	}
+}
+
+// A number the loader computes is printed as a person would write it: the
+// size_m product 0.1 × 0.7 is 0.07, not 0.07000000000000001 (the float
+// product, closed form).
+func TestComputedNumbersPrintCleanly(t *testing.T) {
+	text := minimal + "  panels:\n    - {name: p, face: \"+X\", size_m: [0.1, 0.7], area_m2: 0.05, efficiency: 0.3}\n"
+	_, err := Parse([]byte(text), t.TempDir())
+	if err == nil || !strings.Contains(err.Error(), "product 0.07 m²") {
+		t.Errorf("refusal %v; want the product printed as 0.07", err)
+	}
 }

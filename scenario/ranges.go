@@ -3,6 +3,7 @@ package scenario
 import (
 	"fmt"
 
+	"codeberg.org/sunsight/sunsight/internal/numtext"
 	"codeberg.org/sunsight/sunsight/orbit"
 )
 
@@ -30,7 +31,7 @@ func OrbitSizeError(aKm, e float64) string {
 	rp, ra := aKm*(1-e)-orbit.RadiusEarthKm, aKm*(1+e)-orbit.RadiusEarthKm
 	switch {
 	case !(aKm > 0) || aKm != aKm:
-		return fmt.Sprintf("semi-major axis %g km is not a positive number; allowed perigee altitude ≥ %d km and apogee altitude ≤ %d km", aKm, MinPerigeeAltitudeKm, MaxApogeeAltitudeKm)
+		return fmt.Sprintf("semi-major axis %s km is not a positive number; allowed perigee altitude ≥ %d km and apogee altitude ≤ %d km", numtext.Format(aKm), MinPerigeeAltitudeKm, MaxApogeeAltitudeKm)
 	case rp < MinPerigeeAltitudeKm:
 		return fmt.Sprintf("perigee altitude %.1f km is below %d km (a = %.1f km, e = %.4f); allowed perigee altitude ≥ %d km above the equatorial radius %.3f km", rp, MinPerigeeAltitudeKm, aKm, e, MinPerigeeAltitudeKm, orbit.RadiusEarthKm)
 	case ra > MaxApogeeAltitudeKm:

@@ -16,6 +16,7 @@ import (
 	"codeberg.org/sunsight/sunsight/ephem"
 	"codeberg.org/sunsight/sunsight/illum"
 	"codeberg.org/sunsight/sunsight/illum/albedo"
+	"codeberg.org/sunsight/sunsight/internal/numtext"
 	"codeberg.org/sunsight/sunsight/internal/suggest"
 	"codeberg.org/sunsight/sunsight/orbit"
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
@@ -73,7 +74,7 @@ type resolver struct {
 // fail records a problem at path, taking the line from the nearest key of the
 // path that the file has.
 func (r *resolver) fail(path, format string, a ...any) {
-	e := &FieldError{Path: path, Msg: fmt.Sprintf(format, a...)}
+	e := &FieldError{Path: path, Msg: fmt.Sprintf(format, numtext.Clean(a)...)}
 	for p := path; p != ""; {
 		if n, ok := r.nodes[p]; ok {
 			e.Line, e.Col = n.Line, n.Column
@@ -106,9 +107,11 @@ func (r *resolver) choice(path string, v *string, def string, list []string) {
 	}
 }
 
-func (r *resolver) rangeCheck(path string, v, lo, hi float64, loOpen bool, allowed string) {
-	if v < lo || v > hi || (loOpen && v == lo) {
-		r.fail(path, "value %g is out of range; allowed %s", v, allowed)
+// rangeCheck refuses v outside iv; note follows the interval in the
+// message (a unit, what the number is).
+func (r *resolver) rangeCheck(path string, v float64, iv Interval, note string) {
+	if !iv.Holds(v) {
+		r.fail(path, "value %g is out of range; allowed %s%s", v, iv, note)
 	}
 }
 
@@ -156,7 +159,7 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 		v := int64(defaultSeed)
 		f.Seed = &v
 	}
-	if *f.Seed < 0 {
+	if !seedRange.Holds(float64(*f.Seed)) {
 		r.fail("seed", "value %d is negative; allowed a whole number ≥ 0", *f.Seed)
 	}
 	s.Seed = *f.Seed
@@ -210,7 +213,7 @@ func (r *resolver) resolve(f *fileScenario) *Scenario {
 	}
 	if f.Budget != nil {
 		s.Budget = Budget{Set: true, Residuals: r.residuals(&f.Budget.Calibrated, s.Body.Sensors), ToleranceRad: f.Budget.ToleranceDeg * deg}
-		r.rangeCheck("budget.tolerance_deg", f.Budget.ToleranceDeg, 0, 90, true, "(0, 90]")
+		r.rangeCheck("budget.tolerance_deg", f.Budget.ToleranceDeg, toleranceRange, " degrees")
 	}
 	s.Output = r.output(&f.Output)
 	return s
@@ -235,8 +238,8 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 	}
 	has := func(p *float64) bool { return p != nil }
 	elems := has(o.SemiMajorAxisKm) || has(o.Eccentricity) || has(o.ArgPerigeeDeg)
-	if o.ElementSet != "" && o.ElementSet != "mean" && o.ElementSet != "osculating" {
-		r.fail("orbit.element_set", "value %q is unknown; allowed mean or osculating", o.ElementSet)
+	if o.ElementSet != "" && !oneOf(o.ElementSet, elementSets) {
+		r.fail("orbit.element_set", "value %q is unknown; allowed %s", o.ElementSet, strings.Join(elementSets, ", "))
 	}
 	if o.ElementSet == "osculating" && !has(o.SemiMajorAxisKm) {
 		r.fail("orbit.element_set", "value osculating is given without semi_major_axis_km; allowed with full elements (a state is osculating by itself)")
@@ -303,7 +306,7 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 		return out
 	case has(o.AltitudeKm):
 		h := *o.AltitudeKm
-		if h < MinPerigeeAltitudeKm || h > MaxApogeeAltitudeKm || h != h {
+		if !altitudeRange.Holds(h) {
 			r.fail("orbit.altitude_km", "value %g is below %d km or above %d km (the surface is at 0); allowed [%d, %d]", h, MinPerigeeAltitudeKm, MaxApogeeAltitudeKm, MinPerigeeAltitudeKm, MaxApogeeAltitudeKm)
 		}
 		if has(o.Eccentricity) || has(o.ArgPerigeeDeg) {
@@ -319,26 +322,26 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 				r.fail("orbit.ltan", "value %s", err)
 			}
 			out.Kind, out.LTANHours = OrbitSunSync, lt
-			r.choice("orbit.ltan_solar_time", &o.LTANSolarTime, defaultLTANSolarTime, []string{orbit.MeanSolarTime, orbit.ApparentSolarTime})
+			r.choice("orbit.ltan_solar_time", &o.LTANSolarTime, defaultLTANSolarTime, ltanSolarTimes)
 			out.LTANSolarTime = o.LTANSolarTime
 		} else {
 			if !has(o.InclinationDeg) {
-				r.fail("orbit.inclination_deg", "value is missing; allowed [0, 180] with altitude_km, or give ltan for a sun-synchronous orbit")
+				r.fail("orbit.inclination_deg", "value is missing; allowed %s with altitude_km, or give ltan for a sun-synchronous orbit", inclinationRange)
 				return out
 			}
 			out.Kind = OrbitCircular
-			out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, 0, 180)
-			out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), 0, 360)
+			out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, inclinationRange)
+			out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), nodeAngleRange)
 		}
-		out.MeanAnomalyRad = r.angle("orbit.mean_anomaly_deg", setDefault(&o.MeanAnomalyDeg, 0), 0, 360)
+		out.MeanAnomalyRad = r.angle("orbit.mean_anomaly_deg", setDefault(&o.MeanAnomalyDeg, 0), nodeAngleRange)
 	case has(o.SemiMajorAxisKm):
 		if o.LTAN != "" {
 			r.fail("orbit.ltan", "value is given with semi_major_axis_km; allowed ltan with altitude_km only")
 		}
 		a := *o.SemiMajorAxisKm
 		e := setDefault(&o.Eccentricity, 0)
-		if !(e >= 0 && e < 1) {
-			r.fail("orbit.eccentricity", "value %g is not an ellipse; allowed [0, 1)", e)
+		if !eccentricityRng.Holds(e) {
+			r.fail("orbit.eccentricity", "value %g is not an ellipse; allowed %s", e, eccentricityRng)
 			return out
 		}
 		if msg := OrbitSizeError(a, e); msg != "" {
@@ -351,18 +354,18 @@ func (r *resolver) orbit(o *fileOrbit, epoch *string, ep *time.Time) Orbit {
 		out.Kind, out.SemiMajorAxisKm, out.Eccentricity = OrbitKeplerian, a, e
 		out.Osculating = o.ElementSet == "osculating"
 		out.AltitudeKm = a - orbit.RadiusEarthKm
-		out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, 0, 180)
-		out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), 0, 360)
-		out.ArgPerigeeRad = r.angle("orbit.arg_perigee_deg", setDefault(&o.ArgPerigeeDeg, 0), 0, 360)
-		out.MeanAnomalyRad = r.angle("orbit.mean_anomaly_deg", setDefault(&o.MeanAnomalyDeg, 0), 0, 360)
+		out.InclinationRad = r.angle("orbit.inclination_deg", *o.InclinationDeg, inclinationRange)
+		out.RAANRad = r.angle("orbit.raan_deg", setDefault(&o.RAANDeg, 0), nodeAngleRange)
+		out.ArgPerigeeRad = r.angle("orbit.arg_perigee_deg", setDefault(&o.ArgPerigeeDeg, 0), nodeAngleRange)
+		out.MeanAnomalyRad = r.angle("orbit.mean_anomaly_deg", setDefault(&o.MeanAnomalyDeg, 0), nodeAngleRange)
 	default:
 		r.fail("orbit", "value has no orbit; allowed altitude_km + inclination_deg, altitude_km + ltan, semi_major_axis_km + eccentricity + angles, or tle")
 	}
 	return out
 }
 
-func (r *resolver) angle(path string, v, lo, hi float64) float64 {
-	r.rangeCheck(path, v, lo, hi, false, fmt.Sprintf("[%g, %g] degrees", lo, hi))
+func (r *resolver) angle(path string, v float64, iv Interval) float64 {
+	r.rangeCheck(path, v, iv, " degrees")
 	return v * deg
 }
 
@@ -453,16 +456,16 @@ var lawResolvers = map[string]func(r *resolver, path string, l *fileLaw, info at
 	attitude.NameNadir: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
 		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, info.Word("point_axis"))
 		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, info.Word("align_axis"))
-		out.RollRad = r.angle(path+".roll_offset_deg", setDefault(&l.RollOffsetDeg, info.Number("roll_offset_deg")), -180, 180)
-		out.PitchRad = r.angle(path+".pitch_offset_deg", setDefault(&l.PitchOffsetDeg, info.Number("pitch_offset_deg")), -180, 180)
-		out.YawRad = r.angle(path+".yaw_offset_deg", setDefault(&l.YawOffsetDeg, info.Number("yaw_offset_deg")), -180, 180)
+		out.RollRad = r.angle(path+".roll_offset_deg", setDefault(&l.RollOffsetDeg, info.Number("roll_offset_deg")), offsetRange)
+		out.PitchRad = r.angle(path+".pitch_offset_deg", setDefault(&l.PitchOffsetDeg, info.Number("pitch_offset_deg")), offsetRange)
+		out.YawRad = r.angle(path+".yaw_offset_deg", setDefault(&l.YawOffsetDeg, info.Number("yaw_offset_deg")), offsetRange)
 		r.choice(path+".align_to", &l.AlignTo, info.Word("align_to"), info.Choices["align_to"])
 		out.AlignTo = l.AlignTo
 	},
 	attitude.NameSun: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
 		out.PointAxis = r.axis(path+".point_axis", &l.PointAxis, info.Word("point_axis"))
 		out.AlignAxis = r.axis(path+".align_axis", &l.AlignAxis, info.Word("align_axis"))
-		out.ClockRad = r.angle(path+".clock_deg", setDefault(&l.ClockDeg, info.Number("clock_deg")), -360, 360)
+		out.ClockRad = r.angle(path+".clock_deg", setDefault(&l.ClockDeg, info.Number("clock_deg")), clockRange)
 		r.choice(path+".align_to", &l.AlignTo, info.Word("align_to"), info.Choices["align_to"])
 		out.AlignTo = l.AlignTo
 		if l.AlignTo == AlignInertial {
@@ -477,7 +480,7 @@ var lawResolvers = map[string]func(r *resolver, path string, l *fileLaw, info at
 			r.fail(path+".align_inertial", "value applies with align_to: inertial only; allowed align_to: inertial with align_inertial, or no align_inertial")
 		}
 		rate := setDefault(&l.RateDegS, info.Number("rate_deg_s"))
-		r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s (spin about the sun line)")
+		r.rangeCheck(path+".rate_deg_s", rate, spinRateRange, " deg/s (spin about the sun line)")
 		out.RateRadS = rate * deg
 	},
 	attitude.NameInertial: func(r *resolver, path string, l *fileLaw, info attitude.LawInfo, out *Law) {
@@ -487,7 +490,7 @@ var lawResolvers = map[string]func(r *resolver, path string, l *fileLaw, info at
 		r.orientation(path, l, info, out)
 		out.SpinAxis = r.axis(path+".spin_axis", &l.SpinAxis, info.Word("spin_axis"))
 		rate := setDefault(&l.RateDegS, info.Number("rate_deg_s"))
-		r.rangeCheck(path+".rate_deg_s", rate, -360, 360, false, "[-360, 360] deg/s")
+		r.rangeCheck(path+".rate_deg_s", rate, spinRateRange, " deg/s")
 		out.RateRadS = rate * deg
 	},
 	attitude.NameReplay: func(r *resolver, path string, l *fileLaw, _ attitude.LawInfo, out *Law) {
@@ -514,9 +517,9 @@ var lawResolvers = map[string]func(r *resolver, path string, l *fileLaw, info at
 // inertia tensor.
 func (r *resolver) rates(path string, l *fileLaw, info attitude.LawInfo, out *Law) {
 	m := setDefault(&l.MaxRateDegS, info.Number("max_rate_deg_s"))
-	r.rangeCheck(path+".max_rate_deg_s", m, 0, 360, true, "(0, 360] deg/s")
+	r.rangeCheck(path+".max_rate_deg_s", m, maxRateRange, " deg/s")
 	lo := setDefault(&l.MinRateDegS, info.Number("min_rate_deg_s"))
-	r.rangeCheck(path+".min_rate_deg_s", lo, 0, 360, false, "[0, 360] deg/s")
+	r.rangeCheck(path+".min_rate_deg_s", lo, minRateRange, " deg/s")
 	if lo > m {
 		r.fail(path+".min_rate_deg_s", "value %g is above max_rate_deg_s %g; allowed min_rate_deg_s ≤ max_rate_deg_s (equal values fix the rate)", lo, m)
 	}
@@ -594,7 +597,7 @@ func (r *resolver) orientation(path string, l *fileLaw, info attitude.LawInfo, o
 			r.fail(path+".euler_sequence", "value %q is unknown%s; allowed %s", l.EulerSequence, suggest.Hint(l.EulerSequence, eulerSeqs), strings.Join(eulerSeqs, ", "))
 		}
 		for i, v := range l.EulerDeg {
-			out.EulerRad[i] = r.angle(fmt.Sprintf("%s.euler_deg[%d]", path, i), v, -360, 360)
+			out.EulerRad[i] = r.angle(fmt.Sprintf("%s.euler_deg[%d]", path, i), v, eulerRange)
 		}
 		out.EulerSequence = l.EulerSequence
 	default:

@@ -2,6 +2,7 @@ package scenario
 
 import (
 	"fmt"
+	"strings"
 
 	"codeberg.org/sunsight/sunsight/orbit/attitude"
 )
@@ -83,7 +84,7 @@ func (r *resolver) timeline(f *fileTimeline, sensors int) Timeline {
 		} else {
 			ph.Law = r.law(p+".attitude", &fp.Attitude)
 		}
-		r.choice(p+".during_eclipse", &fp.DuringEclipse, EclipseFly, []string{EclipseFly, EclipseHold})
+		r.choice(p+".during_eclipse", &fp.DuringEclipse, EclipseFly, eclipseBehaviours)
 		ph.HoldInEclipse = fp.DuringEclipse == EclipseHold
 		if ph.HoldInEclipse {
 			// The hold ends with a slew back onto the law.
@@ -110,8 +111,8 @@ func (r *resolver) timeline(f *fileTimeline, sensors int) Timeline {
 			r.fail("timeline", "value has phases with slew or during_eclipse: hold (which slews back after the shadow) but no slew_rate_deg_s and slew_accel_deg_s2; allowed both limits, such as slew_rate_deg_s: 2 and slew_accel_deg_s2: 0.2")
 			break
 		}
-		r.rangeCheck("timeline.slew_rate_deg_s", *f.SlewRateDegS, 0, 90, true, "(0, 90] deg/s")
-		r.rangeCheck("timeline.slew_accel_deg_s2", *f.SlewAccelDegS2, 0, 90, true, "(0, 90] deg/s²")
+		r.rangeCheck("timeline.slew_rate_deg_s", *f.SlewRateDegS, slewRange, " deg/s")
+		r.rangeCheck("timeline.slew_accel_deg_s2", *f.SlewAccelDegS2, slewRange, " deg/s²")
 		tl.SlewRateRadS, tl.SlewAccelRadS2 = *f.SlewRateDegS*deg, *f.SlewAccelDegS2*deg
 	case f.SlewRateDegS != nil || f.SlewAccelDegS2 != nil:
 		r.fail("timeline", "value has slew limits but no phase with slew: true or during_eclipse: hold; allowed the limits with at least one slewing or holding phase, or no limits")
@@ -138,7 +139,7 @@ func (r *resolver) until(p string, u *fileUntil, law string, last bool, sensors 
 	if u.RateBelowDegS != nil {
 		n++
 		out.Kind, out.RateRadS = UntilRateBelow, *u.RateBelowDegS*deg
-		r.rangeCheck(p+".rate_below_deg_s", *u.RateBelowDegS, 0, 360, true, "(0, 360] deg/s")
+		r.rangeCheck(p+".rate_below_deg_s", *u.RateBelowDegS, maxRateRange, " deg/s")
 		if law != attitude.NameDetumble {
 			r.fail(p+".rate_below_deg_s", "value applies to a detumble phase only (law %q keeps its rate); allowed with law: detumble", law)
 		}
@@ -165,12 +166,12 @@ func (r *resolver) until(p string, u *fileUntil, law string, last bool, sensors 
 	if u.Eclipse != "" {
 		n++
 		switch u.Eclipse {
-		case "entry":
+		case untilEclipses[0]:
 			out.Kind = UntilEclipseEntry
-		case "exit":
+		case untilEclipses[1]:
 			out.Kind = UntilEclipseExit
 		default:
-			r.fail(p+".eclipse", "value %q is unknown; allowed entry, exit", u.Eclipse)
+			r.fail(p+".eclipse", "value %q is unknown; allowed %s", u.Eclipse, strings.Join(untilEclipses, ", "))
 		}
 	}
 	if n != 1 {

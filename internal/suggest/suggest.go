@@ -12,6 +12,14 @@ import "strings"
 // Several equally close names give no suggestion, since a guess between
 // them could mislead.
 func Hint(name string, allowed []string) string {
+	if best := Closest(name, allowed); best != "" {
+		return ` (did you mean "` + best + `"?)`
+	}
+	return ""
+}
+
+// Closest returns the allowed name Hint suggests for a misspelt name, or "".
+func Closest(name string, allowed []string) string {
 	n := strings.ToLower(name)
 	if n == "" {
 		return ""
@@ -38,7 +46,7 @@ func Hint(name string, allowed []string) string {
 	if bestD > limit || ties > 1 || best == name {
 		return ""
 	}
-	return ` (did you mean "` + best + `"?)`
+	return best
 }
 
 // editDistance is the Levenshtein distance between a and b, in runes.

@@ -7,9 +7,11 @@
 // # Model
 //
 // A case is the scenario file with each varied key set to one value. The
-// edit is made on the YAML node tree (go.yaml.in/yaml/v3) and the result is
-// re-read with scenario.Parse, so every key of the schema can be swept and
-// every case is checked with the messages of a plain scenario file. The
+// edit is made on the YAML node tree (go.yaml.in/yaml/v3) and the edited tree
+// is checked with scenario.ParseNode, so every key of the schema can be swept
+// and every case is checked with the messages of a plain scenario file: a key
+// of the user's file is cited by its line there, a value the sweep set by the
+// --vary that set it. The
 // special keys "layout" (a name from body.layouts, replacing body.sensors)
 // and "mode" (a name from modes, replacing attitude) are applied first.
 // Values are ranges "lo:hi:step" (end included when on the grid), or comma

@@ -3,7 +3,9 @@ package sweep
 import (
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"fmt"
+	"strings"
 
 	"go.yaml.in/yaml/v3"
 
@@ -83,11 +85,40 @@ func (p *Plan) build(vals []string) (*scenario.Scenario, error) {
 			}
 		}
 	}
-	text, err := yaml.Marshal(&doc)
-	if err != nil {
-		return nil, fmt.Errorf("sweep: writing the edited scenario: %w", err)
+	// The edited tree keeps the lines of the user's file; the values the
+	// sweep set have none and are named by the --vary that set them.
+	s, err := scenario.ParseNode(root, p.dir)
+	var errs scenario.Errors
+	if errors.As(err, &errs) {
+		for _, e := range errs {
+			if e.Line == 0 {
+				e.Origin = p.setBy(e.Path)
+			}
+		}
 	}
-	return scenario.Parse(text, p.dir)
+	return s, err
+}
+
+// setBy names the --vary whose edit holds path, or is held by it, or "".
+func (p *Plan) setBy(path string) string {
+	for _, a := range p.Axes {
+		key := a.Key
+		switch key {
+		case KeyLayout:
+			key = "body.sensors"
+		case KeyMode:
+			key = "attitude"
+		}
+		if within(path, key) || within(key, path) {
+			return "set by --vary " + a.Key
+		}
+	}
+	return ""
+}
+
+// within reports whether path p is at or under path top.
+func within(p, top string) bool {
+	return p == top || strings.HasPrefix(p, top+".") || strings.HasPrefix(p, top+"[")
 }
 
 // Scenario returns case i's checked scenario.

@@ -3,6 +3,7 @@ package sweep
 import (
 	"bytes"
 	"context"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -246,3 +247,34 @@ func TestWorkersDoNotChangeResults(t *testing.T) {
 }
 
 func scenarioCaption() plots.Caption { return plots.Caption{Scenario: "sweep test"} }
+
+// A case's problem points at the user's file: a key of the file by its own
+// line and column there, a value the sweep set by the --vary that set it
+// (the case file is an edited copy whose lines are not the user's).
+func TestCaseErrorsPointAtTheUsersFile(t *testing.T) {
+	// Blank lines and spacing the edited copy would not keep.
+	text := strings.Replace(strings.Replace(base, "duration: 1h\n", "\n\nduration: 1h\n\n", 1), "step: 30s", "step:   30s", 1)
+	lineOf := func(prefix string) int {
+		for i, l := range strings.Split(text, "\n") {
+			if strings.HasPrefix(l, prefix) {
+				return i + 1
+			}
+		}
+		t.Fatalf("no line %q", prefix)
+		return 0
+	}
+	for _, tc := range []struct{ spec, want string }{
+		{"orbit.altitud_km=400", "orbit.altitud_km (set by --vary orbit.altitud_km): key"},
+		{"orbit.altitude_km=50", "orbit.altitude_km (set by --vary orbit.altitude_km): value 50"},
+		{"duration=10s", fmt.Sprintf("step (line %d, col 9): value 30s is longer than the duration 10s", lineOf("step:"))},
+	} {
+		a, err := ParseAxis(tc.spec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		_, err = NewPlan([]byte(text), t.TempDir(), []Axis{a}, false)
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("--vary %s: error\n%v\nwant it to contain %q", tc.spec, err, tc.want)
+		}
+	}
+}

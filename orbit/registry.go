@@ -104,13 +104,13 @@ func newJ2NumericFactory(el Elements) (func() Propagator, error) {
 	if err != nil {
 		return nil, err
 	}
+	// Every propagator starts alike, from the osculating state: handing
+	// the first caller p itself (started from the elements) made a run's
+	// last bits depend on whether it was the first in the process, and the
+	// flag that decided it was shared by the goroutines that call the
+	// factory.
 	s0, opt := p.InitialState(), p.Options()
-	first := true
 	return func() Propagator {
-		if first {
-			first = false
-			return p
-		}
 		q, _ := NewJ2NumericFromState(s0, opt)
 		return q
 	}, nil

@@ -258,3 +258,37 @@ func (c *Cosine) ResponseTable() (incidence, response []float64) {
 	}
 	return incidence, response
 }
+
+// SeenFromCosine returns the least cosine c of the angle between the nominal
+// boresight and a direction d for which SeesSun(d) holds, so that
+// SeesSun(d) ⇔ Boresight·d ≥ c, bit for bit (ok); +Inf when no direction
+// is seen. ok is false with a roll-off, whose response is not monotonic in
+// the cosine. SeesSun is monotonic in the cosine without one: the response
+// is the cosine itself inside the cone and 0 outside, and the products and
+// quotient of SeesSun round monotonically (IEEE 754), so the set of
+// cosines seen is an interval up to +Inf, found by bisection on the
+// ordered bit patterns of positive floats (closed form).
+func (c *Cosine) SeenFromCosine() (cosMin float64, ok bool) {
+	if c.rolloff != nil {
+		return 0, false
+	}
+	seen := func(ct float64) bool {
+		v := c.response(ct) * SolarConstant / c.spec.RefIrradiance
+		return v >= c.spec.Threshold && v >= MinSeenSignal
+	}
+	// A dot product of unit vectors rounds to at most 1 + 4ε; 2 bounds it.
+	lo, hi := uint64(0), math.Float64bits(2)
+	if !seen(2) {
+		return math.Inf(1), true
+	}
+	// Invariant: seen(hi), !seen(lo) (seen(+0) is false: response 0).
+	for hi-lo > 1 {
+		mid := lo + (hi-lo)/2
+		if seen(math.Float64frombits(mid)) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return math.Float64frombits(hi), true
+}

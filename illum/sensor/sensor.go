@@ -301,3 +301,12 @@ func roundNonNeg(x float64) float64 {
 	}
 	return f
 }
+
+// SunView is a sensor's field of view as a sky viewer (sky.Viewer): Sees(d)
+// is the sensor's SeesSun(d). The step loop knows it by its type, so that
+// it can ask a cosine sensor's view as one comparison of the cosine
+// (Cosine.SeenFromCosine) instead of a call per sensor per step.
+type SunView struct{ Sensor Sensor }
+
+// Sees reports whether the sensor sees a sun in body direction d.
+func (v SunView) Sees(d r3.Vec) bool { return v.Sensor.SeesSun(d) }

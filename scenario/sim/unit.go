@@ -301,6 +301,15 @@ type viewer struct {
 	// hide[i] is sensor i's obstruction test (Config.Blocked[i]).
 	hide []hider
 	sees []func(r3.Vec) bool
+	// seenFrom[i], when not NaN, replaces sees[i]: sensor i is a cosine
+	// sensor seen through a sensor.SunView, whose SeesSun is the one
+	// comparison bore[i]·d ≥ seenFrom[i] (Cosine.SeenFromCosine), and the
+	// obstruction part of its view is vhide[i], or the step's
+	// sunBlocked[i] when Blocked[i] is the same test (sameBlocked[i]).
+	seenFrom    []float64
+	bore        []r3.Vec
+	vhide       []hider
+	sameBlocked []bool
 	// The nominal cones and mounting-plane normals (zero: none).
 	cone []sensor.Cone
 	face []r3.Vec
@@ -338,7 +347,11 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 			cut = math.Cos(s.HalfAngle()) - 1e-9
 		}
 		w.outside = append(w.outside, cut)
-		switch o, _ := viewerOf(cfg, i).(*sky.Obstructed); {
+		o, _ := viewerOf(cfg, i).(*sky.Obstructed)
+		from, bore, vh, same := seenByCosine(cfg, i, o)
+		w.seenFrom, w.bore = append(w.seenFrom, from), append(w.bore, bore)
+		w.vhide, w.sameBlocked = append(w.vhide, vh), append(w.sameBlocked, same)
+		switch {
 		case cfg.Viewers == nil:
 			w.sees = append(w.sees, s.SeesSun)
 		case o != nil && cut > -2 && len(o.Obstacles) == 0 && inFront(w.cone[i].Axis, o.Face, cut):
@@ -390,7 +403,13 @@ func (w *viewer) view(v *stepView, g *stepGeom, albBody, predBody []sensor.Albed
 	v.seen = 0
 	sunlit := g.region == illum.Sunlit
 	for i, sees := range w.sees {
-		v.sees[i] = sunlit && r3.Dot(w.cone[i].Axis, g.sunBody) >= w.outside[i] && sees(g.sunBody)
+		if from := w.seenFrom[i]; from == from {
+			// Obstructed.Sees written out: SunView's SeesSun, then Hidden.
+			v.sees[i] = sunlit && r3.Dot(w.bore[i], g.sunBody) >= from &&
+				!(w.sameBlocked[i] && v.sunBlocked[i] || !w.sameBlocked[i] && w.vhide[i].hidden(g.sunBody))
+		} else {
+			v.sees[i] = sunlit && r3.Dot(w.cone[i].Axis, g.sunBody) >= w.outside[i] && sees(g.sunBody)
+		}
 		if v.sees[i] {
 			v.seen++
 			w.inView[i]++
@@ -497,6 +516,43 @@ func (h *hider) hidden(d r3.Vec) bool {
 		return h.face != (r3.Vec{}) && !(r3.Dot(d, h.face) > sky.FacePlaneMargin)
 	}
 	return h.o != nil && h.o.Hidden(d)
+}
+
+// seenByCosine says how the viewer may ask sensor i's view o (nil: not an
+// obstruction test) without a call: when o looks through a sensor.SunView
+// of a cosine sensor without roll-off, from is the least cosine from the
+// boresight bore that the sensor sees (Cosine.SeenFromCosine), vh is o's
+// obstruction test, and same reports that cfg.Blocked[i] is the same test
+// (same position, plane and obstacles), whose answer the step has already;
+// from is NaN otherwise.
+func seenByCosine(cfg *Config, i int, o *sky.Obstructed) (from float64, bore r3.Vec, vh hider, same bool) {
+	from = math.NaN()
+	if o == nil {
+		return
+	}
+	sv, ok := o.View.(sensor.SunView)
+	if !ok {
+		return
+	}
+	c, ok := sv.Sensor.(*sensor.Cosine)
+	if !ok {
+		return
+	}
+	cmin, ok := c.SeenFromCosine()
+	if !ok {
+		return
+	}
+	vh = newHider(o)
+	if cfg.Blocked != nil {
+		b := cfg.Blocked[i]
+		same = b != nil && b.Position == o.Position && b.Face == o.Face && sameObstacles(b.Obstacles, o.Obstacles)
+	}
+	return cmin, c.Mount().Boresight(), vh, same
+}
+
+// sameObstacles reports whether a and b are the same slice.
+func sameObstacles(a, b []sky.Obstacle) bool {
+	return len(a) == len(b) && (len(a) == 0 || &a[0] == &b[0])
 }
 
 // viewerOf is cfg.Viewers[i]; nil without viewers.

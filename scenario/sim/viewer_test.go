@@ -25,12 +25,7 @@ func TestViewerObstructionTestsAreHidden(t *testing.T) {
 		return r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()})
 	}
 	box := []sky.Obstacle{sky.Box{Centre: r3.Vec{Z: -0.05}, Half: r3.Vec{X: 0.05, Y: 0.05, Z: 0.05}}}
-	type mount struct {
-		bore, face r3.Vec
-		halfDeg    float64
-		obstacles  []sky.Obstacle
-		short      bool // the viewer may skip the plane test
-	}
+	type mount = viewerMount
 	tilt := func(deg float64) r3.Vec {
 		return r3.Vec{X: math.Sin(deg * math.Pi / 180), Z: math.Cos(deg * math.Pi / 180)}
 	}
@@ -52,13 +47,48 @@ func TestViewerObstructionTestsAreHidden(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	cfg := Config{Array: arr}
-	for i, m := range mounts {
-		s := arr.Sensors()[i]
-		cfg.Viewers = append(cfg.Viewers, &sky.Obstructed{View: sky.ViewerFunc(s.SeesSun), Face: m.face, Obstacles: m.obstacles})
-		cfg.Blocked = append(cfg.Blocked, &sky.Obstructed{Face: m.face, Obstacles: m.obstacles})
+	// Three ways of giving the views: a function (the call path), a
+	// sensor.SunView with the obstruction test also in Blocked (the one
+	// comparison, the step's own blocked flag), and a SunView without
+	// Blocked (the comparison and the viewer's own hider).
+	for way := range 3 {
+		cfg := Config{Array: arr}
+		for i, m := range mounts {
+			s := arr.Sensors()[i]
+			var view sky.Viewer = sky.ViewerFunc(s.SeesSun)
+			if way > 0 {
+				view = sensor.SunView{Sensor: s}
+			}
+			cfg.Viewers = append(cfg.Viewers, &sky.Obstructed{View: view, Face: m.face, Obstacles: m.obstacles})
+			if way < 2 {
+				cfg.Blocked = append(cfg.Blocked, &sky.Obstructed{Face: m.face, Obstacles: m.obstacles})
+			}
+		}
+		t.Run(fmt.Sprint("way", way), func(t *testing.T) { checkViewer(t, rng, &cfg, mounts, way > 0) })
 	}
-	vw := newViewer(&cfg, arr)
+}
+
+type viewerMount struct {
+	bore, face r3.Vec
+	halfDeg    float64
+	obstacles  []sky.Obstacle
+	short      bool // the viewer may skip the plane test
+}
+
+func checkViewer(t *testing.T, rng *rand.Rand, cfg *Config, mounts []viewerMount, oneComparison bool) {
+	unit := func() r3.Vec {
+		return r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()})
+	}
+	arr := cfg.Array
+	vw := newViewer(cfg, arr)
+	for i := range mounts {
+		if got := !math.IsNaN(vw.seenFrom[i]); got != oneComparison {
+			t.Errorf("sensor %d: one comparison %v, want %v", i, got, oneComparison)
+		}
+		if oneComparison && vw.sameBlocked[i] != (cfg.Blocked != nil) {
+			t.Errorf("sensor %d: same blocked test %v with Blocked %v", i, vw.sameBlocked[i], cfg.Blocked != nil)
+		}
+	}
 	for i, m := range mounts {
 		short := len(m.obstacles) == 0 && inFront(vw.cone[i].Axis, m.face, vw.outside[i])
 		if short != m.short {
@@ -80,6 +110,18 @@ func TestViewerObstructionTestsAreHidden(t *testing.T) {
 		g := stepGeom{region: illum.Sunlit, sunBody: d}
 		v := vw.at(&g, nil, nil)
 		for i := range mounts {
+			if cfg.Blocked == nil {
+				if want := cfg.Viewers[i].Sees(d); v.sees[i] != want {
+					t.Fatalf("sensor %d, sun %v: sees %v, Sees %v", i, d, v.sees[i], want)
+				}
+				if v.sees[i] {
+					seen[i]++
+				}
+				if cfg.Viewers[i].(*sky.Obstructed).Hidden(d) {
+					hidden[i]++
+				}
+				continue
+			}
 			if want := cfg.Blocked[i].Hidden(d); v.sunBlocked[i] != want {
 				t.Fatalf("sensor %d, sun %v: blocked %v, Hidden %v", i, d, v.sunBlocked[i], want)
 			}

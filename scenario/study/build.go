@@ -337,7 +337,7 @@ func BuildSensors(s *scenario.Scenario, list []scenario.Sensor, path string) (*s
 		}
 		ss = append(ss, sn)
 		resp = append(resp, r)
-		viewers = append(viewers, mounted(sky.ViewerFunc(sn.SeesSun), sc, obstacles))
+		viewers = append(viewers, mounted(sensor.SunView{Sensor: sn}, sc, obstacles))
 	}
 	arr, err := sensor.NewArray(ss...)
 	if err != nil {

@@ -51,7 +51,7 @@ func brentRoot(f func(float64) float64, a, b, fa, fb, tol float64) float64 {
 			} else {
 				p = -p
 			}
-			if 2*p < math.Min(3*m*q-math.Abs(tol1*q), math.Abs(e*q)) {
+			if 2*p < min(3*m*q-math.Abs(tol1*q), math.Abs(e*q)) {
 				e = d
 				d = p / q
 			} else {

@@ -76,10 +76,10 @@ func discAngles(rSat, rSun r3.Vec) (a, b, c float64) {
 	d := r3.Sub(rSun, rSat)
 	dn := vecmath.Norm(d)
 	rn := vecmath.Norm(rSat)
-	a = math.Asin(math.Min(1, SunRadiusKm/dn))
-	b = math.Asin(math.Min(1, EarthRadiusKm/rn))
+	a = math.Asin(min(1, SunRadiusKm/dn))
+	b = math.Asin(min(1, EarthRadiusKm/rn))
 	cosc := -r3.Dot(rSat, d) / (rn * dn)
-	c = math.Acos(math.Max(-1, math.Min(1, cosc)))
+	c = math.Acos(max(-1, min(1, cosc)))
 	return a, b, c
 }
 
@@ -99,13 +99,13 @@ func visibleFraction(a, b, c float64) (float64, Region) {
 	// Overlap (lens) area of two discs whose centres are c apart; x is the
 	// distance from the sun's centre to the chord through the intersections.
 	x := (c*c + a*a - b*b) / (2 * c)
-	y := math.Sqrt(math.Max(0, a*a-x*x))
+	y := math.Sqrt(max(0, a*a-x*x))
 	A := a*a*math.Acos(clamp1(x/a)) + b*b*math.Acos(clamp1((c-x)/b)) - c*y
 	ν := 1 - A/(math.Pi*a*a)
-	return math.Max(0, math.Min(1, ν)), Penumbra
+	return max(0, min(1, ν)), Penumbra
 }
 
-func clamp1(x float64) float64 { return math.Max(-1, math.Min(1, x)) }
+func clamp1(x float64) float64 { return max(-1, min(1, x)) }
 
 // ShadowConical returns the visible fraction of the solar disc, lit in
 // [0, 1], seen from rSat (km, geocentric, EME2000) with the sun at rSun (km,
@@ -219,6 +219,6 @@ func shadowMargins(rSat, rSun r3.Vec) (penumbra, umbra float64) {
 func cylinderMargins(rSat, rSun r3.Vec) (penumbra, umbra float64) {
 	anti := r3.Scale(-1, rSun)
 	θ := math.Atan2(vecmath.Norm(r3.Cross(rSat, anti)), r3.Dot(rSat, anti))
-	m := θ - math.Asin(math.Min(1, EarthRadiusKm/vecmath.Norm(rSat)))
+	m := θ - math.Asin(min(1, EarthRadiusKm/vecmath.Norm(rSat)))
 	return m, m
 }

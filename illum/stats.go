@@ -36,8 +36,8 @@ func EclipseStats(ecl []Eclipse, t0, t1, periodS float64) Stats {
 		d, du := e.Duration(), e.UmbraDuration()
 		s.TotalS += d
 		s.TotalUmbraS += du
-		s.LongestShadowS = math.Max(s.LongestShadowS, d)
-		s.LongestSunlitS = math.Max(s.LongestSunlitS, e.PenumbraStart-prevEnd)
+		s.LongestShadowS = max(s.LongestShadowS, d)
+		s.LongestSunlitS = max(s.LongestSunlitS, e.PenumbraStart-prevEnd)
 		prevEnd = e.PenumbraEnd
 		if !e.Complete() {
 			continue
@@ -45,10 +45,10 @@ func EclipseStats(ecl []Eclipse, t0, t1, periodS float64) Stats {
 		s.Complete++
 		s.MeanS += d
 		s.MeanUmbraS += du
-		s.MaxS = math.Max(s.MaxS, d)
-		s.MaxUmbraS = math.Max(s.MaxUmbraS, du)
+		s.MaxS = max(s.MaxS, d)
+		s.MaxUmbraS = max(s.MaxUmbraS, du)
 	}
-	s.LongestSunlitS = math.Max(s.LongestSunlitS, t1-prevEnd)
+	s.LongestSunlitS = max(s.LongestSunlitS, t1-prevEnd)
 	if s.Complete > 0 {
 		s.MeanS /= float64(s.Complete)
 		s.MeanUmbraS /= float64(s.Complete)
@@ -95,7 +95,7 @@ func BinEclipses(ecl []Eclipse, t0, widthS float64, n int) []Bin {
 		b.Count++
 		b.TotalS += d
 		b.TotalUmbraS += e.UmbraDuration()
-		b.MaxS = math.Max(b.MaxS, d)
+		b.MaxS = max(b.MaxS, d)
 	}
 	for i := range bins {
 		if bins[i].Count > 0 {

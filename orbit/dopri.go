@@ -190,7 +190,7 @@ func (d *dopri5) step() {
 		var sum float64
 		for i := range y1 {
 			ei := h * (dpE1*k1[i] + dpE3*k3[i] + dpE4*k4[i] + dpE5*k5[i] + dpE6*k6[i] + dpE7*k7[i])
-			sc := d.atol + d.rtol*math.Max(math.Abs(y0[i]), math.Abs(y1[i]))
+			sc := d.atol + d.rtol*max(math.Abs(y0[i]), math.Abs(y1[i]))
 			sum += (ei / sc) * (ei / sc)
 		}
 		err := math.Sqrt(sum / 6)
@@ -198,7 +198,7 @@ func (d *dopri5) step() {
 		// growth limited to [0.2, 5].
 		fac := 5.0
 		if err > 0 {
-			fac = math.Min(5, math.Max(0.2, 0.9*math.Pow(err, -0.2)))
+			fac = min(5, max(0.2, 0.9*math.Pow(err, -0.2)))
 		}
 		if err <= 1 {
 			for i := range y1 {
@@ -216,7 +216,7 @@ func (d *dopri5) step() {
 			return
 		}
 		d.reject++
-		h *= math.Min(1, fac)
+		h *= min(1, fac)
 	}
 }
 

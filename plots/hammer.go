@@ -32,6 +32,6 @@ func InverseHammer(x, y float64) (λ, φ float64, ok bool) {
 	if x*x/8+y*y/2 > 1 {
 		return 0, 0, false
 	}
-	z := math.Sqrt(math.Max(0, 1-x*x/16-y*y/4))
-	return 2 * math.Atan2(z*x, 2*(2*z*z-1)), math.Asin(math.Max(-1, math.Min(1, z*y))), true
+	z := math.Sqrt(max(0, 1-x*x/16-y*y/4))
+	return 2 * math.Atan2(z*x, 2*(2*z*z-1)), math.Asin(max(-1, min(1, z*y))), true
 }

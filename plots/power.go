@@ -69,13 +69,13 @@ func (f PowerView) Plot(caption Caption) (*Chart, error) {
 	rec = append(rec, drawnSeries{0, "array power", l.XYs})
 	hi := 0.0
 	for _, w := range f.W {
-		hi = math.Max(hi, w)
+		hi = max(hi, w)
 	}
 	if finite(f.MeanW) {
 		h := hline{f.MeanW, draw.LineStyle{Color: colBlack, Width: 1.2, Dashes: []vg.Length{4, 3}}}
 		top.Add(h)
 		top.Legend.Add(fmt.Sprintf("run average %.1f W", f.MeanW), h)
-		hi = math.Max(hi, f.MeanW)
+		hi = max(hi, f.MeanW)
 	}
 	if len(f.Umbra) > 0 {
 		top.Legend.Add("umbra", swatch{colUmbra})
@@ -83,7 +83,7 @@ func (f PowerView) Plot(caption Caption) (*Chart, error) {
 	if len(f.Penumbra) > 0 {
 		top.Legend.Add("penumbra", swatch{colPenumbra})
 	}
-	top.Y.Min, top.Y.Max = 0, 1.08*math.Max(hi, 1e-3)
+	top.Y.Min, top.Y.Max = 0, 1.08*max(hi, 1e-3)
 	panels := []*plot.Plot{top}
 
 	if len(f.OrbitW) > 0 {
@@ -92,7 +92,7 @@ func (f PowerView) Plot(caption Caption) (*Chart, error) {
 		lo, hi := math.Inf(1), math.Inf(-1)
 		for i, w := range f.OrbitW {
 			x[i] = float64(i + 1)
-			lo, hi = math.Min(lo, w), math.Max(hi, w)
+			lo, hi = min(lo, w), max(hi, w)
 		}
 		ln, sc, err := plotter.NewLinePoints(xy(x, f.OrbitW))
 		if err != nil {
@@ -110,12 +110,12 @@ func (f PowerView) Plot(caption Caption) (*Chart, error) {
 			h := hline{tg.Value, tg.style()}
 			p.Add(h)
 			p.Legend.Add(tg.text(), h)
-			lo, hi = math.Min(lo, tg.Value), math.Max(hi, tg.Value)
+			lo, hi = min(lo, tg.Value), max(hi, tg.Value)
 		}
 		// Start at zero unless the orbits differ by little against their level,
 		// where a zero floor would flatten the season's trend to a line.
 		r := hi - lo
-		p.Y.Min, p.Y.Max = 0, 1.08*math.Max(hi, 1e-3)
+		p.Y.Min, p.Y.Max = 0, 1.08*max(hi, 1e-3)
 		if r > 0 && r < 0.2*hi {
 			p.Y.Min, p.Y.Max = lo-0.5*r-0.01*hi, hi+0.5*r+0.01*hi
 		}

@@ -285,7 +285,7 @@ func smallCircle(az, el, r float64) [][]xyPt {
 			p[i] = math.Cos(r*d)*c[i] + math.Sin(r*d)*(math.Cos(t)*u[i]+math.Sin(t)*v[i])
 		}
 		a := math.Atan2(p[1], p[0]) / d
-		e := math.Asin(math.Max(-1, math.Min(1, p[2]))) / d
+		e := math.Asin(max(-1, min(1, p[2]))) / d
 		if !math.IsNaN(prev) && math.Abs(a-prev) > 180 {
 			out = append(out, cur)
 			cur = nil
@@ -325,9 +325,9 @@ func meanDir(pts []Point) (Point, float64) {
 	for _, p := range pts {
 		u := unitDir(p.AzDeg, p.ElDeg)
 		c := m[0]*u[0] + m[1]*u[1] + m[2]*u[2]
-		worst = math.Max(worst, math.Acos(math.Max(-1, math.Min(1, c)))*180/math.Pi)
+		worst = max(worst, math.Acos(max(-1, min(1, c)))*180/math.Pi)
 	}
-	return Point{math.Atan2(m[1], m[0]) * 180 / math.Pi, math.Asin(math.Max(-1, math.Min(1, m[2]))) * 180 / math.Pi}, worst
+	return Point{math.Atan2(m[1], m[0]) * 180 / math.Pi, math.Asin(max(-1, min(1, m[2]))) * 180 / math.Pi}, worst
 }
 
 // fixedSpreadDeg is how far a direction may wander and still be drawn as
@@ -409,7 +409,7 @@ func (s *skyPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 	mapC.Min.X += 30 // elevation labels
 	mapC.Min.Y += tickRoom
 	w, h := mapC.Max.X-mapC.Min.X, mapC.Max.Y-mapC.Min.Y
-	scale := math.Min(float64(w)/(2*xr*1.02), float64(h)/(2*yr*1.04))
+	scale := min(float64(w)/(2*xr*1.02), float64(h)/(2*yr*1.04))
 	cx, cy := (mapC.Min.X+mapC.Max.X)/2, (mapC.Min.Y+mapC.Max.Y)/2
 	tr := func(p xyPt) vg.Point {
 		return vg.Point{X: cx + vg.Length(p.X*scale), Y: cy + vg.Length(p.Y*scale)}

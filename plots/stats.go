@@ -222,13 +222,13 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		}
 		for _, p := range pts {
 			if p.X > 0 {
-				lo, hi = math.Min(lo, p.X), math.Max(hi, p.X)
+				lo, hi = min(lo, p.X), max(hi, p.X)
 			}
 		}
 		prep = append(prep, prepared{pts, p95})
 	}
 	if f.Target != nil && f.Target.Value > 0 {
-		lo, hi = math.Min(lo, f.Target.Value), math.Max(hi, f.Target.Value)
+		lo, hi = min(lo, f.Target.Value), max(hi, f.Target.Value)
 	}
 	if !(lo <= hi) {
 		lo, hi = 0.01, 1
@@ -236,10 +236,10 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	// Whole decades around the data, ending at 180° (no angle is larger);
 	// zero errors sit on the left edge; at least a factor 100.
 	xmin := math.Pow(10, math.Floor(math.Log10(lo)))
-	xmax := math.Min(math.Pow(10, math.Ceil(math.Log10(hi*1.0001))), maxAngleDeg)
+	xmax := min(math.Pow(10, math.Ceil(math.Log10(hi*1.0001))), maxAngleDeg)
 	if xmax/xmin < 100 {
 		if xmax = xmin * 100; xmax > maxAngleDeg {
-			xmax, xmin = maxAngleDeg, math.Min(xmin, 1) // 1° to 180°
+			xmax, xmin = maxAngleDeg, min(xmin, 1) // 1° to 180°
 		}
 	}
 	const nb = 40
@@ -252,7 +252,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 	for k, s := range f.Series {
 		pts := make(plotter.XYs, len(prep[k].pts))
 		for i, p := range prep[k].pts {
-			pts[i] = plotter.XY{X: math.Max(p.X, xmin), Y: p.Y}
+			pts[i] = plotter.XY{X: max(p.X, xmin), Y: p.Y}
 		}
 		p95, p95Label := prep[k].p95, fmt.Sprintf("%.3g", prep[k].p95)
 		if s.P95Deg != nil {
@@ -268,7 +268,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		}
 		cdfP.Add(l)
 		rec = append(rec, drawnSeries{0, s.Label, l.XYs}, drawnSeries{0, "p95 " + s.Label, plotter.XYs{{X: p95, Y: 0.95}}})
-		mark := vline{math.Max(p95, xmin), draw.LineStyle{Color: seriesColour(k), Width: 1.2, Dashes: []vg.Length{2, 2}}}
+		mark := vline{max(p95, xmin), draw.LineStyle{Color: seriesColour(k), Width: 1.2, Dashes: []vg.Length{2, 2}}}
 		cdfP.Add(mark)
 		cdfP.Legend.Add(s.Label, l)
 		cdfP.Legend.Add(fmt.Sprintf("p95 %s = %s°", s.Label, p95Label), mark)
@@ -295,7 +295,7 @@ func (f ErrorDist) Plot(caption Caption) (*Chart, error) {
 		step = append(step, plotter.XY{X: edges[0], Y: 0})
 		for i, c := range counts {
 			step = append(step, plotter.XY{X: edges[i], Y: c / total}, plotter.XY{X: edges[i+1], Y: c / total})
-			histTop = math.Max(histTop, c/total)
+			histTop = max(histTop, c/total)
 		}
 		step = append(step, plotter.XY{X: edges[nb], Y: 0})
 		h, err := plotter.NewLine(step)
@@ -441,7 +441,7 @@ func gapBins(longest, step float64) []float64 {
 		return e
 	}
 	steps := math.Round(longest/step) + 1
-	per := math.Max(1, math.Ceil(steps/30))
+	per := max(1, math.Ceil(steps/30))
 	var e []float64
 	for v := 0.5 * step; ; v += per * step {
 		e = append(e, v)
@@ -486,7 +486,7 @@ func (f Gaps) Plot(caption Caption) (*Chart, error) {
 			return nil, fmt.Errorf("plots: gaps: Counts[%d] = %d; a count must be ≥ 1", i, f.Counts[i])
 		}
 	}
-	longest := math.Max(f.LongestS, slices.Max(f.DurationsS))
+	longest := max(f.LongestS, slices.Max(f.DurationsS))
 	edges := gapBins(longest, f.StepS)
 	counts := make([]float64, len(edges)-1)
 	for k, d := range f.DurationsS {
@@ -503,7 +503,7 @@ func (f Gaps) Plot(caption Caption) (*Chart, error) {
 	top := 0.0
 	for i, c := range counts {
 		step = append(step, plotter.XY{X: edges[i], Y: c}, plotter.XY{X: edges[i+1], Y: c})
-		top = math.Max(top, c)
+		top = max(top, c)
 	}
 	step = append(step, plotter.XY{X: edges[len(edges)-1], Y: 0})
 	h, err := plotter.NewLine(step)
@@ -627,14 +627,14 @@ func curves(what, title, xLabel, yLabel string, x []float64, lines []Line) (*plo
 	for _, ln := range lines {
 		for _, v := range ln.Y {
 			if !math.IsNaN(v) && !math.IsInf(v, 0) {
-				lo, hi = math.Min(lo, v), math.Max(hi, v)
+				lo, hi = min(lo, v), max(hi, v)
 			}
 		}
 	}
 	if lo <= hi {
 		r := hi - lo
 		if r == 0 {
-			r = math.Max(math.Abs(hi), 1)
+			r = max(math.Abs(hi), 1)
 		}
 		p.Y.Min = lo - 0.05*r
 		if lo >= 0 {
@@ -678,7 +678,7 @@ func (f BudgetBars) Plot(caption Caption) (*Chart, error) {
 		vals[i] = f.P95Deg[n-1-i]
 		names[i] = f.Labels[n-1-i]
 	}
-	b, err := plotter.NewBarChart(vals, vg.Length(math.Min(40, 260/float64(n))))
+	b, err := plotter.NewBarChart(vals, vg.Length(min(40, 260/float64(n))))
 	if err != nil {
 		return nil, fmt.Errorf("plots: budget: %w", err)
 	}

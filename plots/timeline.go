@@ -102,7 +102,7 @@ func rolling(t, y []float64, use []bool, n int) (tc, lo, mean, hi []float64) {
 			if use != nil && !use[k] {
 				continue
 			}
-			mn, mx, sum = math.Min(mn, y[k]), math.Max(mx, y[k]), sum+y[k]
+			mn, mx, sum = min(mn, y[k]), max(mx, y[k]), sum+y[k]
 			cnt++
 		}
 		tc = append(tc, (a+b)/2)
@@ -499,7 +499,7 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 type integerTicks struct{}
 
 func (integerTicks) Ticks(lo, hi float64) []plot.Tick {
-	step := math.Max(1, math.Ceil((hi-lo)/6))
+	step := max(1, math.Ceil((hi-lo)/6))
 	var ts []plot.Tick
 	for v := math.Ceil(lo); v <= hi; v += step {
 		ts = append(ts, plot.Tick{Value: v, Label: fmt.Sprintf("%.0f", v)})

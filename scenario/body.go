@@ -331,7 +331,7 @@ func exitPoint(b, h r3.Vec) r3.Vec {
 	t := math.Inf(1)
 	for _, c := range [3][2]float64{{b.X, h.X}, {b.Y, h.Y}, {b.Z, h.Z}} {
 		if c[0] != 0 {
-			t = math.Min(t, c[1]/math.Abs(c[0]))
+			t = min(t, c[1]/math.Abs(c[0]))
 		}
 	}
 	return r3.Scale(t, b)

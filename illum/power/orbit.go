@@ -32,7 +32,7 @@ func NewTracker(step, period, duration float64) *Tracker {
 // the last one only up to the run's end (a sample at the end itself counts
 // for nothing), so the average is the energy over the duration.
 func (k *Tracker) Add(t, p float64) {
-	w := math.Max(0, math.Min(k.step, k.duration-t))
+	w := max(0, min(k.step, k.duration-t))
 	if k.period > 0 {
 		if o := int(math.Floor(t / k.period)); o != k.cur {
 			k.closeOrbit()
@@ -41,21 +41,21 @@ func (k *Tracker) Add(t, p float64) {
 	}
 	k.n++
 	k.sum += p * w
-	k.peak = math.Max(k.peak, p)
+	k.peak = max(k.peak, p)
 	k.curJ += p * w
 	switch {
 	case p <= 0 && !k.zero:
 		k.zero, k.zeroStart = true, t
 	case p > 0 && k.zero:
 		k.zero = false
-		k.longestZero = math.Max(k.longestZero, t-k.zeroStart)
+		k.longestZero = max(k.longestZero, t-k.zeroStart)
 	}
 }
 
 func (k *Tracker) closeOrbit() {
 	k.orbits++
 	k.orbitSumJ += k.curJ
-	k.worstJ = math.Min(k.worstJ, k.curJ)
+	k.worstJ = min(k.worstJ, k.curJ)
 	k.perOrbitW = append(k.perOrbitW, k.curJ/k.period)
 }
 
@@ -86,7 +86,7 @@ func (k *Tracker) Finish() Summary {
 		k.closeOrbit()
 	}
 	if k.zero {
-		k.longestZero = math.Max(k.longestZero, k.duration-k.zeroStart)
+		k.longestZero = max(k.longestZero, k.duration-k.zeroStart)
 		k.zero = false
 	}
 	s := Summary{MeanW: math.NaN(), OrbitMeanWh: math.NaN(), OrbitWorstWh: math.NaN(), Orbits: k.orbits,

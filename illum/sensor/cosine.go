@@ -138,8 +138,8 @@ func (c *Cosine) response(cosTheta float64) float64 {
 	if c.rolloff == nil {
 		return cosTheta
 	}
-	th := math.Acos(math.Min(cosTheta, 1))
-	th = math.Min(math.Max(th, c.lo), c.hi)
+	th := math.Acos(min(cosTheta, 1))
+	th = min(max(th, c.lo), c.hi)
 	return cosTheta * c.rolloff.Predict(th)
 }
 

@@ -130,7 +130,7 @@ func (e LeastSquares) Estimate(a *Array, r []Reading) Estimate {
 	out.Signal = sum
 	// Σ(m − n·x)² = Σm² − 2x·Nᵀm + xᵀNᵀNx = Σm² − x·b at the least-squares
 	// solution, where NᵀNx = b (normal equations).
-	out.Residual = math.Sqrt(math.Max(sumSq-r3.Dot(x, b), 0) / float64(n))
+	out.Residual = math.Sqrt(max(sumSq-r3.Dot(x, b), 0) / float64(n))
 	return out
 }
 
@@ -177,7 +177,7 @@ func (OppositePairs) Estimate(a *Array, r []Reading) Estimate {
 	out := unitEstimate(x, n)
 	out.Signal = sum
 	// Residual of the pair differences, as for least squares.
-	out.Residual = math.Sqrt(math.Max(sumSq-r3.Dot(x, b), 0) / float64(len(a.pairs)))
+	out.Residual = math.Sqrt(max(sumSq-r3.Dot(x, b), 0) / float64(len(a.pairs)))
 	return out
 }
 
@@ -276,7 +276,7 @@ func (e Combined) Estimate(a *Array, r []Reading) Estimate {
 		// own misfit beside it.
 		out.Residual = twoAxisResidual(a, r, out.Dir, c.Dir, k)
 		if k > 0 {
-			out.Residual = math.Max(out.Residual, c.Residual)
+			out.Residual = max(out.Residual, c.Residual)
 		}
 	}
 	return out

@@ -192,7 +192,7 @@ func NewQuadrant(s QuadrantSpec) (*Quadrant, error) {
 			s.Name, s.ApertureSide, s.Gap)
 	}
 	if q.tanDead > 0 {
-		q.tanDeadRead = q.invert(math.Min(q.deadX, q.xLin))
+		q.tanDeadRead = q.invert(min(q.deadX, q.xLin))
 	}
 	if q.ValidHalfAngle() == 0 {
 		return nil, fmt.Errorf("sensor: %q: threshold %g is above the cell sum at normal incidence (%.3f of full sun): no reading can be valid; give a lower threshold",
@@ -212,7 +212,7 @@ func (q *Quadrant) nominalSize() float64 {
 
 // builtSize is the nominal size with a build error added, never below 0.
 func (q *Quadrant) builtSize(err float64) float64 {
-	return math.Max(0, q.nominalSize()+err)
+	return max(0, q.nominalSize()+err)
 }
 
 // shape fills the derived geometry: normalisation, dead zone, linear and
@@ -232,8 +232,8 @@ func (q *Quadrant) shape() {
 	}
 	w, g := s.ApertureSide, s.Gap
 	q.norm = w * w
-	q.tanDet = (w/2 + c + g/2) / h           // spot edge leaves the outer cell edge
-	q.tanDead = math.Max(0, (w-2*c-g)/(2*h)) // spot wider than the detector covers it all
+	q.tanDet = (w/2 + c + g/2) / h      // spot edge leaves the outer cell edge
+	q.tanDead = max(0, (w-2*c-g)/(2*h)) // spot wider than the detector covers it all
 	switch {
 	case w <= g: // the spot never straddles the gap: no linear range
 		q.tanLin, q.xLin = 0, 0
@@ -245,7 +245,7 @@ func (q *Quadrant) shape() {
 		// X = (c − l)/(c + l) still rises monotonically to 1 (elementary
 		// geometry): the range is inverted by bisection there.
 		q.tanLin, q.xLin = (w-g)/(2*h), 1
-		q.tanOn = math.Max(0, math.Min((w-g)/2, c+g/2-w/2)/h)
+		q.tanOn = max(0, min((w-g)/2, c+g/2-w/2)/h)
 	}
 }
 
@@ -338,7 +338,7 @@ func (q *Quadrant) DeadZoneImbalance() float64 { return q.deadX }
 
 // overlap is the length of [a0, a1] ∩ [b0, b1].
 func overlap(a0, a1, b0, b1 float64) float64 {
-	return math.Max(0, math.Min(a1, b1)-math.Max(a0, b0))
+	return max(0, min(a1, b1)-max(a0, b0))
 }
 
 // axisLit returns the lit lengths of the negative and positive cells of one
@@ -670,7 +670,7 @@ func (q *Quadrant) decide(out *Reading) {
 			if deadY {
 				e.Y = q.tanDeadRead * d.Z
 			}
-			lo = math.Min(exp, q.sum(e, 0, 0))
+			lo = min(exp, q.sum(e, 0, 0))
 		}
 		if !(exp > 0) || sum < lo*(1-m) || sum > exp*(1+m) {
 			return
@@ -679,7 +679,7 @@ func (q *Quadrant) decide(out *Reading) {
 	out.Dir = q.spec.Mount.ToBody(d)
 	out.Valid = true
 	if deadX || deadY {
-		out.Sigma = math.Max(q.sigma, math.Atan(q.tanDeadRead/math.Sqrt(3)))
+		out.Sigma = max(q.sigma, math.Atan(q.tanDeadRead/math.Sqrt(3)))
 	}
 }
 

@@ -60,7 +60,7 @@ func (m sym3) eigen() (l1, l2, l3 float64) {
 	p2 := (m.xx-q)*(m.xx-q) + (m.yy-q)*(m.yy-q) + (m.zz-q)*(m.zz-q) + 2*p1
 	p := math.Sqrt(p2 / 6)
 	b := sym3{xx: (m.xx - q) / p, xy: m.xy / p, xz: m.xz / p, yy: (m.yy - q) / p, yz: m.yz / p, zz: (m.zz - q) / p}
-	r := math.Max(-1, math.Min(1, b.det()/2))
+	r := max(-1, min(1, b.det()/2))
 	phi := math.Acos(r) / 3
 	l1 = q + 2*p*math.Cos(phi)
 	l3 = q + 2*p*math.Cos(phi+2*math.Pi/3)

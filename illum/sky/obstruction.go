@@ -90,7 +90,7 @@ func (c Cylinder) Blocks(o, d r3.Vec) bool {
 		if t1 > t2 {
 			t1, t2 = t2, t1
 		}
-		lo, hi = math.Max(lo, t1), math.Min(hi, t2)
+		lo, hi = max(lo, t1), min(hi, t2)
 	}
 	// Axial slab: 0 ≤ ws + t·ds ≤ L.
 	if ds == 0 {
@@ -102,7 +102,7 @@ func (c Cylinder) Blocks(o, d r3.Vec) bool {
 		if s1 > s2 {
 			s1, s2 = s2, s1
 		}
-		lo, hi = math.Max(lo, s1), math.Min(hi, s2)
+		lo, hi = max(lo, s1), min(hi, s2)
 	}
 	return lo <= hi
 }
@@ -136,7 +136,7 @@ func (b Box) Blocks(o, d r3.Vec) bool {
 		if t1 > t2 {
 			t1, t2 = t2, t1
 		}
-		lo, hi = math.Max(lo, t1), math.Min(hi, t2)
+		lo, hi = max(lo, t1), min(hi, t2)
 		if lo > hi {
 			return false
 		}

@@ -304,7 +304,7 @@ func New(seed uint64, i int, opt Options) *File {
 	period := 2 * math.Pi * math.Sqrt(aKm*aKm*aKm/muEarth)
 	dur := math.Round(period * d.u(0.5, 2.2))
 	steps := d.u(minSteps, maxSteps)
-	step := math.Max(1, math.Round(dur/steps))
+	step := max(1, math.Round(dur/steps))
 	f.Duration, f.Step = fmt.Sprintf("%.0fs", dur), fmt.Sprintf("%.0fs", step)
 	f.SunModel = d.pick("low-precision", "meeus")
 	f.Shadow = d.pick("conical", "cylindrical")

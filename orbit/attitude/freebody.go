@@ -127,7 +127,7 @@ func NewFreeTumble(q0 r3.Rotation, w0 r3.Vec, J Inertia) (*FreeTumble, error) {
 	q = quat.Scale(1/quat.Abs(q), q)
 	f := &FreeTumble{Q0: r3.Rotation(q), Rate0: w0, J: J, jinv: J.inverse(), h: freeMaxStepS}
 	if w := r3.Norm(w0); w > 0 {
-		f.h = math.Min(freeMaxStepS, freeStepRad/w)
+		f.h = min(freeMaxStepS, freeStepRad/w)
 	}
 	f.cur = freeState{q: q, w: w0}
 	f.checks = []freeState{f.cur}

@@ -52,7 +52,7 @@ func slerp(a, b quat.Number, u float64) quat.Number {
 		q := quat.Add(quat.Scale(1-u, a), quat.Scale(u, b))
 		return quat.Scale(1/quat.Abs(q), q)
 	}
-	θ := math.Acos(math.Min(1, d))
+	θ := math.Acos(min(1, d))
 	s := math.Sin(θ)
 	return quat.Add(quat.Scale(math.Sin((1-u)*θ)/s, a), quat.Scale(math.Sin(u*θ)/s, b))
 }

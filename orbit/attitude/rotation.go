@@ -189,7 +189,7 @@ func ToEuler(seq EulerSequence, a r3.Rotation) (φ1, φ2, φ3 float64) {
 	case Seq321:
 		// C = [[cθcψ, cθsψ, −sθ], [·, ·, sφcθ], [·, ·, cφcθ]]
 		// (Schaub & Junkins 2018, 4th ed., eq. 3.33, from memory).
-		s := math.Max(-1, math.Min(1, -c[0][2]))
+		s := max(-1, min(1, -c[0][2]))
 		φ2 = math.Asin(s)
 		if math.Abs(s) > 1-1e-12 {
 			// Gimbal lock: C₁₀ = −sψ', C₁₁ = cψ' with φ3 = 0.
@@ -199,7 +199,7 @@ func ToEuler(seq EulerSequence, a r3.Rotation) (φ1, φ2, φ3 float64) {
 	case Seq313:
 		// C = [[·, ·, sωsi], [·, ·, cωsi], [sisΩ, −sicΩ, ci]]
 		// (Schaub & Junkins 2018, 4th ed., eq. 3.37, from memory).
-		ci := math.Max(-1, math.Min(1, c[2][2]))
+		ci := max(-1, min(1, c[2][2]))
 		φ2 = math.Acos(ci)
 		if math.Abs(ci) > 1-1e-12 {
 			// Gimbal lock: C₀₀ = cΩ', C₀₁ = sΩ' with φ3 = 0.

@@ -146,7 +146,7 @@ func Build(phases []Phase, lim Limits, env Env) (*Timeline, error) {
 				return nil, fmt.Errorf("phase %d (%s): %w", i, ph.Name, err)
 			}
 			if θ > 1e-9 {
-				end := math.Min(t+T, env.DurationS)
+				end := min(t+T, env.DurationS)
 				b.add(Segment{Start: t, End: end, Phase: len(p.Spans), Kind: Slew, Q: a0, Axis: axis, Angle: θ, Limits: lim})
 				p.Spans = append(p.Spans, Span{Name: "slew to " + ph.Name, Phase: i, Slew: true, Start: t, End: end,
 					Met: end < env.DurationS, SlewAngleRad: θ})
@@ -236,7 +236,7 @@ func (b *builder) end(ph Phase, law attitude.Law, lawStart, t float64) (float64,
 	case EndAfter:
 		return lawStart + ph.End.AfterS, lawStart+ph.End.AfterS <= D
 	case EndRateBelow:
-		e := math.Max(t, lawStart+law.(RateDecayer).TimeToRate(ph.End.RateRadS))
+		e := max(t, lawStart+law.(RateDecayer).TimeToRate(ph.End.RateRadS))
 		return e, e <= D
 	case EndEclipseEntry, EndEclipseExit:
 		for _, s := range b.env.Shadows {
@@ -303,7 +303,7 @@ func (b *builder) fly(span int, law attitude.Law, lawStart, t, end float64, hold
 		if s[1] <= t || s[0] >= end {
 			continue
 		}
-		h0, h1 := math.Max(t, s[0]), math.Min(end, s[1])
+		h0, h1 := max(t, s[0]), min(end, s[1])
 		b.add(Segment{Start: t, End: h0, Phase: span, Kind: Fly, Law: law, LawStart: lawStart})
 		q := law.Attitude(h0-lawStart, b.env.State(h0), b.env.Sun(h0))
 		b.add(Segment{Start: h0, End: h1, Phase: span, Kind: Hold, Q: q})
@@ -318,11 +318,11 @@ func (b *builder) fly(span int, law attitude.Law, lawStart, t, end float64, hold
 		if θ <= 1e-9 {
 			continue
 		}
-		t = math.Min(h1+T, end)
+		t = min(h1+T, end)
 		b.add(Segment{Start: h1, End: t, Phase: span, Kind: Slew, Q: q, Axis: axis, Angle: θ, Limits: b.lim})
 		sp.ReturnSlews++
-		sp.ReturnSlewMaxRad = math.Max(sp.ReturnSlewMaxRad, θ)
-		sp.ReturnSlewMaxS = math.Max(sp.ReturnSlewMaxS, t-h1)
+		sp.ReturnSlewMaxRad = max(sp.ReturnSlewMaxRad, θ)
+		sp.ReturnSlewMaxS = max(sp.ReturnSlewMaxS, t-h1)
 	}
 	b.add(Segment{Start: t, End: end, Phase: span, Kind: Fly, Law: law, LawStart: lawStart})
 	return nil

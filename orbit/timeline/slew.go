@@ -34,7 +34,7 @@ func (l Limits) AngleAt(θ, t float64) float64 {
 		return θ
 	}
 	α := l.AccelRadS2
-	ta := math.Min(l.RateRadS/α, T/2) // end of the acceleration arc
+	ta := min(l.RateRadS/α, T/2) // end of the acceleration arc
 	switch {
 	case t <= ta:
 		return 0.5 * α * t * t

@@ -3,7 +3,6 @@ package budget
 import (
 	"context"
 	"fmt"
-	"math"
 )
 
 // MaxTemperatureOffsetC bounds the temperature search either side of the
@@ -86,7 +85,7 @@ func FindTemperatureRange(ctx context.Context, run RunFunc, base Case, target fl
 			}
 			ok, fOK = k, f
 		}
-		return sign * math.Min(ok, MaxTemperatureOffsetC), fOK, false, nil
+		return sign * min(ok, MaxTemperatureOffsetC), fOK, false, nil
 	}
 	if r.HighC, r.AtHighDeg, r.HighBounded, err = side(1); err != nil {
 		return r, err

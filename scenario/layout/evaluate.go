@@ -67,7 +67,7 @@ func Evaluator(ctx context.Context, s *scenario.Scenario) (EvaluateFunc, error) 
 					continue
 				}
 				sc.Meets = sc.Meets && c.Pass
-				sc.Margin = math.Min(sc.Margin, c.Margin)
+				sc.Margin = min(sc.Margin, c.Margin)
 			}
 			detail = append(detail, fmt.Sprintf("%s: valid %.3f, p95 %.2f°, gap %.0f s", m.Name, h.ValidFraction, p95, h.LongestGapS))
 		}

@@ -77,7 +77,7 @@ func Request(s *scenario.Scenario, cfg *sim.Config, names []string) error {
 		cfg.SunTrackPoints = sunTrackPoints
 	}
 	if slices.Contains(names, FigTimeline) || slices.Contains(names, FigPower) {
-		span := math.Min(TimelineOrbits*periodOf(*cfg), cfg.Duration)
+		span := min(TimelineOrbits*periodOf(*cfg), cfg.Duration)
 		cfg.TimelineSpan = span
 		cfg.TimelineStride = max(1, int(math.Ceil(span/cfg.Step/timelinePoints)))
 		if study.TimelineOf(*cfg) != nil {
@@ -300,8 +300,8 @@ func peakOf(ys []float64) float64 {
 func yearTells(y plots.YearView) string {
 	lo, hi, ecl, free := math.Inf(1), math.Inf(-1), 0.0, 0
 	for i := range y.Day {
-		lo, hi = math.Min(lo, y.BetaDeg[i]), math.Max(hi, y.BetaDeg[i])
-		ecl = math.Max(ecl, y.EclipseMin[i])
+		lo, hi = min(lo, y.BetaDeg[i]), max(hi, y.BetaDeg[i])
+		ecl = max(ecl, y.EclipseMin[i])
 		if y.EclipseFree[i] {
 			free++
 		}
@@ -389,7 +389,7 @@ func degOf(rad float64) float64 { return rad * 180 / math.Pi }
 // +Z) of a direction, deg.
 func azEl(v r3.Vec) (az, el float64) {
 	u := r3.Unit(v)
-	return degOf(math.Atan2(u.Y, u.X)), degOf(math.Asin(math.Max(-1, math.Min(1, u.Z))))
+	return degOf(math.Atan2(u.Y, u.X)), degOf(math.Asin(max(-1, min(1, u.Z))))
 }
 
 func skyMap(s *scenario.Scenario, cfg sim.Config, res *sim.Result) (plots.SkyMap, error) {
@@ -438,7 +438,7 @@ func earthRadiusDeg(cfg sim.Config) float64 {
 	st := cfg.NewPropagator().StateAt(0)
 	r, v := r3.Norm(st.R), r3.Norm(st.V)
 	a := 1 / (2/r - v*v/orbit.MuEarth)
-	return degOf(math.Asin(math.Min(1, orbit.RadiusEarthKm/a)))
+	return degOf(math.Asin(min(1, orbit.RadiusEarthKm/a)))
 }
 
 // skyTells is the sky map's message with the run's numbers.

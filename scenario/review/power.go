@@ -40,7 +40,7 @@ func powerView(cfg sim.Config, res *sim.Result) (plots.PowerView, bool, error) {
 	}
 	// The first orbits, also when a mission timeline has the run keep its
 	// whole span.
-	span := math.Min(TimelineOrbits*periodOf(cfg), cfg.Duration)
+	span := min(TimelineOrbits*periodOf(cfg), cfg.Duration)
 	var v plots.PowerView
 	for i, t := range ser.T {
 		if t > span {
@@ -58,7 +58,7 @@ func powerView(cfg sim.Config, res *sim.Result) (plots.PowerView, bool, error) {
 // [0, end] s.
 func shadowSpans(eclipses []illum.Eclipse, end float64) (umbra, penumbra []plots.Interval) {
 	clip := func(a, b float64) (plots.Interval, bool) {
-		a, b = math.Max(a, 0), math.Min(b, end)
+		a, b = max(a, 0), min(b, end)
 		return plots.Interval{Start: a, End: b}, b > a
 	}
 	for _, e := range eclipses {
@@ -87,7 +87,7 @@ func powerTells(res *sim.Result, tg *plots.Target) string {
 	if len(p.PerOrbitW) > 0 {
 		lo := math.Inf(1)
 		for _, w := range p.PerOrbitW {
-			lo = math.Min(lo, w)
+			lo = min(lo, w)
 		}
 		t += fmt.Sprintf("; the worst whole orbit averages %.1f W (%.1f Wh)", lo, p.OrbitWorstWh)
 	}

@@ -127,7 +127,7 @@ func Eclipses(s *scenario.Scenario, spanS, aboveS float64) (Distribution, error)
 		d.PerOrbit = append(d.PerOrbit, o)
 	}
 	for _, o := range d.PerOrbit {
-		d.LongestS = math.Max(d.LongestS, o.ShadowS)
+		d.LongestS = max(d.LongestS, o.ShadowS)
 	}
 	d.BinS = binWidthsS[len(binWidthsS)-1]
 	for _, w := range binWidthsS {

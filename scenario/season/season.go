@@ -249,7 +249,7 @@ func Run(ctx context.Context, s *scenario.Scenario, opt Options, progress func(d
 	last := opt.SpanS - opt.CaseS // the last start that keeps a case inside the span
 	var offs []float64
 	for k := range opt.Cases {
-		if off := math.Min(float64(k)*Δ, last); !seen(off, offs) {
+		if off := min(float64(k)*Δ, last); !seen(off, offs) {
 			offs = append(offs, off)
 		}
 	}

@@ -79,8 +79,8 @@ func (m *Moments) Merge(o *Moments) {
 	m.s1 += o.s1 + n2*δ
 	m.sumSq += o.sumSq
 	m.N += o.N
-	m.Min = math.Min(m.Min, o.Min)
-	m.Max = math.Max(m.Max, o.Max)
+	m.Min = min(m.Min, o.Min)
+	m.Max = max(m.Max, o.Max)
 }
 
 // Quantile histogram: bins are read off the bits of the float64 itself
@@ -175,7 +175,7 @@ func (q *Quantiles) Quantile(p float64) float64 {
 	for i := q.lo; i <= q.hi; i++ {
 		cum += q.counts[i]
 		if cum >= rank {
-			return math.Min(binCentre(i), q.max)
+			return min(binCentre(i), q.max)
 		}
 	}
 	return q.max
@@ -195,7 +195,7 @@ func (q *Quantiles) Merge(o *Quantiles) {
 	}
 	q.lo, q.hi = min(q.lo, o.lo), max(q.hi, o.hi)
 	q.n += o.n
-	q.max = math.Max(q.max, o.max)
+	q.max = max(q.max, o.max)
 }
 
 // binPool recycles the bin arrays of accumulators already merged into

@@ -213,7 +213,7 @@ func cosineSigma(e sensor.Errors, extra float64) float64 {
 		q := e.FullScale / float64(uint64(1)<<e.ADCBits)
 		v += q * q / 12
 	}
-	return math.Max(math.Sqrt(v), 1e-4)
+	return max(math.Sqrt(v), 1e-4)
 }
 
 // step advances the filter to step k and folds it in: gyro propagation
@@ -224,7 +224,7 @@ func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estim
 	if g.started {
 		dt := sg.t - g.prevT
 		th := filter.DeltaAngle(g.prev, sg.body)
-		g.maxTurn = math.Max(g.maxTurn, vecmath.Norm(th))
+		g.maxTurn = max(g.maxTurn, vecmath.Norm(th))
 		g.f.Propagate(g.gyro.Measure(th, dt, g.rng), dt)
 	}
 	g.prev, g.prevT, g.started = sg.body, sg.t, true
@@ -283,7 +283,7 @@ func (g *gyroFilter) step(sg *stepGeom, read []sensor.Reading, prim sensor.Estim
 	case !prim.Valid && g.inOutage:
 		if !g.broken && !(errDeg <= g.cfg.HoldBoundDeg) {
 			g.broken = true
-			g.shortestBreak = math.Min(g.shortestBreak, sg.t-g.outStart)
+			g.shortestBreak = min(g.shortestBreak, sg.t-g.outStart)
 		}
 	case g.inOutage:
 		g.closeOutage(sg.t)
@@ -326,7 +326,7 @@ func (g *gyroFilter) closeOutage(t float64) {
 	g.inOutage = false
 	if !g.broken {
 		g.held++
-		g.longestHeld = math.Max(g.longestHeld, t-g.outStart)
+		g.longestHeld = max(g.longestHeld, t-g.outStart)
 	}
 }
 

@@ -524,7 +524,7 @@ func (s *Series) add(t float64, region illum.Region, lit float64, seen int, vali
 	s.ErrCorrDeg = append(s.ErrCorrDeg, errCorrDeg)
 	s.BetaDeg = append(s.BetaDeg, degOf(math.Asin(sinBeta)))
 	s.SunBodyAz = append(s.SunBodyAz, degOf(math.Atan2(sunBody.Y, sunBody.X)))
-	s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(math.Max(-1, math.Min(1, sunBody.Z)))))
+	s.SunBodyEl = append(s.SunBodyEl, degOf(math.Asin(max(-1, min(1, sunBody.Z)))))
 	for i := range real {
 		s.Signal = append(s.Signal, real[i].Signal)
 	}
@@ -618,15 +618,15 @@ func (a *unitAcc) merge(b *unitAcc) {
 		a.moonInView[i] += b.moonInView[i]
 		a.litEarthInView[i] += b.litEarthInView[i]
 		a.blinded[i] += b.blinded[i]
-		a.peak[i] = math.Max(a.peak[i], b.peak[i])
+		a.peak[i] = max(a.peak[i], b.peak[i])
 		a.saturated[i] += b.saturated[i]
 		a.falseSunSensor[i] += b.falseSunSensor[i]
 		a.sensorAlbedoOnly[i] += b.sensorAlbedoOnly[i]
 		a.sensorWrong[i] += b.sensorWrong[i]
 	}
 	a.falseSunAny += b.falseSunAny
-	a.betaMin = math.Min(a.betaMin, b.betaMin)
-	a.betaMax = math.Max(a.betaMax, b.betaMax)
+	a.betaMin = min(a.betaMin, b.betaMin)
+	a.betaMax = max(a.betaMax, b.betaMax)
 	for j := range a.est {
 		x, y := &a.est[j], &b.est[j]
 		x.validAlb += y.validAlb
@@ -770,7 +770,7 @@ func acrossUnits(units []*UnitResult) []AcrossUnits {
 			if math.IsNaN(p) {
 				au.UnitsWithoutEstimate++
 			}
-			au.MinValidFraction = math.Min(au.MinValidFraction, e.ValidFraction)
+			au.MinValidFraction = min(au.MinValidFraction, e.ValidFraction)
 			if e.FalseSunFraction > 0 {
 				au.UnitsWithFalseSun++
 			}

@@ -111,7 +111,7 @@ func Derive(s *scenario.Scenario, p *Plan) (Derived, error) {
 	n := betaSamples
 	dt := cfg.Duration / float64(n-1)
 	if dt < 600 {
-		dt = math.Max(600, cfg.Step)
+		dt = max(600, cfg.Step)
 		n = int(cfg.Duration/dt) + 2
 	}
 	d.BetaSampleS = dt
@@ -119,11 +119,11 @@ func Derive(s *scenario.Scenario, p *Plan) (Derived, error) {
 	jd0 := ephem.JulianDateTT(cfg.Epoch)
 	d.BetaMinDeg, d.BetaMaxDeg = math.Inf(1), math.Inf(-1)
 	for k := range n {
-		t := math.Min(float64(k)*dt, cfg.Duration)
+		t := min(float64(k)*dt, cfg.Duration)
 		st := prop.StateAt(t)
 		u, _ := cfg.Sun.Position(jd0 + t/86400)
-		β := math.Asin(math.Max(-1, math.Min(1, r3.Cos(r3.Cross(st.R, st.V), u)))) * 180 / math.Pi
-		d.BetaMinDeg, d.BetaMaxDeg = math.Min(d.BetaMinDeg, β), math.Max(d.BetaMaxDeg, β)
+		β := math.Asin(max(-1, min(1, r3.Cos(r3.Cross(st.R, st.V), u)))) * 180 / math.Pi
+		d.BetaMinDeg, d.BetaMaxDeg = min(d.BetaMinDeg, β), max(d.BetaMaxDeg, β)
 	}
 	d.MemoryBytes = MemoryEstimate(cfg, 0)
 	if nm := s.Targets.NMinus1; nm.Set {

@@ -44,7 +44,7 @@ func Warnings(s *scenario.Scenario, res *sim.Result) []string {
 		}
 	}
 	if t := s.Orbit.TLE; s.Orbit.Kind == scenario.OrbitTLE && t != nil {
-		age := math.Max(math.Abs(s.Epoch.Sub(t.Epoch).Hours()), math.Abs(end.Sub(t.Epoch).Hours())) / 24
+		age := max(math.Abs(s.Epoch.Sub(t.Epoch).Hours()), math.Abs(end.Sub(t.Epoch).Hours())) / 24
 		if age > MaxTLEAgeDays {
 			out = append(out, fmt.Sprintf("the TLE's epoch %s is %.0f days from the run (more than %d): its elements are carried with secular J2 only, so the orbit's phase and the eclipse times are uncertain by minutes or more; use a TLE near the run",
 				t.Epoch.Format(time.RFC3339), age, MaxTLEAgeDays))

@@ -278,7 +278,7 @@ func (f *Filter) Sigma() float64 {
 	}
 	u := r3.Scale(1/math.Sqrt(l2), f.s)
 	tr := f.p[0][0] + f.p[1][1] + f.p[2][2]
-	return math.Sqrt(math.Max(tr-quad3(&f.p, u), 0) / l2)
+	return math.Sqrt(max(tr-quad3(&f.p, u), 0) / l2)
 }
 
 // Valid reports whether the estimate counts: started and Sigma ≤ MaxSigma.

@@ -144,6 +144,30 @@ func (b Box) Blocks(o, d r3.Vec) bool {
 	return true
 }
 
+// ClearAbove reports whether Blocks(o, d) is false, as computed, for every
+// direction d with d·n > 0: n is exactly an outward axis normal of the box
+// (one component ±1, the others 0) and o lies exactly on that face's plane
+// (o − Centre equals ±Half along that axis, bit for bit). Then the face's
+// slab interval, computed in Blocks, ends at t = ±0 < rayEps, so the
+// intersection is empty whatever the other axes give (closed form). The
+// step loop drops such a box from a sensor's obstruction test: a sensor on
+// the bus looking out of its face, whose mounting plane already hides
+// every direction with d·n ≤ FacePlaneMargin.
+func (b Box) ClearAbove(o, n r3.Vec) bool {
+	on := func(p, c, h, ni float64) bool {
+		return ni == 1 && p-c == h || ni == -1 && p-c == -h
+	}
+	switch {
+	case n.Y == 0 && n.Z == 0:
+		return on(o.X, b.Centre.X, b.Half.X, n.X)
+	case n.X == 0 && n.Z == 0:
+		return on(o.Y, b.Centre.Y, b.Half.Y, n.Y)
+	case n.X == 0 && n.Y == 0:
+		return on(o.Z, b.Centre.Z, b.Half.Z, n.Z)
+	}
+	return false
+}
+
 // Obstructed is a Viewer mounted at Position (body frame) on a surface of
 // outward normal Face, whose view is blocked by Obstacles. A direction at
 // or behind the mounting plane (d·Face ≤ FacePlaneMargin) is never seen, whatever the

@@ -2,6 +2,7 @@ package sky
 
 import (
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -161,5 +162,57 @@ func TestObstructedFacePlane(t *testing.T) {
 	}
 	if v.Sees(r3.Vec{X: 1}) {
 		t.Error("a direction in the mounting plane is seen")
+	}
+}
+
+// TestBoxClearAboveNeverBlocks: from a point exactly on a box face, no
+// direction out of that face is blocked by the box as Blocks computes it,
+// for boxes of every size (flat ones too), points across and beyond the
+// face, and directions down to grazing ones (closed form: the face's slab
+// interval ends at t = ±0); a point just inside the plane, or a tilted
+// normal, is not claimed clear.
+func TestBoxClearAboveNeverBlocks(t *testing.T) {
+	rng := rand.New(rand.NewPCG(31, 32))
+	axes := []r3.Vec{{X: 1}, {X: -1}, {Y: 1}, {Y: -1}, {Z: 1}, {Z: -1}}
+	comp := func(v r3.Vec, k int) *float64 { return [3]*float64{&v.X, &v.Y, &v.Z}[k] }
+	for trial := range 2000 {
+		size := r3.Vec{X: 0.1 + 0.3*rng.Float64(), Y: 0.1 * float64(rng.IntN(4)), Z: 0.34}
+		b := Box{Centre: r3.Vec{X: rng.NormFloat64() * 0.01, Z: 0.05 * float64(trial%3)}, Half: r3.Scale(0.5, size)}
+		n := axes[trial%6]
+		k := (trial % 6) / 2
+		sign := n.X + n.Y + n.Z
+		o := r3.Add(b.Centre, r3.Vec{X: (rng.Float64()*3 - 1.5) * b.Half.X, Y: (rng.Float64()*3 - 1.5) * b.Half.Y, Z: (rng.Float64()*3 - 1.5) * b.Half.Z})
+		p := &o
+		*[3]*float64{&p.X, &p.Y, &p.Z}[k] = *comp(b.Centre, k) + sign**comp(b.Half, k)
+		if *comp(o, k)-*comp(b.Centre, k) != sign**comp(b.Half, k) {
+			continue // the sum did not round back: not on the plane as computed
+		}
+		if !b.ClearAbove(o, n) {
+			t.Fatalf("box %v, point %v on face %v: not clear", b, o, n)
+		}
+		for j := range 200 {
+			d := r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()})
+			if j%4 == 0 { // grazing: d·n a few ulps to 1e-6 above zero
+				*[3]*float64{&d.X, &d.Y, &d.Z}[k] = sign * math.Ldexp(1, -rng.IntN(1000)-20)
+			}
+			if !(r3.Dot(d, n) > 0) {
+				continue
+			}
+			if b.Blocks(o, d) {
+				t.Fatalf("box %v, point %v on face %v: direction %v blocked", b, o, n, d)
+			}
+		}
+		off := o
+		q := &off
+		c := [3]*float64{&q.X, &q.Y, &q.Z}[k]
+		for *c-*comp(b.Centre, k) == sign**comp(b.Half, k) { // ulps inside until off the plane as computed
+			*c = math.Nextafter(*c, math.Inf(-1)*sign)
+		}
+		if b.ClearAbove(off, n) {
+			t.Fatalf("box %v, point %v just inside face %v: claimed clear", b, off, n)
+		}
+		if b.ClearAbove(o, r3.Unit(r3.Add(n, r3.Vec{X: 1e-3, Y: 1e-3, Z: 1e-3}))) {
+			t.Fatalf("box %v, point %v: tilted normal claimed clear", b, o)
+		}
 	}
 }

@@ -354,7 +354,7 @@ func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 		switch {
 		case cfg.Viewers == nil:
 			w.sees = append(w.sees, s.SeesSun)
-		case o != nil && cut > -2 && len(o.Obstacles) == 0 && inFront(w.cone[i].Axis, o.Face, cut):
+		case o != nil && cut > -2 && !mayBlock(o) && inFront(w.cone[i].Axis, o.Face, cut):
 			// Asked only inside the cone, which lies wholly above the
 			// mounting plane: Hidden is false wherever Sees is asked.
 			w.sees = append(w.sees, o.View.Sees)
@@ -499,7 +499,7 @@ func (w *viewer) bodiesInCones(v *stepView, b *sensor.Bodies) {
 // step.
 type hider struct {
 	o        *sky.Obstructed // nil: nothing ever hides
-	faceOnly bool            // o has no obstacles: only its mounting plane
+	faceOnly bool            // no obstacle of o may block (mayBlock): only its mounting plane
 	face     r3.Vec          // o.Face
 }
 
@@ -507,7 +507,19 @@ func newHider(o *sky.Obstructed) hider {
 	if o == nil {
 		return hider{}
 	}
-	return hider{o: o, faceOnly: len(o.Obstacles) == 0, face: o.Face}
+	return hider{o: o, faceOnly: !mayBlock(o), face: o.Face}
+}
+
+// mayBlock reports whether an obstacle of o may hide a direction above
+// o's mounting plane: false when o has none but boxes whose face o sits on,
+// looking out of it (sky.Box.ClearAbove), such as a sensor on the bus.
+func mayBlock(o *sky.Obstructed) bool {
+	for _, ob := range o.Obstacles {
+		if b, ok := ob.(sky.Box); !ok || !b.ClearAbove(o.Position, o.Face) {
+			return true
+		}
+	}
+	return false
 }
 
 // hidden is o.Hidden(d); false without o.

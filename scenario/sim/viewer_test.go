@@ -25,6 +25,7 @@ func TestViewerObstructionTestsAreHidden(t *testing.T) {
 		return r3.Unit(r3.Vec{X: rng.NormFloat64(), Y: rng.NormFloat64(), Z: rng.NormFloat64()})
 	}
 	box := []sky.Obstacle{sky.Box{Centre: r3.Vec{Z: -0.05}, Half: r3.Vec{X: 0.05, Y: 0.05, Z: 0.05}}}
+	beside := []sky.Obstacle{box[0], sky.Box{Centre: r3.Vec{X: 0.1, Z: 0.05}, Half: r3.Vec{X: 0.03, Y: 0.03, Z: 0.03}}}
 	type mount = viewerMount
 	tilt := func(deg float64) r3.Vec {
 		return r3.Vec{X: math.Sin(deg * math.Pi / 180), Z: math.Cos(deg * math.Pi / 180)}
@@ -36,7 +37,8 @@ func TestViewerObstructionTestsAreHidden(t *testing.T) {
 		{bore: tilt(30), face: r3.Vec{Z: 1}, halfDeg: 60},                     // edge on the plane
 		{bore: tilt(29.99), face: r3.Vec{Z: 1}, halfDeg: 60},                  // edge 0.01° above: within the margin
 		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 89.99},              // nearly flat
-		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 60, obstacles: box}, // an obstacle
+		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 60, obstacles: box, short: true}, // on the box's face
+		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 80, obstacles: beside},           // a box beside it
 		{bore: unit(), halfDeg: 70, short: true},                              // no plane
 	}
 	var ss []sensor.Sensor
@@ -90,7 +92,7 @@ func checkViewer(t *testing.T, rng *rand.Rand, cfg *Config, mounts []viewerMount
 		}
 	}
 	for i, m := range mounts {
-		short := len(m.obstacles) == 0 && inFront(vw.cone[i].Axis, m.face, vw.outside[i])
+		short := !mayBlock(cfg.Viewers[i].(*sky.Obstructed)) && inFront(vw.cone[i].Axis, m.face, vw.outside[i])
 		if short != m.short {
 			t.Errorf("sensor %d: short path %v, want %v", i, short, m.short)
 		}

@@ -32,14 +32,14 @@ func TestViewerObstructionTestsAreHidden(t *testing.T) {
 	}
 	mounts := []mount{
 		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 60, short: true},
-		{bore: tilt(20), face: r3.Vec{Z: 1}, halfDeg: 60, short: true},        // edge 10° above the plane
-		{bore: tilt(40), face: r3.Vec{Z: 1}, halfDeg: 60},                     // across the plane
-		{bore: tilt(30), face: r3.Vec{Z: 1}, halfDeg: 60},                     // edge on the plane
-		{bore: tilt(29.99), face: r3.Vec{Z: 1}, halfDeg: 60},                  // edge 0.01° above: within the margin
-		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 89.99},              // nearly flat
+		{bore: tilt(20), face: r3.Vec{Z: 1}, halfDeg: 60, short: true},                     // edge 10° above the plane
+		{bore: tilt(40), face: r3.Vec{Z: 1}, halfDeg: 60},                                  // across the plane
+		{bore: tilt(30), face: r3.Vec{Z: 1}, halfDeg: 60},                                  // edge on the plane
+		{bore: tilt(29.99), face: r3.Vec{Z: 1}, halfDeg: 60},                               // edge 0.01° above: within the margin
+		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 89.99},                           // nearly flat
 		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 60, obstacles: box, short: true}, // on the box's face
 		{bore: r3.Vec{Z: 1}, face: r3.Vec{Z: 1}, halfDeg: 80, obstacles: beside},           // a box beside it
-		{bore: unit(), halfDeg: 70, short: true},                              // no plane
+		{bore: unit(), halfDeg: 70, short: true},                                           // no plane
 	}
 	var ss []sensor.Sensor
 	for i, m := range mounts {

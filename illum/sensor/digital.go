@@ -7,6 +7,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"codeberg.org/sunsight/sunsight/internal/numtext"
 	"codeberg.org/sunsight/sunsight/internal/vecmath"
 )
 
@@ -68,7 +69,7 @@ func NewDigital(s DigitalSpec) (*Digital, error) {
 		return nil, err
 	}
 	if !(s.HalfAngle > 0 && s.HalfAngle < math.Pi/2) {
-		return nil, fmt.Errorf("sensor: %q: half-angle %g° is out of range; allowed (0°, 90°) for a digital sensor (its detector sits behind the aperture)", s.Name, s.HalfAngle*180/math.Pi)
+		return nil, fmt.Errorf("sensor: %q: half-angle %s° is out of range; allowed (0°, 90°) for a digital sensor (its detector sits behind the aperture)", s.Name, numtext.Format(s.HalfAngle*180/math.Pi))
 	}
 	for _, f := range []struct {
 		key string
@@ -82,11 +83,11 @@ func NewDigital(s DigitalSpec) (*Digital, error) {
 		return nil, fmt.Errorf("sensor: %q: sigma = 0: state the 1σ accuracy per axis (rad, > 0)", s.Name)
 	}
 	if b := s.Blind; b.Moon && !(b.MoonLitAbove >= 0 && b.MoonLitAbove < 1) || b.Earth && !(b.EarthDepthAbove >= 0 && b.EarthDepthAbove < math.Pi) {
-		return nil, fmt.Errorf("sensor: %q: blinding thresholds: Moon lit fraction %g want [0, 1), Earth depth %g° want [0°, 180°)", s.Name, b.MoonLitAbove, b.EarthDepthAbove*180/math.Pi)
+		return nil, fmt.Errorf("sensor: %q: blinding thresholds: Moon lit fraction %g want [0, 1), Earth depth %s° want [0°, 180°)", s.Name, b.MoonLitAbove, numtext.Format(b.EarthDepthAbove*180/math.Pi))
 	}
 	if b := s.Blind; b.Earth && b.EarthDepthAbove >= s.HalfAngle+math.Pi/2-1e-9 {
-		return nil, fmt.Errorf("sensor: %q: lit_earth_blind_depth_deg %g° can never act: the Earth's disc reaches at most the half angle plus its angular radius (below 90°) inside the cone, under %.4g° here; give a smaller depth, or 180 to turn the rule off",
-			s.Name, b.EarthDepthAbove*180/math.Pi, (s.HalfAngle+math.Pi/2)*180/math.Pi)
+		return nil, fmt.Errorf("sensor: %q: lit_earth_blind_depth_deg %s° can never act: the Earth's disc reaches at most the half angle plus its angular radius (below 90°) inside the cone, under %.4g° here; give a smaller depth, or 180 to turn the rule off",
+			s.Name, numtext.Format(b.EarthDepthAbove*180/math.Pi), (s.HalfAngle+math.Pi/2)*180/math.Pi)
 	}
 	return &Digital{spec: s, tanMax: math.Tan(s.HalfAngle), cosMax: math.Cos(s.HalfAngle), actual: s.Mount}, nil
 }

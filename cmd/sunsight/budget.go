@@ -33,7 +33,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	out := fs.String("out", "", "folder for the figures (`DIR`; PNG and SVG); none when empty")
 	target := fs.Float64("tolerance-target", 0, "p95 target (`DEG`) for the tolerances; 0 = budget.tolerance_deg, else targets.max_error_p95_deg")
 	asJSON := fs.Bool("json", false, "print the budget as JSON")
-	force := fs.Bool("force", false, "replace an earlier --out folder")
+	force := fs.Bool("force", false, "replace an earlier --out folder or --cpuprofile file")
 	full := fs.Bool("full", false, "simulate the scenario's whole duration instead of at most 6 h")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	fs.pathFlags(false, "out", "cpuprofile")
@@ -63,7 +63,7 @@ func runBudget(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	stopProf, err := startCPUProfile(*cpuProf)
+	stopProf, err := startCPUProfile(*cpuProf, force)
 	if err != nil {
 		return err
 	}

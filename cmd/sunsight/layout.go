@@ -32,7 +32,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	top := fs.Int("top", 5, "ranked alternatives to report (`K`)")
 	out := fs.String("out", "", "folder for layout.json (`DIR`, optional)")
 	maxRuns := fs.Int("max-runs", 0, "stop after `N` time simulations (0 = no limit; stopped before any subset meets the targets: exit 1, not a proof)")
-	force := fs.Bool("force", false, "replace an earlier --out folder")
+	force := fs.Bool("force", false, "replace an earlier --out folder or --cpuprofile file")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	fs.pathFlags(false, "out", "cpuprofile")
 	pos, err := fs.parse(args, stdout)
@@ -68,7 +68,7 @@ func runLayout(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return usageError{err}
 	}
-	stopProf, err := startCPUProfile(*cpuProf)
+	stopProf, err := startCPUProfile(*cpuProf, force)
 	if err != nil {
 		return err
 	}

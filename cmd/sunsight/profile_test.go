@@ -81,3 +81,46 @@ func TestSeasonLayoutCPUProfile(t *testing.T) {
 		}
 	}
 }
+
+// An existing file given to --cpuprofile is left as it was and the command
+// refused with exit 2 (the same rule as every other output file); run
+// replaces it with --force; sweep, which has no --force, does not offer it.
+func TestCPUProfileKeepsAnExistingFile(t *testing.T) {
+	dir := t.TempDir()
+	prof := filepath.Join(dir, "mine.yaml")
+	const mine = "a file of the user's\n"
+	if err := os.WriteFile(prof, []byte(mine), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	scen := "../../examples/nadir-6u-sso.yaml"
+	var out, errb bytes.Buffer
+	if code := runMain([]string{"run", "-quiet", "-duration", "1h", "-cpuprofile", prof, scen}, &out, &errb); code != 2 {
+		t.Fatalf("existing profile path: exit %d, want 2", code)
+	}
+	if msg := errb.String(); !strings.Contains(msg, "--cpuprofile") || !strings.Contains(msg, "--force") {
+		t.Errorf("message lacks the flag or the fix: %s", msg)
+	}
+	if b, _ := os.ReadFile(prof); string(b) != mine {
+		t.Fatalf("the existing file was changed: %q", b)
+	}
+	errb.Reset()
+	if code := runMain([]string{"sweep", scen, "--vary", "orbit.altitude_km=500,600", "--vary", "duration=1h", "--quiet", "--out", filepath.Join(dir, "sw"), "--cpuprofile", prof}, &out, &errb); code != 2 {
+		t.Fatalf("sweep, existing profile path: exit %d, want 2: %s", code, errb.String())
+	}
+	if msg := errb.String(); !strings.Contains(msg, "--cpuprofile") || strings.Contains(msg, "--force") {
+		t.Errorf("sweep message names the flag and no --force: %s", msg)
+	}
+	if b, _ := os.ReadFile(prof); string(b) != mine {
+		t.Fatalf("sweep changed the existing file: %q", b)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "sw")); err == nil {
+		t.Error("the refused sweep left its --out folder")
+	}
+	errb.Reset()
+	if code := runMain([]string{"run", "-quiet", "-duration", "1h", "-force", "-cpuprofile", prof, scen}, &out, &errb); code != 0 && code != 3 {
+		t.Fatalf("--force: exit %d: %s", code, errb.String())
+	}
+	if b, _ := os.ReadFile(prof); string(b) == mine || len(b) == 0 {
+		t.Fatal("--force did not replace the file with a profile")
+	}
+}

@@ -55,7 +55,7 @@ func runFlagSet(f *runFlags) *flagSet {
 	fs.IntVar(&f.units, "units", 0, "simulated sensor units for the Monte Carlo (`N`; 0 = the scenario's monte_carlo.units)")
 	fs.IntVar(&f.workers, "workers", 0, "parallel units (`N`; 0 = all cores)")
 	fs.BoolVar(&f.quiet, "quiet", false, "no progress display")
-	fs.BoolVar(&f.force, "force", false, "replace an earlier --csv or --plots folder or --report file")
+	fs.BoolVar(&f.force, "force", false, "replace an earlier --csv or --plots folder, --report or --cpuprofile file")
 	fs.BoolVar(&f.allUnits, "all-units", false, "write every Monte Carlo unit into the --csv tables (default: the nominal unit 0)")
 	fs.IntVar(&f.maxMemMiB, "max-memory-mib", defaultMaxMemoryMiB, "refuse a run whose estimated memory exceeds `MIB`")
 	fs.StringVar(&f.duration, "duration", "", "override the scenario duration (`SPAN`, e.g. 6h, 30d)")
@@ -198,7 +198,7 @@ func runRun(args []string, stdout, stderr io.Writer) error {
 	defer stop()
 	prog := newProgress(stderr, f.quiet, cfg.Steps(), s.Name)
 	cfg.Progress = prog.update
-	stopProf, err := startCPUProfile(f.cpuProf)
+	stopProf, err := startCPUProfile(f.cpuProf, &f.force)
 	if err != nil {
 		return err
 	}

@@ -46,7 +46,7 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	asJSON := fs.Bool("json", false, "print the study as JSON")
 	csvDir := fs.String("csv", "", "folder for season_cases.csv and eclipse_months.csv (`DIR`)")
 	plotsDir := fs.String("plots", "", "folder for the figures (`DIR`; PNG and SVG)")
-	force := fs.Bool("force", false, "replace earlier output folders")
+	force := fs.Bool("force", false, "replace earlier output folders or a --cpuprofile file")
 	quiet := fs.Bool("quiet", false, "no progress on stderr")
 	cpuProf := fs.String("cpuprofile", "", cpuProfileUsage)
 	fs.pathFlags(false, "csv", "plots", "cpuprofile")
@@ -78,7 +78,7 @@ func runSeason(args []string, stdout, stderr io.Writer) error {
 	if _, err := season.CaseScenario(s, 0, opt.CaseS); err != nil {
 		return usageError{fmt.Errorf("%s: %w", describeFile(pos[0]), err)}
 	}
-	stopProf, err := startCPUProfile(*cpuProf)
+	stopProf, err := startCPUProfile(*cpuProf, force)
 	if err != nil {
 		return err
 	}

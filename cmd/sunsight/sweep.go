@@ -83,7 +83,7 @@ func runSweep(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return usageError{scenarioError(describeFile(pos[0]), err)}
 	}
-	stopProf, err := startCPUProfile(*cpuProf)
+	stopProf, err := startCPUProfile(*cpuProf, nil)
 	if err != nil {
 		return err
 	}

@@ -636,3 +636,24 @@ func TestErrorDistUsesTheRunsP95(t *testing.T) {
 		t.Errorf("p95 marked at %v (%s), want %g", d.XYs, d.Label, p95)
 	}
 }
+
+// A sensitivity figure with a target draws it and names it in the legend
+// (a caption that cites a target the figure does not draw misleads).
+func TestSensitivityDrawsTarget(t *testing.T) {
+	s := demoSensitivity()
+	tgt := 2.5
+	s.Target, s.TargetLabel = &tgt, "target p95 ≤ 2.5°"
+	c, err := s.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantText(t, mustSVG(t, c), "target p95 ≤ 2.5°", "nominal 0.3")
+	s.Target = nil
+	c, err = s.Plot(Caption{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(mustSVG(t, c), "target p95") {
+		t.Error("no target given, but one is drawn")
+	}
+}

@@ -706,6 +706,10 @@ type Sensitivity struct {
 	YLabel    string
 	// Nominal is the baseline parameter value (marked when set).
 	Nominal *float64
+	// Target, when set, is the requirement on the figure of merit, drawn
+	// as a horizontal line with TargetLabel (default "target V").
+	Target      *float64
+	TargetLabel string
 }
 
 // Plot draws the sensitivity curves.
@@ -718,6 +722,15 @@ func (f Sensitivity) Plot(caption Caption) (*Chart, error) {
 		v := vline{*f.Nominal, draw.LineStyle{Color: colBlack, Width: 1.2, Dashes: []vg.Length{4, 3}}}
 		p.Add(v)
 		p.Legend.Add(fmt.Sprintf("nominal %g", *f.Nominal), v)
+	}
+	if f.Target != nil {
+		h := hline{*f.Target, Target{}.style()}
+		p.Add(h)
+		lab := f.TargetLabel
+		if lab == "" {
+			lab = fmt.Sprintf("target %g", *f.Target)
+		}
+		p.Legend.Add(lab, h)
 	}
 	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }

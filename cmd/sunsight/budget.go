@@ -234,7 +234,8 @@ func budgetFigures(s *scenario.Scenario, rep budget.Report, tgt float64, dir str
 		}
 		caption.Assumptions = "one source scaled, the others as stated"
 		if tgt > 0 {
-			caption.Assumptions += fmt.Sprintf("; target p95 ≤ %.3g°", tgt)
+			caption.Assumptions += fmt.Sprintf("; target p95 ≤ %.3g° (the dash-dot line)", tgt)
+			sens.Target, sens.TargetLabel = &tgt, fmt.Sprintf("target p95 ≤ %.3g°", tgt)
 		}
 		if c, err = sens.Plot(caption); err != nil {
 			return err

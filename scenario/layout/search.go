@@ -249,7 +249,7 @@ sizes:
 	if len(res.Alternatives) > 0 {
 		res.Best = &res.Alternatives[0]
 	}
-	res.Front = front(evaluated)
+	res.Front = front(evaluated, res.Resolution)
 	return res, nil
 }
 
@@ -332,8 +332,13 @@ func rank(alt []Choice, resolution float64) {
 
 // front keeps the evaluated subsets no other beats on every axis: fewer or
 // equal sensors, more or equal coverage, less or equal p95 error (NaN p95
-// counts as worst), and strictly better on one.
-func front(list []Choice) []Choice {
+// counts as worst), and strictly better on one. Coverages closer than the
+// lattice's resolution are equal, as in the ranking: a subset a lattice
+// point ahead on coverage but worse on error is not on the front. The
+// relation stays acyclic (along a cycle the counts and errors would all be
+// equal and each coverage a resolution above the last), so the front is
+// never empty.
+func front(list []Choice, resolution float64) []Choice {
 	p95 := func(c Choice) float64 {
 		if math.IsNaN(c.Score.P95Deg) {
 			return math.Inf(1)
@@ -347,8 +352,8 @@ func front(list []Choice) []Choice {
 			if i == j {
 				continue
 			}
-			le := len(o.Subset) <= len(a.Subset) && o.Coverage >= a.Coverage && p95(o) <= p95(a)
-			lt := len(o.Subset) < len(a.Subset) || o.Coverage > a.Coverage || p95(o) < p95(a)
+			le := len(o.Subset) <= len(a.Subset) && o.Coverage >= a.Coverage-resolution && p95(o) <= p95(a)
+			lt := len(o.Subset) < len(a.Subset) || o.Coverage >= a.Coverage+resolution || p95(o) < p95(a)
 			if le && lt {
 				dominated = true
 				break

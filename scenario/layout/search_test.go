@@ -250,3 +250,30 @@ func TestStoppedSearchCountsWhatItLeft(t *testing.T) {
 			cut.Exhausted, cut.Evaluated, cut.Untried, cut.UntriedAtLeast, full.Evaluated)
 	}
 }
+
+// The trade-off front treats coverages closer than the lattice's
+// resolution as equal, as the ranking does: a subset one lattice point
+// ahead on coverage but worse on error is dominated; one a resolution or
+// more ahead stays; with resolution 0 the rule is the exact comparison.
+func TestFrontTiesCoverageWithinResolution(t *testing.T) {
+	const res = 1e-3
+	a := Choice{Subset: []int{0, 1}, Coverage: 0.9, Score: Score{P95Deg: 5}}
+	b := Choice{Subset: []int{0, 2}, Coverage: 0.9 + res/10, Score: Score{P95Deg: 9}}
+	c := Choice{Subset: []int{0, 3}, Coverage: 0.9 + 2*res, Score: Score{P95Deg: 10}}
+	d := Choice{Subset: []int{0, 1, 2}, Coverage: 0.99, Score: Score{P95Deg: 2}}
+	names := func(cs []Choice) []int {
+		var out []int
+		for _, ch := range cs {
+			out = append(out, ch.Subset[len(ch.Subset)-1]+10*len(ch.Subset))
+		}
+		return out
+	}
+	got := names(front([]Choice{a, b, c, d}, res))
+	if want := names([]Choice{a, c, d}); !slices.Equal(got, want) {
+		t.Errorf("front with resolution %g: %v, want %v (b within the resolution of a, worse error)", res, got, want)
+	}
+	got = names(front([]Choice{a, b, c, d}, 0))
+	if want := names([]Choice{a, b, c, d}); !slices.Equal(got, want) {
+		t.Errorf("front with resolution 0: %v, want %v", got, want)
+	}
+}

@@ -561,15 +561,7 @@ func (f Sweep) Plot(caption Caption) (*Chart, error) {
 	if err != nil {
 		return nil, err
 	}
-	if f.Target != nil {
-		h := hline{*f.Target, Target{}.style()}
-		p.Add(h)
-		lab := f.TargetLabel
-		if lab == "" {
-			lab = fmt.Sprintf("target %g", *f.Target)
-		}
-		p.Legend.Add(lab, h)
-	}
+	addTargetLine(p, f.Target, f.TargetLabel)
 	var failed plotter.XYs
 	for k, row := range f.Fails {
 		for i, bad := range row {
@@ -696,6 +688,21 @@ func (f BudgetBars) Plot(caption Caption) (*Chart, error) {
 	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }
 
+// addTargetLine draws a requirement on the y axis (nil: none) as a
+// horizontal line in the target style, with label in the legend (default
+// "target V").
+func addTargetLine(p *plot.Plot, target *float64, label string) {
+	if target == nil {
+		return
+	}
+	h := hline{*target, Target{}.style()}
+	p.Add(h)
+	if label == "" {
+		label = fmt.Sprintf("target %g", *target)
+	}
+	p.Legend.Add(label, h)
+}
+
 // Sensitivity is the response of a figure of merit to one parameter, one
 // curve per output, with the nominal value marked.
 type Sensitivity struct {
@@ -723,14 +730,6 @@ func (f Sensitivity) Plot(caption Caption) (*Chart, error) {
 		p.Add(v)
 		p.Legend.Add(fmt.Sprintf("nominal %g", *f.Nominal), v)
 	}
-	if f.Target != nil {
-		h := hline{*f.Target, Target{}.style()}
-		p.Add(h)
-		lab := f.TargetLabel
-		if lab == "" {
-			lab = fmt.Sprintf("target %g", *f.Target)
-		}
-		p.Legend.Add(lab, h)
-	}
+	addTargetLine(p, f.Target, f.TargetLabel)
 	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }

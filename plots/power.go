@@ -107,9 +107,7 @@ func (f PowerView) Plot(caption Caption) (*Chart, error) {
 		p.Legend.Add("orbit mean", ln, sc)
 		rec = append(rec, drawnSeries{1, "orbit mean", ln.XYs})
 		if tg := f.Target; tg != nil {
-			h := hline{tg.Value, tg.style()}
-			p.Add(h)
-			p.Legend.Add(tg.text(), h)
+			addTargetLine(p, tg.Value, tg.text())
 			lo, hi = min(lo, tg.Value), max(hi, tg.Value)
 		}
 		// Start at zero unless the orbits differ by little against their level,

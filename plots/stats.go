@@ -561,7 +561,7 @@ func (f Sweep) Plot(caption Caption) (*Chart, error) {
 	if err != nil {
 		return nil, err
 	}
-	addTargetLine(p, f.Target, f.TargetLabel)
+	addPlainTarget(p, f.Target, f.TargetLabel)
 	var failed plotter.XYs
 	for k, row := range f.Fails {
 		for i, bad := range row {
@@ -688,19 +688,24 @@ func (f BudgetBars) Plot(caption Caption) (*Chart, error) {
 	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }
 
-// addTargetLine draws a requirement on the y axis (nil: none) as a
-// horizontal line in the target style, with label in the legend (default
-// "target V").
-func addTargetLine(p *plot.Plot, target *float64, label string) {
+// addTargetLine draws a requirement at y on the y axis as a horizontal line
+// in the target style, with label in the legend.
+func addTargetLine(p *plot.Plot, y float64, label string) {
+	h := hline{y, Target{}.style()}
+	p.Add(h)
+	p.Legend.Add(label, h)
+}
+
+// addPlainTarget draws a requirement given as a value alone (nil: none),
+// labelled "target V" unless label is set.
+func addPlainTarget(p *plot.Plot, target *float64, label string) {
 	if target == nil {
 		return
 	}
-	h := hline{*target, Target{}.style()}
-	p.Add(h)
 	if label == "" {
 		label = fmt.Sprintf("target %g", *target)
 	}
-	p.Legend.Add(label, h)
+	addTargetLine(p, *target, label)
 }
 
 // Sensitivity is the response of a figure of merit to one parameter, one
@@ -730,6 +735,6 @@ func (f Sensitivity) Plot(caption Caption) (*Chart, error) {
 		p.Add(v)
 		p.Legend.Add(fmt.Sprintf("nominal %g", *f.Nominal), v)
 	}
-	addTargetLine(p, f.Target, f.TargetLabel)
+	addPlainTarget(p, f.Target, f.TargetLabel)
 	return &Chart{Panels: []*plot.Plot{p}, Caption: caption, drawn: rec}, nil
 }

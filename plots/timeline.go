@@ -334,9 +334,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 			p.Y.Label.Text = "valid (% of sunlit)"
 			p.Y.Min, p.Y.Max = 0, 102
 			if tg := f.ValidTarget; tg != nil {
-				h := hline{100 * tg.Value, tg.style()}
-				p.Add(h)
-				p.Legend.Add(tg.text(), h)
+				addTargetLine(p, 100*tg.Value, tg.text())
 			}
 		} else {
 			l, err := plotter.NewLine(xy(t, y))
@@ -356,9 +354,7 @@ func (f Timeline) Plot(caption Caption) (*Chart, error) {
 		p := addPanel("Sun-vector error", "error (deg)")
 		p.Y.Min = 0
 		if tg := f.ErrorTarget; tg != nil {
-			h := hline{tg.Value, tg.style()}
-			p.Add(h)
-			p.Legend.Add(tg.text(), h)
+			addTargetLine(p, tg.Value, tg.text())
 			p.Title.Text += " (target is on the p95 over the run)"
 		}
 		if n := f.StepsPerSample; n > 1 {

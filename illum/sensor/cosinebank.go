@@ -1,6 +1,7 @@
 package sensor
 
 import (
+	"math"
 	"math/rand/v2"
 
 	"gonum.org/v1/gonum/spatial/r3"
@@ -24,6 +25,7 @@ type bankCosine struct {
 	ref        float64 // RefIrradiance, W/m²
 	dark       float64 // drawn dark offset
 	threshold  float64
+	validFrom  float64 // v > 0 && v ≥ threshold ⇔ v ≥ validFrom, for threshold ≥ 0
 	noiseSigma float64
 	fullScale  float64 // 0: no saturation
 	q          float64 // ADC step; 0: no ADC
@@ -40,6 +42,7 @@ func NewCosineBank(cs []*Cosine) *CosineBank {
 		s := bankCosine{bx: bore.X, by: bore.Y, bz: bore.Z, cosHalf: c.cosHalf, gain: 1 + c.unit.gain[0],
 			ref: c.spec.RefIrradiance, dark: c.unit.dark[0], threshold: c.spec.Threshold,
 			noiseSigma: e.NoiseSigma, fullScale: e.FullScale}
+		s.validFrom = max(s.threshold, math.SmallestNonzeroFloat64)
 		if e.ADCBits > 0 {
 			s.q = e.FullScale / float64(uint64(1)<<e.ADCBits)
 		}
@@ -78,9 +81,10 @@ func (s *bankCosine) responseAt(ct float64) float64 { return s.sensor.response(c
 // digitise is Errors.digitise on the bank's values.
 func (s *bankCosine) digitise(v float64) (float64, bool) {
 	sat := false
-	if v < 0 {
-		v = 0
-	}
+	// max(v, 0) is v < 0 ? 0 : v here, without a branch on a sign the
+	// noise decides: v is never −0 (it is a sum with a +0 or a non-zero
+	// term, which rounds to +0 when it is zero).
+	v = max(v, 0)
 	if s.fullScale > 0 && v >= s.fullScale {
 		v, sat = s.fullScale, true
 	}
@@ -88,6 +92,15 @@ func (s *bankCosine) digitise(v float64) (float64, bool) {
 		v = roundNonNeg(v/s.q) * s.q
 	}
 	return v, sat
+}
+
+// set writes a cosine reading of signal v into r: the fields a cosine
+// sensor gives. The others (Dir, Cells, Sigma) are zero for a cosine
+// sensor and are left as they are: a bank reads into readings that only
+// cosine readings or the zero Reading were written to, and then this is the
+// whole-value write, without rewriting its 80 bytes at every step.
+func (s *bankCosine) set(r *Reading, v float64, sat bool) {
+	r.Signal, r.Valid, r.Saturated = v, v >= s.validFrom, sat
 }
 
 // Read fills dst[i] with sensor i's reading of the body-frame sun
@@ -106,7 +119,7 @@ func (b *CosineBank) Read(dst []Reading, sun r3.Vec, direct float64, blocked []b
 			v += s.noiseSigma * noise.NormFloat64()
 		}
 		v, sat := s.digitise(v)
-		dst[i] = Reading{Signal: v, Valid: v > 0 && v >= s.threshold, Saturated: sat}
+		s.set(&dst[i], v, sat)
 	}
 }
 
@@ -129,13 +142,13 @@ func (b *CosineBank) ReadPair(noAlb, withAlb []Reading, sun r3.Vec, direct float
 			v0 += n
 		}
 		v0, s0 := s.digitise(v0)
-		noAlb[i] = Reading{Signal: v0, Valid: v0 > 0 && v0 >= s.threshold, Saturated: s0}
+		s.set(&noAlb[i], v0, s0)
 		a := alb[i].Irradiance
 		if a == 0 {
 			// e + 0 is e: e is a product of the direct irradiance (+0 or
 			// more) and a response that is +0 or more, never −0. The
 			// same value, digitised once.
-			withAlb[i] = noAlb[i]
+			s.set(&withAlb[i], v0, s0)
 			continue
 		}
 		v1 := s.gain*(e+a)/s.ref + s.dark
@@ -143,6 +156,6 @@ func (b *CosineBank) ReadPair(noAlb, withAlb []Reading, sun r3.Vec, direct float
 			v1 += n
 		}
 		v1, s1 := s.digitise(v1)
-		withAlb[i] = Reading{Signal: v1, Valid: v1 > 0 && v1 >= s.threshold, Saturated: s1}
+		s.set(&withAlb[i], v1, s1)
 	}
 }

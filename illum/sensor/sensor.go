@@ -294,12 +294,17 @@ func checkName(name string) error {
 // so rounding half away from zero is ⌊x⌋ + [fraction ≥ ½]. It spares the
 // step loop math.Round's bit manipulation, which the ADC of every sensor
 // pays at every step (TestRoundNonNegIsRound).
+//
+// It has no branch: the fraction's halves of the ADC step are as likely as
+// each other under noise, and a branch on them is mispredicted half the
+// time. up is 1 when the fraction is ≥ ½ (the sign bit of fraction − ½,
+// which is exact for a fraction ≥ ¼ by Sterbenz's lemma and negative by at
+// least ¼ below), and ⌊x⌋ gets +1 or −0 added: x + (−0) is x for every x,
+// −0 included.
 func roundNonNeg(x float64) float64 {
 	f := math.Floor(x)
-	if x-f >= 0.5 {
-		f++
-	}
-	return f
+	up := 1 - math.Float64bits(x-f-0.5)>>63
+	return f + math.Float64frombits(0x3ff0000000000000&-up|1<<63&(up-1))
 }
 
 // SunView is a sensor's field of view as a sky viewer (sky.Viewer): Sees(d)

@@ -78,10 +78,16 @@ awk '/ns\/step/ {name=$1; sub(/^Benchmark/, "", name); sub(/-[0-9]+$/, "", name)
 LIMIT=$(awk '/^BenchmarkStepLimit/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/bench.txt")
 ENGINE=$(awk '/^BenchmarkEngineStep/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/bench.txt")
 echo "  engine / floor = $(ratio "$ENGINE" "$LIMIT")"
-go test -run '^$' -bench 'Units' -benchtime 3x ./scenario/sim >"$OUT/units.txt"
+go test -run '^$' -bench 'Units|UnitLimit' -benchtime 3x ./scenario/sim >"$OUT/units.txt"
 U1=$(awk '/^BenchmarkUnits\/1-/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/units.txt")
 U10=$(awk '/^BenchmarkUnits\/10-/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/step") print $i}' "$OUT/units.txt")
+UMIN=$(awk '/^BenchmarkUnitLimit/ {for (i=1;i<=NF;i++) if ($(i+1)=="ns/unit-step") print $i}' "$OUT/units.txt")
 echo "  Monte Carlo, inertial with albedo, one core: 1 unit ${U1} ns/step, 10 units ${U10} ns/step, 10 / 1 = $(ratio "$U10" "$U1")"
+# One more unit costs U = (U10 - U1) / 9 per step, the shared part G = U1 - U;
+# at the floor of a unit's own arithmetic (BenchmarkUnitLimit) 10 / 1 would be
+# (G + 10 Umin) / (G + Umin).
+awk -v u1="$U1" -v u10="$U10" -v um="$UMIN" 'BEGIN {u = (u10 - u1) / 9; g = u1 - u;
+  printf "  per unit %.0f ns/step against its floor %.0f (BenchmarkUnitLimit), shared %.0f ns/step: 10 / 1 at the floor = %.2f\n", u, um, g, (g + 10 * um) / (g + um)}'
 
 # ---- whole runs side by side: each pair measured back to back ----------
 # pair <label> <fileA> <argsA> <fileB> <argsB>: prints both runs and the

@@ -247,3 +247,80 @@ func BenchmarkUnits(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkUnitLimit is the floor of what one more Monte Carlo unit of
+// BenchmarkUnits costs per step on one core, the geometry being shared:
+// only its own arithmetic in one tight loop — six face sensors read with
+// their drawn gain and dark offset, one noise draw each (the engine's
+// generator), a 12-bit converter, without and with an albedo irradiance;
+// the opposite-pairs estimate of both; their errors to the sun and to each
+// other (atan2 of cross and dot, as the engine); each error into a moment
+// and a quantile accumulator. The body sun turns at orbital rate about Y
+// with 38 % of the orbit in shadow. It reports ns per unit-step; the
+// engine's figure is (BenchmarkUnits/10 − BenchmarkUnits/1) / 9 in the
+// same run. With the shared part G per step, 10 units / 1 can be no better
+// than (G + 10·U)/(G + U) for this U.
+func BenchmarkUnitLimit(b *testing.B) {
+	const period, dt = 5740.0, 10.0
+	cosHalf := math.Cos(60 * math.Pi / 180)
+	faces := [6]r3.Vec{{X: 1}, {X: -1}, {Y: 1}, {Y: -1}, {Z: 1}, {Z: -1}}
+	drawn := rand.New(rand.NewPCG(7, 8))
+	var gain, dark [6]float64
+	for i := range gain {
+		gain[i], dark[i] = 1+0.02*drawn.NormFloat64(), 0.005*drawn.NormFloat64()
+	}
+	const ref, sigma, q = 1361.0, 0.003, 1.5 / 4096
+	noise := rand.New(rand.NewPCG(1, 2))
+	var mNo, mAlb, mPart Moments
+	qNo, qAlb, qPart := NewQuantiles(), NewQuantiles(), NewQuantiles()
+	read := func(i int, e, n float64) float64 {
+		v := max(gain[i]*e/ref+dark[i]+n, 0)
+		return math.Floor(v/q+0.5) * q
+	}
+	unit := func(x r3.Vec) r3.Vec { return r3.Scale(1/math.Sqrt(r3.Norm2(x)), x) }
+	angle := func(a, b r3.Vec) float64 {
+		return math.Atan2(math.Sqrt(r3.Norm2(r3.Cross(a, b))), r3.Dot(a, b)) * 180 / math.Pi
+	}
+	for b.Loop() {
+		for k := range benchDaySteps {
+			ph := 2 * math.Pi * math.Mod(float64(k)*dt, period) / period
+			lit := ph < 0.62*2*math.Pi
+			s, c := math.Sincos(ph)
+			sun := r3.Vec{X: c, Z: s}
+			direct := 0.0
+			if lit {
+				direct = ref
+			}
+			var no, alb [6]float64
+			for i, f := range faces {
+				ct := r3.Dot(f, sun)
+				e := 0.0
+				if ct >= cosHalf {
+					e = direct * ct
+				}
+				n := sigma * noise.NormFloat64()
+				no[i] = read(i, e, n)
+				alb[i] = no[i]
+				if lit && f.Z > 0 {
+					alb[i] = read(i, e+200, n) // the nadir face sees the lit Earth
+				}
+			}
+			if !lit {
+				continue
+			}
+			eNo := unit(r3.Vec{X: no[0] - no[1], Y: no[2] - no[3], Z: no[4] - no[5]})
+			eAlb := unit(r3.Vec{X: alb[0] - alb[1], Y: alb[2] - alb[3], Z: alb[4] - alb[5]})
+			dNo, dAlb, dPart := angle(eNo, sun), angle(eAlb, sun), angle(eAlb, eNo)
+			mNo.Add(dNo)
+			qNo.Add(dNo)
+			mAlb.Add(dAlb)
+			qAlb.Add(dAlb)
+			mPart.Add(dPart)
+			qPart.Add(dPart)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*benchDaySteps), "ns/unit-step")
+	if mNo.N == 0 || mPart.N == 0 || qAlb.N() == 0 {
+		b.Fatal("nothing accumulated")
+	}
+}

@@ -164,11 +164,14 @@ type onboardRecord struct {
 }
 
 type jsonSensor struct {
-	Name      string `json:"name"`
-	InView    num    `json:"in_view_fraction"`
-	Peak      num    `json:"peak_signal"`
-	Saturated num    `json:"saturated_fraction"`
-	FalseSun  num    `json:"false_sun_fraction_of_umbra"`
+	Name   string `json:"name"`
+	InView num    `json:"in_view_fraction"`
+	Peak   num    `json:"peak_signal"`
+	// The largest single output the full scale applies to (a quadrant's
+	// largest cell).
+	PeakOutput num `json:"peak_output"`
+	Saturated  num `json:"saturated_fraction"`
+	FalseSun   num `json:"false_sun_fraction_of_umbra"`
 	// A cosine sensor gives no direction: its beyond-bound share is null.
 	AlbedoOnly  num `json:"valid_only_with_albedo_fraction_of_sunlit"`
 	BeyondBound num `json:"valid_beyond_false_sun_bound_fraction_of_sunlit"`
@@ -234,7 +237,7 @@ func unitJSON(u *sim.UnitResult) jsonUnit {
 		Seen1: num(u.SeenAtLeast[1]), Seen2: num(u.SeenAtLeast[2]), Seen3: num(u.SeenAtLeast[3]), FalseSun: num(u.FalseSunFraction),
 		BetaMinDeg: num(u.BetaMinDeg), BetaMaxDeg: num(u.BetaMaxDeg), GyroFilter: filterJSON(u.Filter)}
 	for _, s := range u.Sensors {
-		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.SaturatedFraction), num(s.FalseSunFraction),
+		j.Sensors = append(j.Sensors, jsonSensor{s.Name, num(s.InViewFraction), num(s.PeakSignal), num(s.PeakOutput), num(s.SaturatedFraction), num(s.FalseSunFraction),
 			num(s.AlbedoOnlyFraction), num(s.WrongFraction), num(s.MoonInViewFraction), num(s.LitEarthInViewFraction), num(s.BlindedFraction)})
 	}
 	for _, e := range u.Estimators {
@@ -563,12 +566,13 @@ func (o *runOutput) writeSummary(w io.Writer) {
 		fs, sat := "—", "—"
 		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
 			f := s.Body.Sensors[i].FullScale
-			fs, sat = fmt.Sprintf("%.2f (%+.0f %%)", f, 100*(1-sn.PeakSignal/f)), pct(sn.SaturatedFraction)
+			fs, sat = fmt.Sprintf("%.2f (%+.0f %%)", f, 100*(1-sn.PeakOutput/f)), pct(sn.SaturatedFraction)
 		}
 		fmt.Fprintf(w, "  %-14s %9s %12.3f %15s %10s %10s %12s %12s\n", sn.Name, pct(sn.InViewFraction), sn.PeakSignal, fs, sat,
 			pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction))
 	}
-	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the peak signal, — for a kind without one; saturated: share of sunlit time\n")
+	fmt.Fprintf(w, "  (full scale: ADC range, with the margin left above the largest output — a quadrant's largest cell, whose peak signal is\n")
+	fmt.Fprintf(w, "   the sum of four —, — for a kind without one; saturated: share of sunlit time\n")
 	fmt.Fprintf(w, "   at full scale; umbra lit: share of umbra time above threshold;")
 	fmt.Fprintf(w, " albedo only: share of sunlit time valid only because of albedo;\n   off: a two-axis direction that far from the sun)\n")
 	writeBodiesInView(w, u.Sensors)
@@ -710,7 +714,7 @@ func (o *runOutput) writeCSV(dir string) error {
 		"valid_fraction_onboard_corrected", "p95_error_onboard_corrected_deg", "max_error_onboard_corrected_deg", "p95_residual_albedo_part_deg"}}
 	sens := [][]string{{"unit", "sensor", "in_view_fraction", "peak_signal", "saturated_fraction", "false_sun_fraction_of_umbra",
 		"valid_only_with_albedo_fraction_of_sunlit", "valid_beyond_false_sun_bound_fraction_of_sunlit",
-		"moon_in_view_fraction", "lit_earth_in_view_fraction", "blinded_fraction"}}
+		"moon_in_view_fraction", "lit_earth_in_view_fraction", "blinded_fraction", "peak_output"}}
 	gaps := [][]string{{"unit", "estimator", "gap_start_utc", "gap_start_s", "gap_end_s", "gap_s"}}
 	for _, un := range units {
 		ui := strconv.Itoa(un.Unit)
@@ -736,7 +740,7 @@ func (o *runOutput) writeCSV(dir string) error {
 		}
 		for _, s := range un.Sensors {
 			sens = append(sens, []string{ui, s.Name, ff(s.InViewFraction, 6), ff(s.PeakSignal, 5), ff(s.SaturatedFraction, 6), ff(s.FalseSunFraction, 6),
-				ff(s.AlbedoOnlyFraction, 6), ff(s.WrongFraction, 6), ff(s.MoonInViewFraction, 6), ff(s.LitEarthInViewFraction, 6), ff(s.BlindedFraction, 6)})
+				ff(s.AlbedoOnlyFraction, 6), ff(s.WrongFraction, 6), ff(s.MoonInViewFraction, 6), ff(s.LitEarthInViewFraction, 6), ff(s.BlindedFraction, 6), ff(s.PeakOutput, 5)})
 		}
 	}
 	files["estimators.csv"] = est

@@ -437,7 +437,7 @@ func estimatorTable(res *sim.Result) plots.Table {
 // scale, saturation and false sun.
 func sensorTable(s *scenario.Scenario, cfg sim.Config, res *sim.Result) plots.Table {
 	t := plots.Table{Title: "Sensors (signal 1 = normal sun at 1 AU)",
-		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above peak (%)", "saturated (% of sunlit)", "false sun (% of umbra)",
+		Header: []string{"sensor", "sun in view (% of sunlit)", "peak signal (1 AU sun)", "full scale (1 AU sun)", "margin above largest output (%)", "saturated (% of sunlit)", "false sun (% of umbra)",
 			"valid only with albedo (% of sunlit)", fmt.Sprintf("direction > %g° off (%% of sunlit)", res.FalseSunBoundDeg)}}
 	for i, sn := range res.Nominal.Sensors {
 		// A kind without a converter model has no full scale and cannot
@@ -445,7 +445,7 @@ func sensorTable(s *scenario.Scenario, cfg sim.Config, res *sim.Result) plots.Ta
 		fs, margin, sat := study.Missing, study.Missing, study.Missing
 		if i < len(s.Body.Sensors) && s.Body.Sensors[i].FullScale > 0 {
 			f := s.Body.Sensors[i].FullScale
-			fs, margin, sat = num(f, 2), fmt.Sprintf("%.0f", 100*(1-sn.PeakSignal/f)), pct(sn.SaturatedFraction)
+			fs, margin, sat = num(f, 2), fmt.Sprintf("%.0f", 100*(1-sn.PeakOutput/f)), pct(sn.SaturatedFraction)
 		}
 		t.Rows = append(t.Rows, []string{sn.Name, pct(sn.InViewFraction), num(sn.PeakSignal, 3), fs, margin,
 			sat, pct(sn.FalseSunFraction), pct(sn.AlbedoOnlyFraction), pct(sn.WrongFraction)})

@@ -64,3 +64,46 @@ func TestQuadrantAlbedoCellByCell(t *testing.T) {
 		t.Errorf("albedo did not move the quadrant directions: %+v", a.AlbedoPart)
 	}
 }
+
+// A quadrant's full scale applies to each cell, its signal is the sum of
+// four: the output the converter's margin is taken on (PeakOutput) is the
+// largest cell, between a quarter of the peak signal and the full scale;
+// for a cosine sensor it is the peak signal. With cells clipped at full
+// scale the peak signal reaches up to four times it (here above it).
+func TestQuadrantPeakOutputIsACell(t *testing.T) {
+	cfg := referenceCase(t, 0.25, false)
+	ss := faceArray(t, 80).Sensors()
+	m, err := sensor.FaceMount(sensor.FacePlusX, 0, sensor.FaceNone, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	const full = 0.1 // below a cell's share of normal sun: the cells clip
+	q, err := sensor.NewQuadrant(sensor.QuadrantSpec{Name: "q", Mount: m, Geometry: sensor.GeometryWall, Height: 2, CellSide: 3,
+		WallDistance: 1, SignalMargin: 0.2, ImbalanceMargin: 0.05, DeadZoneImbalance: 0.01, Threshold: 0.01,
+		Errors: sensor.Errors{FullScale: full}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	arr, err := sensor.NewArray(append(ss, q)...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cfg.Array = arr
+	cfg.Estimators = []sensor.Estimator{sensor.TwoAxis{}}
+	res, err := Run(context.Background(), cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, s := range res.Nominal.Sensors {
+		if s.Name != "q" {
+			if s.PeakOutput != s.PeakSignal {
+				t.Errorf("%s: peak output %g, peak signal %g: want equal for a cosine sensor", s.Name, s.PeakOutput, s.PeakSignal)
+			}
+			continue
+		}
+		t.Logf("quadrant: peak signal %.4f, peak output %.4f, full scale %g", s.PeakSignal, s.PeakOutput, full)
+		if s.PeakOutput != full || !(s.PeakSignal > full) || s.PeakOutput < s.PeakSignal/4 {
+			t.Errorf("quadrant: peak output %g, peak signal %g: want the clipped cell %g, a sum above it", s.PeakOutput, s.PeakSignal, full)
+		}
+	}
+}

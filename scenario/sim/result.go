@@ -95,6 +95,10 @@ type SensorStats struct {
 	// scale.
 	PeakSignal        float64
 	SaturatedFraction float64
+	// PeakOutput is the largest single output the converter's full scale
+	// applies to: a quadrant's largest cell (its signal is the sum of
+	// four), the signal for the other kinds.
+	PeakOutput float64
 	// FalseSunFraction is the fraction of umbra time above threshold.
 	FalseSunFraction float64
 	// MoonInViewFraction is the fraction of all time with some of the
@@ -304,6 +308,8 @@ type unitAcc struct {
 	blinded                   []int
 	canBlind                  []bool
 	peak                      []float64
+	cellPeak                  []float64 // largest cell, for the sensors with cells (hasCells)
+	hasCells                  []bool
 	saturated                 []int
 	falseSunSensor            []int
 	falseSunAny               int
@@ -330,6 +336,7 @@ type unitAcc struct {
 func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first, listGaps bool, t0 float64) *unitAcc {
 	n := arr.Len()
 	a := &unitAcc{cfg: cfg, albedo: withAlbedo, corrected: corrected, listGaps: listGaps, inView: make([]int, n), peak: make([]float64, n),
+		cellPeak: make([]float64, n), hasCells: make([]bool, n),
 		moonInView: make([]int, n), litEarthInView: make([]int, n), blinded: make([]int, n), canBlind: make([]bool, n),
 		saturated: make([]int, n), falseSunSensor: make([]int, n), est: make([]estAcc, len(cfg.Estimators)),
 		sensorAlbedoOnly: make([]int, n), sensorWrong: make([]int, n), twoAxis: make([]bool, n),
@@ -337,6 +344,7 @@ func newUnitAcc(cfg *Config, arr *sensor.Array, withAlbedo, corrected, first, li
 	for i, s := range arr.Sensors() {
 		a.names = append(a.names, s.Name())
 		a.twoAxis[i] = s.Kind() != sensor.KindCosine
+		a.hasCells[i] = s.Kind() == sensor.KindQuadrant || s.Kind() == sensor.KindQuadrantWall
 		b, ok := s.(sensor.Blindable)
 		a.canBlind[i] = ok && b.Blinding()
 	}
@@ -396,6 +404,9 @@ func (a *unitAcc) step(k int, t float64, region illum.Region, lit float64, seen 
 		r := &real[i]
 		if r.Signal > a.peak[i] {
 			a.peak[i] = r.Signal
+		}
+		if a.hasCells[i] {
+			a.cellPeak[i] = max(a.cellPeak[i], r.Cells[0], r.Cells[1], r.Cells[2], r.Cells[3])
 		}
 		if r.Saturated && sunlit {
 			a.saturated[i]++
@@ -619,6 +630,7 @@ func (a *unitAcc) merge(b *unitAcc) {
 		a.litEarthInView[i] += b.litEarthInView[i]
 		a.blinded[i] += b.blinded[i]
 		a.peak[i] = max(a.peak[i], b.peak[i])
+		a.cellPeak[i] = max(a.cellPeak[i], b.cellPeak[i])
 		a.saturated[i] += b.saturated[i]
 		a.falseSunSensor[i] += b.falseSunSensor[i]
 		a.sensorAlbedoOnly[i] += b.sensorAlbedoOnly[i]
@@ -715,7 +727,10 @@ func (a *unitAcc) result() *UnitResult {
 			PeakSignal: a.peak[i], SaturatedFraction: frac(a.saturated[i], a.sunlit),
 			FalseSunFraction: frac(a.falseSunSensor[i], a.umb), AlbedoOnlyFraction: frac(a.sensorAlbedoOnly[i], a.sunlit),
 			MoonInViewFraction: frac(a.moonInView[i], a.samples), LitEarthInViewFraction: frac(a.litEarthInView[i], a.samples),
-			BlindedFraction: math.NaN(), WrongFraction: math.NaN()})
+			BlindedFraction: math.NaN(), WrongFraction: math.NaN(), PeakOutput: a.peak[i]})
+		if a.hasCells[i] {
+			r.Sensors[i].PeakOutput = a.cellPeak[i]
+		}
 		if a.canBlind[i] {
 			r.Sensors[i].BlindedFraction = frac(a.blinded[i], a.samples)
 		}

@@ -182,6 +182,17 @@ func (r *resolver) sensor(p string, f *fileSensor) Sensor {
 		if !adcBitsRange.Holds(float64(s.ADCBits)) {
 			r.fail(p+".adc_bits", "value %d is out of range; allowed %s (0 = no quantisation)", s.ADCBits, adcBitsRange)
 		}
+		// The full scale clips each output (a quadrant's four cells, whose
+		// sum the threshold applies to): at or below the threshold no
+		// reading could ever be valid.
+		outputs := 1.0
+		if f.Kind == string(sensor.KindQuadrant) || f.Kind == string(sensor.KindQuadrantWall) {
+			outputs = 4
+		}
+		if s.FullScale > 0 && fractionRange.Holds(s.Threshold) && outputs*s.FullScale <= s.Threshold {
+			r.fail(p+".full_scale", "value %g leaves no valid reading: the clipped signal (at most %g) never exceeds the threshold %g; allowed a full scale above %g",
+				s.FullScale, outputs*s.FullScale, s.Threshold, s.Threshold/outputs)
+		}
 	}
 	if known {
 		s.Params = r.kindParams(p, info, f)
@@ -375,6 +386,7 @@ func (r *resolver) kindParams(p string, info sensor.KindInfo, f *fileSensor) sen
 	if f.Params == nil {
 		f.Params = map[string]any{}
 	}
+	inFile := maps.Clone(f.Params) // the keys the file gives (defaults are filled in below)
 	out := sensor.Params{Num: map[string]float64{}, Text: map[string]string{}, Table: map[string][][2]float64{}}
 	for _, k := range info.Params {
 		kp := p + "." + k.Key
@@ -407,6 +419,14 @@ func (r *resolver) kindParams(p string, info sensor.KindInfo, f *fileSensor) sen
 			if given {
 				out.Table[k.Key] = r.table(kp, k.Columns, v.([][]float64))
 			}
+		}
+	}
+	// A key that acts only through another one is refused without it
+	// when set away from its default (a scenario's record writes every
+	// default back).
+	for _, k := range info.Params {
+		if v, given := inFile[k.Key]; given && k.ActsWith != "" && v != any(k.Default) && out.Num[k.ActsWith] == 0 {
+			r.fail(p+"."+k.Key, "value has no effect while %s is 0; allowed only with %s > 0: set it, or leave %s out", k.ActsWith, k.ActsWith, k.Key)
 		}
 	}
 	return out

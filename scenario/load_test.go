@@ -205,6 +205,9 @@ func badInputs() []badInput {
 		{"residual above stated", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", errors: {dark_offset_1sigma: 0.001}}]\nbudget: {calibrated: {dark_offset_1sigma: 0.01}, tolerance_deg: 1}\n", "budget.calibrated.dark_offset_1sigma (line 4, col 43): value 0.01 exceeds the 0.001 sensor a states"},
 		{"residual for nothing", orbit + sensor + "budget: {calibrated: {gain_1sigma: 0.001}, tolerance_deg: 1}\n", "applies to no sensor"},
 		{"residual kind absent", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", errors: {noise_1sigma: 0.01}}]\nbudget: {calibrated: {digital: {noise_1sigma: 0.001}}, tolerance_deg: 1}\n", "names kind digital"},
+		{"dark doubling without a dark signal", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", dark_doubling_c: 5}]\n", "body.sensors[0].dark_doubling_c (line 3, col 66): value has no effect while dark_signal_at_calibration is 0"},
+		{"full scale below threshold", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", full_scale: 0.04}]\n", "body.sensors[0].full_scale (line 3, col 61): value 0.04 leaves no valid reading"},
+		{"quadrant cells below threshold", orbit + "body:\n  sensors: [{name: a, kind: quadrant, face: \"+X\", full_scale: 0.01}]\n", "clipped signal (at most 0.04) never exceeds the threshold 0.05"},
 		{"second document", orbit + sensor + "---\nname: other\n", "(file) (line 5, col 1): value holds more than one YAML document"},
 	}
 }

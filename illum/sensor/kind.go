@@ -66,6 +66,10 @@ type Param struct {
 	MaxKey   string
 	Allowed  string
 	Scale    float64
+	// ActsWith, when set, names a number key of the same kind without
+	// which this one changes nothing (while that key is 0): the scenario
+	// refuses this key given with that one at 0.
+	ActsWith string
 
 	// Choice: the allowed words, the first being the default.
 	Choices []string

@@ -86,7 +86,7 @@ var thermalParams = []Param{
 	{Key: "dark_signal_at_calibration", Doc: "dark signal at the calibration temperature (normal sun at 1 AU = 1); the calibration removes it, its change with temperature stays",
 		Default: 0, Min: 0, Max: 0.5, Allowed: "[0, 0.5] (of the normal-sun signal)"},
 	{Key: "dark_doubling_c", Doc: "temperature rise that doubles the dark signal (10 °C: application-note rule of thumb, common practice, no source)",
-		Default: 10, Min: 1, Max: 100, Allowed: "[1, 100] °C"},
+		Default: 10, Min: 1, Max: 100, Allowed: "[1, 100] °C", ActsWith: "dark_signal_at_calibration"},
 	{Key: "gain_tempco_pct_per_c", Doc: "change of the responsivity per °C away from the calibration temperature",
 		Default: 0, Min: -2, Max: 2, Allowed: "[-2, 2] %/°C", Scale: 0.01},
 }

@@ -48,7 +48,13 @@ func scenarioSchema() ([]byte, error) {
 				for _, k := range names {
 					ps := r.ReflectFromType(paramGoType(keys[k]))
 					ps.Version = ""
-					ps.Description = "kinds: " + strings.Join(sensor.KindsWithKey(k), ", ")
+					kinds := sensor.KindsWithKey(k)
+					ps.Description = "kinds: " + strings.Join(kinds, ", ")
+					if info, ok := sensor.LookupKind(kinds[0]); ok {
+						if p, ok := info.Param(k); ok && p.Doc != "" {
+							ps.Description += ". " + p.Doc
+						}
+					}
 					applyRule(ps, kindParamRule(k))
 					s.Properties.Set(k, ps)
 				}

@@ -331,6 +331,12 @@ func (r *resolver) place(p string, f *fileSensor, s *Sensor) {
 		s.MountNormal = face
 	case onBus:
 		s.MountNormal = surfaceNormal(s.PositionM, s.Boresight, h)
+		// A boresight into the surface the sensor sits on sees only the
+		// bus: nothing of its cone's centre can reach it.
+		if r3.Dot(s.MountNormal, s.Boresight) < -1e-9 {
+			r.fail(p+".boresight", "value %v points into the bus face the sensor sits on (outward normal [%g %g %g] at position_m %v); allowed a boresight that leaves the face (a positive component along its normal), or a position_m on another face",
+				f.Boresight, s.MountNormal.X, s.MountNormal.Y, s.MountNormal.Z, f.PositionM)
+		}
 	default:
 		s.MountNormal = s.Boresight
 	}

@@ -208,6 +208,7 @@ func badInputs() []badInput {
 		{"dark doubling without a dark signal", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", dark_doubling_c: 5}]\n", "body.sensors[0].dark_doubling_c (line 3, col 66): value has no effect while dark_signal_at_calibration is 0"},
 		{"full scale below threshold", orbit + "body:\n  sensors: [{name: a, kind: cosine, face: \"+X\", full_scale: 0.04}]\n", "body.sensors[0].full_scale (line 3, col 61): value 0.04 leaves no valid reading"},
 		{"quadrant cells below threshold", orbit + "body:\n  sensors: [{name: a, kind: quadrant, face: \"+X\", full_scale: 0.01}]\n", "clipped signal (at most 0.04) never exceeds the threshold 0.05"},
+		{"boresight into its face", orbit + "body:\n  form_factor: 3U\n  sensors: [{name: a, kind: cosine, boresight: [-1, 0, 0], position_m: [0.05, 0, 0]}]\n", "body.sensors[0].boresight (line 4, col 48): value [-1 0 0] points into the bus face"},
 		{"second document", orbit + sensor + "---\nname: other\n", "(file) (line 5, col 1): value holds more than one YAML document"},
 	}
 }

@@ -583,19 +583,21 @@ func (r *resolver) obstruction(p string, o *fileObstruction) Obstruction {
 
 func (r *resolver) estimators(f *fileScenario, sensors []Sensor) []string {
 	if len(f.Estimators) == 0 {
-		cos, twoAxis, pairs := 0, 0, false
-		for i, s := range sensors {
+		cos, twoAxis := 0, 0
+		var bores []r3.Vec
+		for _, s := range sensors {
 			if k, _ := sensor.LookupKind(s.Kind); !k.TwoAxis {
 				cos++
-				for _, o := range sensors[:i] {
-					if k, _ := sensor.LookupKind(o.Kind); !k.TwoAxis && r3.Dot(o.Boresight, s.Boresight) < -0.999 {
-						pairs = true
-					}
+				if r3.Norm(s.Boresight) > 0 {
+					bores = append(bores, r3.Unit(s.Boresight))
 				}
 			} else {
 				twoAxis++
 			}
 		}
+		// The pair difference only where it can give an estimate: three
+		// opposed pairs on axes that are not coplanar.
+		pairs := sensor.OppositePairsPossible(bores)
 		// The first listed is the primary estimator of the headline figures
 		// and targets: the combination when there are both kinds, else the
 		// two-axis directions, else the pair difference (less biased by

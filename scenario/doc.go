@@ -31,7 +31,8 @@
 // A sun-synchronous orbit is carried as altitude + LTAN: the build step
 // derives inclination and RAAN. Estimators left out default to all that the
 // sensor kinds allow (least-squares with ≥ 3 cosine sensors, opposite-pairs
-// when two cosine sensors face opposite ways, two-axis with a quadrant or
+// when cosine sensors make three opposed pairs on axes that are not
+// coplanar (it has no estimate otherwise), two-axis with a quadrant or
 // digital sensor, combined with both). Default sensor parameters (threshold
 // 0.05, 12-bit ADC, cosine field 90°, others 60°, quadrant 1.0 mm shade over
 // 2.0 mm cells with 0.1 mm gap, digital 0.5° 1σ) are common practice, no

@@ -3,8 +3,10 @@ package scenario
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -66,6 +68,33 @@ func TestDefaults(t *testing.T) {
 	}
 	if got := s.Orbit.SemiMajorAxisKm; got != 6878.137 {
 		t.Errorf("a = %v; want 6878.137 (WGS 84 Rₑ + 500 km)", got)
+	}
+}
+
+// The default estimators are those that can give an estimate: opposite
+// pairs only with three opposed pairs on non-coplanar axes (two pairs and
+// a fifth sensor leave it never valid, and it would have been the primary).
+func TestDefaultEstimatorsCanEstimate(t *testing.T) {
+	orbit := "orbit: {altitude_km: 500, inclination_deg: 51.6}\n"
+	for _, c := range []struct {
+		faces []string
+		want  []string
+	}{
+		{[]string{"+X", "-X", "+Y", "-Z", "+Z"}, []string{"least-squares"}},
+		{[]string{"+X", "-X", "+Y", "-Y", "+Z", "-Z"}, []string{"opposite-pairs", "least-squares"}},
+		{[]string{"+X", "-X"}, []string{"least-squares"}},
+	} {
+		text := orbit + "body:\n  sensors:\n"
+		for i, f := range c.faces {
+			text += fmt.Sprintf("    - {name: s%d, kind: cosine, face: \"%s\"}\n", i, f)
+		}
+		s, err := Parse([]byte(text), "")
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !slices.Equal(s.Estimators, c.want) {
+			t.Errorf("faces %v: estimators %v, want %v", c.faces, s.Estimators, c.want)
+		}
 	}
 }
 

@@ -42,28 +42,53 @@ func NewArray(sensors ...Sensor) (*Array, error) {
 			a.cosine = append(a.cosine, i)
 		}
 	}
-	used := make([]bool, len(sensors))
-	for ii, i := range a.cosine {
+	bores := make([]r3.Vec, len(a.cosine))
+	for k, i := range a.cosine {
+		bores[k] = sensors[i].Mount().Boresight()
+	}
+	var pp [][2]int
+	pp, a.pairInv, a.pairOK = pairsOf(bores)
+	for _, p := range pp {
+		a.pairs = append(a.pairs, pair{plus: a.cosine[p[0]], minus: a.cosine[p[1]], axis: bores[p[0]]})
+	}
+	return a, nil
+}
+
+// pairsOf pairs the opposed boresights among bores, each with the first
+// later one opposite it, and returns the pairs (indices into bores), the
+// inverse of Σ a aᵀ over their axes a and whether it serves: at least three
+// pairs whose axes are not coplanar (condition ≤ defaultMaxCondition).
+func pairsOf(bores []r3.Vec) (pairs [][2]int, inv sym3, ok bool) {
+	used := make([]bool, len(bores))
+	for i, bi := range bores {
 		if used[i] {
 			continue
 		}
-		bi := sensors[i].Mount().Boresight()
-		for _, j := range a.cosine[ii+1:] {
-			if !used[j] && r3.Dot(bi, sensors[j].Mount().Boresight()) < -1+1e-9 {
+		for j := i + 1; j < len(bores); j++ {
+			if !used[j] && r3.Dot(bi, bores[j]) < -1+1e-9 {
 				used[i], used[j] = true, true
-				a.pairs = append(a.pairs, pair{plus: i, minus: j, axis: bi})
+				pairs = append(pairs, [2]int{i, j})
 				break
 			}
 		}
 	}
 	var m sym3
-	for _, p := range a.pairs {
-		m.addOuter(p.axis, 1)
+	for _, p := range pairs {
+		m.addOuter(bores[p[0]], 1)
 	}
-	if len(a.pairs) >= 3 {
-		a.pairInv, a.pairOK = m.inverse(defaultMaxCondition)
+	if len(pairs) >= 3 {
+		inv, ok = m.inverse(defaultMaxCondition)
 	}
-	return a, nil
+	return pairs, inv, ok
+}
+
+// OppositePairsPossible reports whether cosine sensors of these nominal
+// boresights (unit, body axes) can give OppositePairs an estimate at all:
+// at least three opposed pairs with axes that are not coplanar, as Array
+// finds them.
+func OppositePairsPossible(bores []r3.Vec) bool {
+	_, _, ok := pairsOf(bores)
+	return ok
 }
 
 // Len is the number of sensors.

@@ -284,8 +284,7 @@ func TestBodiesStepAllocatesNothing(t *testing.T) {
 	k := 0
 	if n := testing.AllocsPerRun(2000, func() {
 		sg := g.step(k%cfg.Steps(), alb, nil)
-		vw.at(&sg, alb, nil)
-		r.blind(&sg.bodies)
+		r.blind(&sg.bodies, vw.at(&sg, alb, nil))
 		k++
 	}); n != 0 {
 		t.Errorf("%v allocations per step", n)

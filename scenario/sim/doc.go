@@ -141,7 +141,11 @@
 // obstructions; and the steps with some of the Earth's disc inside the cone
 // (half-angle + asin(R/r)) and in front of the mounting plane while the
 // sub-satellite point is sunlit (r·ŝ > 0, the rule chosen for "lit Earth":
-// the Earth under the spacecraft is in daylight). A sensor with a blinding
+// the Earth under the spacecraft is in daylight), for a sensor with
+// obstructions beyond its mounting plane (a bus it looks along) with the
+// Earth's point deepest in the cone, the one nearest the boresight, clear
+// of them (the rule chosen for an extended Earth). A Moon or lit Earth so
+// hidden, or a Moon behind the mounting plane, does not blind. A sensor with a blinding
 // rule (sensor.Blindable, the digital kind) has its readings dropped at the
 // steps the rule names, before the estimators see them; the sun coverage
 // shares stay geometric.

@@ -294,6 +294,10 @@ type stepView struct {
 	// (sensor.Bodies.MoonInCone, LitEarthInCone; the Moon also clear of the
 	// body's obstructions).
 	moonIn, litEarthIn []bool
+	// moonHid, earthHid: the Moon in the cone but hidden (mounting plane or
+	// obstructions), the lit Earth in the cone but its point nearest the
+	// boresight behind an obstruction; the blinding rules see neither.
+	moonHid, earthHid []bool
 }
 
 // viewer fills the stepView of each step, once for all units of a task.
@@ -327,7 +331,7 @@ type viewer struct {
 func newViewer(cfg *Config, arr *sensor.Array) *viewer {
 	n := arr.Len()
 	w := &viewer{hide: make([]hider, n), face: make([]r3.Vec, n), inView: make([]int, n), moonInView: make([]int, n), litEarthInView: make([]int, n),
-		v: stepView{sees: make([]bool, n), moonIn: make([]bool, n), litEarthIn: make([]bool, n)}}
+		v: stepView{sees: make([]bool, n), moonIn: make([]bool, n), litEarthIn: make([]bool, n), moonHid: make([]bool, n), earthHid: make([]bool, n)}}
 	if cfg.Blocked != nil {
 		w.v.sunBlocked = make([]bool, n)
 	}
@@ -424,6 +428,7 @@ func (w *viewer) newViews(m int) []stepView {
 	n := len(w.cone)
 	vs := make([]stepView, m)
 	sees, moonIn, litEarthIn := make([]bool, m*n), make([]bool, m*n), make([]bool, m*n)
+	moonHid, earthHid := make([]bool, m*n), make([]bool, m*n)
 	var blocked []bool
 	if w.v.sunBlocked != nil {
 		blocked = make([]bool, m*n)
@@ -449,7 +454,7 @@ func (w *viewer) newViews(m int) []stepView {
 	}
 	for j := range vs {
 		vs[j] = stepView{sunBlocked: cut(blocked, j), albSeen: cutAlb(albSeen, j), predSeen: cutAlb(predSeen, j),
-			sees: cut(sees, j), moonIn: cut(moonIn, j), litEarthIn: cut(litEarthIn, j)}
+			sees: cut(sees, j), moonIn: cut(moonIn, j), litEarthIn: cut(litEarthIn, j), moonHid: cut(moonHid, j), earthHid: cut(earthHid, j)}
 	}
 	return vs
 }
@@ -464,15 +469,18 @@ func (w *viewer) bodiesInCones(v *stepView, b *sensor.Bodies) {
 	moonN, earthN := w.moonInView[:len(w.cone)], w.litEarthInView[:len(w.cone)]
 	// A hidden Moon or an unlit Earth is in no cone: its comparisons need
 	// not be made (each flag is a conjunction that starts with it).
+	moonHid, earthHid := v.moonHid[:len(w.cone)], v.earthHid[:len(w.cone)]
 	if b.MoonHidden {
 		clear(moonIn)
+		clear(moonHid)
 	} else {
 		moonCut := -b.MoonSin
 		for i := range w.cone {
 			c := &w.cone[i]
-			in := r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin && r3.Dot(b.MoonDir, face[i]) > moonCut &&
-				!hide[i].hidden(b.MoonDir)
-			moonIn[i] = in
+			cone := r3.Dot(c.Axis, b.MoonDir) > c.Cos*b.MoonCos-c.Sin*b.MoonSin
+			hid := cone && hide[i].hidden(b.MoonDir)
+			in := cone && r3.Dot(b.MoonDir, face[i]) > moonCut && !hid
+			moonIn[i], moonHid[i] = in, hid
 			if in {
 				moonN[i]++
 			}
@@ -480,17 +488,39 @@ func (w *viewer) bodiesInCones(v *stepView, b *sensor.Bodies) {
 	}
 	if !b.EarthLit {
 		clear(earthIn)
+		clear(earthHid)
 		return
 	}
 	earthCut := -b.EarthSin
 	for i := range w.cone {
 		c := &w.cone[i]
 		in := r3.Dot(c.Axis, b.NadirDir) > c.Cos*b.EarthCos-c.Sin*b.EarthSin && r3.Dot(b.NadirDir, face[i]) > earthCut
-		earthIn[i] = in
+		// Past the body's obstructions (a bus the sensor looks along): the
+		// Earth's point deepest in the cone, the one nearest the boresight,
+		// is the test (the rule chosen for an extended Earth).
+		hid := in && hide[i].obstacles() && hide[i].obstructed(nearestOnDisc(c.Axis, b.NadirDir, b.EarthSin, b.EarthCos))
+		in = in && !hid
+		earthIn[i], earthHid[i] = in, hid
 		if in {
 			earthN[i]++
 		}
 	}
+}
+
+// nearestOnDisc is the direction of the disc of centre n and angular
+// radius ρ (sin, cos) nearest the unit axis: the axis itself when it points
+// into the disc, else n turned toward the axis by ρ.
+func nearestOnDisc(axis, n r3.Vec, sinR, cosR float64) r3.Vec {
+	c := r3.Dot(axis, n)
+	if c >= cosR {
+		return axis
+	}
+	t := r3.Sub(axis, r3.Scale(c, n))
+	l := vecmath.Norm(t)
+	if l == 0 {
+		return n // the axis points away from the centre: any edge point is as near
+	}
+	return r3.Add(r3.Scale(cosR, n), r3.Scale(sinR/l, t))
 }
 
 // hider is one sensor's obstruction test (Config.Blocked[i]) as the step
@@ -523,6 +553,21 @@ func mayBlock(o *sky.Obstructed) bool {
 }
 
 // hidden is o.Hidden(d); false without o.
+// obstacles reports whether obstacles beyond the mounting plane may hide
+// directions (obstructed then traces them).
+func (h *hider) obstacles() bool { return h.o != nil && !h.faceOnly }
+
+// obstructed reports whether an obstacle (not the mounting plane) blocks
+// direction d.
+func (h *hider) obstructed(d r3.Vec) bool {
+	for _, ob := range h.o.Obstacles {
+		if ob.Blocks(h.o.Position, d) {
+			return true
+		}
+	}
+	return false
+}
+
 func (h *hider) hidden(d r3.Vec) bool {
 	if h.faceOnly {
 		return h.face != (r3.Vec{}) && !(r3.Dot(d, h.face) > sky.FacePlaneMargin)
@@ -731,7 +776,7 @@ func (r *reader) step(k int, g *stepGeom, v *stepView) {
 			readAll(r.readAlb, r.arr, g.sunBody, g.direct, v.albSeen, r.noise, v.sunBlocked)
 		}
 	}
-	r.blind(&g.bodies)
+	r.blind(&g.bodies, v)
 	if r.readCorr != nil {
 		r.subtractPrediction(v.predSeen)
 	}
@@ -762,9 +807,13 @@ func noAlbedo(alb []sensor.Albedo) bool {
 // blind drops the readings of the sensors their blinding rule invalidates
 // (the unit as drawn). The steps with the Moon and the lit Earth in each
 // nominal cone are the viewer's counts.
-func (r *reader) blind(b *sensor.Bodies) {
+func (r *reader) blind(b *sensor.Bodies, v *stepView) {
 	for j, i := range r.blinders {
-		if r.blindable[j].Blinded(*b) {
+		// A Moon or lit Earth the body hides from the sensor cannot blind it.
+		bb := *b
+		bb.MoonHidden = bb.MoonHidden || v.moonHid[i]
+		bb.EarthLit = bb.EarthLit && !v.earthHid[i]
+		if r.blindable[j].Blinded(bb) {
 			r.readNo[i], r.readAlb[i] = sensor.Reading{}, sensor.Reading{}
 			r.acc.blinded[i]++
 		}
